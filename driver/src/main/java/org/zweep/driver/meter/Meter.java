@@ -1,0 +1,64 @@
+package org.zweep.driver.meter;
+
+import java.util.List;
+import org.zweep.driver.impedance.Impedance;
+
+/**
+ * An impedance meter, as the runner and user scripts drive it.
+ *
+ * <p>Implementations talk to one instrument over one connection and are not required to be
+ * thread-safe beyond what they document: one thread drives a meter at a time. Every method may
+ * throw {@link org.zweep.driver.MeterException} (link broken, timeout, protocol error, or an error
+ * the meter reported) and blocks until the meter has answered or the operation timed out.
+ */
+public interface Meter extends AutoCloseable {
+
+    /** The meter's {@code *IDN?} identity. */
+    MeterIdentity identify();
+
+    /** Puts the meter into its reset state (bias off, default settings). */
+    void reset();
+
+    /** What the meter can do. */
+    MeterCapabilities capabilities();
+
+    /**
+     * Makes {@code setting} the meter's current setting, sending only what differs from the
+     * setting last applied through this object.
+     */
+    void apply(MeasurementSetting setting);
+
+    /** Triggers one measurement at the current setting and returns its reading. */
+    Reading measure();
+
+    /**
+     * Measures {@code settings} in order and returns one reading per setting. When the meter
+     * can sweep a list and the settings differ only in frequency (and, where declared, level or
+     * bias), the list is one trigger and one read; otherwise point by point.
+     */
+    List<Reading> measureList(List<MeasurementSetting> settings);
+
+    /** Tells the meter to acquire a fixture-correction standard now fitted to the fixture. */
+    void acquireCorrection(CorrectionStandard standard);
+
+    /** Tells the meter the known impedance of its load standard (used by {@link CorrectionStandard#LOAD}). */
+    void setLoadStandard(Impedance known);
+
+    /** Switches the meter's own fixture correction on or off. */
+    void setCorrectionEnabled(boolean enabled);
+
+    /** Switches DC bias off now. Safe to call at any time, also when bias is already off. */
+    void biasOff();
+
+    /**
+     * Safe shutdown: turns DC bias off first, then releases the connection. Never throws; a
+     * failure to turn bias off is reported through the returned flag's {@code false}.
+     *
+     * @return whether bias was confirmed off
+     */
+    boolean safeShutdown();
+
+    /** Same as {@link #safeShutdown()}. */
+    @Override
+    void close();
+}

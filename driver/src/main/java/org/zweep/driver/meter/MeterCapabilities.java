@@ -1,0 +1,35 @@
+package org.zweep.driver.meter;
+
+import java.util.Set;
+
+/**
+ * What a meter can do, as its dialect declares it.
+ *
+ * @param frequencyHz test frequencies in Hz
+ * @param voltageLevelVrms drive levels in V rms
+ * @param currentLevelArms drive levels in A rms
+ * @param biasVoltageV DC bias voltages in V
+ * @param biasCurrentA DC bias currents in A
+ * @param maxListPoints the most points one list sweep may hold; 0 when the meter cannot sweep a list
+ * @param corrections the fixture corrections the meter can acquire itself (may be empty)
+ * @param voltageRatio whether the meter can measure a voltage ratio (for transformer turns ratio)
+ */
+public record MeterCapabilities(
+        Range frequencyHz,
+        Range voltageLevelVrms,
+        Range currentLevelArms,
+        Range biasVoltageV,
+        Range biasCurrentA,
+        int maxListPoints,
+        Set<CorrectionStandard> corrections,
+        boolean voltageRatio) {
+
+    public MeterCapabilities {
+        corrections = Set.copyOf(corrections);
+    }
+
+    /** Whether a whole list of points can be measured with one trigger. */
+    public boolean listSweep() {
+        return maxListPoints > 0;
+    }
+}

@@ -1,0 +1,72 @@
+package org.zweep.runner.cli;
+
+import java.io.PrintWriter;
+import java.util.Arrays;
+import org.zweep.driver.InvalidInputException;
+import org.zweep.driver.MeterException;
+import picocli.CommandLine;
+
+/**
+ * Builds the {@code zweep} command line on given writers and runs it, mapping failures to exit
+ * codes and one-line messages. Tests call {@link #run} directly, without a terminal.
+ */
+public final class Cli {
+    private Cli() {
+    }
+
+    /**
+     * Runs {@code zweep args} writing to {@code out} and {@code err}.
+     *
+     * @return the exit code (see {@link ExitCode})
+     */
+    public static int run(String[] args, PrintWriter out, PrintWriter err) {
+        boolean debug = Arrays.asList(args).contains("--debug");
+        String[] rest = Arrays.stream(args).filter(a -> !a.equals("--debug")).toArray(String[]::new);
+        CommandLine cl = commandLine(out, err, debug);
+        int code = cl.execute(rest);
+        out.flush();
+        err.flush();
+        return code;
+    }
+
+    /** The configured picocli command line (exposed for completion-script generation and tests). */
+    static CommandLine commandLine(PrintWriter out, PrintWriter err, boolean debug) {
+        CommandLine cl = new CommandLine(new ZweepCommand());
+        cl.setOut(out);
+        cl.setErr(err);
+        cl.setCaseInsensitiveEnumValuesAllowed(true);
+        cl.setExitCodeExceptionMapper(Cli::exitCodeOf);
+        cl.setParameterExceptionHandler((ex, a) -> {
+            err.println("zweep: " + ex.getMessage());
+            CommandLine.UnmatchedArgumentException.printSuggestions(ex, err);
+            err.println("Try '" + ex.getCommandLine().getCommandSpec().qualifiedName() + " --help'.");
+            return ExitCode.USAGE;
+        });
+        cl.setExecutionExceptionHandler((ex, c, parseResult) -> {
+            err.println("zweep: " + oneLine(ex));
+            if (debug) {
+                ex.printStackTrace(err);
+            }
+            return exitCodeOf(ex);
+        });
+        return cl;
+    }
+
+    static int exitCodeOf(Throwable ex) {
+        if (ex instanceof InvalidInputException || ex instanceof CommandLine.ParameterException) {
+            return ExitCode.USAGE;
+        }
+        if (ex instanceof MeterException) {
+            return ExitCode.METER;
+        }
+        return ExitCode.METER;
+    }
+
+    private static String oneLine(Throwable ex) {
+        String m = ex.getMessage();
+        if (m == null || m.isBlank()) {
+            m = ex.getClass().getSimpleName();
+        }
+        return m.replace('\n', ' ').strip();
+    }
+}

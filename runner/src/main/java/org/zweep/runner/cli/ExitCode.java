@@ -1,0 +1,23 @@
+package org.zweep.runner.cli;
+
+/** The exit codes of every {@code zweep} subcommand. */
+public final class ExitCode {
+    /** Everything worked and every check passed. */
+    public static final int OK = 0;
+    /** The command ran but a check failed. */
+    public static final int CHECK_FAILED = 1;
+    /** Bad usage, a bad value or a file that does not validate. */
+    public static final int USAGE = 2;
+    /** The meter or the connection to it failed. */
+    public static final int METER = 3;
+
+    /** The exit-code list shown at the end of every {@code --help}. */
+    static final String HELP_LIST = "%nExit codes:%n"
+            + "  0  ok, every check passed%n"
+            + "  1  a check failed%n"
+            + "  2  usage or validation error%n"
+            + "  3  meter or connection failure%n";
+
+    private ExitCode() {
+    }
+}

@@ -1,0 +1,17 @@
+package org.zweep.runner.cli;
+
+import java.io.PrintWriter;
+import java.nio.charset.StandardCharsets;
+
+/** The {@code zweep} entry point: the only place that calls {@code System.exit}. */
+public final class Main {
+    private Main() {
+    }
+
+    /** Runs {@code zweep} with {@code args} and exits with its exit code. */
+    public static void main(String[] args) {
+        PrintWriter out = new PrintWriter(new java.io.OutputStreamWriter(System.out, StandardCharsets.UTF_8), true);
+        PrintWriter err = new PrintWriter(new java.io.OutputStreamWriter(System.err, StandardCharsets.UTF_8), true);
+        System.exit(Cli.run(args, out, err));
+    }
+}
