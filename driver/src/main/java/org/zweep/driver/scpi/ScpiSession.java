@@ -1,0 +1,35 @@
+package org.zweep.driver.scpi;
+
+import java.util.List;
+
+/**
+ * A SCPI conversation with one meter: what a meter implementation needs from the SCPI client.
+ *
+ * <p>Every method blocks until the meter has answered or the operation timed out, and may throw a
+ * {@link org.zweep.driver.MeterException}. Implementations hold one conversation at a time: calls
+ * from several threads are serialised, never interleaved.
+ */
+public interface ScpiSession extends AutoCloseable {
+
+    /** The address this session talks to, as the user wrote it (for messages). */
+    String address();
+
+    /** Sends one program message (the write terminator is added). */
+    void write(String message);
+
+    /** Sends a program message that ends in a query and returns the reply without its terminator. */
+    String query(String message);
+
+    /**
+     * Sends a query whose reply is an IEEE 488.2 arbitrary block (definite or indefinite length)
+     * and returns the block's payload bytes.
+     */
+    byte[] queryBlock(String message);
+
+    /** Reads {@code SYSTem:ERRor?} until it returns 0 and returns every entry read, oldest first. */
+    List<ScpiError> drainErrors();
+
+    /** Closes the connection; never throws. */
+    @Override
+    void close();
+}
