@@ -1,0 +1,31 @@
+package org.zweep.runner.plan;
+
+import java.time.Duration;
+import java.util.List;
+import org.zweep.driver.impedance.Impedance;
+import org.zweep.driver.meter.CorrectionStandard;
+
+/**
+ * How the fixture is connected and compensated.
+ *
+ * @param connection 2- or 4-terminal
+ * @param compensation none, meter-side or host-side
+ * @param standards the standards to acquire, in order (e.g. OPEN, SHORT or OPEN, SHORT, LOAD); empty with NONE
+ * @param loadStandard the load standard's known impedance (its frequency is ignored: R + jX held constant);
+ *     {@code null} when no LOAD is used
+ * @param reuseYoungerThan stored compensation data younger than this is reused instead of measured
+ *     again; {@link Duration#ZERO} means always measure
+ * @param store a folder to keep host-side compensation data in for reuse; {@code null} means the run folder
+ */
+public record FixturePlan(
+        Connection connection,
+        CompensationMode compensation,
+        List<CorrectionStandard> standards,
+        Impedance loadStandard,
+        Duration reuseYoungerThan,
+        java.nio.file.Path store) {
+
+    public FixturePlan {
+        standards = List.copyOf(standards);
+    }
+}
