@@ -144,7 +144,7 @@ class ConvertCommandTest {
         "convert -f 1kHz --r abc --x 1 | zweep: --r: \"abc\" is not a number; expected an impedance in Ω, e.g. "
                 + "4.7 kΩ, 4k7 or R47",
         "convert -f 1kHz --z 10 --theta 200 | zweep: --theta \"200\" is out of range: θ must be from -180 to 180°",
-        "convert -f 1kHz --cs 1u --d -0.1 | zweep: --d: \"-0.1\" is not a valid plain number: it must not be negative",
+        "convert -f 1kHz --cs 1u --d -0.1 | zweep: --d: \"-0.1\" is not a valid number: it must not be negative",
     })
     void badInputExitsTwoWithOneLine(String args, String message) {
         Run run = zweep(args.trim().split(" +"));
