@@ -1,9 +1,11 @@
 package org.zweep.simulator.bench;
 
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.Comparator;
 import java.util.EnumMap;
 import java.util.List;
+import java.util.Locale;
 import java.util.Map;
 import java.util.TreeMap;
 import java.util.function.BiFunction;
@@ -222,7 +224,7 @@ public final class MeterCorrection {
     }
 
     private static String name(Standard s) {
-        return s.name().toLowerCase(java.util.Locale.ROOT);
+        return s.name().toLowerCase(Locale.ROOT);
     }
 
     /** Values at ascending frequencies, linearly interpolated. */
@@ -249,7 +251,7 @@ public final class MeterCorrection {
             if (frequencyHz >= f[last]) {
                 return m.apply(f[last], v[last]);
             }
-            int i = java.util.Arrays.binarySearch(f, frequencyHz);
+            int i = Arrays.binarySearch(f, frequencyHz);
             if (i >= 0) {
                 return m.apply(f[i], v[i]);
             }
