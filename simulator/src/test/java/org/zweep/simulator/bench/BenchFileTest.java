@@ -31,7 +31,7 @@ class BenchFileTest {
                 PointResult r = b.measure(Requests.at(1e3));
                 assertTrue(Double.isFinite(r.real()) && !r.overload(), p.toString());
             }).count();
-            assertEquals(3, n);
+            assertTrue(n >= 3, "found " + n + " bench files");
         }
     }
 
