@@ -167,7 +167,9 @@ public final class DialectMeter implements Meter {
         requireOpen();
         if (!dialect.capabilities().corrections().contains(standard)) {
             throw new InvalidInputException("correction " + standard + ": " + meterName()
-                    + " cannot acquire this standard (it acquires " + dialect.capabilities().corrections() + ")");
+                    + " cannot acquire this standard (it acquires " + dialect.capabilities().corrections().stream()
+                    .sorted().map(c -> c.name().toLowerCase(java.util.Locale.ROOT)).collect(Collectors.joining(", "))
+                    + ")");
         }
         if (resync && current != null) {
             apply(current);
@@ -212,6 +214,10 @@ public final class DialectMeter implements Meter {
         send(List.of(render(Command.BIAS_OFF)), "switching DC bias off");
         known.biasVoltageOn = false;
         known.biasCurrentOn = false;
+        if (current != null && current.bias().on()) {
+            // the next reading must say what is true: no bias, until a setting turns it on again
+            current = current.withBias(new Bias(current.bias().mode(), current.bias().value(), false));
+        }
     }
 
     /**
@@ -338,6 +344,9 @@ public final class DialectMeter implements Meter {
                 next.biasCurrentOn = true;
             }
         }
+        if (list) {
+            forgetListed(next, s.drive().mode());
+        }
         send(units, what);
         known = next;
         setupDone = true;
@@ -347,29 +356,33 @@ public final class DialectMeter implements Meter {
             boolean voltageBiasOn, boolean currentBiasOn) {
         add(units, dialect.command(Command.LIST_FREQUENCY).orElseThrow().render(
                 Map.of("frequencies", sweep.stream().map(MeasurementSetting::frequencyHz).toList())));
-        next.frequencyHz = null;
         List<Double> levels = sweep.stream().map(x -> x.drive().levelRms()).toList();
         List<Double> biases = sweep.stream().map(x -> x.bias().value()).toList();
         Command levelList = sweep.get(0).drive().mode() == SourceMode.VOLTAGE
                 ? Command.LIST_VOLTAGE : Command.LIST_CURRENT;
-        dialect.command(levelList).ifPresent(t -> {
-            add(units, t.render(Map.of("levels", levels)));
-            next.drive = null;
-        });
+        dialect.command(levelList).ifPresent(t -> add(units, t.render(Map.of("levels", levels))));
         if (voltageBiasOn) {
-            dialect.command(Command.LIST_BIAS_VOLTAGE).ifPresent(t -> {
-                add(units, t.render(Map.of("biases", biases)));
-                next.biasVoltageV = null;
-            });
+            dialect.command(Command.LIST_BIAS_VOLTAGE).ifPresent(t -> add(units, t.render(Map.of("biases", biases))));
         }
         if (currentBiasOn) {
-            dialect.command(Command.LIST_BIAS_CURRENT).ifPresent(t -> {
-                add(units, t.render(Map.of("biases", biases)));
-                next.biasCurrentA = null;
-            });
+            dialect.command(Command.LIST_BIAS_CURRENT).ifPresent(t -> add(units, t.render(Map.of("biases", biases))));
         }
         dialect.command(Command.LIST_MODE_ON).ifPresent(t -> add(units, t.render()));
         next.listMode = true;
+    }
+
+    /** After a sweep the meter's single-point values of what was listed are not trusted. */
+    private void forgetListed(KnownState next, SourceMode driveMode) {
+        next.frequencyHz = null;
+        if (dialect.has(driveMode == SourceMode.VOLTAGE ? Command.LIST_VOLTAGE : Command.LIST_CURRENT)) {
+            next.drive = null;
+        }
+        if (dialect.has(Command.LIST_BIAS_VOLTAGE)) {
+            next.biasVoltageV = null;
+        }
+        if (dialect.has(Command.LIST_BIAS_CURRENT)) {
+            next.biasCurrentA = null;
+        }
     }
 
     /** Whether {@code settings} can be one list sweep: they differ only in what the dialect can list. */
