@@ -119,7 +119,14 @@ public final class DialectMeter implements Meter {
     public void apply(MeasurementSetting setting) {
         requireOpen();
         validate(setting);
-        configure(setting, List.of(), "applying " + describe(setting));
+        try {
+            configure(setting, List.of(), "applying " + describe(setting));
+        } catch (RuntimeException e) {
+            // a later measure() retries this setting, never silently measures at an older one
+            current = setting;
+            resync = true;
+            throw e;
+        }
         current = setting;
         resync = false;
     }
