@@ -624,7 +624,6 @@ public final class DialectMeter implements Meter {
             within("DC bias", s.bias().value(), caps.biasCurrentA(), "A");
         }
         within("averaging count", s.averagingCount(), dialect.averagingCount(), "");
-        supported("integration time", Command.INTEGRATION_TIME);
         within("integration time", s.integrationTimeS(), dialect.integrationTimeS(), "s");
         if (!s.range().auto()) {
             supported("held impedance range", Command.RANGE_HOLD);

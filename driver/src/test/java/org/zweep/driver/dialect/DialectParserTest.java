@@ -123,6 +123,7 @@ class DialectParserTest {
                 [capabilities]
                 frequency = 10 .. 1e6 Hz
                 voltage-level = 0.01 .. 1 V
+                integration-time = 0.01 .. 1 s
                 [commands]
                 identify = *IDN?
                 reset = *RST
@@ -130,6 +131,7 @@ class DialectParserTest {
                 bias-off = :BIAS OFF
                 frequency = :FREQ {frequency}
                 drive-voltage = :VOLT {level}
+                integration-time = :APER {seconds}
                 """;
 
         Dialect d = Dialect.parse("hashes.dialect", text);
