@@ -6,6 +6,7 @@ import java.nio.ByteOrder;
 import java.time.Clock;
 import java.time.Instant;
 import java.util.ArrayList;
+import java.util.EnumMap;
 import java.util.List;
 import java.util.Map;
 import java.util.Optional;
@@ -216,11 +217,11 @@ public final class DialectMeter implements Meter {
     @Override
     public void biasOff() {
         requireOpen();
-        known.biasVoltageOn = null;
-        known.biasCurrentOn = null;
+        known.biasOn.clear();
         send(List.of(render(Command.BIAS_OFF)), "switching DC bias off");
-        known.biasVoltageOn = false;
-        known.biasCurrentOn = false;
+        for (SourceMode mode : SourceMode.values()) {
+            known.biasOn.put(mode, false);
+        }
         if (current != null && current.bias().on()) {
             // the next reading must say what is true: no bias, until a setting turns it on again
             current = current.withBias(new Bias(current.bias().mode(), current.bias().value(), false));
@@ -287,15 +288,12 @@ public final class DialectMeter implements Meter {
         if (!setupDone) {
             dialect.command(Command.SETUP).ifPresent(t -> units.add(t.render()));
         }
-        boolean voltageBiasOn = s.bias().on() && s.bias().mode() == SourceMode.VOLTAGE;
-        boolean currentBiasOn = s.bias().on() && s.bias().mode() == SourceMode.CURRENT;
-        if (!voltageBiasOn && dialect.has(Command.BIAS_VOLTAGE_OFF) && !Boolean.FALSE.equals(next.biasVoltageOn)) {
-            add(units, render(Command.BIAS_VOLTAGE_OFF));
-            next.biasVoltageOn = false;
-        }
-        if (!currentBiasOn && dialect.has(Command.BIAS_CURRENT_OFF) && !Boolean.FALSE.equals(next.biasCurrentOn)) {
-            add(units, render(Command.BIAS_CURRENT_OFF));
-            next.biasCurrentOn = false;
+        for (SourceMode mode : SourceMode.values()) {
+            Command off = BiasCommands.of(mode).off;
+            if (!biasOn(s, mode) && dialect.has(off) && !Boolean.FALSE.equals(next.biasOn.get(mode))) {
+                add(units, render(off));
+                next.biasOn.put(mode, false);
+            }
         }
         if (!list && !Boolean.FALSE.equals(next.listMode)) {
             dialect.command(Command.LIST_MODE_OFF).ifPresent(t -> add(units, t.render()));
@@ -329,26 +327,18 @@ public final class DialectMeter implements Meter {
             next.range = s.range();
         }
         if (list) {
-            addListUnits(units, sweep, next, voltageBiasOn, currentBiasOn);
+            addListUnits(units, sweep, next);
         }
-        if (voltageBiasOn) {
-            if (!same(next.biasVoltageV, s.bias().value())) {
-                add(units, render(Command.BIAS_VOLTAGE, "bias", s.bias().value()));
-                next.biasVoltageV = s.bias().value();
+        if (s.bias().on()) {
+            SourceMode mode = s.bias().mode();
+            BiasCommands c = BiasCommands.of(mode);
+            if (!same(next.biasValue.get(mode), s.bias().value())) {
+                add(units, render(c.value, "bias", s.bias().value()));
+                next.biasValue.put(mode, s.bias().value());
             }
-            if (!Boolean.TRUE.equals(next.biasVoltageOn)) {
-                add(units, render(Command.BIAS_VOLTAGE_ON));
-                next.biasVoltageOn = true;
-            }
-        }
-        if (currentBiasOn) {
-            if (!same(next.biasCurrentA, s.bias().value())) {
-                add(units, render(Command.BIAS_CURRENT, "bias", s.bias().value()));
-                next.biasCurrentA = s.bias().value();
-            }
-            if (!Boolean.TRUE.equals(next.biasCurrentOn)) {
-                add(units, render(Command.BIAS_CURRENT_ON));
-                next.biasCurrentOn = true;
+            if (!Boolean.TRUE.equals(next.biasOn.get(mode))) {
+                add(units, render(c.on));
+                next.biasOn.put(mode, true);
             }
         }
         if (list) {
@@ -359,8 +349,7 @@ public final class DialectMeter implements Meter {
         setupDone = true;
     }
 
-    private void addListUnits(List<String> units, List<MeasurementSetting> sweep, KnownState next,
-            boolean voltageBiasOn, boolean currentBiasOn) {
+    private void addListUnits(List<String> units, List<MeasurementSetting> sweep, KnownState next) {
         add(units, dialect.command(Command.LIST_FREQUENCY).orElseThrow().render(
                 Map.of("frequencies", sweep.stream().map(MeasurementSetting::frequencyHz).toList())));
         List<Double> levels = sweep.stream().map(x -> x.drive().levelRms()).toList();
@@ -368,11 +357,10 @@ public final class DialectMeter implements Meter {
         Command levelList = sweep.get(0).drive().mode() == SourceMode.VOLTAGE
                 ? Command.LIST_VOLTAGE : Command.LIST_CURRENT;
         dialect.command(levelList).ifPresent(t -> add(units, t.render(Map.of("levels", levels))));
-        if (voltageBiasOn) {
-            dialect.command(Command.LIST_BIAS_VOLTAGE).ifPresent(t -> add(units, t.render(Map.of("biases", biases))));
-        }
-        if (currentBiasOn) {
-            dialect.command(Command.LIST_BIAS_CURRENT).ifPresent(t -> add(units, t.render(Map.of("biases", biases))));
+        Bias bias = sweep.get(0).bias();
+        if (bias.on()) {
+            dialect.command(BiasCommands.of(bias.mode()).list)
+                    .ifPresent(t -> add(units, t.render(Map.of("biases", biases))));
         }
         dialect.command(Command.LIST_MODE_ON).ifPresent(t -> add(units, t.render()));
         next.listMode = true;
@@ -384,11 +372,10 @@ public final class DialectMeter implements Meter {
         if (dialect.has(driveMode == SourceMode.VOLTAGE ? Command.LIST_VOLTAGE : Command.LIST_CURRENT)) {
             next.drive = null;
         }
-        if (dialect.has(Command.LIST_BIAS_VOLTAGE)) {
-            next.biasVoltageV = null;
-        }
-        if (dialect.has(Command.LIST_BIAS_CURRENT)) {
-            next.biasCurrentA = null;
+        for (SourceMode mode : SourceMode.values()) {
+            if (dialect.has(BiasCommands.of(mode).list)) {
+                next.biasValue.remove(mode);
+            }
         }
     }
 
@@ -408,12 +395,26 @@ public final class DialectMeter implements Meter {
         if (dialect.has(levelList)) {
             k = k.withDrive(new Drive(s.drive().mode(), 0));
         }
-        Command biasList = s.bias().mode() == SourceMode.VOLTAGE
-                ? Command.LIST_BIAS_VOLTAGE : Command.LIST_BIAS_CURRENT;
-        if (!s.bias().on() || dialect.has(biasList)) {
+        if (!s.bias().on() || dialect.has(BiasCommands.of(s.bias().mode()).list)) {
             k = k.withBias(new Bias(s.bias().mode(), 0, s.bias().on()));
         }
         return k;
+    }
+
+    private static boolean biasOn(MeasurementSetting s, SourceMode mode) {
+        return s.bias().on() && s.bias().mode() == mode;
+    }
+
+    /** The dialect commands of one bias source. */
+    private record BiasCommands(Command value, Command on, Command off, Command list) {
+        static final BiasCommands VOLTAGE = new BiasCommands(Command.BIAS_VOLTAGE, Command.BIAS_VOLTAGE_ON,
+                Command.BIAS_VOLTAGE_OFF, Command.LIST_BIAS_VOLTAGE);
+        static final BiasCommands CURRENT = new BiasCommands(Command.BIAS_CURRENT, Command.BIAS_CURRENT_ON,
+                Command.BIAS_CURRENT_OFF, Command.LIST_BIAS_CURRENT);
+
+        static BiasCommands of(SourceMode mode) {
+            return mode == SourceMode.VOLTAGE ? VOLTAGE : CURRENT;
+        }
     }
 
     private static void add(List<String> units, String unit) {
@@ -683,10 +684,8 @@ public final class DialectMeter implements Meter {
         MeasuredQuantity quantity;
         Double frequencyHz;
         Drive drive;
-        Double biasVoltageV;
-        Double biasCurrentA;
-        Boolean biasVoltageOn;
-        Boolean biasCurrentOn;
+        final Map<SourceMode, Double> biasValue = new EnumMap<>(SourceMode.class);
+        final Map<SourceMode, Boolean> biasOn = new EnumMap<>(SourceMode.class);
         Integer averaging;
         Double integrationTimeS;
         ImpedanceRange range;
@@ -697,10 +696,8 @@ public final class DialectMeter implements Meter {
             k.quantity = quantity;
             k.frequencyHz = frequencyHz;
             k.drive = drive;
-            k.biasVoltageV = biasVoltageV;
-            k.biasCurrentA = biasCurrentA;
-            k.biasVoltageOn = biasVoltageOn;
-            k.biasCurrentOn = biasCurrentOn;
+            k.biasValue.putAll(biasValue);
+            k.biasOn.putAll(biasOn);
             k.averaging = averaging;
             k.integrationTimeS = integrationTimeS;
             k.range = range;

@@ -6,7 +6,6 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 import static org.junit.jupiter.api.Assertions.fail;
 
 import java.io.IOException;
-import java.net.URISyntaxException;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
@@ -55,11 +54,8 @@ class DialectConversationTest {
     private record Call(int line, String operation, List<String> args, int exchangesEnd, List<String> results) {
     }
 
-    static Stream<Path> conversations() throws IOException, URISyntaxException {
-        Path dir = Path.of(DialectConversationTest.class.getResource("conversations").toURI());
-        try (Stream<Path> files = Files.list(dir)) {
-            return files.filter(p -> p.toString().endsWith(".conv")).sorted().toList().stream();
-        }
+    static Stream<Path> conversations() {
+        return TestResources.files("conversations", ".conv");
     }
 
     @ParameterizedTest(name = "{0}")

@@ -8,6 +8,7 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 import java.util.ArrayList;
 import java.util.Collections;
 import java.util.List;
+import java.util.function.UnaryOperator;
 import java.util.stream.IntStream;
 import org.junit.jupiter.api.Test;
 import org.zweep.driver.InvalidInputException;
@@ -23,62 +24,31 @@ class DialectMeterTest {
     private static final String BIAS_OFF = ":SOUR:VOLT:OFFS:STAT OFF;:SOUR:CURR:OFFS:STAT OFF";
 
     /**
-     * A fake meter for the standard dialect that accepts every command: the error query answers
-     * 0, and READ? answers one R,X pair per point of the last list (or one pair in CW mode).
-     * Every query is one round trip.
+     * Answers like a meter on the standard dialect that accepts every command: the error query
+     * answers 0, and READ? one R,X pair per point of the last list (or one pair in CW mode).
      */
-    static final class AcceptingMeter implements ScpiSession {
-        final List<String> messages = new ArrayList<>();
-        int roundTrips;
-        private int listPoints;
-        private boolean listMode;
-
-        @Override
-        public String address() {
-            return "fake:accepting";
-        }
-
-        @Override
-        public void write(String message) {
-            messages.add(message);
-        }
-
-        @Override
-        public String query(String message) {
-            messages.add(message);
-            roundTrips++;
+    static UnaryOperator<String> acceptingStandardMeter() {
+        int[] listPoints = {0};
+        boolean[] listMode = {false};
+        return message -> {
             for (String unit : message.split(";")) {
                 if (unit.startsWith(":SOUR:LIST:FREQ ")) {
-                    listPoints = unit.split(",").length;
+                    listPoints[0] = unit.split(",").length;
                 } else if (unit.equals(":SOUR:FREQ:MODE LIST")) {
-                    listMode = true;
+                    listMode[0] = true;
                 } else if (unit.equals(":SOUR:FREQ:MODE CW")) {
-                    listMode = false;
+                    listMode[0] = false;
                 }
             }
             if (message.startsWith(":READ?")) {
-                int n = listMode ? listPoints : 1;
+                int n = listMode[0] ? listPoints[0] : 1;
                 return String.join(",", Collections.nCopies(n, "+1.0E+01,-2.0E+01")) + ";0,\"No error\"";
             }
             return "0,\"No error\"";
-        }
-
-        @Override
-        public byte[] queryBlock(String message) {
-            throw new AssertionError("the standard dialect reads ASCII");
-        }
-
-        @Override
-        public List<ScpiError> drainErrors() {
-            throw new AssertionError("not used by DialectMeter");
-        }
-
-        @Override
-        public void close() {
-        }
+        };
     }
 
-    private final AcceptingMeter fake = new AcceptingMeter();
+    private final AnsweringMeter fake = new AnsweringMeter(acceptingStandardMeter());
     private final DialectMeter meter = DialectMeter.open(fake, "standard");
 
     @Test
@@ -88,14 +58,14 @@ class DialectMeterTest {
         meter.measure();
 
         for (double f : new double[] {200, 500, 1000, 2000, 5000, 1e4, 2e4, 5e4, 1e5, 2e5}) {
-            int before = fake.roundTrips;
-            int firstMessage = fake.messages.size();
+            int before = fake.roundTrips();
+            int firstMessage = fake.messages().size();
             meter.apply(s.withFrequencyHz(f));
             Reading r = meter.measure();
 
-            assertEquals(2, fake.roundTrips - before, "round trips at " + f + " Hz");
+            assertEquals(2, fake.roundTrips() - before, "round trips at " + f + " Hz");
             assertEquals(List.of(":SOUR:FREQ " + Nr3.format(f, 0) + ";:SYST:ERR?", ":READ?;:SYST:ERR?"),
-                    fake.messages.subList(firstMessage, fake.messages.size()));
+                    fake.messages().subList(firstMessage, fake.messages().size()));
             assertEquals(f, r.setting().frequencyHz());
         }
     }
@@ -104,12 +74,12 @@ class DialectMeterTest {
     void repeatingTheSameSettingSendsNothing() {
         MeasurementSetting s = MeasurementSetting.at(1000).withBias(Bias.voltage(2));
         meter.apply(s);
-        int before = fake.messages.size();
+        int before = fake.messages().size();
 
         meter.apply(s);
         meter.measure();
 
-        assertEquals(List.of(":READ?;:SYST:ERR?"), fake.messages.subList(before, fake.messages.size()));
+        assertEquals(List.of(":READ?;:SYST:ERR?"), fake.messages().subList(before, fake.messages().size()));
     }
 
     @Test
@@ -121,8 +91,8 @@ class DialectMeterTest {
         List<Reading> readings = meter.measureList(sweep);
 
         assertEquals(50, readings.size());
-        assertEquals(2, fake.roundTrips);
-        assertEquals(1, fake.messages.stream().filter(m -> m.contains(":READ?")).count());
+        assertEquals(2, fake.roundTrips());
+        assertEquals(1, fake.messages().stream().filter(m -> m.contains(":READ?")).count());
         assertEquals(sweep.get(49), readings.get(49).setting());
     }
 
@@ -136,9 +106,9 @@ class DialectMeterTest {
 
         assertEquals(450, readings.size());
         // the standard dialect declares list-points = 201: 201 + 201 + 48
-        assertEquals(List.of(201, 201, 48), fake.messages.stream().filter(m -> m.contains(":SOUR:LIST:FREQ "))
+        assertEquals(List.of(201, 201, 48), fake.messages().stream().filter(m -> m.contains(":SOUR:LIST:FREQ "))
                 .map(DialectMeterTest::listLength).toList());
-        assertEquals(6, fake.roundTrips);
+        assertEquals(6, fake.roundTrips());
     }
 
     private static int listLength(String message) {
@@ -157,8 +127,8 @@ class DialectMeterTest {
         List<Reading> readings = meter.measureList(List.of(s, s.withAveragingCount(4), s.withFrequencyHz(2000)));
 
         assertEquals(3, readings.size());
-        assertTrue(fake.messages.stream().noneMatch(m -> m.contains(":SOUR:LIST:")));
-        assertEquals(6, fake.roundTrips);
+        assertTrue(fake.messages().stream().noneMatch(m -> m.contains(":SOUR:LIST:")));
+        assertEquals(6, fake.roundTrips());
     }
 
     @Test
@@ -169,7 +139,7 @@ class DialectMeterTest {
 
         // standard.dialect: bias-voltage = -10 .. 10 V
         assertEquals("DC bias 10.5 V is above the maximum 10 V of the meter (dialect standard)", e.getMessage());
-        assertEquals(List.of(), fake.messages);
+        assertEquals(List.of(), fake.messages());
     }
 
     @Test
@@ -181,17 +151,26 @@ class DialectMeterTest {
 
         // standard.dialect: frequency = 10 .. 10e6 Hz
         assertEquals("frequency 5 Hz is below the minimum 10 Hz of the meter (dialect standard)", e.getMessage());
-        assertEquals(List.of(), fake.messages);
+        assertEquals(List.of(), fake.messages());
     }
 
     /** A fake meter answering each query with {@code answer}; records every call, close included. */
     static final class AnsweringMeter implements ScpiSession {
         final List<String> calls = new ArrayList<>();
-        java.util.function.UnaryOperator<String> answer;
+        UnaryOperator<String> answer;
         RuntimeException closeFailure;
 
-        AnsweringMeter(java.util.function.UnaryOperator<String> answer) {
+        AnsweringMeter(UnaryOperator<String> answer) {
             this.answer = answer;
+        }
+
+        /** Every message sent, written or queried. */
+        List<String> messages() {
+            return calls.stream().filter(c -> !c.equals("close")).map(c -> c.substring(c.indexOf(' ') + 1)).toList();
+        }
+
+        int roundTrips() {
+            return (int) calls.stream().filter(c -> c.startsWith("query ")).count();
         }
 
         @Override
@@ -286,6 +265,6 @@ class DialectMeterTest {
         Reading r = meter.measure();
 
         assertFalse(r.setting().bias().on());
-        assertEquals(BIAS_OFF + ";:SYST:ERR?", fake.messages.get(fake.messages.size() - 2));
+        assertEquals(BIAS_OFF + ";:SYST:ERR?", fake.messages().get(fake.messages().size() - 2));
     }
 }

@@ -5,7 +5,6 @@ import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.io.IOException;
-import java.net.URISyntaxException;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
@@ -24,11 +23,8 @@ import org.zweep.driver.meter.Range;
 class DialectParserTest {
 
     /** Each malformed file states the exact one-line error it must give on its first line. */
-    static Stream<Path> malformedFiles() throws IOException, URISyntaxException {
-        Path dir = Path.of(DialectParserTest.class.getResource("malformed").toURI());
-        try (Stream<Path> files = Files.list(dir)) {
-            return files.filter(p -> p.toString().endsWith(".dialect")).sorted().toList().stream();
-        }
+    static Stream<Path> malformedFiles() {
+        return TestResources.files("malformed", ".dialect");
     }
 
     @ParameterizedTest(name = "{0}")
