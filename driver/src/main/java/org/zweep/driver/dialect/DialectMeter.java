@@ -12,7 +12,6 @@ import java.util.Map;
 import java.util.Optional;
 import java.util.stream.Collectors;
 import org.zweep.driver.InvalidInputException;
-import org.zweep.driver.MeterErrorException;
 import org.zweep.driver.MeterException;
 import org.zweep.driver.impedance.Impedance;
 import org.zweep.driver.meter.Bias;
@@ -28,6 +27,7 @@ import org.zweep.driver.meter.Range;
 import org.zweep.driver.meter.Reading;
 import org.zweep.driver.meter.ReadingStatus;
 import org.zweep.driver.meter.SourceMode;
+import org.zweep.driver.scpi.MeterErrorException;
 import org.zweep.driver.scpi.ScpiError;
 import org.zweep.driver.scpi.ScpiSession;
 

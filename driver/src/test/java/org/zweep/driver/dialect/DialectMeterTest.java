@@ -12,11 +12,11 @@ import java.util.function.UnaryOperator;
 import java.util.stream.IntStream;
 import org.junit.jupiter.api.Test;
 import org.zweep.driver.InvalidInputException;
-import org.zweep.driver.MeterErrorException;
 import org.zweep.driver.MeterException;
 import org.zweep.driver.meter.Bias;
 import org.zweep.driver.meter.MeasurementSetting;
 import org.zweep.driver.meter.Reading;
+import org.zweep.driver.scpi.MeterErrorException;
 import org.zweep.driver.scpi.ScpiError;
 import org.zweep.driver.scpi.ScpiSession;
 
