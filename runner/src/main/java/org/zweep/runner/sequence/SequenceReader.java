@@ -348,7 +348,7 @@ final class SequenceReader {
     }
 
     private StepSpec step(YamlNode node, Part part, SafetyLimits safety, Map<String, YamlNode> names) {
-        YamlNode.YamlMap m = node.map("a step", STEP_KEYS);
+        YamlNode.YamlMap m = node.map(node.peek("name").map(n -> "step '" + n + "'").orElse("a step"), STEP_KEYS);
         YamlNode nameNode = m.required("name");
         String name = name(nameNode, "a step name");
         YamlNode first = names.putIfAbsent(name, nameNode);
@@ -503,7 +503,7 @@ final class SequenceReader {
     }
 
     private CheckLimit check(YamlNode node, Map<String, StepSpec> steps, Part part, Map<String, YamlNode> names) {
-        YamlNode.YamlMap m = node.map("a check", CHECK_KEYS);
+        YamlNode.YamlMap m = node.map(node.peek("name").map(n -> "check '" + n + "'").orElse("a check"), CHECK_KEYS);
         YamlNode nameNode = m.required("name");
         String name = name(nameNode, "a check name");
         YamlNode first = names.putIfAbsent(name, nameNode);

@@ -97,6 +97,19 @@ final class YamlNode {
         return new YamlMap(this, what, values);
     }
 
+    /** The text of a scalar value under {@code key} when this is a mapping, without any checks (for labels). */
+    Optional<String> peek(String key) {
+        if (node instanceof MappingNode m) {
+            for (NodeTuple t : m.getValue()) {
+                if (t.getKeyNode() instanceof ScalarNode k && k.getValue().equals(key)
+                        && t.getValueNode() instanceof ScalarNode v && !v.getValue().isBlank()) {
+                    return Optional.of(v.getValue().strip());
+                }
+            }
+        }
+        return Optional.empty();
+    }
+
     String shape() {
         if (node instanceof ScalarNode s) {
             return s.getValue().isEmpty() ? "nothing" : "'" + s.getValue() + "'";
