@@ -59,7 +59,11 @@ public final class SequenceLoader {
             new Compose(settings).composeAllFromString(text).forEach(documents::add);
         } catch (MarkedYamlEngineException e) {
             String where = YamlNode.where(file, e.getProblemMark().isPresent() ? e.getProblemMark() : e.getContextMark());
-            throw new InvalidInputException(where + ": YAML syntax: " + e.getProblem(), e);
+            String context = e.getContext() != null && e.getContextMark().isPresent() && e.getProblemMark().isPresent()
+                    ? " (" + e.getContext() + " at line " + (e.getContextMark().get().getLine() + 1) + ", column "
+                            + (e.getContextMark().get().getColumn() + 1) + ")"
+                    : "";
+            throw new InvalidInputException(where + ": YAML syntax: " + e.getProblem() + context, e);
         } catch (YamlEngineException e) {
             throw new InvalidInputException(file + ": YAML syntax: " + e.getMessage(), e);
         }

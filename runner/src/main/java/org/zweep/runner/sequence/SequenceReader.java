@@ -571,7 +571,13 @@ final class SequenceReader {
             if (!m.has("min") && !m.has("max")) {
                 throw node.error("missing key 'min', 'max' or 'within' in " + check);
             }
-            String kind = unit.isEmpty() ? "a number" : "a value";
+            String kind = switch (unit) {
+                case "F" -> "a capacitance";
+                case "H" -> "an inductance";
+                case "Ω" -> "a resistance or reactance";
+                case "Hz" -> "a frequency";
+                default -> "a number";
+            };
             if (m.has("min")) {
                 min = limitValue(m.required("min"), kind, unit);
             }

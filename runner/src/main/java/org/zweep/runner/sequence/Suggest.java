@@ -12,6 +12,9 @@ final class Suggest {
      * {@code word}, or the empty string when none is close.
      */
     static String didYouMean(String word, Collection<String> candidates) {
+        if (word.length() < 3) {
+            return "";
+        }
         String best = null;
         int bestDistance = Integer.MAX_VALUE;
         for (String c : candidates) {

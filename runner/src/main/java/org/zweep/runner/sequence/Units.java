@@ -40,9 +40,17 @@ final class Units {
         String text = node.text(kind);
         Value v = tryParse(text, units);
         if (v == null || !Double.isFinite(v.si())) {
-            throw node.error("expected " + kind + " in " + String.join(" or ", units) + ", got '" + text + "'");
+            throw node.error("expected " + kind + " " + describe(units) + ", got '" + text + "'");
         }
         return v;
+    }
+
+    private static String describe(List<String> units) {
+        List<String> named = units.stream().filter(u -> !u.isEmpty()).toList();
+        if (named.isEmpty()) {
+            return "(a plain number)";
+        }
+        return "in " + String.join(" or ", named) + (named.size() < units.size() ? " (or a plain number)" : "");
     }
 
     /** A plain number without unit (D, Q, a ratio). */

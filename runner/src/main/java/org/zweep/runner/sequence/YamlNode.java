@@ -82,6 +82,7 @@ final class YamlNode {
             throw error("expected " + what + " (a mapping), got " + shape());
         }
         Map<String, YamlNode> values = new LinkedHashMap<>();
+        Map<String, YamlNode> keys = new LinkedHashMap<>();
         for (NodeTuple t : m.getValue()) {
             YamlNode key = new YamlNode(t.getKeyNode(), file);
             String name = key.text("a key");
@@ -93,8 +94,9 @@ final class YamlNode {
                 throw key.error("duplicate key '" + name + "' in " + what);
             }
             values.put(name, new YamlNode(t.getValueNode(), file));
+            keys.put(name, key);
         }
-        return new YamlMap(this, what, values);
+        return new YamlMap(this, what, values, keys);
     }
 
     /** The text of a scalar value under {@code key} when this is a mapping, without any checks (for labels). */
@@ -123,7 +125,7 @@ final class YamlNode {
     }
 
     /** A mapping's entries, in file order, with the mapping's own position for missing keys. */
-    record YamlMap(YamlNode self, String what, Map<String, YamlNode> values) {
+    record YamlMap(YamlNode self, String what, Map<String, YamlNode> values, Map<String, YamlNode> keys) {
         /** The value of {@code key}; an error at the mapping's position when it is absent or empty. */
         YamlNode required(String key) {
             YamlNode v = values.get(key);
@@ -131,7 +133,7 @@ final class YamlNode {
                 throw self.error("missing key '" + key + "' in " + what);
             }
             if (v.isEmpty()) {
-                throw v.error("'" + key + "' has no value");
+                throw keys.get(key).error("'" + key + "' has no value");
             }
             return v;
         }
@@ -140,7 +142,7 @@ final class YamlNode {
         Optional<YamlNode> optional(String key) {
             YamlNode v = values.get(key);
             if (v != null && v.isEmpty()) {
-                throw v.error("'" + key + "' has no value");
+                throw keys.get(key).error("'" + key + "' has no value");
             }
             return Optional.ofNullable(v);
         }
