@@ -94,4 +94,19 @@ class ShippedSequencesTest {
         assertEquals(0.245, ratio.min(), 1e-15); // N2/N1 = 1/4, −2 %
         assertEquals(0.255, ratio.max(), 1e-15); // +2 %
     }
+
+    @Test
+    void readmeCompleteExampleLoadsAndMatchesTheShippedCapacitorSequence() throws IOException {
+        String readme = Files.readString(Path.of("..", "README.md"));
+        int section = readme.indexOf("#### A complete example");
+        int start = readme.indexOf("```yaml\n", section) + "```yaml\n".length();
+        String example = readme.substring(start, readme.indexOf("```", start));
+        // parsed as if it sat in sequences/, so that its bench path resolves
+        Plan fromReadme = SequenceLoader.parse(example, SEQUENCES.resolve("readme-example.yaml"));
+        Plan shipped = SequenceLoader.load(SEQUENCES.resolve("incoming-kp-c0805-104.yaml"));
+        assertEquals(shipped.points(), fromReadme.points());
+        assertEquals(shipped.checks(), fromReadme.checks());
+        assertEquals(shipped.safety(), fromReadme.safety());
+        assertEquals(shipped.fixture(), fromReadme.fixture());
+    }
 }
