@@ -337,13 +337,8 @@ final class SequenceReader {
     }
 
     private StepSpec step(YamlNode node, Part part, SafetyLimits safety, Map<String, YamlNode> names) {
-        YamlNode.YamlMap m = node.map(node.peek("name").map(n -> "step '" + n + "'").orElse("a step"), STEP_KEYS);
-        YamlNode nameNode = m.required("name");
-        String name = name(nameNode, "a step name");
-        YamlNode first = names.putIfAbsent(name, nameNode);
-        if (first != null) {
-            throw nameNode.error("duplicate step name '" + name + "' (first at " + first.where() + ")");
-        }
+        YamlNode.YamlMap m = named(node, "step", STEP_KEYS, names);
+        String name = m.values().get("name").text("");
         String step = "step '" + name + "'";
         String prompt = m.optional("prompt").map(p -> p.text("a prompt")).orElse("");
         boolean transformer = part.kind() == PartKind.TRANSFORMER;
@@ -419,6 +414,21 @@ final class SequenceReader {
         return spec;
     }
 
+    /**
+     * A step or check mapping with a valid {@code name} not seen before in {@code names} (which
+     * it joins); unknown keys are reported with the item's name when it has one.
+     */
+    private static YamlNode.YamlMap named(YamlNode node, String kind, List<String> keys, Map<String, YamlNode> names) {
+        YamlNode.YamlMap m = node.map(node.peek("name").map(n -> kind + " '" + n + "'").orElse("a " + kind), keys);
+        YamlNode nameNode = m.required("name");
+        String name = name(nameNode, "a " + kind + " name");
+        YamlNode first = names.putIfAbsent(name, nameNode);
+        if (first != null) {
+            throw nameNode.error("duplicate " + kind + " name '" + name + "' (first at " + first.where() + ")");
+        }
+        return m;
+    }
+
     private record Limit(String key, double value) {
     }
 
@@ -469,13 +479,8 @@ final class SequenceReader {
     }
 
     private CheckLimit check(YamlNode node, Map<String, StepSpec> steps, Part part, Map<String, YamlNode> names) {
-        YamlNode.YamlMap m = node.map(node.peek("name").map(n -> "check '" + n + "'").orElse("a check"), CHECK_KEYS);
-        YamlNode nameNode = m.required("name");
-        String name = name(nameNode, "a check name");
-        YamlNode first = names.putIfAbsent(name, nameNode);
-        if (first != null) {
-            throw nameNode.error("duplicate check name '" + name + "' (first at " + first.where() + ")");
-        }
+        YamlNode.YamlMap m = named(node, "check", CHECK_KEYS, names);
+        String name = m.values().get("name").text("");
         String check = "check '" + name + "'";
         YamlNode stepNode = m.required("step");
         String stepName = stepNode.text("a step name");
