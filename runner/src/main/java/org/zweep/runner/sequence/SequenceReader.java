@@ -13,6 +13,7 @@ import java.util.Optional;
 import java.util.OptionalDouble;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
+import org.zweep.driver.impedance.DerivedParameter;
 import org.zweep.driver.impedance.Impedance;
 import org.zweep.driver.impedance.Unit;
 import org.zweep.driver.meter.CorrectionStandard;
@@ -52,22 +53,18 @@ final class SequenceReader {
             List.of("values", "start", "stop", "points", "per_decade", "spacing", "ramp", "settle");
     static final List<String> CHECK_KEYS = List.of("name", "step", "parameter", "at", "min", "max", "within");
 
-    /** Check parameters measured at one point, with the unit of their limits. */
+    /**
+     * Check parameters measured at one point, with the unit of their limits: the impedance core's
+     * contract parameters (the result column names) except the frequency, and {@code ratio}.
+     */
     static final Map<String, Unit> POINT_PARAMETERS = new LinkedHashMap<>();
 
     static {
-        for (String p : List.of("cs_f", "cp_f")) {
-            POINT_PARAMETERS.put(p, Unit.FARAD);
+        for (DerivedParameter p : DerivedParameter.contract()) {
+            if (p != DerivedParameter.FREQUENCY) {
+                POINT_PARAMETERS.put(p.key(), p.unit());
+            }
         }
-        for (String p : List.of("ls_h", "lp_h")) {
-            POINT_PARAMETERS.put(p, Unit.HENRY);
-        }
-        for (String p : List.of("rs_ohm", "rp_ohm", "z_ohm", "r_ohm", "x_ohm")) {
-            POINT_PARAMETERS.put(p, Unit.OHM);
-        }
-        POINT_PARAMETERS.put("theta_deg", Unit.DEGREE);
-        POINT_PARAMETERS.put("d", Unit.NONE);
-        POINT_PARAMETERS.put("q", Unit.NONE);
         POINT_PARAMETERS.put("ratio", Unit.NONE);
     }
 

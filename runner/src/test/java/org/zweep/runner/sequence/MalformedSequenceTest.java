@@ -240,8 +240,9 @@ class MalformedSequenceTest {
                 Arguments.of("check naming an unknown parameter", HEAD + STEP + """
                         checks:
                           - {name: c, step: sweep, parameter: ls_hh, at: 1 kHz, max: 1 H}
-                        """, "10:39: unknown parameter 'ls_hh' (did you mean 'ls_h'?); expected one of: cs_f, cp_f, "
-                                + "ls_h, lp_h, rs_ohm, rp_ohm, z_ohm, r_ohm, x_ohm, theta_deg, d, q, ratio, srf_hz"),
+                        """, "10:39: unknown parameter 'ls_hh' (did you mean 'ls_h'?); expected one of: r_ohm, x_ohm, "
+                                + "z_ohm, theta_deg, delta_deg, q, d, g_s, b_s, cs_f, cp_f, ls_h, lp_h, rs_ohm, rp_ohm, "
+                                + "ratio, srf_hz"),
                 Arguments.of("check at a frequency not in the sweep", HEAD + STEP + """
                         checks:
                           - {name: c, step: sweep, parameter: d, at: 1.5 kHz, max: 0.025}
@@ -253,7 +254,7 @@ class MalformedSequenceTest {
                 Arguments.of("check of D with a unit", HEAD + STEP + """
                         checks:
                           - {name: c, step: sweep, parameter: d, at: 1 kHz, max: 0.025 V}
-                        """, "10:58: \"0.025 V\" has the wrong unit V; expected a plain number, e.g. 0.01, 1e-3 or 1%"),
+                        """, "10:58: \"0.025 V\" has the wrong unit V; expected a number, e.g. 0.01, 1e-3 or 1%"),
                 Arguments.of("check max below min", HEAD + STEP + """
                         checks:
                           - {name: c, step: sweep, parameter: q, at: 1 kHz, min: 50, max: 10}
