@@ -65,7 +65,7 @@ final class Units {
         try {
             return Quantities.parse(text.substring(0, text.length() - 2), unit, Unit.Bound.POSITIVE);
         } catch (InvalidInputException e) {
-            throw node.error(e.getMessage());
+            throw node.error("expected a ramp rate above zero in " + per + ", got '" + text + "'");
         }
     }
 
