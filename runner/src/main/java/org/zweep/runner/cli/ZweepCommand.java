@@ -16,6 +16,7 @@ import picocli.CommandLine.Spec;
         subcommands = {
             CommandLine.HelpCommand.class,
             ConvertCommand.class,
+            CheckCommand.class,
         })
 public final class ZweepCommand implements Callable<Integer> {
 
