@@ -13,7 +13,8 @@ import java.util.List;
  * @param residualRms √(RSS/m)
  * @param iterations the optimizer's iterations
  * @param converged true only when the optimizer met its convergence test and the point is
- *     stationary (the residual vector is orthogonal to every Jacobian column to 1e-6, or zero);
+ *     stationary (the residual vector is orthogonal to every Jacobian column to 1e-6, or it
+ *     shrank by 10 orders of magnitude from the start: a zero-residual problem solved to rounding);
  *     false means the parameters must not be trusted
  * @param message why it stopped, for people
  */

@@ -28,25 +28,41 @@ import org.apache.commons.math3.util.Pair;
 public final class LeastSquaresFit {
     /** Cosine between the residual vector and any Jacobian column above which a point is not stationary. */
     static final double STATIONARY_COSINE = 1e-6;
+    /**
+     * A residual sum of squares this small relative to the start's is a zero-residual problem
+     * solved to rounding, where the cosine test only sees rounding noise.
+     */
+    static final double ZERO_RESIDUAL = 1e-20;
 
     private final int maxIterations;
     private final int maxEvaluations;
     private final double tolerance;
+    private final double residualFloor;
 
-    private LeastSquaresFit(int maxIterations, int maxEvaluations, double tolerance) {
+    private LeastSquaresFit(int maxIterations, int maxEvaluations, double tolerance, double residualFloor) {
         this.maxIterations = maxIterations;
         this.maxEvaluations = maxEvaluations;
         this.tolerance = tolerance;
+        this.residualFloor = residualFloor;
     }
 
     /** The default solver: 2,000 iterations, 10,000 evaluations, relative tolerances 1e-12. */
     public static LeastSquaresFit defaults() {
-        return new LeastSquaresFit(2_000, 10_000, 1e-12);
+        return new LeastSquaresFit(2_000, 10_000, 1e-12, 0.0);
+    }
+
+    /**
+     * A copy whose uncertainties assume a residual standard deviation of at least {@code floor}
+     * (the resolution of the data), so that noiseless data do not make every parameter look
+     * perfectly determined.
+     */
+    public LeastSquaresFit withResidualFloor(double floor) {
+        return new LeastSquaresFit(maxIterations, maxEvaluations, tolerance, floor);
     }
 
     /** A copy with another iteration limit. */
     public LeastSquaresFit withMaxIterations(int iterations) {
-        return new LeastSquaresFit(iterations, Math.max(maxEvaluations, iterations), tolerance);
+        return new LeastSquaresFit(iterations, Math.max(maxEvaluations, iterations), tolerance, residualFloor);
     }
 
     /** Solves {@code problem}; never throws for a numerical failure (see {@link FitResult#converged()}). */
@@ -84,11 +100,11 @@ public final class LeastSquaresFit {
             iterations = tracked.evaluations;
             message = "stopped at machine precision";
         }
-        return finish(problem, tracked.best, libraryConverged, iterations, message);
+        return finish(problem, tracked.best, libraryConverged, iterations, message, residualFloor);
     }
 
     private static FitResult finish(FitProblem problem, double[] p, boolean libraryConverged, int iterations,
-            String message) {
+            String message, double residualFloor) {
         int m = problem.residualCount();
         int n = problem.parameterCount();
         double[] r = problem.residuals().at(p);
@@ -98,8 +114,8 @@ public final class LeastSquaresFit {
         }
         double[][] j = jacobian(problem, p);
         boolean finite = Double.isFinite(rss);
-        boolean stationary = finite && stationary(j, r, rss);
-        List<Double> sigma = sigma(j, rss, m, n);
+        boolean stationary = finite && (stationary(j, r, rss) || rss <= ZERO_RESIDUAL * startCost(problem));
+        List<Double> sigma = sigma(j, rss, m, n, residualFloor);
         List<Double> params = new ArrayList<>(n);
         for (double v : p) {
             params.add(v);
@@ -109,6 +125,14 @@ public final class LeastSquaresFit {
             message = "stopped at a point that is not a minimum";
         }
         return new FitResult(params, sigma, rss, Math.sqrt(rss / m), iterations, converged, message);
+    }
+
+    private static double startCost(FitProblem problem) {
+        double c = 0;
+        for (double v : problem.residuals().at(problem.start())) {
+            c += v * v;
+        }
+        return c;
     }
 
     private static boolean stationary(double[][] j, double[] r, double rss) {
@@ -134,7 +158,7 @@ public final class LeastSquaresFit {
         return true;
     }
 
-    private static List<Double> sigma(double[][] j, double rss, int m, int n) {
+    private static List<Double> sigma(double[][] j, double rss, int m, int n, double floor) {
         List<Double> out = new ArrayList<>(n);
         if (m <= n) {
             for (int i = 0; i < n; i++) {
@@ -146,7 +170,7 @@ public final class LeastSquaresFit {
             RealMatrix jm = new Array2DRowRealMatrix(j, false);
             RealMatrix jtj = jm.transpose().multiply(jm);
             RealMatrix cov = new QRDecomposition(jtj, 1e-300).getSolver().getInverse();
-            double s2 = rss / (m - n);
+            double s2 = Math.max(rss / (m - n), floor * floor);
             for (int i = 0; i < n; i++) {
                 double v = cov.getEntry(i, i) * s2;
                 out.add(v >= 0 ? Math.sqrt(v) : Double.NaN);
