@@ -39,4 +39,24 @@ public final class Si {
     static String plain(double value, int digits) {
         return String.format(Locale.ROOT, "%." + digits + "g", value);
     }
+
+    /** The SI unit of a parameter or column name by its suffix ({@code esl_h} → {@code H}); empty when none. */
+    public static String unitOf(String key) {
+        if (key.endsWith("_f")) {
+            return "F";
+        }
+        if (key.endsWith("_h")) {
+            return "H";
+        }
+        if (key.endsWith("_ohm")) {
+            return "Ω";
+        }
+        if (key.endsWith("_hz")) {
+            return "Hz";
+        }
+        if (key.endsWith("_deg")) {
+            return "°";
+        }
+        return "";
+    }
 }

@@ -15,6 +15,9 @@ import picocli.CommandLine.Spec;
         footer = ExitCode.HELP_LIST,
         subcommands = {
             CommandLine.HelpCommand.class,
+            AnalyzeCommand.class,
+            ExportCommand.class,
+            ReportCommand.class,
         })
 public final class ZweepCommand implements Callable<Integer> {
 

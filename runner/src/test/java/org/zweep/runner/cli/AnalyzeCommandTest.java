@@ -1,0 +1,115 @@
+package org.zweep.runner.cli;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import java.io.PrintWriter;
+import java.io.StringWriter;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Random;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.zweep.driver.impedance.Impedance;
+import org.zweep.runner.analysis.TestRunFolders;
+
+class AnalyzeCommandTest {
+    @TempDir
+    Path tmp;
+
+    /** A 100 nF capacitor: a 31-point sweep (check-values.md §10 values), a bias sweep at 1 kHz, two repeats. */
+    static Path capacitorRun(Path dir, Double srfMin) throws Exception {
+        List<Impedance> sweep = new ArrayList<>();
+        for (int i = 0; i < 31; i++) {
+            double f = 100e3 * Math.pow(10, i / 10.0);
+            double w = 2 * Math.PI * f;
+            sweep.add(new Impedance(f, 0.02, w * 1e-9 - 1 / (w * 100e-9)));
+        }
+        List<Impedance> again = sweep.stream()
+                .map(z -> new Impedance(z.frequencyHz(), z.resistanceOhm() * 1.001, z.reactanceOhm() * 0.999)).toList();
+        TestRunFolders run = new TestRunFolders(dir).impedance("sweep", sweep, "V", 1.0, "V", 0.0, "none", 0)
+                .impedance("sweep", again, "V", 1.0, "V", 0.0, "none", 1);
+        // synthetic class-2 bias curve C(V) = C0/(1 + (V/V0)²), V0 = 10 V (check-values.md §5.4: synthetic only)
+        for (int v = 0; v <= 25; v += 5) {
+            double c = 100e-9 / (1 + Math.pow(v / 10.0, 2));
+            double w = 2 * Math.PI * 1000;
+            run.impedance("bias", List.of(new Impedance(1000, 0.05, -1 / (w * c))), "V", 1.0, "V", v, "none", 0);
+        }
+        run.check("c at 100 kHz", "cs_f", "sweep", 100e3, 90e-9, 110e-9)
+                .check("srf", "srf_hz", "sweep", null, srfMin, null);
+        return run.write();
+    }
+
+    static int run(StringWriter out, StringWriter err, String... args) {
+        return Cli.run(args, new PrintWriter(out), new PrintWriter(err));
+    }
+
+    @Test
+    void jsonHasTheContractFieldsAndAnalysisJsonIsWritten() throws Exception {
+        Path dir = capacitorRun(tmp.resolve("run"), 10e6);
+        StringWriter out = new StringWriter();
+        StringWriter err = new StringWriter();
+        int code = run(out, err, "analyze", dir.toString(), "--json");
+        assertEquals(0, code, err.toString());
+        JsonNode root = new ObjectMapper().readTree(out.toString());
+        assertEquals(root, new ObjectMapper().readTree(Files.readString(dir.resolve("analysis.json"))));
+        JsonNode sweep = root.at("/steps/0");
+        assertEquals("sweep", sweep.get("name").asText());
+        assertEquals("capacitor", sweep.get("model").asText());
+        // check-values.md §10: C = 100 nF, ESR = 20 mΩ, ESL = 1 nH; the two repeats average to R·1.0005, X·0.9995
+        assertEquals(100e-9 / 0.9995, sweep.at("/parameters/c_f").asDouble(), 1e-15);
+        assertEquals(0.02 * 1.0005, sweep.at("/parameters/esr_ohm").asDouble(), 1e-9);
+        assertEquals(1e-9 * 0.9995, sweep.at("/parameters/esl_h").asDouble(), 1e-15);
+        for (String k : List.of("c_f", "esr_ohm", "esl_h")) {
+            assertTrue(sweep.at("/sigma/" + k).isNumber(), k);
+        }
+        assertTrue(sweep.get("srf_hz").isNumber());
+        assertTrue(sweep.get("residual_rms").isNumber());
+        assertEquals(2, sweep.at("/repeats/0/count").asInt());
+        // relative spread of R over 1.0 and 1.001: std = 0.001·0.02/√2, mean = 0.02·1.0005 (sample statistics)
+        assertEquals(0.001 / Math.sqrt(2) / 1.0005, sweep.at("/repeats/0/relative_spread/r_ohm").asDouble(), 1e-12);
+        JsonNode bias = root.at("/steps/1/bias");
+        // C0/(1 + (V/10)²) falls by 20 % at V = 5 V exactly (a grid point) and by 50 % at 10 V exactly
+        assertEquals(5.0, bias.at("/drop/20").asDouble(), 1e-9);
+        assertEquals(10.0, bias.at("/drop/50").asDouble(), 1e-9);
+        assertEquals(80.0, bias.at("/points/1/percent").asDouble(), 1e-9);
+        assertTrue(root.get("transformer").isNull());
+        assertEquals("pass", root.at("/checks/0/result").asText());
+        assertEquals("pass", root.at("/checks/1/result").asText());
+        assertEquals("pass", root.get("verdict").asText());
+        // IEC 60063 E12 nearest to ~100 nF is 100 nF (check-values.md §4.2)
+        assertEquals(100e-9, root.at("/bins/nearest/E12").asDouble(), 1e-20);
+        assertEquals("B", root.at("/bins/tolerance_letter").asText()); // +0.05 %: within B ±0.1 %, outside W ±0.05 %
+    }
+
+    @Test
+    void failedSrfCheckGivesExitCodeOne() throws Exception {
+        Path dir = capacitorRun(tmp.resolve("run"), 20e6); // SRF is 15.9 MHz (check-values.md §10)
+        StringWriter out = new StringWriter();
+        StringWriter err = new StringWriter();
+        assertEquals(1, run(out, err, "analyze", dir.toString()));
+        assertTrue(out.toString().contains("check srf (srf_hz): fail"), out.toString());
+    }
+
+    @Test
+    void unknownModelIsAUsageErrorOnOneLine() throws Exception {
+        Path dir = capacitorRun(tmp.resolve("run"), 10e6);
+        StringWriter out = new StringWriter();
+        StringWriter err = new StringWriter();
+        assertEquals(2, run(out, err, "analyze", dir.toString(), "--model", "banana"));
+        assertTrue(err.toString().startsWith("zweep: unknown model 'banana'"), err.toString());
+        assertEquals(1, err.toString().strip().lines().count());
+    }
+
+    @Test
+    void folderWithoutManifestIsAUsageError() {
+        StringWriter out = new StringWriter();
+        StringWriter err = new StringWriter();
+        assertEquals(2, run(out, err, "analyze", tmp.toString()));
+        assertTrue(err.toString().contains("no run manifest"), err.toString());
+    }
+}
