@@ -24,9 +24,13 @@ public final class Si {
         }
         int e = (int) Math.floor(Math.log10(Math.abs(value)) / 3);
         e = Math.max(-6, Math.min(4, e));
-        double scaled = value / Math.pow(1000, e);
-        String num = new java.math.BigDecimal(scaled).round(new java.math.MathContext(digits)).stripTrailingZeros()
-                .toPlainString();
+        java.math.BigDecimal scaled = new java.math.BigDecimal(value / Math.pow(1000, e))
+                .round(new java.math.MathContext(digits));
+        if (scaled.abs().compareTo(java.math.BigDecimal.valueOf(1000)) >= 0 && e < 4) {
+            e++;
+            scaled = new java.math.BigDecimal(value / Math.pow(1000, e)).round(new java.math.MathContext(digits));
+        }
+        String num = scaled.stripTrailingZeros().toPlainString();
         return num + " " + PREFIX[e + 6] + unit;
     }
 

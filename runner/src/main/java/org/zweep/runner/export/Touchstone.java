@@ -64,7 +64,7 @@ public final class Touchstone {
         for (String c : comments) {
             b.append("! ").append(c.replace('\n', ' ')).append('\n');
         }
-        String option = "# Hz Z RI R " + number(referenceOhm) + "\n";
+        String option = "# Hz Z RI R " + java.math.BigDecimal.valueOf(referenceOhm).stripTrailingZeros().toPlainString() + "\n";
         double scale = 1;
         if (version == Version.V2_0) {
             b.append("[Version] 2.0\n").append(option).append("[Number of Ports] 1\n")

@@ -48,7 +48,7 @@ public final class Charts {
             mag.add(z.frequencyHz(), z.magnitudeOhm());
             phase.add(z.frequencyHz(), z.phaseDeg());
         }
-        XYPlot plot = plot(frequencyAxis(), logAxis("|Z| (Ω)"), new XYSeriesCollection(mag), line(BLUE, true));
+        XYPlot plot = plot(frequencyAxis(points), axis("|Z| (Ω)", mag), new XYSeriesCollection(mag), line(BLUE, true));
         NumberAxis deg = new NumberAxis("θ (°)");
         deg.setRange(-95, 95);
         deg.setTickUnit(new NumberTickUnit(30));
@@ -77,7 +77,7 @@ public final class Charts {
         NumberAxis y = new NumberAxis("R, X (Ω)");
         style(y);
         y.setNumberFormatOverride(new SiTickFormat());
-        return chart(title, plot(frequencyAxis(), y, data, renderer));
+        return chart(title, plot(frequencyAxis(points), y, data, renderer));
     }
 
     /**
@@ -113,7 +113,7 @@ public final class Charts {
         renderer.setSeriesShapesVisible(1, false);
         renderer.setSeriesPaint(1, VERMILION);
         renderer.setSeriesStroke(1, new BasicStroke(2f));
-        return chart(title, plot(frequencyAxis(), logAxis(symbol + " (" + unit + ")"), data, renderer));
+        return chart(title, plot(frequencyAxis(points), axis(symbol + " (" + unit + ")", measured), data, renderer));
     }
 
     /** D (for a capacitor) or Q versus frequency, on log axes. */
@@ -123,7 +123,7 @@ public final class Charts {
             double q = Math.abs(z.reactanceOhm()) / z.resistanceOhm();
             add(s, z.frequencyHz(), dissipation ? 1 / q : q);
         }
-        return chart(title, plot(frequencyAxis(), logAxis(dissipation ? "D = R/|X|" : "Q = |X|/R"),
+        return chart(title, plot(frequencyAxis(points), axis(dissipation ? "D = R/|X|" : "Q = |X|/R", s),
                 new XYSeriesCollection(s), line(GREEN, true)));
     }
 
@@ -159,6 +159,7 @@ public final class Charts {
                     BasicStroke.JOIN_MITER, 1f, new float[] {4f, 4f}, 0f));
             m.setLabel("−" + pct + " %");
             m.setLabelFont(TICK);
+            m.setLabelBackgroundColor(Color.WHITE);
             m.setLabelAnchor(org.jfree.chart.ui.RectangleAnchor.TOP_RIGHT);
             m.setLabelTextAnchor(org.jfree.chart.ui.TextAnchor.BOTTOM_RIGHT);
             plot.addRangeMarker(m);
@@ -181,15 +182,44 @@ public final class Charts {
         }
     }
 
-    private static LogAxis frequencyAxis() {
-        return logAxis("Frequency (Hz)");
+    private static ValueAxis frequencyAxis(List<Impedance> points) {
+        XYSeries f = new XYSeries("f");
+        points.forEach(z -> f.add(z.frequencyHz(), z.frequencyHz()));
+        return axis("Frequency (Hz)", f);
     }
 
-    private static LogAxis logAxis(String label) {
+    /**
+     * A log axis with ticks at whole decades (1, 2, 5 decades apart) when the positive y values of
+     * {@code data} span at least a decade; a linear axis otherwise (fractional-decade log ticks
+     * read badly).
+     */
+    private static ValueAxis axis(String label, XYSeries data) {
+        double min = Double.POSITIVE_INFINITY;
+        double max = 0;
+        for (int i = 0; i < data.getItemCount(); i++) {
+            double v = data.getY(i).doubleValue();
+            if (v > 0) {
+                min = Math.min(min, v);
+                max = Math.max(max, v);
+            }
+        }
+        if (!(max / min >= 10)) {
+            NumberAxis a = new NumberAxis(label);
+            a.setAutoRangeIncludesZero(false);
+            a.setNumberFormatOverride(new SiTickFormat());
+            style(a);
+            return a;
+        }
         LogAxis a = new LogAxis(label);
         a.setBase(10);
         a.setSmallestValue(1e-18);
         a.setNumberFormatOverride(new SiTickFormat());
+        org.jfree.chart.axis.TickUnits decades = new org.jfree.chart.axis.TickUnits();
+        for (double d : new double[] {1, 2, 5, 10}) {
+            decades.add(new NumberTickUnit(d));
+        }
+        a.setStandardTickUnits(decades);
+        a.setMinorTickCount(9);
         a.setMinorTickMarksVisible(true);
         style(a);
         return a;

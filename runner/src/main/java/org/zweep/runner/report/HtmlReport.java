@@ -88,13 +88,13 @@ public final class HtmlReport {
         bins(b, a.bins());
         transformer(b, a.transformer());
         derating(b, a);
-        repeats(b, a);
         b.append("<h2>Plots</h2>\n");
         for (Plots.Rendered p : plots) {
             b.append("<figure id=\"plot-").append(esc(p.name())).append("\">").append(inlineSvg(p.svg()))
                     .append("<figcaption>").append(esc(p.title())).append(" (plots/").append(esc(p.name()))
                     .append(".png, .svg)</figcaption></figure>\n");
         }
+        repeats(b, a);
         settings(b, a);
         b.append("<h2>Compensation</h2>\n<p>");
         RunManifest.CompensationInfo c = m.compensation();
@@ -276,7 +276,8 @@ public final class HtmlReport {
 
     /** The SVG element without namespace declarations (not needed inline in HTML; keeps the page free of URLs). */
     static String inlineSvg(String svg) {
-        return svg.replaceAll("\\s+xmlns(:[A-Za-z]+)?=\"[^\"]*\"", "").replaceAll("\\s+jfreesvg:[A-Za-z]+=\"[^\"]*\"", "");
+        return svg.replaceAll("\\s+xmlns(:[A-Za-z]+)?=(\"[^\"]*\"|'[^']*')", "")
+                .replaceAll("\\s+jfreesvg:[A-Za-z]+=(\"[^\"]*\"|'[^']*')", "");
     }
 
     private static void row(StringBuilder b, String k, String v) {
@@ -284,7 +285,9 @@ public final class HtmlReport {
     }
 
     private static String fmt(double v) {
-        return Double.isFinite(v) ? String.format(Locale.ROOT, "%.6g", v) : "—";
+        return Double.isFinite(v)
+                ? new java.math.BigDecimal(v).round(new java.math.MathContext(6)).stripTrailingZeros().toPlainString()
+                : "—";
     }
 
 
