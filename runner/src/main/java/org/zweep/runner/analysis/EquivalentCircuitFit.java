@@ -64,8 +64,13 @@ public final class EquivalentCircuitFit {
         double[] current = start.clone();
         List<String> notes = new ArrayList<>();
         Pass pass;
+        boolean first = true;
         while (true) {
             pass = solve(model, data, current, start, present);
+            if (first && (worstUnresolved(model, pass, present) >= 0 || !pass.result.converged())) {
+                pass = bestOfRestarts(model, data, start, present, pass);
+            }
+            first = false;
             current = pass.physical;
             int drop = worstUnresolved(model, pass, present);
             if (drop < 0) {
@@ -93,6 +98,26 @@ public final class EquivalentCircuitFit {
         }
         return new CircuitFit(model, values, sigmas, srfFit, Double.isFinite(srfData) ? srfData : null,
                 pass.result.residualRms(), pass.result.iterations(), pass.result.converged(), data.size(), notes);
+    }
+
+    /**
+     * The data's closed-form start can put a minor element where the cost surface is flat (a
+     * resistor's Ls hidden behind its Cp, say); try each minor element 100× larger and smaller and
+     * keep the lowest-cost fit.
+     */
+    private static Pass bestOfRestarts(CircuitModel model, List<Impedance> data, double[] start, boolean[] present,
+            Pass best) {
+        for (int k = 1; k < start.length; k++) {
+            for (double factor : new double[] {100, 0.01}) {
+                double[] s = start.clone();
+                s[k] *= factor;
+                Pass p = solve(model, data, s, s, present);
+                if (p.result.converged() && p.result.residualSumOfSquares() < best.result.residualSumOfSquares()) {
+                    best = p;
+                }
+            }
+        }
+        return best;
     }
 
     /** The self-resonance of the fitted circuit, or null when the element that sets it is absent. */
@@ -185,7 +210,7 @@ public final class EquivalentCircuitFit {
             }
             return j;
         }, p0, lo, hi);
-        FitResult result = LeastSquaresFit.defaults().withResidualFloor(RESOLUTION).solve(problem);
+        FitResult result = LeastSquaresFit.defaults().withResidualFloor(RESOLUTION).withValueScale(1).solve(problem);
         double[] lp = result.parameters().stream().mapToDouble(Double::doubleValue).toArray();
         double[] p = expand(physical, active, lp);
         double[] logSigma = new double[n];

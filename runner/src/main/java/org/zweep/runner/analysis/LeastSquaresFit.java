@@ -12,10 +12,9 @@ import org.apache.commons.math3.fitting.leastsquares.LevenbergMarquardtOptimizer
 import org.apache.commons.math3.fitting.leastsquares.MultivariateJacobianFunction;
 import org.apache.commons.math3.linear.Array2DRowRealMatrix;
 import org.apache.commons.math3.linear.ArrayRealVector;
-import org.apache.commons.math3.linear.QRDecomposition;
 import org.apache.commons.math3.linear.RealMatrix;
 import org.apache.commons.math3.linear.RealVector;
-import org.apache.commons.math3.linear.SingularMatrixException;
+import org.apache.commons.math3.linear.SingularValueDecomposition;
 import org.apache.commons.math3.util.Pair;
 
 /**
@@ -38,17 +37,20 @@ public final class LeastSquaresFit {
     private final int maxEvaluations;
     private final double tolerance;
     private final double residualFloor;
+    private final double valueScale;
 
-    private LeastSquaresFit(int maxIterations, int maxEvaluations, double tolerance, double residualFloor) {
+    private LeastSquaresFit(int maxIterations, int maxEvaluations, double tolerance, double residualFloor,
+            double valueScale) {
         this.maxIterations = maxIterations;
         this.maxEvaluations = maxEvaluations;
         this.tolerance = tolerance;
         this.residualFloor = residualFloor;
+        this.valueScale = valueScale;
     }
 
     /** The default solver: 2,000 iterations, 10,000 evaluations, relative tolerances 1e-12. */
     public static LeastSquaresFit defaults() {
-        return new LeastSquaresFit(2_000, 10_000, 1e-12, 0.0);
+        return new LeastSquaresFit(2_000, 10_000, 1e-12, 0.0, 0.0);
     }
 
     /**
@@ -57,12 +59,22 @@ public final class LeastSquaresFit {
      * perfectly determined.
      */
     public LeastSquaresFit withResidualFloor(double floor) {
-        return new LeastSquaresFit(maxIterations, maxEvaluations, tolerance, floor);
+        return new LeastSquaresFit(maxIterations, maxEvaluations, tolerance, floor, valueScale);
+    }
+
+    /**
+     * A copy that knows the typical magnitude of the quantities whose difference makes each
+     * residual (1 for relative residuals), so that the stationarity test allows for rounding in
+     * them: residuals near 1e-12 of that scale are rounding noise, and no point is "more
+     * stationary" than that.
+     */
+    public LeastSquaresFit withValueScale(double scale) {
+        return new LeastSquaresFit(maxIterations, maxEvaluations, tolerance, residualFloor, scale);
     }
 
     /** A copy with another iteration limit. */
     public LeastSquaresFit withMaxIterations(int iterations) {
-        return new LeastSquaresFit(iterations, Math.max(maxEvaluations, iterations), tolerance, residualFloor);
+        return new LeastSquaresFit(iterations, Math.max(maxEvaluations, iterations), tolerance, residualFloor, valueScale);
     }
 
     /** Solves {@code problem}; never throws for a numerical failure (see {@link FitResult#converged()}). */
@@ -100,11 +112,11 @@ public final class LeastSquaresFit {
             iterations = tracked.evaluations;
             message = "stopped at machine precision";
         }
-        return finish(problem, tracked.best, libraryConverged, iterations, message, residualFloor);
+        return finish(problem, tracked.best, libraryConverged, iterations, message);
     }
 
-    private static FitResult finish(FitProblem problem, double[] p, boolean libraryConverged, int iterations,
-            String message, double residualFloor) {
+    private FitResult finish(FitProblem problem, double[] p, boolean libraryConverged, int iterations,
+            String message) {
         int m = problem.residualCount();
         int n = problem.parameterCount();
         double[] r = problem.residuals().at(p);
@@ -114,7 +126,9 @@ public final class LeastSquaresFit {
         }
         double[][] j = jacobian(problem, p);
         boolean finite = Double.isFinite(rss);
-        boolean stationary = finite && (stationary(j, r, rss) || rss <= ZERO_RESIDUAL * startCost(problem));
+        double rms = Math.sqrt(rss / m);
+        double cosineLimit = Math.max(STATIONARY_COSINE, 1e3 * Math.ulp(1.0) * valueScale / rms);
+        boolean stationary = finite && (stationary(j, r, rss, cosineLimit) || rss <= ZERO_RESIDUAL * startCost(problem));
         List<Double> sigma = sigma(j, rss, m, n, residualFloor);
         List<Double> params = new ArrayList<>(n);
         for (double v : p) {
@@ -124,7 +138,7 @@ public final class LeastSquaresFit {
         if (libraryConverged && !stationary) {
             message = "stopped at a point that is not a minimum";
         }
-        return new FitResult(params, sigma, rss, Math.sqrt(rss / m), iterations, converged, message);
+        return new FitResult(params, sigma, rss, rms, iterations, converged, message);
     }
 
     private static double startCost(FitProblem problem) {
@@ -135,7 +149,7 @@ public final class LeastSquaresFit {
         return c;
     }
 
-    private static boolean stationary(double[][] j, double[] r, double rss) {
+    private static boolean stationary(double[][] j, double[] r, double rss, double cosineLimit) {
         if (rss == 0) {
             return true;
         }
@@ -151,7 +165,7 @@ public final class LeastSquaresFit {
             if (colSq == 0) {
                 continue;
             }
-            if (!(Math.abs(dot) / (Math.sqrt(colSq) * rNorm) <= STATIONARY_COSINE)) {
+            if (!(Math.abs(dot) / (Math.sqrt(colSq) * rNorm) <= cosineLimit)) {
                 return false;
             }
         }
@@ -166,20 +180,18 @@ public final class LeastSquaresFit {
             }
             return out;
         }
-        try {
-            RealMatrix jm = new Array2DRowRealMatrix(j, false);
-            RealMatrix jtj = jm.transpose().multiply(jm);
-            RealMatrix cov = new QRDecomposition(jtj, 1e-300).getSolver().getInverse();
-            double s2 = Math.max(rss / (m - n), floor * floor);
-            for (int i = 0; i < n; i++) {
-                double v = cov.getEntry(i, i) * s2;
-                out.add(v >= 0 ? Math.sqrt(v) : Double.NaN);
+        // covariance (JᵀJ)⁻¹ = V·Σ⁻²·Vᵀ from the SVD of J itself: forming JᵀJ would square its condition number
+        SingularValueDecomposition svd = new SingularValueDecomposition(new Array2DRowRealMatrix(j, false));
+        double[] sv = svd.getSingularValues();
+        RealMatrix v = svd.getV();
+        double s2 = Math.max(rss / (m - n), floor * floor);
+        for (int i = 0; i < n; i++) {
+            double var = 0;
+            for (int k = 0; k < sv.length; k++) {
+                double t = v.getEntry(i, k) / sv[k];
+                var += t * t;
             }
-        } catch (SingularMatrixException e) {
-            out.clear();
-            for (int i = 0; i < n; i++) {
-                out.add(Double.NaN);
-            }
+            out.add(Double.isFinite(var) ? Math.sqrt(var * s2) : Double.NaN);
         }
         return out;
     }
