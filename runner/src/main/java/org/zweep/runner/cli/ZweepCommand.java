@@ -17,6 +17,9 @@ import picocli.CommandLine.Spec;
             CommandLine.HelpCommand.class,
             ConvertCommand.class,
             CheckCommand.class,
+            AnalyzeCommand.class,
+            ExportCommand.class,
+            ReportCommand.class,
         })
 public final class ZweepCommand implements Callable<Integer> {
 
