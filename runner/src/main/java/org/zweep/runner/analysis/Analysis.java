@@ -8,6 +8,7 @@ import java.util.Locale;
 import java.util.Map;
 import java.util.TreeMap;
 import org.zweep.driver.InvalidInputException;
+import org.zweep.driver.impedance.DerivedParameter;
 import org.zweep.runner.results.PointRow;
 import org.zweep.runner.results.RunManifest;
 
@@ -66,13 +67,18 @@ public final class Analysis {
         };
     }
 
+    /** The series parameter that stands for the part's value: Cs (capacitor), Rs (resistor) or Ls (others). */
+    public static DerivedParameter mainParameter(String partKind) {
+        return switch (partKind) {
+            case "capacitor" -> DerivedParameter.CS;
+            case "resistor" -> DerivedParameter.RS;
+            default -> DerivedParameter.LS;
+        };
+    }
+
     /** The points.csv column of the part's main series value: cs_f, ls_h or rs_ohm. */
     static String mainColumn(String partKind) {
-        return switch (partKind) {
-            case "capacitor" -> "cs_f";
-            case "resistor" -> "rs_ohm";
-            default -> "ls_h";
-        };
+        return mainParameter(partKind).key();
     }
 
     private static StepResult step(RunData run, List<PointRow> rows, CircuitModel model) {
@@ -98,7 +104,7 @@ public final class Analysis {
                     String key = r.frequencyHz() + "|" + r.level() + "|" + r.wiring() + "|" + r.biasMode();
                     double[] acc = groups.computeIfAbsent(key, k -> new TreeMap<>())
                             .computeIfAbsent(r.bias(), b -> new double[2]);
-                    acc[0] += r.value(column);
+                    acc[0] += PointValues.of(r, column);
                     acc[1]++;
                 }
             }
@@ -134,7 +140,7 @@ public final class Analysis {
             if (Double.isFinite(f)) {
                 for (PointRow r : run.rows()) {
                     if (r.step().equals(c.step()) && "ok".equals(r.status()) && Math.abs(r.frequencyHz() - f) <= 1e-9 * f) {
-                        values.add(r.value(c.parameter()));
+                        values.add(PointValues.of(r, c.parameter()));
                     }
                 }
                 if (values.isEmpty()) {
@@ -207,8 +213,9 @@ public final class Analysis {
         if (!Double.isFinite(measured)) {
             String column = mainColumn(kind);
             for (PointRow r : run.rows()) {
-                if ("ok".equals(r.status()) && "impedance".equals(r.quantity()) && Double.isFinite(r.value(column))) {
-                    measured = r.value(column);
+                double v = PointValues.of(r, column);
+                if ("ok".equals(r.status()) && "impedance".equals(r.quantity()) && Double.isFinite(v)) {
+                    measured = v;
                     source = column + " of step " + r.step() + " at " + Si.format(r.frequencyHz(), "Hz");
                     break;
                 }

@@ -29,7 +29,7 @@ final class StartValues {
         double[] p = new double[model.keys().size()];
         switch (model) {
             case CAPACITOR, CAPACITOR_LEAKAGE, CAPACITOR_TAN_DELTA -> {
-                double c = low.reactanceOhm() < 0 ? -1 / (wLow * low.reactanceOhm()) : 1 / (wLow * low.magnitudeOhm());
+                double c = low.reactanceOhm() < 0 ? low.seriesCapacitanceF() : 1 / (wLow * low.magnitudeOhm());
                 double esr = positiveOr(minZ.resistanceOhm(), 1e-3 * minZ.magnitudeOhm());
                 double esl;
                 if (Double.isFinite(srfDataHz)) {
@@ -49,13 +49,13 @@ final class StartValues {
                 }
             }
             case INDUCTOR, INDUCTOR_CORE_LOSS -> {
-                double l = low.reactanceOhm() > 0 ? low.reactanceOhm() / wLow : low.magnitudeOhm() / wLow;
+                double l = low.reactanceOhm() > 0 ? low.seriesInductanceH() : low.magnitudeOhm() / wLow;
                 double r = positiveOr(low.resistanceOhm(), 1e-3 * low.magnitudeOhm());
                 double cp;
                 if (Double.isFinite(srfDataHz)) {
                     cp = 1 / (wSrf * wSrf * l);
                 } else {
-                    double lEff = high.reactanceOhm() / wHigh;
+                    double lEff = high.seriesInductanceH();
                     cp = lEff > l ? (1 - l / lEff) / (wHigh * wHigh * l) : 1 / (wUnseen * wUnseen * l);
                 }
                 p[0] = l;
@@ -70,7 +70,7 @@ final class StartValues {
             }
             case RESISTOR -> {
                 double r = positiveOr(low.resistanceOhm(), low.magnitudeOhm());
-                double x = high.reactanceOhm() / wHigh;
+                double x = high.seriesInductanceH();
                 double tau = 1 / wUnseen;
                 p[0] = r;
                 p[1] = x > 0 ? x : r * tau * 0.1;

@@ -19,6 +19,7 @@ import org.jfree.chart.title.TextTitle;
 import org.jfree.chart.ui.RectangleInsets;
 import org.jfree.data.xy.XYSeries;
 import org.jfree.data.xy.XYSeriesCollection;
+import org.zweep.driver.impedance.DerivedParameter;
 import org.zweep.driver.impedance.Impedance;
 import org.zweep.runner.analysis.CircuitFit;
 import org.zweep.runner.analysis.Derating;
@@ -33,98 +34,155 @@ public final class Charts {
     static final Color VERMILION = new Color(0xD5, 0x5E, 0x00);
     static final Color GREEN = new Color(0x00, 0x9E, 0x73);
     static final Color GRID = new Color(0xDD, 0xDD, 0xDD);
+    private static final Color[] PALETTE = {BLUE, VERMILION, GREEN, new Color(0xCC, 0x79, 0xA7),
+        new Color(0xE6, 0x9F, 0x00), new Color(0x56, 0xB4, 0xE9)};
+    private static final BasicStroke SOLID = new BasicStroke(2f);
+    private static final BasicStroke DASHED = new BasicStroke(2f, BasicStroke.CAP_BUTT, BasicStroke.JOIN_MITER, 1f,
+            new float[] {6f, 4f}, 0f);
     static final Font TITLE = new Font(Font.SANS_SERIF, Font.BOLD, 15);
     static final Font LABEL = new Font(Font.SANS_SERIF, Font.PLAIN, 13);
     static final Font TICK = new Font(Font.SANS_SERIF, Font.PLAIN, 11);
 
+    /** How many traces one chart overlays at most; more sweeps go to further charts. */
+    public static final int MAX_TRACES = 6;
+
     private Charts() {
     }
 
-    /** |Z| (log, left axis) and θ (right axis) versus frequency. */
-    public static JFreeChart impedance(String title, List<Impedance> points) {
-        XYSeries mag = new XYSeries("|Z|");
-        XYSeries phase = new XYSeries("θ");
-        for (Impedance z : points) {
-            mag.add(z.frequencyHz(), z.magnitudeOhm());
-            phase.add(z.frequencyHz(), z.phaseDeg());
+    /**
+     * One sweep drawn on a chart.
+     *
+     * @param label the legend text for the sweep's conditions, e.g. {@code 1 V, bias 0 V}; empty
+     *     when the chart shows a single sweep
+     * @param points the sweep, ascending in frequency
+     * @param fit the circuit fitted to it, or null
+     */
+    public record Trace(String label, List<Impedance> points, CircuitFit fit) {
+        public Trace {
+            points = List.copyOf(points);
         }
-        XYPlot plot = plot(frequencyAxis(points), axis("|Z| (Ω)", mag), new XYSeriesCollection(mag), line(BLUE, true));
+
+        String name(String quantity) {
+            return label.isEmpty() ? quantity : quantity + ", " + label;
+        }
+    }
+
+    /** |Z| (log, left axis, solid) and θ (right axis, dashed) versus frequency, one colour per trace. */
+    public static JFreeChart impedance(String title, List<Trace> traces) {
+        XYSeriesCollection mags = new XYSeriesCollection();
+        XYSeriesCollection phases = new XYSeriesCollection();
+        XYSeries all = new XYSeries("all |Z|");
+        for (Trace t : traces) {
+            XYSeries mag = new XYSeries(t.name("|Z|"));
+            XYSeries phase = new XYSeries(t.name("θ"));
+            for (Impedance z : t.points()) {
+                mag.add(z.frequencyHz(), z.magnitudeOhm());
+                all.add(z.frequencyHz(), z.magnitudeOhm());
+                phase.add(z.frequencyHz(), z.phaseDeg());
+            }
+            mags.addSeries(mag);
+            phases.addSeries(phase);
+        }
+        XYPlot plot = plot(frequencyAxis(traces), axis("|Z| (Ω)", all), mags, lines(traces.size(), 0, true));
         NumberAxis deg = new NumberAxis("θ (°)");
         deg.setRange(-95, 95);
         deg.setTickUnit(new NumberTickUnit(30));
         style(deg);
         plot.setRangeAxis(1, deg);
-        plot.setDataset(1, new XYSeriesCollection(phase));
+        plot.setDataset(1, phases);
         plot.mapDatasetToRangeAxis(1, 1);
-        plot.setRenderer(1, line(VERMILION, true));
+        plot.setRenderer(1, lines(traces.size(), traces.size() == 1 ? 1 : 0, false));
         return chart(title, plot);
     }
 
-    /** R and X versus frequency. */
-    public static JFreeChart resistanceReactance(String title, List<Impedance> points) {
-        XYSeries r = new XYSeries("R");
-        XYSeries x = new XYSeries("X");
-        for (Impedance z : points) {
-            r.add(z.frequencyHz(), z.resistanceOhm());
-            x.add(z.frequencyHz(), z.reactanceOhm());
+    /** R (solid) and X (dashed) versus frequency, one colour per trace. */
+    public static JFreeChart resistanceReactance(String title, List<Trace> traces) {
+        XYSeriesCollection data = new XYSeriesCollection();
+        for (Trace t : traces) {
+            XYSeries r = new XYSeries(t.name("R"));
+            t.points().forEach(z -> r.add(z.frequencyHz(), z.resistanceOhm()));
+            data.addSeries(r);
         }
-        XYSeriesCollection data = new XYSeriesCollection(r);
-        data.addSeries(x);
-        XYLineAndShapeRenderer renderer = line(BLUE, true);
-        renderer.setSeriesPaint(1, VERMILION);
-        renderer.setSeriesStroke(1, new BasicStroke(2f));
-        renderer.setSeriesShape(1, new Rectangle2D.Double(-3, -3, 6, 6));
+        for (Trace t : traces) {
+            XYSeries x = new XYSeries(t.name("X"));
+            t.points().forEach(z -> x.add(z.frequencyHz(), z.reactanceOhm()));
+            data.addSeries(x);
+        }
+        int n = traces.size();
+        XYLineAndShapeRenderer renderer = new XYLineAndShapeRenderer(true, true);
+        for (int i = 0; i < n; i++) {
+            Color c = n == 1 ? BLUE : colour(i);
+            Color cx = n == 1 ? VERMILION : c;
+            style(renderer, i, c, SOLID, new Ellipse2D.Double(-3, -3, 6, 6));
+            style(renderer, n + i, cx, n == 1 ? SOLID : DASHED, new Rectangle2D.Double(-3, -3, 6, 6));
+        }
         NumberAxis y = new NumberAxis("R, X (Ω)");
         style(y);
         y.setNumberFormatOverride(new SiTickFormat());
-        return chart(title, plot(frequencyAxis(points), y, data, renderer));
+        return chart(title, plot(frequencyAxis(traces), y, data, renderer));
     }
 
     /**
-     * The series value (Cs, Ls or Rs, as {@code unit}) from the data as points and from the fitted
-     * model as a line, versus frequency; only positive values are drawn (log axis).
-     *
-     * @param symbol {@code Cs}, {@code Ls} or {@code Rs}
+     * The series value ({@code parameter}: Cs, Ls or Rs) from the data as points and from each
+     * trace's fitted model as a line of the same colour, versus frequency; only positive values are
+     * drawn (log axis). Values come from the impedance core's {@link DerivedParameter}.
      */
-    public static JFreeChart seriesValue(String title, String symbol, String unit, List<Impedance> points,
-            CircuitFit fit) {
-        XYSeries measured = new XYSeries(symbol + " measured");
-        XYSeries model = new XYSeries(symbol + " fitted " + (fit == null ? "" : fit.model().id()));
-        for (Impedance z : points) {
-            add(measured, z.frequencyHz(), value(symbol, z.frequencyHz(), z.resistanceOhm(), z.reactanceOhm()));
-        }
-        if (fit != null && !points.isEmpty()) {
-            double f0 = points.get(0).frequencyHz();
-            double f1 = points.get(points.size() - 1).frequencyHz();
-            for (int i = 0; i <= 400; i++) {
-                double f = f0 * Math.pow(f1 / f0, i / 400.0);
-                Complex z = fit.impedanceAt(f);
-                add(model, f, value(symbol, f, z.getReal(), z.getImaginary()));
-            }
-        }
-        XYSeriesCollection data = new XYSeriesCollection(measured);
-        data.addSeries(model);
+    public static JFreeChart seriesValue(String title, DerivedParameter parameter, List<Trace> traces) {
+        String symbol = symbol(parameter);
+        XYSeriesCollection data = new XYSeriesCollection();
+        XYSeries all = new XYSeries("all");
         XYLineAndShapeRenderer renderer = new XYLineAndShapeRenderer();
-        renderer.setSeriesLinesVisible(0, false);
-        renderer.setSeriesShapesVisible(0, true);
-        renderer.setSeriesPaint(0, BLUE);
-        renderer.setSeriesShape(0, new Ellipse2D.Double(-3.5, -3.5, 7, 7));
-        renderer.setSeriesLinesVisible(1, true);
-        renderer.setSeriesShapesVisible(1, false);
-        renderer.setSeriesPaint(1, VERMILION);
-        renderer.setSeriesStroke(1, new BasicStroke(2f));
-        return chart(title, plot(frequencyAxis(points), axis(symbol + " (" + unit + ")", measured), data, renderer));
+        int n = traces.size();
+        for (int i = 0; i < n; i++) {
+            Trace t = traces.get(i);
+            XYSeries measured = new XYSeries(t.name(symbol + " measured"));
+            for (Impedance z : t.points()) {
+                add(measured, z.frequencyHz(), parameter.of(z));
+                add(all, z.frequencyHz(), parameter.of(z));
+            }
+            XYSeries model = new XYSeries(t.name(symbol + " fitted " + (t.fit() == null ? "" : t.fit().model().id())));
+            if (t.fit() != null && !t.points().isEmpty()) {
+                double f0 = t.points().get(0).frequencyHz();
+                double f1 = t.points().get(t.points().size() - 1).frequencyHz();
+                for (int k = 0; k <= 400; k++) {
+                    double f = f0 * Math.pow(f1 / f0, k / 400.0);
+                    Complex z = t.fit().impedanceAt(f);
+                    add(model, f, parameter.of(new Impedance(f, z.getReal(), z.getImaginary())));
+                }
+            }
+            data.addSeries(measured);
+            data.addSeries(model);
+            Color pointColour = n == 1 ? BLUE : colour(i);
+            Color lineColour = n == 1 ? VERMILION : colour(i);
+            renderer.setSeriesLinesVisible(2 * i, false);
+            renderer.setSeriesShapesVisible(2 * i, true);
+            renderer.setSeriesPaint(2 * i, pointColour);
+            renderer.setSeriesShape(2 * i, new Ellipse2D.Double(-3.5, -3.5, 7, 7));
+            renderer.setSeriesLinesVisible(2 * i + 1, true);
+            renderer.setSeriesShapesVisible(2 * i + 1, false);
+            renderer.setSeriesPaint(2 * i + 1, lineColour);
+            renderer.setSeriesStroke(2 * i + 1, SOLID);
+        }
+        String unit = parameter.unit().symbol();
+        return chart(title, plot(frequencyAxis(traces), axis(symbol + " (" + unit + ")", all), data, renderer));
     }
 
-    /** D (for a capacitor) or Q versus frequency, on log axes. */
-    public static JFreeChart loss(String title, boolean dissipation, List<Impedance> points) {
-        XYSeries s = new XYSeries(dissipation ? "D" : "Q");
-        for (Impedance z : points) {
-            double q = Math.abs(z.reactanceOhm()) / z.resistanceOhm();
-            add(s, z.frequencyHz(), dissipation ? 1 / q : q);
+    /** D (for a capacitor) or Q versus frequency, on log axes, one colour per trace. */
+    public static JFreeChart loss(String title, boolean dissipation, List<Trace> traces) {
+        DerivedParameter p = dissipation ? DerivedParameter.D : DerivedParameter.Q;
+        XYSeriesCollection data = new XYSeriesCollection();
+        XYSeries all = new XYSeries("all");
+        for (Trace t : traces) {
+            XYSeries s = new XYSeries(t.name(p.label()));
+            for (Impedance z : t.points()) {
+                add(s, z.frequencyHz(), p.of(z));
+                add(all, z.frequencyHz(), p.of(z));
+            }
+            data.addSeries(s);
         }
-        return chart(title, plot(frequencyAxis(points), axis(dissipation ? "D = R/|X|" : "Q = |X|/R", s),
-                new XYSeriesCollection(s), line(GREEN, true)));
+        XYLineAndShapeRenderer renderer = lines(traces.size(), 2, true);
+        return chart(title, plot(frequencyAxis(traces), axis(dissipation ? "D = R/|X|" : "Q = |X|/R", all), data,
+                renderer));
     }
 
     /** The value in % of its zero-bias value versus DC bias, with the drop levels and crossings marked. */
@@ -167,13 +225,10 @@ public final class Charts {
         return chart(title, plot);
     }
 
-    private static double value(String symbol, double f, double r, double x) {
-        double w = 2 * Math.PI * f;
-        return switch (symbol) {
-            case "Cs" -> -1 / (w * x);
-            case "Ls" -> x / w;
-            default -> r;
-        };
+    /** The parameter's symbol without remarks: {@code Rs} for "Rs (ESR)". */
+    static String symbol(DerivedParameter p) {
+        int space = p.label().indexOf(' ');
+        return space < 0 ? p.label() : p.label().substring(0, space);
     }
 
     private static void add(XYSeries s, double x, double y) {
@@ -182,9 +237,9 @@ public final class Charts {
         }
     }
 
-    private static ValueAxis frequencyAxis(List<Impedance> points) {
+    private static ValueAxis frequencyAxis(List<Trace> traces) {
         XYSeries f = new XYSeries("f");
-        points.forEach(z -> f.add(z.frequencyHz(), z.frequencyHz()));
+        traces.forEach(t -> t.points().forEach(z -> f.add(z.frequencyHz(), z.frequencyHz())));
         return axis("Frequency (Hz)", f);
     }
 
@@ -236,10 +291,33 @@ public final class Charts {
 
     private static XYLineAndShapeRenderer line(Color color, boolean shapes) {
         XYLineAndShapeRenderer r = new XYLineAndShapeRenderer(true, shapes);
-        r.setSeriesPaint(0, color);
-        r.setSeriesStroke(0, new BasicStroke(2f));
-        r.setSeriesShape(0, new Ellipse2D.Double(-3, -3, 6, 6));
+        style(r, 0, color, SOLID, new Ellipse2D.Double(-3, -3, 6, 6));
         return r;
+    }
+
+    /**
+     * A renderer for {@code n} series: one series in the palette colour {@code single}, several in
+     * palette order; solid lines with points, or dashed lines without.
+     */
+    private static XYLineAndShapeRenderer lines(int n, int single, boolean solid) {
+        XYLineAndShapeRenderer r = new XYLineAndShapeRenderer(true, solid || n == 1);
+        for (int i = 0; i < n; i++) {
+            style(r, i, colour(n == 1 ? single : i), solid || n == 1 ? SOLID : DASHED,
+                    new Ellipse2D.Double(-3, -3, 6, 6));
+        }
+        return r;
+    }
+
+    private static void style(XYLineAndShapeRenderer r, int series, Color colour, BasicStroke stroke,
+            java.awt.Shape shape) {
+        r.setSeriesPaint(series, colour);
+        r.setSeriesStroke(series, stroke);
+        r.setSeriesShape(series, shape);
+    }
+
+    /** Palette colour {@code i} (Okabe–Ito order, black left out), cycling. */
+    static Color colour(int i) {
+        return PALETTE[i % PALETTE.length];
     }
 
     private static XYPlot plot(ValueAxis x, ValueAxis y, XYSeriesCollection data, XYLineAndShapeRenderer renderer) {

@@ -10,8 +10,12 @@ import java.util.List;
 import org.jfree.chart.ChartUtils;
 import org.jfree.chart.JFreeChart;
 import org.jfree.svg.SVGGraphics2D;
+import org.zweep.driver.impedance.DerivedParameter;
+import org.zweep.runner.analysis.Analysis;
 import org.zweep.runner.analysis.AnalysisResult;
+import org.zweep.runner.analysis.CircuitFit;
 import org.zweep.runner.analysis.Derating;
+import org.zweep.runner.analysis.Si;
 import org.zweep.runner.analysis.StepResult;
 import org.zweep.runner.analysis.Sweep;
 
@@ -39,43 +43,47 @@ public final class Plots {
     private Plots() {
     }
 
-    /** The charts of {@code a}, in report order, before rendering. */
+    /**
+     * The charts of {@code a}, in report order, before rendering. Every frequency sweep of a step
+     * (one per level, bias and wiring) is drawn: overlaid with a legend, up to
+     * {@link Charts#MAX_TRACES} per chart, further sweeps on further charts ({@code -2}, ...).
+     */
     public static List<Named> charts(AnalysisResult a) {
         String kind = a.run().partKind();
-        String symbol = switch (kind) {
-            case "capacitor" -> "Cs";
-            case "resistor" -> "Rs";
-            default -> "Ls";
-        };
-        String unit = switch (kind) {
-            case "capacitor" -> "F";
-            case "resistor" -> "Ω";
-            default -> "H";
-        };
+        DerivedParameter value = Analysis.mainParameter(kind);
+        boolean dissipation = "capacitor".equals(kind);
+        List<Sweep> all = Sweep.of(a.run().rows());
         List<Named> out = new ArrayList<>();
         for (StepResult s : a.steps()) {
             String stem = safe(s.name());
-            StepResult.SweepFit sf = s.primaryFit();
-            List<Sweep> sweeps = sf != null ? List.of(sf.sweep())
-                    : Sweep.of(a.run().rows()).stream().filter(w -> w.stepIndex() == s.index() && w.frequencies() > 1)
-                            .limit(1).toList();
-            for (Sweep w : sweeps) {
-                String t = s.name() + " (" + w.describe() + ")";
-                out.add(new Named(stem + "-impedance", Charts.impedance("|Z| and θ, " + t, w.points())));
-                out.add(new Named(stem + "-rx", Charts.resistanceReactance("R and X, " + t, w.points())));
-                out.add(new Named(stem + "-value", Charts.seriesValue(symbol + " with fitted model, " + t, symbol, unit,
-                        w.points(), sf == null ? null : sf.fit())));
-                boolean d = "capacitor".equals(kind);
-                out.add(new Named(stem + "-" + (d ? "d" : "q"), Charts.loss((d ? "D, " : "Q, ") + t, d, w.points())));
+            List<Sweep> sweeps = all.stream().filter(w -> w.stepIndex() == s.index() && w.frequencies() > 1).toList();
+            for (int from = 0; from < sweeps.size(); from += Charts.MAX_TRACES) {
+                List<Sweep> group = sweeps.subList(from, Math.min(sweeps.size(), from + Charts.MAX_TRACES));
+                boolean single = group.size() == 1;
+                List<Charts.Trace> traces = group.stream()
+                        .map(w -> new Charts.Trace(single ? "" : w.describe(), w.points(), fitOf(s, w))).toList();
+                String t = s.name() + (single ? " (" + group.get(0).describe() + ")" : ", " + group.size() + " sweeps");
+                String part = from == 0 ? "" : "-" + (from / Charts.MAX_TRACES + 1);
+                out.add(new Named(stem + "-impedance" + part, Charts.impedance("|Z| and θ, " + t, traces)));
+                out.add(new Named(stem + "-rx" + part, Charts.resistanceReactance("R and X, " + t, traces)));
+                out.add(new Named(stem + "-value" + part, Charts.seriesValue(Charts.symbol(value)
+                        + " with fitted model, " + t, value, traces)));
+                out.add(new Named(stem + "-" + (dissipation ? "d" : "q") + part,
+                        Charts.loss((dissipation ? "D, " : "Q, ") + t, dissipation, traces)));
             }
             int i = 0;
             for (Derating d : s.derating()) {
                 String t = ("cs_f".equals(d.quantity()) ? "C vs DC bias" : "L vs bias current") + ", " + s.name() + " at "
-                        + org.zweep.runner.analysis.Si.format(d.frequencyHz(), "Hz");
+                        + Si.format(d.frequencyHz(), "Hz");
                 out.add(new Named(stem + "-bias" + (i++ == 0 ? "" : "-" + i), Charts.derating(t, d)));
             }
         }
         return out;
+    }
+
+    private static CircuitFit fitOf(StepResult step, Sweep sweep) {
+        return step.fits().stream().filter(f -> f.sweep().conditionLabel().equals(sweep.conditionLabel()))
+                .map(StepResult.SweepFit::fit).findFirst().orElse(null);
     }
 
     /** A chart and its file stem. */
