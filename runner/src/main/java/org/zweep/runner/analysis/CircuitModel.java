@@ -98,8 +98,9 @@ public enum CircuitModel {
                         case 0 -> minusInvY2.multiply(new Complex(tanDelta(p) * omega * p[0], omega * p[0]));
                         case 1 -> new Complex(p[1], 0);
                         case 2 -> new Complex(0, omega * p[2]);
+                        // ∂Y/∂(ln Rp) = −1/Rp for the leakage; ∂Y/∂(ln tan δ) = ωC·tan δ
                         default -> this == CAPACITOR_LEAKAGE
-                                ? minusInvY2.multiply(1.0 / p[3])
+                                ? minusInvY2.multiply(-1.0 / p[3])
                                 : minusInvY2.multiply(omega * p[0] * p[3]);
                     };
                 }

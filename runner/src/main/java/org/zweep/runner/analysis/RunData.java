@@ -76,6 +76,18 @@ public record RunData(RunFolder folder, RunManifest manifest, List<PointRow> row
         return new RunData(folder, manifest, rows, notes);
     }
 
+    /**
+     * This run, when it has at least one measured row.
+     *
+     * @throws InvalidInputException naming {@code points.csv} when it holds no row yet
+     */
+    public RunData requirePoints() {
+        if (rows.isEmpty()) {
+            throw new InvalidInputException(folder.points() + ": no measured point in the run folder yet");
+        }
+        return this;
+    }
+
     /** The part kind from the manifest in lower case ({@code capacitor}, ...), or empty. */
     public String partKind() {
         return manifest.part() == null || manifest.part().kind() == null ? "" : manifest.part().kind();

@@ -47,7 +47,7 @@ public final class AnalyzeCommand implements Callable<Integer> {
     public Integer call() {
         PrintWriter out = spec.commandLine().getOut();
         CircuitModel m = model == null ? null : CircuitModel.byId(model);
-        AnalysisResult a = Analysis.analyze(RunData.read(dir), m);
+        AnalysisResult a = Analysis.analyze(RunData.read(dir).requirePoints(), m);
         Path file = AnalysisJson.write(a);
         if (json) {
             out.print(AnalysisJson.text(a));

@@ -48,7 +48,7 @@ public final class ExportCommand implements Callable<Integer> {
     @Override
     public Integer call() {
         PrintWriter pw = spec.commandLine().getOut();
-        RunData run = RunData.read(dir);
+        RunData run = RunData.read(dir).requirePoints();
         switch (format) {
             case csv -> {
                 Path f = out != null ? out : dir.resolve("export.csv");

@@ -31,7 +31,7 @@ public final class ReportCommand implements Callable<Integer> {
 
     @Override
     public Integer call() {
-        AnalysisResult a = Analysis.analyze(RunData.read(dir), model == null ? null : CircuitModel.byId(model));
+        AnalysisResult a = Analysis.analyze(RunData.read(dir).requirePoints(), model == null ? null : CircuitModel.byId(model));
         AnalysisJson.write(a);
         Path report = HtmlReport.write(a);
         spec.commandLine().getOut().println(report);

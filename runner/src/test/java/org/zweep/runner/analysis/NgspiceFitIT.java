@@ -62,9 +62,15 @@ class NgspiceFitIT {
     /** The fit of the sweep after a round trip through a run folder (points.csv + run.json). */
     private CircuitFit fitThroughRunFolder(String kind, String part, double nominal, String unit, List<Impedance> z)
             throws Exception {
+        return fitThroughRunFolder(kind, part, nominal, unit, z, null);
+    }
+
+    /** As above with {@code model} chosen as {@code --model} does (null: from the part kind). */
+    private CircuitFit fitThroughRunFolder(String kind, String part, double nominal, String unit, List<Impedance> z,
+            CircuitModel model) throws Exception {
         Path dir = new TestRunFolders(tmp.resolve(part)).part(kind, part, nominal, unit, 10.0, null)
                 .impedance("sweep", z, "V", 1.0, "V", 0.0, "none", 0).write();
-        AnalysisResult a = Analysis.analyze(RunData.read(dir), null);
+        AnalysisResult a = Analysis.analyze(RunData.read(dir), model);
         return a.step("sweep").primaryFit().fit();
     }
 
@@ -124,5 +130,30 @@ class NgspiceFitIT {
         } else {
             assertNull(f.srfHz());
         }
+    }
+
+    @Test
+    void leakageResistanceOfALeakyCapacitorIsRecoveredFromAnNgspiceSweep() throws Exception {
+        List<Impedance> z = sweep("KP-C1210-105: 1 uF, ESR 0.2 ohm, ESL 2 nH, 200 kohm leakage",
+                "R1 in a 0.2\nL1 a b 2n\nC1 b 0 1u\nR2 b 0 200k", "dec 10 1 100meg");
+        CircuitFit f = fitThroughRunFolder("capacitor", "KP-C1210-105", 1e-6, "F", z, CircuitModel.CAPACITOR_LEAKAGE);
+        assertTrue(f.converged(), f.notes().toString());
+        // ngspice solves to ~1e-11·|Z| (see above); 1e-5 relative throughout
+        assertEquals(1e-6, f.value("c_f"), 1e-6 * 1e-5);
+        assertEquals(0.2, f.value("esr_ohm"), 0.2 * 1e-5);
+        assertEquals(2e-9, f.value("esl_h"), 2e-9 * 1e-5);
+        assertEquals(200e3, f.value("rp_ohm"), 200e3 * 1e-5);
+    }
+
+    @Test
+    void coreLossResistanceOfAPowerInductorIsRecoveredFromAnNgspiceSweep() throws Exception {
+        List<Impedance> z = sweep("KP-L1210-100: 10 uH, 80 mohm, 2.8 pF and 3 kohm core loss across",
+                "R1 in a 0.08\nL1 a 0 10u\nC1 in 0 2.8p\nR2 in 0 3k", "dec 20 1k 50meg");
+        CircuitFit f = fitThroughRunFolder("inductor", "KP-L1210-100", 10e-6, "H", z, CircuitModel.INDUCTOR_CORE_LOSS);
+        assertTrue(f.converged(), f.notes().toString());
+        assertEquals(10e-6, f.value("l_h"), 10e-6 * 1e-6);
+        assertEquals(0.08, f.value("r_ohm"), 0.08 * 1e-5);
+        assertEquals(2.8e-12, f.value("cp_f"), 2.8e-12 * 1e-6);
+        assertEquals(3000, f.value("rcore_ohm"), 3000 * 1e-5);
     }
 }

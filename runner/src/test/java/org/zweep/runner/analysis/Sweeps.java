@@ -39,6 +39,31 @@ final class Sweeps {
         };
     }
 
+    /** R + jωL in series with C ∥ Rp: Z = R + jωL + 1/(1/Rp + jωC). */
+    static DoubleFunction<Complex> leakyCapacitor(double r, double l, double c, double rp) {
+        return f -> {
+            double w = 2 * Math.PI * f;
+            return new Complex(r, w * l).add(new Complex(1 / rp, w * c).reciprocal());
+        };
+    }
+
+    /** R + jωL in series with a lossy C: Y_C = ωC·(tan δ + j), i.e. Z_C = (tan δ − j)/(ωC(1 + tan²δ)). */
+    static DoubleFunction<Complex> lossyCapacitor(double r, double l, double c, double tanDelta) {
+        return f -> {
+            double w = 2 * Math.PI * f;
+            double k = 1 / (w * c * (1 + tanDelta * tanDelta));
+            return new Complex(r + tanDelta * k, w * l - k);
+        };
+    }
+
+    /** (R + jωL) ∥ C ∥ Rcore, from the admittances: Y = 1/(R + jωL) + jωC + 1/Rcore. */
+    static DoubleFunction<Complex> inductorWithCoreLoss(double r, double l, double c, double rCore) {
+        return f -> {
+            double w = 2 * Math.PI * f;
+            return new Complex(r, w * l).reciprocal().add(new Complex(1 / rCore, w * c)).reciprocal();
+        };
+    }
+
     static List<Impedance> sweep(double[] f, DoubleFunction<Complex> z) {
         List<Impedance> out = new ArrayList<>();
         for (double fi : f) {
