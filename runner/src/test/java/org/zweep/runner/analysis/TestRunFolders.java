@@ -52,6 +52,15 @@ public final class TestRunFolders {
         return this;
     }
 
+    /** Adds one impedance row without a value (the meter gave none) at {@code frequencyHz}. */
+    public TestRunFolders noValue(String step, double frequencyHz) {
+        int index = steps.computeIfAbsent(step, s -> steps.size());
+        time = time.plusMillis(100);
+        rows.add(new PointRow(rows.size(), step, index, 0, "impedance", "none", frequencyHz, "V", 1.0, "V", 0.0,
+                Double.NaN, Double.NaN, Derived.NONE, Double.NaN, "no_value", "", time));
+        return this;
+    }
+
     public TestRunFolders check(String name, String parameter, String step, Double frequencyHz, Double min, Double max) {
         checks.add(new RunManifest.CheckInfo(name, parameter, step, frequencyHz, min, max));
         return this;
