@@ -95,6 +95,7 @@ public final class Plots {
         if (System.getProperty("java.awt.headless") == null) {
             System.setProperty("java.awt.headless", "true");
         }
+        requireFonts();
         Path dir = a.run().folder().dir().resolve("plots");
         List<Rendered> out = new ArrayList<>();
         try {
@@ -114,6 +115,22 @@ public final class Plots {
             throw new UncheckedIOException("cannot write plots under " + dir + ": " + e.getMessage(), e);
         }
         return out;
+    }
+
+    /**
+     * Fails with one clear line when Java finds no font to draw text with (a machine without any
+     * font package; on Debian the JRE's fontconfig dependency normally brings fonts-dejavu-core).
+     */
+    static void requireFonts() {
+        try {
+            java.awt.Graphics2D g = new java.awt.image.BufferedImage(1, 1, java.awt.image.BufferedImage.TYPE_INT_RGB)
+                    .createGraphics();
+            g.getFontMetrics(Charts.TICK).stringWidth("0");
+            g.dispose();
+        } catch (InternalError | RuntimeException e) {
+            throw new UncheckedIOException("cannot draw the plots: Java finds no usable font; install one, e.g."
+                    + " the Debian package fonts-dejavu-core", new IOException(e.toString(), e));
+        }
     }
 
     private static String safe(String s) {
