@@ -8,12 +8,12 @@ import org.apache.commons.math3.complex.Complex;
 import org.zweep.driver.impedance.Impedance;
 
 /** Synthetic sweeps for tests, computed from textbook circuit formulas written out here. */
-final class Sweeps {
+public final class Sweeps {
     private Sweeps() {
     }
 
     /** {@code n} frequencies log-spaced from {@code fromHz} to {@code toHz}, both included. */
-    static double[] logSpaced(double fromHz, double toHz, int n) {
+    public static double[] logSpaced(double fromHz, double toHz, int n) {
         double[] f = new double[n];
         for (int i = 0; i < n; i++) {
             f[i] = fromHz * Math.pow(toHz / fromHz, i / (double) (n - 1));
@@ -22,7 +22,7 @@ final class Sweeps {
     }
 
     /** Series R-L-C: Z = R + jωL + 1/(jωC). */
-    static DoubleFunction<Complex> seriesRlc(double r, double l, double c) {
+    public static DoubleFunction<Complex> seriesRlc(double r, double l, double c) {
         return f -> {
             double w = 2 * Math.PI * f;
             return new Complex(r, w * l - 1 / (w * c));
@@ -30,7 +30,7 @@ final class Sweeps {
     }
 
     /** (R + jωL) in parallel with C. */
-    static DoubleFunction<Complex> rlParallelC(double r, double l, double c) {
+    public static DoubleFunction<Complex> rlParallelC(double r, double l, double c) {
         return f -> {
             double w = 2 * Math.PI * f;
             Complex zs = new Complex(r, w * l);
@@ -40,7 +40,7 @@ final class Sweeps {
     }
 
     /** R + jωL in series with C ∥ Rp: Z = R + jωL + 1/(1/Rp + jωC). */
-    static DoubleFunction<Complex> leakyCapacitor(double r, double l, double c, double rp) {
+    public static DoubleFunction<Complex> leakyCapacitor(double r, double l, double c, double rp) {
         return f -> {
             double w = 2 * Math.PI * f;
             return new Complex(r, w * l).add(new Complex(1 / rp, w * c).reciprocal());
@@ -48,7 +48,7 @@ final class Sweeps {
     }
 
     /** R + jωL in series with a lossy C: Y_C = ωC·(tan δ + j), i.e. Z_C = (tan δ − j)/(ωC(1 + tan²δ)). */
-    static DoubleFunction<Complex> lossyCapacitor(double r, double l, double c, double tanDelta) {
+    public static DoubleFunction<Complex> lossyCapacitor(double r, double l, double c, double tanDelta) {
         return f -> {
             double w = 2 * Math.PI * f;
             double k = 1 / (w * c * (1 + tanDelta * tanDelta));
@@ -57,14 +57,14 @@ final class Sweeps {
     }
 
     /** (R + jωL) ∥ C ∥ Rcore, from the admittances: Y = 1/(R + jωL) + jωC + 1/Rcore. */
-    static DoubleFunction<Complex> inductorWithCoreLoss(double r, double l, double c, double rCore) {
+    public static DoubleFunction<Complex> inductorWithCoreLoss(double r, double l, double c, double rCore) {
         return f -> {
             double w = 2 * Math.PI * f;
             return new Complex(r, w * l).reciprocal().add(new Complex(1 / rCore, w * c)).reciprocal();
         };
     }
 
-    static List<Impedance> sweep(double[] f, DoubleFunction<Complex> z) {
+    public static List<Impedance> sweep(double[] f, DoubleFunction<Complex> z) {
         List<Impedance> out = new ArrayList<>();
         for (double fi : f) {
             Complex v = z.apply(fi);
@@ -77,7 +77,7 @@ final class Sweeps {
      * As {@link #sweep}, with independent Gaussian noise of standard deviation {@code relative}·|Z|
      * added to R and to X.
      */
-    static List<Impedance> noisy(double[] f, DoubleFunction<Complex> z, double relative, Random random) {
+    public static List<Impedance> noisy(double[] f, DoubleFunction<Complex> z, double relative, Random random) {
         List<Impedance> out = new ArrayList<>();
         for (double fi : f) {
             Complex v = z.apply(fi);

@@ -66,6 +66,20 @@ public final class TestRunFolders {
         return this;
     }
 
+    /**
+     * A transformer run of check-values.md §7 X7 [calc]: L1 = 10 mH, n = 4, k = 0.99, so Lsc1 = 199.0 µH and
+     * V1/V2 = L1/M = 4.0404; steps {@code open}, {@code short} and {@code ratio}, at 1 kHz.
+     */
+    public static TestRunFolders x7Transformer(Path dir) {
+        double w = 2 * Math.PI * 1000;
+        double m = 0.99 * Math.sqrt(10e-3 * 0.625e-3);
+        return new TestRunFolders(dir).part("transformer", "KP-T-4", 10e-3, "H", null, 4.0)
+                .impedance("open", List.of(new Impedance(1000, 2.0, w * 10e-3)), "V", 1.0, "V", 0, "secondary_open", 0)
+                .impedance("short", List.of(new Impedance(1000, 2.5, w * 199.0e-6)), "V", 1.0, "V", 0,
+                        "secondary_shorted", 0)
+                .ratio("ratio", 1000, m / 10e-3);
+    }
+
     /** Writes points.csv, run.json and sequence.yaml; returns the folder. */
     public Path write() throws Exception {
         Files.createDirectories(dir);

@@ -17,6 +17,7 @@ import org.apache.commons.math3.complex.Complex;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.zweep.driver.impedance.Impedance;
+import org.zweep.runner.analysis.Sweeps;
 import org.zweep.runner.analysis.TestRunFolders;
 
 /**
@@ -44,29 +45,7 @@ class AnalyzeContractTest {
     }
 
     private static List<Impedance> sweep(double fromHz, double toHz, int n, DoubleFunction<Complex> z) {
-        List<Impedance> out = new ArrayList<>();
-        for (int i = 0; i < n; i++) {
-            double f = fromHz * Math.pow(toHz / fromHz, i / (double) (n - 1));
-            Complex v = z.apply(f);
-            out.add(new Impedance(f, v.getReal(), v.getImaginary()));
-        }
-        return out;
-    }
-
-    /** ESR + jωESL + 1/(ωC(tan δ + j)): a capacitor with dielectric loss (textbook series algebra). */
-    private static DoubleFunction<Complex> lossyCapacitor(double esr, double esl, double c, double tanDelta) {
-        return f -> {
-            double w = 2 * Math.PI * f;
-            return new Complex(esr, w * esl).add(new Complex(w * c * tanDelta, w * c).reciprocal());
-        };
-    }
-
-    /** (R + jωL) ∥ Cp ∥ Rcore (textbook parallel algebra). */
-    private static DoubleFunction<Complex> inductor(double r, double l, double cp, double rCore) {
-        return f -> {
-            double w = 2 * Math.PI * f;
-            return new Complex(r, w * l).reciprocal().add(new Complex(1 / rCore, w * cp)).reciprocal();
-        };
+        return Sweeps.sweep(Sweeps.logSpaced(fromHz, toHz, n), z);
     }
 
     private static List<String> keys(JsonNode object) {
@@ -87,8 +66,8 @@ class AnalyzeContractTest {
     private Path capacitorRun(String name) throws Exception {
         // the KP-C0805-104 bench file's values: 100 nF, tan δ 0.012, ESR 25 mΩ, ESL 0.8 nH; SRF 17.8 MHz in the sweep
         return new TestRunFolders(tmp.resolve(name))
-                .impedance("sweep", sweep(100, 20e6, 53, lossyCapacitor(0.025, 0.8e-9, 100e-9, 0.012)), "V", 0.5, "V",
-                        0, "none", 0)
+                .impedance("sweep", sweep(100, 20e6, 53, Sweeps.lossyCapacitor(0.025, 0.8e-9, 100e-9, 0.012)), "V",
+                        0.5, "V", 0, "none", 0)
                 .write();
     }
 
@@ -114,11 +93,8 @@ class AnalyzeContractTest {
 
     @Test
     void modelOptionSelectsTheLeakageModel() throws Exception {
-        // 1 µF, 0.2 Ω, 2 nH, 200 kΩ leakage (tan δ = 0 here; the leakage is Rp): Z = ESR + jωL + 1/(1/Rp + jωC)
-        DoubleFunction<Complex> leaky = f -> {
-            double w = 2 * Math.PI * f;
-            return new Complex(0.2, w * 2e-9).add(new Complex(1 / 200e3, w * 1e-6).reciprocal());
-        };
+        // 1 µF, 0.2 Ω, 2 nH, 200 kΩ leakage: Z = ESR + jωL + 1/(1/Rp + jωC)
+        DoubleFunction<Complex> leaky = Sweeps.leakyCapacitor(0.2, 2e-9, 1e-6, 200e3);
         Path dir = new TestRunFolders(tmp.resolve("leaky")).part("capacitor", "KP-C1210-105", 1e-6, "F", 20.0, null)
                 .impedance("sweep", sweep(1, 100e6, 81, leaky), "V", 0.5, "V", 0, "none", 0).write();
         JsonNode step = analyzeJson(dir, "--model", "capacitor-leakage").at("/steps/0");
@@ -131,7 +107,7 @@ class AnalyzeContractTest {
         // 10 µH, 80 mΩ, 2.8 pF resonates at 30 MHz: at 100 kHz Cp changes Z by ω²LCp = 1e-5, hidden in 1e-3 noise,
         // so cp_f and srf_hz are null
         java.util.Random random = new java.util.Random(17);
-        List<Impedance> noisy = sweep(100, 100e3, 31, inductor(0.08, 10e-6, 2.8e-12, 1e300)).stream()
+        List<Impedance> noisy = sweep(100, 100e3, 31, Sweeps.rlParallelC(0.08, 10e-6, 2.8e-12)).stream()
                 .map(z -> new Impedance(z.frequencyHz(), z.resistanceOhm() + 1e-3 * z.magnitudeOhm() * random.nextGaussian(),
                         z.reactanceOhm() + 1e-3 * z.magnitudeOhm() * random.nextGaussian()))
                 .toList();
@@ -150,7 +126,7 @@ class AnalyzeContractTest {
     void modelOptionSelectsTheCoreLossModelForAnInductor() throws Exception {
         // the KP-L1210-100 bench file's values: 10 µH, 80 mΩ, 2.8 pF, 3 kΩ core loss
         Path dir = new TestRunFolders(tmp.resolve("core")).part("inductor", "KP-L1210-100", 10e-6, "H", 20.0, null)
-                .impedance("sweep", sweep(1e3, 50e6, 71, inductor(0.08, 10e-6, 2.8e-12, 3000)), "V", 0.5, "V", 0,
+                .impedance("sweep", sweep(1e3, 50e6, 71, Sweeps.inductorWithCoreLoss(0.08, 10e-6, 2.8e-12, 3000)), "V", 0.5, "V", 0,
                         "none", 0)
                 .write();
         JsonNode step = analyzeJson(dir, "--model", "inductor-core-loss").at("/steps/0");
@@ -162,7 +138,7 @@ class AnalyzeContractTest {
     void resistorStepHasTheContractKeys() throws Exception {
         // 1 kΩ, 1.5 nH, 0.08 pF (the NgspiceFitIT thick-film part): (R + jωLs) ∥ Cp
         Path dir = new TestRunFolders(tmp.resolve("r")).part("resistor", "KP-R0603-102", 1e3, "Ω", 1.0, null)
-                .impedance("sweep", sweep(10e3, 3e9, 51, inductor(1000, 1.5e-9, 0.08e-12, 1e300)), "V", 0.5, "V", 0,
+                .impedance("sweep", sweep(10e3, 3e9, 51, Sweeps.rlParallelC(1000, 1.5e-9, 0.08e-12)), "V", 0.5, "V", 0,
                         "none", 0)
                 .write();
         JsonNode step = analyzeJson(dir).at("/steps/0");
@@ -201,13 +177,7 @@ class AnalyzeContractTest {
     @Test
     void transformerObjectHasTheContractKeys() throws Exception {
         // check-values.md §7 X7 [calc]: L1 = 10 mH, n = 4, k = 0.99, Lsc1 = 199.0 µH
-        double w = 2 * Math.PI * 1000;
-        double m = 0.99 * Math.sqrt(10e-3 * 0.625e-3);
-        Path dir = new TestRunFolders(tmp.resolve("t")).part("transformer", "KP-T-4", 10e-3, "H", null, 4.0)
-                .impedance("open", List.of(new Impedance(1000, 2.0, w * 10e-3)), "V", 1.0, "V", 0, "secondary_open", 0)
-                .impedance("short", List.of(new Impedance(1000, 2.5, w * 199.0e-6)), "V", 1.0, "V", 0,
-                        "secondary_shorted", 0)
-                .ratio("ratio", 1000, m / 10e-3).write();
+        Path dir = TestRunFolders.x7Transformer(tmp.resolve("t")).write();
         JsonNode t = analyzeJson(dir).get("transformer");
         for (String k : List.of("turns_ratio", "k", "leakage_h", "mutual_h")) {
             assertTrue(t.get(k).isNumber(), k);
