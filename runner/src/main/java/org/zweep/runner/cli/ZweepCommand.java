@@ -15,6 +15,8 @@ import picocli.CommandLine.Spec;
         footer = ExitCode.HELP_LIST,
         subcommands = {
             CommandLine.HelpCommand.class,
+            ScpiCommand.class,
+            PingCommand.class,
         })
 public final class ZweepCommand implements Callable<Integer> {
 
