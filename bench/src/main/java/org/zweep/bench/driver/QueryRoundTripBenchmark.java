@@ -50,7 +50,7 @@ public class QueryRoundTripBenchmark {
         }
     }
 
-    /** A bare connected socket. */
+    /** A bare connected socket, reads without a timeout. */
     @State(Scope.Thread)
     public static class BareState {
         EchoPeer peer;
@@ -64,14 +64,28 @@ public class QueryRoundTripBenchmark {
             peer = new EchoPeer();
             socket = new Socket(InetAddress.getLoopbackAddress(), peer.port());
             socket.setTcpNoDelay(true);
+            socket.setSoTimeout(timeoutMillis());
             in = socket.getInputStream();
             out = socket.getOutputStream();
+        }
+
+        int timeoutMillis() {
+            return 0;
         }
 
         @TearDown(Level.Trial)
         public void close() throws IOException {
             socket.close();
             peer.close();
+        }
+    }
+
+    /** The same bare socket with a read timeout (SO_TIMEOUT 5 s), as any safe loop needs. */
+    @State(Scope.Thread)
+    public static class TimedBareState extends BareState {
+        @Override
+        int timeoutMillis() {
+            return 5000;
         }
     }
 
@@ -82,6 +96,15 @@ public class QueryRoundTripBenchmark {
 
     @Benchmark
     public int bareSocketLoop(BareState s) throws IOException {
+        return roundTrip(s);
+    }
+
+    @Benchmark
+    public int bareSocketLoopWithTimeout(TimedBareState s) throws IOException {
+        return roundTrip(s);
+    }
+
+    private static int roundTrip(BareState s) throws IOException {
         s.out.write(QUERY);
         int total = 0;
         while (true) {
