@@ -14,13 +14,25 @@ import org.zweep.driver.scpi.ScpiSettings;
 /** {@link Transport#ofStreams} over in-memory pipes, as an in-process simulator would connect. */
 class StreamTransportIT {
 
+    /** Two pipes: host to meter and meter to host. */
+    private static final class Pipes {
+        final PipedOutputStream meterOut = new PipedOutputStream();
+        final PipedInputStream hostIn;
+        final PipedInputStream meterIn = new PipedInputStream();
+        final PipedOutputStream hostOut;
+
+        Pipes() throws java.io.IOException {
+            hostIn = new PipedInputStream(meterOut);
+            hostOut = new PipedOutputStream(meterIn);
+        }
+    }
+
     @Test
     void carriesBytesBothWaysTimesOutAndReportsTheEnd() throws Exception {
-        PipedOutputStream meterOut = new PipedOutputStream();
-        PipedInputStream hostIn = new PipedInputStream(meterOut);
-        PipedInputStream meterIn = new PipedInputStream();
-        PipedOutputStream hostOut = new PipedOutputStream(meterIn);
-        try (Transport t = Transport.ofStreams(hostIn, hostOut, "sim:")) {
+        Pipes p = new Pipes();
+        PipedOutputStream meterOut = p.meterOut;
+        PipedInputStream meterIn = p.meterIn;
+        try (Transport t = Transport.ofStreams(p.hostIn, p.hostOut, "sim:")) {
             t.write("*IDN?\n".getBytes(StandardCharsets.ISO_8859_1), 0, 6);
             byte[] got = new byte[6];
             assertEquals(6, meterIn.read(got));
@@ -40,10 +52,9 @@ class StreamTransportIT {
 
     @Test
     void scpiClientRunsOverStreams() throws Exception {
-        PipedOutputStream meterOut = new PipedOutputStream();
-        PipedInputStream hostIn = new PipedInputStream(meterOut);
-        PipedInputStream meterIn = new PipedInputStream();
-        PipedOutputStream hostOut = new PipedOutputStream(meterIn);
+        Pipes p = new Pipes();
+        PipedOutputStream meterOut = p.meterOut;
+        PipedInputStream meterIn = p.meterIn;
         Thread meter = new Thread(() -> {
             try {
                 byte[] b = new byte[64];
@@ -57,7 +68,7 @@ class StreamTransportIT {
             }
         });
         meter.start();
-        try (ScpiClient c = ScpiClient.connect(Transport.ofStreams(hostIn, hostOut, "sim:"),
+        try (ScpiClient c = ScpiClient.connect(Transport.ofStreams(p.hostIn, p.hostOut, "sim:"),
                 ScpiSettings.builder().clearOnConnect(false).build())) {
             assertEquals(1000.0, c.queryNumber("FREQ?"));
         }

@@ -5,26 +5,11 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
-import java.io.PrintWriter;
-import java.io.StringWriter;
 import java.util.ArrayList;
 import java.util.List;
-import org.junit.jupiter.api.AfterEach;
 import org.junit.jupiter.api.Test;
 
-class PingCommandIT {
-    private final TinyMeter meter = new TinyMeter();
-    private final StringWriter out = new StringWriter();
-    private final StringWriter err = new StringWriter();
-
-    @AfterEach
-    void stop() throws Exception {
-        meter.close();
-    }
-
-    private int zweep(String... args) {
-        return Cli.run(args, new PrintWriter(out), new PrintWriter(err));
-    }
+class PingCommandIT extends TinyMeterCliBase {
 
     @Test
     void jsonHasTheDocumentedFieldsInOrderAndConsistentValues() throws Exception {

@@ -5,31 +5,17 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.io.ByteArrayInputStream;
 import java.io.PrintWriter;
-import java.io.StringWriter;
 import java.net.InetAddress;
 import java.net.ServerSocket;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.List;
-import org.junit.jupiter.api.AfterEach;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import picocli.CommandLine;
 
-class ScpiCommandIT {
-    private final TinyMeter meter = new TinyMeter();
-    private final StringWriter out = new StringWriter();
-    private final StringWriter err = new StringWriter();
-
-    @AfterEach
-    void stop() throws Exception {
-        meter.close();
-    }
-
-    private int zweep(String... args) {
-        return Cli.run(args, new PrintWriter(out), new PrintWriter(err));
-    }
+class ScpiCommandIT extends TinyMeterCliBase {
 
     @Test
     void sendsEachCommandInOrderAndPrintsEachReplyOnItsOwnLine() {
