@@ -13,7 +13,7 @@ import org.zweep.simulator.bench.Wiring;
 /**
  * A small, noiseless test bench: a device R + jωL behind a fixture with a series residual Zs on
  * the meter side and a stray admittance Yo across the slot (topology A of check-values.md §3.1).
- * Each point takes averages × aperture seconds. Records every request it sees.
+ * Each point takes averages × aperture seconds; only a held range overloads. Records every request it sees.
  */
 public final class TestBench implements Bench {
     /** 10 Hz to 10 MHz, 5 mV to 2 V, 50 µA to 20 mA, ±40 V / ±0.1 A bias, 201 list points, 1 Ω to 10 MΩ ranges. */
@@ -71,7 +71,8 @@ public final class TestBench implements Bench {
         };
         double[] ranges = LIMITS.rangesOhm();
         double range = Double.isNaN(r.rangeUpperOhm()) ? ranges[ranges.length - 1] : r.rangeUpperOhm();
-        boolean overload = zm.isInfinite() || zm.abs() > 1.5 * range;
+        // automatic ranging reads anything finite; a held range overloads above 1.5 times its limit
+        boolean overload = zm.isInfinite() || (!Double.isNaN(r.rangeUpperOhm()) && zm.abs() > 1.5 * range);
         if (overload) {
             return new PointResult(Double.NaN, Double.NaN, true, duration, r.driveLevelRms(), range);
         }
