@@ -255,11 +255,18 @@ final class Connection implements Session.Hooks {
         inflight.clear();
     }
 
-    /** The in-memory check for IEEE 488.2 §6.3.2.2: the client reads while no query is pending. */
-    void onClientBlockedRead(BytePipe toServer) {
+    /**
+     * The in-memory check for IEEE 488.2 §6.3.2.2: the client reads while no query is pending
+     * (this connection's reader waits for input and no reply is on its way).
+     *
+     * @return whether -420 was reported
+     */
+    boolean onClientBlockedRead(BytePipe toServer) {
         if (session.strict() && !stalled && !closed && toServer.readerWaitingOnEmpty() && !outputPending()) {
             session.report(StandardError.QUERY_UNTERMINATED, "read with no query pending");
+            return true;
         }
+        return false;
     }
 
     void stall(String where) {
