@@ -72,8 +72,9 @@ public final class SimCommand implements Callable<Integer> {
     @Option(names = "--seed", paramLabel = "N", description = "Seed all noise is drawn from.")
     Long seed;
 
-    @Option(names = "--timing", paramLabel = "real|none", defaultValue = "real",
-            description = "real: points take as long as on a real meter; none: as fast as possible (default ${DEFAULT-VALUE}).")
+    @Option(names = "--timing", paramLabel = "real|none",
+            description = "real: points take as long as on a real meter; none: as fast as possible"
+                    + " (default: the bench file's, else real).")
     String timing;
 
     @Option(names = "--strict", description = "Strict IEEE 488.2 query rules: -410 when a message interrupts a pending reply.")
@@ -108,12 +109,14 @@ public final class SimCommand implements Callable<Integer> {
     @Override
     public Integer call() {
         PrintWriter out = spec.commandLine().getOut();
-        TimingModel timingModel = switch (timing.toLowerCase(java.util.Locale.ROOT)) {
+        BenchSpec benchSpec = benchSpec();
+        String t = timing != null ? timing.toLowerCase(java.util.Locale.ROOT)
+                : benchSpec.timing() == Timing.NONE ? "none" : "real";
+        TimingModel timingModel = switch (t) {
             case "real" -> TimingModel.REAL;
             case "none" -> TimingModel.NONE;
             default -> throw new InvalidInputException("--timing: '" + timing + "' is not real or none");
         };
-        BenchSpec benchSpec = benchSpec();
         if (seed != null) {
             benchSpec = benchSpec.withSeed(seed);
         }
