@@ -73,9 +73,14 @@ final class Connection implements Session.Hooks {
         server.log("connection " + id + " from " + link.peer() + " opened");
         MessageFramer framer = new MessageFramer(link.input(), server.options().maxMessageBytes());
         try {
+            int timeoutMs = 0;
             while (!closed) {
                 Duration idle = faults.idleLimit();
-                link.setReadTimeoutMillis(idle == null ? 0 : (int) Math.max(1, Math.min(Integer.MAX_VALUE, idle.toMillis())));
+                int wanted = idle == null ? 0 : (int) Math.max(1, Math.min(Integer.MAX_VALUE, idle.toMillis()));
+                if (wanted != timeoutMs) {
+                    link.setReadTimeoutMillis(wanted);
+                    timeoutMs = wanted;
+                }
                 MessageFramer.Message m;
                 try {
                     m = framer.next();
