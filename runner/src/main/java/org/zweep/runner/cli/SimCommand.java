@@ -36,9 +36,10 @@ import picocli.CommandLine.Spec;
             "Serves the simulated impedance meter (IEEE 488.2 / SCPI over raw TCP) in the foreground.",
             "Prints 'listening on tcp://HOST:PORT' once ready, logs connections, stops on Ctrl-C."},
         footer = {
-            "%nFault specs (--fault, repeatable, or comma-separated): KIND[=VALUE][@WHEN] with KIND one of",
-            "  drop@N, drop-idle=SECONDS, drop-random=P, delay=SECONDS, fragment=BYTES, stall@N,",
-            "  omit-terminator, error=CODE, garble; WHEN is N, N+ (from N on), ~P (probability P) or",
+            "%nFault specs for --fault (repeatable or comma-separated): KIND[=VALUE][@WHEN]",
+            "  drop@N  drop-idle=SECONDS  drop-random=P  delay=SECONDS  fragment=BYTES",
+            "  stall@N  omit-terminator  error=CODE  garble",
+            "  WHEN: N (the N-th only), N+ (from the N-th on), ~P (each with probability P),",
             "  absent (every one). Each connection counts its own messages and replies.",
             ExitCode.HELP_LIST})
 public final class SimCommand implements Callable<Integer> {
