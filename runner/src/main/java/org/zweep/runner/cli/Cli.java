@@ -43,7 +43,10 @@ public final class Cli {
             return ExitCode.USAGE;
         });
         cl.setExecutionExceptionHandler((ex, c, parseResult) -> {
-            err.println("zweep: " + oneLine(ex));
+            boolean expected = ex instanceof InvalidInputException || ex instanceof MeterException
+                    || ex instanceof java.io.UncheckedIOException;
+            err.println("zweep: " + (expected ? "" : "internal error: ") + oneLine(ex)
+                    + (expected || debug ? "" : " (run with --debug for details)"));
             if (debug) {
                 ex.printStackTrace(err);
             }
@@ -56,9 +59,7 @@ public final class Cli {
         if (ex instanceof InvalidInputException || ex instanceof CommandLine.ParameterException) {
             return ExitCode.USAGE;
         }
-        if (ex instanceof MeterException) {
-            return ExitCode.METER;
-        }
+        // A meter failure, an I/O failure and an unexpected fault all stop the run the same way.
         return ExitCode.METER;
     }
 

@@ -15,6 +15,11 @@ import picocli.CommandLine.Spec;
         footer = ExitCode.HELP_LIST,
         subcommands = {
             CommandLine.HelpCommand.class,
+            ConvertCommand.class,
+            CheckCommand.class,
+            AnalyzeCommand.class,
+            ExportCommand.class,
+            ReportCommand.class,
             SimCommand.class,
         })
 public final class ZweepCommand implements Callable<Integer> {

@@ -1,0 +1,193 @@
+package org.zweep.runner.results;
+
+import com.fasterxml.jackson.annotation.JsonInclude;
+import com.fasterxml.jackson.annotation.JsonPropertyOrder;
+import com.fasterxml.jackson.core.JsonProcessingException;
+import com.fasterxml.jackson.databind.DeserializationFeature;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.databind.PropertyNamingStrategies;
+import com.fasterxml.jackson.databind.SerializationFeature;
+import java.io.IOException;
+import java.io.UncheckedIOException;
+import java.nio.ByteBuffer;
+import java.nio.channels.FileChannel;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.AtomicMoveNotSupportedException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.nio.file.StandardCopyOption;
+import java.nio.file.StandardOpenOption;
+import java.util.List;
+import org.zweep.driver.InvalidInputException;
+
+/**
+ * The {@code run.json} manifest of a run folder (format {@code zweep-run/1}): what was run, on
+ * which meter, with what compensation and software, when, and how it ended. Numbers that do not
+ * apply are {@code null}. Instants are ISO-8601 strings.
+ *
+ * @param format always {@link #FORMAT}
+ * @param sequence the sequence and its copy in the folder
+ * @param part the component under test
+ * @param steps the steps and their point counts
+ * @param checks the pass/fail limits
+ * @param meter the meter used
+ * @param compensation the fixture compensation used
+ * @param software the program that wrote the folder
+ * @param host the computer's name
+ * @param seed the simulator's noise seed; {@code null} on a real meter
+ * @param started when the run started
+ * @param ended when the run ended; {@code null} while running or after a crash
+ * @param counts planned and measured points
+ * @param outcome {@code running}, {@code completed}, {@code aborted} or {@code failed}
+ * @param verdict {@code pass}, {@code fail} or {@code none}
+ */
+@JsonPropertyOrder({"format", "sequence", "part", "steps", "checks", "meter", "compensation", "software", "host",
+        "seed", "started", "ended", "counts", "outcome", "verdict"})
+public record RunManifest(String format, SequenceInfo sequence, PartInfo part, List<StepInfo> steps,
+        List<CheckInfo> checks, MeterInfo meter, CompensationInfo compensation, SoftwareInfo software, String host,
+        Long seed, String started, String ended, Counts counts, String outcome, String verdict) {
+
+    /** The format tag this class reads and writes. */
+    public static final String FORMAT = "zweep-run/1";
+    /** The manifest's file name in a run folder. */
+    public static final String FILE = "run.json";
+
+    private static final ObjectMapper JSON = new ObjectMapper()
+            .setPropertyNamingStrategy(PropertyNamingStrategies.SNAKE_CASE)
+            .setSerializationInclusion(JsonInclude.Include.ALWAYS)
+            .enable(SerializationFeature.INDENT_OUTPUT)
+            .disable(DeserializationFeature.FAIL_ON_UNKNOWN_PROPERTIES);
+
+    /**
+     * The sequence run.
+     *
+     * @param name its name
+     * @param file the original path
+     * @param sha256 the SHA-256 of its bytes, in lower-case hex
+     * @param copy the copy's name inside the folder ({@code sequence.yaml})
+     */
+    public record SequenceInfo(String name, String file, String sha256, String copy) {
+    }
+
+    /**
+     * The component under test.
+     *
+     * @param kind {@code capacitor}, {@code inductor}, {@code resistor} or {@code transformer}
+     * @param name its label
+     * @param nominal the nominal value in {@code unit}
+     * @param unit {@code F}, {@code H} or {@code Ω}
+     * @param tolerancePercent the tolerance in percent, or {@code null}
+     * @param turnsRatio a transformer's nominal turns ratio, or {@code null}
+     */
+    public record PartInfo(String kind, String name, Double nominal, String unit, Double tolerancePercent,
+            Double turnsRatio) {
+    }
+
+    /** One step: its index, name and number of planned points. */
+    public record StepInfo(int index, String name, int points) {
+    }
+
+    /**
+     * One check; {@code min}/{@code max} {@code null} when unbounded, {@code frequencyHz}
+     * {@code null} for whole-sweep figures such as {@code srf_hz}.
+     */
+    public record CheckInfo(String name, String parameter, String step, Double frequencyHz, Double min, Double max) {
+    }
+
+    /** The meter: address, dialect and its {@code *IDN?} identity. */
+    public record MeterInfo(String address, String dialect, String identity) {
+    }
+
+    /**
+     * The compensation used.
+     *
+     * @param mode {@code none}, {@code meter} or {@code host}
+     * @param standards the standards, e.g. {@code ["OPEN","SHORT"]}
+     * @param data the host-side data file, relative to the folder when inside it; {@code null} otherwise
+     */
+    public record CompensationInfo(String mode, List<String> standards, String data) {
+    }
+
+    /** The program that wrote the folder. */
+    public record SoftwareInfo(String name, String version) {
+    }
+
+    /** Planned and measured point counts. */
+    public record Counts(int planned, int measured) {
+    }
+
+    /** This manifest with a new outcome, end time, counts and verdict. */
+    public RunManifest finished(String newOutcome, String newEnded, Counts newCounts, String newVerdict) {
+        return new RunManifest(format, sequence, part, steps, checks, meter, compensation, software, host, seed,
+                started, newEnded, newCounts, newOutcome, newVerdict);
+    }
+
+    /** This manifest with another meter and compensation record (after a resume reconnects). */
+    public RunManifest withMeter(MeterInfo newMeter) {
+        return new RunManifest(format, sequence, part, steps, checks, newMeter, compensation, software, host, seed,
+                started, ended, counts, outcome, verdict);
+    }
+
+    /** This manifest with another compensation record. */
+    public RunManifest withCompensation(CompensationInfo newCompensation) {
+        return new RunManifest(format, sequence, part, steps, checks, meter, newCompensation, software, host, seed,
+                started, ended, counts, outcome, verdict);
+    }
+
+    /** The manifest as JSON text. */
+    public String toJson() {
+        try {
+            return JSON.writeValueAsString(this);
+        } catch (JsonProcessingException e) {
+            throw new IllegalStateException("cannot write run.json: " + e.getMessage(), e);
+        }
+    }
+
+    /**
+     * Writes the manifest to {@code file} atomically: to a temporary file in the same folder,
+     * synced, then moved over the old one, so a crash leaves either the old or the new manifest.
+     */
+    public void write(Path file) {
+        Path tmp = file.resolveSibling(file.getFileName() + ".tmp");
+        try {
+            try (FileChannel ch = FileChannel.open(tmp, StandardOpenOption.CREATE, StandardOpenOption.WRITE,
+                    StandardOpenOption.TRUNCATE_EXISTING)) {
+                ByteBuffer b = ByteBuffer.wrap((toJson() + "\n").getBytes(StandardCharsets.UTF_8));
+                while (b.hasRemaining()) {
+                    ch.write(b);
+                }
+                ch.force(true);
+            }
+            try {
+                Files.move(tmp, file, StandardCopyOption.ATOMIC_MOVE, StandardCopyOption.REPLACE_EXISTING);
+            } catch (AtomicMoveNotSupportedException e) {
+                Files.move(tmp, file, StandardCopyOption.REPLACE_EXISTING);
+            }
+        } catch (IOException e) {
+            throw new UncheckedIOException("cannot write " + file + ": " + e.getMessage(), e);
+        }
+    }
+
+    /**
+     * Reads a manifest.
+     *
+     * @throws InvalidInputException when the file is missing, not JSON or not {@link #FORMAT}
+     */
+    public static RunManifest read(Path file) {
+        if (!Files.isRegularFile(file)) {
+            throw new InvalidInputException(file + ": no run manifest here (is this a run folder?)");
+        }
+        RunManifest m;
+        try {
+            m = JSON.readValue(file.toFile(), RunManifest.class);
+        } catch (JsonProcessingException e) {
+            throw new InvalidInputException(file + ": not a valid run manifest: " + e.getOriginalMessage(), e);
+        } catch (IOException e) {
+            throw new UncheckedIOException("cannot read " + file + ": " + e.getMessage(), e);
+        }
+        if (!FORMAT.equals(m.format())) {
+            throw new InvalidInputException(file + ": format is " + m.format() + ", expected " + FORMAT);
+        }
+        return m;
+    }
+}

@@ -1,0 +1,105 @@
+package org.zweep.runner.results;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
+import static org.junit.jupiter.api.Assertions.assertThrows;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.nio.file.StandardOpenOption;
+import java.util.ArrayList;
+import java.util.List;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.zweep.driver.InvalidInputException;
+
+class PointsCsvReaderTest {
+    @TempDir
+    Path dir;
+
+    private Path writeRows(int n) {
+        Path f = dir.resolve("points.csv");
+        try (PointsCsvWriter w = PointsCsvWriter.open(f)) {
+            for (int i = 0; i < n; i++) {
+                w.append(PointsCsvTest.row(i, "s", 1.0 + i, -100.0));
+            }
+        }
+        return f;
+    }
+
+    @Test
+    void readsBackEveryRowInOrder() {
+        Path f = writeRows(5);
+        List<PointRow> rows = new ArrayList<>();
+        PointsCsvReader.Recovery r = PointsCsvReader.recover(f, rows::add);
+        assertEquals(5, r.rows());
+        assertFalse(r.tornLineDropped());
+        assertEquals(List.of(0, 1, 2, 3, 4), rows.stream().map(PointRow::point).toList());
+    }
+
+    @Test
+    void tornLastLineFromAPowerCutIsDroppedAndAppendingContinuesCleanly() throws Exception {
+        Path f = writeRows(3);
+        String half = PointsCsv.format(PointsCsvTest.row(3, "s", 9.0, -9.0)).substring(0, 40);
+        Files.writeString(f, half, StandardCharsets.UTF_8, StandardOpenOption.APPEND);
+
+        List<PointRow> rows = new ArrayList<>();
+        PointsCsvReader.Recovery r = PointsCsvReader.recover(f, rows::add);
+        assertEquals(3, r.rows());
+        assertTrue(r.tornLineDropped());
+        try (PointsCsvWriter w = PointsCsvWriter.open(f)) {
+            w.append(PointsCsvTest.row(3, "s", 4.0, -100.0));
+        }
+        rows.clear();
+        assertEquals(4, PointsCsvReader.recover(f, rows::add).rows());
+        assertEquals(List.of(0, 1, 2, 3), rows.stream().map(PointRow::point).toList());
+        assertEquals(4.0, rows.get(3).rOhm());
+    }
+
+    @Test
+    void lastLineOfZeroBytesIsTreatedAsTorn() throws Exception {
+        Path f = writeRows(2);
+        Files.write(f, new byte[] {0, 0, 0, 0, '\n'}, StandardOpenOption.APPEND);
+        PointsCsvReader.Recovery r = PointsCsvReader.recover(f, row -> { });
+        assertEquals(2, r.rows());
+        assertTrue(r.tornLineDropped());
+        assertEquals(3, Files.readAllLines(f).size());
+    }
+
+    @Test
+    void malformedRowInTheMiddleIsAnErrorNamingItsLine() throws Exception {
+        Path f = writeRows(2);
+        List<String> lines = new ArrayList<>(Files.readAllLines(f));
+        lines.add(2, "garbage,row");
+        Files.write(f, lines);
+        InvalidInputException e = assertThrows(InvalidInputException.class, () -> PointsCsvReader.recover(f, r -> { }));
+        assertTrue(e.getMessage().startsWith(f + ":3: malformed row"), e.getMessage());
+    }
+
+    @Test
+    void unexpectedHeaderIsAnError() throws Exception {
+        Path f = dir.resolve("points.csv");
+        Files.writeString(f, "a,b,c\n1,2,3\n");
+        InvalidInputException e = assertThrows(InvalidInputException.class, () -> PointsCsvReader.recover(f, r -> { }));
+        assertTrue(e.getMessage().startsWith(f + ":1: expected the header"), e.getMessage());
+    }
+
+    @Test
+    void missingFileReadsAsEmpty() {
+        assertEquals(0, PointsCsvReader.recover(dir.resolve("none.csv"), r -> { }).rows());
+    }
+
+    @Test
+    void writerPutsTheHeaderOnlyIntoANewFile() throws Exception {
+        Path f = writeRows(1);
+        try (PointsCsvWriter w = PointsCsvWriter.open(f)) {
+            w.append(PointsCsvTest.row(1, "s", 1.0, -1.0));
+        }
+        List<String> lines = Files.readAllLines(f);
+        assertEquals(3, lines.size());
+        assertEquals(PointsCsv.HEADER, lines.get(0));
+        assertEquals(1, lines.stream().filter(PointsCsv.HEADER::equals).count());
+    }
+}
