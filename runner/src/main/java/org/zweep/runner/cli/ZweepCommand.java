@@ -22,6 +22,7 @@ import picocli.CommandLine.Spec;
             ReportCommand.class,
             ScpiCommand.class,
             PingCommand.class,
+            SimCommand.class,
         })
 public final class ZweepCommand implements Callable<Integer> {
 
