@@ -69,6 +69,7 @@ class ServerIT {
             a.sendRaw("SOUR:FREQ 3E3;VOLT".getBytes(StandardCharsets.US_ASCII)); // half a message on A
             assertEquals("1.0E+03", b.query("SOUR:FREQ?")); // B unaffected by A's partial message
             a.sendRaw(" 0.5\n".getBytes(StandardCharsets.US_ASCII));
+            assertEquals("1", a.query("*OPC?")); // A's message has been executed before B looks
             assertEquals("5.0E-01", b.query("SOUR:VOLT?")); // shared settings
             assertEquals("3.0E+03", b.query("SOUR:FREQ?"));
             assertEquals(2, server.connectionCount());
