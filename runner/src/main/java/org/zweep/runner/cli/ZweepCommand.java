@@ -20,6 +20,9 @@ import picocli.CommandLine.Spec;
             AnalyzeCommand.class,
             ExportCommand.class,
             ReportCommand.class,
+            ScpiCommand.class,
+            PingCommand.class,
+            SimCommand.class,
         })
 public final class ZweepCommand implements Callable<Integer> {
 
