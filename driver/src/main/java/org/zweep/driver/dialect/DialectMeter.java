@@ -12,7 +12,6 @@ import java.util.Map;
 import java.util.Optional;
 import java.util.stream.Collectors;
 import org.zweep.driver.InvalidInputException;
-import org.zweep.driver.MeterException;
 import org.zweep.driver.impedance.Impedance;
 import org.zweep.driver.meter.Bias;
 import org.zweep.driver.meter.CorrectionStandard;
@@ -29,7 +28,9 @@ import org.zweep.driver.meter.ReadingStatus;
 import org.zweep.driver.meter.SourceMode;
 import org.zweep.driver.scpi.MeterErrorException;
 import org.zweep.driver.scpi.ScpiError;
+import org.zweep.driver.scpi.ScpiProtocolException;
 import org.zweep.driver.scpi.ScpiSession;
+import org.zweep.driver.scpi.ScpiValues;
 
 /**
  * A {@link Meter} driven entirely by a {@link Dialect} over one {@link ScpiSession}.
@@ -94,7 +95,7 @@ public final class DialectMeter implements Meter {
         String reply = session.query(render(Command.IDENTIFY));
         String[] f = reply.split(",", -1);
         if (f.length < 2) {
-            throw new MeterException(session.address() + ": identity reply '" + abbreviate(reply)
+            throw new ScpiProtocolException(session.address() + ": identity reply '" + abbreviate(reply)
                     + "' does not have comma-separated fields (IEEE 488.2 *IDN? form)");
         }
         String firmware = f.length > 3 ? String.join(",", List.of(f).subList(3, f.length)).trim() : "0";
@@ -505,7 +506,7 @@ public final class DialectMeter implements Meter {
             }
             return new ScpiError(n, text);
         } catch (NumberFormatException e) {
-            throw new MeterException(session.address() + ": reply '" + abbreviate(reply)
+            throw new ScpiProtocolException(session.address() + ": reply '" + abbreviate(reply)
                     + "' to the error query is not 'code,\"text\"' while " + what);
         }
     }
@@ -535,7 +536,7 @@ public final class DialectMeter implements Meter {
         } else {
             byte[] block = session.queryBlock(query);
             if (block.length % Double.BYTES != 0) {
-                throw new MeterException(session.address() + ": a REAL,64 block of " + block.length
+                throw new ScpiProtocolException(session.address() + ": a REAL,64 block of " + block.length
                         + " bytes is not a whole number of doubles while " + what);
             }
             ByteBuffer b = ByteBuffer.wrap(block).order(shape.encoding() == ReplyShape.Encoding.REAL64_BIG
@@ -547,7 +548,7 @@ public final class DialectMeter implements Meter {
             shown = block.length + " bytes";
         }
         if (values.length != expected) {
-            throw new MeterException(session.address() + ": expected " + expected + " numbers (" + points
+            throw new ScpiProtocolException(session.address() + ": expected " + expected + " numbers (" + points
                     + " points of " + shape.fields().size() + " fields) but got " + values.length + " ('" + shown
                     + "') while " + what);
         }
@@ -562,10 +563,10 @@ public final class DialectMeter implements Meter {
         double[] values = new double[parts.length];
         for (int i = 0; i < parts.length; i++) {
             try {
-                values[i] = Double.parseDouble(parts[i].strip());
+                values[i] = ScpiValues.parseNumber(parts[i]);
             } catch (NumberFormatException e) {
-                throw new MeterException(session.address() + ": '" + abbreviate(parts[i])
-                        + "' in the reply is not a number while " + what);
+                throw new ScpiProtocolException(session.address() + ": '" + abbreviate(parts[i].strip())
+                        + "' in the reply is not an NR1/NR2/NR3 number while " + what, e);
             }
         }
         return values;

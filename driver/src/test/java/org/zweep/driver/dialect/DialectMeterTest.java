@@ -18,6 +18,7 @@ import org.zweep.driver.meter.MeasurementSetting;
 import org.zweep.driver.meter.Reading;
 import org.zweep.driver.scpi.MeterErrorException;
 import org.zweep.driver.scpi.ScpiError;
+import org.zweep.driver.scpi.ScpiProtocolException;
 import org.zweep.driver.scpi.ScpiSession;
 
 class DialectMeterTest {
@@ -266,5 +267,17 @@ class DialectMeterTest {
 
         assertFalse(r.setting().bias().on());
         assertEquals(BIAS_OFF + ";:SYST:ERR?", fake.messages().get(fake.messages().size() - 2));
+    }
+
+    @Test
+    void aReadingThatIsNoScpiNumberIsAProtocolErrorEvenWhenJavaWouldParseIt() {
+        // IEEE 488.2 §8.7.2-8.7.4: NR1/NR2/NR3 have no type suffix, hex, "NaN" or "Infinity";
+        // a garbled "+1.0E+01" can read "+1.0E+0d", which Double.parseDouble takes for 1.0
+        for (String garbled : List.of("+1.0E+0d", "+1.0E+01f", "NaN", "Infinity", "0x1p3")) {
+            fake.answer = m -> m.startsWith(":READ?") ? garbled + ",-2.0E+01;0,\"No error\"" : "0,\"No error\"";
+            meter.apply(MeasurementSetting.at(1000));
+            ScpiProtocolException e = assertThrows(ScpiProtocolException.class, meter::measure, garbled);
+            assertTrue(e.getMessage().contains("'" + garbled + "'"), e.getMessage());
+        }
     }
 }

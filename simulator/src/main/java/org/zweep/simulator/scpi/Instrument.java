@@ -389,14 +389,18 @@ public final class Instrument implements AutoCloseable {
             if (n == 0) {
                 throw new ScpiException(StandardError.SETTINGS_CONFLICT, "FREQuency:MODE LIST with an empty LIST:FREQuency");
             }
-            if (!lengthFits(s.listVoltageVrms.length, n) || !lengthFits(s.listBiasVoltageV.length, n)) {
+            // only the lists that take part in this sweep must match it: the level list with a
+            // voltage drive, the bias list with the voltage bias on
+            boolean levelListed = s.drive == SourceKind.VOLTAGE && s.listVoltageVrms.length > 0;
+            boolean biasListed = s.voltageBiasOn && s.listBiasVoltageV.length > 0;
+            if ((levelListed && !lengthFits(s.listVoltageVrms.length, n))
+                    || (biasListed && !lengthFits(s.listBiasVoltageV.length, n))) {
                 throw new ScpiException(StandardError.LISTS_NOT_SAME_LENGTH, "LIST:FREQuency has " + n + " points");
             }
             long key = session.takeNoiseKeys(n);
             for (int i = 0; i < n; i++) {
-                double level = s.drive == SourceKind.VOLTAGE && s.listVoltageVrms.length > 0
-                        ? pick(s.listVoltageVrms, i) : levelOf(s);
-                double bias = s.listBiasVoltageV.length > 0 ? pick(s.listBiasVoltageV, i) : s.biasVoltageV;
+                double level = levelListed ? pick(s.listVoltageVrms, i) : levelOf(s);
+                double bias = biasListed ? pick(s.listBiasVoltageV, i) : s.biasVoltageV;
                 points.add(request(s, s.voltageRatio, s.listFrequencyHz[i], level, bias, heldRange(s), key + i));
             }
         } else {

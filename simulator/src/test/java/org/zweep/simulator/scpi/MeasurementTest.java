@@ -138,6 +138,24 @@ class MeasurementTest {
     }
 
     @Test
+    void aListThatTakesNoPartInTheSweepMayHaveAnotherLength() {
+        // SCPI-1999 Vol 2 §21.8.10: -226 is for lists swept together; a bias list with the bias
+        // off, or a voltage-level list under a current drive, is not swept
+        c.send("SIM:TIM NONE;:SOUR:LIST:FREQ 100,1000,10000;:SOUR:LIST:VOLT:OFFS 1,2,3;:SOUR:FREQ:MODE LIST");
+        c.send("SOUR:LIST:FREQ 100,200,300,400,500;:SOUR:LIST:VOLT 0.1,0.2,0.3,0.4,0.5");
+        assertEquals(10, numbers(c.send("READ?")).length);
+        c.send("SOUR:CURR 0.001;:SOUR:LIST:FREQ 100,200,300,400");
+        assertEquals(8, numbers(c.send("READ?")).length);
+        assertEquals(List.of(), c.codes());
+        List<PointRequest> reqs = bench.requests();
+        assertEquals(List.of(0.001, 0.001, 0.001, 0.001),
+                reqs.subList(reqs.size() - 4, reqs.size()).stream().map(PointRequest::driveLevelRms).toList());
+        c.send("SOUR:VOLT 1;:SOUR:LIST:VOLT 0.1;:SOUR:VOLT:OFFS:STAT ON");
+        c.send("READ?");
+        assertEquals(List.of(-226), c.codes()); // the 3-point bias list is swept now
+    }
+
+    @Test
     void real64RepliesAreDefiniteBlocksInEitherByteOrder() {
         // IEEE 488.2 §8.7.9 definite-length block; SCPI-1999 Vol 2 FORMat: NORMal big-endian, SWAPped little
         c.send("SIM:TIM NONE");

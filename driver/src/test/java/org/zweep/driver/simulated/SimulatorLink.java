@@ -1,0 +1,159 @@
+package org.zweep.driver.simulated;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+
+import java.io.IOException;
+import java.io.UncheckedIOException;
+import java.util.ArrayList;
+import java.util.Collections;
+import java.util.List;
+import org.zweep.driver.dialect.DialectMeter;
+import org.zweep.driver.scpi.ScpiClient;
+import org.zweep.driver.scpi.ScpiError;
+import org.zweep.driver.scpi.ScpiSession;
+import org.zweep.driver.scpi.ScpiSettings;
+import org.zweep.driver.transport.Transport;
+import org.zweep.simulator.bench.BenchSpec;
+import org.zweep.simulator.bench.SimulatedBench;
+import org.zweep.simulator.scpi.InstrumentOptions;
+import org.zweep.simulator.scpi.TimingModel;
+import org.zweep.simulator.server.InMemoryConnection;
+import org.zweep.simulator.server.ServerOptions;
+import org.zweep.simulator.server.SimulatorServer;
+
+/**
+ * A simulator server on one bench and a {@link ScpiClient} connected to it, over loopback TCP or
+ * an in-memory stream pair; every message the client sends is recorded.
+ */
+final class SimulatorLink implements AutoCloseable {
+
+    /** How the client reaches the simulator. */
+    enum Kind { TCP, IN_MEMORY }
+
+    /** Short read timeouts for the fault tests. */
+    static final ScpiSettings FAST = ScpiSettings.builder().readTimeout(java.time.Duration.ofMillis(400)).build();
+
+    final SimulatorServer server;
+    final ScpiClient client;
+    final Recording session;
+    private final Kind kind;
+    private final List<ScpiClient> others = new ArrayList<>();
+    private final ScpiClient probe;
+
+    private SimulatorLink(SimulatorServer server, Kind kind, ScpiSettings settings) {
+        this.server = server;
+        this.kind = kind;
+        this.client = connect(settings);
+        this.session = new Recording(client);
+        // opened now: its *CLS would clear the shared error queue later
+        this.probe = another();
+    }
+
+    /** A server on {@code bench} with no timing (points take no time), reached over {@code kind}. */
+    static SimulatorLink open(Kind kind, BenchSpec bench) {
+        return open(kind, bench, options(TimingModel.NONE), ScpiSettings.DEFAULTS);
+    }
+
+    static SimulatorLink open(Kind kind, BenchSpec bench, ServerOptions options, ScpiSettings settings) {
+        try {
+            return new SimulatorLink(SimulatorServer.start(new SimulatedBench(bench), options), kind, settings);
+        } catch (IOException e) {
+            throw new UncheckedIOException(e);
+        }
+    }
+
+    /** Loopback TCP on a free port, with {@code timing}. */
+    static ServerOptions options(TimingModel timing) {
+        return ServerOptions.defaults().withPort(0).withInstrument(InstrumentOptions.defaults().withTiming(timing));
+    }
+
+    /** The address a TCP client opens. */
+    String tcpAddress() {
+        return "tcp://127.0.0.1:" + server.port();
+    }
+
+    /** Another client on the same simulator (shared instrument state), closed with this link. */
+    ScpiClient another() {
+        ScpiClient c = connect(ScpiSettings.DEFAULTS);
+        others.add(c);
+        return c;
+    }
+
+    private ScpiClient connect(ScpiSettings settings) {
+        if (kind == Kind.TCP) {
+            return ScpiClient.open(tcpAddress(), settings);
+        }
+        InMemoryConnection c = server.connectInMemory();
+        return ScpiClient.connect(Transport.ofStreams(c.input(), c.output(), "sim:in-memory"), settings);
+    }
+
+    /** The {@code standard} dialect over the recorded session. */
+    DialectMeter standardMeter() {
+        return DialectMeter.open(session, "standard");
+    }
+
+    /** Asserts that the simulator's error queue is empty, read over a second connection. */
+    void assertNoErrors(String after) {
+        assertEquals(List.of(), probe().drainErrors(), "the simulator's error queue after " + after);
+    }
+
+    /** A second connection for looking at the simulator's state, opened with the link. */
+    ScpiClient probe() {
+        return probe;
+    }
+
+    @Override
+    public void close() {
+        client.close();
+        others.forEach(ScpiClient::close);
+        server.close();
+    }
+
+    /** A session that records every message sent through it, then passes it on. */
+    static final class Recording implements ScpiSession {
+        private final ScpiSession inner;
+        private final List<String> sent = Collections.synchronizedList(new ArrayList<>());
+
+        Recording(ScpiSession inner) {
+            this.inner = inner;
+        }
+
+        /** Every message sent so far, in order. */
+        List<String> sent() {
+            return List.copyOf(sent);
+        }
+
+        @Override
+        public String address() {
+            return inner.address();
+        }
+
+        @Override
+        public void write(String message) {
+            sent.add(message);
+            inner.write(message);
+        }
+
+        @Override
+        public String query(String message) {
+            sent.add(message);
+            return inner.query(message);
+        }
+
+        @Override
+        public byte[] queryBlock(String message) {
+            sent.add(message);
+            return inner.queryBlock(message);
+        }
+
+        @Override
+        public List<ScpiError> drainErrors() {
+            return inner.drainErrors();
+        }
+
+        @Override
+        public void close() {
+            inner.close();
+        }
+    }
+}
