@@ -15,6 +15,7 @@ import picocli.CommandLine.Spec;
         footer = ExitCode.HELP_LIST,
         subcommands = {
             CommandLine.HelpCommand.class,
+            CheckCommand.class,
         })
 public final class ZweepCommand implements Callable<Integer> {
 

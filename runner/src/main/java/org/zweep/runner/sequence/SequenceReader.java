@@ -1,0 +1,638 @@
+package org.zweep.runner.sequence;
+
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.time.Duration;
+import java.util.ArrayList;
+import java.util.HashMap;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+import java.util.Optional;
+import java.util.OptionalDouble;
+import java.util.regex.Matcher;
+import java.util.regex.Pattern;
+import org.zweep.driver.impedance.Impedance;
+import org.zweep.driver.meter.CorrectionStandard;
+import org.zweep.driver.meter.ImpedanceRange;
+import org.zweep.driver.meter.MeasuredQuantity;
+import org.zweep.runner.plan.BiasControl;
+import org.zweep.runner.plan.CheckLimit;
+import org.zweep.runner.plan.CompensationMode;
+import org.zweep.runner.plan.Connection;
+import org.zweep.runner.plan.FixturePlan;
+import org.zweep.runner.plan.MeterSpec;
+import org.zweep.runner.plan.Part;
+import org.zweep.runner.plan.PartKind;
+import org.zweep.runner.plan.Plan;
+import org.zweep.runner.plan.PlannedStep;
+import org.zweep.runner.plan.SafetyLimits;
+import org.zweep.runner.plan.Wiring;
+
+/** Turns the node tree of one sequence file into a validated {@link Plan}. Not thread-safe; one per file. */
+final class SequenceReader {
+    static final String FORMAT = "zweep-sequence/1";
+    static final String DEFAULT_DIALECT = "standard";
+    /** The most points one sequence may expand to. */
+    static final int MAX_POINTS = 1_000_000;
+
+    static final List<String> TOP_KEYS =
+            List.of("format", "name", "description", "meter", "safety", "fixture", "part", "steps", "checks");
+    static final List<String> METER_KEYS = List.of("address", "bench", "dialect");
+    static final List<String> SAFETY_KEYS =
+            List.of("max_bias_voltage", "max_bias_current", "max_level_voltage", "max_level_current");
+    static final List<String> FIXTURE_KEYS = List.of("terminals", "compensation", "standards", "load", "reuse", "store");
+    static final List<String> LOAD_KEYS = List.of("r", "x");
+    static final List<String> PART_KEYS = List.of("kind", "name", "nominal", "tolerance", "turns_ratio");
+    static final List<String> STEP_KEYS = List.of("name", "prompt", "quantity", "wiring", "frequency", "level", "bias",
+            "order", "averaging", "integration", "repeats", "delay", "range");
+    static final List<String> BIAS_KEYS =
+            List.of("values", "start", "stop", "points", "per_decade", "spacing", "ramp", "settle");
+    static final List<String> CHECK_KEYS = List.of("name", "step", "parameter", "at", "min", "max", "within");
+
+    /** Check parameters measured at one point, with the unit of their limits ({@code ""} for none). */
+    static final Map<String, String> POINT_PARAMETERS = new LinkedHashMap<>();
+
+    static {
+        for (String p : List.of("cs_f", "cp_f")) {
+            POINT_PARAMETERS.put(p, "F");
+        }
+        for (String p : List.of("ls_h", "lp_h")) {
+            POINT_PARAMETERS.put(p, "H");
+        }
+        for (String p : List.of("rs_ohm", "rp_ohm", "z_ohm", "r_ohm", "x_ohm")) {
+            POINT_PARAMETERS.put(p, "Ω");
+        }
+        POINT_PARAMETERS.put("theta_deg", "deg");
+        POINT_PARAMETERS.put("d", "");
+        POINT_PARAMETERS.put("q", "");
+        POINT_PARAMETERS.put("ratio", "");
+    }
+
+    static final String SRF = "srf_hz";
+    private static final Pattern NAME = Pattern.compile("[A-Za-z0-9._-]+");
+
+    private final Path source;
+    private final String file;
+
+    SequenceReader(Path source) {
+        this.source = source;
+        this.file = source.toString();
+    }
+
+    Plan read(YamlNode root) {
+        YamlNode.YamlMap top = root.map("the sequence", TOP_KEYS);
+        YamlNode format = top.required("format");
+        if (!format.text("a format").equals(FORMAT)) {
+            throw format.error("unsupported format '" + format.text("") + "': expected " + FORMAT);
+        }
+        String name = top.optional("name").map(n -> name(n, "a sequence name")).orElseGet(this::defaultName);
+        top.optional("description").ifPresent(d -> d.text("a description"));
+        MeterSpec meter = meter(top.required("meter"));
+        SafetyLimits safety = safety(top.required("safety"));
+        FixturePlan fixture = top.optional("fixture").map(this::fixture)
+                .orElse(new FixturePlan(Connection.TWO_TERMINAL, CompensationMode.NONE, List.of(), null,
+                        Duration.ZERO, null));
+        Part part = part(top.required("part"));
+        List<StepSpec> specs = steps(top.required("steps"), part, safety);
+        List<CheckLimit> checks = top.optional("checks").map(c -> checks(c, specs, part)).orElse(List.of());
+        List<PlannedStep> steps = PlanExpander.expand(specs);
+        return new Plan(name, source, meter, safety, fixture, part, steps, checks);
+    }
+
+    private String defaultName() {
+        String f = source.getFileName() == null ? "sequence" : source.getFileName().toString();
+        return f.replaceFirst("\\.ya?ml$", "");
+    }
+
+    private static String name(YamlNode node, String kind) {
+        String text = node.text(kind);
+        if (!NAME.matcher(text).matches()) {
+            throw node.error("expected " + kind + " of letters, digits, '.', '_' or '-', got '" + text + "'");
+        }
+        return text;
+    }
+
+    private static String word(YamlNode node, String kind, List<String> choices) {
+        String text = node.text(kind);
+        if (!choices.contains(text)) {
+            throw node.error("expected " + kind + " " + String.join(", ", choices.subList(0, choices.size() - 1))
+                    + (choices.size() > 1 ? " or " : "") + choices.get(choices.size() - 1) + ", got '" + text + "'"
+                    + Suggest.didYouMean(text, choices));
+        }
+        return text;
+    }
+
+    // ---- meter ----
+
+    private MeterSpec meter(YamlNode node) {
+        YamlNode.YamlMap m = node.map("meter", METER_KEYS);
+        String dialect = m.optional("dialect").map(d -> d.text("a dialect")).orElse(DEFAULT_DIALECT);
+        Optional<YamlNode> address = m.optional("address");
+        Optional<YamlNode> bench = m.optional("bench");
+        if (address.isPresent() && bench.isPresent()) {
+            throw bench.get().error("give either address or bench, not both");
+        }
+        if (bench.isPresent()) {
+            return new MeterSpec("sim:" + benchFile(bench.get(), bench.get().text("a bench file")), dialect);
+        }
+        if (address.isEmpty()) {
+            throw node.error("missing key 'address' or 'bench' in meter");
+        }
+        String a = address.get().text("a meter address");
+        if (a.startsWith("sim:")) {
+            a = "sim:" + benchFile(address.get(), a.substring(4));
+        }
+        return new MeterSpec(a, dialect);
+    }
+
+    private Path benchFile(YamlNode node, String path) {
+        if (path.isBlank()) {
+            throw node.error("expected a bench file path");
+        }
+        Path dir = source.toAbsolutePath().getParent();
+        Path p = dir.resolve(path).normalize();
+        if (!Files.isRegularFile(p)) {
+            throw node.error("bench file not found: " + path + " (looked for " + p + ")");
+        }
+        return p;
+    }
+
+    // ---- safety ----
+
+    private static SafetyLimits safety(YamlNode node) {
+        YamlNode.YamlMap m = node.map("safety", SAFETY_KEYS);
+        return new SafetyLimits(
+                limit(m, "max_bias_voltage", "a voltage", "V"),
+                limit(m, "max_bias_current", "a current", "A"),
+                limit(m, "max_level_voltage", "a voltage", "V"),
+                limit(m, "max_level_current", "a current", "A"));
+    }
+
+    private static double limit(YamlNode.YamlMap m, String key, String kind, String unit) {
+        return m.optional(key).map(n -> {
+            double v = Units.parse(n, kind, unit);
+            if (v < 0) {
+                throw n.error("expected " + kind + " of zero or more, got '" + n.text(kind) + "'");
+            }
+            return v;
+        }).orElse(0.0);
+    }
+
+    // ---- fixture ----
+
+    private FixturePlan fixture(YamlNode node) {
+        YamlNode.YamlMap m = node.map("fixture", FIXTURE_KEYS);
+        YamlNode t = m.required("terminals");
+        Connection connection = switch (word(t, "terminals", List.of("2", "4"))) {
+            case "2" -> Connection.TWO_TERMINAL;
+            default -> Connection.FOUR_TERMINAL;
+        };
+        CompensationMode mode = m.optional("compensation")
+                .map(c -> CompensationMode.valueOf(
+                        word(c, "compensation", List.of("none", "meter", "host")).toUpperCase(Locale.ROOT)))
+                .orElse(CompensationMode.NONE);
+        List<CorrectionStandard> standards = new ArrayList<>();
+        if (m.has("standards")) {
+            YamlNode sn = m.required("standards");
+            if (mode == CompensationMode.NONE) {
+                throw sn.error("standards given but compensation is none");
+            }
+            List<YamlNode> items = sn.items("a list of standards");
+            if (items.isEmpty()) {
+                throw sn.error("empty list: expected open, short and optionally load");
+            }
+            for (YamlNode i : items) {
+                CorrectionStandard s = CorrectionStandard.valueOf(
+                        word(i, "a standard", List.of("open", "short", "load")).toUpperCase(Locale.ROOT));
+                if (standards.contains(s)) {
+                    throw i.error("standard '" + i.text("") + "' given twice");
+                }
+                standards.add(s);
+            }
+            if (standards.contains(CorrectionStandard.LOAD)
+                    && !(standards.contains(CorrectionStandard.OPEN) && standards.contains(CorrectionStandard.SHORT))) {
+                throw sn.error("a load standard needs open and short too");
+            }
+        } else if (mode != CompensationMode.NONE) {
+            standards.addAll(List.of(CorrectionStandard.OPEN, CorrectionStandard.SHORT));
+        }
+        Impedance load = null;
+        if (m.has("load")) {
+            YamlNode ln = m.required("load");
+            if (!standards.contains(CorrectionStandard.LOAD)) {
+                throw ln.error("load value given but standards has no load");
+            }
+            load = load(ln);
+        } else if (standards.contains(CorrectionStandard.LOAD)) {
+            throw node.error("missing key 'load' in fixture (the load standard's known value)");
+        }
+        Duration reuse = Duration.ZERO;
+        if (m.has("reuse")) {
+            YamlNode rn = m.required("reuse");
+            if (mode == CompensationMode.NONE) {
+                throw rn.error("reuse given but compensation is none");
+            }
+            reuse = Duration.ofNanos(Math.round(Units.durationS(rn, "an age") * 1e9));
+        }
+        Path store = null;
+        if (m.has("store")) {
+            YamlNode st = m.required("store");
+            if (mode != CompensationMode.HOST) {
+                throw st.error("store is only for host compensation");
+            }
+            store = source.toAbsolutePath().getParent().resolve(st.text("a folder")).normalize();
+        }
+        return new FixturePlan(connection, mode, standards, load, reuse, store);
+    }
+
+    private static Impedance load(YamlNode node) {
+        if (node.isMap()) {
+            YamlNode.YamlMap lm = node.map("load", LOAD_KEYS);
+            double r = Units.parse(lm.required("r"), "a resistance", "Ω");
+            double x = lm.optional("x").map(n -> Units.parse(n, "a reactance", "Ω")).orElse(0.0);
+            return new Impedance(Double.NaN, r, x);
+        }
+        return new Impedance(Double.NaN, Units.parse(node, "a resistance", "Ω"), 0.0);
+    }
+
+    // ---- part ----
+
+    private static Part part(YamlNode node) {
+        YamlNode.YamlMap m = node.map("part", PART_KEYS);
+        YamlNode kn = m.required("kind");
+        PartKind kind = PartKind.valueOf(word(kn, "part kind",
+                List.of("capacitor", "inductor", "resistor", "transformer")).toUpperCase(Locale.ROOT));
+        String name = m.optional("name").map(n -> n.text("a part name")).orElse("");
+        YamlNode nn = m.required("nominal");
+        String unit = switch (kind) {
+            case CAPACITOR -> "F";
+            case INDUCTOR, TRANSFORMER -> "H";
+            case RESISTOR -> "Ω";
+        };
+        String what = switch (kind) {
+            case CAPACITOR -> "a capacitance";
+            case INDUCTOR -> "an inductance";
+            case TRANSFORMER -> "a primary inductance";
+            case RESISTOR -> "a resistance";
+        };
+        double nominal = Units.parse(nn, what, unit);
+        if (nominal <= 0) {
+            throw nn.error("expected " + what + " above zero, got '" + nn.text("") + "'");
+        }
+        double tolerance = m.optional("tolerance").map(t -> tolerance(t, kind, nominal)).orElse(Double.NaN);
+        double turns = Double.NaN;
+        if (m.has("turns_ratio")) {
+            YamlNode tn = m.required("turns_ratio");
+            if (kind != PartKind.TRANSFORMER) {
+                throw tn.error("turns_ratio is only for a transformer");
+            }
+            turns = turnsRatio(tn);
+        }
+        return new Part(kind, name, nominal, tolerance, turns);
+    }
+
+    private static double tolerance(YamlNode node, PartKind kind, double nominal) {
+        String text = node.text("a tolerance");
+        if (text.matches("[A-Za-z]")) {
+            OptionalDouble p = Tolerances.percentOf(text.charAt(0), kind == PartKind.CAPACITOR, nominal);
+            if (p.isEmpty()) {
+                throw node.error("unknown tolerance letter '" + text
+                        + "': expected one of B C D F G J K M (IEC 60062) or a percentage such as ±10 %");
+            }
+            return p.getAsDouble();
+        }
+        double p = Units.percent(node, "a tolerance letter (IEC 60062) or");
+        if (p <= 0 || p >= 100) {
+            throw node.error("expected a tolerance between 0 % and 100 %, got '" + text + "'");
+        }
+        return p;
+    }
+
+    private static double turnsRatio(YamlNode node) {
+        String text = node.text("a turns ratio");
+        Matcher m = Pattern.compile("((?:\\d+(?:\\.\\d*)?|\\.\\d+))\\s*(?::\\s*((?:\\d+(?:\\.\\d*)?|\\.\\d+)))?")
+                .matcher(text);
+        if (!m.matches()) {
+            throw node.error("expected a turns ratio N1:N2 such as 4:1 or a number, got '" + text + "'");
+        }
+        double n1 = Double.parseDouble(m.group(1));
+        double n2 = m.group(2) == null ? 1.0 : Double.parseDouble(m.group(2));
+        if (n1 <= 0 || n2 <= 0) {
+            throw node.error("expected a turns ratio above zero, got '" + text + "'");
+        }
+        return n1 / n2;
+    }
+
+    // ---- steps ----
+
+    private List<StepSpec> steps(YamlNode node, Part part, SafetyLimits safety) {
+        List<YamlNode> items = node.items("a list of steps");
+        if (items.isEmpty()) {
+            throw node.error("empty list: expected at least one step");
+        }
+        List<StepSpec> specs = new ArrayList<>();
+        Map<String, YamlNode> names = new HashMap<>();
+        long total = 0;
+        for (YamlNode item : items) {
+            StepSpec s = step(item, part, safety, names);
+            total += s.pointCount();
+            if (total > MAX_POINTS) {
+                throw item.error("too many points: the sequence reaches " + total + " at step '" + s.name()
+                        + "' (at most " + MAX_POINTS + ")");
+            }
+            specs.add(s);
+        }
+        return specs;
+    }
+
+    private StepSpec step(YamlNode node, Part part, SafetyLimits safety, Map<String, YamlNode> names) {
+        YamlNode.YamlMap m = node.map(node.peek("name").map(n -> "step '" + n + "'").orElse("a step"), STEP_KEYS);
+        YamlNode nameNode = m.required("name");
+        String name = name(nameNode, "a step name");
+        YamlNode first = names.putIfAbsent(name, nameNode);
+        if (first != null) {
+            throw nameNode.error("duplicate step name '" + name + "' (first at " + first.where() + ")");
+        }
+        String step = "step '" + name + "'";
+        String prompt = m.optional("prompt").map(p -> p.text("a prompt")).orElse("");
+        boolean transformer = part.kind() == PartKind.TRANSFORMER;
+        MeasuredQuantity quantity = MeasuredQuantity.IMPEDANCE;
+        if (m.has("quantity")) {
+            YamlNode qn = m.required("quantity");
+            quantity = MeasuredQuantity.valueOf(
+                    word(qn, "quantity", List.of("impedance", "voltage_ratio")).toUpperCase(Locale.ROOT));
+            if (quantity == MeasuredQuantity.VOLTAGE_RATIO && !transformer) {
+                throw qn.error("quantity voltage_ratio needs part kind transformer");
+            }
+        }
+        Wiring wiring = Wiring.NONE;
+        if (m.has("wiring")) {
+            YamlNode wn = m.required("wiring");
+            if (!transformer) {
+                throw wn.error("wiring is only for a transformer");
+            }
+            wiring = Wiring.valueOf(word(wn, "wiring", List.of("secondary_open", "secondary_shorted"))
+                    .toUpperCase(Locale.ROOT));
+            if (quantity == MeasuredQuantity.VOLTAGE_RATIO && wiring == Wiring.SECONDARY_SHORTED) {
+                throw wn.error("a voltage ratio needs the secondary open");
+            }
+        } else if (transformer) {
+            throw node.error("missing key 'wiring' in " + step + " (secondary_open or secondary_shorted)");
+        }
+        Sweep frequencies = Sweep.read(m.required("frequency"), "a frequency", List.of("Hz"), true);
+        YamlNode levelNode = m.required("level");
+        Sweep levels = Sweep.read(levelNode, "a drive level", List.of("V", "A"), true);
+        checkLimit(levelNode, step, "drive level", levels, " rms", levels.unit().equals("V")
+                ? new Limit("max_level_voltage", safety.maxLevelVrms())
+                : new Limit("max_level_current", safety.maxLevelArms()));
+        Sweep bias = null;
+        BiasControl control = BiasControl.NONE;
+        if (m.has("bias")) {
+            YamlNode bn = m.required("bias");
+            if (bn.isMap()) {
+                YamlNode.YamlMap bm = bn.map("bias", BIAS_KEYS);
+                if (bm.has("values")) {
+                    for (String k : Sweep.RANGE_KEYS) {
+                        if (bm.has(k)) {
+                            throw bm.values().get(k).error("give either values or start/stop, not both");
+                        }
+                    }
+                    bias = Sweep.read(bm.required("values"), "a DC bias", List.of("V", "A"), false);
+                } else {
+                    bias = Sweep.range(bm, "a DC bias", List.of("V", "A"), false);
+                }
+                String unit = bias.unit();
+                double ramp = bm.optional("ramp").map(r -> {
+                    double v = Units.parse(r, "a ramp rate", unit + "/s");
+                    if (v <= 0) {
+                        throw r.error("expected a ramp rate above zero, got '" + r.text("") + "'");
+                    }
+                    return v;
+                }).orElse(Double.POSITIVE_INFINITY);
+                double settle = bm.optional("settle").map(s -> nonNegativeSeconds(s, "a settle time")).orElse(0.0);
+                control = new BiasControl(ramp, settle);
+            } else {
+                bias = Sweep.read(bn, "a DC bias", List.of("V", "A"), false);
+            }
+            checkLimit(bn, step, "DC bias", bias, "", bias.unit().equals("V")
+                    ? new Limit("max_bias_voltage", safety.maxBiasVoltageV())
+                    : new Limit("max_bias_current", safety.maxBiasCurrentA()));
+        }
+        List<StepSpec.Axis> order = m.optional("order").map(this::order).orElse(StepSpec.DEFAULT_ORDER);
+        int averaging = m.optional("averaging").map(a -> Units.integer(a, "an averaging count", 1)).orElse(1);
+        double integration = m.optional("integration").map(i -> {
+            double v = Units.parse(i, "an integration time", "s");
+            if (v <= 0) {
+                throw i.error("expected an integration time above zero, got '" + i.text("") + "'");
+            }
+            return v;
+        }).orElse(0.02);
+        int repeats = m.optional("repeats").map(r -> Units.integer(r, "a repeat count", 1)).orElse(1);
+        double delay = m.optional("delay").map(d -> nonNegativeSeconds(d, "a delay")).orElse(0.0);
+        ImpedanceRange range = m.optional("range").map(SequenceReader::range).orElse(ImpedanceRange.AUTO);
+        StepSpec spec = new StepSpec(name, prompt, quantity, wiring, frequencies, levels, bias, control, order,
+                averaging, integration, repeats, delay, range, node);
+        if (spec.pointCount() > MAX_POINTS) {
+            throw node.error("too many points: " + step + " has " + spec.pointCount() + " (at most " + MAX_POINTS
+                    + ")");
+        }
+        return spec;
+    }
+
+    private record Limit(String key, double value) {
+    }
+
+    private static void checkLimit(YamlNode node, String step, String what, Sweep sweep, String rms, Limit limit) {
+        double worst = sweep.maxAbs();
+        if (worst > limit.value()) {
+            throw node.error(step + ": " + what + " " + Units.format(worst, sweep.unit()) + rms + " exceeds safety "
+                    + limit.key() + " " + Units.format(limit.value(), sweep.unit()));
+        }
+    }
+
+    private static double nonNegativeSeconds(YamlNode node, String kind) {
+        double v = Units.parse(node, kind, "s");
+        if (v < 0) {
+            throw node.error("expected " + kind + " of zero or more, got '" + node.text("") + "'");
+        }
+        return v;
+    }
+
+    private static ImpedanceRange range(YamlNode node) {
+        if (node.text("a range").equals("auto")) {
+            return ImpedanceRange.AUTO;
+        }
+        double ohm = Units.parseAny(node, "a range (auto or an impedance)", List.of("Ω")).si();
+        if (ohm <= 0) {
+            throw node.error("expected a range above zero, got '" + node.text("") + "'");
+        }
+        return ImpedanceRange.hold(ohm);
+    }
+
+    private List<StepSpec.Axis> order(YamlNode node) {
+        List<String> keys = List.of("bias", "repeat", "level", "frequency");
+        List<StepSpec.Axis> order = new ArrayList<>();
+        for (YamlNode item : node.items("a list of axes")) {
+            StepSpec.Axis a = StepSpec.Axis.valueOf(word(item, "axis", keys).toUpperCase(Locale.ROOT));
+            if (order.contains(a)) {
+                throw item.error("axis '" + a.key() + "' given twice");
+            }
+            order.add(a);
+        }
+        for (StepSpec.Axis a : StepSpec.DEFAULT_ORDER) {
+            if (!order.contains(a)) {
+                order.add(a);
+            }
+        }
+        return List.copyOf(order);
+    }
+
+    // ---- checks ----
+
+    private List<CheckLimit> checks(YamlNode node, List<StepSpec> steps, Part part) {
+        Map<String, StepSpec> byName = new LinkedHashMap<>();
+        steps.forEach(s -> byName.put(s.name(), s));
+        Map<String, YamlNode> names = new HashMap<>();
+        List<CheckLimit> out = new ArrayList<>();
+        for (YamlNode item : node.items("a list of checks")) {
+            out.add(check(item, byName, part, names));
+        }
+        return out;
+    }
+
+    private CheckLimit check(YamlNode node, Map<String, StepSpec> steps, Part part, Map<String, YamlNode> names) {
+        YamlNode.YamlMap m = node.map(node.peek("name").map(n -> "check '" + n + "'").orElse("a check"), CHECK_KEYS);
+        YamlNode nameNode = m.required("name");
+        String name = name(nameNode, "a check name");
+        YamlNode first = names.putIfAbsent(name, nameNode);
+        if (first != null) {
+            throw nameNode.error("duplicate check name '" + name + "' (first at " + first.where() + ")");
+        }
+        String check = "check '" + name + "'";
+        YamlNode stepNode = m.required("step");
+        String stepName = stepNode.text("a step name");
+        StepSpec step = steps.get(stepName);
+        if (step == null) {
+            throw stepNode.error("unknown step '" + stepName + "'" + Suggest.didYouMean(stepName, steps.keySet())
+                    + "; steps are: " + String.join(", ", steps.keySet()));
+        }
+        YamlNode pn = m.required("parameter");
+        String parameter = pn.text("a parameter");
+        List<String> known = new ArrayList<>(POINT_PARAMETERS.keySet());
+        known.add(SRF);
+        if (!known.contains(parameter)) {
+            throw pn.error("unknown parameter '" + parameter + "'" + Suggest.didYouMean(parameter, known)
+                    + "; expected one of: " + String.join(", ", known));
+        }
+        boolean ratio = parameter.equals("ratio");
+        boolean ratioStep = step.quantity() == MeasuredQuantity.VOLTAGE_RATIO;
+        if (ratio != ratioStep) {
+            throw pn.error("parameter '" + parameter + "' needs " + (ratio ? "a voltage_ratio" : "an impedance")
+                    + " step; step '" + stepName + "' measures " + step.quantity().name().toLowerCase(Locale.ROOT));
+        }
+        double frequencyHz = Double.NaN;
+        String unit;
+        if (parameter.equals(SRF)) {
+            unit = "Hz";
+            if (m.has("at")) {
+                throw m.values().get("at").error("srf_hz is a whole-sweep figure: remove 'at'");
+            }
+            if (step.frequencies().values().size() < 2) {
+                throw pn.error("srf_hz needs a frequency sweep; step '" + stepName + "' has one frequency");
+            }
+        } else {
+            unit = POINT_PARAMETERS.get(parameter);
+            frequencyHz = frequencyOf(m, node, step, check);
+        }
+        double min = Double.NEGATIVE_INFINITY;
+        double max = Double.POSITIVE_INFINITY;
+        if (m.has("within")) {
+            YamlNode wn = m.required("within");
+            for (String k : List.of("min", "max")) {
+                if (m.has(k)) {
+                    throw m.values().get(k).error("give either within or min/max, not both");
+                }
+            }
+            double nominal = nominalFor(wn, parameter, part);
+            double percent;
+            if (wn.text("tolerance or a percentage").equals("tolerance")) {
+                if (Double.isNaN(part.tolerancePercent())) {
+                    throw wn.error("within tolerance needs part tolerance");
+                }
+                percent = part.tolerancePercent();
+            } else {
+                percent = Units.percent(wn, "tolerance or");
+            }
+            min = Units.round(nominal * (1 - percent / 100.0));
+            max = Units.round(nominal * (1 + percent / 100.0));
+        } else {
+            if (!m.has("min") && !m.has("max")) {
+                throw node.error("missing key 'min', 'max' or 'within' in " + check);
+            }
+            String kind = switch (unit) {
+                case "F" -> "a capacitance";
+                case "H" -> "an inductance";
+                case "Ω" -> "a resistance or reactance";
+                case "Hz" -> "a frequency";
+                default -> "a number";
+            };
+            if (m.has("min")) {
+                min = limitValue(m.required("min"), kind, unit);
+            }
+            if (m.has("max")) {
+                YamlNode xn = m.required("max");
+                max = limitValue(xn, kind, unit);
+                if (max < min) {
+                    throw xn.error("max " + Units.format(max, unit) + " is below min " + Units.format(min, unit));
+                }
+            }
+        }
+        return new CheckLimit(name, parameter, stepName, frequencyHz, min, max);
+    }
+
+    private static double limitValue(YamlNode node, String kind, String unit) {
+        if (unit.equals("deg")) {
+            return Units.parseAny(node, "an angle", List.of("°", "deg", "")).si();
+        }
+        return Units.parse(node, kind, unit);
+    }
+
+    private static double frequencyOf(YamlNode.YamlMap m, YamlNode node, StepSpec step, String check) {
+        if (!m.has("at")) {
+            throw node.error("missing key 'at' in " + check + " (the frequency the limit applies at)");
+        }
+        YamlNode at = m.required("at");
+        double f = Units.parse(at, "a frequency", "Hz");
+        double nearest = Double.NaN;
+        for (double v : step.frequencies().values()) {
+            if (Math.abs(v - f) <= 1e-9 * Math.abs(f)) {
+                return v;
+            }
+            if (Double.isNaN(nearest) || Math.abs(v - f) < Math.abs(nearest - f)) {
+                nearest = v;
+            }
+        }
+        throw at.error(Units.format(f, "Hz") + " is not a frequency of step '" + step.name() + "' (nearest: "
+                + Units.format(nearest, "Hz") + ")");
+    }
+
+    private static double nominalFor(YamlNode within, String parameter, Part part) {
+        if (parameter.equals("ratio")) {
+            if (Double.isNaN(part.turnsRatio())) {
+                throw within.error("within on ratio needs part turns_ratio");
+            }
+            return 1.0 / part.turnsRatio();
+        }
+        String unit = parameter.equals(SRF) ? "Hz" : POINT_PARAMETERS.get(parameter);
+        String nominalUnit = part.nominalUnit();
+        boolean resistive = parameter.equals("rs_ohm") || parameter.equals("rp_ohm") || parameter.equals("r_ohm")
+                || parameter.equals("z_ohm");
+        if (!unit.equals(nominalUnit) || (unit.equals("Ω") && !resistive)) {
+            throw within.error("within compares with the nominal " + Units.format(part.nominal(), nominalUnit)
+                    + ": parameter '" + parameter + "' is not in " + nominalUnit);
+        }
+        return part.nominal();
+    }
+}

@@ -1,0 +1,140 @@
+package org.zweep.runner.sequence;
+
+import java.util.ArrayList;
+import java.util.List;
+
+/**
+ * The values of one sweep axis (frequency, drive level or DC bias), read from a single value, an
+ * explicit list, or a mapping {@code {start, stop, points}} (linear; {@code spacing: log} for
+ * logarithmic) or {@code {start, stop, per_decade}} (logarithmic).
+ *
+ * @param values the values in SI units, in sweep order
+ * @param unit the unit they were given in (one of the field's units)
+ * @param node where they were given, for later complaints
+ */
+record Sweep(List<Double> values, String unit, YamlNode node) {
+    /** The most values one axis may hold. */
+    static final int MAX_VALUES = 100_000;
+
+    static final List<String> RANGE_KEYS = List.of("start", "stop", "points", "per_decade", "spacing");
+
+    Sweep {
+        values = List.copyOf(values);
+    }
+
+    /**
+     * Reads an axis.
+     *
+     * @param kind the quantity for messages, e.g. {@code "a frequency"}
+     * @param units the accepted units; all values must share one
+     * @param positive whether values must be above zero
+     */
+    static Sweep read(YamlNode node, String kind, List<String> units, boolean positive) {
+        if (node.isMap()) {
+            return range(node.map(kind + " sweep", RANGE_KEYS), kind, units, positive);
+        }
+        if (node.isList()) {
+            List<YamlNode> items = node.items(kind);
+            if (items.isEmpty()) {
+                throw node.error("empty list: expected at least one value (" + kind + ")");
+            }
+            if (items.size() > MAX_VALUES) {
+                throw node.error("too many values: " + items.size() + " (at most " + MAX_VALUES + ")");
+            }
+            List<Double> values = new ArrayList<>();
+            String unit = null;
+            for (YamlNode item : items) {
+                Units.Value v = Units.parseAny(item, kind, unit == null ? units : List.of(unit));
+                checkSign(item, v, kind, positive);
+                unit = v.unit();
+                values.add(v.si());
+            }
+            return new Sweep(values, unit, node);
+        }
+        Units.Value v = Units.parseAny(node, kind, units);
+        checkSign(node, v, kind, positive);
+        return new Sweep(List.of(v.si()), v.unit(), node);
+    }
+
+    /** Reads a {@code {start, stop, points | per_decade, spacing}} mapping already checked for its keys. */
+    static Sweep range(YamlNode.YamlMap m, String kind, List<String> units, boolean positive) {
+        YamlNode startNode = m.required("start");
+        Units.Value start = Units.parseAny(startNode, kind, units);
+        checkSign(startNode, start, kind, positive);
+        YamlNode stopNode = m.required("stop");
+        Units.Value stop = Units.parseAny(stopNode, kind, List.of(start.unit()));
+        if (stop.si() < start.si()) {
+            throw stopNode.error("stop " + Units.format(stop.si(), stop.unit()) + " is below start "
+                    + Units.format(start.si(), start.unit()));
+        }
+        if (stop.si() == start.si()) {
+            throw stopNode.error("stop equals start: give a single value instead of a sweep");
+        }
+        boolean log = false;
+        if (m.has("spacing")) {
+            YamlNode sp = m.required("spacing");
+            String s = sp.text("a spacing");
+            if (!s.equals("log") && !s.equals("linear")) {
+                throw sp.error("expected spacing log or linear, got '" + s + "'");
+            }
+            log = s.equals("log");
+        }
+        List<Double> values = new ArrayList<>();
+        if (m.has("per_decade")) {
+            YamlNode pd = m.required("per_decade");
+            if (m.has("points")) {
+                throw pd.error("give either points or per_decade, not both");
+            }
+            if (m.has("spacing") && !log) {
+                throw pd.error("per_decade needs log spacing");
+            }
+            int perDecade = Units.integer(pd, "points per decade", 1);
+            checkLogStart(startNode, start);
+            double decades = Math.log10(stop.si() / start.si());
+            long steps = (long) Math.floor(decades * perDecade + 1e-9);
+            if (steps + 2 > MAX_VALUES) {
+                throw pd.error("too many points: " + (steps + 1) + " (at most " + MAX_VALUES + ")");
+            }
+            for (long k = 0; k <= steps; k++) {
+                values.add(Units.round(start.si() * Math.pow(10.0, (double) k / perDecade)));
+            }
+            double last = values.get(values.size() - 1);
+            if (Math.abs(last - stop.si()) > 1e-9 * stop.si()) {
+                values.add(stop.si());
+            }
+        } else {
+            YamlNode pn = m.required("points");
+            int points = Units.integer(pn, "a number of points", 2);
+            if (points > MAX_VALUES) {
+                throw pn.error("too many points: " + points + " (at most " + MAX_VALUES + ")");
+            }
+            if (log) {
+                checkLogStart(startNode, start);
+            }
+            for (int i = 0; i < points; i++) {
+                double f = (double) i / (points - 1);
+                double v = log ? start.si() * Math.pow(stop.si() / start.si(), f)
+                        : start.si() + f * (stop.si() - start.si());
+                values.add(i == points - 1 ? stop.si() : Units.round(v));
+            }
+        }
+        return new Sweep(values, start.unit(), m.self());
+    }
+
+    private static void checkLogStart(YamlNode startNode, Units.Value start) {
+        if (start.si() <= 0) {
+            throw startNode.error("a logarithmic sweep needs a start above zero, got '" + startNode.text("") + "'");
+        }
+    }
+
+    private static void checkSign(YamlNode node, Units.Value v, String kind, boolean positive) {
+        if (positive && v.si() <= 0) {
+            throw node.error("expected " + kind + " above zero, got '" + node.text(kind) + "'");
+        }
+    }
+
+    /** The largest magnitude among the values. */
+    double maxAbs() {
+        return values.stream().mapToDouble(Math::abs).max().orElse(0.0);
+    }
+}

@@ -1,0 +1,154 @@
+package org.zweep.runner.sequence;
+
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.Optional;
+import org.snakeyaml.engine.v2.exceptions.Mark;
+import org.snakeyaml.engine.v2.nodes.MappingNode;
+import org.snakeyaml.engine.v2.nodes.Node;
+import org.snakeyaml.engine.v2.nodes.NodeTuple;
+import org.snakeyaml.engine.v2.nodes.ScalarNode;
+import org.snakeyaml.engine.v2.nodes.SequenceNode;
+import org.zweep.driver.InvalidInputException;
+
+/**
+ * A YAML node with its place in the file, so that every complaint about it can say
+ * {@code file:line:column} (1-based). Immutable.
+ */
+final class YamlNode {
+    private final Node node;
+    private final String file;
+
+    YamlNode(Node node, String file) {
+        this.node = node;
+        this.file = file;
+    }
+
+    /** {@code file:line:column} of the node's start, 1-based. */
+    String where() {
+        return where(file, node.getStartMark());
+    }
+
+    static String where(String file, Optional<Mark> mark) {
+        return mark.map(m -> file + ":" + (m.getLine() + 1) + ":" + (m.getColumn() + 1)).orElse(file);
+    }
+
+    /** A validation error located at this node. */
+    InvalidInputException error(String message) {
+        return new InvalidInputException(where() + ": " + message);
+    }
+
+    boolean isScalar() {
+        return node instanceof ScalarNode;
+    }
+
+    boolean isList() {
+        return node instanceof SequenceNode;
+    }
+
+    boolean isMap() {
+        return node instanceof MappingNode;
+    }
+
+    /** The node's text; an error naming {@code what} when the node is a list or mapping. */
+    String text(String what) {
+        if (node instanceof ScalarNode s) {
+            return s.getValue().strip();
+        }
+        throw error("expected " + what + ", got " + shape());
+    }
+
+    /** The items of a list node; an error naming {@code what} otherwise. */
+    List<YamlNode> items(String what) {
+        if (node instanceof SequenceNode s) {
+            List<YamlNode> out = new ArrayList<>();
+            for (Node n : s.getValue()) {
+                out.add(new YamlNode(n, file));
+            }
+            return out;
+        }
+        throw error("expected " + what + ", got " + shape());
+    }
+
+    /**
+     * The node as a mapping whose keys must all be in {@code allowed}; an error naming
+     * {@code what} when it is not a mapping, a key is unknown (with a suggestion for a near
+     * typo) or repeated.
+     */
+    YamlMap map(String what, List<String> allowed) {
+        if (!(node instanceof MappingNode m)) {
+            throw error("expected " + what + " (a mapping), got " + shape());
+        }
+        Map<String, YamlNode> values = new LinkedHashMap<>();
+        Map<String, YamlNode> keys = new LinkedHashMap<>();
+        for (NodeTuple t : m.getValue()) {
+            YamlNode key = new YamlNode(t.getKeyNode(), file);
+            String name = key.text("a key");
+            if (!allowed.contains(name)) {
+                throw key.error("unknown key '" + name + "' in " + what + Suggest.didYouMean(name, allowed)
+                        + "; expected one of: " + String.join(", ", allowed));
+            }
+            if (values.containsKey(name)) {
+                throw key.error("duplicate key '" + name + "' in " + what);
+            }
+            values.put(name, new YamlNode(t.getValueNode(), file));
+            keys.put(name, key);
+        }
+        return new YamlMap(this, what, values, keys);
+    }
+
+    /** The text of a scalar value under {@code key} when this is a mapping, without any checks (for labels). */
+    Optional<String> peek(String key) {
+        if (node instanceof MappingNode m) {
+            for (NodeTuple t : m.getValue()) {
+                if (t.getKeyNode() instanceof ScalarNode k && k.getValue().equals(key)
+                        && t.getValueNode() instanceof ScalarNode v && !v.getValue().isBlank()) {
+                    return Optional.of(v.getValue().strip());
+                }
+            }
+        }
+        return Optional.empty();
+    }
+
+    String shape() {
+        if (node instanceof ScalarNode s) {
+            return s.getValue().isEmpty() ? "nothing" : "'" + s.getValue() + "'";
+        }
+        return node instanceof SequenceNode ? "a list" : "a mapping";
+    }
+
+    /** Whether the node is an empty plain scalar (a key with no value). */
+    boolean isEmpty() {
+        return node instanceof ScalarNode s && s.getValue().isEmpty() && s.isPlain();
+    }
+
+    /** A mapping's entries, in file order, with the mapping's own position for missing keys. */
+    record YamlMap(YamlNode self, String what, Map<String, YamlNode> values, Map<String, YamlNode> keys) {
+        /** The value of {@code key}; an error at the mapping's position when it is absent or empty. */
+        YamlNode required(String key) {
+            YamlNode v = values.get(key);
+            if (v == null) {
+                throw self.error("missing key '" + key + "' in " + what);
+            }
+            if (v.isEmpty()) {
+                throw keys.get(key).error("'" + key + "' has no value");
+            }
+            return v;
+        }
+
+        /** The value of {@code key}, or empty when it is absent. */
+        Optional<YamlNode> optional(String key) {
+            YamlNode v = values.get(key);
+            if (v != null && v.isEmpty()) {
+                throw keys.get(key).error("'" + key + "' has no value");
+            }
+            return Optional.ofNullable(v);
+        }
+
+        boolean has(String key) {
+            return values.containsKey(key);
+        }
+    }
+}

@@ -1,0 +1,329 @@
+package org.zweep.runner.sequence;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertThrows;
+
+import java.io.IOException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.stream.Stream;
+import org.junit.jupiter.api.BeforeEach;
+import org.junit.jupiter.api.io.TempDir;
+import org.junit.jupiter.params.ParameterizedTest;
+import org.junit.jupiter.params.provider.Arguments;
+import org.junit.jupiter.params.provider.MethodSource;
+import org.zweep.driver.InvalidInputException;
+
+/**
+ * Sequences that must be refused, each with the exact {@code line:column: message} the user sees.
+ * Lines and columns are 1-based and point at the offending node (for a missing key: the mapping
+ * that lacks it). Expected positions were counted by hand in the text blocks.
+ */
+class MalformedSequenceTest {
+    @TempDir
+    Path dir;
+
+    @BeforeEach
+    void bench() throws IOException {
+        Files.writeString(dir.resolve("b.bench.yaml"), "# placeholder: the loader only checks that the file exists\n");
+    }
+
+    /** Lines 1–4 of every case that does not change them. */
+    static final String HEAD = """
+            format: zweep-sequence/1
+            meter: {bench: b.bench.yaml}
+            safety: {max_bias_voltage: 25 V, max_level_voltage: 1 V}
+            part: {kind: capacitor, nominal: 100 nF, tolerance: K}
+            """;
+
+    /** Lines 5–8: one valid step. */
+    static final String STEP = """
+            steps:
+              - name: sweep
+                frequency: [1 kHz, 10 kHz]
+                level: 1 V
+            """;
+
+    static Stream<Arguments> cases() {
+        return Stream.of(
+                Arguments.of("unknown top-level key with a suggestion", HEAD + STEP + "chekcs: []\n",
+                        "9:1: unknown key 'chekcs' in the sequence (did you mean 'checks'?); expected one of: format, "
+                                + "name, description, meter, safety, fixture, part, steps, checks"),
+                Arguments.of("missing format names the document start", """
+                        meter: {bench: b.bench.yaml}
+                        """, "1:1: missing key 'format' in the sequence"),
+                Arguments.of("unsupported format version", "format: zweep-sequence/2\n",
+                        "1:9: unsupported format 'zweep-sequence/2': expected zweep-sequence/1"),
+                Arguments.of("meter without address or bench", """
+                        format: zweep-sequence/1
+                        meter: {dialect: standard}
+                        """, "2:8: missing key 'address' or 'bench' in meter"),
+                Arguments.of("meter with both address and bench", """
+                        format: zweep-sequence/1
+                        meter: {address: "tcp://127.0.0.1:5025", bench: b.bench.yaml}
+                        """, "2:49: give either address or bench, not both"),
+                Arguments.of("safety limit in the wrong unit", """
+                        format: zweep-sequence/1
+                        meter: {bench: b.bench.yaml}
+                        safety: {max_bias_voltage: 25 A}
+                        """, "3:28: expected a voltage in V, got '25 A'"),
+                Arguments.of("negative safety limit", """
+                        format: zweep-sequence/1
+                        meter: {bench: b.bench.yaml}
+                        safety: {max_level_current: -1 mA}
+                        """, "3:29: expected a current of zero or more, got '-1 mA'"),
+                Arguments.of("safety given as a list", """
+                        format: zweep-sequence/1
+                        meter: {bench: b.bench.yaml}
+                        safety: [25 V]
+                        """, "3:9: expected safety (a mapping), got a list"),
+                Arguments.of("misspelt part kind", """
+                        format: zweep-sequence/1
+                        meter: {bench: b.bench.yaml}
+                        safety: {}
+                        part: {kind: capacitr, nominal: 100 nF}
+                        """, "4:14: expected part kind capacitor, inductor, resistor or transformer, got 'capacitr' "
+                                + "(did you mean 'capacitor'?)"),
+                Arguments.of("capacitor nominal in henries", """
+                        format: zweep-sequence/1
+                        meter: {bench: b.bench.yaml}
+                        safety: {}
+                        part: {kind: capacitor, nominal: 100 nH}
+                        """, "4:34: expected a capacitance in F, got '100 nH'"),
+                Arguments.of("unknown tolerance letter", """
+                        format: zweep-sequence/1
+                        meter: {bench: b.bench.yaml}
+                        safety: {}
+                        part: {kind: resistor, nominal: 10 kohm, tolerance: X}
+                        """, "4:53: unknown tolerance letter 'X': expected one of B C D F G J K M (IEC 60062) "
+                                + "or a percentage such as ±10 %"),
+                Arguments.of("turns ratio on a capacitor", """
+                        format: zweep-sequence/1
+                        meter: {bench: b.bench.yaml}
+                        safety: {}
+                        part: {kind: capacitor, nominal: 1 nF, turns_ratio: 4}
+                        """, "4:53: turns_ratio is only for a transformer"),
+                Arguments.of("empty list of steps", HEAD + "steps: []\n", "5:8: empty list: expected at least one step"),
+                Arguments.of("steps given as a mapping", HEAD + "steps: {name: sweep}\n",
+                        "5:8: expected a list of steps, got a mapping"),
+                Arguments.of("step without frequency names the step's mapping", HEAD + """
+                        steps:
+                          - name: sweep
+                            level: 1 V
+                        """, "6:5: missing key 'frequency' in step 'sweep'"),
+                Arguments.of("misspelt step key with a suggestion", HEAD + """
+                        steps:
+                          - name: sweep
+                            frequncy: 1 kHz
+                            level: 1 V
+                        """, "7:5: unknown key 'frequncy' in step 'sweep' (did you mean 'frequency'?); expected one "
+                                + "of: name, prompt, quantity, wiring, frequency, level, bias, order, averaging, "
+                                + "integration, repeats, delay, range"),
+                Arguments.of("frequency in volts", HEAD + """
+                        steps:
+                          - name: sweep
+                            frequency: 1 kV
+                            level: 1 V
+                        """, "7:16: expected a frequency in Hz, got '1 kV'"),
+                Arguments.of("frequency without a unit", HEAD + """
+                        steps:
+                          - name: sweep
+                            frequency: 1000
+                            level: 1 V
+                        """, "7:16: expected a frequency in Hz, got '1000'"),
+                Arguments.of("empty frequency list", HEAD + """
+                        steps:
+                          - name: sweep
+                            frequency: []
+                            level: 1 V
+                        """, "7:16: empty list: expected at least one value (a frequency)"),
+                Arguments.of("sweep stop below start", HEAD + """
+                        steps:
+                          - name: sweep
+                            frequency: {start: 10 kHz, stop: 100 Hz, points: 5}
+                            level: 1 V
+                        """, "7:38: stop 100 Hz is below start 10 kHz"),
+                Arguments.of("too many points in a sweep", HEAD + """
+                        steps:
+                          - name: sweep
+                            frequency: {start: 1 Hz, stop: 1 MHz, points: 200000}
+                            level: 1 V
+                        """, "7:51: too many points: 200000 (at most 100000)"),
+                Arguments.of("both points and per_decade", HEAD + """
+                        steps:
+                          - name: sweep
+                            frequency: {start: 1 Hz, stop: 1 MHz, points: 7, per_decade: 10}
+                            level: 1 V
+                        """, "7:66: give either points or per_decade, not both"),
+                Arguments.of("sweep without points", HEAD + """
+                        steps:
+                          - name: sweep
+                            frequency: {start: 1 Hz, stop: 1 MHz}
+                            level: 1 V
+                        """, "7:16: missing key 'points' in a frequency sweep"),
+                Arguments.of("zero frequency", HEAD + """
+                        steps:
+                          - name: sweep
+                            frequency: [0 Hz, 1 kHz]
+                            level: 1 V
+                        """, "7:17: expected a frequency above zero, got '0 Hz'"),
+                Arguments.of("levels in mixed units", HEAD + """
+                        steps:
+                          - name: sweep
+                            frequency: 1 kHz
+                            level: [1 V, 10 mA]
+                        """, "8:18: expected a drive level in V, got '10 mA'"),
+                Arguments.of("drive level above the safety limit names the step", HEAD + """
+                        steps:
+                          - name: sweep
+                            frequency: 1 kHz
+                            level: [0.5 V, 2 V]
+                        """, "8:12: step 'sweep': drive level 2 V rms exceeds safety max_level_voltage 1 V"),
+                Arguments.of("bias above the safety limit names the step", HEAD + """
+                        steps:
+                          - name: derating
+                            frequency: 1 kHz
+                            level: 1 V
+                            bias: {start: 0 V, stop: 30 V, points: 4}
+                        """, "9:11: step 'derating': DC bias 30 V exceeds safety max_bias_voltage 25 V"),
+                Arguments.of("current bias where the limit is left at zero", HEAD + """
+                        steps:
+                          - name: sweep
+                            frequency: 1 kHz
+                            level: 1 V
+                            bias: 500 mA
+                        """, "9:11: step 'sweep': DC bias 500 mA exceeds safety max_bias_current 0 A"),
+                Arguments.of("ramp rate in the other source's unit", HEAD + """
+                        steps:
+                          - name: sweep
+                            frequency: 1 kHz
+                            level: 1 V
+                            bias: {values: [0 V, 5 V], ramp: 1 A/s}
+                        """, "9:38: expected a ramp rate in V/s, got '1 A/s'"),
+                Arguments.of("bias with values and start", HEAD + """
+                        steps:
+                          - name: sweep
+                            frequency: 1 kHz
+                            level: 1 V
+                            bias: {values: [0 V], start: 0 V}
+                        """, "9:34: give either values or start/stop, not both"),
+                Arguments.of("duplicate step name", HEAD + STEP + """
+                          - name: sweep
+                            frequency: 1 kHz
+                            level: 1 V
+                        """, "9:11: duplicate step name 'sweep' (first at " + "%s:6:11)"),
+                Arguments.of("averaging not a number", HEAD + STEP + "    averaging: many\n",
+                        "9:16: expected an averaging count (a whole number), got 'many'"),
+                Arguments.of("zero repeats", HEAD + STEP + "    repeats: 0\n",
+                        "9:14: expected a repeat count of at least 1, got 0"),
+                Arguments.of("unknown axis in order", HEAD + STEP + "    order: [bias, frequncy]\n",
+                        "9:19: expected axis bias, repeat, level or frequency, got 'frequncy' "
+                                + "(did you mean 'frequency'?)"),
+                Arguments.of("empty value", HEAD + STEP + "    delay:\n", "9:5: 'delay' has no value"),
+                Arguments.of("duplicate key", HEAD + STEP + "    level: 2 V\n", "9:5: duplicate key 'level' in step 'sweep'"),
+                Arguments.of("voltage ratio on a capacitor", HEAD + STEP + "    quantity: voltage_ratio\n",
+                        "9:15: quantity voltage_ratio needs part kind transformer"),
+                Arguments.of("transformer step without wiring", """
+                        format: zweep-sequence/1
+                        meter: {bench: b.bench.yaml}
+                        safety: {max_level_voltage: 1 V}
+                        part: {kind: transformer, nominal: 10 mH, turns_ratio: "4:1"}
+                        steps:
+                          - name: primary
+                            frequency: 1 kHz
+                            level: 1 V
+                        """, "6:5: missing key 'wiring' in step 'primary' (secondary_open or secondary_shorted)"),
+                Arguments.of("check naming an unknown step", HEAD + STEP + """
+                        checks:
+                          - {name: c, step: swep, parameter: cs_f, at: 1 kHz, within: tolerance}
+                        """, "10:21: unknown step 'swep' (did you mean 'sweep'?); steps are: sweep"),
+                Arguments.of("check naming an unknown parameter", HEAD + STEP + """
+                        checks:
+                          - {name: c, step: sweep, parameter: ls_hh, at: 1 kHz, max: 1 H}
+                        """, "10:39: unknown parameter 'ls_hh' (did you mean 'ls_h'?); expected one of: cs_f, cp_f, "
+                                + "ls_h, lp_h, rs_ohm, rp_ohm, z_ohm, r_ohm, x_ohm, theta_deg, d, q, ratio, srf_hz"),
+                Arguments.of("check at a frequency not in the sweep", HEAD + STEP + """
+                        checks:
+                          - {name: c, step: sweep, parameter: d, at: 1.5 kHz, max: 0.025}
+                        """, "10:46: 1.5 kHz is not a frequency of step 'sweep' (nearest: 1 kHz)"),
+                Arguments.of("check limit in the wrong unit", HEAD + STEP + """
+                        checks:
+                          - {name: c, step: sweep, parameter: cs_f, at: 1 kHz, min: 90 nH}
+                        """, "10:61: expected a capacitance in F, got '90 nH'"),
+                Arguments.of("check of D with a unit", HEAD + STEP + """
+                        checks:
+                          - {name: c, step: sweep, parameter: d, at: 1 kHz, max: 0.025 V}
+                        """, "10:58: expected a number (a plain number), got '0.025 V'"),
+                Arguments.of("check max below min", HEAD + STEP + """
+                        checks:
+                          - {name: c, step: sweep, parameter: q, at: 1 kHz, min: 50, max: 10}
+                        """, "10:67: max 10 is below min 50"),
+                Arguments.of("check without any limit", HEAD + STEP + """
+                        checks:
+                          - {name: c, step: sweep, parameter: q, at: 1 kHz}
+                        """, "10:5: missing key 'min', 'max' or 'within' in check 'c'"),
+                Arguments.of("srf check with a frequency", HEAD + STEP + """
+                        checks:
+                          - {name: c, step: sweep, parameter: srf_hz, at: 1 kHz, min: 10 MHz}
+                        """, "10:51: srf_hz is a whole-sweep figure: remove 'at'"),
+                Arguments.of("within tolerance of a part without tolerance", """
+                        format: zweep-sequence/1
+                        meter: {bench: b.bench.yaml}
+                        safety: {max_level_voltage: 1 V}
+                        part: {kind: capacitor, nominal: 100 nF}
+                        """ + STEP + """
+                        checks:
+                          - {name: c, step: sweep, parameter: cs_f, at: 1 kHz, within: tolerance}
+                        """, "10:64: within tolerance needs part tolerance"),
+                Arguments.of("within tolerance on a parameter of another unit", HEAD + STEP + """
+                        checks:
+                          - {name: c, step: sweep, parameter: ls_h, at: 1 kHz, within: tolerance}
+                        """, "10:64: within compares with the nominal 100 nF: parameter 'ls_h' is not in F"),
+                Arguments.of("ratio check on an impedance step", """
+                        format: zweep-sequence/1
+                        meter: {bench: b.bench.yaml}
+                        safety: {max_level_voltage: 1 V}
+                        part: {kind: transformer, nominal: 10 mH, turns_ratio: 4}
+                        steps:
+                          - {name: sweep, wiring: secondary_open, frequency: 1 kHz, level: 1 V}
+                        checks:
+                          - {name: c, step: sweep, parameter: ratio, at: 1 kHz, within: 2 %}
+                        """, "8:39: parameter 'ratio' needs a voltage_ratio step; step 'sweep' measures impedance"),
+                Arguments.of("load standard without its value", """
+                        format: zweep-sequence/1
+                        meter: {bench: b.bench.yaml}
+                        safety: {}
+                        fixture: {terminals: 4, compensation: host, standards: [open, short, load]}
+                        """, "4:10: missing key 'load' in fixture (the load standard's known value)"),
+                Arguments.of("three terminals", """
+                        format: zweep-sequence/1
+                        meter: {bench: b.bench.yaml}
+                        safety: {}
+                        fixture: {terminals: 3}
+                        """, "4:22: expected terminals 2 or 4, got '3'"),
+                Arguments.of("reuse age in words", """
+                        format: zweep-sequence/1
+                        meter: {bench: b.bench.yaml}
+                        safety: {}
+                        fixture: {terminals: 4, compensation: host, reuse: 2 hours}
+                        """, "4:52: expected an age in ms, s, min, h or d, got '2 hours'"),
+                Arguments.of("sequence name with a space", """
+                        format: zweep-sequence/1
+                        name: my sequence
+                        """, "2:7: expected a sequence name of letters, digits, '.', '_' or '-', got 'my sequence'"),
+                Arguments.of("unclosed flow list is a YAML syntax error", HEAD + """
+                        steps:
+                          - name: sweep
+                            frequency: [1 kHz, 10 kHz
+                            level: 1 V
+                        """, "8:10: YAML syntax: expected ',' or ']', but got : (while parsing a flow sequence at line 7, column 16)"));
+    }
+
+    @ParameterizedTest(name = "{0}")
+    @MethodSource("cases")
+    void isRefusedWithLineColumnAndMessage(String what, String text, String expected) {
+        Path source = dir.resolve("s.yaml");
+        InvalidInputException e = assertThrows(InvalidInputException.class, () -> SequenceLoader.parse(text, source));
+        assertEquals(source + ":" + expected.replace("%s", source.toString()), e.getMessage());
+    }
+}
