@@ -1,0 +1,96 @@
+package org.zweep.driver.impedance;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertThrows;
+
+import java.util.SplittableRandom;
+import org.apache.commons.math3.complex.Complex;
+import org.junit.jupiter.api.Test;
+import org.zweep.driver.InvalidInputException;
+
+class CompensationTest {
+
+    private static void assertClose(Complex expected, Complex actual, double relative) {
+        double tolerance = expected.abs() * relative;
+        assertEquals(expected.getReal(), actual.getReal(), tolerance, "real part of " + actual);
+        assertEquals(expected.getImaginary(), actual.getImaginary(), tolerance, "imaginary part of " + actual);
+    }
+
+    @Test
+    void openShortRecoversHandDerivedDut() {
+        // Hand-derived: Zs = 1 + j, Yo = 0.01 S, DUT 10 Ω, so Zm = Zs + 1/(Yo + 1/10) = 1 + 100/11 + j
+        // and the open reads Zs + 1/Yo = 101 + j.
+        Compensation c = Compensation.openShort(new Complex(101, 1), new Complex(1, 1));
+        assertClose(new Complex(10, 0), c.correct(new Complex(1 + 100.0 / 11, 1)), 1e-14);
+    }
+
+    @Test
+    void openShortMatchesTopologyAVectorExactly() {
+        Complex open = new Complex(1.0632118354, -31830.8629224);
+        Complex shortReading = new Complex(0.05, 0.125663706144);
+        Complex dut = new Complex(0.550197489669, 6.41008164433);
+        Complex corrected = Compensation.openShort(open, shortReading).correct(dut);
+        assertClose(new Complex(0.5, 6.28318530718), corrected, 1e-10); // check-values.md §3.4 T-A, exact formula
+    }
+
+    @Test
+    void openShortWithOpenReadingAsAdmittanceMatchesTheUsualApproximation() {
+        Complex open = new Complex(1.0632118354, -31830.8629224);
+        Complex shortReading = new Complex(0.05, 0.125663706144);
+        Complex dut = new Complex(0.550197489669, 6.41008164433);
+        Complex corrected = Compensation.fromResiduals(shortReading, open.reciprocal()).correct(dut);
+        // check-values.md §3.4 T-A, "with Yo ≈ 1/Zo,meas"
+        assertClose(new Complex(0.499999997285, 6.28318530262), corrected, 1e-11);
+    }
+
+    @Test
+    void openShortLoadMatchesArbitraryFixtureVector() {
+        Compensation c = Compensation.openShortLoad(new Complex(10500, -30500),
+                new Complex(0.264363030808, 2.04621149042), new Complex(104.197060198, 4.86376149172),
+                new Complex(100, 0));
+        Complex corrected = c.correct(new Complex(0.587717263528, 8.59911787287));
+        assertClose(new Complex(0.5, 6.28318530718), corrected, 1e-9); // check-values.md §3.4 T-OSL
+    }
+
+    @Test
+    void openShortLoadRecoversHandDerivedDut() {
+        // Same hand-derived fixture as above; a 50 Ω load reads 1 + j + 1/(0.01 + 0.02) = 34.333… + j.
+        Compensation c = Compensation.openShortLoad(new Complex(101, 1), new Complex(1, 1),
+                new Complex(1 + 100.0 / 3, 1), new Complex(50, 0));
+        assertClose(new Complex(10, 0), c.correct(new Complex(1 + 100.0 / 11, 1)), 1e-13);
+    }
+
+    @Test
+    void openShortLoadOnSymmetricFixtureIgnoresTheLoadValue() {
+        // check-values.md §3.2 consistency test: with A = D the open/short form Zo(Zm − Zs)/(Zo − Zm)
+        // is exact, so OSL returns the true value whatever the load standard is.
+        Complex a = new Complex(1.01, 0.02);
+        Complex b = new Complex(0.2, 1.0);
+        Complex cc = new Complex(2e-5, 4e-5);
+        SplittableRandom random = new SplittableRandom(7);
+        for (int i = 0; i < 200; i++) {
+            Complex load = new Complex(random.nextDouble(1, 1000), random.nextDouble(-500, 500));
+            Complex dut = new Complex(random.nextDouble(0.1, 100), random.nextDouble(-100, 100));
+            Compensation c = Compensation.openShortLoad(a.divide(cc), b.divide(a), abcd(a, b, cc, a, load), load);
+            assertClose(dut, c.correct(abcd(a, b, cc, a, dut)), 1e-9);
+        }
+    }
+
+    private static Complex abcd(Complex a, Complex b, Complex c, Complex d, Complex z) {
+        return a.multiply(z).add(b).divide(c.multiply(z).add(d));
+    }
+
+    @Test
+    void noCompensationReturnsTheReading() {
+        Impedance z = new Impedance(1e3, 3, -4);
+        assertEquals(z, Compensation.none().correct(z));
+    }
+
+    @Test
+    void equalOpenAndShortReadingsAreRejected() {
+        InvalidInputException e = assertThrows(InvalidInputException.class,
+                () -> Compensation.openShort(new Complex(1, 1), new Complex(1, 1)));
+        assertEquals("the open and short readings are equal ((1.0, 1.0) Ω): compensation data unusable",
+                e.getMessage());
+    }
+}
