@@ -1,0 +1,34 @@
+package org.zweep.driver.address;
+
+import org.zweep.driver.InvalidInputException;
+
+/**
+ * Where a meter is: a parsed connection address. Values are immutable and thread-safe.
+ *
+ * <p>Grammar (schemes are case-insensitive):
+ * <pre>
+ *   tcp://HOST[:PORT]                       raw SCPI socket, PORT defaults to 5025
+ *   serial:DEVICE[?OPTION=VALUE&amp;...]       OPTION: baud, data, parity, stop, flow
+ *   sim:[BENCH]                             the built-in simulator, in this process
+ *   TCPIP[board]::HOST::PORT::SOCKET        VISA raw socket, same as tcp://HOST:PORT
+ *   ASRL&lt;device&gt;[::INSTR][?OPTION=...]     VISA serial, same as serial:DEVICE
+ * </pre>
+ * An IPv6 host is written in brackets: {@code tcp://[::1]:5025}.
+ */
+public sealed interface Address permits TcpAddress, SerialAddress, SimAddress {
+
+    /** The address exactly as the user wrote it (trimmed), for messages. */
+    String text();
+
+    /** The transport scheme that opens it: {@code tcp}, {@code serial} or {@code sim}. */
+    String scheme();
+
+    /**
+     * Parses an address.
+     *
+     * @throws InvalidInputException naming the part of {@code text} that is wrong
+     */
+    static Address parse(String text) {
+        return AddressParser.parse(text);
+    }
+}

@@ -1,0 +1,600 @@
+package org.zweep.driver.scpi;
+
+import java.nio.ByteBuffer;
+import java.nio.charset.StandardCharsets;
+import java.time.Duration;
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.List;
+import java.util.concurrent.locks.ReentrantLock;
+import org.zweep.driver.InvalidInputException;
+import org.zweep.driver.MeterException;
+import org.zweep.driver.address.Address;
+import org.zweep.driver.transport.ConnectFailedException;
+import org.zweep.driver.transport.ConnectionLostException;
+import org.zweep.driver.transport.MeterTimeoutException;
+import org.zweep.driver.transport.Transport;
+import org.zweep.driver.transport.Transports;
+
+/**
+ * The SCPI conversation with one meter over any {@link Transport}: program messages, queries,
+ * numbers, lists, IEEE 488.2 arbitrary blocks, binary {@code REAL,64} data, the error queue and
+ * {@code *OPC?} synchronisation.
+ *
+ * <p>Open one with {@link #open(String, ScpiSettings)}. Every method blocks until the meter has
+ * answered or the read timeout ({@link ScpiSettings#readTimeout()}: the longest wait for a reply to
+ * start and for each pause within it) has passed. Failures are typed: {@link ConnectFailedException}
+ * and {@link ConnectionLostException} (the link), {@link MeterTimeoutException} (keeps the bytes
+ * received), {@link ScpiProtocolException} (a reply that breaks the rules), {@link MeterErrorException}
+ * (the meter's error queue). After a timeout or a broken reply the client resynchronises before the
+ * next command ({@link ScpiSettings#resync()}), so a late reply is never returned for a new query.
+ * After a lost connection every call fails at once; reconnecting is the caller's decision.
+ *
+ * <p>Bytes are read and written as ISO-8859-1 (SCPI messages are 7-bit ASCII). A message written
+ * with {@link #write} must not be a query: its reply would be left unread.
+ *
+ * <p>Thread-safe: one conversation at a time. Calls from several threads are serialised by a lock,
+ * never interleaved; {@link #close()} does not wait for the lock and releases a blocked caller.
+ */
+public final class ScpiClient implements ScpiSession {
+    /** Size of the receive buffer; replies longer than this are read in several chunks. */
+    static final int BUFFER_SIZE = 8192;
+    private static final int MAX_ERROR_ENTRIES = 256;
+    private static final int MAX_RESYNC_LINES = 1000;
+    private static final String RESYNC = "*OPC? (resynchronising after an earlier failure)";
+
+    private final Transport transport;
+    private final ScpiSettings settings;
+    private final TrafficTrace trace;
+    private final ReentrantLock lock = new ReentrantLock();
+    private final byte[] writeTerminator;
+    private final byte[] readTerminator;
+    private final boolean dropCr;
+    private final int lineLimit;
+    private final long readTimeoutMillis;
+    private final byte[] buf = new byte[BUFFER_SIZE];
+    private int pos;
+    private int lim;
+    private byte[] line = new byte[256];
+    private boolean outOfStep;
+    private ConnectionLostException lost;
+    private volatile boolean closed;
+
+    private ScpiClient(Transport transport, ScpiSettings settings, TrafficTrace trace) {
+        this.transport = transport;
+        this.settings = settings;
+        this.trace = trace;
+        this.writeTerminator = settings.writeTerminator().getBytes(StandardCharsets.ISO_8859_1);
+        this.readTerminator = settings.readTerminator().getBytes(StandardCharsets.ISO_8859_1);
+        this.dropCr = settings.readTerminator().equals("\n");
+        this.lineLimit = settings.maxResponseBytes() + readTerminator.length + (dropCr ? 1 : 0);
+        this.readTimeoutMillis = millis(settings.readTimeout());
+    }
+
+    /**
+     * Parses {@code address}, opens its transport and connects (see {@link #connect}).
+     *
+     * @throws InvalidInputException if the address is malformed or has no transport
+     * @throws ConnectFailedException if the link cannot be opened
+     * @throws MeterException if the initial {@code *CLS} fails
+     */
+    public static ScpiClient open(String address, ScpiSettings settings) {
+        return open(Address.parse(address), settings);
+    }
+
+    /** Opens {@code address}'s transport and connects (see {@link #connect}). */
+    public static ScpiClient open(Address address, ScpiSettings settings) {
+        return connect(Transports.open(address, settings.transportOptions()), settings);
+    }
+
+    /**
+     * Starts a conversation over an open transport, which the client then owns (closes). Opens the
+     * trace file if one is configured and sends {@code *CLS} if {@link ScpiSettings#clearOnConnect()}.
+     */
+    public static ScpiClient connect(Transport transport, ScpiSettings settings) {
+        TrafficTrace trace = null;
+        Transport t = transport;
+        try {
+            if (settings.tracePath() != null) {
+                trace = TrafficTrace.open(settings.tracePath());
+                trace.event("connected to " + transport.name());
+                t = new TracingTransport(transport, trace);
+            }
+            ScpiClient client = new ScpiClient(t, settings, trace);
+            if (settings.clearOnConnect()) {
+                client.write("*CLS");
+            }
+            return client;
+        } catch (RuntimeException e) {
+            t.close();
+            if (trace != null) {
+                trace.close();
+            }
+            throw e;
+        }
+    }
+
+    @Override
+    public String address() {
+        return transport.name();
+    }
+
+    /** The settings this client was opened with. */
+    public ScpiSettings settings() {
+        return settings;
+    }
+
+    @Override
+    public void write(String message) {
+        lock.lock();
+        try {
+            begin();
+            send(message);
+        } finally {
+            lock.unlock();
+        }
+    }
+
+    @Override
+    public String query(String message) {
+        return query(message, settings.readTimeout());
+    }
+
+    /** {@link #query(String)} with another read timeout for this one reply (e.g. a slow measurement). */
+    public String query(String message, Duration timeout) {
+        lock.lock();
+        try {
+            return queryUnlocked(message, millis(timeout));
+        } finally {
+            lock.unlock();
+        }
+    }
+
+    /**
+     * Sends a query and returns the reply as bytes, without its terminator. A reply that starts
+     * with a definite-length block ({@code #<n><len>}) is read by its length, so binary payloads
+     * come back whole, header included; anything else is read up to the read terminator.
+     */
+    public byte[] queryBytes(String message) {
+        lock.lock();
+        try {
+            begin();
+            send(message);
+            int first = nextByte(message, readTimeoutMillis, 0);
+            if (first != '#') {
+                pos -= 1;
+                return Arrays.copyOf(line, readLine(message, readTimeoutMillis));
+            }
+            line[0] = '#';
+            int digit = nextByte(message, readTimeoutMillis, 1);
+            pos -= 1;
+            if (digit >= '1' && digit <= '9') {
+                return readDefiniteBlock(message, readTimeoutMillis, true);
+            }
+            return Arrays.copyOf(line, readLine(message, readTimeoutMillis, 1));
+        } finally {
+            lock.unlock();
+        }
+    }
+
+    /**
+     * Sends a query and parses the reply as one NR1/NR2/NR3 number; SCPI's 9.91E37 is
+     * {@link Double#NaN}, ±9.9E37 are ±infinity.
+     *
+     * @throws ScpiProtocolException if the reply is not a number
+     */
+    public double queryNumber(String message) {
+        String reply = query(message);
+        try {
+            return ScpiValues.parseNumber(reply);
+        } catch (NumberFormatException e) {
+            throw new ScpiProtocolException(address() + ": the reply to '" + message + "' is not a number: '"
+                    + reply + "'", e);
+        }
+    }
+
+    /**
+     * Sends a query and parses the reply as a whole number (NR1, or an NR2/NR3 with an integral value).
+     *
+     * @throws ScpiProtocolException if the reply is not a whole number
+     */
+    public long queryInteger(String message) {
+        String reply = query(message).strip();
+        try {
+            if (reply.matches("[+-]?\\d{1,18}")) {
+                return Long.parseLong(reply.startsWith("+") ? reply.substring(1) : reply);
+            }
+            double v = ScpiValues.parseNumber(reply);
+            if (v == Math.rint(v) && Math.abs(v) < 0x1p53) {
+                return (long) v;
+            }
+        } catch (NumberFormatException e) {
+            // reported below, with the reply
+        }
+        throw new ScpiProtocolException(address() + ": the reply to '" + message + "' is not a whole number: '"
+                + reply + "'");
+    }
+
+    /** Sends a query and splits the reply at commas outside quoted strings (see {@link ScpiValues#splitList}). */
+    public List<String> queryList(String message) {
+        return ScpiValues.splitList(query(message));
+    }
+
+    /**
+     * Sends a query whose reply is a comma-separated list of numbers; special values as in
+     * {@link #queryNumber}. An empty reply is an empty array.
+     *
+     * @throws ScpiProtocolException naming the first element that is not a number
+     */
+    public double[] queryNumbers(String message) {
+        String reply = query(message);
+        List<String> items = ScpiValues.splitList(reply);
+        double[] out = new double[items.size()];
+        for (int i = 0; i < out.length; i++) {
+            try {
+                out[i] = ScpiValues.parseNumber(items.get(i));
+            } catch (NumberFormatException e) {
+                throw new ScpiProtocolException(address() + ": element " + (i + 1) + " of the reply to '" + message
+                        + "' is not a number: '" + items.get(i) + "'", e);
+            }
+        }
+        return out;
+    }
+
+    @Override
+    public byte[] queryBlock(String message) {
+        lock.lock();
+        try {
+            begin();
+            send(message);
+            return readBlock(message, readTimeoutMillis);
+        } finally {
+            lock.unlock();
+        }
+    }
+
+    /**
+     * Sends a query whose reply is a definite-length block of IEEE 754 doubles ({@code FORMat REAL,64})
+     * in the given byte order ({@code FORMat:BORDer}); SCPI's special values are mapped as in
+     * {@link #queryNumber}.
+     *
+     * @throws ScpiProtocolException if the payload length is not a multiple of 8
+     */
+    public double[] queryReal64(String message, BlockByteOrder order) {
+        byte[] data = queryBlock(message);
+        if (data.length % Double.BYTES != 0) {
+            throw new ScpiProtocolException(address() + ": the block replying to '" + message + "' has "
+                    + data.length + " bytes, not a whole number of 8-byte REAL,64 values");
+        }
+        double[] out = new double[data.length / Double.BYTES];
+        ByteBuffer.wrap(data).order(order.byteOrder()).asDoubleBuffer().get(out);
+        for (int i = 0; i < out.length; i++) {
+            out[i] = ScpiValues.special(out[i]);
+        }
+        return out;
+    }
+
+    @Override
+    public List<ScpiError> drainErrors() {
+        lock.lock();
+        try {
+            List<ScpiError> errors = new ArrayList<>();
+            for (int i = 0; i < MAX_ERROR_ENTRIES; i++) {
+                String reply = queryUnlocked(settings.errorQuery(), readTimeoutMillis);
+                ScpiError e;
+                try {
+                    e = ScpiValues.parseError(reply);
+                } catch (NumberFormatException ex) {
+                    throw new ScpiProtocolException(address() + ": the reply to '" + settings.errorQuery()
+                            + "' is not an error entry: '" + reply + "'", ex);
+                }
+                if (e.code() == 0) {
+                    return errors;
+                }
+                errors.add(e);
+            }
+            throw new ScpiProtocolException(address() + ": the error queue was not empty after "
+                    + MAX_ERROR_ENTRIES + " reads of '" + settings.errorQuery() + "'");
+        } finally {
+            lock.unlock();
+        }
+    }
+
+    /**
+     * Reads the error queue ({@link #drainErrors()}) and throws if it held anything.
+     *
+     * @param context what was just done, for the message (e.g. {@code "applying the setting"})
+     * @throws MeterErrorException carrying every entry, oldest first
+     */
+    public void checkErrors(String context) {
+        List<ScpiError> errors = drainErrors();
+        if (!errors.isEmpty()) {
+            StringBuilder sb = new StringBuilder();
+            for (ScpiError e : errors) {
+                sb.append(sb.length() == 0 ? "" : "; ").append(e);
+            }
+            throw new MeterErrorException(address() + ": the meter reported " + errors.size()
+                    + (errors.size() == 1 ? " error" : " errors") + " after " + context + ": " + sb, errors);
+        }
+    }
+
+    /**
+     * Waits until the meter has finished every pending operation: sends {@code *OPC?} and waits up
+     * to {@code timeout} for its {@code 1} (IEEE 488.2 §10.19).
+     *
+     * @throws MeterTimeoutException if the operations did not finish in time
+     */
+    public void waitForCompletion(Duration timeout) {
+        String reply = query("*OPC?", timeout).strip();
+        if (!reply.equals("1") && !reply.equals("+1")) {
+            throw new ScpiProtocolException(address() + ": '*OPC?' answered '" + reply + "' instead of 1");
+        }
+    }
+
+    /** Closes the connection (and the trace); never throws, does not wait for a running call. */
+    @Override
+    public void close() {
+        if (closed) {
+            return;
+        }
+        closed = true;
+        try {
+            transport.close();
+        } catch (RuntimeException e) {
+            // closing is best effort: the link is being abandoned
+        }
+    }
+
+    // ---- the conversation, called with the lock held ----
+
+    private String queryUnlocked(String message, long timeoutMillis) {
+        begin();
+        send(message);
+        int n = readLine(message, timeoutMillis);
+        return new String(line, 0, n, StandardCharsets.ISO_8859_1);
+    }
+
+    private void begin() {
+        if (closed) {
+            throw new ConnectionLostException(address() + ": the connection is closed");
+        }
+        if (lost != null) {
+            throw new ConnectionLostException(address() + ": the connection was lost earlier ("
+                    + lost.getMessage() + "); reconnect", lost);
+        }
+        if (outOfStep) {
+            resync();
+        }
+    }
+
+    private void send(String message) {
+        byte[] m = message.getBytes(StandardCharsets.ISO_8859_1);
+        byte[] out = Arrays.copyOf(m, m.length + writeTerminator.length);
+        System.arraycopy(writeTerminator, 0, out, m.length, writeTerminator.length);
+        try {
+            transport.write(out, 0, out.length);
+        } catch (ConnectionLostException e) {
+            throw lost(e, "while sending '" + message + "'");
+        }
+    }
+
+    /** Discards late replies, then (in {@link Resync#OPC} mode) waits for the answer to {@code *OPC?}. */
+    private void resync() {
+        event("resynchronising: discarding late replies");
+        pos = 0;
+        lim = 0;
+        long discarded = 0;
+        long quiet = millis(settings.drainQuiet());
+        int n;
+        while ((n = read(buf, 0, buf.length, quiet, RESYNC, 0)) > 0) {
+            discarded += n;
+            if (discarded > lineLimit) {
+                throw new ScpiProtocolException(address() + ": the meter keeps sending (" + discarded
+                        + " bytes discarded while resynchronising)");
+            }
+        }
+        if (settings.resync() == Resync.OPC) {
+            send("*OPC?");
+            for (int i = 0; i < MAX_RESYNC_LINES; i++) {
+                int len = readLine(RESYNC, readTimeoutMillis);
+                if (len == 1 && line[0] == '1') {
+                    outOfStep = false;
+                    return;
+                }
+            }
+            throw new ScpiProtocolException(address() + ": no answer 1 to '*OPC?' among " + MAX_RESYNC_LINES
+                    + " reply lines while resynchronising");
+        }
+        outOfStep = false;
+    }
+
+    /** Reads one response message into {@link #line}; returns its length without the terminator. */
+    private int readLine(String message, long timeoutMillis) {
+        return readLine(message, timeoutMillis, 0);
+    }
+
+    /** As {@link #readLine(String, long)}, with {@code line[0, start)} already received. */
+    private int readLine(String message, long timeoutMillis, int start) {
+        byte[] term = readTerminator;
+        int tl = term.length;
+        byte last = term[tl - 1];
+        int len = start;
+        while (true) {
+            if (pos == lim) {
+                fill(message, timeoutMillis, len);
+            }
+            int i = pos;
+            int end = lim;
+            while (i < end) {
+                byte b = buf[i++];
+                if (len == line.length) {
+                    line = Arrays.copyOf(line, (int) Math.min((long) line.length * 2, lineLimit + 1L));
+                }
+                line[len++] = b;
+                if (b == last && len >= tl && endsWithTerminator(len)) {
+                    pos = i;
+                    len -= tl;
+                    if (dropCr && len > 0 && line[len - 1] == '\r') {
+                        len--;
+                    }
+                    return len;
+                }
+                if (len > lineLimit) {
+                    pos = i;
+                    outOfStep = true;
+                    throw new ScpiProtocolException(address() + ": the reply to '" + message + "' is longer than "
+                            + settings.maxResponseBytes() + " bytes (the maximum response size)");
+                }
+            }
+            pos = end;
+        }
+    }
+
+    private boolean endsWithTerminator(int len) {
+        int tl = readTerminator.length;
+        for (int k = 0; k < tl; k++) {
+            if (line[len - tl + k] != readTerminator[k]) {
+                return false;
+            }
+        }
+        return true;
+    }
+
+    /** Reads an arbitrary block (the header byte '#' not yet consumed) and its terminator. */
+    private byte[] readBlock(String message, long timeoutMillis) {
+        int first = nextByte(message, timeoutMillis, 0);
+        if (first != '#') {
+            pos -= 1;
+            int n = readLine(message, timeoutMillis);
+            throw new ScpiProtocolException(address() + ": the reply to '" + message
+                    + "' is not an arbitrary block (#...): '" + ScpiValues.escape(line, 0, n, 80) + "'");
+        }
+        line[0] = '#';
+        int digit = nextByte(message, timeoutMillis, 1);
+        if (digit == '0') {
+            return Arrays.copyOf(line, readLine(message, timeoutMillis));
+        }
+        pos -= 1;
+        return readDefiniteBlock(message, timeoutMillis, false);
+    }
+
+    /**
+     * Reads {@code <n><len><payload>} and the terminator after it (the '#' consumed and stored in
+     * {@code line[0]}); returns the payload, or with {@code withHeader} header and payload.
+     */
+    private byte[] readDefiniteBlock(String message, long timeoutMillis, boolean withHeader) {
+        int digit = nextByte(message, timeoutMillis, 1);
+        line[1] = (byte) digit;
+        if (digit < '1' || digit > '9') {
+            outOfStep = true;
+            throw new ScpiProtocolException(address() + ": the reply to '" + message + "' starts '#"
+                    + ScpiValues.escape(new byte[] {(byte) digit}, 0, 1, 1) + "', which is no block header");
+        }
+        int digits = digit - '0';
+        long length = 0;
+        for (int k = 0; k < digits; k++) {
+            int c = nextByte(message, timeoutMillis, 2 + k);
+            line[2 + k] = (byte) c;
+            if (c < '0' || c > '9') {
+                outOfStep = true;
+                throw new ScpiProtocolException(address() + ": the block header of the reply to '" + message
+                        + "' has a non-digit in its length: '" + ScpiValues.escape(line, 0, 3 + k, 16) + "'");
+            }
+            length = length * 10 + (c - '0');
+        }
+        if (length > settings.maxResponseBytes()) {
+            outOfStep = true;
+            throw new ScpiProtocolException(address() + ": the block replying to '" + message + "' announces "
+                    + length + " bytes, more than the maximum response size " + settings.maxResponseBytes());
+        }
+        int header = withHeader ? 2 + digits : 0;
+        byte[] data = new byte[header + (int) length];
+        System.arraycopy(line, 0, data, 0, header);
+        int got = Math.min(lim - pos, (int) length);
+        System.arraycopy(buf, pos, data, header, got);
+        pos += got;
+        while (got < length) {
+            int n = read(data, header + got, (int) length - got, timeoutMillis, message, got);
+            if (n == 0) {
+                outOfStep = true;
+                throw new MeterTimeoutException(address() + ": the block replying to '" + message
+                        + "' stopped after " + got + " of " + length + " bytes (no more within " + timeoutMillis
+                        + " ms)", Arrays.copyOfRange(data, header, header + got));
+            }
+            got += n;
+        }
+        int trailing = readLine(message, timeoutMillis);
+        if (trailing != 0) {
+            throw new ScpiProtocolException(address() + ": " + trailing + " unexpected bytes after the "
+                    + length + "-byte block replying to '" + message + "': '"
+                    + ScpiValues.escape(line, 0, trailing, 40) + "'");
+        }
+        return data;
+    }
+
+    private int nextByte(String message, long timeoutMillis, int receivedSoFar) {
+        if (pos == lim) {
+            fill(message, timeoutMillis, receivedSoFar);
+        }
+        return buf[pos++] & 0xff;
+    }
+
+    /** Refills the receive buffer; {@code line[0, receivedSoFar)} is what this reply brought so far. */
+    private void fill(String message, long timeoutMillis, int receivedSoFar) {
+        int n = read(buf, 0, buf.length, timeoutMillis, message, receivedSoFar);
+        if (n == 0) {
+            outOfStep = true;
+            byte[] got = Arrays.copyOf(line, receivedSoFar);
+            event("timeout after " + timeoutMillis + " ms waiting for the reply to '" + message + "'");
+            if (receivedSoFar == 0) {
+                throw new MeterTimeoutException(address() + ": no reply to '" + message + "' within " + timeoutMillis
+                        + " ms (nothing received: is it a query, and does the meter use the terminators set here,"
+                        + " write " + show(writeTerminator) + ", read " + show(readTerminator) + "?)", got);
+            }
+            throw new MeterTimeoutException(address() + ": the reply to '" + message + "' was incomplete after "
+                    + timeoutMillis + " ms: " + receivedSoFar + " bytes without the read terminator "
+                    + show(readTerminator) + ": '" + ScpiValues.escape(got, 0, got.length, 80)
+                    + "' (check the read terminator setting)", got);
+        }
+        pos = 0;
+        lim = n;
+    }
+
+    private int read(byte[] into, int offset, int length, long timeoutMillis, String message, int receivedSoFar) {
+        try {
+            return transport.read(into, offset, length, timeoutMillis);
+        } catch (ConnectionLostException e) {
+            throw lost(e, "while waiting for the reply to '" + message + "'"
+                    + (receivedSoFar > 0 ? " (" + receivedSoFar + " bytes received)" : ""));
+        }
+    }
+
+    private ConnectionLostException lost(ConnectionLostException e, String doing) {
+        if (closed) {
+            return new ConnectionLostException(address() + ": the connection was closed " + doing, e);
+        }
+        lost = new ConnectionLostException(e.getMessage() + " " + doing, e);
+        event("connection lost: " + lost.getMessage());
+        return lost;
+    }
+
+    private void event(String text) {
+        if (trace != null) {
+            trace.event(text);
+        }
+    }
+
+    private static String show(byte[] terminator) {
+        String s = new String(terminator, StandardCharsets.ISO_8859_1);
+        return switch (s) {
+            case "\n" -> "LF";
+            case "\r" -> "CR";
+            case "\r\n" -> "CR LF";
+            default -> "'" + ScpiValues.escape(terminator, 0, terminator.length, 16) + "'";
+        };
+    }
+
+    private static long millis(Duration d) {
+        return Math.max(1, d.toMillis());
+    }
+}

@@ -1,0 +1,118 @@
+package org.zweep.driver.address;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertInstanceOf;
+import static org.junit.jupiter.api.Assertions.assertThrows;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.params.ParameterizedTest;
+import org.junit.jupiter.params.provider.CsvSource;
+import org.zweep.driver.InvalidInputException;
+import org.zweep.driver.address.SerialParameters.FlowControl;
+import org.zweep.driver.address.SerialParameters.Parity;
+
+class AddressTest {
+
+    @Test
+    void tcpWithoutPortUsesTheRawScpiPort() {
+        TcpAddress a = assertInstanceOf(TcpAddress.class, Address.parse("tcp://192.168.1.50"));
+        assertEquals("192.168.1.50", a.host());
+        assertEquals(5025, a.port()); // standards.md §3.3: IANA scpi-raw is 5025
+        assertEquals("tcp", a.scheme());
+    }
+
+    @Test
+    void tcpKeepsTheTextAsWrittenAndTheGivenPort() {
+        TcpAddress a = assertInstanceOf(TcpAddress.class, Address.parse("  TCP://meter.lab:5555 "));
+        assertEquals("TCP://meter.lab:5555", a.text());
+        assertEquals("meter.lab", a.host());
+        assertEquals(5555, a.port());
+    }
+
+    @Test
+    void tcpAcceptsABracketedIpv6Host() {
+        TcpAddress a = assertInstanceOf(TcpAddress.class, Address.parse("tcp://[::1]:6000"));
+        assertEquals("::1", a.host());
+        assertEquals(6000, a.port());
+    }
+
+    @Test
+    void visaSocketStringMapsToTcp() {
+        TcpAddress a = assertInstanceOf(TcpAddress.class, Address.parse("TCPIP0::192.168.1.50::5025::SOCKET"));
+        assertEquals("192.168.1.50", a.host()); // standards.md §3.1 example
+        assertEquals(5025, a.port());
+        TcpAddress b = assertInstanceOf(TcpAddress.class, Address.parse("tcpip::meter::5026::socket"));
+        assertEquals("meter", b.host());
+        assertEquals(5026, b.port());
+    }
+
+    @Test
+    void serialDefaultsAre9600EightNoneOne() {
+        SerialAddress a = assertInstanceOf(SerialAddress.class, Address.parse("serial:/dev/ttyUSB0"));
+        assertEquals("/dev/ttyUSB0", a.device());
+        assertEquals(SerialParameters.DEFAULT, a.parameters());
+        assertEquals("9600 8N1", a.parameters().summary());
+    }
+
+    @Test
+    void serialOptionsSetEveryField() {
+        SerialAddress a = assertInstanceOf(SerialAddress.class,
+                Address.parse("serial:/dev/ttyS1?baud=115200&data=7&parity=even&stop=2&flow=rtscts"));
+        assertEquals(new SerialParameters(115200, 7, Parity.EVEN, 2, FlowControl.RTS_CTS), a.parameters());
+    }
+
+    @Test
+    void visaSerialStringTakesADeviceAndQueryOptions() {
+        SerialAddress a = assertInstanceOf(SerialAddress.class,
+                Address.parse("ASRL/dev/ttyUSB0::INSTR?baud=19200&flow=xonxoff"));
+        assertEquals("/dev/ttyUSB0", a.device());
+        assertEquals(19200, a.parameters().baudRate());
+        assertEquals(FlowControl.XON_XOFF, a.parameters().flowControl());
+        SerialAddress b = assertInstanceOf(SerialAddress.class, Address.parse("ASRLCOM3::INSTR"));
+        assertEquals("COM3", b.device());
+    }
+
+    @Test
+    void simWithAndWithoutBench() {
+        assertEquals("", assertInstanceOf(SimAddress.class, Address.parse("sim:")).bench());
+        assertEquals("", assertInstanceOf(SimAddress.class, Address.parse("sim")).bench());
+        assertEquals("benches/rc.yaml",
+                assertInstanceOf(SimAddress.class, Address.parse("sim:benches/rc.yaml")).bench());
+    }
+
+    @ParameterizedTest(name = "{0} -> {1}")
+    @CsvSource(delimiter = '|', value = {
+        "''                                  | empty address",
+        "tcp://                              | missing host",
+        "tcp://:5025                         | missing host",
+        "tcp://meter:0                       | port '0'",
+        "tcp://meter:70000                   | port '70000'",
+        "tcp://meter:50x                     | port '50x'",
+        "tcp://meter:5025/inst0              | path '/inst0'",
+        "tcp://::1                           | brackets",
+        "serial:                             | missing serial device",
+        "serial:/dev/ttyS0?baud=fast         | baud='fast'",
+        "serial:/dev/ttyS0?parity=mark       | parity='mark'",
+        "serial:/dev/ttyS0?stop=3            | stop='3'",
+        "serial:/dev/ttyS0?data=9            | data='9'",
+        "serial:/dev/ttyS0?flow=dtr          | flow='dtr'",
+        "serial:/dev/ttyS0?speed=9600        | unknown serial option 'speed'",
+        "serial:/dev/ttyS0?baud=9600&baud=1  | 'baud' given twice",
+        "serial:/dev/ttyS0?baud              | 'baud' is not NAME=VALUE",
+        "TCPIP0::10.0.0.5::INSTR             | VXI-11 and HiSLIP",
+        "TCPIP0::10.0.0.5::hislip0::INSTR    | VXI-11 and HiSLIP",
+        "TCPIP0::10.0.0.5::SOCKET            | 3 fields given",
+        "TCPIPx::10.0.0.5::5025::SOCKET      | 'TCPIPx'",
+        "ASRL1::INSTR                        | VISA board number",
+        "ASRL::INSTR                         | missing device",
+        "ASRL/dev/ttyS0::RAW                 | unexpected '::RAW'",
+        "udp://meter                         | unknown scheme 'udp'",
+        "meter.lab                           | has no scheme",
+    })
+    void badAddressNamesTheWrongPart(String text, String expected) {
+        InvalidInputException e = assertThrows(InvalidInputException.class, () -> Address.parse(text));
+        assertTrue(e.getMessage().contains(expected), e.getMessage());
+        assertTrue(!e.getMessage().contains("\n"), "one line");
+    }
+}
