@@ -1,0 +1,73 @@
+package org.zweep.driver.dialect;
+
+import java.util.Arrays;
+import java.util.List;
+import java.util.Map;
+import java.util.Optional;
+import java.util.function.Function;
+import java.util.stream.Collectors;
+
+/** Every key of a dialect's {@code [commands]} section, with the placeholders its template must hold. */
+enum Command {
+    SETUP("setup"),
+    IDENTIFY("identify"),
+    RESET("reset"),
+    ERROR_QUERY("error-query"),
+    SYNC("sync"),
+    MEASURE("measure"),
+    FUNCTION_IMPEDANCE("function-impedance"),
+    FUNCTION_VOLTAGE_RATIO("function-voltage-ratio"),
+    FREQUENCY("frequency", Slot.number("frequency", "Hz")),
+    DRIVE_VOLTAGE("drive-voltage", Slot.number("level", "V")),
+    DRIVE_CURRENT("drive-current", Slot.number("level", "A")),
+    BIAS_VOLTAGE("bias-voltage", Slot.number("bias", "V")),
+    BIAS_VOLTAGE_ON("bias-voltage-on"),
+    BIAS_VOLTAGE_OFF("bias-voltage-off"),
+    BIAS_CURRENT("bias-current", Slot.number("bias", "A")),
+    BIAS_CURRENT_ON("bias-current-on"),
+    BIAS_CURRENT_OFF("bias-current-off"),
+    BIAS_OFF("bias-off"),
+    AVERAGING("averaging", Slot.count("count")),
+    INTEGRATION_TIME("integration-time", Slot.number("seconds", "s")),
+    RANGE_AUTO("range-auto"),
+    RANGE_HOLD("range-hold", Slot.number("ohms", "ohm")),
+    LIST_FREQUENCY("list-frequency", Slot.numbers("frequencies", "Hz")),
+    LIST_VOLTAGE("list-voltage", Slot.numbers("levels", "V")),
+    LIST_CURRENT("list-current", Slot.numbers("levels", "A")),
+    LIST_BIAS_VOLTAGE("list-bias-voltage", Slot.numbers("biases", "V")),
+    LIST_BIAS_CURRENT("list-bias-current", Slot.numbers("biases", "A")),
+    LIST_MODE_ON("list-mode-on"),
+    LIST_MODE_OFF("list-mode-off"),
+    LIST_MEASURE("list-measure"),
+    CORRECTION_OPEN("correction-open"),
+    CORRECTION_SHORT("correction-short"),
+    CORRECTION_LOAD("correction-load"),
+    CORRECTION_ON("correction-on"),
+    CORRECTION_OFF("correction-off"),
+    LOAD_STANDARD("load-standard", Slot.number("resistance", "ohm"), Slot.number("reactance", "ohm"));
+
+    private static final Map<String, Command> BY_KEY =
+            Arrays.stream(values()).collect(Collectors.toUnmodifiableMap(c -> c.key, Function.identity()));
+
+    private final String key;
+    private final List<Slot> slots;
+
+    Command(String key, Slot... slots) {
+        this.key = key;
+        this.slots = List.of(slots);
+    }
+
+    /** The key as written in a dialect file. */
+    String key() {
+        return key;
+    }
+
+    /** The placeholders the template must hold, each exactly once or more; no others are allowed. */
+    List<Slot> slots() {
+        return slots;
+    }
+
+    static Optional<Command> byKey(String key) {
+        return Optional.ofNullable(BY_KEY.get(key));
+    }
+}

@@ -1,0 +1,691 @@
+package org.zweep.driver.dialect;
+
+import java.math.BigDecimal;
+import java.nio.ByteBuffer;
+import java.nio.ByteOrder;
+import java.time.Clock;
+import java.time.Instant;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Map;
+import java.util.Optional;
+import java.util.stream.Collectors;
+import org.zweep.driver.InvalidInputException;
+import org.zweep.driver.MeterErrorException;
+import org.zweep.driver.MeterException;
+import org.zweep.driver.impedance.Impedance;
+import org.zweep.driver.meter.Bias;
+import org.zweep.driver.meter.CorrectionStandard;
+import org.zweep.driver.meter.Drive;
+import org.zweep.driver.meter.ImpedanceRange;
+import org.zweep.driver.meter.MeasuredQuantity;
+import org.zweep.driver.meter.MeasurementSetting;
+import org.zweep.driver.meter.Meter;
+import org.zweep.driver.meter.MeterCapabilities;
+import org.zweep.driver.meter.MeterIdentity;
+import org.zweep.driver.meter.Range;
+import org.zweep.driver.meter.Reading;
+import org.zweep.driver.meter.ReadingStatus;
+import org.zweep.driver.meter.SourceMode;
+import org.zweep.driver.scpi.ScpiError;
+import org.zweep.driver.scpi.ScpiSession;
+
+/**
+ * A {@link Meter} driven entirely by a {@link Dialect} over one {@link ScpiSession}.
+ *
+ * <p>Costs: it remembers what it last told the meter and sends only settings that changed, all in
+ * one compound message; where the dialect allows, the error query ends that message, so applying a
+ * setting is one round trip and measuring one point another. A whole list sweep is one
+ * configuration round trip, one trigger and one read. Every setting is checked against the
+ * dialect's capabilities before anything is sent ({@link InvalidInputException} naming the setting
+ * and the limit); errors the meter reports raise {@link MeterErrorException} with every entry.
+ *
+ * <p>Not thread-safe: one thread drives a meter at a time. After any failure the remembered state
+ * is forgotten, so the next {@link #apply} sends every setting again.
+ */
+public final class DialectMeter implements Meter {
+    private static final int MAX_ERROR_ENTRIES = 64;
+
+    private final ScpiSession session;
+    private final Dialect dialect;
+    private final Clock clock;
+    private KnownState known = new KnownState();
+    private MeasurementSetting current;
+    private boolean resync;
+    private boolean setupDone;
+    private boolean closed;
+    private boolean biasConfirmedOff;
+
+    /** A meter speaking {@code dialect} over {@code session}, timestamping readings with the system clock. */
+    public DialectMeter(ScpiSession session, Dialect dialect) {
+        this(session, dialect, Clock.systemUTC());
+    }
+
+    /**
+     * @param session the open conversation; this meter owns it and closes it in {@link #safeShutdown()}
+     * @param dialect the meter's dialect
+     * @param clock the clock reading timestamps come from
+     */
+    public DialectMeter(ScpiSession session, Dialect dialect, Clock clock) {
+        this.session = session;
+        this.dialect = dialect;
+        this.clock = clock;
+    }
+
+    /**
+     * A meter speaking the dialect named by {@code dialectNameOrPath} (see {@link Dialect#load}).
+     * Sends nothing until the first operation.
+     *
+     * @throws InvalidInputException when the dialect cannot be loaded
+     */
+    public static DialectMeter open(ScpiSession session, String dialectNameOrPath) {
+        return new DialectMeter(session, Dialect.load(dialectNameOrPath));
+    }
+
+    /** The dialect this meter speaks. */
+    public Dialect dialect() {
+        return dialect;
+    }
+
+    @Override
+    public MeterIdentity identify() {
+        requireOpen();
+        String reply = session.query(render(Command.IDENTIFY));
+        String[] f = reply.split(",", -1);
+        if (f.length < 2) {
+            throw new MeterException(session.address() + ": identity reply '" + abbreviate(reply)
+                    + "' does not have comma-separated fields (IEEE 488.2 *IDN? form)");
+        }
+        String firmware = f.length > 3 ? String.join(",", List.of(f).subList(3, f.length)).trim() : "0";
+        return new MeterIdentity(f[0].trim(), f[1].trim(), f.length > 2 ? f[2].trim() : "0", firmware);
+    }
+
+    @Override
+    public void reset() {
+        requireOpen();
+        known = new KnownState();
+        setupDone = false;
+        current = null;
+        resync = false;
+        send(List.of(render(Command.RESET)), "resetting");
+    }
+
+    @Override
+    public MeterCapabilities capabilities() {
+        return dialect.capabilities();
+    }
+
+    @Override
+    public void apply(MeasurementSetting setting) {
+        requireOpen();
+        validate(setting);
+        configure(setting, List.of(), "applying " + describe(setting));
+        current = setting;
+        resync = false;
+    }
+
+    @Override
+    public Reading measure() {
+        requireOpen();
+        if (current == null) {
+            throw new IllegalStateException("apply a setting before measuring");
+        }
+        if (resync) {
+            apply(current);
+        }
+        double[] values = readValues(Command.MEASURE, 1, "measuring at " + describe(current));
+        return reading(current, values, 0, clock.instant());
+    }
+
+    @Override
+    public List<Reading> measureList(List<MeasurementSetting> settings) {
+        requireOpen();
+        settings.forEach(this::validate);
+        List<Reading> readings = new ArrayList<>(settings.size());
+        if (!sweepable(settings)) {
+            for (MeasurementSetting s : settings) {
+                apply(s);
+                readings.add(measure());
+            }
+            return readings;
+        }
+        int max = dialect.capabilities().maxListPoints();
+        for (int from = 0; from < settings.size(); from += max) {
+            List<MeasurementSetting> chunk = settings.subList(from, Math.min(settings.size(), from + max));
+            if (chunk.size() == 1) {
+                apply(chunk.get(0));
+                readings.add(measure());
+            } else {
+                readings.addAll(sweep(chunk));
+            }
+        }
+        return readings;
+    }
+
+    @Override
+    public void acquireCorrection(CorrectionStandard standard) {
+        requireOpen();
+        if (!dialect.capabilities().corrections().contains(standard)) {
+            throw new InvalidInputException("correction " + standard + ": " + meterName()
+                    + " cannot acquire this standard (it acquires " + dialect.capabilities().corrections() + ")");
+        }
+        if (resync && current != null) {
+            apply(current);
+        }
+        Command c = switch (standard) {
+            case OPEN -> Command.CORRECTION_OPEN;
+            case SHORT -> Command.CORRECTION_SHORT;
+            case LOAD -> Command.CORRECTION_LOAD;
+        };
+        send(List.of(render(c)), "acquiring the " + standard + " correction");
+    }
+
+    @Override
+    public void setLoadStandard(Impedance known) {
+        requireOpen();
+        if (!dialect.capabilities().corrections().contains(CorrectionStandard.LOAD)) {
+            throw new InvalidInputException("load standard: " + meterName() + " has no load correction");
+        }
+        if (!Double.isFinite(known.resistanceOhm()) || !Double.isFinite(known.reactanceOhm())) {
+            throw new InvalidInputException("load standard: resistance and reactance must be finite numbers");
+        }
+        String unit = dialect.command(Command.LOAD_STANDARD).orElseThrow()
+                .render(Map.of("resistance", known.resistanceOhm(), "reactance", known.reactanceOhm()));
+        send(List.of(unit), "setting the load standard");
+    }
+
+    @Override
+    public void setCorrectionEnabled(boolean enabled) {
+        requireOpen();
+        if (dialect.capabilities().corrections().isEmpty()) {
+            throw new InvalidInputException("correction: " + meterName() + " has no fixture correction of its own");
+        }
+        send(List.of(render(enabled ? Command.CORRECTION_ON : Command.CORRECTION_OFF)),
+                "switching correction " + (enabled ? "on" : "off"));
+    }
+
+    @Override
+    public void biasOff() {
+        requireOpen();
+        known.biasVoltageOn = null;
+        known.biasCurrentOn = null;
+        send(List.of(render(Command.BIAS_OFF)), "switching DC bias off");
+        known.biasVoltageOn = false;
+        known.biasCurrentOn = false;
+    }
+
+    /**
+     * Sends the dialect's {@code bias-off} command as the very first thing, checks the meter's
+     * errors where the dialect can, then closes the session. Never throws. Calling it again
+     * returns the first answer without sending anything.
+     *
+     * @return whether bias-off was sent and the meter reported no error (an error left in the
+     *     queue by an earlier failure also makes this {@code false}: unconfirmed is reported as such)
+     */
+    @Override
+    public boolean safeShutdown() {
+        if (closed) {
+            return biasConfirmedOff;
+        }
+        closed = true;
+        try {
+            send(List.of(render(Command.BIAS_OFF)), "switching DC bias off at shutdown");
+            biasConfirmedOff = true;
+        } catch (RuntimeException e) {
+            biasConfirmedOff = false;
+        } finally {
+            try {
+                session.close();
+            } catch (RuntimeException ignored) {
+                // the bias outcome is what the caller needs; a failing close changes nothing about it
+            }
+        }
+        return biasConfirmedOff;
+    }
+
+    @Override
+    public void close() {
+        safeShutdown();
+    }
+
+    // ---- configuration ------------------------------------------------------------------------
+
+    private List<Reading> sweep(List<MeasurementSetting> chunk) {
+        configure(chunk.get(0), chunk, "setting up a list sweep of " + chunk.size() + " points");
+        current = chunk.get(chunk.size() - 1);
+        resync = true;
+        double[] values = readValues(Command.LIST_MEASURE, chunk.size(), "sweeping " + chunk.size() + " points");
+        Instant t = clock.instant();
+        List<Reading> readings = new ArrayList<>(chunk.size());
+        for (int i = 0; i < chunk.size(); i++) {
+            readings.add(reading(chunk.get(i), values, i, t));
+        }
+        return readings;
+    }
+
+    /**
+     * Sends what differs between {@code s} and the remembered state, bias switched off first and
+     * on last; with a non-empty {@code sweep}, the list commands too (frequency then not sent).
+     */
+    private void configure(MeasurementSetting s, List<MeasurementSetting> sweep, String what) {
+        KnownState next = known.copy();
+        List<String> units = new ArrayList<>();
+        boolean list = !sweep.isEmpty();
+        if (!setupDone) {
+            dialect.command(Command.SETUP).ifPresent(t -> units.add(t.render()));
+        }
+        boolean voltageBiasOn = s.bias().on() && s.bias().mode() == SourceMode.VOLTAGE;
+        boolean currentBiasOn = s.bias().on() && s.bias().mode() == SourceMode.CURRENT;
+        if (!voltageBiasOn && dialect.has(Command.BIAS_VOLTAGE_OFF) && !Boolean.FALSE.equals(next.biasVoltageOn)) {
+            add(units, render(Command.BIAS_VOLTAGE_OFF));
+            next.biasVoltageOn = false;
+        }
+        if (!currentBiasOn && dialect.has(Command.BIAS_CURRENT_OFF) && !Boolean.FALSE.equals(next.biasCurrentOn)) {
+            add(units, render(Command.BIAS_CURRENT_OFF));
+            next.biasCurrentOn = false;
+        }
+        if (!list && !Boolean.FALSE.equals(next.listMode)) {
+            dialect.command(Command.LIST_MODE_OFF).ifPresent(t -> add(units, t.render()));
+            next.listMode = false;
+        }
+        if (dialect.capabilities().voltageRatio() && next.quantity != s.quantity()) {
+            add(units, render(s.quantity() == MeasuredQuantity.IMPEDANCE
+                    ? Command.FUNCTION_IMPEDANCE : Command.FUNCTION_VOLTAGE_RATIO));
+            next.quantity = s.quantity();
+        }
+        if (!list && !same(next.frequencyHz, s.frequencyHz())) {
+            add(units, render(Command.FREQUENCY, "frequency", s.frequencyHz()));
+            next.frequencyHz = s.frequencyHz();
+        }
+        if (!s.drive().equals(next.drive)) {
+            Command c = s.drive().mode() == SourceMode.VOLTAGE ? Command.DRIVE_VOLTAGE : Command.DRIVE_CURRENT;
+            add(units, render(c, "level", s.drive().levelRms()));
+            next.drive = s.drive();
+        }
+        if (dialect.has(Command.AVERAGING) && !Integer.valueOf(s.averagingCount()).equals(next.averaging)) {
+            add(units, dialect.command(Command.AVERAGING).orElseThrow().render(Map.of("count", s.averagingCount())));
+            next.averaging = s.averagingCount();
+        }
+        if (dialect.has(Command.INTEGRATION_TIME) && !same(next.integrationTimeS, s.integrationTimeS())) {
+            add(units, render(Command.INTEGRATION_TIME, "seconds", s.integrationTimeS()));
+            next.integrationTimeS = s.integrationTimeS();
+        }
+        if (dialect.has(Command.RANGE_AUTO) && !s.range().equals(next.range)) {
+            add(units, s.range().auto() ? render(Command.RANGE_AUTO)
+                    : render(Command.RANGE_HOLD, "ohms", s.range().upperOhm()));
+            next.range = s.range();
+        }
+        if (list) {
+            addListUnits(units, sweep, next, voltageBiasOn, currentBiasOn);
+        }
+        if (voltageBiasOn) {
+            if (!same(next.biasVoltageV, s.bias().value())) {
+                add(units, render(Command.BIAS_VOLTAGE, "bias", s.bias().value()));
+                next.biasVoltageV = s.bias().value();
+            }
+            if (!Boolean.TRUE.equals(next.biasVoltageOn)) {
+                add(units, render(Command.BIAS_VOLTAGE_ON));
+                next.biasVoltageOn = true;
+            }
+        }
+        if (currentBiasOn) {
+            if (!same(next.biasCurrentA, s.bias().value())) {
+                add(units, render(Command.BIAS_CURRENT, "bias", s.bias().value()));
+                next.biasCurrentA = s.bias().value();
+            }
+            if (!Boolean.TRUE.equals(next.biasCurrentOn)) {
+                add(units, render(Command.BIAS_CURRENT_ON));
+                next.biasCurrentOn = true;
+            }
+        }
+        send(units, what);
+        known = next;
+        setupDone = true;
+    }
+
+    private void addListUnits(List<String> units, List<MeasurementSetting> sweep, KnownState next,
+            boolean voltageBiasOn, boolean currentBiasOn) {
+        add(units, dialect.command(Command.LIST_FREQUENCY).orElseThrow().render(
+                Map.of("frequencies", sweep.stream().map(MeasurementSetting::frequencyHz).toList())));
+        next.frequencyHz = null;
+        List<Double> levels = sweep.stream().map(x -> x.drive().levelRms()).toList();
+        List<Double> biases = sweep.stream().map(x -> x.bias().value()).toList();
+        Command levelList = sweep.get(0).drive().mode() == SourceMode.VOLTAGE
+                ? Command.LIST_VOLTAGE : Command.LIST_CURRENT;
+        dialect.command(levelList).ifPresent(t -> {
+            add(units, t.render(Map.of("levels", levels)));
+            next.drive = null;
+        });
+        if (voltageBiasOn) {
+            dialect.command(Command.LIST_BIAS_VOLTAGE).ifPresent(t -> {
+                add(units, t.render(Map.of("biases", biases)));
+                next.biasVoltageV = null;
+            });
+        }
+        if (currentBiasOn) {
+            dialect.command(Command.LIST_BIAS_CURRENT).ifPresent(t -> {
+                add(units, t.render(Map.of("biases", biases)));
+                next.biasCurrentA = null;
+            });
+        }
+        dialect.command(Command.LIST_MODE_ON).ifPresent(t -> add(units, t.render()));
+        next.listMode = true;
+    }
+
+    /** Whether {@code settings} can be one list sweep: they differ only in what the dialect can list. */
+    private boolean sweepable(List<MeasurementSetting> settings) {
+        if (settings.size() < 2 || !dialect.capabilities().listSweep()) {
+            return false;
+        }
+        MeasurementSetting first = listKey(settings.get(0));
+        return settings.stream().allMatch(s -> listKey(s).equals(first));
+    }
+
+    /** The setting with every field the dialect can list blanked out. */
+    private MeasurementSetting listKey(MeasurementSetting s) {
+        MeasurementSetting k = s.withFrequencyHz(0);
+        Command levelList = s.drive().mode() == SourceMode.VOLTAGE ? Command.LIST_VOLTAGE : Command.LIST_CURRENT;
+        if (dialect.has(levelList)) {
+            k = k.withDrive(new Drive(s.drive().mode(), 0));
+        }
+        Command biasList = s.bias().mode() == SourceMode.VOLTAGE
+                ? Command.LIST_BIAS_VOLTAGE : Command.LIST_BIAS_CURRENT;
+        if (!s.bias().on() || dialect.has(biasList)) {
+            k = k.withBias(new Bias(s.bias().mode(), 0, s.bias().on()));
+        }
+        return k;
+    }
+
+    private static void add(List<String> units, String unit) {
+        if (units.isEmpty() || !units.get(units.size() - 1).equals(unit)) {
+            units.add(unit);
+        }
+    }
+
+    private static boolean same(Double known, double wanted) {
+        return known != null && known == wanted;
+    }
+
+    // ---- the wire -----------------------------------------------------------------------------
+
+    /**
+     * Sends {@code units} (one message when the dialect allows compound messages) and checks the
+     * meter's error queue, appending the error query to the message where allowed. Sends nothing
+     * for no units. On any failure the remembered state is forgotten.
+     */
+    private void send(List<String> units, String what) {
+        if (units.isEmpty()) {
+            return;
+        }
+        try {
+            List<String> messages = dialect.compoundMessages() ? List.of(String.join(";", units)) : units;
+            for (int i = 0; i < messages.size() - 1; i++) {
+                session.write(messages.get(i));
+            }
+            String last = messages.get(messages.size() - 1);
+            Optional<Template> errorQuery = dialect.command(Command.ERROR_QUERY);
+            if (dialect.appendErrorQuery()) {
+                ScpiError first = parseError(session.query(last + ";" + errorQuery.orElseThrow().render()), what);
+                if (first.code() != 0) {
+                    throw errors(first, what);
+                }
+            } else {
+                session.write(last);
+                if (errorQuery.isPresent()) {
+                    List<ScpiError> errors = readErrors(new ArrayList<>(), what);
+                    if (!errors.isEmpty()) {
+                        throw errors(errors, what);
+                    }
+                } else {
+                    dialect.command(Command.SYNC).ifPresent(t -> session.query(t.render()));
+                }
+            }
+        } catch (RuntimeException e) {
+            known = new KnownState();
+            resync = current != null;
+            throw e;
+        }
+    }
+
+    /** Reads the error query until it answers 0, after the entries already in {@code errors}. */
+    private List<ScpiError> readErrors(List<ScpiError> errors, String what) {
+        String query = render(Command.ERROR_QUERY);
+        for (int i = 0; i < MAX_ERROR_ENTRIES; i++) {
+            ScpiError e = parseError(session.query(query), what);
+            if (e.code() == 0) {
+                break;
+            }
+            errors.add(e);
+        }
+        return errors;
+    }
+
+    private MeterErrorException errors(ScpiError first, String what) {
+        List<ScpiError> all = new ArrayList<>(List.of(first));
+        return errors(readErrors(all, what), what);
+    }
+
+    private MeterErrorException errors(List<ScpiError> errors, String what) {
+        return new MeterErrorException(session.address() + ": the meter reported "
+                + errors.stream().map(ScpiError::toString).collect(Collectors.joining("; ")) + " while " + what,
+                errors);
+    }
+
+    /** Parses {@code code,"text"} (SCPI-1999 Vol 2 §21.8); the text may be missing. */
+    private ScpiError parseError(String reply, String what) {
+        String r = reply.strip();
+        int comma = r.indexOf(',');
+        String code = comma < 0 ? r : r.substring(0, comma).strip();
+        try {
+            int n = Integer.parseInt(code.startsWith("+") ? code.substring(1) : code);
+            String text = comma < 0 ? "" : r.substring(comma + 1).strip();
+            if (text.length() >= 2 && text.startsWith("\"") && text.endsWith("\"")) {
+                text = text.substring(1, text.length() - 1).replace("\"\"", "\"");
+            }
+            return new ScpiError(n, text);
+        } catch (NumberFormatException e) {
+            throw new MeterException(session.address() + ": reply '" + abbreviate(reply)
+                    + "' to the error query is not 'code,\"text\"' while " + what);
+        }
+    }
+
+    /** Sends {@code command} (a query) and returns {@code points} points' worth of numbers. */
+    private double[] readValues(Command command, int points, String what) {
+        String query = render(command);
+        ReplyShape shape = dialect.reply();
+        int expected = points * shape.fields().size();
+        double[] values;
+        String shown;
+        if (shape.encoding() == ReplyShape.Encoding.ASCII) {
+            boolean append = dialect.appendErrorQuery();
+            String reply = session.query(append ? query + ";" + render(Command.ERROR_QUERY) : query);
+            List<String> units = splitOutsideQuotes(reply, ';');
+            if (append) {
+                ScpiError error = parseError(units.remove(units.size() - 1), what);
+                if (error.code() != 0) {
+                    known = new KnownState();
+                    resync = true;
+                    throw errors(error, what);
+                }
+            }
+            String data = String.join(",", units);
+            shown = abbreviate(data);
+            values = parseNumbers(data, what);
+        } else {
+            byte[] block = session.queryBlock(query);
+            if (block.length % Double.BYTES != 0) {
+                throw new MeterException(session.address() + ": a REAL,64 block of " + block.length
+                        + " bytes is not a whole number of doubles while " + what);
+            }
+            ByteBuffer b = ByteBuffer.wrap(block).order(shape.encoding() == ReplyShape.Encoding.REAL64_BIG
+                    ? ByteOrder.BIG_ENDIAN : ByteOrder.LITTLE_ENDIAN);
+            values = new double[block.length / Double.BYTES];
+            for (int i = 0; i < values.length; i++) {
+                values[i] = b.getDouble();
+            }
+            shown = block.length + " bytes";
+        }
+        if (values.length != expected) {
+            throw new MeterException(session.address() + ": expected " + expected + " numbers (" + points
+                    + " points of " + shape.fields().size() + " fields) but got " + values.length + " ('" + shown
+                    + "') while " + what);
+        }
+        return values;
+    }
+
+    private double[] parseNumbers(String data, String what) {
+        if (data.isBlank()) {
+            return new double[0];
+        }
+        String[] parts = data.split(",", -1);
+        double[] values = new double[parts.length];
+        for (int i = 0; i < parts.length; i++) {
+            try {
+                values[i] = Double.parseDouble(parts[i].strip());
+            } catch (NumberFormatException e) {
+                throw new MeterException(session.address() + ": '" + abbreviate(parts[i])
+                        + "' in the reply is not a number while " + what);
+            }
+        }
+        return values;
+    }
+
+    private static List<String> splitOutsideQuotes(String s, char separator) {
+        List<String> out = new ArrayList<>();
+        boolean quoted = false;
+        int start = 0;
+        for (int i = 0; i < s.length(); i++) {
+            char c = s.charAt(i);
+            if (c == '"') {
+                quoted = !quoted;
+            } else if (c == separator && !quoted) {
+                out.add(s.substring(start, i));
+                start = i + 1;
+            }
+        }
+        out.add(s.substring(start));
+        return out;
+    }
+
+    private Reading reading(MeasurementSetting s, double[] values, int index, Instant t) {
+        double[] z = dialect.reply().point(values, index);
+        return z == null ? new Reading(s, Double.NaN, Double.NaN, ReadingStatus.NO_VALUE, t)
+                : new Reading(s, z[0], z[1], ReadingStatus.OK, t);
+    }
+
+    private String render(Command c) {
+        return dialect.command(c).orElseThrow(() -> new IllegalStateException(c.key())).render();
+    }
+
+    private String render(Command c, String slot, double value) {
+        return dialect.command(c).orElseThrow(() -> new IllegalStateException(c.key())).render(Map.of(slot, value));
+    }
+
+    // ---- validation ---------------------------------------------------------------------------
+
+    private void validate(MeasurementSetting s) {
+        MeterCapabilities caps = dialect.capabilities();
+        if (s.quantity() == MeasuredQuantity.VOLTAGE_RATIO && !caps.voltageRatio()) {
+            throw new InvalidInputException("quantity: " + meterName() + " cannot measure a voltage ratio");
+        }
+        within("frequency", s.frequencyHz(), caps.frequencyHz(), "Hz");
+        if (s.drive().mode() == SourceMode.VOLTAGE) {
+            supported("voltage drive", Command.DRIVE_VOLTAGE);
+            within("drive level", s.drive().levelRms(), caps.voltageLevelVrms(), "V rms");
+        } else {
+            supported("current drive", Command.DRIVE_CURRENT);
+            within("drive level", s.drive().levelRms(), caps.currentLevelArms(), "A rms");
+        }
+        if (s.bias().on() && s.bias().mode() == SourceMode.VOLTAGE) {
+            supported("voltage bias", Command.BIAS_VOLTAGE);
+            within("DC bias", s.bias().value(), caps.biasVoltageV(), "V");
+        } else if (s.bias().on()) {
+            supported("current bias", Command.BIAS_CURRENT);
+            within("DC bias", s.bias().value(), caps.biasCurrentA(), "A");
+        }
+        within("averaging count", s.averagingCount(), dialect.averagingCount(), "");
+        supported("integration time", Command.INTEGRATION_TIME);
+        within("integration time", s.integrationTimeS(), dialect.integrationTimeS(), "s");
+        if (!s.range().auto()) {
+            supported("held impedance range", Command.RANGE_HOLD);
+            within("impedance range", s.range().upperOhm(), dialect.impedanceRangeOhm(), "ohm");
+        }
+    }
+
+    private void supported(String what, Command c) {
+        if (!dialect.has(c)) {
+            throw new InvalidInputException(what + ": " + meterName() + " cannot set it");
+        }
+    }
+
+    private void within(String setting, double value, Range r, String unit) {
+        String u = unit.isEmpty() ? "" : " " + unit;
+        if (Double.isNaN(value)) {
+            throw new InvalidInputException(setting + " is not a number");
+        }
+        if (value < r.min()) {
+            throw new InvalidInputException(setting + " " + plain(value) + u + " is below the minimum " + plain(r.min())
+                    + u + " of " + meterName());
+        }
+        if (value > r.max()) {
+            throw new InvalidInputException(setting + " " + plain(value) + u + " is above the maximum " + plain(r.max())
+                    + u + " of " + meterName());
+        }
+    }
+
+    private String meterName() {
+        return "the meter (dialect " + dialect.name() + ")";
+    }
+
+    private static String plain(double v) {
+        if (!Double.isFinite(v)) {
+            return Double.toString(v);
+        }
+        return new BigDecimal(Double.toString(v)).stripTrailingZeros().toPlainString();
+    }
+
+    private static String describe(MeasurementSetting s) {
+        return plain(s.frequencyHz()) + " Hz";
+    }
+
+    private static String abbreviate(String s) {
+        return s.length() <= 60 ? s : s.substring(0, 57) + "...";
+    }
+
+    private void requireOpen() {
+        if (closed) {
+            throw new IllegalStateException("the meter has been shut down");
+        }
+    }
+
+    /** What this object last told the meter; {@code null} means unknown (send it). */
+    private static final class KnownState {
+        Boolean listMode;
+        MeasuredQuantity quantity;
+        Double frequencyHz;
+        Drive drive;
+        Double biasVoltageV;
+        Double biasCurrentA;
+        Boolean biasVoltageOn;
+        Boolean biasCurrentOn;
+        Integer averaging;
+        Double integrationTimeS;
+        ImpedanceRange range;
+
+        KnownState copy() {
+            KnownState k = new KnownState();
+            k.listMode = listMode;
+            k.quantity = quantity;
+            k.frequencyHz = frequencyHz;
+            k.drive = drive;
+            k.biasVoltageV = biasVoltageV;
+            k.biasCurrentA = biasCurrentA;
+            k.biasVoltageOn = biasVoltageOn;
+            k.biasCurrentOn = biasCurrentOn;
+            k.averaging = averaging;
+            k.integrationTimeS = integrationTimeS;
+            k.range = range;
+            return k;
+        }
+    }
+}

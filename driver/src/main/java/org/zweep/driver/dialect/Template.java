@@ -1,0 +1,160 @@
+package org.zweep.driver.dialect;
+
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Map;
+import java.util.stream.Collectors;
+
+/**
+ * One command template of a dialect: literal text with placeholders such as {@code {frequency}}
+ * or {@code {frequency:kHz}}, rendered with values in SI units. Immutable.
+ */
+final class Template {
+    private static final String[] PREFIXES = {"p", "n", "u", "µ", "m", "", "k", "M", "G"};
+    private static final int[] SHIFTS = {-12, -9, -6, -6, -3, 0, 3, 6, 9};
+
+    /** A literal piece ({@code slot == null}) or a placeholder with its decimal point shift. */
+    private record Part(String literal, Slot slot, int pointShift) {
+    }
+
+    private final String text;
+    private final List<Part> parts;
+
+    private Template(String text, List<Part> parts) {
+        this.text = text;
+        this.parts = List.copyOf(parts);
+    }
+
+    /** The template as written in the dialect file. */
+    String text() {
+        return text;
+    }
+
+    /** Whether the template holds more than one message unit ({@code ;} outside quotes). */
+    boolean compound() {
+        boolean quoted = false;
+        for (char c : text.toCharArray()) {
+            if (c == '"') {
+                quoted = !quoted;
+            } else if (c == ';' && !quoted) {
+                return true;
+            }
+        }
+        return false;
+    }
+
+    /**
+     * Fills in the placeholders.
+     *
+     * @param values by placeholder name: a {@code Double} in the slot's SI unit, a {@code List<Double>}
+     *     for list slots, an {@code Integer} for counts
+     */
+    String render(Map<String, ?> values) {
+        StringBuilder sb = new StringBuilder();
+        for (Part p : parts) {
+            if (p.slot == null) {
+                sb.append(p.literal);
+                continue;
+            }
+            Object v = values.get(p.slot.name());
+            if (v == null) {
+                throw new IllegalArgumentException("no value for {" + p.slot.name() + "} in " + text);
+            }
+            if (p.slot.list()) {
+                @SuppressWarnings("unchecked")
+                List<Double> list = (List<Double>) v;
+                sb.append(list.stream().map(x -> Nr3.format(x, p.pointShift)).collect(Collectors.joining(",")));
+            } else if (p.slot.unit().isEmpty()) {
+                sb.append(((Integer) v).intValue());
+            } else {
+                sb.append(Nr3.format((Double) v, p.pointShift));
+            }
+        }
+        return sb.toString();
+    }
+
+    /** Renders a template that has no placeholders. */
+    String render() {
+        return render(Map.of());
+    }
+
+    /**
+     * Parses {@code text}, the value of {@code command}'s entry.
+     *
+     * @param errors reports a problem at a 0-based index into {@code text}
+     */
+    static Template parse(String text, Command command, ErrorSink errors) {
+        List<Part> parts = new ArrayList<>();
+        List<String> seen = new ArrayList<>();
+        int i = 0;
+        StringBuilder literal = new StringBuilder();
+        while (i < text.length()) {
+            char c = text.charAt(i);
+            if (c == '}') {
+                throw errors.at(i, "'}' without a matching '{'");
+            }
+            if (c != '{') {
+                literal.append(c);
+                i++;
+                continue;
+            }
+            int close = text.indexOf('}', i);
+            if (close < 0) {
+                throw errors.at(i, "'{' without a closing '}'");
+            }
+            String inside = text.substring(i + 1, close);
+            int colon = inside.indexOf(':');
+            String name = colon < 0 ? inside : inside.substring(0, colon);
+            int nameIndex = i + 1;
+            Slot slot = command.slots().stream().filter(s -> s.name().equals(name)).findFirst()
+                    .orElseThrow(() -> errors.at(nameIndex, unknownPlaceholder(name, command)));
+            int shift = 0;
+            if (colon >= 0) {
+                String unit = inside.substring(colon + 1);
+                shift = shiftFor(unit, slot, errors, i + 2 + colon);
+            }
+            if (literal.length() > 0) {
+                parts.add(new Part(literal.toString(), null, 0));
+                literal.setLength(0);
+            }
+            parts.add(new Part(null, slot, shift));
+            seen.add(name);
+            i = close + 1;
+        }
+        if (literal.length() > 0) {
+            parts.add(new Part(literal.toString(), null, 0));
+        }
+        for (Slot s : command.slots()) {
+            if (!seen.contains(s.name())) {
+                throw errors.at(0, "command '" + command.key() + "' must contain {" + s.name() + "}");
+            }
+        }
+        return new Template(text, parts);
+    }
+
+    private static String unknownPlaceholder(String name, Command command) {
+        if (command.slots().isEmpty()) {
+            return "command '" + command.key() + "' takes no placeholder, found {" + name + "}";
+        }
+        return "unknown placeholder {" + name + "} in '" + command.key() + "' (it takes "
+                + command.slots().stream().map(s -> "{" + s.name() + "}").collect(Collectors.joining(" ")) + ")";
+    }
+
+    private static int shiftFor(String unit, Slot slot, ErrorSink errors, int index) {
+        if (slot.unit().isEmpty()) {
+            throw errors.at(index, "{" + slot.name() + "} is a plain count and takes no unit");
+        }
+        for (int k = 0; k < PREFIXES.length; k++) {
+            if (unit.equals(PREFIXES[k] + slot.unit())) {
+                return SHIFTS[k];
+            }
+        }
+        throw errors.at(index, "unit '" + unit + "' does not fit {" + slot.name() + "}: expected " + slot.unit()
+                + " with an optional SI prefix (p n u m k M G)");
+    }
+
+    /** Builds the exception for a problem at an index into the text being parsed. */
+    interface ErrorSink {
+        RuntimeException at(int index, String message);
+    }
+}

@@ -1,0 +1,139 @@
+package org.zweep.driver.dialect;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertThrows;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.io.IOException;
+import java.net.URISyntaxException;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.EnumSet;
+import java.util.List;
+import java.util.stream.Stream;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.junit.jupiter.params.ParameterizedTest;
+import org.junit.jupiter.params.provider.MethodSource;
+import org.zweep.driver.InvalidInputException;
+import org.zweep.driver.meter.CorrectionStandard;
+import org.zweep.driver.meter.MeterCapabilities;
+import org.zweep.driver.meter.Range;
+
+class DialectParserTest {
+
+    /** Each malformed file states the exact one-line error it must give on its first line. */
+    static Stream<Path> malformedFiles() throws IOException, URISyntaxException {
+        Path dir = Path.of(DialectParserTest.class.getResource("malformed").toURI());
+        try (Stream<Path> files = Files.list(dir)) {
+            return files.filter(p -> p.toString().endsWith(".dialect")).sorted().toList().stream();
+        }
+    }
+
+    @ParameterizedTest(name = "{0}")
+    @MethodSource("malformedFiles")
+    void malformedDialectIsRejectedWithItsFileLineAndColumn(Path file) throws IOException {
+        String text = Files.readString(file, StandardCharsets.UTF_8);
+        String first = text.lines().findFirst().orElseThrow();
+        assertTrue(first.startsWith("# expect: "), file + " must start with '# expect: <message>'");
+        String expected = first.substring("# expect: ".length());
+
+        InvalidInputException e = assertThrows(InvalidInputException.class,
+                () -> Dialect.parse(file.getFileName().toString(), text));
+
+        assertEquals(expected, e.getMessage());
+    }
+
+    @Test
+    void standardDialectDeclaresTheSimulatorsCapabilities() {
+        Dialect d = Dialect.load("standard");
+
+        MeterCapabilities c = d.capabilities();
+        assertEquals("standard", d.name());
+        assertEquals(new Range(10, 10e6), c.frequencyHz()); // issue 4: the default meter covers 10 Hz to 10 MHz
+        assertEquals(201, c.maxListPoints());
+        assertEquals(EnumSet.allOf(CorrectionStandard.class), c.corrections());
+        assertTrue(c.voltageRatio());
+        assertTrue(d.appendErrorQuery());
+        assertEquals(List.of(ReplyShape.Field.REAL, ReplyShape.Field.IMAG), d.reply().fields());
+    }
+
+    @Test
+    void workedExampleDialectDeclaresPolarRepliesAndNoCurrentSource() {
+        Dialect d = Dialect.load("mz300");
+
+        MeterCapabilities c = d.capabilities();
+        assertEquals(new Range(0, 0), c.currentLevelArms());
+        assertEquals(new Range(0, 0), c.biasCurrentA());
+        assertEquals(32, c.maxListPoints());
+        assertEquals(EnumSet.of(CorrectionStandard.OPEN, CorrectionStandard.SHORT), c.corrections());
+        assertEquals(List.of(ReplyShape.Field.MAGNITUDE, ReplyShape.Field.PHASE_DEG, ReplyShape.Field.SKIP),
+                d.reply().fields());
+        assertEquals("OSC.F {frequency:kHz}", d.command(Command.FREQUENCY).orElseThrow().text());
+    }
+
+    @Test
+    void dialectGivenByPathIsLoadedFromThatFile(@TempDir Path dir) throws IOException {
+        Path copy = dir.resolve("my-bridge.dialect");
+        try (var in = Dialect.class.getResourceAsStream("mz300.dialect")) {
+            Files.write(copy, in.readAllBytes());
+        }
+
+        Dialect d = Dialect.load(copy.toString());
+
+        assertEquals("mz300", d.name());
+        assertEquals(copy.toString(), d.source());
+    }
+
+    @Test
+    void errorsInAFileGivenByPathNameThatPath(@TempDir Path dir) throws IOException {
+        Path bad = dir.resolve("bad.dialect");
+        Files.writeString(bad, "zweep-dialect 2\n");
+
+        InvalidInputException e = assertThrows(InvalidInputException.class, () -> Dialect.load(bad.toString()));
+
+        assertEquals(bad + ":1:1: expected 'zweep-dialect 1' as the first line that is not a comment",
+                e.getMessage());
+    }
+
+    @Test
+    void unknownBuiltInNameListsTheBuiltIns() {
+        InvalidInputException e = assertThrows(InvalidInputException.class, () -> Dialect.load("standart"));
+
+        assertEquals("unknown dialect 'standart': the built-in dialects are standard, mz300; "
+                + "give a path to use a dialect file", e.getMessage());
+    }
+
+    @Test
+    void missingDialectFileSaysSo(@TempDir Path dir) {
+        Path missing = dir.resolve("nowhere.dialect");
+
+        InvalidInputException e = assertThrows(InvalidInputException.class, () -> Dialect.load(missing.toString()));
+
+        assertEquals(missing + ": no such dialect file", e.getMessage());
+    }
+
+    @Test
+    void hashInsideATemplateIsNotAComment() {
+        String text = """
+                zweep-dialect 1
+                [meter]
+                name = hashes
+                [capabilities]
+                frequency = 10 .. 1e6 Hz
+                voltage-level = 0.01 .. 1 V
+                [commands]
+                identify = *IDN?
+                reset = *RST
+                measure = :DATA? #H1F  # a non-decimal numeric, then a comment
+                bias-off = :BIAS OFF
+                frequency = :FREQ {frequency}
+                drive-voltage = :VOLT {level}
+                """;
+
+        Dialect d = Dialect.parse("hashes.dialect", text);
+
+        assertEquals(":DATA? #H1F", d.command(Command.MEASURE).orElseThrow().text()); // IEEE 488.2 §7.7.4 #H form
+    }
+}
