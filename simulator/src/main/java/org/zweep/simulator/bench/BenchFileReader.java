@@ -1,0 +1,414 @@
+package org.zweep.simulator.bench;
+
+import java.io.IOException;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.Optional;
+import java.util.Set;
+import java.util.regex.Pattern;
+import org.snakeyaml.engine.v2.api.LoadSettings;
+import org.snakeyaml.engine.v2.api.lowlevel.Compose;
+import org.snakeyaml.engine.v2.common.ScalarStyle;
+import org.snakeyaml.engine.v2.exceptions.Mark;
+import org.snakeyaml.engine.v2.exceptions.MarkedYamlEngineException;
+import org.snakeyaml.engine.v2.exceptions.YamlEngineException;
+import org.snakeyaml.engine.v2.nodes.MappingNode;
+import org.snakeyaml.engine.v2.nodes.Node;
+import org.snakeyaml.engine.v2.nodes.NodeTuple;
+import org.snakeyaml.engine.v2.nodes.ScalarNode;
+import org.snakeyaml.engine.v2.nodes.SequenceNode;
+import org.zweep.simulator.SimulatorInputException;
+import org.zweep.simulator.netlist.Netlist;
+
+/**
+ * Reads a bench file (YAML) into a {@link BenchSpec}, from the node tree so that every error can
+ * name its {@code file:line:column}. Numbers are plain decimal numbers in SI units, the unit in
+ * the key's name.
+ */
+final class BenchFileReader {
+
+    private static final Pattern NUMBER =
+            Pattern.compile("[-+]?(?:\\d+\\.?\\d*|\\.\\d+)(?:[eE][-+]?\\d+)?");
+    private static final Pattern INTEGER = Pattern.compile("[-+]?\\d+");
+
+    private final String source;
+    private final Path baseDir;
+    private String[] rawLines = new String[0];
+
+    BenchFileReader(String source, Path baseDir) {
+        this.source = source;
+        this.baseDir = baseDir;
+    }
+
+    BenchSpec read(String yaml) {
+        rawLines = yaml.split("\r?\n|\r", -1);
+        Node root;
+        try {
+            LoadSettings settings = LoadSettings.builder().setLabel(source).build();
+            root = new Compose(settings).composeString(yaml).orElse(null);
+        } catch (MarkedYamlEngineException e) {
+            Optional<Mark> m = e.getProblemMark();
+            int line = m.map(x -> x.getLine() + 1).orElse(1);
+            int column = m.map(x -> x.getColumn() + 1).orElse(0);
+            throw SimulatorInputException.at(source, line, column,
+                    "not valid YAML: " + e.getProblem());
+        } catch (YamlEngineException e) {
+            throw new SimulatorInputException(source + ": not valid YAML: " + e.getMessage(), e);
+        }
+        if (root == null) {
+            throw SimulatorInputException.at(source, 1, 0, "the bench file is empty");
+        }
+        Section top = new Section("", root);
+        top.allow("description", "seed", "meter", "fixture", "load", "device");
+        String description = top.string("description", "bench " + source);
+        long seed = top.integer("seed", 0);
+        MeterSpec meter = meter(top.section("meter"));
+        FixtureSpec fixture = fixture(top.section("fixture"), top.section("load"));
+        Section deviceSection = top.section("device");
+        if (deviceSection == null) {
+            throw top.error("a bench file needs a 'device' section");
+        }
+        return new BenchSpec(description, meter, fixture, device(deviceSection), seed);
+    }
+
+    private MeterSpec meter(Section s) {
+        MeterSpec d = MeterSpec.defaults();
+        if (s == null) {
+            return d;
+        }
+        MeterLimits l = d.limits();
+        s.allow("frequency_min_hz", "frequency_max_hz", "voltage_min_vrms", "voltage_max_vrms",
+                "current_min_arms", "current_max_arms", "bias_voltage_max_v", "bias_current_max_a",
+                "list_points_max", "ranges_ohm", "source_resistance_ohm", "noise", "timing",
+                "point_overhead_s", "bias_settling_s");
+        double fMin = s.positive("frequency_min_hz", l.minFrequencyHz());
+        double fMax = s.above("frequency_max_hz", l.maxFrequencyHz(), fMin);
+        double vMin = s.positive("voltage_min_vrms", l.minVoltageVrms());
+        double vMax = s.above("voltage_max_vrms", l.maxVoltageVrms(), vMin);
+        double iMin = s.positive("current_min_arms", l.minCurrentArms());
+        double iMax = s.above("current_max_arms", l.maxCurrentArms(), iMin);
+        double biasV = s.nonNegative("bias_voltage_max_v", l.maxBiasVoltageV());
+        double biasI = s.nonNegative("bias_current_max_a", l.maxBiasCurrentA());
+        long points = s.integer("list_points_max", l.maxListPoints());
+        if (points < 1 || points > 100_000) {
+            throw s.error("list_points_max", "must be between 1 and 100000");
+        }
+        double[] ranges = s.ranges("ranges_ohm", l.rangesOhm());
+        double rs = s.positive("source_resistance_ohm", l.sourceResistanceOhm());
+        double noise = s.nonNegative("noise", d.noiseRel());
+        Timing timing = switch (s.choice("timing", "real", "real", "none")) {
+            case "none" -> Timing.NONE;
+            default -> Timing.REAL;
+        };
+        return new MeterSpec(new MeterLimits(fMin, fMax, vMin, vMax, iMin, iMax, biasV, biasI,
+                (int) points, ranges, rs), noise, timing,
+                s.nonNegative("point_overhead_s", d.pointOverheadS()),
+                s.nonNegative("bias_settling_s", d.biasSettlingS()));
+    }
+
+    private FixtureSpec fixture(Section s, Section load) {
+        FixtureSpec d = FixtureSpec.defaults();
+        Connection connection = d.connection();
+        double rs = d.residualResistanceOhm();
+        double ls = d.residualInductanceH();
+        double g = d.strayConductanceS();
+        double c = d.strayCapacitanceF();
+        double lead = d.leadResistanceOhm();
+        if (s != null) {
+            s.allow("connection", "residual_resistance_ohm", "residual_inductance_h",
+                    "stray_conductance_s", "stray_capacitance_f", "lead_resistance_ohm");
+            connection = s.choice("connection", "4-terminal", "2-terminal", "4-terminal")
+                    .equals("2-terminal") ? Connection.TWO_TERMINAL : Connection.FOUR_TERMINAL;
+            rs = s.nonNegative("residual_resistance_ohm", rs);
+            ls = s.nonNegative("residual_inductance_h", ls);
+            g = s.nonNegative("stray_conductance_s", g);
+            c = s.nonNegative("stray_capacitance_f", c);
+            lead = s.nonNegative("lead_resistance_ohm", lead);
+        }
+        double loadR = d.loadResistanceOhm();
+        double loadL = d.loadInductanceH();
+        if (load != null) {
+            load.allow("resistance_ohm", "inductance_h");
+            loadR = load.positive("resistance_ohm", loadR);
+            loadL = load.nonNegative("inductance_h", loadL);
+        }
+        return new FixtureSpec(connection, rs, ls, g, c, lead, loadR, loadL);
+    }
+
+    private Device device(Section s) {
+        Set<String> kinds = Set.of("capacitor", "inductor", "resistor", "transformer", "netlist",
+                "netlist_file");
+        s.allow(kinds.toArray(new String[0]));
+        if (s.entries.size() != 1) {
+            throw s.error("the device section needs exactly one of capacitor, inductor, resistor,"
+                    + " transformer, netlist, netlist_file");
+        }
+        String kind = s.entries.keySet().iterator().next();
+        Node value = s.entries.get(kind).getValueNode();
+        switch (kind) {
+            case "netlist":
+                return inlineNetlist(s.scalar("netlist"));
+            case "netlist_file":
+                return netlistFile(s.scalar("netlist_file"));
+            default:
+                break;
+        }
+        Section p = new Section("device." + kind, value);
+        switch (kind) {
+            case "capacitor": {
+                p.allow("capacitance_f", "esr_ohm", "esl_h", "tan_delta", "bias_half_voltage_v",
+                        "bias_exponent", "level_coefficient_per_vrms");
+                return new Capacitor(p.required("capacitance_f"), p.nonNegative("esr_ohm", 0),
+                        p.nonNegative("esl_h", 0), p.nonNegative("tan_delta", 0),
+                        p.positive("bias_half_voltage_v", Double.POSITIVE_INFINITY),
+                        p.positive("bias_exponent", 2),
+                        p.nonNegative("level_coefficient_per_vrms", 0));
+            }
+            case "inductor": {
+                p.allow("inductance_h", "winding_resistance_ohm", "parallel_capacitance_f",
+                        "core_loss_resistance_ohm", "saturation_current_a", "saturation_exponent");
+                return new Inductor(p.required("inductance_h"),
+                        p.nonNegative("winding_resistance_ohm", 0),
+                        p.nonNegative("parallel_capacitance_f", 0),
+                        p.positive("core_loss_resistance_ohm", Double.POSITIVE_INFINITY),
+                        p.positive("saturation_current_a", Double.POSITIVE_INFINITY),
+                        p.positive("saturation_exponent", 2));
+            }
+            case "resistor": {
+                p.allow("resistance_ohm", "series_inductance_h", "parallel_capacitance_f");
+                return new Resistor(p.required("resistance_ohm"),
+                        p.nonNegative("series_inductance_h", 0),
+                        p.nonNegative("parallel_capacitance_f", 0));
+            }
+            default: {
+                p.allow("primary_inductance_h", "secondary_inductance_h", "turns_ratio",
+                        "coupling", "primary_resistance_ohm", "secondary_resistance_ohm");
+                double l1 = p.required("primary_inductance_h");
+                boolean hasL2 = p.entries.containsKey("secondary_inductance_h");
+                if (hasL2 == p.entries.containsKey("turns_ratio")) {
+                    throw p.error("give exactly one of secondary_inductance_h and turns_ratio");
+                }
+                double l2 = hasL2 ? p.required("secondary_inductance_h")
+                        : l1 / Math.pow(p.required("turns_ratio"), 2);
+                double k = p.required("coupling");
+                if (k > 1) {
+                    throw p.error("coupling", "must be at most 1");
+                }
+                return new Transformer(l1, l2, k, p.nonNegative("primary_resistance_ohm", 0),
+                        p.nonNegative("secondary_resistance_ohm", 0));
+            }
+        }
+    }
+
+    private Device inlineNetlist(ScalarNode node) {
+        Mark m = node.getStartMark().orElseThrow();
+        ScalarStyle style = node.getScalarStyle();
+        if (style == ScalarStyle.FOLDED) {
+            throw at(node, "write an inline netlist as a literal block (netlist: |), not folded");
+        }
+        boolean block = style == ScalarStyle.LITERAL;
+        int firstLine = m.getLine() + 1 + (block ? 1 : 0);
+        int indent = block ? indentOf(firstLine, node.getValue()) : m.getColumn()
+                + (style == ScalarStyle.PLAIN ? 0 : 1);
+        return new NetlistDevice(Netlist.parse(node.getValue(), source, firstLine, indent));
+    }
+
+    /** Columns the block's content is indented by in the raw file (its first non-blank line). */
+    private int indentOf(int firstLine, String value) {
+        String[] content = value.split("\n", -1);
+        for (int i = 0; i < content.length; i++) {
+            if (!content[i].isBlank() && firstLine - 1 + i < rawLines.length) {
+                String raw = rawLines[firstLine - 1 + i];
+                return Math.max(0, raw.length() - content[i].length());
+            }
+        }
+        return 0;
+    }
+
+    private Device netlistFile(ScalarNode node) {
+        Path file = baseDir == null ? Path.of(node.getValue()) : baseDir.resolve(node.getValue());
+        String text;
+        try {
+            text = Files.readString(file, StandardCharsets.UTF_8);
+        } catch (IOException e) {
+            throw at(node, "cannot read netlist file " + file + ": " + e.getMessage());
+        }
+        return new NetlistDevice(Netlist.parse(text, file.toString()));
+    }
+
+    private SimulatorInputException at(Node node, String what) {
+        Optional<Mark> m = node.getStartMark();
+        return SimulatorInputException.at(source, m.map(x -> x.getLine() + 1).orElse(1),
+                m.map(x -> x.getColumn() + 1).orElse(0), what);
+    }
+
+    /** A mapping in the file, with typed, checked access to its entries. */
+    private final class Section {
+        final String path;
+        final Node node;
+        final Map<String, NodeTuple> entries = new LinkedHashMap<>();
+
+        Section(String path, Node node) {
+            this.path = path;
+            this.node = node;
+            if (!(node instanceof MappingNode)) {
+                throw at(node, (path.isEmpty() ? "the bench file" : "'" + path + "'")
+                        + " must be a mapping of keys to values");
+            }
+            for (NodeTuple t : ((MappingNode) node).getValue()) {
+                if (!(t.getKeyNode() instanceof ScalarNode)) {
+                    throw at(t.getKeyNode(), "keys must be plain words");
+                }
+                String key = ((ScalarNode) t.getKeyNode()).getValue();
+                if (entries.put(key, t) != null) {
+                    throw at(t.getKeyNode(), "'" + name(key) + "' is given twice");
+                }
+            }
+        }
+
+        String name(String key) {
+            return path.isEmpty() ? key : path + "." + key;
+        }
+
+        void allow(String... keys) {
+            List<String> allowed = List.of(keys);
+            for (Map.Entry<String, NodeTuple> e : entries.entrySet()) {
+                if (!allowed.contains(e.getKey())) {
+                    throw at(e.getValue().getKeyNode(), "unknown key '" + name(e.getKey())
+                            + "'; expected one of " + String.join(", ", allowed));
+                }
+            }
+        }
+
+        SimulatorInputException error(String what) {
+            return at(node, what);
+        }
+
+        SimulatorInputException error(String key, String what) {
+            return at(entries.get(key).getValueNode(), "'" + name(key) + "' " + what);
+        }
+
+        Section section(String key) {
+            NodeTuple t = entries.get(key);
+            return t == null ? null : new Section(name(key), t.getValueNode());
+        }
+
+        ScalarNode scalar(String key) {
+            Node v = entries.get(key).getValueNode();
+            if (!(v instanceof ScalarNode)) {
+                throw at(v, "'" + name(key) + "' must be a single value");
+            }
+            return (ScalarNode) v;
+        }
+
+        String string(String key, String fallback) {
+            return entries.containsKey(key) ? scalar(key).getValue() : fallback;
+        }
+
+        String choice(String key, String fallback, String... options) {
+            if (!entries.containsKey(key)) {
+                return fallback;
+            }
+            String v = scalar(key).getValue();
+            if (!List.of(options).contains(v)) {
+                throw error(key, "must be one of " + String.join(", ", options) + ", not '" + v
+                        + "'");
+            }
+            return v;
+        }
+
+        long integer(String key, long fallback) {
+            if (!entries.containsKey(key)) {
+                return fallback;
+            }
+            String v = scalar(key).getValue().strip();
+            if (!INTEGER.matcher(v).matches()) {
+                throw error(key, "must be a whole number, not '" + v + "'");
+            }
+            try {
+                return Long.parseLong(v);
+            } catch (NumberFormatException e) {
+                throw error(key, "is too large: '" + v + "'");
+            }
+        }
+
+        double number(Node v, String key) {
+            if (!(v instanceof ScalarNode)) {
+                throw at(v, "'" + name(key) + "' must be a number");
+            }
+            String text = ((ScalarNode) v).getValue().strip();
+            if (!NUMBER.matcher(text).matches()) {
+                throw at(v, "'" + name(key) + "' must be a plain number in SI units (e.g. 100e-9),"
+                        + " not '" + text + "'");
+            }
+            return Double.parseDouble(text);
+        }
+
+        double required(String key) {
+            if (!entries.containsKey(key)) {
+                throw error("'" + path + "' needs '" + key + "'");
+            }
+            double v = number(entries.get(key).getValueNode(), key);
+            if (!(v > 0)) {
+                throw error(key, "must be greater than 0");
+            }
+            return v;
+        }
+
+        double positive(String key, double fallback) {
+            if (!entries.containsKey(key)) {
+                return fallback;
+            }
+            double v = number(entries.get(key).getValueNode(), key);
+            if (!(v > 0)) {
+                throw error(key, "must be greater than 0");
+            }
+            return v;
+        }
+
+        double above(String key, double fallback, double lower) {
+            double v = positive(key, fallback);
+            if (!(v > lower)) {
+                throw entries.containsKey(key) ? error(key, "must be greater than " + lower)
+                        : error("'" + name(key) + "' (default " + fallback
+                                + ") must be greater than " + lower + "; give it explicitly");
+            }
+            return v;
+        }
+
+        double nonNegative(String key, double fallback) {
+            if (!entries.containsKey(key)) {
+                return fallback;
+            }
+            double v = number(entries.get(key).getValueNode(), key);
+            if (!(v >= 0)) {
+                throw error(key, "must not be negative");
+            }
+            return v;
+        }
+
+        double[] ranges(String key, double[] fallback) {
+            if (!entries.containsKey(key)) {
+                return fallback;
+            }
+            Node v = entries.get(key).getValueNode();
+            if (!(v instanceof SequenceNode) || ((SequenceNode) v).getValue().isEmpty()) {
+                throw at(v, "'" + name(key) + "' must be a list of range limits in ohms");
+            }
+            List<Double> values = new ArrayList<>();
+            for (Node item : ((SequenceNode) v).getValue()) {
+                double r = number(item, key);
+                if (!(r > 0) || (!values.isEmpty() && r <= values.get(values.size() - 1))) {
+                    throw at(item, "'" + name(key) + "' must be positive and ascending");
+                }
+                values.add(r);
+            }
+            return values.stream().mapToDouble(Double::doubleValue).toArray();
+        }
+    }
+}

@@ -1,0 +1,137 @@
+package org.zweep.simulator.bench;
+
+import java.io.IOException;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import org.zweep.simulator.SimulatorInputException;
+import org.zweep.simulator.netlist.Netlist;
+
+/**
+ * A complete bench description: meter, fixture, load standard, device and seed, read from a bench
+ * file (format in README, section "formats-simulator") or made from a netlist. Immutable and
+ * thread-safe; {@link SimulatedBench} measures with it.
+ */
+public final class BenchSpec {
+
+    private final String description;
+    private final MeterSpec meter;
+    private final FixtureSpec fixture;
+    private final Device device;
+    private final long seed;
+
+    BenchSpec(String description, MeterSpec meter, FixtureSpec fixture, Device device, long seed) {
+        this.description = description;
+        this.meter = meter;
+        this.fixture = fixture;
+        this.device = device;
+        this.seed = seed;
+    }
+
+    /**
+     * Reads a bench file. A {@code netlist_file} in it is resolved against the file's folder.
+     *
+     * @throws SimulatorInputException with {@code file:line:column} when the file cannot be read
+     *     or is not a valid bench description
+     */
+    public static BenchSpec load(Path file) {
+        String text;
+        try {
+            text = Files.readString(file, StandardCharsets.UTF_8);
+        } catch (IOException e) {
+            throw new SimulatorInputException(file + ": cannot read the bench file: "
+                    + e.getMessage(), e);
+        }
+        Path parent = file.toAbsolutePath().getParent();
+        return parse(text, file.toString(), parent);
+    }
+
+    /**
+     * Reads a bench description from text.
+     *
+     * @param yaml the bench file's content
+     * @param sourceName the name used in messages
+     * @param baseDir the folder a {@code netlist_file} is resolved against
+     * @throws SimulatorInputException with {@code source:line:column} for invalid content
+     */
+    public static BenchSpec parse(String yaml, String sourceName, Path baseDir) {
+        return new BenchFileReader(sourceName, baseDir).read(yaml);
+    }
+
+    /**
+     * The default meter and fixture with a netlist device: what {@code zweep sim --device} serves.
+     *
+     * @param netlist element lines between {@code hi} and {@code lo}
+     * @param sourceName the name used in messages, e.g. {@code "--device"}
+     * @throws SimulatorInputException with {@code source:line:column} for an invalid netlist
+     */
+    public static BenchSpec ofNetlist(String netlist, String sourceName) {
+        return new BenchSpec("netlist from " + sourceName, MeterSpec.defaults(),
+                FixtureSpec.defaults(), new NetlistDevice(Netlist.parse(netlist, sourceName)), 0);
+    }
+
+    /** The same bench with no noise, no fixture residuals or strays and no lead resistance. */
+    public BenchSpec ideal() {
+        return new BenchSpec(description, meter.withNoiseRel(0), fixture.ideal(), device, seed);
+    }
+
+    /** The same bench with another seed. */
+    public BenchSpec withSeed(long newSeed) {
+        return new BenchSpec(description, meter, fixture, device, newSeed);
+    }
+
+    /** The same bench with another timing model. */
+    public BenchSpec withTiming(Timing timing) {
+        return new BenchSpec(description, meter.withTiming(timing), fixture, device, seed);
+    }
+
+    /** A one-line description (the bench file's {@code description}, or where it came from). */
+    public String description() {
+        return description;
+    }
+
+    /** The meter's limits. */
+    public MeterLimits limits() {
+        return meter.limits();
+    }
+
+    /** The timing model. */
+    public Timing timing() {
+        return meter.timing();
+    }
+
+    /** The initial seed all noise is drawn from. */
+    public long seed() {
+        return seed;
+    }
+
+    /** The impedance of the load standard at {@code frequencyHz}, in ohms: {@code {real, imag}}. */
+    public double[] loadStandardOhm(double frequencyHz) {
+        var z = fixture.loadImpedance(frequencyHz);
+        return new double[] {z.getReal(), z.getImaginary()};
+    }
+
+    MeterSpec meter() {
+        return meter;
+    }
+
+    FixtureSpec fixture() {
+        return fixture;
+    }
+
+    Device device() {
+        return device;
+    }
+
+    BenchSpec withDevice(Device d) {
+        return new BenchSpec(description, meter, fixture, d, seed);
+    }
+
+    BenchSpec withFixture(FixtureSpec f) {
+        return new BenchSpec(description, meter, f, device, seed);
+    }
+
+    BenchSpec withMeter(MeterSpec m) {
+        return new BenchSpec(description, m, fixture, device, seed);
+    }
+}
