@@ -1,0 +1,113 @@
+package org.zweep.simulator.scpi;
+
+import java.io.IOException;
+import java.io.InputStream;
+import java.util.Arrays;
+
+/**
+ * Cuts a byte stream into program messages at the LF terminator (IEEE 488.2 §7.5; raw TCP has no
+ * END), never inside a definite-length block (§7.7.6) whose bytes may contain LF. A message
+ * longer than the bound is skipped up to the next LF and reported as an overrun, so input can
+ * never exhaust memory. Not thread-safe.
+ */
+public final class MessageFramer {
+    /** One message read, or an overrun. */
+    public record Message(byte[] bytes, boolean overrun) {
+    }
+
+    private final InputStream in;
+    private final int maxBytes;
+    private final byte[] buf = new byte[8192];
+    private int bufPos;
+    private int bufLen;
+    private byte[] msg = new byte[256];
+
+    /**
+     * @param in the stream to read
+     * @param maxBytes the longest message accepted, terminator excluded
+     */
+    public MessageFramer(InputStream in, int maxBytes) {
+        this.in = in;
+        this.maxBytes = maxBytes;
+    }
+
+    /**
+     * Blocks until a whole message has arrived.
+     *
+     * @return the message without its LF, or {@code null} at end of stream (a partial message is dropped)
+     * @throws IOException as the stream throws it (a read timeout included)
+     */
+    public Message next() throws IOException {
+        int len = 0;
+        boolean overrun = false;
+        int quote = 0;
+        int blockState = 0; // 0 none, 1 after '#', 2 in length digits, 3 in data
+        int digitsLeft = 0;
+        long bytesLeft = 0;
+        while (true) {
+            if (bufPos == bufLen) {
+                bufLen = in.read(buf, 0, buf.length);
+                bufPos = 0;
+                if (bufLen <= 0) {
+                    bufLen = 0;
+                    return null;
+                }
+            }
+            int b = buf[bufPos++] & 0xFF;
+            if (overrun) {
+                if (b == '\n') {
+                    return new Message(null, true);
+                }
+                continue;
+            }
+            switch (blockState) {
+                case 1 -> {
+                    if (b >= '1' && b <= '9') {
+                        digitsLeft = b - '0';
+                        bytesLeft = 0;
+                        blockState = 2;
+                    } else {
+                        blockState = 0;
+                    }
+                }
+                case 2 -> {
+                    if (b >= '0' && b <= '9') {
+                        bytesLeft = Math.min(bytesLeft * 10 + (b - '0'), Integer.MAX_VALUE);
+                        if (--digitsLeft == 0) {
+                            blockState = bytesLeft > 0 ? 3 : 0;
+                        }
+                    } else {
+                        blockState = 0;
+                    }
+                }
+                case 3 -> {
+                    if (--bytesLeft == 0) {
+                        blockState = 0;
+                    }
+                }
+                default -> {
+                    if (b == '\n') {
+                        return new Message(Arrays.copyOf(msg, len), false);
+                    }
+                    if (quote != 0) {
+                        if (b == quote) {
+                            quote = 0;
+                        }
+                    } else if (b == '"' || b == '\'') {
+                        quote = b;
+                    } else if (b == '#') {
+                        blockState = 1;
+                    }
+                }
+            }
+            if (len == maxBytes) {
+                overrun = true;
+                continue;
+            }
+            if (len == msg.length) {
+                msg = Arrays.copyOf(msg, Math.min(maxBytes, msg.length * 2));
+            }
+            msg[len++] = (byte) b;
+        }
+    }
+}

@@ -1,0 +1,67 @@
+package org.zweep.simulator.server;
+
+import java.net.InetAddress;
+import java.util.function.Consumer;
+import org.zweep.simulator.scpi.InstrumentOptions;
+
+/**
+ * How a {@link SimulatorServer} listens and behaves. Immutable; change with the {@code withX} copies.
+ *
+ * @param tcp whether to open a TCP listener at all (off for in-memory use only)
+ * @param bindAddress the address the TCP listener binds to (loopback by default)
+ * @param port the TCP port; 0 picks a free one ({@link SimulatorServer#port()} tells which)
+ * @param maxMessageBytes the longest program message accepted; longer ones give {@code -363}
+ * @param faults the faults every new connection starts with
+ * @param instrument the meter's own options (timing, error-queue depth, strictness, bench loader)
+ * @param log where connection events go, one line each
+ */
+public record ServerOptions(boolean tcp, InetAddress bindAddress, int port, int maxMessageBytes, FaultPlan faults,
+        InstrumentOptions instrument, Consumer<String> log) {
+    /** The IANA port for SCPI over a raw socket. */
+    public static final int DEFAULT_PORT = 5025;
+    /** 1 MiB: room for a netlist block, far from exhausting memory. */
+    public static final int DEFAULT_MAX_MESSAGE_BYTES = 1 << 20;
+
+    public ServerOptions {
+        if (port < 0 || port > 65535) {
+            throw new IllegalArgumentException("port must be 0..65535, got " + port);
+        }
+        if (maxMessageBytes < 64) {
+            throw new IllegalArgumentException("maxMessageBytes must be at least 64, got " + maxMessageBytes);
+        }
+    }
+
+    /** TCP on 127.0.0.1:5025, 1 MiB messages, no faults, default instrument options, no log. */
+    public static ServerOptions defaults() {
+        return new ServerOptions(true, InetAddress.getLoopbackAddress(), DEFAULT_PORT, DEFAULT_MAX_MESSAGE_BYTES,
+                FaultPlan.none(), InstrumentOptions.defaults(), line -> { });
+    }
+
+    public ServerOptions withTcp(boolean t) {
+        return new ServerOptions(t, bindAddress, port, maxMessageBytes, faults, instrument, log);
+    }
+
+    public ServerOptions withBindAddress(InetAddress a) {
+        return new ServerOptions(tcp, a, port, maxMessageBytes, faults, instrument, log);
+    }
+
+    public ServerOptions withPort(int p) {
+        return new ServerOptions(tcp, bindAddress, p, maxMessageBytes, faults, instrument, log);
+    }
+
+    public ServerOptions withMaxMessageBytes(int n) {
+        return new ServerOptions(tcp, bindAddress, port, n, faults, instrument, log);
+    }
+
+    public ServerOptions withFaults(FaultPlan f) {
+        return new ServerOptions(tcp, bindAddress, port, maxMessageBytes, f, instrument, log);
+    }
+
+    public ServerOptions withInstrument(InstrumentOptions i) {
+        return new ServerOptions(tcp, bindAddress, port, maxMessageBytes, faults, i, log);
+    }
+
+    public ServerOptions withLog(Consumer<String> l) {
+        return new ServerOptions(tcp, bindAddress, port, maxMessageBytes, faults, instrument, l);
+    }
+}

@@ -1,0 +1,236 @@
+package org.zweep.simulator.server;
+
+import java.io.IOException;
+import java.io.InputStream;
+import java.io.OutputStream;
+import java.net.InetSocketAddress;
+import java.net.ServerSocket;
+import java.net.Socket;
+import java.util.Set;
+import java.util.concurrent.ConcurrentHashMap;
+import java.util.concurrent.atomic.AtomicLong;
+import org.zweep.simulator.bench.Bench;
+import org.zweep.simulator.scpi.Instrument;
+
+/**
+ * The simulated meter behind a raw-socket SCPI server (IEEE 488.2 over TCP, LF-terminated) and
+ * in-memory connections.
+ *
+ * <p>State model: one {@link Instrument} (settings, measurement data, status registers, error
+ * queue) is shared by every connection, as on a real meter with several remote clients; each
+ * connection has its own parser and header path, output queue, noise-key counter, strictness
+ * and faults. Each connection is served by its own thread, so a slow or silent client never
+ * blocks another.
+ *
+ * <p>Thread-safe. {@link #close()} stops accepting, closes every connection and stops the meter.
+ */
+public final class SimulatorServer implements AutoCloseable {
+    private static final int PIPE_BYTES = 1 << 16;
+
+    private final ServerOptions options;
+    private final Instrument instrument;
+    private final ServerSocket listener;
+    private final Set<Connection> connections = ConcurrentHashMap.newKeySet();
+    private final AtomicLong ids = new AtomicLong();
+    private volatile boolean closed;
+
+    private SimulatorServer(Bench bench, ServerOptions options) throws IOException {
+        this.options = options;
+        this.instrument = new Instrument(bench, options.instrument(), FaultCommands::register);
+        if (options.tcp()) {
+            ServerSocket s = new ServerSocket();
+            try {
+                s.setReuseAddress(true);
+                s.bind(new InetSocketAddress(options.bindAddress(), options.port()), 50);
+            } catch (IOException e) {
+                s.close();
+                instrument.close();
+                throw new IOException("cannot listen on " + options.bindAddress().getHostAddress() + ":" + options.port()
+                        + ": " + e.getMessage(), e);
+            }
+            this.listener = s;
+            Thread t = new Thread(this::acceptLoop, "zweep-sim-accept-" + s.getLocalPort());
+            t.setDaemon(true);
+            t.start();
+        } else {
+            this.listener = null;
+        }
+    }
+
+    /**
+     * Starts a server for {@code bench}; returns once the TCP listener (if any) is bound.
+     *
+     * @throws IOException when the address cannot be bound (the message names it)
+     */
+    public static SimulatorServer start(Bench bench, ServerOptions options) throws IOException {
+        return new SimulatorServer(bench, options);
+    }
+
+    /** The bound TCP port (the real one when 0 was asked for); -1 without a TCP listener. */
+    public int port() {
+        return listener == null ? -1 : listener.getLocalPort();
+    }
+
+    /** The bound TCP address, or {@code null} without a TCP listener. */
+    public InetSocketAddress address() {
+        return listener == null ? null : (InetSocketAddress) listener.getLocalSocketAddress();
+    }
+
+    /** The meter all connections share. */
+    public Instrument instrument() {
+        return instrument;
+    }
+
+    ServerOptions options() {
+        return options;
+    }
+
+    /** How many connections are open now. */
+    public int connectionCount() {
+        return connections.size();
+    }
+
+    /**
+     * Opens an in-process connection served exactly like a TCP one (same faults, same state).
+     *
+     * @throws IllegalStateException after {@link #close()}
+     */
+    public InMemoryConnection connectInMemory() {
+        if (closed) {
+            throw new IllegalStateException("simulator server is closed");
+        }
+        BytePipe toServer = new BytePipe(PIPE_BYTES);
+        BytePipe toClient = new BytePipe(PIPE_BYTES);
+        Link link = new Link() {
+            @Override
+            public InputStream input() {
+                return toServer.input;
+            }
+
+            @Override
+            public OutputStream output() {
+                return toClient.output;
+            }
+
+            @Override
+            public void setReadTimeoutMillis(int ms) {
+                toServer.setReadTimeoutMillis(ms);
+            }
+
+            @Override
+            public void close() {
+                toServer.close();
+                toClient.close();
+            }
+
+            @Override
+            public String peer() {
+                return "in-memory";
+            }
+        };
+        Connection c = new Connection(this, ids.incrementAndGet(), link, options.faults());
+        toClient.setOnBlockedRead(() -> c.onClientBlockedRead(toServer));
+        serve(c);
+        return new InMemoryConnection(toServer, toClient);
+    }
+
+    private void acceptLoop() {
+        while (!closed) {
+            Socket s;
+            try {
+                s = listener.accept();
+            } catch (IOException e) {
+                if (!closed) {
+                    log("accept failed: " + e.getMessage());
+                }
+                continue;
+            }
+            try {
+                s.setTcpNoDelay(true);
+                serve(new Connection(this, ids.incrementAndGet(), socketLink(s), options.faults()));
+            } catch (IOException e) {
+                log("cannot set up connection: " + e.getMessage());
+                closeQuietly(s);
+            }
+        }
+    }
+
+    private static Link socketLink(Socket s) throws IOException {
+        InputStream in = s.getInputStream();
+        OutputStream out = s.getOutputStream();
+        String peer = s.getInetAddress().getHostAddress() + ":" + s.getPort();
+        return new Link() {
+            @Override
+            public InputStream input() {
+                return in;
+            }
+
+            @Override
+            public OutputStream output() {
+                return out;
+            }
+
+            @Override
+            public void setReadTimeoutMillis(int ms) throws IOException {
+                s.setSoTimeout(ms);
+            }
+
+            @Override
+            public void close() {
+                closeQuietly(s);
+            }
+
+            @Override
+            public String peer() {
+                return peer;
+            }
+        };
+    }
+
+    private void serve(Connection c) {
+        connections.add(c);
+        if (closed) {
+            c.close("server stopped");
+            return;
+        }
+        Thread t = new Thread(c::run, "zweep-sim-conn-" + c.id());
+        t.setDaemon(true);
+        t.start();
+    }
+
+    void closed(Connection c) {
+        connections.remove(c);
+    }
+
+    void log(String line) {
+        options.log().accept(line);
+    }
+
+    private static void closeQuietly(Socket s) {
+        try {
+            s.close();
+        } catch (IOException e) {
+            // closing is best effort
+        }
+    }
+
+    /** Stops accepting, closes every connection, stops the meter; never throws. */
+    @Override
+    public void close() {
+        if (closed) {
+            return;
+        }
+        closed = true;
+        if (listener != null) {
+            try {
+                listener.close();
+            } catch (IOException e) {
+                // closing is best effort
+            }
+        }
+        for (Connection c : connections) {
+            c.close("server stopped");
+        }
+        instrument.close();
+    }
+}
