@@ -16,6 +16,9 @@ import picocli.CommandLine.Spec;
         subcommands = {
             CommandLine.HelpCommand.class,
             CheckCommand.class,
+            DemoCommand.class,
+            RunCommand.class,
+            MeasureCommand.class,
         })
 public final class ZweepCommand implements Callable<Integer> {
 

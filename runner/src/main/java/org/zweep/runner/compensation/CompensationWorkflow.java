@@ -24,6 +24,7 @@ import org.zweep.driver.meter.MeasuredQuantity;
 import org.zweep.driver.meter.MeasurementSetting;
 import org.zweep.driver.meter.Reading;
 import org.zweep.driver.meter.ReadingStatus;
+import org.zweep.runner.engine.FixtureCompensation;
 import org.zweep.runner.engine.ReadingCorrector;
 import org.zweep.runner.engine.SimulatorControl;
 import org.zweep.runner.engine.Station;
@@ -48,15 +49,6 @@ public final class CompensationWorkflow {
     private static final DateTimeFormatter STAMP = DateTimeFormatter.ofPattern("yyyyMMdd-HHmmss")
             .withZone(ZoneOffset.UTC);
 
-    /**
-     * What the run uses.
-     *
-     * @param corrector the correction applied to every reading ({@link ReadingCorrector#NONE} unless host-side)
-     * @param info the {@code run.json} record of it
-     */
-    public record Prepared(ReadingCorrector corrector, RunManifest.CompensationInfo info) {
-    }
-
     private CompensationWorkflow() {
     }
 
@@ -71,16 +63,16 @@ public final class CompensationWorkflow {
      * @param log one-line notes
      * @throws InvalidInputException when stored data would have to be extrapolated
      */
-    public static Prepared prepare(Plan plan, Station station, RunFolder folder, boolean resuming, Clock clock,
+    public static FixtureCompensation.Prepared prepare(Plan plan, Station station, RunFolder folder, boolean resuming, Clock clock,
             Consumer<String> log) {
         FixturePlan fx = plan.fixture();
         List<String> names = fx.standards().stream().map(Enum::name).toList();
         if (fx.compensation() == CompensationMode.NONE || fx.standards().isEmpty()) {
-            return new Prepared(ReadingCorrector.NONE, new RunManifest.CompensationInfo("none", List.of(), null));
+            return new FixtureCompensation.Prepared(ReadingCorrector.NONE, new RunManifest.CompensationInfo("none", List.of(), null));
         }
         if (fx.compensation() == CompensationMode.METER) {
             meterSide(fx, station);
-            return new Prepared(ReadingCorrector.NONE, new RunManifest.CompensationInfo("meter", names, null));
+            return new FixtureCompensation.Prepared(ReadingCorrector.NONE, new RunManifest.CompensationInfo("meter", names, null));
         }
         Path runData = folder.dir().resolve(RUN_DATA);
         CompensationData data;
@@ -102,7 +94,7 @@ public final class CompensationWorkflow {
         }
         HostCorrector corrector = new HostCorrector(data, runData.toString(), fx.loadStandard());
         corrector.checkCovers(frequencies(plan));
-        return new Prepared(corrector, new RunManifest.CompensationInfo("host", names, RUN_DATA));
+        return new FixtureCompensation.Prepared(corrector, new RunManifest.CompensationInfo("host", names, RUN_DATA));
     }
 
     private static void meterSide(FixturePlan fx, Station station) {

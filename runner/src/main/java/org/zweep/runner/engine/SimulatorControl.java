@@ -24,6 +24,9 @@ public interface SimulatorControl {
     /** Sets the seed all noise is drawn from. */
     void setSeed(long seed);
 
+    /** The seed all noise is drawn from now. */
+    long seed();
+
     /** Whether the simulator waits for its meter's measuring time ({@code timing real}). */
     boolean realTiming();
 }

@@ -280,6 +280,11 @@ final class FakeBench {
                 }
 
                 @Override
+                public long seed() {
+                    return 42;
+                }
+
+                @Override
                 public boolean realTiming() {
                     return false;
                 }
