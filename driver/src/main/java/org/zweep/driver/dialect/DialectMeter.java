@@ -6,12 +6,12 @@ import java.nio.ByteOrder;
 import java.time.Clock;
 import java.time.Instant;
 import java.util.ArrayList;
+import java.util.EnumMap;
 import java.util.List;
 import java.util.Map;
 import java.util.Optional;
 import java.util.stream.Collectors;
 import org.zweep.driver.InvalidInputException;
-import org.zweep.driver.MeterErrorException;
 import org.zweep.driver.MeterException;
 import org.zweep.driver.impedance.Impedance;
 import org.zweep.driver.meter.Bias;
@@ -27,6 +27,7 @@ import org.zweep.driver.meter.Range;
 import org.zweep.driver.meter.Reading;
 import org.zweep.driver.meter.ReadingStatus;
 import org.zweep.driver.meter.SourceMode;
+import org.zweep.driver.scpi.MeterErrorException;
 import org.zweep.driver.scpi.ScpiError;
 import org.zweep.driver.scpi.ScpiSession;
 
@@ -119,7 +120,14 @@ public final class DialectMeter implements Meter {
     public void apply(MeasurementSetting setting) {
         requireOpen();
         validate(setting);
-        configure(setting, List.of(), "applying " + describe(setting));
+        try {
+            configure(setting, List.of(), "applying " + describe(setting));
+        } catch (RuntimeException e) {
+            // a later measure() retries this setting, never silently measures at an older one
+            current = setting;
+            resync = true;
+            throw e;
+        }
         current = setting;
         resync = false;
     }
@@ -167,7 +175,9 @@ public final class DialectMeter implements Meter {
         requireOpen();
         if (!dialect.capabilities().corrections().contains(standard)) {
             throw new InvalidInputException("correction " + standard + ": " + meterName()
-                    + " cannot acquire this standard (it acquires " + dialect.capabilities().corrections() + ")");
+                    + " cannot acquire this standard (it acquires " + dialect.capabilities().corrections().stream()
+                    .sorted().map(c -> c.name().toLowerCase(java.util.Locale.ROOT)).collect(Collectors.joining(", "))
+                    + ")");
         }
         if (resync && current != null) {
             apply(current);
@@ -207,11 +217,15 @@ public final class DialectMeter implements Meter {
     @Override
     public void biasOff() {
         requireOpen();
-        known.biasVoltageOn = null;
-        known.biasCurrentOn = null;
+        known.biasOn.clear();
         send(List.of(render(Command.BIAS_OFF)), "switching DC bias off");
-        known.biasVoltageOn = false;
-        known.biasCurrentOn = false;
+        for (SourceMode mode : SourceMode.values()) {
+            known.biasOn.put(mode, false);
+        }
+        if (current != null && current.bias().on()) {
+            // the next reading must say what is true: no bias, until a setting turns it on again
+            current = current.withBias(new Bias(current.bias().mode(), current.bias().value(), false));
+        }
     }
 
     /**
@@ -274,15 +288,12 @@ public final class DialectMeter implements Meter {
         if (!setupDone) {
             dialect.command(Command.SETUP).ifPresent(t -> units.add(t.render()));
         }
-        boolean voltageBiasOn = s.bias().on() && s.bias().mode() == SourceMode.VOLTAGE;
-        boolean currentBiasOn = s.bias().on() && s.bias().mode() == SourceMode.CURRENT;
-        if (!voltageBiasOn && dialect.has(Command.BIAS_VOLTAGE_OFF) && !Boolean.FALSE.equals(next.biasVoltageOn)) {
-            add(units, render(Command.BIAS_VOLTAGE_OFF));
-            next.biasVoltageOn = false;
-        }
-        if (!currentBiasOn && dialect.has(Command.BIAS_CURRENT_OFF) && !Boolean.FALSE.equals(next.biasCurrentOn)) {
-            add(units, render(Command.BIAS_CURRENT_OFF));
-            next.biasCurrentOn = false;
+        for (SourceMode mode : SourceMode.values()) {
+            Command off = BiasCommands.of(mode).off;
+            if (!biasOn(s, mode) && dialect.has(off) && !Boolean.FALSE.equals(next.biasOn.get(mode))) {
+                add(units, render(off));
+                next.biasOn.put(mode, false);
+            }
         }
         if (!list && !Boolean.FALSE.equals(next.listMode)) {
             dialect.command(Command.LIST_MODE_OFF).ifPresent(t -> add(units, t.render()));
@@ -316,60 +327,56 @@ public final class DialectMeter implements Meter {
             next.range = s.range();
         }
         if (list) {
-            addListUnits(units, sweep, next, voltageBiasOn, currentBiasOn);
+            addListUnits(units, sweep, next);
         }
-        if (voltageBiasOn) {
-            if (!same(next.biasVoltageV, s.bias().value())) {
-                add(units, render(Command.BIAS_VOLTAGE, "bias", s.bias().value()));
-                next.biasVoltageV = s.bias().value();
+        if (s.bias().on()) {
+            SourceMode mode = s.bias().mode();
+            BiasCommands c = BiasCommands.of(mode);
+            if (!same(next.biasValue.get(mode), s.bias().value())) {
+                add(units, render(c.value, "bias", s.bias().value()));
+                next.biasValue.put(mode, s.bias().value());
             }
-            if (!Boolean.TRUE.equals(next.biasVoltageOn)) {
-                add(units, render(Command.BIAS_VOLTAGE_ON));
-                next.biasVoltageOn = true;
+            if (!Boolean.TRUE.equals(next.biasOn.get(mode))) {
+                add(units, render(c.on));
+                next.biasOn.put(mode, true);
             }
         }
-        if (currentBiasOn) {
-            if (!same(next.biasCurrentA, s.bias().value())) {
-                add(units, render(Command.BIAS_CURRENT, "bias", s.bias().value()));
-                next.biasCurrentA = s.bias().value();
-            }
-            if (!Boolean.TRUE.equals(next.biasCurrentOn)) {
-                add(units, render(Command.BIAS_CURRENT_ON));
-                next.biasCurrentOn = true;
-            }
+        if (list) {
+            forgetListed(next, s.drive().mode());
         }
         send(units, what);
         known = next;
         setupDone = true;
     }
 
-    private void addListUnits(List<String> units, List<MeasurementSetting> sweep, KnownState next,
-            boolean voltageBiasOn, boolean currentBiasOn) {
+    private void addListUnits(List<String> units, List<MeasurementSetting> sweep, KnownState next) {
         add(units, dialect.command(Command.LIST_FREQUENCY).orElseThrow().render(
                 Map.of("frequencies", sweep.stream().map(MeasurementSetting::frequencyHz).toList())));
-        next.frequencyHz = null;
         List<Double> levels = sweep.stream().map(x -> x.drive().levelRms()).toList();
         List<Double> biases = sweep.stream().map(x -> x.bias().value()).toList();
         Command levelList = sweep.get(0).drive().mode() == SourceMode.VOLTAGE
                 ? Command.LIST_VOLTAGE : Command.LIST_CURRENT;
-        dialect.command(levelList).ifPresent(t -> {
-            add(units, t.render(Map.of("levels", levels)));
-            next.drive = null;
-        });
-        if (voltageBiasOn) {
-            dialect.command(Command.LIST_BIAS_VOLTAGE).ifPresent(t -> {
-                add(units, t.render(Map.of("biases", biases)));
-                next.biasVoltageV = null;
-            });
-        }
-        if (currentBiasOn) {
-            dialect.command(Command.LIST_BIAS_CURRENT).ifPresent(t -> {
-                add(units, t.render(Map.of("biases", biases)));
-                next.biasCurrentA = null;
-            });
+        dialect.command(levelList).ifPresent(t -> add(units, t.render(Map.of("levels", levels))));
+        Bias bias = sweep.get(0).bias();
+        if (bias.on()) {
+            dialect.command(BiasCommands.of(bias.mode()).list)
+                    .ifPresent(t -> add(units, t.render(Map.of("biases", biases))));
         }
         dialect.command(Command.LIST_MODE_ON).ifPresent(t -> add(units, t.render()));
         next.listMode = true;
+    }
+
+    /** After a sweep the meter's single-point values of what was listed are not trusted. */
+    private void forgetListed(KnownState next, SourceMode driveMode) {
+        next.frequencyHz = null;
+        if (dialect.has(driveMode == SourceMode.VOLTAGE ? Command.LIST_VOLTAGE : Command.LIST_CURRENT)) {
+            next.drive = null;
+        }
+        for (SourceMode mode : SourceMode.values()) {
+            if (dialect.has(BiasCommands.of(mode).list)) {
+                next.biasValue.remove(mode);
+            }
+        }
     }
 
     /** Whether {@code settings} can be one list sweep: they differ only in what the dialect can list. */
@@ -388,12 +395,26 @@ public final class DialectMeter implements Meter {
         if (dialect.has(levelList)) {
             k = k.withDrive(new Drive(s.drive().mode(), 0));
         }
-        Command biasList = s.bias().mode() == SourceMode.VOLTAGE
-                ? Command.LIST_BIAS_VOLTAGE : Command.LIST_BIAS_CURRENT;
-        if (!s.bias().on() || dialect.has(biasList)) {
+        if (!s.bias().on() || dialect.has(BiasCommands.of(s.bias().mode()).list)) {
             k = k.withBias(new Bias(s.bias().mode(), 0, s.bias().on()));
         }
         return k;
+    }
+
+    private static boolean biasOn(MeasurementSetting s, SourceMode mode) {
+        return s.bias().on() && s.bias().mode() == mode;
+    }
+
+    /** The dialect commands of one bias source. */
+    private record BiasCommands(Command value, Command on, Command off, Command list) {
+        static final BiasCommands VOLTAGE = new BiasCommands(Command.BIAS_VOLTAGE, Command.BIAS_VOLTAGE_ON,
+                Command.BIAS_VOLTAGE_OFF, Command.LIST_BIAS_VOLTAGE);
+        static final BiasCommands CURRENT = new BiasCommands(Command.BIAS_CURRENT, Command.BIAS_CURRENT_ON,
+                Command.BIAS_CURRENT_OFF, Command.LIST_BIAS_CURRENT);
+
+        static BiasCommands of(SourceMode mode) {
+            return mode == SourceMode.VOLTAGE ? VOLTAGE : CURRENT;
+        }
     }
 
     private static void add(List<String> units, String unit) {
@@ -604,7 +625,6 @@ public final class DialectMeter implements Meter {
             within("DC bias", s.bias().value(), caps.biasCurrentA(), "A");
         }
         within("averaging count", s.averagingCount(), dialect.averagingCount(), "");
-        supported("integration time", Command.INTEGRATION_TIME);
         within("integration time", s.integrationTimeS(), dialect.integrationTimeS(), "s");
         if (!s.range().auto()) {
             supported("held impedance range", Command.RANGE_HOLD);
@@ -664,10 +684,8 @@ public final class DialectMeter implements Meter {
         MeasuredQuantity quantity;
         Double frequencyHz;
         Drive drive;
-        Double biasVoltageV;
-        Double biasCurrentA;
-        Boolean biasVoltageOn;
-        Boolean biasCurrentOn;
+        final Map<SourceMode, Double> biasValue = new EnumMap<>(SourceMode.class);
+        final Map<SourceMode, Boolean> biasOn = new EnumMap<>(SourceMode.class);
         Integer averaging;
         Double integrationTimeS;
         ImpedanceRange range;
@@ -678,10 +696,8 @@ public final class DialectMeter implements Meter {
             k.quantity = quantity;
             k.frequencyHz = frequencyHz;
             k.drive = drive;
-            k.biasVoltageV = biasVoltageV;
-            k.biasCurrentA = biasCurrentA;
-            k.biasVoltageOn = biasVoltageOn;
-            k.biasCurrentOn = biasCurrentOn;
+            k.biasValue.putAll(biasValue);
+            k.biasOn.putAll(biasOn);
             k.averaging = averaging;
             k.integrationTimeS = integrationTimeS;
             k.range = range;

@@ -141,6 +141,10 @@ final class DialectParser {
             rejectUnneeded(cmdEntries, "corrections", Map.of(), Command.LOAD_STANDARD);
         }
 
+        if (!caps.containsKey("integration-time")) {
+            // every MeasurementSetting carries one; a dialect that cannot send it could apply none
+            throw fail(sectionLines.get("capabilities"), 0, "[capabilities] must have 'integration-time'");
+        }
         MeterCapabilities capabilities = new MeterCapabilities(frequency, voltage, current, biasV, biasA,
                 listPoints, corrections, ratio);
         return new Dialect(nameEntry.value, description == null ? "" : description.value, source, capabilities,

@@ -45,9 +45,15 @@ public record Impedance(double frequencyHz, double resistanceOhm, double reactan
         return deg == -180.0 ? 180.0 : deg;
     }
 
-    /** Loss angle δ = 90° − |θ| in degrees; tan δ = D. */
+    /**
+     * Loss angle δ = 90° − |θ| in degrees; tan δ = D. Computed as atan2(R, |X|), which equals
+     * 90° − |θ| without its cancellation for a nearly lossless part; 90° for Z = 0.
+     */
     public double lossAngleDeg() {
-        return 90.0 - Math.abs(phaseDeg());
+        if (resistanceOhm == 0.0 && reactanceOhm == 0.0) {
+            return 90.0;
+        }
+        return Math.toDegrees(Math.atan2(resistanceOhm, Math.abs(reactanceOhm)));
     }
 
     /** Quality factor Q = |X|/R = tan|θ| (dimensionless); +∞ when R = 0 and X ≠ 0, 0 when X = 0. */
@@ -235,7 +241,14 @@ public record Impedance(double frequencyHz, double resistanceOhm, double reactan
     }
 
     private static double cosDeg(double deg) {
-        return sinDeg(deg + 90.0);
+        double r = Math.IEEEremainder(deg, 360.0);
+        if (Math.abs(r) == 90.0) {
+            return 0.0;
+        }
+        if (Math.abs(r) == 180.0) {
+            return -1.0;
+        }
+        return Math.cos(Math.toRadians(r));
     }
 
     private static double sinDeg(double deg) {
@@ -243,11 +256,8 @@ public record Impedance(double frequencyHz, double resistanceOhm, double reactan
         if (r == 0.0 || Math.abs(r) == 180.0) {
             return 0.0;
         }
-        if (r == 90.0) {
-            return 1.0;
-        }
-        if (r == -90.0) {
-            return -1.0;
+        if (Math.abs(r) == 90.0) {
+            return Math.signum(r);
         }
         return Math.sin(Math.toRadians(r));
     }

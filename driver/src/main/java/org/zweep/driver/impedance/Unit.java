@@ -27,7 +27,7 @@ public enum Unit {
     /** Angle in degrees (no SI prefixes). */
     DEGREE("°", "an angle in degrees", "80 or -89.5°", Bound.ANY, false, List.of("°", "deg")),
     /** A plain number such as Q or D; {@code %} means one hundredth. */
-    NONE("", "a plain number", "0.01, 1e-3 or 1%", Bound.ANY, true, List.of());
+    NONE("", "a number", "0.01, 1e-3 or 1%", Bound.ANY, true, List.of());
 
     /** The range of values a parsed quantity must fall in. */
     public enum Bound {

@@ -5,7 +5,6 @@ import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.io.IOException;
-import java.net.URISyntaxException;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
@@ -24,11 +23,8 @@ import org.zweep.driver.meter.Range;
 class DialectParserTest {
 
     /** Each malformed file states the exact one-line error it must give on its first line. */
-    static Stream<Path> malformedFiles() throws IOException, URISyntaxException {
-        Path dir = Path.of(DialectParserTest.class.getResource("malformed").toURI());
-        try (Stream<Path> files = Files.list(dir)) {
-            return files.filter(p -> p.toString().endsWith(".dialect")).sorted().toList().stream();
-        }
+    static Stream<Path> malformedFiles() {
+        return TestResources.files("malformed", ".dialect");
     }
 
     @ParameterizedTest(name = "{0}")
@@ -123,6 +119,7 @@ class DialectParserTest {
                 [capabilities]
                 frequency = 10 .. 1e6 Hz
                 voltage-level = 0.01 .. 1 V
+                integration-time = 0.01 .. 1 s
                 [commands]
                 identify = *IDN?
                 reset = *RST
@@ -130,6 +127,7 @@ class DialectParserTest {
                 bias-off = :BIAS OFF
                 frequency = :FREQ {frequency}
                 drive-voltage = :VOLT {level}
+                integration-time = :APER {seconds}
                 """;
 
         Dialect d = Dialect.parse("hashes.dialect", text);

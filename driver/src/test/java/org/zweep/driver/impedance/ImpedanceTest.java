@@ -1,6 +1,7 @@
 package org.zweep.driver.impedance;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.zweep.driver.impedance.Close.assertRel;
 import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 
@@ -8,10 +9,6 @@ import org.junit.jupiter.api.Test;
 import org.zweep.driver.InvalidInputException;
 
 class ImpedanceTest {
-
-    private static void assertRel(double expected, double actual, double relative) {
-        assertEquals(expected, actual, Math.abs(expected) * relative);
-    }
 
     @Test
     void reactanceOfOneMicrofaradAtOneKilohertzIsMinus159Ohms() {

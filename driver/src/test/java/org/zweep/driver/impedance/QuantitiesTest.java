@@ -81,7 +81,7 @@ class QuantitiesTest {
         "''         | HERTZ  | empty value; expected a frequency in Hz, e.g. 1 kHz or 1.5k",
         "'   '      | FARAD  | empty value; expected a capacitance in F, e.g. 100 nF or 4n7",
         "abc        | FARAD  | \"abc\" is not a number; expected a capacitance in F, e.g. 100 nF or 4n7",
-        "NaN        | NONE   | \"NaN\" is not a number; expected a plain number, e.g. 0.01, 1e-3 or 1%",
+        "NaN        | NONE   | \"NaN\" is not a number; expected a number, e.g. 0.01, 1e-3 or 1%",
         "100 nH     | FARAD  | \"100 nH\" has the wrong unit H; expected a capacitance in F, e.g. 100 nF or 4n7",
         "10 V       | FARAD  | \"10 V\" has the wrong unit V; expected a capacitance in F, e.g. 100 nF or 4n7",
         "5 ms       | HERTZ  | \"5 ms\" has the wrong unit s; expected a frequency in Hz, e.g. 1 kHz or 1.5k",

@@ -1,6 +1,7 @@
 package org.zweep.driver.impedance;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.zweep.driver.impedance.Close.assertRel;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
@@ -8,10 +9,6 @@ import java.util.SplittableRandom;
 import org.junit.jupiter.api.Test;
 
 class SeriesParallelTest {
-
-    private static void assertRel(double expected, double actual, double relative) {
-        assertEquals(expected, actual, Math.abs(expected) * relative);
-    }
 
     @Test
     void lossyCapacitorSeriesToParallelMatchesWorkedExampleP1() {

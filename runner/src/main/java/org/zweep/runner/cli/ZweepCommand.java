@@ -15,6 +15,7 @@ import picocli.CommandLine.Spec;
         footer = ExitCode.HELP_LIST,
         subcommands = {
             CommandLine.HelpCommand.class,
+            ConvertCommand.class,
             CheckCommand.class,
             DemoCommand.class,
             RunCommand.class,

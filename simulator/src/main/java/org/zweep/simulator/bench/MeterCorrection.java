@@ -1,11 +1,14 @@
 package org.zweep.simulator.bench;
 
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.Comparator;
 import java.util.EnumMap;
 import java.util.List;
+import java.util.Locale;
 import java.util.Map;
 import java.util.TreeMap;
+import java.util.function.BiFunction;
 import org.apache.commons.math3.complex.Complex;
 
 /**
@@ -23,8 +26,9 @@ import org.apache.commons.math3.complex.Complex;
  *   <li>A load without both open and short is kept but not used.</li>
  * </ul>
  *
- * <p>Interpolation is linear in frequency, on the open's admittance 1/Zo and on the short's and
- * load's impedance (exact for a residual R + jωL and a stray G + jωC). Outside the acquired
+ * <p>Interpolation is linear in frequency, on the stray admittance 1/(Zo − Zs) and on the short's
+ * impedance (exact for a residual R + jωL and a stray G + jωC); for the three-standard map, on
+ * 1/Zo and on the load's reading. Outside the acquired
  * frequencies the nearest end value is used. An open reading that overloaded counts as an
  * infinite impedance.
  *
@@ -195,10 +199,11 @@ public final class MeterCorrection {
     public Complex apply(double frequencyHz, Complex measuredOhm) {
         boolean open = has(Standard.OPEN);
         boolean shorted = has(Standard.SHORT);
-        Complex yo = open ? tables.get(Standard.OPEN).at(frequencyHz) : Complex.ZERO;
-        Complex zs = shorted ? tables.get(Standard.SHORT).at(frequencyHz) : Complex.ZERO;
+        Table shortTable = tables.get(Standard.SHORT);
+        Complex zs = shorted ? shortTable.at(frequencyHz, null) : Complex.ZERO;
         if (open && shorted && has(Standard.LOAD)) {
-            Complex zsm = tables.get(Standard.LOAD).at(frequencyHz);
+            Complex yo = tables.get(Standard.OPEN).at(frequencyHz, null);
+            Complex zsm = tables.get(Standard.LOAD).at(frequencyHz, null);
             Complex numerator = Complex.ONE.subtract(zsm.multiply(yo))
                     .multiply(measuredOhm.subtract(zs));
             Complex denominator = zsm.subtract(zs)
@@ -208,14 +213,18 @@ public final class MeterCorrection {
         if (!open && !shorted) {
             return measuredOhm;
         }
-        // Yo = 1/(Zo − Zs), from the stored 1/Zo.
-        Complex strayY = yo.divide(Complex.ONE.subtract(zs.multiply(yo)));
+        // The stray admittance Yo = 1/(Zo − Zs) at each acquired open frequency (with the short
+        // there), then interpolated: exact for a stray G + jωC.
+        Complex strayY = open ? tables.get(Standard.OPEN).at(frequencyHz, (f, yom) -> {
+            Complex zsAt = shorted ? shortTable.at(f, null) : Complex.ZERO;
+            return yom.divide(Complex.ONE.subtract(zsAt.multiply(yom)));
+        }) : Complex.ZERO;
         Complex d = measuredOhm.subtract(zs);
         return d.divide(Complex.ONE.subtract(d.multiply(strayY)));
     }
 
     private static String name(Standard s) {
-        return s.name().toLowerCase(java.util.Locale.ROOT);
+        return s.name().toLowerCase(Locale.ROOT);
     }
 
     /** Values at ascending frequencies, linearly interpolated. */
@@ -229,22 +238,27 @@ public final class MeterCorrection {
             v = points.values().toArray(new Complex[0]);
         }
 
-        Complex at(double frequencyHz) {
-            if (frequencyHz <= f[0]) {
-                return v[0];
-            }
+        /**
+         * The value at {@code frequencyHz}, linear between the two neighbouring samples, each
+         * first mapped by {@code map} (frequency, stored value) when it is not null.
+         */
+        Complex at(double frequencyHz, BiFunction<Double, Complex, Complex> map) {
+            BiFunction<Double, Complex, Complex> m = map == null ? (f0, x) -> x : map;
             int last = f.length - 1;
-            if (frequencyHz >= f[last]) {
-                return v[last];
+            if (frequencyHz <= f[0]) {
+                return m.apply(f[0], v[0]);
             }
-            int i = java.util.Arrays.binarySearch(f, frequencyHz);
+            if (frequencyHz >= f[last]) {
+                return m.apply(f[last], v[last]);
+            }
+            int i = Arrays.binarySearch(f, frequencyHz);
             if (i >= 0) {
-                return v[i];
+                return m.apply(f[i], v[i]);
             }
             int hi = -i - 1;
             int lo = hi - 1;
             double t = (frequencyHz - f[lo]) / (f[hi] - f[lo]);
-            return v[lo].multiply(1 - t).add(v[hi].multiply(t));
+            return m.apply(f[lo], v[lo]).multiply(1 - t).add(m.apply(f[hi], v[hi]).multiply(t));
         }
     }
 }

@@ -1,5 +1,6 @@
 package org.zweep.simulator.bench;
 
+import java.util.Objects;
 import java.util.SplittableRandom;
 import java.util.concurrent.atomic.AtomicReference;
 import org.apache.commons.math3.complex.Complex;
@@ -78,7 +79,7 @@ public final class SimulatedBench implements Bench {
 
     @Override
     public void setSlot(FixtureSlot newSlot) {
-        slot = java.util.Objects.requireNonNull(newSlot);
+        slot = Objects.requireNonNull(newSlot);
     }
 
     @Override
@@ -88,7 +89,7 @@ public final class SimulatedBench implements Bench {
 
     @Override
     public void setWiring(Wiring newWiring) {
-        wiring = java.util.Objects.requireNonNull(newWiring);
+        wiring = Objects.requireNonNull(newWiring);
     }
 
     @Override

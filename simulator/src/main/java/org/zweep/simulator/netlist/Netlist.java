@@ -1,6 +1,7 @@
 package org.zweep.simulator.netlist;
 
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.HashMap;
 import java.util.HashSet;
 import java.util.LinkedHashMap;
@@ -130,12 +131,12 @@ public final class Netlist {
 
     private boolean solveAt(double omega, double[] are, double[] aim, double[] bre, double[] bim) {
         System.arraycopy(baseRe, 0, are, 0, baseRe.length);
-        java.util.Arrays.fill(aim, 0);
+        Arrays.fill(aim, 0);
         for (int i = 0; i < omegaIndex.length; i++) {
             aim[omegaIndex[i]] += omega * omegaCoef[i];
         }
-        java.util.Arrays.fill(bre, 0);
-        java.util.Arrays.fill(bim, 0);
+        Arrays.fill(bre, 0);
+        Arrays.fill(bim, 0);
         bre[hiIndex] = 1;
         return ComplexLu.solve(size, are, aim, bre, bim);
     }

@@ -1,0 +1,2 @@
+/** JMH benchmarks of the simulator: the netlist solver. */
+package org.zweep.bench.simulator;

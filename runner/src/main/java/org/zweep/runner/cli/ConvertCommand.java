@@ -1,0 +1,238 @@
+package org.zweep.runner.cli;
+
+import com.fasterxml.jackson.core.JsonProcessingException;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.databind.ObjectWriter;
+import java.io.PrintWriter;
+import java.io.UncheckedIOException;
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.concurrent.Callable;
+import java.util.stream.Collectors;
+import org.zweep.driver.InvalidInputException;
+import org.zweep.driver.impedance.DerivedParameter;
+import org.zweep.driver.impedance.EquivalentCircuit;
+import org.zweep.driver.impedance.Impedance;
+import org.zweep.driver.impedance.PartFamily;
+import org.zweep.driver.impedance.Quantities;
+import org.zweep.driver.impedance.Unit;
+import org.zweep.driver.impedance.Unit.Bound;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Model.CommandSpec;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.ParseResult;
+import picocli.CommandLine.Spec;
+
+/**
+ * {@code zweep convert}: an impedance given by any one pair of values at a frequency, printed as
+ * every derived parameter (a table, or a JSON object with the {@link DerivedParameter} contract
+ * names).
+ */
+@Command(
+        name = "convert",
+        mixinStandardHelpOptions = true,
+        sortOptions = false,
+        description = {
+            "Print every parameter of an impedance given by one pair of values at a frequency.",
+            "Values take SI prefixes and units (100nF, 4.7 kΩ, 1.5kHz, 2.2Meg) or the IEC 60062 code (4k7, R47, 4u7).",
+            "C and L are magnitudes (positive); D, ESR and Rs may be zero; θ is in degrees."
+        },
+        footer = ExitCode.HELP_LIST)
+final class ConvertCommand implements Callable<Integer> {
+
+    private static final int TABLE_DIGITS = 6;
+    /** Immutable and thread-safe once built. */
+    private static final ObjectWriter JSON = new ObjectMapper().writerWithDefaultPrettyPrinter();
+
+    /** One accepted input pair: its two options, their units and bounds, and the factory. */
+    private record Pair(String first, Unit firstUnit, Bound firstBound, String second, Unit secondUnit,
+            Bound secondBound, Factory factory, PartFamily family) {
+        String name() {
+            return first + "/" + second;
+        }
+    }
+
+    private interface Factory {
+        Impedance make(double frequencyHz, double a, double b);
+    }
+
+    private static final List<Pair> PAIRS = List.of(
+            new Pair("--r", Unit.OHM, Bound.ANY, "--x", Unit.OHM, Bound.ANY, Impedance::fromRX, PartFamily.OTHER),
+            new Pair("--z", Unit.OHM, Bound.NON_NEGATIVE, "--theta", Unit.DEGREE, Bound.ANY, Impedance::fromPolar,
+                    PartFamily.OTHER),
+            new Pair("--cs", Unit.FARAD, Bound.POSITIVE, "--d", Unit.NONE, Bound.NON_NEGATIVE, Impedance::fromCsD,
+                    PartFamily.CAPACITOR),
+            new Pair("--cp", Unit.FARAD, Bound.POSITIVE, "--d", Unit.NONE, Bound.NON_NEGATIVE, Impedance::fromCpD,
+                    PartFamily.CAPACITOR),
+            new Pair("--ls", Unit.HENRY, Bound.POSITIVE, "--q", Unit.NONE, Bound.POSITIVE, Impedance::fromLsQ,
+                    PartFamily.INDUCTOR),
+            new Pair("--lp", Unit.HENRY, Bound.POSITIVE, "--q", Unit.NONE, Bound.POSITIVE, Impedance::fromLpQ,
+                    PartFamily.INDUCTOR),
+            new Pair("--cs", Unit.FARAD, Bound.POSITIVE, "--esr", Unit.OHM, Bound.NON_NEGATIVE,
+                    Impedance::fromCsEsr, PartFamily.CAPACITOR),
+            new Pair("--cp", Unit.FARAD, Bound.POSITIVE, "--rp", Unit.OHM, Bound.POSITIVE, Impedance::fromCpRp,
+                    PartFamily.CAPACITOR),
+            new Pair("--ls", Unit.HENRY, Bound.POSITIVE, "--rs", Unit.OHM, Bound.NON_NEGATIVE, Impedance::fromLsRs,
+                    PartFamily.INDUCTOR),
+            new Pair("--lp", Unit.HENRY, Bound.POSITIVE, "--rp", Unit.OHM, Bound.POSITIVE, Impedance::fromLpRp,
+                    PartFamily.INDUCTOR));
+
+    private static final String PAIR_LIST = "--r/--x, --z/--theta, --cs/--d, --cp/--d, --ls/--q, --lp/--q, "
+            + "--cs/--esr, --cp/--rp, --ls/--rs or --lp/--rp";
+
+    @Spec
+    CommandSpec spec;
+
+    @Option(names = {"-f", "--frequency"}, paramLabel = "FREQ", description = "test frequency, e.g. 1kHz (required)")
+    String frequency;
+
+    @Option(names = "--r", paramLabel = "OHMS", description = "resistance R (with --x)")
+    String r;
+
+    @Option(names = "--x", paramLabel = "OHMS", description = "reactance X, negative when capacitive (with --r)")
+    String x;
+
+    @Option(names = "--z", paramLabel = "OHMS", description = "magnitude |Z| (with --theta)")
+    String z;
+
+    @Option(names = "--theta", paramLabel = "DEG", description = "phase θ in degrees, -180 to 180 (with --z)")
+    String theta;
+
+    @Option(names = "--cs", paramLabel = "FARADS", description = "series capacitance (with --d or --esr)")
+    String cs;
+
+    @Option(names = "--cp", paramLabel = "FARADS", description = "parallel capacitance (with --d or --rp)")
+    String cp;
+
+    @Option(names = "--ls", paramLabel = "HENRIES", description = "series inductance (with --q or --rs)")
+    String ls;
+
+    @Option(names = "--lp", paramLabel = "HENRIES", description = "parallel inductance (with --q or --rp)")
+    String lp;
+
+    @Option(names = "--d", paramLabel = "D", description = "dissipation factor D = tan δ (with --cs or --cp)")
+    String d;
+
+    @Option(names = "--q", paramLabel = "Q", description = "quality factor Q (with --ls or --lp)")
+    String q;
+
+    @Option(names = "--esr", paramLabel = "OHMS", description = "equivalent series resistance (with --cs)")
+    String esr;
+
+    @Option(names = "--rs", paramLabel = "OHMS", description = "series resistance (with --ls)")
+    String rs;
+
+    @Option(names = "--rp", paramLabel = "OHMS", description = "parallel resistance (with --cp or --lp)")
+    String rp;
+
+    @Option(names = "--json", description = "print one JSON object (SI numbers; null where infinite)")
+    boolean json;
+
+    @Override
+    public Integer call() {
+        ParseResult parsed = spec.commandLine().getParseResult();
+        if (frequency == null) {
+            throw new InvalidInputException("convert needs --frequency, e.g. --frequency 1kHz");
+        }
+        double frequencyHz = parse("--frequency", frequency, Unit.HERTZ, Bound.POSITIVE);
+        Pair pair = selectPair(parsed);
+        double a = parse(pair.first(), parsed.matchedOptionValue(pair.first(), ""), pair.firstUnit(),
+                pair.firstBound());
+        double b = parse(pair.second(), parsed.matchedOptionValue(pair.second(), ""), pair.secondUnit(),
+                pair.secondBound());
+        if (pair.secondUnit() == Unit.DEGREE && Math.abs(b) > 180.0) {
+            throw new InvalidInputException("--theta \"" + theta + "\" is out of range: θ must be from -180 to 180°");
+        }
+        Impedance impedance = pair.factory().make(frequencyHz, a, b);
+        PrintWriter out = spec.commandLine().getOut();
+        if (json) {
+            out.println(toJson(impedance));
+        } else {
+            printTable(out, impedance, pair.family());
+        }
+        return ExitCode.OK;
+    }
+
+    private static Pair selectPair(ParseResult parsed) {
+        List<String> given = new ArrayList<>();
+        for (String name : List.of("--r", "--x", "--z", "--theta", "--cs", "--cp", "--ls", "--lp", "--d", "--q",
+                "--esr", "--rs", "--rp")) {
+            if (parsed.hasMatchedOption(name)) {
+                given.add(name);
+            }
+        }
+        if (given.isEmpty()) {
+            throw new InvalidInputException("convert needs one pair of values: " + PAIR_LIST);
+        }
+        if (given.size() > 2) {
+            throw new InvalidInputException("give exactly one pair of values, got " + String.join(", ", given));
+        }
+        for (Pair p : PAIRS) {
+            if (given.size() == 2 && given.contains(p.first()) && given.contains(p.second())) {
+                return p;
+            }
+        }
+        if (given.size() == 1) {
+            String alone = given.get(0);
+            String partners = PAIRS.stream()
+                    .filter(p -> p.first().equals(alone) || p.second().equals(alone))
+                    .map(p -> p.first().equals(alone) ? p.second() : p.first())
+                    .collect(Collectors.joining(" or "));
+            throw new InvalidInputException(alone + " needs " + partners + " to make a pair");
+        }
+        throw new InvalidInputException(String.join(" with ", given) + " is not a pair; give one of " + PAIR_LIST);
+    }
+
+    private static double parse(String option, String text, Unit unit, Bound bound) {
+        try {
+            return Quantities.parse(text, unit, bound);
+        } catch (InvalidInputException e) {
+            throw new InvalidInputException(option + ": " + e.getMessage(), e);
+        }
+    }
+
+    /** The contract map as a JSON object; infinite values become {@code null}. */
+    static String toJson(Impedance impedance) {
+        Map<String, Double> values = new LinkedHashMap<>();
+        DerivedParameter.contractValues(impedance)
+                .forEach((k, v) -> values.put(k, Double.isFinite(v) ? v : null));
+        try {
+            return JSON.writeValueAsString(values);
+        } catch (JsonProcessingException e) {
+            throw new UncheckedIOException(e);
+        }
+    }
+
+    private static void printTable(PrintWriter out, Impedance impedance, PartFamily family) {
+        int width = 0;
+        for (DerivedParameter p : DerivedParameter.values()) {
+            width = Math.max(width, p.label().length());
+        }
+        for (DerivedParameter p : DerivedParameter.values()) {
+            out.printf("%-" + width + "s  %s%n", p.label(), Quantities.format(p.of(impedance), p.unit(), TABLE_DIGITS));
+        }
+        EquivalentCircuit model = EquivalentCircuit.AUTO.resolve(impedance, family);
+        out.printf("%nsuggested model: %s (%s)%n", model.name().toLowerCase(java.util.Locale.ROOT),
+                suggestedParameters(impedance, model));
+    }
+
+    private static String suggestedParameters(Impedance impedance, EquivalentCircuit model) {
+        boolean series = model == EquivalentCircuit.SERIES;
+        double xOhm = impedance.reactanceOhm();
+        List<String> names = new ArrayList<>();
+        if (xOhm < 0) {
+            names.add(series ? "Cs" : "Cp");
+        } else if (xOhm > 0) {
+            names.add(series ? "Ls" : "Lp");
+        }
+        names.add(series ? "Rs" : "Rp");
+        if (xOhm < 0) {
+            names.add("D");
+        } else if (xOhm > 0) {
+            names.add("Q");
+        }
+        return names.stream().collect(Collectors.joining(", "));
+    }
+}
