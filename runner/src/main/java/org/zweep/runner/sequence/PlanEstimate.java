@@ -6,14 +6,18 @@ import org.zweep.runner.plan.PlannedPoint;
 import org.zweep.runner.plan.PlannedStep;
 
 /**
- * A rough duration of a plan on a meter: per point the integration time times the averaging
- * count plus a fixed overhead plus the point's delay, and per bias change the ramp time at the
- * step's ramp limit plus its settle time (including the ramp up from zero and back down at the
- * end). Operator prompts and compensation standards are not counted. Stateless.
+ * A rough duration of a plan on a meter: per point a fixed overhead, the point's delay, and the
+ * averaging count times the integration time (at least two periods of the test frequency, as a
+ * meter needs whole periods to integrate); per bias change the ramp time at the step's ramp limit
+ * plus its settle time (including the ramp up from zero and back down at the end). Operator
+ * prompts and compensation standards are not counted. Stateless.
  */
 public final class PlanEstimate {
     /** The per-point overhead assumed by {@link #seconds(Plan)}: command exchange and meter set-up, in s. */
-    public static final double DEFAULT_OVERHEAD_S = 0.01;
+    public static final double DEFAULT_OVERHEAD_S = 0.005;
+
+    /** The fewest periods of the test frequency one integration covers. */
+    static final double MIN_PERIODS = 2.0;
 
     private PlanEstimate() {
     }
@@ -36,7 +40,8 @@ public final class PlanEstimate {
                     total += rampS(target - bias, step.bias().rampPerS()) + step.bias().settleS();
                     bias = target;
                 }
-                total += p.setting().integrationTimeS() * p.setting().averagingCount() + overheadS + p.delayS();
+                double integration = Math.max(p.setting().integrationTimeS(), MIN_PERIODS / p.setting().frequencyHz());
+                total += integration * p.setting().averagingCount() + overheadS + p.delayS();
             }
             lastRamp = step.bias().rampPerS();
         }

@@ -2,6 +2,7 @@ package org.zweep.runner.sequence;
 
 import java.util.ArrayList;
 import java.util.List;
+import org.zweep.driver.impedance.Unit;
 import org.zweep.driver.meter.Bias;
 import org.zweep.driver.meter.Drive;
 import org.zweep.driver.meter.MeasurementSetting;
@@ -59,11 +60,11 @@ final class PlanExpander {
 
     private static MeasurementSetting setting(StepSpec spec, int bias, int level, int frequency) {
         double lv = spec.levels().values().get(level);
-        Drive drive = spec.levels().unit().equals("A") ? Drive.current(lv) : Drive.voltage(lv);
+        Drive drive = spec.levels().unit() == Unit.AMPERE ? Drive.current(lv) : Drive.voltage(lv);
         Bias b = Bias.OFF;
         if (spec.bias() != null) {
             double bv = spec.bias().values().get(bias);
-            b = spec.bias().unit().equals("A") ? Bias.current(bv) : Bias.voltage(bv);
+            b = spec.bias().unit() == Unit.AMPERE ? Bias.current(bv) : Bias.voltage(bv);
         }
         return new MeasurementSetting(spec.quantity(), spec.frequencies().values().get(frequency), drive, b,
                 spec.averaging(), spec.integrationTimeS(), spec.range());

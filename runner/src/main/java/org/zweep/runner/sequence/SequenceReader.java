@@ -13,7 +13,9 @@ import java.util.Optional;
 import java.util.OptionalDouble;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
+import org.zweep.driver.impedance.DerivedParameter;
 import org.zweep.driver.impedance.Impedance;
+import org.zweep.driver.impedance.Unit;
 import org.zweep.driver.meter.CorrectionStandard;
 import org.zweep.driver.meter.ImpedanceRange;
 import org.zweep.driver.meter.MeasuredQuantity;
@@ -51,24 +53,27 @@ final class SequenceReader {
             List.of("values", "start", "stop", "points", "per_decade", "spacing", "ramp", "settle");
     static final List<String> CHECK_KEYS = List.of("name", "step", "parameter", "at", "min", "max", "within");
 
-    /** Check parameters measured at one point, with the unit of their limits ({@code ""} for none). */
-    static final Map<String, String> POINT_PARAMETERS = new LinkedHashMap<>();
+    /**
+     * Check parameters measured at one point, with the unit of their limits: the impedance core's
+     * contract parameters (the result column names) except the frequency, and {@code ratio}.
+     */
+    static final Map<String, Unit> POINT_PARAMETERS = new LinkedHashMap<>();
 
     static {
-        for (String p : List.of("cs_f", "cp_f")) {
-            POINT_PARAMETERS.put(p, "F");
+        for (DerivedParameter p : DerivedParameter.contract()) {
+            if (p != DerivedParameter.FREQUENCY) {
+                POINT_PARAMETERS.put(p.key(), p.unit());
+            }
         }
-        for (String p : List.of("ls_h", "lp_h")) {
-            POINT_PARAMETERS.put(p, "H");
-        }
-        for (String p : List.of("rs_ohm", "rp_ohm", "z_ohm", "r_ohm", "x_ohm")) {
-            POINT_PARAMETERS.put(p, "Ω");
-        }
-        POINT_PARAMETERS.put("theta_deg", "deg");
-        POINT_PARAMETERS.put("d", "");
-        POINT_PARAMETERS.put("q", "");
-        POINT_PARAMETERS.put("ratio", "");
+        POINT_PARAMETERS.put("ratio", Unit.NONE);
     }
+
+    /** Parameters a {@code within} limit may compare with the nominal value, by part kind. */
+    static final Map<PartKind, List<String>> NOMINAL_PARAMETERS = Map.of(
+            PartKind.CAPACITOR, List.of("cs_f", "cp_f"),
+            PartKind.INDUCTOR, List.of("ls_h", "lp_h"),
+            PartKind.TRANSFORMER, List.of("ls_h", "lp_h", "ratio"),
+            PartKind.RESISTOR, List.of("rs_ohm", "rp_ohm", "r_ohm", "z_ohm"));
 
     static final String SRF = "srf_hz";
     private static final Pattern NAME = Pattern.compile("[A-Za-z0-9._-]+");
@@ -164,20 +169,14 @@ final class SequenceReader {
     private static SafetyLimits safety(YamlNode node) {
         YamlNode.YamlMap m = node.map("safety", SAFETY_KEYS);
         return new SafetyLimits(
-                limit(m, "max_bias_voltage", "a voltage", "V"),
-                limit(m, "max_bias_current", "a current", "A"),
-                limit(m, "max_level_voltage", "a voltage", "V"),
-                limit(m, "max_level_current", "a current", "A"));
+                limit(m, "max_bias_voltage", Unit.VOLT),
+                limit(m, "max_bias_current", Unit.AMPERE),
+                limit(m, "max_level_voltage", Unit.VOLT),
+                limit(m, "max_level_current", Unit.AMPERE));
     }
 
-    private static double limit(YamlNode.YamlMap m, String key, String kind, String unit) {
-        return m.optional(key).map(n -> {
-            double v = Units.parse(n, kind, unit);
-            if (v < 0) {
-                throw n.error("expected " + kind + " of zero or more, got '" + n.text(kind) + "'");
-            }
-            return v;
-        }).orElse(0.0);
+    private static double limit(YamlNode.YamlMap m, String key, Unit unit) {
+        return m.optional(key).map(n -> Units.parse(n, unit, Unit.Bound.NON_NEGATIVE)).orElse(0.0);
     }
 
     // ---- fixture ----
@@ -250,11 +249,11 @@ final class SequenceReader {
     private static Impedance load(YamlNode node) {
         if (node.isMap()) {
             YamlNode.YamlMap lm = node.map("load", LOAD_KEYS);
-            double r = Units.parse(lm.required("r"), "a resistance", "Ω");
-            double x = lm.optional("x").map(n -> Units.parse(n, "a reactance", "Ω")).orElse(0.0);
+            double r = Units.parse(lm.required("r"), Unit.OHM);
+            double x = lm.optional("x").map(n -> Units.parse(n, Unit.OHM)).orElse(0.0);
             return new Impedance(Double.NaN, r, x);
         }
-        return new Impedance(Double.NaN, Units.parse(node, "a resistance", "Ω"), 0.0);
+        return new Impedance(Double.NaN, Units.parse(node, Unit.OHM), 0.0);
     }
 
     // ---- part ----
@@ -266,21 +265,12 @@ final class SequenceReader {
                 List.of("capacitor", "inductor", "resistor", "transformer")).toUpperCase(Locale.ROOT));
         String name = m.optional("name").map(n -> n.text("a part name")).orElse("");
         YamlNode nn = m.required("nominal");
-        String unit = switch (kind) {
-            case CAPACITOR -> "F";
-            case INDUCTOR, TRANSFORMER -> "H";
-            case RESISTOR -> "Ω";
+        Unit unit = switch (kind) {
+            case CAPACITOR -> Unit.FARAD;
+            case INDUCTOR, TRANSFORMER -> Unit.HENRY;
+            case RESISTOR -> Unit.OHM;
         };
-        String what = switch (kind) {
-            case CAPACITOR -> "a capacitance";
-            case INDUCTOR -> "an inductance";
-            case TRANSFORMER -> "a primary inductance";
-            case RESISTOR -> "a resistance";
-        };
-        double nominal = Units.parse(nn, what, unit);
-        if (nominal <= 0) {
-            throw nn.error("expected " + what + " above zero, got '" + nn.text("") + "'");
-        }
+        double nominal = Units.parse(nn, unit, Unit.Bound.POSITIVE);
         double tolerance = m.optional("tolerance").map(t -> tolerance(t, kind, nominal)).orElse(Double.NaN);
         double turns = Double.NaN;
         if (m.has("turns_ratio")) {
@@ -303,11 +293,7 @@ final class SequenceReader {
             }
             return p.getAsDouble();
         }
-        double p = Units.percent(node, "a tolerance letter (IEC 60062) or");
-        if (p <= 0 || p >= 100) {
-            throw node.error("expected a tolerance between 0 % and 100 %, got '" + text + "'");
-        }
-        return p;
+        return Units.percent(node, "a tolerance letter (IEC 60062) or");
     }
 
     private static double turnsRatio(YamlNode node) {
@@ -348,13 +334,8 @@ final class SequenceReader {
     }
 
     private StepSpec step(YamlNode node, Part part, SafetyLimits safety, Map<String, YamlNode> names) {
-        YamlNode.YamlMap m = node.map(node.peek("name").map(n -> "step '" + n + "'").orElse("a step"), STEP_KEYS);
-        YamlNode nameNode = m.required("name");
-        String name = name(nameNode, "a step name");
-        YamlNode first = names.putIfAbsent(name, nameNode);
-        if (first != null) {
-            throw nameNode.error("duplicate step name '" + name + "' (first at " + first.where() + ")");
-        }
+        YamlNode.YamlMap m = named(node, "step", STEP_KEYS, names);
+        String name = m.values().get("name").text("");
         String step = "step '" + name + "'";
         String prompt = m.optional("prompt").map(p -> p.text("a prompt")).orElse("");
         boolean transformer = part.kind() == PartKind.TRANSFORMER;
@@ -381,10 +362,10 @@ final class SequenceReader {
         } else if (transformer) {
             throw node.error("missing key 'wiring' in " + step + " (secondary_open or secondary_shorted)");
         }
-        Sweep frequencies = Sweep.read(m.required("frequency"), "a frequency", List.of("Hz"), true);
+        Sweep frequencies = Sweep.read(m.required("frequency"), Sweep.Kind.FREQUENCY);
         YamlNode levelNode = m.required("level");
-        Sweep levels = Sweep.read(levelNode, "a drive level", List.of("V", "A"), true);
-        checkLimit(levelNode, step, "drive level", levels, " rms", levels.unit().equals("V")
+        Sweep levels = Sweep.read(levelNode, Sweep.Kind.LEVEL);
+        checkLimit(levelNode, step, "drive level", levels, " rms", levels.unit() == Unit.VOLT
                 ? new Limit("max_level_voltage", safety.maxLevelVrms())
                 : new Limit("max_level_current", safety.maxLevelArms()));
         Sweep bias = null;
@@ -399,38 +380,27 @@ final class SequenceReader {
                             throw bm.values().get(k).error("give either values or start/stop, not both");
                         }
                     }
-                    bias = Sweep.read(bm.required("values"), "a DC bias", List.of("V", "A"), false);
+                    bias = Sweep.read(bm.required("values"), Sweep.Kind.BIAS);
                 } else {
-                    bias = Sweep.range(bm, "a DC bias", List.of("V", "A"), false);
+                    bias = Sweep.range(bm, Sweep.Kind.BIAS);
                 }
-                String unit = bias.unit();
-                double ramp = bm.optional("ramp").map(r -> {
-                    double v = Units.parse(r, "a ramp rate", unit + "/s");
-                    if (v <= 0) {
-                        throw r.error("expected a ramp rate above zero, got '" + r.text("") + "'");
-                    }
-                    return v;
-                }).orElse(Double.POSITIVE_INFINITY);
-                double settle = bm.optional("settle").map(s -> nonNegativeSeconds(s, "a settle time")).orElse(0.0);
+                Unit unit = bias.unit();
+                double ramp = bm.optional("ramp").map(r -> Units.ratePerS(r, unit)).orElse(Double.POSITIVE_INFINITY);
+                double settle = bm.optional("settle").map(s -> Units.parse(s, Unit.SECOND)).orElse(0.0);
                 control = new BiasControl(ramp, settle);
             } else {
-                bias = Sweep.read(bn, "a DC bias", List.of("V", "A"), false);
+                bias = Sweep.read(bn, Sweep.Kind.BIAS);
             }
-            checkLimit(bn, step, "DC bias", bias, "", bias.unit().equals("V")
+            checkLimit(bn, step, "DC bias", bias, "", bias.unit() == Unit.VOLT
                     ? new Limit("max_bias_voltage", safety.maxBiasVoltageV())
                     : new Limit("max_bias_current", safety.maxBiasCurrentA()));
         }
         List<StepSpec.Axis> order = m.optional("order").map(this::order).orElse(StepSpec.DEFAULT_ORDER);
         int averaging = m.optional("averaging").map(a -> Units.integer(a, "an averaging count", 1)).orElse(1);
-        double integration = m.optional("integration").map(i -> {
-            double v = Units.parse(i, "an integration time", "s");
-            if (v <= 0) {
-                throw i.error("expected an integration time above zero, got '" + i.text("") + "'");
-            }
-            return v;
-        }).orElse(0.02);
+        double integration = m.optional("integration").map(i -> Units.parse(i, Unit.SECOND, Unit.Bound.POSITIVE))
+                .orElse(0.02);
         int repeats = m.optional("repeats").map(r -> Units.integer(r, "a repeat count", 1)).orElse(1);
-        double delay = m.optional("delay").map(d -> nonNegativeSeconds(d, "a delay")).orElse(0.0);
+        double delay = m.optional("delay").map(d -> Units.parse(d, Unit.SECOND)).orElse(0.0);
         ImpedanceRange range = m.optional("range").map(SequenceReader::range).orElse(ImpedanceRange.AUTO);
         StepSpec spec = new StepSpec(name, prompt, quantity, wiring, frequencies, levels, bias, control, order,
                 averaging, integration, repeats, delay, range, node);
@@ -439,6 +409,21 @@ final class SequenceReader {
                     + ")");
         }
         return spec;
+    }
+
+    /**
+     * A step or check mapping with a valid {@code name} not seen before in {@code names} (which
+     * it joins); unknown keys are reported with the item's name when it has one.
+     */
+    private static YamlNode.YamlMap named(YamlNode node, String kind, List<String> keys, Map<String, YamlNode> names) {
+        YamlNode.YamlMap m = node.map(node.peek("name").map(n -> kind + " '" + n + "'").orElse("a " + kind), keys);
+        YamlNode nameNode = m.required("name");
+        String name = name(nameNode, "a " + kind + " name");
+        YamlNode first = names.putIfAbsent(name, nameNode);
+        if (first != null) {
+            throw nameNode.error("duplicate " + kind + " name '" + name + "' (first at " + first.where() + ")");
+        }
+        return m;
     }
 
     private record Limit(String key, double value) {
@@ -452,23 +437,11 @@ final class SequenceReader {
         }
     }
 
-    private static double nonNegativeSeconds(YamlNode node, String kind) {
-        double v = Units.parse(node, kind, "s");
-        if (v < 0) {
-            throw node.error("expected " + kind + " of zero or more, got '" + node.text("") + "'");
-        }
-        return v;
-    }
-
     private static ImpedanceRange range(YamlNode node) {
         if (node.text("a range").equals("auto")) {
             return ImpedanceRange.AUTO;
         }
-        double ohm = Units.parseAny(node, "a range (auto or an impedance)", List.of("Ω")).si();
-        if (ohm <= 0) {
-            throw node.error("expected a range above zero, got '" + node.text("") + "'");
-        }
-        return ImpedanceRange.hold(ohm);
+        return ImpedanceRange.hold(Units.parse(node, Unit.OHM, Unit.Bound.POSITIVE));
     }
 
     private List<StepSpec.Axis> order(YamlNode node) {
@@ -503,13 +476,8 @@ final class SequenceReader {
     }
 
     private CheckLimit check(YamlNode node, Map<String, StepSpec> steps, Part part, Map<String, YamlNode> names) {
-        YamlNode.YamlMap m = node.map(node.peek("name").map(n -> "check '" + n + "'").orElse("a check"), CHECK_KEYS);
-        YamlNode nameNode = m.required("name");
-        String name = name(nameNode, "a check name");
-        YamlNode first = names.putIfAbsent(name, nameNode);
-        if (first != null) {
-            throw nameNode.error("duplicate check name '" + name + "' (first at " + first.where() + ")");
-        }
+        YamlNode.YamlMap m = named(node, "check", CHECK_KEYS, names);
+        String name = m.values().get("name").text("");
         String check = "check '" + name + "'";
         YamlNode stepNode = m.required("step");
         String stepName = stepNode.text("a step name");
@@ -533,9 +501,9 @@ final class SequenceReader {
                     + " step; step '" + stepName + "' measures " + step.quantity().name().toLowerCase(Locale.ROOT));
         }
         double frequencyHz = Double.NaN;
-        String unit;
+        Unit unit;
         if (parameter.equals(SRF)) {
-            unit = "Hz";
+            unit = Unit.HERTZ;
             if (m.has("at")) {
                 throw m.values().get("at").error("srf_hz is a whole-sweep figure: remove 'at'");
             }
@@ -571,19 +539,12 @@ final class SequenceReader {
             if (!m.has("min") && !m.has("max")) {
                 throw node.error("missing key 'min', 'max' or 'within' in " + check);
             }
-            String kind = switch (unit) {
-                case "F" -> "a capacitance";
-                case "H" -> "an inductance";
-                case "Ω" -> "a resistance or reactance";
-                case "Hz" -> "a frequency";
-                default -> "a number";
-            };
             if (m.has("min")) {
-                min = limitValue(m.required("min"), kind, unit);
+                min = Units.parse(m.required("min"), unit, Unit.Bound.ANY);
             }
             if (m.has("max")) {
                 YamlNode xn = m.required("max");
-                max = limitValue(xn, kind, unit);
+                max = Units.parse(xn, unit, Unit.Bound.ANY);
                 if (max < min) {
                     throw xn.error("max " + Units.format(max, unit) + " is below min " + Units.format(min, unit));
                 }
@@ -592,19 +553,12 @@ final class SequenceReader {
         return new CheckLimit(name, parameter, stepName, frequencyHz, min, max);
     }
 
-    private static double limitValue(YamlNode node, String kind, String unit) {
-        if (unit.equals("deg")) {
-            return Units.parseAny(node, "an angle", List.of("°", "deg", "")).si();
-        }
-        return Units.parse(node, kind, unit);
-    }
-
     private static double frequencyOf(YamlNode.YamlMap m, YamlNode node, StepSpec step, String check) {
         if (!m.has("at")) {
             throw node.error("missing key 'at' in " + check + " (the frequency the limit applies at)");
         }
         YamlNode at = m.required("at");
-        double f = Units.parse(at, "a frequency", "Hz");
+        double f = Units.parse(at, Unit.HERTZ);
         double nearest = Double.NaN;
         for (double v : step.frequencies().values()) {
             if (Math.abs(v - f) <= 1e-9 * Math.abs(f)) {
@@ -614,8 +568,8 @@ final class SequenceReader {
                 nearest = v;
             }
         }
-        throw at.error(Units.format(f, "Hz") + " is not a frequency of step '" + step.name() + "' (nearest: "
-                + Units.format(nearest, "Hz") + ")");
+        throw at.error(Units.format(f, Unit.HERTZ) + " is not a frequency of step '" + step.name() + "' (nearest: "
+                + Units.format(nearest, Unit.HERTZ) + ")");
     }
 
     private static double nominalFor(YamlNode within, String parameter, Part part) {
@@ -625,13 +579,10 @@ final class SequenceReader {
             }
             return 1.0 / part.turnsRatio();
         }
-        String unit = parameter.equals(SRF) ? "Hz" : POINT_PARAMETERS.get(parameter);
-        String nominalUnit = part.nominalUnit();
-        boolean resistive = parameter.equals("rs_ohm") || parameter.equals("rp_ohm") || parameter.equals("r_ohm")
-                || parameter.equals("z_ohm");
-        if (!unit.equals(nominalUnit) || (unit.equals("Ω") && !resistive)) {
-            throw within.error("within compares with the nominal " + Units.format(part.nominal(), nominalUnit)
-                    + ": parameter '" + parameter + "' is not in " + nominalUnit);
+        if (!NOMINAL_PARAMETERS.get(part.kind()).contains(parameter)) {
+            throw within.error("within compares with the nominal " + Units.format(part.nominal(),
+                    Units.ofSymbol(part.nominalUnit())) + ": for a " + part.kind().name().toLowerCase(Locale.ROOT)
+                    + " use " + String.join(", ", NOMINAL_PARAMETERS.get(part.kind())) + ", not '" + parameter + "'");
         }
         return part.nominal();
     }

@@ -2,6 +2,7 @@ package org.zweep.runner.sequence;
 
 import java.util.ArrayList;
 import java.util.List;
+import org.zweep.driver.impedance.Unit;
 
 /**
  * The values of one sweep axis (frequency, drive level or DC bias), read from a single value, an
@@ -9,60 +10,76 @@ import java.util.List;
  * logarithmic) or {@code {start, stop, per_decade}} (logarithmic).
  *
  * @param values the values in SI units, in sweep order
- * @param unit the unit they were given in (one of the field's units)
+ * @param unit the unit they were given in (hertz, or volt or ampere for a source)
  * @param node where they were given, for later complaints
  */
-record Sweep(List<Double> values, String unit, YamlNode node) {
+record Sweep(List<Double> values, Unit unit, YamlNode node) {
     /** The most values one axis may hold. */
     static final int MAX_VALUES = 100_000;
 
     static final List<String> RANGE_KEYS = List.of("start", "stop", "points", "per_decade", "spacing");
 
+    /** What an axis sweeps: its name in messages, and whether it is a source in V or A. */
+    enum Kind {
+        FREQUENCY("a frequency", false, Unit.Bound.POSITIVE),
+        LEVEL("a drive level", true, Unit.Bound.POSITIVE),
+        BIAS("a DC bias", true, Unit.Bound.ANY);
+
+        final String noun;
+        final boolean source;
+        final Unit.Bound bound;
+
+        Kind(String noun, boolean source, Unit.Bound bound) {
+            this.noun = noun;
+            this.source = source;
+            this.bound = bound;
+        }
+
+        /** One value; a source must be in {@code only} when that is not {@code null}. */
+        Units.Value value(YamlNode node, Unit only) {
+            if (source) {
+                return Units.source(node, noun, only, bound);
+            }
+            return new Units.Value(Units.parse(node, Unit.HERTZ, bound), Unit.HERTZ);
+        }
+    }
+
     Sweep {
         values = List.copyOf(values);
     }
 
-    /**
-     * Reads an axis.
-     *
-     * @param kind the quantity for messages, e.g. {@code "a frequency"}
-     * @param units the accepted units; all values must share one
-     * @param positive whether values must be above zero
-     */
-    static Sweep read(YamlNode node, String kind, List<String> units, boolean positive) {
+    /** Reads an axis given as a value, a list or a range mapping. */
+    static Sweep read(YamlNode node, Kind kind) {
         if (node.isMap()) {
-            return range(node.map(kind + " sweep", RANGE_KEYS), kind, units, positive);
+            return range(node.map(kind.noun + " sweep", RANGE_KEYS), kind);
         }
         if (node.isList()) {
-            List<YamlNode> items = node.items(kind);
+            List<YamlNode> items = node.items(kind.noun);
             if (items.isEmpty()) {
-                throw node.error("empty list: expected at least one value (" + kind + ")");
+                throw node.error("empty list: expected at least one value (" + kind.noun + ")");
             }
             if (items.size() > MAX_VALUES) {
                 throw node.error("too many values: " + items.size() + " (at most " + MAX_VALUES + ")");
             }
             List<Double> values = new ArrayList<>();
-            String unit = null;
+            Unit unit = null;
             for (YamlNode item : items) {
-                Units.Value v = Units.parseAny(item, kind, unit == null ? units : List.of(unit));
-                checkSign(item, v, kind, positive);
+                Units.Value v = kind.value(item, unit);
                 unit = v.unit();
                 values.add(v.si());
             }
             return new Sweep(values, unit, node);
         }
-        Units.Value v = Units.parseAny(node, kind, units);
-        checkSign(node, v, kind, positive);
+        Units.Value v = kind.value(node, null);
         return new Sweep(List.of(v.si()), v.unit(), node);
     }
 
     /** Reads a {@code {start, stop, points | per_decade, spacing}} mapping already checked for its keys. */
-    static Sweep range(YamlNode.YamlMap m, String kind, List<String> units, boolean positive) {
+    static Sweep range(YamlNode.YamlMap m, Kind kind) {
         YamlNode startNode = m.required("start");
-        Units.Value start = Units.parseAny(startNode, kind, units);
-        checkSign(startNode, start, kind, positive);
+        Units.Value start = kind.value(startNode, null);
         YamlNode stopNode = m.required("stop");
-        Units.Value stop = Units.parseAny(stopNode, kind, List.of(start.unit()));
+        Units.Value stop = kind.value(stopNode, start.unit());
         if (stop.si() < start.si()) {
             throw stopNode.error("stop " + Units.format(stop.si(), stop.unit()) + " is below start "
                     + Units.format(start.si(), start.unit()));
@@ -124,12 +141,6 @@ record Sweep(List<Double> values, String unit, YamlNode node) {
     private static void checkLogStart(YamlNode startNode, Units.Value start) {
         if (start.si() <= 0) {
             throw startNode.error("a logarithmic sweep needs a start above zero, got '" + startNode.text("") + "'");
-        }
-    }
-
-    private static void checkSign(YamlNode node, Units.Value v, String kind, boolean positive) {
-        if (positive && v.si() <= 0) {
-            throw node.error("expected " + kind + " above zero, got '" + node.text(kind) + "'");
         }
     }
 

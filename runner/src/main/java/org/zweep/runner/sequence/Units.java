@@ -1,61 +1,72 @@
 package org.zweep.runner.sequence;
 
+import java.math.BigDecimal;
 import java.util.List;
-import java.util.Locale;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
+import org.zweep.driver.InvalidInputException;
+import org.zweep.driver.impedance.Quantities;
+import org.zweep.driver.impedance.Unit;
 
 /**
- * Values with units in sequence files, checked per field: each field names the unit it
- * expects and anything else is an error at the value's position.
- *
- * <p>Grammar: a decimal number, optional spaces, an optional SI prefix (p n u µ m k M G T; {@code u}, {@code µ} and {@code μ} all mean micro) and
- * the unit symbol ({@code 100 nF}, {@code 1.5kHz}, {@code 25 V}, {@code 1 V/s}, {@code 10 kohm};
- * ohms as {@code Ω}, {@code ohm} or {@code ohms}). A dimensional field needs its unit; a bare
- * number is accepted only where the quantity has none (D, Q, a ratio, a count).
+ * Values with units in sequence files, checked per field: each field names the unit it expects
+ * and anything else is an error at the value's position. Numbers and units follow the project's
+ * human-input grammar ({@link Quantities}: {@code 100 nF}, {@code 1.5kHz}, {@code 4k7},
+ * {@code 10 kohm}); this class adds only the field-level forms a sequence needs on top of it:
+ * a source value in V or A, a ramp rate in V/s or A/s, a ± percentage, and durations in minutes,
+ * hours or days.
  */
 final class Units {
-    private static final Pattern NUMBER_AND_UNIT =
-            Pattern.compile("([+-]?(?:\\d+(?:\\.\\d*)?|\\.\\d+)(?:[eE][+-]?\\d+)?)\\s*(\\S*(?:\\s*/\\s*\\S+)?)");
-    private static final String PREFIXES = "pnuµμmkMGT";
-    private static final double[] MULTIPLIERS = {1e-12, 1e-9, 1e-6, 1e-6, 1e-6, 1e-3, 1e3, 1e6, 1e9, 1e12};
-
     private Units() {
     }
 
-    /** A value in SI units and the unit symbol it was given in (one of the field's units). */
-    record Value(double si, String unit) {
+    /** A value in SI units and the unit it was given in. */
+    record Value(double si, Unit unit) {
+    }
+
+    /** The node's value in {@code unit} with the unit's default bound (frequencies positive, times not negative). */
+    static double parse(YamlNode node, Unit unit) {
+        return parse(node, unit, unit.defaultBound());
+    }
+
+    /** The node's value in {@code unit}, which must satisfy {@code bound}. */
+    static double parse(YamlNode node, Unit unit, Unit.Bound bound) {
+        String text = node.text(unit == Unit.NONE ? "a number" : "a value in " + unit.symbol());
+        try {
+            return Quantities.parse(text, unit, bound);
+        } catch (InvalidInputException e) {
+            throw node.error(e.getMessage());
+        }
     }
 
     /**
-     * The node's value in {@code unit} (SI, prefix applied). {@code kind} names the quantity for
-     * the message, e.g. {@code "a frequency"}.
+     * A source value (drive level or DC bias) in V or A; the unit must be written, since it
+     * decides whether the source is a voltage or a current.
+     *
+     * @param only when not {@code null}, the one unit accepted (the unit of earlier values)
      */
-    static double parse(YamlNode node, String kind, String unit) {
-        return parseAny(node, kind, List.of(unit)).si();
-    }
-
-    /** The node's value in one of {@code units}; the error lists them all. */
-    static Value parseAny(YamlNode node, String kind, List<String> units) {
+    static Value source(YamlNode node, String kind, Unit only, Unit.Bound bound) {
         String text = node.text(kind);
-        Value v = tryParse(text, units);
-        if (v == null || !Double.isFinite(v.si())) {
-            throw node.error("expected " + kind + " " + describe(units) + ", got '" + text + "'");
+        Unit unit = text.endsWith("V") ? Unit.VOLT : text.endsWith("A") ? Unit.AMPERE : null;
+        if (unit == null || (only != null && unit != only)) {
+            String expected = only == null ? "V or A" : only.symbol();
+            throw node.error("expected " + kind + " in " + expected + ", got '" + text + "'");
         }
-        return v;
+        return new Value(parse(node, unit, bound), unit);
     }
 
-    private static String describe(List<String> units) {
-        List<String> named = units.stream().filter(u -> !u.isEmpty()).toList();
-        if (named.isEmpty()) {
-            return "(a plain number)";
+    /** A ramp rate in {@code unit}/s (e.g. {@code 1 V/s}, {@code 500 mA/s}), above zero. */
+    static double ratePerS(YamlNode node, Unit unit) {
+        String text = node.text("a ramp rate");
+        String per = unit.symbol() + "/s";
+        if (!text.endsWith(per)) {
+            throw node.error("expected a ramp rate in " + per + ", got '" + text + "'");
         }
-        return "in " + String.join(" or ", named) + (named.size() < units.size() ? " (or a plain number)" : "");
-    }
-
-    /** A plain number without unit (D, Q, a ratio). */
-    static double number(YamlNode node, String kind) {
-        return parseAny(node, kind, List.of("")).si();
+        try {
+            return Quantities.parse(text.substring(0, text.length() - 2), unit, Unit.Bound.POSITIVE);
+        } catch (InvalidInputException e) {
+            throw node.error("expected a ramp rate above zero in " + per + ", got '" + text + "'");
+        }
     }
 
     /** A whole number of at least {@code min}. */
@@ -73,92 +84,56 @@ final class Units {
         return n;
     }
 
+    private static final Pattern PERCENT = Pattern.compile("(?:±|\\+-|\\+/-)?\\s*([^±]*%)");
+
     /** A percentage such as {@code ±10 %}, {@code 10%} or {@code +-0.5 %}; the number of percent. */
     static double percent(YamlNode node, String kind) {
         String text = node.text(kind);
-        Matcher m = Pattern.compile("(?:±|\\+-|\\+/-)?\\s*((?:\\d+(?:\\.\\d*)?|\\.\\d+))\\s*%").matcher(text);
-        if (!m.matches()) {
-            throw node.error("expected " + kind + " as a percentage such as ±10 %, got '" + text + "'");
+        Matcher m = PERCENT.matcher(text);
+        double fraction = Double.NaN;
+        if (m.matches()) {
+            try {
+                fraction = Quantities.parse(m.group(1), Unit.NONE);
+            } catch (InvalidInputException e) {
+                fraction = Double.NaN;
+            }
         }
-        return Double.parseDouble(m.group(1));
+        if (!(fraction > 0 && fraction < 1)) {
+            throw node.error("expected " + kind + " as a percentage between 0 % and 100 % such as ±10 %, got '"
+                    + text + "'");
+        }
+        return fraction * 100.0;
     }
 
-    private static final Pattern DURATION =
-            Pattern.compile("((?:\\d+(?:\\.\\d*)?|\\.\\d+))\\s*(ms|s|min|h|d)");
+    private static final Pattern LONG_DURATION = Pattern.compile("((?:\\d+(?:\\.\\d*)?|\\.\\d+))\\s*(min|h|d)");
 
     /** A duration such as {@code 90 s}, {@code 30 min}, {@code 2h} or {@code 1 d}, in seconds. */
     static double durationS(YamlNode node, String kind) {
         String text = node.text(kind);
-        Matcher m = DURATION.matcher(text);
-        if (!m.matches()) {
-            throw node.error("expected " + kind + " in ms, s, min, h or d, got '" + text + "'");
+        Matcher m = LONG_DURATION.matcher(text);
+        if (m.matches()) {
+            double scale = switch (m.group(2)) {
+                case "min" -> 60.0;
+                case "h" -> 3600.0;
+                default -> 86400.0;
+            };
+            return Double.parseDouble(m.group(1)) * scale;
         }
-        double n = Double.parseDouble(m.group(1));
-        return n * switch (m.group(2)) {
-            case "ms" -> 1e-3;
-            case "s" -> 1.0;
-            case "min" -> 60.0;
-            case "h" -> 3600.0;
-            default -> 86400.0;
-        };
+        try {
+            return Quantities.parse(text, Unit.SECOND);
+        } catch (InvalidInputException e) {
+            throw node.error("expected " + kind + " in s, min, h or d (e.g. 90 s, 30 min, 2h), got '" + text + "'");
+        }
     }
 
-    /** The parsed value, or {@code null} when the text is not a number in one of {@code units}. */
-    static Value tryParse(String text, List<String> units) {
-        Matcher m = NUMBER_AND_UNIT.matcher(text.strip());
-        if (!m.matches()) {
-            return null;
+    /** {@code value} for messages with as many digits as it needs, e.g. {@code 30 V}, {@code 1.5 kHz}. */
+    static String format(double value, Unit unit) {
+        int digits = 1;
+        if (Double.isFinite(value) && value != 0.0) {
+            digits = Math.min(12, Math.max(1, BigDecimal.valueOf(value).round(new java.math.MathContext(12))
+                    .stripTrailingZeros().precision()));
         }
-        double number = Double.parseDouble(m.group(1));
-        String rest = normaliseOhm(m.group(2).replaceAll("\\s+", ""));
-        for (String unit : units) {
-            if (rest.equals(unit)) {
-                return new Value(number, unit);
-            }
-            if (!unit.isEmpty() && rest.length() == unit.length() + 1 && rest.endsWith(unit)) {
-                int p = PREFIXES.indexOf(rest.charAt(0));
-                if (p >= 0) {
-                    return new Value(number * MULTIPLIERS[p], unit);
-                }
-            }
-        }
-        return null;
-    }
-
-    private static String normaliseOhm(String rest) {
-        String lower = rest.toLowerCase(Locale.ROOT);
-        for (String alias : List.of("ohms", "ohm")) {
-            if (lower.endsWith(alias)) {
-                return rest.substring(0, rest.length() - alias.length()) + "Ω";
-            }
-        }
-        return rest;
-    }
-
-    /** {@code value} with an SI prefix for messages, e.g. {@code 30 V}, {@code 1.5 kHz}, {@code 100 nF}. */
-    static String format(double value, String unit) {
-        if (value == 0.0 || unit.isEmpty()) {
-            return trim(value) + (unit.isEmpty() ? "" : " " + unit);
-        }
-        double a = Math.abs(value);
-        String[] names = {"p", "n", "µ", "m", "", "k", "M", "G", "T"};
-        double[] scale = {1e-12, 1e-9, 1e-6, 1e-3, 1.0, 1e3, 1e6, 1e9, 1e12};
-        int i = 4;
-        for (int k = scale.length - 1; k >= 0; k--) {
-            if (a >= scale[k] * (1 - 1e-12)) {
-                i = k;
-                break;
-            }
-            i = 0;
-        }
-        return trim(round(value / scale[i])) + " " + names[i] + unit;
-    }
-
-    private static String trim(double v) {
-        if (v == Math.rint(v) && Math.abs(v) < 1e15) {
-            return Long.toString((long) v);
-        }
-        return Double.toString(v);
+        return Quantities.format(value, unit, digits);
     }
 
     /** {@code v} rounded to 12 significant digits, so that computed grid points print and compare cleanly. */
@@ -166,6 +141,16 @@ final class Units {
         if (v == 0.0 || !Double.isFinite(v)) {
             return v;
         }
-        return new java.math.BigDecimal(v).round(new java.math.MathContext(12)).doubleValue();
+        return new BigDecimal(v).round(new java.math.MathContext(12)).doubleValue();
+    }
+
+    /** The units a check parameter's limits are given in. */
+    static Unit ofSymbol(String symbol) {
+        for (Unit u : List.of(Unit.FARAD, Unit.HENRY, Unit.OHM, Unit.HERTZ, Unit.DEGREE)) {
+            if (u.symbol().equals(symbol)) {
+                return u;
+            }
+        }
+        return Unit.NONE;
     }
 }

@@ -66,12 +66,12 @@ class MalformedSequenceTest {
                         format: zweep-sequence/1
                         meter: {bench: b.bench.yaml}
                         safety: {max_bias_voltage: 25 A}
-                        """, "3:28: expected a voltage in V, got '25 A'"),
+                        """, "3:28: \"25 A\" has the wrong unit A; expected a voltage in V, e.g. 10 mV or -2 V"),
                 Arguments.of("negative safety limit", """
                         format: zweep-sequence/1
                         meter: {bench: b.bench.yaml}
                         safety: {max_level_current: -1 mA}
-                        """, "3:29: expected a current of zero or more, got '-1 mA'"),
+                        """, "3:29: \"-1 mA\" is not a valid current: it must not be negative"),
                 Arguments.of("safety given as a list", """
                         format: zweep-sequence/1
                         meter: {bench: b.bench.yaml}
@@ -89,7 +89,7 @@ class MalformedSequenceTest {
                         meter: {bench: b.bench.yaml}
                         safety: {}
                         part: {kind: capacitor, nominal: 100 nH}
-                        """, "4:34: expected a capacitance in F, got '100 nH'"),
+                        """, "4:34: \"100 nH\" has the wrong unit H; expected a capacitance in F, e.g. 100 nF or 4n7"),
                 Arguments.of("unknown tolerance letter", """
                         format: zweep-sequence/1
                         meter: {bench: b.bench.yaml}
@@ -124,13 +124,13 @@ class MalformedSequenceTest {
                           - name: sweep
                             frequency: 1 kV
                             level: 1 V
-                        """, "7:16: expected a frequency in Hz, got '1 kV'"),
-                Arguments.of("frequency without a unit", HEAD + """
+                        """, "7:16: \"1 kV\" has the wrong unit V; expected a frequency in Hz, e.g. 1 kHz or 1.5k"),
+                Arguments.of("drive level without a unit", HEAD + """
                         steps:
                           - name: sweep
                             frequency: 1000
-                            level: 1 V
-                        """, "7:16: expected a frequency in Hz, got '1000'"),
+                            level: 1
+                        """, "8:12: expected a drive level in V or A, got '1'"),
                 Arguments.of("empty frequency list", HEAD + """
                         steps:
                           - name: sweep
@@ -166,7 +166,7 @@ class MalformedSequenceTest {
                           - name: sweep
                             frequency: [0 Hz, 1 kHz]
                             level: 1 V
-                        """, "7:17: expected a frequency above zero, got '0 Hz'"),
+                        """, "7:17: \"0 Hz\" is not a valid frequency: it must be greater than zero"),
                 Arguments.of("levels in mixed units", HEAD + """
                         steps:
                           - name: sweep
@@ -240,8 +240,9 @@ class MalformedSequenceTest {
                 Arguments.of("check naming an unknown parameter", HEAD + STEP + """
                         checks:
                           - {name: c, step: sweep, parameter: ls_hh, at: 1 kHz, max: 1 H}
-                        """, "10:39: unknown parameter 'ls_hh' (did you mean 'ls_h'?); expected one of: cs_f, cp_f, "
-                                + "ls_h, lp_h, rs_ohm, rp_ohm, z_ohm, r_ohm, x_ohm, theta_deg, d, q, ratio, srf_hz"),
+                        """, "10:39: unknown parameter 'ls_hh' (did you mean 'ls_h'?); expected one of: r_ohm, x_ohm, "
+                                + "z_ohm, theta_deg, delta_deg, q, d, g_s, b_s, cs_f, cp_f, ls_h, lp_h, rs_ohm, rp_ohm, "
+                                + "ratio, srf_hz"),
                 Arguments.of("check at a frequency not in the sweep", HEAD + STEP + """
                         checks:
                           - {name: c, step: sweep, parameter: d, at: 1.5 kHz, max: 0.025}
@@ -249,11 +250,11 @@ class MalformedSequenceTest {
                 Arguments.of("check limit in the wrong unit", HEAD + STEP + """
                         checks:
                           - {name: c, step: sweep, parameter: cs_f, at: 1 kHz, min: 90 nH}
-                        """, "10:61: expected a capacitance in F, got '90 nH'"),
+                        """, "10:61: \"90 nH\" has the wrong unit H; expected a capacitance in F, e.g. 100 nF or 4n7"),
                 Arguments.of("check of D with a unit", HEAD + STEP + """
                         checks:
                           - {name: c, step: sweep, parameter: d, at: 1 kHz, max: 0.025 V}
-                        """, "10:58: expected a number (a plain number), got '0.025 V'"),
+                        """, "10:58: \"0.025 V\" has the wrong unit V; expected a number, e.g. 0.01, 1e-3 or 1%"),
                 Arguments.of("check max below min", HEAD + STEP + """
                         checks:
                           - {name: c, step: sweep, parameter: q, at: 1 kHz, min: 50, max: 10}
@@ -278,7 +279,7 @@ class MalformedSequenceTest {
                 Arguments.of("within tolerance on a parameter of another unit", HEAD + STEP + """
                         checks:
                           - {name: c, step: sweep, parameter: ls_h, at: 1 kHz, within: tolerance}
-                        """, "10:64: within compares with the nominal 100 nF: parameter 'ls_h' is not in F"),
+                        """, "10:64: within compares with the nominal 100 nF: for a capacitor use cs_f, cp_f, not 'ls_h'"),
                 Arguments.of("ratio check on an impedance step", """
                         format: zweep-sequence/1
                         meter: {bench: b.bench.yaml}
@@ -306,7 +307,7 @@ class MalformedSequenceTest {
                         meter: {bench: b.bench.yaml}
                         safety: {}
                         fixture: {terminals: 4, compensation: host, reuse: 2 hours}
-                        """, "4:52: expected an age in ms, s, min, h or d, got '2 hours'"),
+                        """, "4:52: expected an age in s, min, h or d (e.g. 90 s, 30 min, 2h), got '2 hours'"),
                 Arguments.of("sequence name with a space", """
                         format: zweep-sequence/1
                         name: my sequence

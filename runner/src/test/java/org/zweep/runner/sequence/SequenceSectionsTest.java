@@ -1,0 +1,116 @@
+package org.zweep.runner.sequence;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertNull;
+import static org.junit.jupiter.api.Assertions.assertThrows;
+
+import java.nio.file.Path;
+import java.time.Duration;
+import java.util.List;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.zweep.driver.InvalidInputException;
+import org.zweep.driver.meter.CorrectionStandard;
+import org.zweep.driver.meter.ImpedanceRange;
+import org.zweep.runner.plan.CompensationMode;
+import org.zweep.runner.plan.Connection;
+import org.zweep.runner.plan.FixturePlan;
+import org.zweep.runner.plan.Plan;
+import org.zweep.runner.plan.PlannedStep;
+
+/** What the meter, fixture and step sections turn into, defaults included. */
+class SequenceSectionsTest {
+    @TempDir
+    Path dir;
+
+    private Plan load(String meterAndFixture, String step) {
+        SequenceTestFiles.bench(dir);
+        String text = "format: zweep-sequence/1\n" + meterAndFixture
+                + "safety: {max_level_voltage: 1 V}\n"
+                + "part: {kind: capacitor, nominal: 1 nF}\n"
+                + "steps: [" + step + "]\n";
+        return SequenceLoader.parse(text, dir.resolve("s.yaml"));
+    }
+
+    @Test
+    void benchBecomesASimAddressResolvedAgainstTheSequenceFolder() {
+        Plan plan = load("meter: {bench: b.bench.yaml}\n", "{name: s, frequency: 1 kHz, level: 1 V}");
+        assertEquals("sim:" + dir.resolve("b.bench.yaml").toAbsolutePath().normalize(), plan.meter().address());
+        assertEquals("standard", plan.meter().dialect());
+    }
+
+    @Test
+    void simAddressIsResolvedTooAndOtherAddressesPassUnchanged() {
+        assertEquals("sim:" + dir.resolve("b.bench.yaml").toAbsolutePath().normalize(),
+                load("meter: {address: 'sim:b.bench.yaml'}\n", "{name: s, frequency: 1 kHz, level: 1 V}")
+                        .meter().address());
+        Plan tcp = load("meter: {address: 'tcp://127.0.0.1:5025', dialect: mine.dialect.yaml}\n",
+                "{name: s, frequency: 1 kHz, level: 1 V}");
+        assertEquals("tcp://127.0.0.1:5025", tcp.meter().address());
+        assertEquals("mine.dialect.yaml", tcp.meter().dialect());
+    }
+
+    @Test
+    void missingBenchFileIsRefusedAtItsNode() {
+        InvalidInputException e = assertThrows(InvalidInputException.class,
+                () -> load("meter: {bench: none.bench.yaml}\n", "{name: s, frequency: 1 kHz, level: 1 V}"));
+        assertEquals(dir.resolve("s.yaml") + ":2:16: bench file not found: none.bench.yaml (looked for "
+                + dir.resolve("none.bench.yaml").toAbsolutePath().normalize() + ")", e.getMessage());
+    }
+
+    @Test
+    void hostCompensationWithLoadAndReuseAge() {
+        Plan plan = load("""
+                meter: {bench: b.bench.yaml}
+                fixture:
+                  terminals: 4
+                  compensation: host
+                  standards: [open, short, load]
+                  load: {r: 100 ohm, x: -2 ohm}
+                  reuse: 2h
+                  store: comp
+                """, "{name: s, frequency: 1 kHz, level: 1 V}");
+        FixturePlan f = plan.fixture();
+        assertEquals(Connection.FOUR_TERMINAL, f.connection());
+        assertEquals(CompensationMode.HOST, f.compensation());
+        assertEquals(List.of(CorrectionStandard.OPEN, CorrectionStandard.SHORT, CorrectionStandard.LOAD), f.standards());
+        assertEquals(100.0, f.loadStandard().resistanceOhm(), 0.0);
+        assertEquals(-2.0, f.loadStandard().reactanceOhm(), 0.0);
+        assertEquals(Duration.ofHours(2), f.reuseYoungerThan());
+        assertEquals(dir.resolve("comp").toAbsolutePath().normalize(), f.store());
+    }
+
+    @Test
+    void meterCompensationDefaultsToOpenAndShortAndNoFixtureMeansNone() {
+        FixturePlan f = load("meter: {bench: b.bench.yaml}\nfixture: {terminals: 2, compensation: meter}\n",
+                "{name: s, frequency: 1 kHz, level: 1 V}").fixture();
+        assertEquals(List.of(CorrectionStandard.OPEN, CorrectionStandard.SHORT), f.standards());
+        assertEquals(Duration.ZERO, f.reuseYoungerThan());
+        FixturePlan none = load("meter: {bench: b.bench.yaml}\n", "{name: s, frequency: 1 kHz, level: 1 V}").fixture();
+        assertEquals(CompensationMode.NONE, none.compensation());
+        assertEquals(List.of(), none.standards());
+        assertNull(none.loadStandard());
+    }
+
+    @Test
+    void stepDefaultsAndExplicitSettings() {
+        Plan plan = load("meter: {bench: b.bench.yaml}\n", """
+                {name: s, frequency: 1 kHz, level: 1 V},
+                {name: t, prompt: Fit the SHORT., frequency: 1 kHz, level: 1 V, averaging: 8, integration: 100 ms,
+                 delay: 250 ms, range: 10 kohm, repeats: 3}""");
+        PlannedStep s = plan.steps().get(0);
+        assertEquals("", s.prompt());
+        assertEquals(1, s.points().get(0).setting().averagingCount());
+        assertEquals(0.02, s.points().get(0).setting().integrationTimeS(), 0.0);
+        assertEquals(ImpedanceRange.AUTO, s.points().get(0).setting().range());
+        assertEquals(0.0, s.points().get(0).delayS(), 0.0);
+        PlannedStep t = plan.steps().get(1);
+        assertEquals("Fit the SHORT.", t.prompt());
+        assertEquals(3, t.points().size());
+        assertEquals(List.of(0, 1, 2), t.points().stream().map(p -> p.repeat()).toList());
+        assertEquals(8, t.points().get(0).setting().averagingCount());
+        assertEquals(0.1, t.points().get(0).setting().integrationTimeS(), 0.0);
+        assertEquals(0.25, t.points().get(0).delayS(), 0.0);
+        assertEquals(ImpedanceRange.hold(10e3), t.points().get(0).setting().range());
+    }
+}
