@@ -70,6 +70,18 @@ public final class BenchSpec {
                 FixtureSpec.defaults(), new NetlistDevice(Netlist.parse(netlist, sourceName)), 0);
     }
 
+    /**
+     * The same meter and fixture with a netlist device instead: what {@code SIMulate:DEVice} loads.
+     *
+     * @param netlist element lines between {@code hi} and {@code lo}
+     * @param sourceName the name used in messages
+     * @throws SimulatorInputException with {@code source:line:column} for an invalid netlist
+     */
+    public BenchSpec withNetlistDevice(String netlist, String sourceName) {
+        return new BenchSpec("netlist from " + sourceName, meter, fixture,
+                new NetlistDevice(Netlist.parse(netlist, sourceName)), seed);
+    }
+
     /** The same bench with no noise, no fixture residuals or strays and no lead resistance. */
     public BenchSpec ideal() {
         return new BenchSpec(description, meter.withNoiseRel(0), fixture.ideal(), device, seed);

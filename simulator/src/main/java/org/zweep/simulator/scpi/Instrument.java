@@ -13,6 +13,7 @@ import java.util.function.Consumer;
 import java.util.function.Function;
 import org.apache.commons.math3.complex.Complex;
 import org.zweep.simulator.bench.Bench;
+import org.zweep.simulator.bench.MeterCorrection;
 import org.zweep.simulator.bench.MeterLimits;
 import org.zweep.simulator.bench.PointRequest;
 import org.zweep.simulator.bench.PointResult;
@@ -40,9 +41,12 @@ public final class Instrument implements AutoCloseable {
     enum State { IDLE, WAITING_FOR_TRIGGER, MEASURING }
 
     /** One overlapped operation, prepared under the lock. */
-    private record Job(long generation, List<PointRequest> points, CorrectionStore.Standard collect,
-            CorrectionStore correction, Complex loadRef) {
+    private record Job(long generation, List<PointRequest> points, MeterCorrection.Standard collect,
+            double[] grid, MeterCorrection correction) {
     }
+
+    /** Points per decade of the log grid the correction standards are acquired on. */
+    static final int CORRECTION_POINTS_PER_DECADE = 10;
 
     private final ReentrantLock lock = new ReentrantLock();
     private final Condition idle = lock.newCondition();
@@ -51,7 +55,6 @@ public final class Instrument implements AutoCloseable {
     private final StatusModel status;
     private final CommandTree tree;
     private final ExecutorService worker;
-    private final CorrectionStore correction = new CorrectionStore();
 
     private volatile Bench bench;
     private volatile TimingModel timing;
@@ -63,6 +66,7 @@ public final class Instrument implements AutoCloseable {
     private double[] data;
     private double lastRangeOhm = Double.NaN;
     private boolean opcArmed;
+    private MeterCorrection correction = MeterCorrection.none();
 
     /** A meter in front of {@code bench} with the SCPI command set and the SIMulate subsystem. */
     public Instrument(Bench bench, InstrumentOptions options) {
@@ -273,21 +277,18 @@ public final class Instrument implements AutoCloseable {
     }
 
     /** {@code CORRection:COLLect}: acquires {@code standard} (whatever is in the slot now) over the grid. */
-    void collect(Session session, CorrectionStore.Standard standard) {
+    void collect(Session session, MeterCorrection.Standard standard) {
         lock.lock();
         try {
             if (state != State.IDLE) {
                 throw new ScpiException(StandardError.SETTINGS_CONFLICT, "a measurement is in progress");
             }
-            MeterLimits l = bench.limits();
-            double[] grid = CorrectionStore.grid(l.minFrequencyHz(), l.maxFrequencyHz());
+            double[] grid = MeterCorrection.frequencies(bench.limits(), CORRECTION_POINTS_PER_DECADE);
             long key = session.takeNoiseKeys(grid.length);
-            List<PointRequest> points = new ArrayList<>(grid.length);
-            for (int i = 0; i < grid.length; i++) {
-                points.add(request(settings, false, grid[i], levelOf(settings), settings.biasVoltageV, Double.NaN, key + i));
-            }
+            PointRequest template = request(settings, false, grid[0], levelOf(settings), settings.biasVoltageV,
+                    Double.NaN, key);
             status.setOperation(StatusModel.OPER_CALIBRATING, true);
-            start(new Job(++generation, points, standard, null, null));
+            start(new Job(++generation, List.of(template), standard, grid, null));
         } finally {
             lock.unlock();
         }
@@ -345,7 +346,7 @@ public final class Instrument implements AutoCloseable {
     boolean correctionAvailable() {
         lock.lock();
         try {
-            return !correction.isEmpty();
+            return correction.isActive();
         } finally {
             lock.unlock();
         }
@@ -402,14 +403,18 @@ public final class Instrument implements AutoCloseable {
             long key = session.takeNoiseKeys(1);
             points.add(request(s, s.voltageRatio, s.frequencyHz, levelOf(s), s.biasVoltageV, heldRange(s), key));
         }
-        CorrectionStore corr = null;
+        MeterCorrection corr = null;
         if (s.correctionOn && !s.voltageRatio) {
-            if (correction.isEmpty()) {
-                throw new ScpiException(StandardError.SETTINGS_CONFLICT, "CORRection:STATe ON with no data collected");
+            if (!correction.isActive()) {
+                throw new ScpiException(StandardError.SETTINGS_CONFLICT, "CORRection:STATe ON with no open or short collected");
             }
-            corr = correction.copy();
+            try {
+                corr = correction.withLoadReference(new Complex(s.loadResistanceOhm, s.loadReactanceOhm));
+            } catch (IllegalArgumentException e) {
+                throw new ScpiException(StandardError.SETTINGS_CONFLICT, e.getMessage());
+            }
         }
-        return new Job(++generation, points, null, corr, new Complex(s.loadResistanceOhm, s.loadReactanceOhm));
+        return new Job(++generation, points, null, null, corr);
     }
 
     private static boolean lengthFits(int len, int n) {
@@ -445,6 +450,10 @@ public final class Instrument implements AutoCloseable {
     }
 
     private void run(Job job) {
+        if (job.collect() != null) {
+            collectRun(job);
+            return;
+        }
         List<PointRequest> points = job.points();
         double[] values = new double[points.size() * 2];
         boolean overload = false;
@@ -461,12 +470,12 @@ public final class Instrument implements AutoCloseable {
                     sleeper.sleep(r.durationS());
                 }
                 range = r.rangeUsedOhm();
-                if (r.overload() && job.collect() == null) {
+                if (r.overload()) {
                     overload = true;
                     values[2 * i] = Double.NaN;
                     values[2 * i + 1] = Double.NaN;
                 } else if (job.correction() != null) {
-                    Complex z = job.correction().apply(req.frequencyHz(), new Complex(r.real(), r.imaginary()), job.loadRef());
+                    Complex z = job.correction().apply(req.frequencyHz(), new Complex(r.real(), r.imaginary()));
                     values[2 * i] = z.getReal();
                     values[2 * i + 1] = z.getImaginary();
                 } else {
@@ -477,13 +486,30 @@ public final class Instrument implements AutoCloseable {
         } catch (InterruptedException e) {
             return;
         } catch (RuntimeException e) {
-            finish(job, null, false, range, e);
+            finish(job, null, null, false, range, e);
             return;
         }
-        finish(job, values, overload, range, null);
+        finish(job, values, null, overload, range, null);
     }
 
-    private void finish(Job job, double[] values, boolean overload, double range, RuntimeException failure) {
+    private void collectRun(Job job) {
+        MeterCorrection.Acquisition acq;
+        try {
+            acq = MeterCorrection.acquire(bench, job.grid(), job.points().get(0));
+            if (timing == TimingModel.REAL) {
+                sleeper.sleep(acq.durationS());
+            }
+        } catch (InterruptedException e) {
+            return;
+        } catch (RuntimeException e) {
+            finish(job, null, null, false, Double.NaN, e);
+            return;
+        }
+        finish(job, null, acq, false, Double.NaN, null);
+    }
+
+    private void finish(Job job, double[] values, MeterCorrection.Acquisition acq, boolean overload, double range,
+            RuntimeException failure) {
         lock.lock();
         try {
             if (job.generation() != generation) {
@@ -493,16 +519,13 @@ public final class Instrument implements AutoCloseable {
             if (failure != null) {
                 status.report(StandardError.EXECUTION_ERROR.code(),
                         StandardError.EXECUTION_ERROR.text() + ";" + failure.getMessage());
-            } else if (job.collect() != null) {
-                double[] f = new double[job.points().size()];
-                double[] re = new double[f.length];
-                double[] im = new double[f.length];
-                for (int i = 0; i < f.length; i++) {
-                    f[i] = job.points().get(i).frequencyHz();
-                    re[i] = values[2 * i];
-                    im[i] = values[2 * i + 1];
+            } else if (acq != null) {
+                try {
+                    correction = correction.with(job.collect(), acq.samples());
+                } catch (IllegalArgumentException e) {
+                    status.report(StandardError.EXECUTION_ERROR.code(),
+                            StandardError.EXECUTION_ERROR.text() + ";" + e.getMessage());
                 }
-                correction.store(job.collect(), f, re, im);
             } else {
                 data = values;
                 status.setQuestionable(StatusModel.QUES_OVERLOAD, overload);

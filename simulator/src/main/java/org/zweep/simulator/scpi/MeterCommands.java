@@ -1,6 +1,7 @@
 package org.zweep.simulator.scpi;
 
 import java.nio.charset.StandardCharsets;
+import org.zweep.simulator.bench.MeterCorrection;
 import org.zweep.simulator.bench.MeterLimits;
 import org.zweep.simulator.bench.SourceKind;
 
@@ -371,7 +372,7 @@ final class MeterCommands {
         });
         b.on("[SENSe:]CORRection:COLLect[:ACQuire]", c -> {
             c.count(1, 1);
-            CorrectionStore.Standard std = CorrectionStore.Standard.values()[c.choice(0, "OPEN", "SHORt", "LOAD")];
+            MeterCorrection.Standard std = MeterCorrection.Standard.values()[c.choice(0, "OPEN", "SHORt", "LOAD")];
             in.collect(c.session(), std);
             return null;
         });

@@ -2,6 +2,7 @@ package org.zweep.simulator.scpi;
 
 import java.nio.file.Files;
 import java.nio.file.Path;
+import org.zweep.simulator.SimulatorInputException;
 import org.zweep.simulator.bench.Bench;
 import org.zweep.simulator.bench.FixtureSlot;
 import org.zweep.simulator.bench.Wiring;
@@ -110,7 +111,7 @@ final class SimulateCommands {
     private static Bench load(java.util.function.Supplier<Bench> f) {
         try {
             return f.get();
-        } catch (IllegalArgumentException e) {
+        } catch (SimulatorInputException | IllegalArgumentException e) {
             throw new ScpiException(StandardError.EXECUTION_ERROR, e.getMessage());
         }
     }

@@ -3,6 +3,9 @@ package org.zweep.simulator.server;
 /** Which exchanges of a connection a {@link ScheduledFault} applies to (numbered from 1). */
 public sealed interface Exchanges {
 
+    /** Whether exchange {@code n} (numbered from 1) is picked. */
+    boolean contains(long n);
+
     /** Every exchange. */
     static Exchanges every() {
         return new Range(1, Long.MAX_VALUE);
@@ -26,17 +29,26 @@ public sealed interface Exchanges {
             }
         }
 
-        boolean contains(long n) {
+        @Override
+        public boolean contains(long n) {
             return n >= first && n - first < count;
         }
     }
 
-    /** Each exchange with {@code probability}, drawn from {@code seed} (the same per connection). */
+    /**
+     * Each exchange with {@code probability}; whether exchange n is picked depends only on
+     * {@code seed} and n, so every connection picks the same ones.
+     */
     record Random(double probability, long seed) implements Exchanges {
         public Random {
             if (!(probability >= 0 && probability <= 1)) {
                 throw new IllegalArgumentException("probability must be in [0, 1], got " + probability);
             }
+        }
+
+        @Override
+        public boolean contains(long n) {
+            return new java.util.SplittableRandom(seed * 0x9E3779B97F4A7C15L + n).nextDouble() < probability;
         }
     }
 }

@@ -1,0 +1,67 @@
+package org.zweep.simulator.scpi;
+
+import static org.junit.jupiter.api.Assertions.assertArrayEquals;
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertNull;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.io.ByteArrayInputStream;
+import java.io.ByteArrayOutputStream;
+import java.io.IOException;
+import java.nio.charset.StandardCharsets;
+import org.junit.jupiter.api.Test;
+
+/** Cutting the input stream into program messages. */
+class MessageFramerTest {
+
+    private static MessageFramer framer(byte[] input, int max) {
+        return new MessageFramer(new ByteArrayInputStream(input), max);
+    }
+
+    private static String text(MessageFramer.Message m) {
+        return new String(m.bytes(), StandardCharsets.ISO_8859_1);
+    }
+
+    @Test
+    void lfEndsAMessageAndCrBeforeItStaysAsWhiteSpace() throws IOException {
+        // IEEE 488.2 §7.5: NL is the terminator on a raw socket; CR is white space (§7.4.1.2)
+        MessageFramer f = framer("*IDN?\nFREQ?\r\n".getBytes(StandardCharsets.US_ASCII), 100);
+        assertEquals("*IDN?", text(f.next()));
+        assertEquals("FREQ?\r", text(f.next()));
+        assertNull(f.next());
+    }
+
+    @Test
+    void anLfInsideADefiniteLengthBlockIsData() throws IOException {
+        // IEEE 488.2 §7.7.6: a definite-length block carries any byte, LF included
+        byte[] in = "SIM:DEV #15a\nb\nc\nX\n".getBytes(StandardCharsets.US_ASCII);
+        MessageFramer f = framer(in, 100);
+        assertEquals("SIM:DEV #15a\nb\nc", text(f.next()));
+        assertEquals("X", text(f.next()));
+    }
+
+    @Test
+    void aHashInsideAStringStartsNoBlock() throws IOException {
+        MessageFramer f = framer("FUNC \"#19\"\nX\n".getBytes(StandardCharsets.US_ASCII), 100);
+        assertEquals("FUNC \"#19\"", text(f.next()));
+        assertEquals("X", text(f.next()));
+    }
+
+    @Test
+    void anOverlongMessageIsSkippedToTheNextLfAndReportedAsAnOverrun() throws IOException {
+        ByteArrayOutputStream b = new ByteArrayOutputStream();
+        b.writeBytes("SOUR:FREQ 1".getBytes(StandardCharsets.US_ASCII));
+        b.writeBytes(new byte[10_000]);
+        b.writeBytes("\n*IDN?\n".getBytes(StandardCharsets.US_ASCII));
+        MessageFramer f = framer(b.toByteArray(), 64);
+        MessageFramer.Message m = f.next();
+        assertTrue(m.overrun());
+        assertNull(m.bytes());
+        assertArrayEquals("*IDN?".getBytes(StandardCharsets.US_ASCII), f.next().bytes());
+    }
+
+    @Test
+    void aPartialMessageAtEndOfStreamIsDropped() throws IOException {
+        assertNull(framer("*IDN".getBytes(StandardCharsets.US_ASCII), 100).next());
+    }
+}

@@ -1,0 +1,62 @@
+package org.zweep.simulator.server;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertThrows;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.time.Duration;
+import java.util.List;
+import org.junit.jupiter.api.Test;
+
+/** The text form of fault plans and how faults select exchanges. */
+class FaultPlanTest {
+
+    @Test
+    void eachKindParsesToItsFaultAndPhase() {
+        FaultPlan p = FaultPlan.parse("drop@5, drop-idle=1.5, drop-random=0.25, delay=2@3, fragment=4@2+,"
+                + " stall@7, omit-terminator@~0.5, error=-350@2, garble", 9);
+        List<ScheduledFault> f = p.faults();
+        assertEquals(new ScheduledFault(Phase.COMPLETE, Exchanges.nth(5), new Fault.Drop()), f.get(0));
+        assertEquals(new ScheduledFault(Phase.IDLE, Exchanges.every(), new Fault.DropWhenIdle(Duration.ofMillis(1500))), f.get(1));
+        assertEquals(new ScheduledFault(Phase.RECEIVE, new Exchanges.Random(0.25, 9), new Fault.Drop()), f.get(2));
+        assertEquals(new ScheduledFault(Phase.REPLY, Exchanges.nth(3), new Fault.Delay(Duration.ofSeconds(2))), f.get(3));
+        assertEquals(new ScheduledFault(Phase.REPLY, Exchanges.from(2), new Fault.Fragment(4, FaultPlan.FRAGMENT_GAP)), f.get(4));
+        assertEquals(new ScheduledFault(Phase.RECEIVE, Exchanges.nth(7), new Fault.Stall()), f.get(5));
+        assertEquals(new ScheduledFault(Phase.REPLY, new Exchanges.Random(0.5, 9), new Fault.OmitTerminator()), f.get(6));
+        assertEquals(new ScheduledFault(Phase.RECEIVE, Exchanges.nth(2), new Fault.PushError(-350, "Queue overflow")), f.get(7));
+        assertEquals(new ScheduledFault(Phase.REPLY, Exchanges.every(), new Fault.Garble(9)), f.get(8));
+    }
+
+    @Test
+    void aBadItemIsNamedInTheMessage() {
+        IllegalArgumentException e = assertThrows(IllegalArgumentException.class, () -> FaultPlan.parse("delay=x@2", 0));
+        assertTrue(e.getMessage().contains("'delay=x@2'"), e.getMessage());
+        assertThrows(IllegalArgumentException.class, () -> FaultPlan.parse("explode", 0));
+        assertThrows(IllegalArgumentException.class, () -> FaultPlan.parse("drop-idle=1@3", 0));
+    }
+
+    @Test
+    void aFaultCannotBeAttachedToAPhaseItDoesNotActIn() {
+        assertThrows(IllegalArgumentException.class,
+                () -> new ScheduledFault(Phase.RECEIVE, Exchanges.every(), new Fault.Delay(Duration.ZERO)));
+    }
+
+    @Test
+    void rangesAndSeededRandomSelectionPickTheSameExchangesOnEveryConnection() {
+        FaultPlan plan = FaultPlan.parse("delay=1@2+,garble@~0.5", 42);
+        ConnectionFaults a = new ConnectionFaults(plan);
+        ConnectionFaults b = new ConnectionFaults(plan);
+        assertEquals(0, a.at(Phase.REPLY, 1).stream().filter(x -> x instanceof Fault.Delay).count());
+        assertEquals(1, a.at(Phase.REPLY, 2).stream().filter(x -> x instanceof Fault.Delay).count());
+        StringBuilder sa = new StringBuilder();
+        StringBuilder sb = new StringBuilder();
+        for (int i = 3; i < 40; i++) {
+            sa.append(a.at(Phase.REPLY, i).size());
+        }
+        for (int i = 3; i < 40; i++) {
+            sb.append(b.at(Phase.REPLY, i).size());
+        }
+        assertEquals(sa.toString(), sb.toString()); // the same seed picks the same exchanges on each connection
+        assertTrue(sa.toString().contains("1") && sa.toString().contains("2"), sa.toString());
+    }
+}
