@@ -135,6 +135,7 @@ public final class RunSession {
                 seed = link.simulator().get().seed();
             }
             station.start(seed);
+            SafetyGuard.checkCapabilities(plan, station.capabilities(), "dialect " + setup.dialect());
             manifest = manifest(seed);
             manifest.write(folder.manifest());
             ReadingCorrector corrector = ReadingCorrector.NONE;

@@ -4,6 +4,8 @@ import org.zweep.driver.InvalidInputException;
 import org.zweep.driver.meter.Bias;
 import org.zweep.driver.meter.Drive;
 import org.zweep.driver.meter.MeasurementSetting;
+import org.zweep.driver.meter.MeterCapabilities;
+import org.zweep.driver.meter.Range;
 import org.zweep.driver.meter.SourceMode;
 import org.zweep.runner.plan.Plan;
 import org.zweep.runner.plan.PlannedPoint;
@@ -79,5 +81,38 @@ public final class SafetyGuard {
             }
         }
         return null;
+    }
+
+    /**
+     * Checks that the meter can do every point of {@code plan} (frequency, drive level, DC bias
+     * within the ranges its dialect declares), so that a run is refused before its first point
+     * rather than stopped in the middle.
+     *
+     * @param meterName the meter or dialect, for the message
+     * @throws InvalidInputException naming the step and point of the first setting out of range
+     */
+    public static void checkCapabilities(Plan plan, MeterCapabilities caps, String meterName) {
+        for (PlannedStep step : plan.steps()) {
+            for (PlannedPoint p : step.points()) {
+                MeasurementSetting s = p.setting();
+                String where = "step '" + step.name() + "', point " + p.index() + ": ";
+                within(where + "frequency", s.frequencyHz(), caps.frequencyHz(), "Hz", meterName);
+                Drive d = s.drive();
+                within(where + "drive level", d.levelRms(), d.mode() == SourceMode.VOLTAGE ? caps.voltageLevelVrms()
+                        : caps.currentLevelArms(), d.mode().unit() + " rms", meterName);
+                Bias b = s.bias();
+                if (b.on()) {
+                    within(where + "DC bias", b.value(), b.mode() == SourceMode.VOLTAGE ? caps.biasVoltageV()
+                            : caps.biasCurrentA(), b.mode().unit(), meterName);
+                }
+            }
+        }
+    }
+
+    private static void within(String what, double v, Range r, String unit, String meterName) {
+        if (!r.contains(v)) {
+            throw new InvalidInputException(what + " " + v + " " + unit + " is outside what the meter can do ("
+                    + r.min() + " .. " + r.max() + " " + unit + ", " + meterName + "); nothing was measured");
+        }
     }
 }
