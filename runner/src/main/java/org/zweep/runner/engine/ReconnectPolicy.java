@@ -3,7 +3,8 @@ package org.zweep.runner.engine;
 /**
  * How the engine reconnects after a lost link or a timeout: waits growing from
  * {@code firstDelayS} by {@code factor} up to {@code maxDelayS}, until {@code budgetS} seconds of
- * waiting or {@code maxAttempts} attempts are spent for one failure.
+ * waiting or {@code maxAttempts} attempts are spent since the last operation that succeeded (so
+ * a link that keeps breaking before a point can be finished also ends the run).
  *
  * @param firstDelayS the wait before the first attempt, in seconds
  * @param maxDelayS the longest wait between attempts, in seconds

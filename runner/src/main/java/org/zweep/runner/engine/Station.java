@@ -48,6 +48,9 @@ public final class Station {
     private Long seed;
     private int reconnects;
     private MeasurementSetting lastSetting;
+    /** Reconnect attempts and back-off waited since the last operation that succeeded. */
+    private int budgetAttempts;
+    private double budgetWaitedS;
 
     /**
      * @param link the meter connection
@@ -320,7 +323,10 @@ public final class Station {
     private <T> T withRetry(String what, Supplier<T> op) {
         while (true) {
             try {
-                return op.get();
+                T result = op.get();
+                budgetAttempts = 0;
+                budgetWaitedS = 0.0;
+                return result;
             } catch (MeterException e) {
                 if (!link.isLinkFailure(e)) {
                     throw e;
@@ -333,18 +339,17 @@ public final class Station {
     private void recover(String what, MeterException cause) {
         log.accept("link to " + link.address() + " failed while " + what + ": " + cause.getMessage()
                 + "; reconnecting");
-        double delay = policy.firstDelayS();
-        double waited = 0.0;
         MeterException last = cause;
         for (int attempt = 1;; attempt++) {
-            if (attempt > policy.maxAttempts() || waited + delay > policy.budgetS() + 1e-9) {
+            double delay = Math.min(policy.maxDelayS(), policy.firstDelayS() * Math.pow(policy.factor(), budgetAttempts));
+            if (budgetAttempts + 1 > policy.maxAttempts() || budgetWaitedS + delay > policy.budgetS() + 1e-9) {
                 throw new LinkLostException("lost the link to " + link.address() + " while " + what
-                        + " and could not reconnect (" + (attempt - 1) + " attempts in " + fmt(waited) + " s): "
-                        + last.getMessage(), last);
+                        + " and could not reconnect (" + budgetAttempts + " attempts in " + fmt(budgetWaitedS)
+                        + " s since the last successful operation): " + last.getMessage(), last);
             }
             waiter.waitS(delay);
-            waited += delay;
-            delay = Math.min(policy.maxDelayS(), delay * policy.factor());
+            budgetWaitedS += delay;
+            budgetAttempts++;
             try {
                 Meter m = link.reconnect();
                 reconnects++;

@@ -149,7 +149,21 @@ class RunEngineTest {
         assertEquals(RunResult.Outcome.FAILED, r.outcome());
         assertEquals(2, r.measured());
         assertTrue(r.problems().get(0).startsWith("lost the link to fake:bench while measuring at 10000.0 Hz and could"
-                + " not reconnect (3 attempts in 0.7 s)"), r.problems().get(0));
+                + " not reconnect (3 attempts in 0.7 s since the last successful operation)"), r.problems().get(0));
+        assertEquals(Bias.OFF, bench.instrumentBias);
+    }
+
+    @Test
+    void linkThatBreaksAgainBeforeEveryPointCanFinishStillEndsWithinTheBudget() {
+        policy = new ReconnectPolicy(0.1, 1.0, 2.0, 10.0, 4);
+        for (int i = 3; i < 100; i++) {
+            bench.dropAtMeasure.add(i); // every trigger from the third on breaks the link
+        }
+        RunResult r = run(TestPlans.capacitor(), new BitSet());
+        assertEquals(RunResult.Outcome.FAILED, r.outcome());
+        assertEquals(2, r.measured());
+        assertEquals(4, bench.trace.stream().filter("reconnect"::equals).count() - 1,
+                "four reconnects for the point, one more to turn bias off at the end: " + bench.trace);
         assertEquals(Bias.OFF, bench.instrumentBias);
     }
 
