@@ -4,7 +4,6 @@ import java.util.ArrayList;
 import java.util.BitSet;
 import java.util.List;
 import java.util.Locale;
-import java.util.function.Consumer;
 import org.zweep.driver.MeterException;
 import org.zweep.driver.impedance.Impedance;
 import org.zweep.driver.meter.MeasuredQuantity;
@@ -55,11 +54,11 @@ public final class RunEngine {
      * Runs the plan.
      *
      * @param done the indices of points already on disk; updated as points are written
-     * @param sink receives each new row (with its check outcome) and must make it durable before
-     *     returning
+     * @param sink receives each new row (with its check outcome); rows of one trigger (a point, or
+     *     a whole list sweep) are made durable together, with the last of them
      * @return how the run ended
      */
-    public RunResult run(BitSet done, Consumer<PointRow> sink) {
+    public RunResult run(BitSet done, RowSink sink) {
         int total = plan.points().size();
         List<String> problems = new ArrayList<>();
         RunResult.Outcome outcome = RunResult.Outcome.COMPLETED;
@@ -100,7 +99,7 @@ public final class RunEngine {
         return new RunResult(outcome, total, done.cardinality(), problems);
     }
 
-    private void runStep(PlannedStep step, BitSet done, Consumer<PointRow> sink, int total) {
+    private void runStep(PlannedStep step, BitSet done, RowSink sink, int total) {
         station.fit(SimulatorControl.Slot.DEVICE, step.prompt(), step.bias(), step.points().get(0).wiring());
         int max = station.capabilities() == null ? 0 : station.capabilities().maxListPoints();
         for (List<PlannedPoint> chunk : chunks(step.points(), max)) {
@@ -121,6 +120,10 @@ public final class RunEngine {
                             + chunk.size() + " points");
                 }
             }
+            int last = chunk.size() - 1;
+            while (last > 0 && done.get(chunk.get(last).index())) {
+                last--;
+            }
             for (int i = 0; i < chunk.size(); i++) {
                 PlannedPoint p = chunk.get(i);
                 if (done.get(p.index())) {
@@ -128,7 +131,7 @@ public final class RunEngine {
                 }
                 PointRow row = row(p, step, corrector.correct(readings.get(i)));
                 row = row.withCheck(checks.evaluate(row));
-                sink.accept(row);
+                sink.write(row, i == last);
                 done.set(p.index());
                 progress.measured(row, done.cardinality(), total);
             }

@@ -57,7 +57,7 @@ class RunEngineTest {
     RunResult run(Plan plan, BitSet done) {
         Station st = station();
         return new RunEngine(plan, st, ReadingCorrector.NONE, new PointChecks(plan.checks()), progress, interruption)
-                .run(done, rows::add);
+                .run(done, (row, last) -> rows.add(row));
     }
 
     @Test
