@@ -30,20 +30,8 @@ class RunEngineTest {
 
     class Recorder implements ProgressListener {
         @Override
-        public void started(int total, int done) {
-        }
-
-        @Override
-        public void measured(PointRow row, int done, int total) {
-        }
-
-        @Override
         public void note(String line) {
             notes.add(line);
-        }
-
-        @Override
-        public void finished() {
         }
     }
 

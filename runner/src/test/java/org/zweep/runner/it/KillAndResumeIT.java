@@ -13,6 +13,7 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.zweep.runner.results.PointRow;
 import org.zweep.runner.results.RunManifest;
+import org.zweep.runner.sequence.SequenceLoader;
 import org.zweep.simulator.server.FaultPlan;
 import org.zweep.simulator.server.SimulatorServer;
 
@@ -77,7 +78,7 @@ class KillAndResumeIT {
         awaitRows(out, 54, p);
         p.destroyForcibly().waitFor(10, TimeUnit.SECONDS);
         int before = Rows.of(out).size();
-        assertTrue(before < 62, "killed before the end: " + before + " rows");
+        assertTrue(before < SequenceLoader.load(SEQ).points().size(), "killed before the end: " + before + " rows");
         assertEquals("running", RunManifest.read(out.resolve("run.json")).outcome());
 
         Sims.Result r = Sims.zweep("run", "--resume", out.toString(), "--meter",
@@ -89,23 +90,33 @@ class KillAndResumeIT {
         assertEquals(7L, m.seed());
     }
 
-    @Test
-    void ctrlCStopsAfterThePointInProgressWithBiasOffAndLeavesAResumableRun() throws Exception {
-        Path out = dir.resolve("interrupted");
+    /** Runs the child against a TCP simulator with real timing, signals it mid bias step, returns its exit code. */
+    int signalledMidRun(Path out, boolean ctrlC) throws Exception {
         try (SimulatorServer server = Sims.tcp(Sims.benchOf(SEQ), FaultPlan.none())) {
             // host-side waits are real only when the simulator's timing is real: use it
             server.instrument().setTiming(org.zweep.simulator.scpi.TimingModel.REAL);
             Process p = child(out, "tcp://127.0.0.1:" + server.port());
             awaitRows(out, 55, p);
-            new ProcessBuilder("kill", "-INT", Long.toString(p.pid())).start().waitFor();
+            if (ctrlC) {
+                new ProcessBuilder("kill", "-INT", Long.toString(p.pid())).start().waitFor();
+            } else {
+                p.destroy(); // SIGTERM: JVM shutdown hooks run
+            }
             assertTrue(p.waitFor(30, TimeUnit.SECONDS), "child stopped");
-            assertEquals(130, p.exitValue(), Files.readString(dir.resolve("interrupted.log")));
-            assertTrue(Sims.biasOff(server), "bias off on the simulator after Ctrl-C");
+            assertTrue(Sims.biasOff(server), "bias off on the simulator after the signal");
             RunManifest m = RunManifest.read(out.resolve("run.json"));
-            assertEquals("aborted", m.outcome());
-            assertTrue(m.counts().measured() < 62);
+            assertTrue(m.counts().measured() < SequenceLoader.load(SEQ).points().size(), "stopped before the end");
             assertEquals(m.counts().measured(), Rows.of(out).size(), "every measured point is on disk");
+            return p.exitValue();
         }
+    }
+
+    @Test
+    void ctrlCStopsAfterThePointInProgressWithBiasOffAndLeavesAResumableRun() throws Exception {
+        Path out = dir.resolve("interrupted");
+        assertEquals(130, signalledMidRun(out, true), Files.readString(dir.resolve("interrupted.log")));
+        RunManifest m = RunManifest.read(out.resolve("run.json"));
+        assertEquals("aborted", m.outcome());
         Sims.Result r = Sims.zweep("run", "--resume", out.toString(), "--meter",
                 "sim:" + Sims.benchOf(SEQ) + "?timing=none", "--dialect", Sims.wideDialect(), "--quiet");
         assertEquals(0, r.code(), r.out() + r.err());
@@ -114,15 +125,6 @@ class KillAndResumeIT {
 
     @Test
     void terminationSignalTurnsBiasOffOnTheSimulatorBeforeTheJvmExits() throws Exception {
-        Path out = dir.resolve("terminated");
-        try (SimulatorServer server = Sims.tcp(Sims.benchOf(SEQ), FaultPlan.none())) {
-            server.instrument().setTiming(org.zweep.simulator.scpi.TimingModel.REAL);
-            Process p = child(out, "tcp://127.0.0.1:" + server.port());
-            awaitRows(out, 55, p);
-            p.destroy(); // SIGTERM: JVM shutdown hooks run
-            assertTrue(p.waitFor(30, TimeUnit.SECONDS), "child stopped");
-            assertTrue(Sims.biasOff(server), "bias off on the simulator after SIGTERM");
-            assertEquals(Rows.of(out).size(), RunManifest.read(out.resolve("run.json")).counts().measured());
-        }
+        signalledMidRun(dir.resolve("terminated"), false);
     }
 }
