@@ -5,7 +5,10 @@ package org.zweep.driver.scpi;
  * that a late answer is never taken for the answer to a new query.
  */
 public enum Resync {
-    /** Discard whatever arrives until the link has been quiet for the drain-quiet time. */
+    /**
+     * Discard whatever arrives until the link has been quiet for the drain-quiet time (a meter that
+     * is still sending after ten read timeouts is a {@link ScpiProtocolException}).
+     */
     DRAIN,
     /**
      * Drain as above, then send {@code *OPC?} and discard every reply line up to its {@code 1}:

@@ -41,6 +41,7 @@ public final class ScpiClient implements ScpiSession {
     static final int BUFFER_SIZE = 8192;
     private static final int MAX_ERROR_ENTRIES = 256;
     private static final int MAX_RESYNC_LINES = 1000;
+    private static final int DRAIN_LIMIT_TIMEOUTS = 10;
     private static final String RESYNC = "*OPC? (resynchronising after an earlier failure)";
 
     private final Transport transport;
@@ -385,12 +386,13 @@ public final class ScpiClient implements ScpiSession {
         lim = 0;
         long discarded = 0;
         long quiet = millis(settings.drainQuiet());
+        long giveUp = System.nanoTime() + DRAIN_LIMIT_TIMEOUTS * readTimeoutMillis * 1_000_000L;
         int n;
         while ((n = read(buf, 0, buf.length, quiet, RESYNC, 0)) > 0) {
             discarded += n;
-            if (discarded > lineLimit) {
+            if (System.nanoTime() - giveUp > 0) {
                 throw new ScpiProtocolException(address() + ": the meter keeps sending (" + discarded
-                        + " bytes discarded while resynchronising)");
+                        + " bytes discarded in " + DRAIN_LIMIT_TIMEOUTS + " read timeouts while resynchronising)");
             }
         }
         if (settings.resync() == Resync.OPC) {

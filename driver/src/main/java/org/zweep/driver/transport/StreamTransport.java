@@ -41,13 +41,21 @@ final class StreamTransport implements Transport {
                     chunks.put(Arrays.copyOf(buf, n));
                 }
             }
+            chunks.put(END);
         } catch (IOException e) {
             failure = e;
+            endQuietly();
         } catch (InterruptedException e) {
             Thread.currentThread().interrupt();
-        } finally {
-            chunks.clear();
-            chunks.offer(END);
+        }
+    }
+
+    /** Queues the end behind the data still unread; gives up only when closed (close interrupts). */
+    private void endQuietly() {
+        try {
+            chunks.put(END);
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
         }
     }
 

@@ -133,12 +133,12 @@ class DialectMeterTest {
 
     @Test
     void biasBeyondTheDialectsLimitIsRefusedBeforeAnythingIsSent() {
-        MeasurementSetting s = MeasurementSetting.at(1000).withBias(Bias.voltage(10.5));
+        MeasurementSetting s = MeasurementSetting.at(1000).withBias(Bias.voltage(40.5));
 
         InvalidInputException e = assertThrows(InvalidInputException.class, () -> meter.apply(s));
 
-        // standard.dialect: bias-voltage = -10 .. 10 V
-        assertEquals("DC bias 10.5 V is above the maximum 10 V of the meter (dialect standard)", e.getMessage());
+        // standard.dialect: bias-voltage = -40 .. 40 V
+        assertEquals("DC bias 40.5 V is above the maximum 40 V of the meter (dialect standard)", e.getMessage());
         assertEquals(List.of(), fake.messages());
     }
 
@@ -149,7 +149,7 @@ class DialectMeterTest {
         InvalidInputException e = assertThrows(InvalidInputException.class,
                 () -> meter.measureList(List.of(s, s.withFrequencyHz(5), s.withFrequencyHz(2000))));
 
-        // standard.dialect: frequency = 10 .. 10e6 Hz
+        // standard.dialect: frequency = 10 .. 20e6 Hz
         assertEquals("frequency 5 Hz is below the minimum 10 Hz of the meter (dialect standard)", e.getMessage());
         assertEquals(List.of(), fake.messages());
     }

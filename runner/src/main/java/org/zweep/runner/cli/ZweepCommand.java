@@ -20,6 +20,12 @@ import picocli.CommandLine.Spec;
             DemoCommand.class,
             RunCommand.class,
             MeasureCommand.class,
+            AnalyzeCommand.class,
+            ExportCommand.class,
+            ReportCommand.class,
+            ScpiCommand.class,
+            PingCommand.class,
+            SimCommand.class,
         })
 public final class ZweepCommand implements Callable<Integer> {
 

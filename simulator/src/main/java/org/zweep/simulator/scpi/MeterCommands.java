@@ -1,6 +1,13 @@
 package org.zweep.simulator.scpi;
 
 import java.nio.charset.StandardCharsets;
+import java.util.function.BiConsumer;
+import java.util.function.Function;
+import java.util.function.ObjDoubleConsumer;
+import java.util.function.ObjIntConsumer;
+import java.util.function.Predicate;
+import java.util.function.ToDoubleFunction;
+import java.util.function.ToIntFunction;
 import org.zweep.simulator.bench.MeterCorrection;
 import org.zweep.simulator.bench.MeterLimits;
 import org.zweep.simulator.bench.SourceKind;
@@ -158,159 +165,122 @@ final class MeterCommands {
         });
     }
 
+    /**
+     * Declares a numeric setting: {@code header} sets it (NRf with a suffix in {@code unit}, or
+     * MIN/MAX/DEF; -222 outside the limits) and {@code header?} reads it (or, with MIN/MAX/DEF, a limit).
+     */
+    private static void numeric(CommandTree.Builder b, Instrument in, String header, Unit unit,
+            ToDoubleFunction<MeterLimits> min, ToDoubleFunction<MeterLimits> max, double def,
+            ToDoubleFunction<Settings> get, ObjDoubleConsumer<Settings> set) {
+        b.on(header, c -> {
+            c.count(1, 1);
+            MeterLimits l = in.limits();
+            double v = c.number(0, unit, min.applyAsDouble(l), max.applyAsDouble(l),
+                    Settings.clamp(def, min.applyAsDouble(l), max.applyAsDouble(l)));
+            in.update(s -> set.accept(s, v));
+            return null;
+        });
+        b.on(header + "?", c -> {
+            MeterLimits l = in.limits();
+            return nr3(c.queryLimit(in.read(get::applyAsDouble), min.applyAsDouble(l), max.applyAsDouble(l),
+                    Settings.clamp(def, min.applyAsDouble(l), max.applyAsDouble(l))));
+        });
+    }
+
+    /** Declares a setting of character data: {@code choices} in documentation case, answered in short form. */
+    private static void choice(CommandTree.Builder b, Instrument in, String header, String[] choices,
+            ToIntFunction<Settings> get, ObjIntConsumer<Settings> set) {
+        b.on(header, c -> {
+            c.count(1, 1);
+            int k = c.choice(0, choices);
+            in.update(s -> set.accept(s, k));
+            return null;
+        });
+        b.on(header + "?", c -> {
+            c.count(0, 0);
+            return Response.text(Mnemonics.shortForm(choices[in.read(get::applyAsInt)]));
+        });
+    }
+
     private static void source(CommandTree.Builder b, Instrument in) {
-        b.on("SOURce:FREQuency[:CW]", c -> {
-            c.count(1, 1);
-            MeterLimits l = in.limits();
-            double f = c.number(0, Unit.HERTZ, l.minFrequencyHz(), l.maxFrequencyHz(), Settings.DEFAULT_FREQUENCY_HZ);
-            in.update(s -> s.frequencyHz = f);
-            return null;
-        });
-        b.on("SOURce:FREQuency[:CW]?", c -> {
-            MeterLimits l = in.limits();
-            return nr3(c.queryLimit(in.read(s -> s.frequencyHz), l.minFrequencyHz(), l.maxFrequencyHz(),
-                    Settings.DEFAULT_FREQUENCY_HZ));
-        });
-        b.on("SOURce:FREQuency:MODE", c -> {
-            c.count(1, 1);
-            boolean list = c.choice(0, "CW", "LIST") == 1;
-            in.update(s -> s.listMode = list);
-            return null;
-        });
-        b.on("SOURce:FREQuency:MODE?", c -> {
-            c.count(0, 0);
-            return Response.text(in.read(s -> s.listMode) ? "LIST" : "CW");
-        });
-        b.on("SOURce:VOLTage[:LEVel][:IMMediate][:AMPLitude]", c -> {
-            c.count(1, 1);
-            MeterLimits l = in.limits();
-            double v = c.number(0, Unit.VOLT, l.minVoltageVrms(), l.maxVoltageVrms(), Settings.DEFAULT_VOLTAGE_VRMS);
-            in.update(s -> {
-                s.voltageVrms = v;
-                s.drive = SourceKind.VOLTAGE;
-            });
-            return null;
-        });
-        b.on("SOURce:VOLTage[:LEVel][:IMMediate][:AMPLitude]?", c -> {
-            MeterLimits l = in.limits();
-            return nr3(c.queryLimit(in.read(s -> s.voltageVrms), l.minVoltageVrms(), l.maxVoltageVrms(),
-                    Settings.DEFAULT_VOLTAGE_VRMS));
-        });
-        b.on("SOURce:CURRent[:LEVel][:IMMediate][:AMPLitude]", c -> {
-            c.count(1, 1);
-            MeterLimits l = in.limits();
-            double v = c.number(0, Unit.AMPERE, l.minCurrentArms(), l.maxCurrentArms(), Settings.DEFAULT_CURRENT_ARMS);
-            in.update(s -> {
-                s.currentArms = v;
-                s.drive = SourceKind.CURRENT;
-            });
-            return null;
-        });
-        b.on("SOURce:CURRent[:LEVel][:IMMediate][:AMPLitude]?", c -> {
-            MeterLimits l = in.limits();
-            return nr3(c.queryLimit(in.read(s -> s.currentArms), l.minCurrentArms(), l.maxCurrentArms(),
-                    Settings.DEFAULT_CURRENT_ARMS));
-        });
-        b.on("SOURce:VOLTage[:LEVel][:IMMediate]:OFFSet", c -> {
-            c.count(1, 1);
-            double max = in.limits().maxBiasVoltageV();
-            double v = c.number(0, Unit.VOLT, -max, max, 0);
-            in.update(s -> s.biasVoltageV = v);
-            return null;
-        });
-        b.on("SOURce:VOLTage[:LEVel][:IMMediate]:OFFSet?", c -> {
-            double max = in.limits().maxBiasVoltageV();
-            return nr3(c.queryLimit(in.read(s -> s.biasVoltageV), -max, max, 0));
-        });
-        b.on("SOURce:CURRent[:LEVel][:IMMediate]:OFFSet", c -> {
-            c.count(1, 1);
-            double max = in.limits().maxBiasCurrentA();
-            double v = c.number(0, Unit.AMPERE, -max, max, 0);
-            in.update(s -> s.biasCurrentA = v);
-            return null;
-        });
-        b.on("SOURce:CURRent[:LEVel][:IMMediate]:OFFSet?", c -> {
-            double max = in.limits().maxBiasCurrentA();
-            return nr3(c.queryLimit(in.read(s -> s.biasCurrentA), -max, max, 0));
-        });
+        numeric(b, in, "SOURce:FREQuency[:CW]", Unit.HERTZ, MeterLimits::minFrequencyHz, MeterLimits::maxFrequencyHz,
+                Settings.DEFAULT_FREQUENCY_HZ, s -> s.frequencyHz, (s, v) -> s.frequencyHz = v);
+        choice(b, in, "SOURce:FREQuency:MODE", new String[] {"CW", "LIST"}, s -> s.listMode ? 1 : 0,
+                (s, k) -> s.listMode = k == 1);
+        numeric(b, in, "SOURce:VOLTage[:LEVel][:IMMediate][:AMPLitude]", Unit.VOLT, MeterLimits::minVoltageVrms,
+                MeterLimits::maxVoltageVrms, Settings.DEFAULT_VOLTAGE_VRMS, s -> s.voltageVrms, (s, v) -> {
+                    s.voltageVrms = v;
+                    s.drive = SourceKind.VOLTAGE;
+                });
+        numeric(b, in, "SOURce:CURRent[:LEVel][:IMMediate][:AMPLitude]", Unit.AMPERE, MeterLimits::minCurrentArms,
+                MeterLimits::maxCurrentArms, Settings.DEFAULT_CURRENT_ARMS, s -> s.currentArms, (s, v) -> {
+                    s.currentArms = v;
+                    s.drive = SourceKind.CURRENT;
+                });
+        numeric(b, in, "SOURce:VOLTage[:LEVel][:IMMediate]:OFFSet", Unit.VOLT, l -> -l.maxBiasVoltageV(),
+                MeterLimits::maxBiasVoltageV, 0, s -> s.biasVoltageV, (s, v) -> s.biasVoltageV = v);
+        numeric(b, in, "SOURce:CURRent[:LEVel][:IMMediate]:OFFSet", Unit.AMPERE, l -> -l.maxBiasCurrentA(),
+                MeterLimits::maxBiasCurrentA, 0, s -> s.biasCurrentA, (s, v) -> s.biasCurrentA = v);
         // one bias source: switching one kind on switches the other off
-        b.on("SOURce:VOLTage[:LEVel][:IMMediate]:OFFSet:STATe", c -> {
-            c.count(1, 1);
-            boolean on = c.bool(0);
-            in.update(s -> {
-                s.voltageBiasOn = on;
-                if (on) {
-                    s.currentBiasOn = false;
-                }
-            });
-            return null;
+        flag(b, in, "SOURce:VOLTage[:LEVel][:IMMediate]:OFFSet:STATe", s -> s.voltageBiasOn, (s, on) -> {
+            s.voltageBiasOn = on;
+            s.currentBiasOn &= !on;
         });
-        b.on("SOURce:VOLTage[:LEVel][:IMMediate]:OFFSet:STATe?", c -> {
-            c.count(0, 0);
-            return bool(in.read(s -> s.voltageBiasOn));
+        flag(b, in, "SOURce:CURRent[:LEVel][:IMMediate]:OFFSet:STATe", s -> s.currentBiasOn, (s, on) -> {
+            s.currentBiasOn = on;
+            s.voltageBiasOn &= !on;
         });
-        b.on("SOURce:CURRent[:LEVel][:IMMediate]:OFFSet:STATe", c -> {
-            c.count(1, 1);
-            boolean on = c.bool(0);
-            in.update(s -> {
-                s.currentBiasOn = on;
-                if (on) {
-                    s.voltageBiasOn = false;
-                }
-            });
-            return null;
-        });
-        b.on("SOURce:CURRent[:LEVel][:IMMediate]:OFFSet:STATe?", c -> {
-            c.count(0, 0);
-            return bool(in.read(s -> s.currentBiasOn));
-        });
-        b.on("SOURce:LIST:FREQuency", c -> {
-            MeterLimits l = in.limits();
-            double[] v = list(c, Unit.HERTZ, l.minFrequencyHz(), l.maxFrequencyHz(), Settings.DEFAULT_FREQUENCY_HZ, l);
-            in.update(s -> s.listFrequencyHz = v);
-            return null;
-        });
-        b.on("SOURce:LIST:FREQuency?", c -> {
-            c.count(0, 0);
-            return Instrument.format(in.read(s -> s.listFrequencyHz.clone()), false, false);
-        });
-        b.on("SOURce:LIST:VOLTage", c -> {
-            MeterLimits l = in.limits();
-            double[] v = list(c, Unit.VOLT, l.minVoltageVrms(), l.maxVoltageVrms(), Settings.DEFAULT_VOLTAGE_VRMS, l);
-            in.update(s -> s.listVoltageVrms = v);
-            return null;
-        });
-        b.on("SOURce:LIST:VOLTage?", c -> {
-            c.count(0, 0);
-            return Instrument.format(in.read(s -> s.listVoltageVrms.clone()), false, false);
-        });
-        b.on("SOURce:LIST:VOLTage:OFFSet", c -> {
-            MeterLimits l = in.limits();
-            double[] v = list(c, Unit.VOLT, -l.maxBiasVoltageV(), l.maxBiasVoltageV(), 0, l);
-            in.update(s -> s.listBiasVoltageV = v);
-            return null;
-        });
-        b.on("SOURce:LIST:VOLTage:OFFSet?", c -> {
-            c.count(0, 0);
-            return Instrument.format(in.read(s -> s.listBiasVoltageV.clone()), false, false);
-        });
+        list(b, in, "SOURce:LIST:FREQuency", Unit.HERTZ, MeterLimits::minFrequencyHz, MeterLimits::maxFrequencyHz,
+                s -> s.listFrequencyHz, (s, v) -> s.listFrequencyHz = v);
+        list(b, in, "SOURce:LIST:VOLTage", Unit.VOLT, MeterLimits::minVoltageVrms, MeterLimits::maxVoltageVrms,
+                s -> s.listVoltageVrms, (s, v) -> s.listVoltageVrms = v);
+        list(b, in, "SOURce:LIST:VOLTage:OFFSet", Unit.VOLT, l -> -l.maxBiasVoltageV(), MeterLimits::maxBiasVoltageV,
+                s -> s.listBiasVoltageV, (s, v) -> s.listBiasVoltageV = v);
         b.on("SOURce:LIST:POINts?", c -> {
             c.count(0, 0);
             return nr1(in.read(s -> s.listFrequencyHz.length));
         });
     }
 
-    /** A list parameter: every element in range, or -222 and nothing changes; -223 past the limit. */
-    private static double[] list(Call c, Unit unit, double min, double max, double def, MeterLimits l) {
-        c.count(1, Integer.MAX_VALUE);
-        if (c.params().size() > l.maxListPoints()) {
-            throw new ScpiException(StandardError.TOO_MUCH_DATA, c.params().size() + " points, at most " + l.maxListPoints());
-        }
-        double[] v = new double[c.params().size()];
-        for (int i = 0; i < v.length; i++) {
-            v[i] = c.number(i, unit, min, max, def);
-        }
-        return v;
+    /** Declares a boolean setting: ON|OFF|NRf (SCPI-1999 Vol 1 §7.3), answered 1|0. */
+    private static void flag(CommandTree.Builder b, Instrument in, String header, Predicate<Settings> get,
+            BiConsumer<Settings, Boolean> set) {
+        b.on(header, c -> {
+            c.count(1, 1);
+            boolean on = c.bool(0);
+            in.update(s -> set.accept(s, on));
+            return null;
+        });
+        b.on(header + "?", c -> {
+            c.count(0, 0);
+            return bool(in.read(get::test));
+        });
+    }
+
+    /**
+     * Declares a list setting: every element in range, or -222 and nothing changes; -223 past the
+     * meter's list length. The query answers the list in NR3.
+     */
+    private static void list(CommandTree.Builder b, Instrument in, String header, Unit unit,
+            ToDoubleFunction<MeterLimits> min, ToDoubleFunction<MeterLimits> max,
+            Function<Settings, double[]> get, BiConsumer<Settings, double[]> set) {
+        b.on(header, c -> {
+            MeterLimits l = in.limits();
+            c.count(1, Integer.MAX_VALUE);
+            if (c.params().size() > l.maxListPoints()) {
+                throw new ScpiException(StandardError.TOO_MUCH_DATA, c.params().size() + " points, at most " + l.maxListPoints());
+            }
+            double[] v = new double[c.params().size()];
+            for (int i = 0; i < v.length; i++) {
+                v[i] = c.number(i, unit, min.applyAsDouble(l), max.applyAsDouble(l), min.applyAsDouble(l));
+            }
+            in.update(s -> set.accept(s, v));
+            return null;
+        });
+        b.on(header + "?", c -> {
+            c.count(0, 0);
+            return Instrument.format(in.read(s -> get.apply(s).clone()), false, false);
+        });
     }
 
     private static void sense(CommandTree.Builder b, Instrument in) {
@@ -321,14 +291,8 @@ final class MeterCommands {
             return null;
         });
         b.on("[SENSe:]AVERage:COUNt?", c -> nr1(Math.round(c.queryLimit(in.read(s -> s.averages), 1, Settings.MAX_AVERAGES, 1))));
-        b.on("[SENSe:]IMPedance:APERture", c -> {
-            c.count(1, 1);
-            double t = c.number(0, Unit.SECOND, Settings.MIN_APERTURE_S, Settings.MAX_APERTURE_S, Settings.DEFAULT_APERTURE_S);
-            in.update(s -> s.apertureS = t);
-            return null;
-        });
-        b.on("[SENSe:]IMPedance:APERture?", c -> nr3(c.queryLimit(in.read(s -> s.apertureS),
-                Settings.MIN_APERTURE_S, Settings.MAX_APERTURE_S, Settings.DEFAULT_APERTURE_S)));
+        numeric(b, in, "[SENSe:]IMPedance:APERture", Unit.SECOND, l -> Settings.MIN_APERTURE_S, l -> Settings.MAX_APERTURE_S,
+                Settings.DEFAULT_APERTURE_S, s -> s.apertureS, (s, v) -> s.apertureS = v);
         b.on("[SENSe:]IMPedance:RANGe[:UPPer]", c -> {
             c.count(1, 1);
             double[] ranges = in.limits().rangesOhm();
@@ -389,22 +353,10 @@ final class MeterCommands {
             c.count(0, 0);
             return bool(in.read(s -> s.correctionOn));
         });
-        b.on("[SENSe:]CORRection:LOAD:RESistance", c -> {
-            c.count(1, 1);
-            double v = c.number(0, Unit.OHM, 0, Settings.MAX_LOAD_OHM, Settings.DEFAULT_LOAD_OHM);
-            in.update(s -> s.loadResistanceOhm = v);
-            return null;
-        });
-        b.on("[SENSe:]CORRection:LOAD:RESistance?", c -> nr3(c.queryLimit(in.read(s -> s.loadResistanceOhm),
-                0, Settings.MAX_LOAD_OHM, Settings.DEFAULT_LOAD_OHM)));
-        b.on("[SENSe:]CORRection:LOAD:REACtance", c -> {
-            c.count(1, 1);
-            double v = c.number(0, Unit.OHM, -MAX_REACTANCE_OHM, MAX_REACTANCE_OHM, 0);
-            in.update(s -> s.loadReactanceOhm = v);
-            return null;
-        });
-        b.on("[SENSe:]CORRection:LOAD:REACtance?", c -> nr3(c.queryLimit(in.read(s -> s.loadReactanceOhm),
-                -MAX_REACTANCE_OHM, MAX_REACTANCE_OHM, 0)));
+        numeric(b, in, "[SENSe:]CORRection:LOAD:RESistance", Unit.OHM, l -> 0, l -> Settings.MAX_LOAD_OHM,
+                Settings.DEFAULT_LOAD_OHM, s -> s.loadResistanceOhm, (s, v) -> s.loadResistanceOhm = v);
+        numeric(b, in, "[SENSe:]CORRection:LOAD:REACtance", Unit.OHM, l -> -MAX_REACTANCE_OHM, l -> MAX_REACTANCE_OHM,
+                0, s -> s.loadReactanceOhm, (s, v) -> s.loadReactanceOhm = v);
         b.on("[SENSe:]FUNCtion[:ON]", c -> {
             c.count(1, 1);
             boolean ratio = function(c.string(0));
@@ -431,16 +383,8 @@ final class MeterCommands {
     }
 
     private static void measure(CommandTree.Builder b, Instrument in) {
-        b.on("TRIGger[:SEQuence]:SOURce", c -> {
-            c.count(1, 1);
-            boolean bus = c.choice(0, "IMMediate", "BUS") == 1;
-            in.update(s -> s.triggerBus = bus);
-            return null;
-        });
-        b.on("TRIGger[:SEQuence]:SOURce?", c -> {
-            c.count(0, 0);
-            return Response.text(in.read(s -> s.triggerBus) ? "BUS" : "IMM");
-        });
+        choice(b, in, "TRIGger[:SEQuence]:SOURce", new String[] {"IMMediate", "BUS"}, s -> s.triggerBus ? 1 : 0,
+                (s, k) -> s.triggerBus = k == 1);
         b.on("INITiate[:IMMediate]", c -> {
             c.count(0, 0);
             in.initiate(c.session());
@@ -477,16 +421,8 @@ final class MeterCommands {
             c.count(0, 0);
             return Response.text(in.read(s -> s.real64) ? "REAL,64" : "ASC");
         });
-        b.on("FORMat:BORDer", c -> {
-            c.count(1, 1);
-            boolean swapped = c.choice(0, "NORMal", "SWAPped") == 1;
-            in.update(s -> s.swapped = swapped);
-            return null;
-        });
-        b.on("FORMat:BORDer?", c -> {
-            c.count(0, 0);
-            return Response.text(in.read(s -> s.swapped) ? "SWAP" : "NORM");
-        });
+        choice(b, in, "FORMat:BORDer", new String[] {"NORMal", "SWAPped"}, s -> s.swapped ? 1 : 0,
+                (s, k) -> s.swapped = k == 1);
         b.on("SYSTem:HELP:HEADers?", c -> {
             c.count(0, 0);
             return Response.block(String.join("\n", c.session().headers()).concat("\n").getBytes(StandardCharsets.US_ASCII));

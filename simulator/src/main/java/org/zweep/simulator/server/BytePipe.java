@@ -6,6 +6,7 @@ import java.io.InterruptedIOException;
 import java.io.OutputStream;
 import java.net.SocketTimeoutException;
 import java.util.concurrent.TimeUnit;
+import java.util.function.BooleanSupplier;
 import java.util.concurrent.locks.Condition;
 import java.util.concurrent.locks.ReentrantLock;
 
@@ -26,7 +27,7 @@ final class BytePipe {
     private boolean closed;
     private boolean readerWaiting;
     private volatile int readTimeoutMillis;
-    private volatile Runnable onBlockedRead = () -> { };
+    private volatile BooleanSupplier onBlockedRead = () -> true;
 
     BytePipe(int capacity) {
         ring = new byte[capacity];
@@ -83,8 +84,11 @@ final class BytePipe {
         readTimeoutMillis = ms;
     }
 
-    /** Called (under no lock of the caller's) each time a read finds the pipe empty and waits. */
-    void setOnBlockedRead(Runnable r) {
+    /**
+     * Called (without the pipe's lock) while a read waits on an empty pipe, about every 20 ms,
+     * until it returns {@code true} for that read.
+     */
+    void setOnBlockedRead(BooleanSupplier r) {
         onBlockedRead = r;
     }
 
@@ -113,7 +117,7 @@ final class BytePipe {
         }
         int timeout = readTimeoutMillis;
         long deadline = timeout > 0 ? System.nanoTime() + TimeUnit.MILLISECONDS.toNanos(timeout) : 0;
-        boolean notified = false;
+        boolean reported = false;
         lock.lock();
         try {
             while (size == 0) {
@@ -121,15 +125,16 @@ final class BytePipe {
                     return -1;
                 }
                 readerWaiting = true;
-                if (!notified) {
-                    notified = true;
+                if (!reported) {
                     lock.unlock();
                     try {
-                        onBlockedRead.run();
+                        reported = onBlockedRead.getAsBoolean();
                     } finally {
                         lock.lock();
                     }
-                    continue;
+                    if (size > 0 || closed) {
+                        continue;
+                    }
                 }
                 long wait = POLL_NANOS;
                 if (timeout > 0) {

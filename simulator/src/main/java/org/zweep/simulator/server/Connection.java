@@ -73,9 +73,14 @@ final class Connection implements Session.Hooks {
         server.log("connection " + id + " from " + link.peer() + " opened");
         MessageFramer framer = new MessageFramer(link.input(), server.options().maxMessageBytes());
         try {
+            int timeoutMs = 0;
             while (!closed) {
                 Duration idle = faults.idleLimit();
-                link.setReadTimeoutMillis(idle == null ? 0 : (int) Math.max(1, Math.min(Integer.MAX_VALUE, idle.toMillis())));
+                int wanted = idle == null ? 0 : (int) Math.max(1, Math.min(Integer.MAX_VALUE, idle.toMillis()));
+                if (wanted != timeoutMs) {
+                    link.setReadTimeoutMillis(wanted);
+                    timeoutMs = wanted;
+                }
                 MessageFramer.Message m;
                 try {
                     m = framer.next();
@@ -255,11 +260,18 @@ final class Connection implements Session.Hooks {
         inflight.clear();
     }
 
-    /** The in-memory check for IEEE 488.2 §6.3.2.2: the client reads while no query is pending. */
-    void onClientBlockedRead(BytePipe toServer) {
+    /**
+     * The in-memory check for IEEE 488.2 §6.3.2.2: the client reads while no query is pending
+     * (this connection's reader waits for input and no reply is on its way).
+     *
+     * @return whether -420 was reported
+     */
+    boolean onClientBlockedRead(BytePipe toServer) {
         if (session.strict() && !stalled && !closed && toServer.readerWaitingOnEmpty() && !outputPending()) {
             session.report(StandardError.QUERY_UNTERMINATED, "read with no query pending");
+            return true;
         }
+        return false;
     }
 
     void stall(String where) {

@@ -71,6 +71,24 @@ public final class TcpTransport implements Transport {
         }
     }
 
+    /** Whether TCP_NODELAY is on (it always is: each message leaves at once). */
+    public boolean noDelay() {
+        try {
+            return socket.getTcpNoDelay();
+        } catch (IOException e) {
+            return false;
+        }
+    }
+
+    /** Whether SO_KEEPALIVE is on (it always is). */
+    public boolean keepAlive() {
+        try {
+            return socket.getKeepAlive();
+        } catch (IOException e) {
+            return false;
+        }
+    }
+
     @Override
     public String name() {
         return name;

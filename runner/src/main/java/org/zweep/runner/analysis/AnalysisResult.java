@@ -1,0 +1,35 @@
+package org.zweep.runner.analysis;
+
+import java.util.List;
+
+/**
+ * Everything {@code zweep analyze} finds in a run folder.
+ *
+ * @param run the data analysed
+ * @param steps one result per step that has measured points, in step order
+ * @param transformer transformer parameters, or null for other parts
+ * @param checks every check of the manifest, evaluated
+ * @param bins the measured value against the nominal, or null when there is no main value
+ * @param notes explanations for people
+ */
+public record AnalysisResult(RunData run, List<StepResult> steps, TransformerResult transformer,
+        List<CheckOutcome> checks, Bins bins, List<String> notes) {
+    public AnalysisResult {
+        steps = List.copyOf(steps);
+        checks = List.copyOf(checks);
+        notes = List.copyOf(notes);
+    }
+
+    /** {@code pass} when every check passed, {@code fail} when one failed, {@code none} without checks. */
+    public String verdict() {
+        if (checks.isEmpty()) {
+            return "none";
+        }
+        return checks.stream().allMatch(CheckOutcome::passed) ? "pass" : "fail";
+    }
+
+    /** The step named {@code name}, or null. */
+    public StepResult step(String name) {
+        return steps.stream().filter(s -> s.name().equals(name)).findFirst().orElse(null);
+    }
+}

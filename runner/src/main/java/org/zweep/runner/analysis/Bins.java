@@ -1,0 +1,24 @@
+package org.zweep.runner.analysis;
+
+import java.util.LinkedHashMap;
+import java.util.Map;
+
+/**
+ * Where the measured value sits against the nominal: deviation, IEC 60062 letter class and the
+ * nearest IEC 60063 preferred values.
+ *
+ * @param measured the measured main value (F, H or Ω)
+ * @param source where it comes from, for people (e.g. {@code fit of step sweep (1 V, bias 0 V)})
+ * @param nominal the nominal value; NaN when the manifest has none
+ * @param unit {@code F}, {@code H} or {@code Ω}
+ * @param deviationPercent (measured − nominal)/nominal in %; NaN without a nominal
+ * @param letter the tightest IEC 60062 letter holding the value, or null
+ * @param withinTolerance whether it is within the part's stated tolerance; null when none is stated
+ * @param nearest the nearest value in each of E6, E12, E24, E48, E96
+ */
+public record Bins(double measured, String source, double nominal, String unit, double deviationPercent,
+        String letter, Boolean withinTolerance, Map<String, Double> nearest) {
+    public Bins {
+        nearest = java.util.Collections.unmodifiableMap(new LinkedHashMap<>(nearest));
+    }
+}

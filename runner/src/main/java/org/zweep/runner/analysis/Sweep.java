@@ -1,0 +1,86 @@
+package org.zweep.runner.analysis;
+
+import java.util.ArrayList;
+import java.util.Comparator;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+import java.util.TreeMap;
+import org.zweep.driver.impedance.Impedance;
+import org.zweep.runner.results.PointRow;
+
+/**
+ * The impedance points of one step at one drive level, one DC bias and one wiring, repeats
+ * averaged per frequency: what is fitted and what a Touchstone file holds.
+ *
+ * @param step the step's name
+ * @param stepIndex the step's index
+ * @param wiring {@code none}, {@code secondary_open} or {@code secondary_shorted}
+ * @param drive {@code V} or {@code A}
+ * @param level the drive level in V rms or A rms
+ * @param biasMode {@code V} or {@code A}
+ * @param bias the DC bias in V or A
+ * @param points the mean impedance per frequency, ascending in frequency
+ * @param repeats the largest number of readings averaged at one frequency
+ */
+public record Sweep(String step, int stepIndex, String wiring, String drive, double level, String biasMode,
+        double bias, List<Impedance> points, int repeats) {
+    public Sweep {
+        points = List.copyOf(points);
+    }
+
+    /** The sweeps in {@code rows} (ok impedance rows only), in order of first appearance. */
+    public static List<Sweep> of(List<PointRow> rows) {
+        Map<String, List<PointRow>> groups = new LinkedHashMap<>();
+        for (PointRow r : rows) {
+            if (!"ok".equals(r.status()) || !"impedance".equals(r.quantity())) {
+                continue;
+            }
+            String key = r.stepIndex() + "\u0000" + r.wiring() + "\u0000" + r.drive() + "\u0000" + r.level()
+                    + "\u0000" + r.biasMode() + "\u0000" + r.bias();
+            groups.computeIfAbsent(key, k -> new ArrayList<>()).add(r);
+        }
+        List<Sweep> out = new ArrayList<>();
+        for (List<PointRow> g : groups.values()) {
+            TreeMap<Double, List<PointRow>> byF = new TreeMap<>();
+            for (PointRow r : g) {
+                byF.computeIfAbsent(r.frequencyHz(), k -> new ArrayList<>()).add(r);
+            }
+            List<Impedance> pts = new ArrayList<>();
+            int repeats = 0;
+            for (Map.Entry<Double, List<PointRow>> e : byF.entrySet()) {
+                double re = e.getValue().stream().mapToDouble(PointRow::rOhm).average().orElseThrow();
+                double im = e.getValue().stream().mapToDouble(PointRow::xOhm).average().orElseThrow();
+                pts.add(new Impedance(e.getKey(), re, im));
+                repeats = Math.max(repeats, e.getValue().size());
+            }
+            pts.sort(Comparator.comparingDouble(Impedance::frequencyHz));
+            PointRow first = g.get(0);
+            out.add(new Sweep(first.step(), first.stepIndex(), first.wiring(), first.drive(), first.level(),
+                    first.biasMode(), first.bias(), pts, repeats));
+        }
+        return out;
+    }
+
+    /** The number of distinct frequencies. */
+    public int frequencies() {
+        return points.size();
+    }
+
+    /** A label such as {@code 1V 0V} or {@code 10mA 2A}, also used in file names. */
+    public String conditionLabel() {
+        return Si.compact(level, drive) + "_" + Si.compact(bias, biasMode) + ("none".equals(wiring) ? "" : "_" + wiring);
+    }
+
+    /** A label for people, e.g. {@code 1 V, bias 0 V}. */
+    public String describe() {
+        return Si.format(level, drive) + ", bias " + Si.format(bias, biasMode)
+                + ("none".equals(wiring) ? "" : ", " + wiring.replace('_', ' '));
+    }
+
+    @Override
+    public String toString() {
+        return String.format(Locale.ROOT, "%s (%s)", step, describe());
+    }
+}

@@ -1,0 +1,103 @@
+package org.zweep.runner.cli;
+
+import java.io.PrintWriter;
+import java.nio.file.Path;
+import java.util.Locale;
+import java.util.Map;
+import java.util.concurrent.Callable;
+import org.zweep.runner.analysis.Analysis;
+import org.zweep.runner.analysis.AnalysisJson;
+import org.zweep.runner.analysis.AnalysisResult;
+import org.zweep.runner.analysis.CheckOutcome;
+import org.zweep.runner.analysis.CircuitFit;
+import org.zweep.runner.analysis.CircuitModel;
+import org.zweep.runner.analysis.Derating;
+import org.zweep.runner.analysis.RunData;
+import org.zweep.runner.analysis.Si;
+import org.zweep.runner.analysis.StepResult;
+import org.zweep.runner.analysis.TransformerResult;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Model.CommandSpec;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
+import picocli.CommandLine.Spec;
+
+/** {@code zweep analyze DIR}: fits, derating, transformer figures, checks; writes {@code DIR/analysis.json}. */
+@Command(name = "analyze", mixinStandardHelpOptions = true,
+        description = {"Analyse a run folder: equivalent-circuit fits, DC-bias derating, transformer parameters,",
+            "repeat statistics, checks and bins. Writes DIR/analysis.json.",
+            "Exit code 1 when a check failed."},
+        footer = ExitCode.HELP_LIST)
+public final class AnalyzeCommand implements Callable<Integer> {
+    @Spec
+    CommandSpec spec;
+
+    @Parameters(index = "0", paramLabel = "DIR", description = "the run folder")
+    Path dir;
+
+    @Option(names = "--json", description = "print analysis.json to standard output instead of a summary")
+    boolean json;
+
+    @Option(names = "--model", paramLabel = "MODEL",
+            description = "circuit to fit: capacitor, capacitor-leakage, capacitor-tan-delta, inductor, "
+                    + "inductor-core-loss, resistor (default: from the part kind)")
+    String model;
+
+    @Override
+    public Integer call() {
+        PrintWriter out = spec.commandLine().getOut();
+        CircuitModel m = model == null ? null : CircuitModel.byId(model);
+        AnalysisResult a = Analysis.analyze(RunData.read(dir).requirePoints(), m);
+        Path file = AnalysisJson.write(a);
+        if (json) {
+            out.print(AnalysisJson.text(a));
+        } else {
+            summary(out, a);
+            out.println("wrote " + file);
+        }
+        return "fail".equals(a.verdict()) ? ExitCode.CHECK_FAILED : ExitCode.OK;
+    }
+
+    static void summary(PrintWriter out, AnalysisResult a) {
+        var part = a.run().manifest().part();
+        if (part != null) {
+            out.printf(Locale.ROOT, "part %s (%s), verdict %s%n", part.name(), part.kind(), a.verdict());
+        }
+        for (StepResult s : a.steps()) {
+            out.println("step " + s.name() + ":");
+            for (StepResult.SweepFit sf : s.fits()) {
+                CircuitFit f = sf.fit();
+                StringBuilder b = new StringBuilder("  " + f.model().id() + " fit, " + sf.sweep().describe() + ":");
+                for (Map.Entry<String, Double> e : f.parameters().entrySet()) {
+                    String unit = Si.unitOf(e.getKey());
+                    b.append(' ').append(e.getKey()).append('=');
+                    b.append(e.getValue() == null ? "not resolved"
+                            : Si.format(e.getValue(), unit) + " ± " + Si.format(f.sigma().get(e.getKey()), unit, 2));
+                }
+                b.append(", srf ").append(f.srfHz() == null ? "not resolved" : Si.format(f.srfHz(), "Hz"));
+                b.append(String.format(Locale.ROOT, ", residual %.2g", f.residualRms()));
+                out.println(b);
+            }
+            for (Derating d : s.derating()) {
+                StringBuilder b = new StringBuilder("  derating at " + Si.format(d.frequencyHz(), "Hz") + ":");
+                d.drops().forEach((pct, at) -> b.append(' ').append(pct).append("% drop at ")
+                        .append(at == null ? "not reached" : Si.format(at, d.biasMode())).append(';'));
+                out.println(b);
+            }
+        }
+        TransformerResult t = a.transformer();
+        if (t != null) {
+            out.printf(Locale.ROOT, "transformer: turns ratio %.5g, k %.6f, leakage %s, mutual %s%n", t.turnsRatio(),
+                    t.k(), Si.format(t.leakageH(), "H"), Si.format(t.mutualH(), "H"));
+        }
+        for (CheckOutcome c : a.checks()) {
+            out.printf(Locale.ROOT, "check %s (%s): %s%s%n", c.name(), c.parameter(), c.result(),
+                    c.note().isEmpty() ? "" : " (" + c.note() + ")");
+        }
+        if (a.bins() != null && a.bins().letter() != null) {
+            out.printf(Locale.ROOT, "bin: %+.3f %% of nominal, tolerance letter %s%n", a.bins().deviationPercent(),
+                    a.bins().letter());
+        }
+    }
+
+}

@@ -1,0 +1,174 @@
+package org.zweep.runner.cli;
+
+import java.io.BufferedReader;
+import java.io.IOException;
+import java.io.InputStream;
+import java.io.InputStreamReader;
+import java.io.PrintWriter;
+import java.io.UncheckedIOException;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Path;
+import java.time.Duration;
+import java.util.List;
+import java.util.concurrent.Callable;
+import org.jline.reader.EndOfFileException;
+import org.jline.reader.LineReader;
+import org.jline.reader.LineReaderBuilder;
+import org.jline.reader.UserInterruptException;
+import org.jline.terminal.Terminal;
+import org.jline.terminal.TerminalBuilder;
+import org.zweep.driver.MeterException;
+import org.zweep.driver.scpi.ScpiClient;
+import org.zweep.driver.scpi.ScpiSettings;
+import org.zweep.driver.scpi.ScpiValues;
+import org.zweep.driver.transport.ConnectionLostException;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Model.CommandSpec;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
+import picocli.CommandLine.Spec;
+
+/** {@code zweep scpi}: sends SCPI messages to a meter and prints the replies, or runs a console. */
+@Command(
+        name = "scpi",
+        mixinStandardHelpOptions = true,
+        description = {
+            "Sends each COMMAND to the meter at ADDRESS in order and prints each query's reply on its own line.",
+            "Without COMMAND: an interactive console with history (or, when standard input is not a terminal,"
+                    + " one command per input line). A message containing '?' is a query.",
+            "ADDRESS: tcp://HOST[:PORT], serial:DEVICE[?baud=N&...], sim:[BENCH], TCPIP::HOST::PORT::SOCKET,"
+                    + " ASRL<device>::INSTR."
+        },
+        footer = ExitCode.HELP_LIST)
+final class ScpiCommand implements Callable<Integer> {
+
+    @Parameters(index = "0", paramLabel = "ADDRESS", description = "Where the meter is.")
+    String address;
+
+    @Parameters(index = "1..*", paramLabel = "COMMAND", description = "SCPI program messages, sent in order.")
+    List<String> commands = List.of();
+
+    @Option(names = "--timeout", paramLabel = "DURATION", defaultValue = "5s", converter = DurationConverter.class,
+            description = "Read timeout per reply, e.g. 500ms or 2s (default: ${DEFAULT-VALUE}).")
+    Duration timeout;
+
+    @Option(names = "--trace", paramLabel = "FILE", description = "Append the traffic, timestamped, to FILE.")
+    Path trace;
+
+    @Spec
+    CommandSpec spec;
+
+    private final InputStream stdin;
+
+    ScpiCommand() {
+        this(System.in);
+    }
+
+    /** @param stdin where console lines come from when no command is given (tests pass their own) */
+    ScpiCommand(InputStream stdin) {
+        this.stdin = stdin;
+    }
+
+    @Override
+    public Integer call() throws IOException {
+        PrintWriter out = spec.commandLine().getOut();
+        ScpiSettings settings = ScpiSettings.builder().readTimeout(timeout).tracePath(trace).build();
+        try (ScpiClient client = ScpiClient.open(address, settings)) {
+            if (!commands.isEmpty()) {
+                for (String c : commands) {
+                    exchange(client, c, out);
+                }
+            } else if (stdin == System.in && System.console() != null) {
+                console(client, out);
+            } else {
+                lines(client, out);
+            }
+        }
+        return ExitCode.OK;
+    }
+
+    /** Sends one message; prints the reply if it is a query. */
+    static void exchange(ScpiClient client, String message, PrintWriter out) {
+        if (isQuery(message)) {
+            out.println(printable(client.queryBytes(message)));
+            out.flush();
+        } else {
+            client.write(message);
+        }
+    }
+
+    /** A message with a '?' outside quoted strings expects a reply (IEEE 488.2 §6.2.3 query headers). */
+    static boolean isQuery(String message) {
+        char quote = 0;
+        for (int i = 0; i < message.length(); i++) {
+            char c = message.charAt(i);
+            if (quote != 0) {
+                quote = c == quote ? 0 : quote;
+            } else if (c == '"' || c == '\'') {
+                quote = c;
+            } else if (c == '?') {
+                return true;
+            }
+        }
+        return false;
+    }
+
+    /** The reply as text, with control and non-ASCII bytes escaped (binary blocks stay one line). */
+    static String printable(byte[] reply) {
+        for (byte b : reply) {
+            if (b < 0x20 || b > 0x7e) {
+                return ScpiValues.escape(reply, 0, reply.length, Integer.MAX_VALUE);
+            }
+        }
+        return new String(reply, StandardCharsets.US_ASCII);
+    }
+
+    private void lines(ScpiClient client, PrintWriter out) throws IOException {
+        BufferedReader in = new BufferedReader(new InputStreamReader(stdin, StandardCharsets.UTF_8));
+        String line;
+        while ((line = in.readLine()) != null) {
+            if (!line.isBlank()) {
+                exchange(client, line.strip(), out);
+            }
+        }
+    }
+
+    private void console(ScpiClient client, PrintWriter out) throws IOException {
+        PrintWriter err = spec.commandLine().getErr();
+        try (Terminal terminal = TerminalBuilder.builder().system(true).build()) {
+            LineReader reader = LineReaderBuilder.builder().terminal(terminal).appName("zweep scpi")
+                    .variable(LineReader.HISTORY_FILE, Path.of(System.getProperty("user.home"), ".zweep",
+                            "scpi_history"))
+                    .build();
+            out.println("Connected to " + client.address() + ". Type SCPI messages; 'exit' or Ctrl-D ends.");
+            out.flush();
+            while (true) {
+                String line;
+                try {
+                    line = reader.readLine("scpi> ");
+                } catch (UserInterruptException e) {
+                    continue;
+                } catch (EndOfFileException e) {
+                    return;
+                }
+                String m = line.strip();
+                if (m.isEmpty()) {
+                    continue;
+                }
+                if (m.equalsIgnoreCase("exit") || m.equalsIgnoreCase("quit")) {
+                    return;
+                }
+                try {
+                    exchange(client, m, out);
+                } catch (ConnectionLostException e) {
+                    throw e;
+                } catch (MeterException e) {
+                    err.println("zweep: " + e.getMessage());
+                    err.flush();
+                }
+            }
+        } catch (UncheckedIOException e) {
+            throw e.getCause();
+        }
+    }
+}

@@ -1,0 +1,232 @@
+package org.zweep.runner.cli;
+
+import java.io.IOException;
+import java.io.PrintWriter;
+import java.net.InetAddress;
+import java.net.UnknownHostException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.concurrent.Callable;
+import java.util.concurrent.CountDownLatch;
+import org.zweep.driver.InvalidInputException;
+import org.zweep.driver.MeterException;
+import org.zweep.simulator.SimulatorInputException;
+import org.zweep.simulator.bench.BenchSpec;
+import org.zweep.simulator.bench.SimulatedBench;
+import org.zweep.simulator.bench.Timing;
+import org.zweep.simulator.scpi.BenchLoader;
+import org.zweep.simulator.scpi.InstrumentOptions;
+import org.zweep.simulator.scpi.TimingModel;
+import org.zweep.simulator.server.FaultPlan;
+import org.zweep.simulator.server.ServerOptions;
+import org.zweep.simulator.server.SimulatorServer;
+import picocli.CommandLine.ArgGroup;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Model.CommandSpec;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Spec;
+
+/** {@code zweep sim}: serves the simulated meter over raw-socket SCPI in the foreground until interrupted. */
+@Command(
+        name = "sim",
+        mixinStandardHelpOptions = true,
+        description = {
+            "Serves the simulated impedance meter (IEEE 488.2 / SCPI over raw TCP) in the foreground.",
+            "Prints 'listening on tcp://HOST:PORT' once ready, logs connections, stops on Ctrl-C."},
+        footer = {
+            "%nFault specs for --fault (repeatable or comma-separated): KIND[=VALUE][@WHEN]",
+            "  drop@N  drop-idle=SECONDS  drop-random=P  delay=SECONDS  fragment=BYTES",
+            "  stall@N  omit-terminator  error=CODE  garble",
+            "  WHEN: N (the N-th only), N+ (from the N-th on), ~P (each with probability P),",
+            "  absent (every one). Each connection counts its own messages and replies.",
+            ExitCode.HELP_LIST})
+public final class SimCommand implements Callable<Integer> {
+
+    @Spec
+    CommandSpec spec;
+
+    @Option(names = "--port", paramLabel = "N", description = "TCP port (default ${DEFAULT-VALUE}; 0 picks a free one).",
+            defaultValue = "5025")
+    int port;
+
+    @Option(names = "--bind", paramLabel = "ADDR",
+            description = "Address to listen on (default ${DEFAULT-VALUE}: this machine only).", defaultValue = "127.0.0.1")
+    String bind;
+
+    static final class Source {
+        @Option(names = "--bench", paramLabel = "FILE", description = "Bench file (YAML) to serve.")
+        Path bench;
+
+        @Option(names = "--device", paramLabel = "NETLIST",
+                description = "Device netlist: a file, or element lines inline (separated by newlines or \\n).")
+        String device;
+    }
+
+    @ArgGroup(exclusive = true)
+    Source source;
+
+    @Option(names = "--ideal", description = "No noise, no fixture residuals, no lead resistance.")
+    boolean ideal;
+
+    @Option(names = "--seed", paramLabel = "N", description = "Seed all noise is drawn from.")
+    Long seed;
+
+    @Option(names = "--timing", paramLabel = "real|none",
+            description = "real: points take as long as on a real meter; none: as fast as possible"
+                    + " (default: the bench file's, else real).")
+    String timing;
+
+    @Option(names = "--strict", description = "Strict IEEE 488.2 query rules: -410 when a message interrupts a pending reply.")
+    boolean strict;
+
+    @Option(names = "--error-queue", paramLabel = "N", defaultValue = "16",
+            description = "Error queue depth before -350 Queue overflow (default ${DEFAULT-VALUE}).")
+    int errorQueueDepth;
+
+    @Option(names = "--max-message", paramLabel = "BYTES", defaultValue = "1048576",
+            description = "Longest program message accepted; longer gives -363 (default ${DEFAULT-VALUE}).")
+    int maxMessageBytes;
+
+    @Option(names = "--fault", paramLabel = "SPEC", description = "Inject a fault on every connection (see below).")
+    List<String> faults = new ArrayList<>();
+
+    @Option(names = "--drop-after", paramLabel = "N", description = "Close each connection after its N-th message (= --fault drop@N).")
+    Long dropAfter;
+
+    @Option(names = "--drop-idle", paramLabel = "SECONDS", description = "Close a connection idle this long (= --fault drop-idle=S).")
+    String dropIdle;
+
+    @Option(names = "--drop-random", paramLabel = "P", description = "Close on each message with probability P (= --fault drop-random=P).")
+    String dropRandom;
+
+    @Option(names = "--delay", paramLabel = "SECONDS", description = "Delay every reply (= --fault delay=S).")
+    String delay;
+
+    @Option(names = "--fragment", paramLabel = "BYTES", description = "Send replies in pieces (= --fault fragment=BYTES).")
+    Integer fragment;
+
+    @Override
+    public Integer call() {
+        PrintWriter out = spec.commandLine().getOut();
+        BenchSpec benchSpec = benchSpec();
+        String t = timing != null ? timing.toLowerCase(java.util.Locale.ROOT)
+                : benchSpec.timing() == Timing.NONE ? "none" : "real";
+        TimingModel timingModel = switch (t) {
+            case "real" -> TimingModel.REAL;
+            case "none" -> TimingModel.NONE;
+            default -> throw new InvalidInputException("--timing: '" + timing + "' is not real or none");
+        };
+        if (seed != null) {
+            benchSpec = benchSpec.withSeed(seed);
+        }
+        if (ideal) {
+            benchSpec = benchSpec.ideal();
+        }
+        benchSpec = benchSpec.withTiming(timingModel == TimingModel.REAL ? Timing.REAL : Timing.NONE);
+        FaultPlan plan = faultPlan(benchSpec.seed());
+        InetAddress address;
+        try {
+            address = InetAddress.getByName(bind);
+        } catch (UnknownHostException e) {
+            throw new InvalidInputException("--bind: unknown address '" + bind + "'");
+        }
+        if (errorQueueDepth < 2) {
+            throw new InvalidInputException("--error-queue: must be at least 2, got " + errorQueueDepth);
+        }
+        ServerOptions options;
+        try {
+            options = ServerOptions.defaults().withBindAddress(address).withPort(port).withMaxMessageBytes(maxMessageBytes)
+                    .withFaults(plan)
+                    .withInstrument(InstrumentOptions.defaults().withTiming(timingModel).withStrict(strict)
+                            .withErrorQueueDepth(errorQueueDepth).withBenchLoader(BenchLoader.simulated(ideal, timingModel)))
+                    .withLog(line -> {
+                        synchronized (out) {
+                            out.println(line);
+                            out.flush();
+                        }
+                    });
+        } catch (IllegalArgumentException e) {
+            throw new InvalidInputException(e.getMessage());
+        }
+        SimulatorServer server;
+        try {
+            server = SimulatorServer.start(new SimulatedBench(benchSpec), options);
+        } catch (IOException e) {
+            throw new MeterException(e.getMessage(), e);
+        }
+        CountDownLatch stopped = new CountDownLatch(1);
+        Thread hook = new Thread(() -> {
+            server.close();
+            stopped.countDown();
+        }, "zweep-sim-shutdown");
+        Runtime.getRuntime().addShutdownHook(hook);
+        synchronized (out) {
+            out.println("listening on tcp://" + server.address().getAddress().getHostAddress() + ":" + server.port()
+                    + " (" + benchSpec.description() + ")");
+            out.flush();
+        }
+        try {
+            stopped.await();
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+        } finally {
+            server.close();
+            try {
+                Runtime.getRuntime().removeShutdownHook(hook);
+            } catch (IllegalStateException e) {
+                // already shutting down: the hook is running
+            }
+        }
+        synchronized (out) {
+            out.println("stopped");
+            out.flush();
+        }
+        return ExitCode.OK;
+    }
+
+    private BenchSpec benchSpec() {
+        try {
+            if (source != null && source.bench != null) {
+                return BenchSpec.load(source.bench);
+            }
+            if (source != null && source.device != null) {
+                Path file = Path.of(source.device);
+                if (!source.device.contains("\n") && !source.device.contains("\\n") && Files.isRegularFile(file)) {
+                    return BenchSpec.ofNetlist(Files.readString(file), file.toString());
+                }
+                return BenchSpec.ofNetlist(source.device.replace("\\n", "\n"), "--device");
+            }
+            return BenchSpec.ofNetlist("R1 hi lo 100", "the default 100 ohm resistor");
+        } catch (SimulatorInputException e) {
+            throw new InvalidInputException(e.getMessage(), e);
+        } catch (IOException e) {
+            throw new InvalidInputException("--device: cannot read " + source.device + ": " + e.getMessage(), e);
+        }
+    }
+
+    private FaultPlan faultPlan(long faultSeed) {
+        List<String> specs = new ArrayList<>(faults);
+        if (dropAfter != null) {
+            specs.add("drop@" + dropAfter);
+        }
+        if (dropIdle != null) {
+            specs.add("drop-idle=" + dropIdle);
+        }
+        if (dropRandom != null) {
+            specs.add("drop-random=" + dropRandom);
+        }
+        if (delay != null) {
+            specs.add("delay=" + delay);
+        }
+        if (fragment != null) {
+            specs.add("fragment=" + fragment);
+        }
+        try {
+            return FaultPlan.parse(String.join(",", specs), faultSeed);
+        } catch (IllegalArgumentException e) {
+            throw new InvalidInputException("--fault: " + e.getMessage());
+        }
+    }
+}

@@ -1,0 +1,167 @@
+package org.zweep.runner.export;
+
+import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.databind.SerializationFeature;
+import com.fasterxml.jackson.databind.node.ArrayNode;
+import com.fasterxml.jackson.databind.node.ObjectNode;
+import java.io.IOException;
+import java.io.UncheckedIOException;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import org.zweep.runner.analysis.AnalysisJson;
+import org.zweep.runner.analysis.AnalysisResult;
+import org.zweep.runner.analysis.PointValues;
+import org.zweep.runner.analysis.RunData;
+import org.zweep.runner.analysis.Sweep;
+import org.zweep.runner.results.Derived;
+import org.zweep.runner.results.PointRow;
+
+/**
+ * Writes a run folder's data as CSV, JSON or Touchstone files. Blocking file I/O; stateless.
+ */
+public final class Exports {
+    /** The columns of the CSV export, in order. */
+    public static final List<String> CSV_COLUMNS = List.of("step", "repeat", "quantity", "wiring", "frequency_hz",
+            "drive", "level", "bias_mode", "bias", "r_ohm", "x_ohm", "z_ohm", "theta_deg", "cs_f", "cp_f", "ls_h",
+            "lp_h", "rs_ohm", "rp_ohm", "d", "q", "ratio");
+
+    private static final ObjectMapper JSON = new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT);
+
+    private Exports() {
+    }
+
+    /**
+     * Writes one Touchstone file per frequency sweep (step, level, bias, wiring; repeats averaged)
+     * into {@code outDir}, named {@code <step>_<level>_<bias>[_<wiring>].s1p}, e.g.
+     * {@code sweep_1V_0V.s1p}. Sweeps of a single frequency are skipped.
+     *
+     * @return the files written
+     */
+    public static List<Path> touchstone(RunData run, Path outDir, Touchstone.Version version, double referenceOhm) {
+        List<Path> written = new ArrayList<>();
+        for (Sweep s : Sweep.of(run.rows())) {
+            if (s.frequencies() < 2) {
+                continue;
+            }
+            List<String> comments = new ArrayList<>();
+            comments.add("one-port impedance (Z) written by zweep, Touchstone " + version.label()
+                    + (version == Touchstone.Version.V2_0 ? ", Z in ohms (not normalised)"
+                            : ", Z normalised to R = " + referenceOhm + " ohm"));
+            if (run.manifest().part() != null) {
+                comments.add("part: " + run.manifest().part().name() + " (" + run.manifest().part().kind() + ")");
+            }
+            comments.add("step: " + s.step() + ", " + s.describe()
+                    + (s.repeats() > 1 ? ", mean of " + s.repeats() + " repeats" : ""));
+            comments.add("run: " + run.folder().dir().toAbsolutePath().normalize());
+            String name = safe(s.step()) + "_" + s.conditionLabel() + ".s1p";
+            Path file = outDir.resolve(name);
+            write(file, Touchstone.write(version, s.points(), comments, referenceOhm));
+            written.add(file);
+        }
+        return written;
+    }
+
+    /** Writes every measured row (points with a value) as CSV to {@code file}. */
+    public static void csv(RunData run, Path file) {
+        StringBuilder b = new StringBuilder(String.join(",", CSV_COLUMNS)).append('\n');
+        for (PointRow r : run.rows()) {
+            if (!"ok".equals(r.status())) {
+                continue;
+            }
+            List<String> cells = new ArrayList<>();
+            cells.add(quote(r.step()));
+            cells.add(String.valueOf(r.repeat()));
+            cells.add(r.quantity());
+            cells.add(r.wiring());
+            cells.add(num(r.frequencyHz()));
+            cells.add(r.drive());
+            cells.add(num(r.level()));
+            cells.add(r.biasMode());
+            cells.add(num(r.bias()));
+            cells.add(num(r.rOhm()));
+            cells.add(num(r.xOhm()));
+            for (String d : Derived.NAMES) {
+                cells.add(num(PointValues.of(r, d)));
+            }
+            cells.add(num(r.ratio()));
+            b.append(String.join(",", cells)).append('\n');
+        }
+        write(file, b.toString());
+    }
+
+    /** Writes the manifest, every measured row and the analysis as one JSON document to {@code file}. */
+    public static void json(RunData run, AnalysisResult analysis, Path file) {
+        ObjectNode root = JSON.createObjectNode();
+        root.put("format", "zweep-export/1");
+        root.set("run", JSON.valueToTree(run.manifest()));
+        ArrayNode points = root.putArray("points");
+        for (PointRow r : run.rows()) {
+            if (!"ok".equals(r.status())) {
+                continue;
+            }
+            ObjectNode p = points.addObject();
+            p.put("step", r.step());
+            p.put("repeat", r.repeat());
+            p.put("quantity", r.quantity());
+            p.put("wiring", r.wiring());
+            put(p, "frequency_hz", r.frequencyHz());
+            p.put("drive", r.drive());
+            put(p, "level", r.level());
+            p.put("bias_mode", r.biasMode());
+            put(p, "bias", r.bias());
+            put(p, "r_ohm", r.rOhm());
+            put(p, "x_ohm", r.xOhm());
+            for (String d : Derived.NAMES) {
+                put(p, d, PointValues.of(r, d));
+            }
+            put(p, "ratio", r.ratio());
+            p.put("time", r.time().toString());
+        }
+        root.set("analysis", AnalysisJson.tree(analysis));
+        try {
+            write(file, JSON.writeValueAsString(root) + "\n");
+        } catch (com.fasterxml.jackson.core.JsonProcessingException e) {
+            throw new IllegalStateException(e);
+        }
+    }
+
+    private static void put(ObjectNode n, String key, double v) {
+        if (Double.isFinite(v)) {
+            n.put(key, v);
+        } else {
+            n.putNull(key);
+        }
+    }
+
+    private static String num(double v) {
+        return Double.isFinite(v) ? Double.toString(v) : "";
+    }
+
+    private static String quote(String s) {
+        if (s.indexOf(',') < 0 && s.indexOf('"') < 0 && s.indexOf('\n') < 0) {
+            return s;
+        }
+        return '"' + s.replace("\"", "\"\"") + '"';
+    }
+
+    static String safe(String s) {
+        String out = s.replaceAll("[^A-Za-z0-9._-]+", "-");
+        return out.isEmpty() ? "step" : out;
+    }
+
+    private static void write(Path file, String text) {
+        try {
+            Path parent = file.toAbsolutePath().getParent();
+            if (parent != null) {
+                Files.createDirectories(parent);
+            }
+            Files.writeString(file, text, StandardCharsets.US_ASCII.newEncoder().canEncode(text)
+                    ? StandardCharsets.US_ASCII : StandardCharsets.UTF_8);
+        } catch (IOException e) {
+            throw new UncheckedIOException("cannot write " + file + ": " + e.getMessage(), e);
+        }
+    }
+}

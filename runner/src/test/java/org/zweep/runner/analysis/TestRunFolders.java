@@ -1,0 +1,100 @@
+package org.zweep.runner.analysis;
+
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.time.Instant;
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import org.zweep.driver.impedance.Impedance;
+import org.zweep.runner.results.Derived;
+import org.zweep.runner.results.PointRow;
+import org.zweep.runner.results.PointsCsvWriter;
+import org.zweep.runner.results.RunManifest;
+
+/** Writes small run folders in the RUNFOLDER.md format with the engine's own writers, for tests. */
+public final class TestRunFolders {
+    private final Path dir;
+    private final List<PointRow> rows = new ArrayList<>();
+    private final Map<String, Integer> steps = new LinkedHashMap<>();
+    private final List<RunManifest.CheckInfo> checks = new ArrayList<>();
+    private RunManifest.PartInfo part = new RunManifest.PartInfo("capacitor", "KP-C0805-104", 100e-9, "F", 10.0, null);
+    private Instant time = Instant.parse("2024-05-01T10:00:00Z");
+
+    public TestRunFolders(Path dir) {
+        this.dir = dir;
+    }
+
+    public TestRunFolders part(String kind, String name, double nominal, String unit, Double tolerance, Double turns) {
+        part = new RunManifest.PartInfo(kind, name, nominal, unit, tolerance, turns);
+        return this;
+    }
+
+    /** Adds impedance rows for {@code sweep}, one per point, at the given conditions. */
+    public TestRunFolders impedance(String step, List<Impedance> sweep, String drive, double level, String biasMode,
+            double bias, String wiring, int repeat) {
+        int index = steps.computeIfAbsent(step, s -> steps.size());
+        for (Impedance z : sweep) {
+            time = time.plusMillis(100);
+            rows.add(new PointRow(rows.size(), step, index, repeat, "impedance", wiring, z.frequencyHz(), drive, level,
+                    biasMode, bias, z.resistanceOhm(), z.reactanceOhm(), Derived.of(z), Double.NaN, "ok", "", time));
+        }
+        return this;
+    }
+
+    /** Adds one voltage-ratio row with |V2/V1| = {@code ratio}. */
+    public TestRunFolders ratio(String step, double frequencyHz, double ratio) {
+        int index = steps.computeIfAbsent(step, s -> steps.size());
+        time = time.plusMillis(100);
+        rows.add(new PointRow(rows.size(), step, index, 0, "voltage_ratio", "secondary_open", frequencyHz, "V", 1.0, "V",
+                0.0, ratio, 0.0, Derived.NONE, ratio, "ok", "", time));
+        return this;
+    }
+
+    /** Adds one impedance row without a value (the meter gave none) at {@code frequencyHz}. */
+    public TestRunFolders noValue(String step, double frequencyHz) {
+        int index = steps.computeIfAbsent(step, s -> steps.size());
+        time = time.plusMillis(100);
+        rows.add(new PointRow(rows.size(), step, index, 0, "impedance", "none", frequencyHz, "V", 1.0, "V", 0.0,
+                Double.NaN, Double.NaN, Derived.NONE, Double.NaN, "no_value", "", time));
+        return this;
+    }
+
+    public TestRunFolders check(String name, String parameter, String step, Double frequencyHz, Double min, Double max) {
+        checks.add(new RunManifest.CheckInfo(name, parameter, step, frequencyHz, min, max));
+        return this;
+    }
+
+    /**
+     * A transformer run of check-values.md §7 X7 [calc]: L1 = 10 mH, n = 4, k = 0.99, so Lsc1 = 199.0 µH and
+     * V1/V2 = L1/M = 4.0404; steps {@code open}, {@code short} and {@code ratio}, at 1 kHz.
+     */
+    public static TestRunFolders x7Transformer(Path dir) {
+        double w = 2 * Math.PI * 1000;
+        double m = 0.99 * Math.sqrt(10e-3 * 0.625e-3);
+        return new TestRunFolders(dir).part("transformer", "KP-T-4", 10e-3, "H", null, 4.0)
+                .impedance("open", List.of(new Impedance(1000, 2.0, w * 10e-3)), "V", 1.0, "V", 0, "secondary_open", 0)
+                .impedance("short", List.of(new Impedance(1000, 2.5, w * 199.0e-6)), "V", 1.0, "V", 0,
+                        "secondary_shorted", 0)
+                .ratio("ratio", 1000, m / 10e-3);
+    }
+
+    /** Writes points.csv, run.json and sequence.yaml; returns the folder. */
+    public Path write() throws Exception {
+        Files.createDirectories(dir);
+        try (PointsCsvWriter w = PointsCsvWriter.open(dir.resolve("points.csv"))) {
+            rows.forEach(w::append);
+        }
+        Files.writeString(dir.resolve("sequence.yaml"), "name: test\n");
+        List<RunManifest.StepInfo> stepInfo = new ArrayList<>();
+        steps.forEach((name, index) -> stepInfo.add(new RunManifest.StepInfo(index, name,
+                (int) rows.stream().filter(r -> r.step().equals(name)).count())));
+        new RunManifest(RunManifest.FORMAT, new RunManifest.SequenceInfo("test", "/tmp/test.yaml", "00", "sequence.yaml"),
+                part, stepInfo, checks, new RunManifest.MeterInfo("sim:bench.yaml", "standard", "Kestrel Test,SIM-1,0001,1.0"),
+                new RunManifest.CompensationInfo("none", List.of(), null), new RunManifest.SoftwareInfo("zweep", "test"),
+                "test-host", 1L, "2024-05-01T10:00:00Z", time.toString(), new RunManifest.Counts(rows.size(), rows.size()),
+                "completed", "none").write(dir.resolve("run.json"));
+        return dir;
+    }
+}

@@ -1,0 +1,84 @@
+package org.zweep.runner.cli;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.io.ByteArrayInputStream;
+import java.io.PrintWriter;
+import java.net.InetAddress;
+import java.net.ServerSocket;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.List;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import picocli.CommandLine;
+
+class ScpiCommandIT extends TinyMeterCliBase {
+
+    @Test
+    void sendsEachCommandInOrderAndPrintsEachReplyOnItsOwnLine() {
+        int code = zweep("scpi", meter.address(), "*IDN?", "FREQ 2.5E+03", "FREQ?");
+        assertEquals(0, code, err.toString());
+        assertEquals(TinyMeter.IDN + "\n2.5E+03\n", out.toString().replace("\r\n", "\n"));
+        assertEquals(List.of("*CLS", "*IDN?", "FREQ 2.5E+03", "FREQ?"), meter.received);
+    }
+
+    @Test
+    void binaryBlockRepliesArePrintedEscapedOnOneLine() {
+        assertEquals(0, zweep("scpi", meter.address(), "DATA?"), err.toString());
+        assertEquals("#14a\\n\\x01b\n", out.toString().replace("\r\n", "\n"));
+    }
+
+    @Test
+    void readsCommandsFromStandardInputWhenItIsNotATerminal() {
+        CommandLine cl = new CommandLine(new ScpiCommand(new ByteArrayInputStream(
+                "FREQ 1E6\n\nFREQ?\n".getBytes(StandardCharsets.UTF_8))));
+        cl.setOut(new PrintWriter(out));
+        cl.setErr(new PrintWriter(err));
+        assertEquals(0, cl.execute(meter.address()), err.toString());
+        assertEquals("1E6\n", out.toString().replace("\r\n", "\n"));
+    }
+
+    @Test
+    void timeoutIsExitThreeWithOneLine() {
+        int code = zweep("scpi", meter.address(), "--timeout", "200ms", "HANG?");
+        assertEquals(3, code);
+        String e = err.toString().strip();
+        assertTrue(e.startsWith("zweep: " + meter.address() + ": no reply to 'HANG?' within 200 ms"), e);
+        assertEquals(1, e.lines().count(), e);
+    }
+
+    @Test
+    void refusedConnectionIsExitThreeWithOneLine() throws Exception {
+        int port;
+        try (ServerSocket s = new ServerSocket(0, 1, InetAddress.getLoopbackAddress())) {
+            port = s.getLocalPort();
+        }
+        assertEquals(3, zweep("scpi", "tcp://127.0.0.1:" + port, "*IDN?"));
+        String e = err.toString().strip();
+        assertTrue(e.contains("connection refused"), e);
+        assertEquals(1, e.lines().count(), e);
+    }
+
+    @Test
+    void badAddressIsExitTwoNamingThePart() {
+        assertEquals(2, zweep("scpi", "tcp://meter:99999", "*IDN?"));
+        assertTrue(err.toString().contains("port '99999'"), err.toString());
+    }
+
+    @Test
+    void badTimeoutIsExitTwo() {
+        assertEquals(2, zweep("scpi", meter.address(), "--timeout", "2", "*IDN?"));
+        assertTrue(err.toString().contains("not a duration with a unit"), err.toString());
+    }
+
+    @Test
+    void traceFileRecordsTheConversation(@TempDir Path dir) throws Exception {
+        Path trace = dir.resolve("t.log");
+        assertEquals(0, zweep("scpi", meter.address(), "--trace", trace.toString(), "*IDN?"), err.toString());
+        String log = Files.readString(trace);
+        assertTrue(log.contains(" > *IDN?\\n") && log.contains(" < " + TinyMeter.IDN + "\\n"), log);
+    }
+}

@@ -1,0 +1,123 @@
+package org.zweep.simulator.scpi;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.nio.charset.StandardCharsets;
+import java.util.Arrays;
+import org.junit.jupiter.api.AfterEach;
+import org.junit.jupiter.api.Test;
+import org.zweep.simulator.bench.BenchSpec;
+import org.zweep.simulator.bench.FixtureSlot;
+import org.zweep.simulator.bench.SimulatedBench;
+import org.zweep.simulator.bench.Timing;
+import org.zweep.simulator.bench.Wiring;
+
+/** The SIMulate subsystem on the physics bench: slot, wiring, seed, devices and bench files. */
+class SimulateCommandsTest {
+    private final SimulatedBench bench = new SimulatedBench(
+            BenchSpec.ofNetlist("R1 hi lo 100", "test").ideal().withTiming(Timing.NONE));
+    private final Instrument in = new Instrument(bench, InstrumentOptions.defaults().withTiming(TimingModel.NONE)
+            .withBenchLoader(BenchLoader.simulated(true, TimingModel.NONE)));
+    private final Session s = in.openSession(Session.Hooks.NONE);
+
+    @AfterEach
+    void close() {
+        in.close();
+    }
+
+    private String send(String m) {
+        byte[] r = s.execute(m.getBytes(StandardCharsets.US_ASCII));
+        return r == null ? null : new String(r, 0, r.length - 1, StandardCharsets.US_ASCII);
+    }
+
+    private double[] read() {
+        return Arrays.stream(send("READ?").split(",")).mapToDouble(Double::parseDouble).toArray();
+    }
+
+    private int nextError() {
+        String e = send("SYST:ERR?");
+        return Integer.parseInt(e.substring(0, e.indexOf(',')));
+    }
+
+    @Test
+    void theSlotTheWindingAndTheSeedAreSetOnTheBench() {
+        send("SIM:FIXT SHOR;:SIM:SEC SHORT;:SIM:SEED 1234");
+        assertEquals(FixtureSlot.SHORT, bench.slot());
+        assertEquals(Wiring.SECONDARY_SHORTED, bench.wiring());
+        assertEquals(1234, bench.seed());
+        assertEquals("SHOR;SHOR;1234", send("SIM:FIXT?;SEC?;SEED?"));
+        send("SIM:FIXT DEVICE");
+        assertEquals("DEV", send("SIM:FIXT:SLOT?"));
+    }
+
+    @Test
+    void anIdealBenchReadsTheResistorItself() {
+        double[] z = read();
+        assertEquals(100, z[0], 1e-6); // --ideal: no residuals, no noise
+        assertEquals(0, z[1], 1e-6);
+    }
+
+    @Test
+    void aNetlistReplacesTheDeviceAndKeepsTheSlot() {
+        send("SIM:DEV \"R1 hi mid 47\\nL1 mid lo 1m\"");
+        assertEquals(0, nextError());
+        double[] z = read();
+        assertEquals(47, z[0], 1e-6);
+        assertEquals(2 * Math.PI * 1000 * 1e-3, z[1], 1e-6); // X = ωL at the 1 kHz default, common practice
+        send("SIM:DEV #210R1 hi lo 5");
+        assertEquals(5, read()[0], 1e-6);
+    }
+
+    @Test
+    void aBadNetlistOrAMissingBenchFileIsAnExecutionErrorAndChangesNothing() {
+        send("SIM:DEV \"R1 hi\"");
+        assertEquals(-200, nextError());
+        send("SIM:BENC \"no/such/file.bench.yaml\"");
+        assertEquals(-256, nextError());
+        assertEquals(100, read()[0], 1e-6);
+    }
+
+    @Test
+    void aBenchFileLoadsItsDevice() {
+        send("SIM:BENC \"../sequences/benches/kp-c0805-104.bench.yaml\"");
+        assertEquals(0, nextError());
+        double[] z = read();
+        assertTrue(z[1] < 0, "a capacitor reads a negative reactance (DESIGN.md convention): " + z[1]);
+        // 100 nF at 1 kHz: |X| ≈ 1/(2π·1e3·1e-7) ≈ 1592 Ω before derating, common practice
+        assertTrue(Math.abs(z[1]) > 1000 && Math.abs(z[1]) < 3000, Double.toString(z[1]));
+    }
+
+    @Test
+    void anExplicitNoiseKeyIsUsedOnceThenTheCounterGoesOn() {
+        assertEquals("0", send("SIM:NOIS:KEY?"));
+        send("READ?");
+        assertEquals("1", send("SIM:NOIS:KEY?"));
+        send("SIM:NOIS:KEY 99");
+        assertEquals("99", send("SIM:NOIS:KEY?"));
+        send("READ?");
+        assertEquals("2", send("SIM:NOIS:KEY?"));
+    }
+
+    @Test
+    void theSameSeedAndNoiseKeyGiveTheSameNoisyReadingOnAnyConnection() {
+        SimulatedBench noisy = new SimulatedBench(BenchSpec.ofNetlist("R1 hi lo 100", "test").withTiming(Timing.NONE));
+        try (Instrument n = new Instrument(noisy, InstrumentOptions.defaults().withTiming(TimingModel.NONE))) {
+            Session a = n.openSession(Session.Hooks.NONE);
+            Session b = n.openSession(Session.Hooks.NONE);
+            byte[] first = a.execute("SIM:NOIS:KEY 5;:READ?".getBytes(StandardCharsets.US_ASCII));
+            byte[] again = b.execute("SIM:NOIS:KEY 5;:READ?".getBytes(StandardCharsets.US_ASCII));
+            byte[] other = b.execute("SIM:NOIS:KEY 6;:READ?".getBytes(StandardCharsets.US_ASCII));
+            assertEquals(new String(first, StandardCharsets.US_ASCII), new String(again, StandardCharsets.US_ASCII));
+            assertTrue(!Arrays.equals(first, other), "another key draws other noise");
+        }
+    }
+
+    @Test
+    void theTimingModelCanBeSwitched() {
+        send("SIM:TIM REAL");
+        assertEquals("REAL", send("SIM:TIM?"));
+        send("SIM:TIM NONE");
+        assertEquals("NONE", send("SIM:TIM?"));
+    }
+}
