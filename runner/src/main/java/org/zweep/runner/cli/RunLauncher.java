@@ -11,6 +11,8 @@ import java.nio.file.Path;
 import java.time.Clock;
 import java.time.Duration;
 import java.time.ZoneId;
+import java.util.ArrayList;
+import java.util.List;
 import java.util.Locale;
 import org.zweep.driver.InvalidInputException;
 import org.zweep.driver.address.Address;
@@ -18,6 +20,9 @@ import org.zweep.driver.address.SimAddress;
 import org.zweep.driver.impedance.Quantities;
 import org.zweep.driver.impedance.Unit;
 import org.zweep.driver.scpi.ScpiSettings;
+import org.zweep.runner.analysis.Analysis;
+import org.zweep.runner.analysis.CheckOutcome;
+import org.zweep.runner.analysis.RunData;
 import org.zweep.runner.compensation.CompensationWorkflow;
 import org.zweep.runner.engine.ConsoleProgress;
 import org.zweep.runner.engine.Interruption;
@@ -127,7 +132,7 @@ final class RunLauncher {
                     plan.meter().dialect(), seed, ReconnectPolicy.DEFAULT.withBudgetS(o.reconnectBudgetS()), prompter,
                     progress, interruption,
                     (station, res, log) -> CompensationWorkflow.prepare(plan, station, folder, res, clock, log),
-                    SweepChecks.NONE, clock, VersionProvider.version()));
+                    RunLauncher::sweepChecks, clock, VersionProvider.version()));
             RunSession.Summary s;
             try (BiasOffHook hook = BiasOffHook.install(interruption, session::biasOffNow, err, 10_000)) {
                 s = session.run();
@@ -135,6 +140,20 @@ final class RunLauncher {
             printSummary(folder, s);
             return exitCode(s);
         }
+    }
+
+    /** The whole-sweep checks (such as {@code srf_hz}) of a completed run, evaluated by the analysis. */
+    static List<SweepChecks.Outcome> sweepChecks(RunFolder folder, List<CheckLimit> whole) {
+        if (whole.isEmpty()) {
+            return List.of();
+        }
+        List<CheckOutcome> all = Analysis.evaluateChecks(RunData.read(folder.dir()));
+        List<SweepChecks.Outcome> out = new ArrayList<>();
+        for (CheckLimit l : whole) {
+            all.stream().filter(o -> o.name().equals(l.name())).findFirst().ifPresent(o -> out.add(
+                    new SweepChecks.Outcome(l, o.values().isEmpty() ? Double.NaN : o.values().get(0), o.passed())));
+        }
+        return out;
     }
 
     static int exitCode(RunSession.Summary s) {

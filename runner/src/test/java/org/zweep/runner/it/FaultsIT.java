@@ -33,7 +33,7 @@ class FaultsIT {
 
     static Sims.Result run(SimulatorServer server, Path out, String... extra) {
         String[] base = {"run", SEQ.toString(), "--meter", "tcp://127.0.0.1:" + server.port(), "--dialect",
-            Sims.wideDialect(), "--out", out.toString(), "--seed", "11", "--timeout", "1"};
+            Sims.dialect(), "--out", out.toString(), "--seed", "11", "--timeout", "1"};
         String[] all = new String[base.length + extra.length];
         System.arraycopy(base, 0, all, 0, base.length);
         System.arraycopy(extra, 0, all, base.length, extra.length);

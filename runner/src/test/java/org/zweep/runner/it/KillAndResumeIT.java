@@ -31,7 +31,7 @@ class KillAndResumeIT {
     static Process child(Path out, String meter) throws Exception {
         String java = Path.of(System.getProperty("java.home"), "bin", "java").toString();
         ProcessBuilder pb = new ProcessBuilder(java, "-cp", System.getProperty("java.class.path"),
-                "org.zweep.runner.cli.Main", "run", SEQ.toString(), "--meter", meter, "--dialect", Sims.wideDialect(),
+                "org.zweep.runner.cli.Main", "run", SEQ.toString(), "--meter", meter, "--dialect", Sims.dialect(),
                 "--out", out.toString(), "--seed", "7", "--quiet");
         pb.redirectErrorStream(true);
         pb.redirectOutput(out.resolveSibling(out.getFileName() + ".log").toFile());
@@ -58,7 +58,7 @@ class KillAndResumeIT {
     Map<Integer, PointRow> uninterrupted() {
         Path ref = dir.resolve("reference");
         Sims.Result r = Sims.zweep("run", SEQ.toString(), "--meter", "sim:" + Sims.benchOf(SEQ) + "?timing=none",
-                "--dialect", Sims.wideDialect(), "--out", ref.toString(), "--seed", "7", "--quiet");
+                "--dialect", Sims.dialect(), "--out", ref.toString(), "--seed", "7", "--quiet");
         assertEquals(0, r.code(), r.err());
         return Rows.of(ref);
     }
@@ -82,7 +82,7 @@ class KillAndResumeIT {
         assertEquals("running", RunManifest.read(out.resolve("run.json")).outcome());
 
         Sims.Result r = Sims.zweep("run", "--resume", out.toString(), "--meter",
-                "sim:" + Sims.benchOf(SEQ) + "?timing=none", "--dialect", Sims.wideDialect(), "--quiet");
+                "sim:" + Sims.benchOf(SEQ) + "?timing=none", "--dialect", Sims.dialect(), "--quiet");
         assertEquals(0, r.code(), r.out() + r.err());
         assertSamePoints(uninterrupted(), Rows.of(out));
         RunManifest m = RunManifest.read(out.resolve("run.json"));
@@ -118,7 +118,7 @@ class KillAndResumeIT {
         RunManifest m = RunManifest.read(out.resolve("run.json"));
         assertEquals("aborted", m.outcome());
         Sims.Result r = Sims.zweep("run", "--resume", out.toString(), "--meter",
-                "sim:" + Sims.benchOf(SEQ) + "?timing=none", "--dialect", Sims.wideDialect(), "--quiet");
+                "sim:" + Sims.benchOf(SEQ) + "?timing=none", "--dialect", Sims.dialect(), "--quiet");
         assertEquals(0, r.code(), r.out() + r.err());
         assertSamePoints(uninterrupted(), Rows.of(out));
     }

@@ -36,7 +36,7 @@ class RunCommandIT {
     void failedCheckGivesExitCode1() throws Exception {
         // Cs of the 100 nF part cannot lie within 1 % of 200 nF
         Path seq = variant("nominal: 100 nF", "nominal: 200 nF");
-        Sims.Result r = Sims.zweep("run", seq.toString(), "--meter", sim(), "--dialect", Sims.wideDialect(), "--out",
+        Sims.Result r = Sims.zweep("run", seq.toString(), "--meter", sim(), "--dialect", Sims.dialect(), "--out",
                 dir.resolve("out").toString(), "--quiet");
         assertEquals(1, r.code(), r.out() + r.err());
         assertTrue(r.out().contains("capacitance-1khz") && r.out().contains(": fail"), r.out());
@@ -57,7 +57,7 @@ class RunCommandIT {
     void biasOverTheSafetyLimitIsRefusedBeforeAnyCommandIsSent() throws Exception {
         Path seq = variant("max_bias_voltage: 25 V", "max_bias_voltage: 20 V");
         Path trace = dir.resolve("trace.txt");
-        Sims.Result r = Sims.zweep("run", seq.toString(), "--meter", sim(), "--dialect", Sims.wideDialect(), "--out",
+        Sims.Result r = Sims.zweep("run", seq.toString(), "--meter", sim(), "--dialect", Sims.dialect(), "--out",
                 dir.resolve("out").toString(), "--trace", trace.toString());
         assertEquals(2, r.code(), r.err());
         assertTrue(r.err().contains("bias-derating"), r.err());
@@ -76,7 +76,7 @@ class RunCommandIT {
     @Test
     void resumeOfACompletedRunChangesNothing() {
         Path out = dir.resolve("done");
-        assertEquals(0, Sims.zweep("run", SEQ.toString(), "--meter", sim(), "--dialect", Sims.wideDialect(), "--out",
+        assertEquals(0, Sims.zweep("run", SEQ.toString(), "--meter", sim(), "--dialect", Sims.dialect(), "--out",
                 out.toString(), "--quiet").code());
         var before = Rows.of(out);
         Sims.Result r = Sims.zweep("run", "--resume", out.toString(), "--quiet");
@@ -87,7 +87,7 @@ class RunCommandIT {
     @Test
     void measureJsonUsesTheConvertNamesAndRecoversTheCapacitor() throws Exception {
         Sims.Result r = Sims.zweep("measure", sim(), "--frequency", "1kHz", "--level", "0.5V", "--dialect",
-                Sims.wideDialect(), "--json");
+                Sims.dialect(), "--json");
         assertEquals(0, r.code(), r.err());
         JsonNode n = new ObjectMapper().readTree(r.out());
         for (String k : new String[] {"frequency_hz", "r_ohm", "x_ohm", "z_ohm", "theta_deg", "q", "d", "cs_f", "cp_f",

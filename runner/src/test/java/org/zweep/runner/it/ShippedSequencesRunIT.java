@@ -50,7 +50,7 @@ class ShippedSequencesRunIT {
     void runsCompletelyOnTheInProcessSimulator(Path seq) {
         Path out = dir.resolve("run");
         Sims.Result r = Sims.zweep("run", seq.toString(), "--meter", "sim:" + Sims.benchOf(seq) + "?timing=none",
-                "--dialect", Sims.wideDialect(), "--out", out.toString(), "--quiet");
+                "--dialect", Sims.dialect(), "--out", out.toString(), "--quiet");
         assertCompleteRun(seq, out, r);
     }
 
@@ -60,7 +60,7 @@ class ShippedSequencesRunIT {
         Path out = dir.resolve("run");
         try (SimulatorServer server = Sims.tcp(Sims.benchOf(seq), FaultPlan.none())) {
             Sims.Result r = Sims.zweep("run", seq.toString(), "--meter", "tcp://127.0.0.1:" + server.port(),
-                    "--dialect", Sims.wideDialect(), "--out", out.toString(), "--quiet");
+                    "--dialect", Sims.dialect(), "--out", out.toString(), "--quiet");
             assertCompleteRun(seq, out, r);
             assertTrue(Sims.biasOff(server), "the simulator's own bias state is off");
         }

@@ -4,7 +4,6 @@ import java.io.IOException;
 import java.io.PrintWriter;
 import java.io.StringWriter;
 import java.io.UncheckedIOException;
-import java.net.URISyntaxException;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.List;
@@ -43,13 +42,9 @@ final class Sims {
         }
     }
 
-    /** The test dialect: the standard one with the simulated bench's full bias ranges. */
-    static String wideDialect() {
-        try {
-            return Path.of(Sims.class.getResource("wide.dialect").toURI()).toString();
-        } catch (URISyntaxException e) {
-            throw new IllegalStateException(e);
-        }
+    /** The dialect the runs use: the standard one, the simulator's own command tree. */
+    static String dialect() {
+        return "standard";
     }
 
     /** The bench file a shipped sequence names (its {@code bench:} line). */
