@@ -61,10 +61,22 @@ public final class PointsCsvWriter implements AutoCloseable {
 
     /** Appends {@code row} and syncs it to the device before returning. */
     public void append(PointRow row) {
-        writeLine(PointsCsv.format(row));
+        append(row, true);
+    }
+
+    /**
+     * Appends {@code row}; when {@code sync} is true, syncs it and every row before it to the device
+     * before returning (used once per list sweep, whose rows arrive together).
+     */
+    public void append(PointRow row, boolean sync) {
+        writeLine(PointsCsv.format(row), sync);
     }
 
     private void writeLine(String line) {
+        writeLine(line, true);
+    }
+
+    private void writeLine(String line, boolean syncNow) {
         byte[] bytes = (line + "\n").getBytes(StandardCharsets.UTF_8);
         if (buffer.capacity() < bytes.length) {
             buffer = ByteBuffer.allocate(bytes.length * 2);
@@ -75,7 +87,7 @@ public final class PointsCsvWriter implements AutoCloseable {
             while (buffer.hasRemaining()) {
                 channel.write(buffer);
             }
-            if (sync) {
+            if (sync && syncNow) {
                 channel.force(false);
             }
         } catch (IOException e) {

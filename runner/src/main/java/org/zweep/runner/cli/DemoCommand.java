@@ -1,0 +1,82 @@
+package org.zweep.runner.cli;
+
+import java.net.URISyntaxException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.concurrent.Callable;
+import org.zweep.driver.InvalidInputException;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Model.CommandSpec;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Spec;
+
+/** {@code zweep demo}: runs the shipped capacitor sequence on the built-in simulator. */
+@Command(
+        name = "demo",
+        mixinStandardHelpOptions = true,
+        description = {
+            "Runs the shipped incoming-inspection sequence of a 100 nF ceramic capacitor "
+                + "(sequences/" + DemoCommand.SEQUENCE + ") on the built-in simulator into a fresh folder "
+                + "under results/, then prints where the results are and a short summary.",
+            "The simulated meter takes as long as a real one would (tens of seconds)."
+        },
+        footer = ExitCode.HELP_LIST + "  130 stopped by Ctrl-C (resumable)%n")
+public final class DemoCommand implements Callable<Integer> {
+    /** The demo's sequence, inside the shipped {@code sequences/} folder. */
+    static final String SEQUENCE = "incoming-kp-c0805-104.yaml";
+
+    @Spec
+    CommandSpec spec;
+
+    @Option(names = "--out", paramLabel = "DIR", description = "the run folder to create (default: results/NAME-yyyyMMdd-HHmmss)")
+    Path out;
+
+    @Option(names = "--seed", paramLabel = "N", description = "the simulator's noise seed (default: the bench's)")
+    Long seed;
+
+    @Option(names = "--quiet", description = "no progress output")
+    boolean quiet;
+
+    @Override
+    public Integer call() {
+        Path sequence = locate();
+        RunLauncher.Options o = new RunLauncher.Options(null, null, out, Path.of("results"), false, seed, quiet, null,
+                10, 60);
+        return new RunLauncher(spec.commandLine().getOut(), spec.commandLine().getErr()).start(sequence, o);
+    }
+
+    /**
+     * The shipped sequence: under {@code zweep.home} when that system property is set, else next to
+     * the jar or classes folder this class came from ({@code runner/target/zweep.jar} or
+     * {@code runner/target/classes} → {@code ../../sequences}), else under the current folder or
+     * one of its parents.
+     */
+    static Path locate() {
+        List<Path> tried = new ArrayList<>();
+        String home = System.getProperty("zweep.home");
+        if (home != null) {
+            tried.add(Path.of(home, "sequences", SEQUENCE));
+        }
+        try {
+            Path code = Path.of(DemoCommand.class.getProtectionDomain().getCodeSource().getLocation().toURI());
+            Path target = code.getParent();
+            if (target != null && target.getParent() != null && target.getParent().getParent() != null) {
+                tried.add(target.getParent().getParent().resolve("sequences").resolve(SEQUENCE));
+            }
+        } catch (URISyntaxException | RuntimeException e) {
+            // no usable code location: fall back to the current folder
+        }
+        for (Path d = Path.of("").toAbsolutePath(); d != null; d = d.getParent()) {
+            tried.add(d.resolve("sequences").resolve(SEQUENCE));
+        }
+        for (Path p : tried) {
+            if (Files.isRegularFile(p)) {
+                return p.normalize();
+            }
+        }
+        throw new InvalidInputException("cannot find sequences/" + SEQUENCE + " (looked in " + tried.get(0)
+                + " and " + (tried.size() - 1) + " other places); set -Dzweep.home=REPO");
+    }
+}

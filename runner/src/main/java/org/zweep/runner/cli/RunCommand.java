@@ -1,0 +1,80 @@
+package org.zweep.runner.cli;
+
+import java.nio.file.Path;
+import java.util.concurrent.Callable;
+import org.zweep.driver.InvalidInputException;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Model.CommandSpec;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
+import picocli.CommandLine.Spec;
+
+/** {@code zweep run FILE} and {@code zweep run --resume DIR}: runs a sequence into a run folder. */
+@Command(
+        name = "run",
+        mixinStandardHelpOptions = true,
+        description = {
+            "Runs a sequence into a run folder (points.csv, run.json, sequence.yaml), or resumes one.",
+            "Every point is written and synced as it is measured. Ctrl-C stops after the point in "
+                + "progress, turns DC bias off and leaves a resumable folder; a second Ctrl-C stops at once "
+                + "(bias off first). A lost link is reconnected with back-off and the point measured again."
+        },
+        footer = ExitCode.HELP_LIST + "  130 stopped by Ctrl-C (resumable)%n")
+public final class RunCommand implements Callable<Integer> {
+
+    @Spec
+    CommandSpec spec;
+
+    @Parameters(index = "0", arity = "0..1", paramLabel = "FILE", description = "the sequence file (YAML)")
+    Path file;
+
+    @Option(names = "--meter", paramLabel = "ADDRESS", description = "use this meter instead of the sequence's "
+            + "(tcp://HOST[:PORT], serial:DEVICE, sim:BENCH_FILE[?timing=real|none])")
+    String meter;
+
+    @Option(names = "--dialect", paramLabel = "DIALECT", description = "the meter's dialect (name or file) instead of the sequence's")
+    String dialect;
+
+    @Option(names = "--out", paramLabel = "DIR", description = "the run folder to create (default: results/NAME-yyyyMMdd-HHmmss)")
+    Path out;
+
+    @Option(names = "--resume", paramLabel = "DIR", description = "continue the run in this folder (needs only the folder)")
+    Path resume;
+
+    @Option(names = "--yes", description = "answer operator prompts on a real meter without waiting")
+    boolean yes;
+
+    @Option(names = "--seed", paramLabel = "N", description = "the simulator's noise seed (default: the bench's; on resume: the run's)")
+    Long seed;
+
+    @Option(names = "--quiet", description = "no progress output")
+    boolean quiet;
+
+    @Option(names = "--trace", paramLabel = "FILE", description = "append the SCPI traffic to FILE")
+    Path trace;
+
+    @Option(names = "--timeout", paramLabel = "SECONDS", defaultValue = "10",
+            description = "the longest wait for a reply (default: ${DEFAULT-VALUE} s)")
+    double timeoutS;
+
+    @Option(names = "--reconnect-budget", paramLabel = "SECONDS", defaultValue = "60",
+            description = "give up reconnecting after this many seconds of waiting (default: ${DEFAULT-VALUE} s)")
+    double reconnectBudgetS;
+
+    @Override
+    public Integer call() {
+        if ((file == null) == (resume == null)) {
+            throw new InvalidInputException("give either a sequence FILE or --resume DIR");
+        }
+        if (resume != null && out != null) {
+            throw new InvalidInputException("--out cannot be used with --resume (the run continues in its folder)");
+        }
+        if (!(timeoutS > 0) || !(reconnectBudgetS >= 0)) {
+            throw new InvalidInputException("--timeout must be positive and --reconnect-budget not negative");
+        }
+        RunLauncher.Options o = new RunLauncher.Options(meter, dialect, out, Path.of("results"), yes, seed, quiet,
+                trace, timeoutS, reconnectBudgetS);
+        RunLauncher l = new RunLauncher(spec.commandLine().getOut(), spec.commandLine().getErr());
+        return resume != null ? l.resume(resume, o) : l.start(file, o);
+    }
+}

@@ -1,0 +1,241 @@
+package org.zweep.runner.cli;
+
+import java.io.BufferedReader;
+import java.io.IOException;
+import java.io.InputStreamReader;
+import java.io.PrintWriter;
+import java.io.UncheckedIOException;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.time.Clock;
+import java.time.Duration;
+import java.time.ZoneId;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+import org.zweep.driver.InvalidInputException;
+import org.zweep.driver.address.Address;
+import org.zweep.driver.address.SimAddress;
+import org.zweep.driver.impedance.Quantities;
+import org.zweep.driver.impedance.Unit;
+import org.zweep.driver.scpi.ScpiSettings;
+import org.zweep.runner.analysis.Analysis;
+import org.zweep.runner.analysis.CheckOutcome;
+import org.zweep.runner.analysis.RunData;
+import org.zweep.runner.compensation.CompensationWorkflow;
+import org.zweep.runner.engine.ConsoleProgress;
+import org.zweep.runner.engine.Interruption;
+import org.zweep.runner.engine.PointChecks;
+import org.zweep.runner.engine.ProgressListener;
+import org.zweep.runner.engine.Prompter;
+import org.zweep.runner.engine.ReconnectPolicy;
+import org.zweep.runner.engine.RunResult;
+import org.zweep.runner.engine.RunSession;
+import org.zweep.runner.engine.ScpiMeterLink;
+import org.zweep.runner.engine.SweepChecks;
+import org.zweep.runner.plan.CheckLimit;
+import org.zweep.runner.plan.MeterSpec;
+import org.zweep.runner.plan.Plan;
+import org.zweep.runner.results.RunFolder;
+import org.zweep.runner.results.RunManifest;
+import org.zweep.runner.safety.BiasOffHook;
+import org.zweep.runner.safety.SafetyGuard;
+import org.zweep.runner.sequence.SequenceLoader;
+import org.zweep.runner.sim.MeterLinks;
+
+/** What {@code zweep run} and {@code zweep demo} share: starting or resuming a run and summing it up. */
+final class RunLauncher {
+    /**
+     * Options of one run.
+     *
+     * @param meter an address overriding the sequence's, or {@code null}
+     * @param dialect a dialect overriding the sequence's, or {@code null}
+     * @param out the run folder to create, or {@code null} for a fresh one under {@code resultsDir}
+     * @param resultsDir where fresh run folders go
+     * @param yes answer operator prompts on real meters
+     * @param seed the simulator's seed, or {@code null}
+     * @param quiet no progress output
+     * @param trace a traffic trace file, or {@code null}
+     * @param timeoutS the meter's reply timeout in seconds
+     * @param reconnectBudgetS the most seconds spent reconnecting after one failure
+     */
+    record Options(String meter, String dialect, Path out, Path resultsDir, boolean yes, Long seed, boolean quiet,
+            Path trace, double timeoutS, double reconnectBudgetS) {
+    }
+
+    private final PrintWriter out;
+    private final PrintWriter err;
+
+    RunLauncher(PrintWriter out, PrintWriter err) {
+        this.out = out;
+        this.err = err;
+    }
+
+    /** Starts a new run of {@code sequenceFile}; returns the exit code. */
+    int start(Path sequenceFile, Options o) {
+        Plan plan = SequenceLoader.load(sequenceFile);
+        plan = withMeter(plan, o);
+        new SafetyGuard(plan.safety()).checkPlan(plan);
+        RunFolder folder = o.out() != null ? RunFolder.createAt(o.out(), sequenceFile)
+                : RunFolder.createUnder(o.resultsDir(), plan.name(), Clock.systemUTC().instant(),
+                        ZoneId.systemDefault(), sequenceFile);
+        copyBench(plan, sequenceFile, folder);
+        out.println("run folder: " + folder.dir());
+        return execute(plan, folder, false, sequenceFile.toAbsolutePath().toString(), o.seed(), o);
+    }
+
+    /** Resumes the run in {@code dir}; returns the exit code. */
+    int resume(Path dir, Options o) {
+        RunFolder folder = RunFolder.existing(dir);
+        RunManifest m = RunManifest.read(folder.manifest());
+        if ("completed".equals(m.outcome())) {
+            out.println(dir + ": the run is already complete (" + m.counts().measured() + " points); nothing to do");
+            return "fail".equals(m.verdict()) ? ExitCode.CHECK_FAILED : ExitCode.OK;
+        }
+        Plan plan;
+        try {
+            plan = SequenceLoader.load(folder.sequenceCopy());
+        } catch (InvalidInputException e) {
+            // a file the copy refers to is not in the folder: resolve against the original's place
+            try {
+                plan = SequenceLoader.parse(Files.readString(folder.sequenceCopy(), StandardCharsets.UTF_8),
+                        Path.of(m.sequence().file()));
+            } catch (IOException io) {
+                throw new UncheckedIOException(io);
+            }
+        }
+        String address = o.meter() != null ? o.meter() : m.meter().address();
+        String dialect = o.dialect() != null ? o.dialect() : m.meter().dialect();
+        plan = withMeter(plan, new Options(address, dialect, null, null, false, null, false, null, 0, 0));
+        new SafetyGuard(plan.safety()).checkPlan(plan);
+        out.println("resuming run folder: " + folder.dir());
+        return execute(plan, folder, true, m.sequence().file(), o.seed() != null ? o.seed() : m.seed(), o);
+    }
+
+    private int execute(Plan plan, RunFolder folder, boolean resuming, String sequenceFile, Long seed, Options o) {
+        ScpiSettings.Builder sb = ScpiSettings.builder().readTimeout(Duration.ofMillis((long) (o.timeoutS() * 1000)));
+        if (o.trace() != null) {
+            sb.tracePath(o.trace());
+        }
+        Interruption interruption = new Interruption();
+        boolean terminal = System.console() != null;
+        ProgressListener progress = o.quiet() ? ProgressListener.QUIET
+                : new ConsoleProgress(out, terminal, System::nanoTime, 5.0);
+        try (ScpiMeterLink link = MeterLinks.open(plan.meter().address(), plan.meter().dialect(), sb.build())) {
+            Prompter prompter = o.yes() ? Prompter.yes(out) : terminal
+                    ? Prompter.terminal(new BufferedReader(new InputStreamReader(System.in, StandardCharsets.UTF_8)),
+                            out)
+                    : Prompter.refusing();
+            Clock clock = Clock.systemUTC();
+            RunSession session = new RunSession(plan, link, new RunSession.Setup(folder, resuming, sequenceFile,
+                    plan.meter().dialect(), seed, ReconnectPolicy.DEFAULT.withBudgetS(o.reconnectBudgetS()), prompter,
+                    progress, interruption,
+                    (station, res, log) -> CompensationWorkflow.prepare(plan, station, folder, res, clock, log),
+                    RunLauncher::sweepChecks, clock, VersionProvider.version()));
+            RunSession.Summary s;
+            try (BiasOffHook hook = BiasOffHook.install(interruption, session::biasOffNow, err, 10_000)) {
+                s = session.run();
+            }
+            printSummary(folder, s);
+            return exitCode(s);
+        }
+    }
+
+    /** The whole-sweep checks (such as {@code srf_hz}) of a completed run, evaluated by the analysis. */
+    static List<SweepChecks.Outcome> sweepChecks(RunFolder folder, List<CheckLimit> whole) {
+        if (whole.isEmpty()) {
+            return List.of();
+        }
+        List<CheckOutcome> all = Analysis.evaluateChecks(RunData.read(folder.dir()));
+        List<SweepChecks.Outcome> out = new ArrayList<>();
+        for (CheckLimit l : whole) {
+            all.stream().filter(o -> o.name().equals(l.name())).findFirst().ifPresent(o -> out.add(
+                    new SweepChecks.Outcome(l, o.values().isEmpty() ? Double.NaN : o.values().get(0), o.passed())));
+        }
+        return out;
+    }
+
+    static int exitCode(RunSession.Summary s) {
+        return switch (s.result().outcome()) {
+            case COMPLETED -> "fail".equals(s.verdict()) ? ExitCode.CHECK_FAILED : ExitCode.OK;
+            case ABORTED -> BiasOffHook.EXIT_INTERRUPTED;
+            case FAILED -> ExitCode.METER;
+        };
+    }
+
+    void printSummary(RunFolder folder, RunSession.Summary s) {
+        RunResult r = s.result();
+        out.printf(Locale.ROOT, "results: %s%n", folder.dir());
+        out.printf(Locale.ROOT, "points: %d of %d measured (%s)%n", r.measured(), r.planned(), r.outcome().word());
+        for (String p : r.problems()) {
+            err.println("zweep: " + p);
+        }
+        if (r.outcome() != RunResult.Outcome.COMPLETED) {
+            err.println("zweep: the run folder is resumable: zweep run --resume " + folder.dir());
+        }
+        for (PointChecks.Outcome c : s.pointChecks()) {
+            CheckLimit l = c.limit();
+            out.printf(Locale.ROOT, "check %-22s %s at %s in %s = %s: %s%n", l.name(), l.parameter(),
+                    Quantities.format(l.frequencyHz(), Unit.HERTZ, 4), l.step(), value(l.parameter(), c.lastValue()),
+                    c.verdict());
+        }
+        for (SweepChecks.Outcome c : s.sweepChecks()) {
+            out.printf(Locale.ROOT, "check %-22s %s in %s = %s: %s%n", c.limit().name(), c.limit().parameter(),
+                    c.limit().step(), value(c.limit().parameter(), c.value()), c.passed() ? "pass" : "fail");
+        }
+        for (CheckLimit l : s.unevaluated()) {
+            out.printf(Locale.ROOT, "check %-22s %s in %s: not evaluated by the run (zweep analyze evaluates it)%n",
+                    l.name(), l.parameter(), l.step());
+        }
+        out.println("verdict: " + s.verdict());
+        out.flush();
+    }
+
+    static String value(String parameter, double v) {
+        if (Double.isNaN(v)) {
+            return "no value";
+        }
+        Unit u = switch (parameter) {
+            case "cs_f", "cp_f" -> Unit.FARAD;
+            case "ls_h", "lp_h" -> Unit.HENRY;
+            case "r_ohm", "x_ohm", "z_ohm", "rs_ohm", "rp_ohm" -> Unit.OHM;
+            case "srf_hz", "frequency_hz" -> Unit.HERTZ;
+            default -> Unit.NONE;
+        };
+        return Quantities.format(v, u, 4);
+    }
+
+    private static Plan withMeter(Plan plan, Options o) {
+        if (o.meter() == null && o.dialect() == null) {
+            return plan;
+        }
+        MeterSpec m = new MeterSpec(o.meter() != null ? o.meter() : plan.meter().address(),
+                o.dialect() != null ? o.dialect() : plan.meter().dialect());
+        Address.parse(m.address());
+        return new Plan(plan.name(), plan.source(), m, plan.safety(), plan.fixture(), plan.part(), plan.steps(),
+                plan.checks());
+    }
+
+    /** Copies a sim: bench file that lies under the sequence's folder to the same place in the run folder. */
+    private static void copyBench(Plan plan, Path sequenceFile, RunFolder folder) {
+        Address a = Address.parse(plan.meter().address());
+        if (!(a instanceof SimAddress sim)) {
+            return;
+        }
+        String bench = sim.bench();
+        int q = bench.indexOf('?');
+        Path file = Path.of(q >= 0 ? bench.substring(0, q) : bench).toAbsolutePath().normalize();
+        Path base = sequenceFile.toAbsolutePath().getParent();
+        if (base == null || !file.startsWith(base) || !Files.isRegularFile(file)) {
+            return;
+        }
+        Path target = folder.dir().resolve(base.relativize(file));
+        try {
+            Files.createDirectories(target.getParent());
+            Files.copy(file, target);
+        } catch (IOException e) {
+            throw new UncheckedIOException("cannot copy the bench file into " + folder.dir() + ": " + e.getMessage(), e);
+        }
+    }
+}

@@ -1,0 +1,136 @@
+package org.zweep.runner.compensation;
+
+import com.fasterxml.jackson.core.JsonProcessingException;
+import com.fasterxml.jackson.databind.DeserializationFeature;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.databind.PropertyNamingStrategies;
+import com.fasterxml.jackson.databind.SerializationFeature;
+import java.io.IOException;
+import java.io.UncheckedIOException;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.time.Instant;
+import java.util.ArrayList;
+import java.util.List;
+import org.zweep.driver.InvalidInputException;
+import org.zweep.driver.meter.CorrectionStandard;
+
+/**
+ * Host-side compensation data: each standard's reading at each frequency, with the time and the
+ * settings it was measured at. Stored as {@code NAME.csv} (columns {@code standard,
+ * frequency_hz, r_ohm, x_ohm, time}) with a sidecar {@code NAME.json} describing the settings.
+ *
+ * @param info when, on which meter and how the standards were measured
+ * @param entries the readings, grouped by standard, ascending in frequency within a standard
+ */
+public record CompensationData(Info info, List<Entry> entries) {
+    /** The CSV header. */
+    public static final String HEADER = "standard,frequency_hz,r_ohm,x_ohm,time";
+    /** The sidecar's format tag. */
+    public static final String FORMAT = "zweep-compensation/1";
+
+    private static final ObjectMapper JSON = new ObjectMapper()
+            .setPropertyNamingStrategy(PropertyNamingStrategies.SNAKE_CASE)
+            .enable(SerializationFeature.INDENT_OUTPUT)
+            .disable(DeserializationFeature.FAIL_ON_UNKNOWN_PROPERTIES);
+
+    public CompensationData {
+        entries = List.copyOf(entries);
+    }
+
+    /**
+     * What the data was measured with.
+     *
+     * @param format {@link #FORMAT}
+     * @param time when the measurement of the standards finished (ISO-8601)
+     * @param meter the meter's identity
+     * @param connection {@code TWO_TERMINAL} or {@code FOUR_TERMINAL}
+     * @param standards the standards measured, in order
+     * @param loadROhm the load standard's known resistance ({@code null} without LOAD)
+     * @param loadXOhm the load standard's known reactance ({@code null} without LOAD)
+     * @param drive {@code V} or {@code A}
+     * @param level the drive level in V rms or A rms
+     * @param averaging the averaging count
+     * @param integrationS the integration time in seconds
+     */
+    public record Info(String format, String time, String meter, String connection, List<String> standards,
+            Double loadROhm, Double loadXOhm, String drive, double level, int averaging, double integrationS) {
+    }
+
+    /** One standard's reading at one frequency. */
+    public record Entry(CorrectionStandard standard, double frequencyHz, double rOhm, double xOhm, Instant time) {
+    }
+
+    /** When the data was measured. */
+    public Instant time() {
+        return Instant.parse(info.time());
+    }
+
+    /** The entries of {@code standard}, ascending in frequency. */
+    public List<Entry> of(CorrectionStandard standard) {
+        return entries.stream().filter(e -> e.standard() == standard)
+                .sorted(java.util.Comparator.comparingDouble(Entry::frequencyHz)).toList();
+    }
+
+    /** Writes {@code csv} and its sidecar (same name, {@code .json}). */
+    public void write(Path csv) {
+        StringBuilder b = new StringBuilder(HEADER).append('\n');
+        for (Entry e : entries) {
+            b.append(e.standard()).append(',').append(e.frequencyHz()).append(',').append(e.rOhm()).append(',')
+                    .append(e.xOhm()).append(',').append(e.time()).append('\n');
+        }
+        try {
+            Files.createDirectories(csv.toAbsolutePath().getParent());
+            Files.writeString(csv, b, StandardCharsets.UTF_8);
+            Files.writeString(sidecar(csv), JSON.writeValueAsString(info) + "\n", StandardCharsets.UTF_8);
+        } catch (IOException e) {
+            throw new UncheckedIOException("cannot write " + csv + ": " + e.getMessage(), e);
+        }
+    }
+
+    /**
+     * Reads data written by {@link #write}.
+     *
+     * @throws InvalidInputException naming the file and line of what is malformed
+     */
+    public static CompensationData read(Path csv) {
+        Info info;
+        List<String> lines;
+        try {
+            info = JSON.readValue(sidecar(csv).toFile(), Info.class);
+            lines = Files.readAllLines(csv, StandardCharsets.UTF_8);
+        } catch (JsonProcessingException e) {
+            throw new InvalidInputException(sidecar(csv) + ": not valid compensation settings: "
+                    + e.getOriginalMessage());
+        } catch (IOException e) {
+            throw new InvalidInputException(csv + ": cannot read compensation data: " + e.getMessage());
+        }
+        if (!FORMAT.equals(info.format())) {
+            throw new InvalidInputException(sidecar(csv) + ": format is " + info.format() + ", expected " + FORMAT);
+        }
+        if (lines.isEmpty() || !lines.get(0).equals(HEADER)) {
+            throw new InvalidInputException(csv + ":1: expected the header " + HEADER);
+        }
+        List<Entry> entries = new ArrayList<>();
+        for (int i = 1; i < lines.size(); i++) {
+            String[] c = lines.get(i).split(",", -1);
+            try {
+                if (c.length != 5) {
+                    throw new IllegalArgumentException("expected 5 cells, found " + c.length);
+                }
+                entries.add(new Entry(CorrectionStandard.valueOf(c[0]), Double.parseDouble(c[1]),
+                        Double.parseDouble(c[2]), Double.parseDouble(c[3]), Instant.parse(c[4])));
+            } catch (RuntimeException e) {
+                throw new InvalidInputException(csv + ":" + (i + 1) + ": malformed row: " + e.getMessage());
+            }
+        }
+        return new CompensationData(info, entries);
+    }
+
+    static Path sidecar(Path csv) {
+        String name = csv.getFileName().toString();
+        String base = name.endsWith(".csv") ? name.substring(0, name.length() - 4) : name;
+        return csv.resolveSibling(base + ".json");
+    }
+}

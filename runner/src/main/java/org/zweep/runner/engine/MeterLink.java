@@ -1,0 +1,41 @@
+package org.zweep.runner.engine;
+
+import java.util.Optional;
+import org.zweep.driver.MeterException;
+import org.zweep.driver.meter.Meter;
+
+/**
+ * The connection to one meter, which can be re-opened after it broke.
+ *
+ * <p>Used by one thread at a time, except that {@link #meter()} may be called from a shutdown
+ * hook to turn bias off.
+ */
+public interface MeterLink extends AutoCloseable {
+
+    /** The address, as the user wrote it (for messages). */
+    String address();
+
+    /** The meter on the current connection. */
+    Meter meter();
+
+    /**
+     * Closes the current connection (quietly) and opens a new one.
+     *
+     * @return the meter on the new connection
+     * @throws MeterException when the meter cannot be reached
+     */
+    Meter reconnect();
+
+    /**
+     * Whether {@code e} means the link broke or timed out (worth reconnecting), as opposed to an
+     * error the meter reported or a reply that made no sense.
+     */
+    boolean isLinkFailure(MeterException e);
+
+    /** The simulator's own controls, when the meter is the zweep simulator; empty otherwise. */
+    Optional<SimulatorControl> simulator();
+
+    /** Turns bias off (best effort) and closes the connection; never throws. */
+    @Override
+    void close();
+}

@@ -1,0 +1,26 @@
+package org.zweep.runner.engine;
+
+import org.zweep.runner.results.PointRow;
+
+/** Hears how a run goes, to show progress. Called from the engine's thread; every method does nothing by default. */
+public interface ProgressListener {
+    /** Shows nothing ({@code --quiet}). */
+    ProgressListener QUIET = new ProgressListener() {
+    };
+
+    /** The run starts with {@code done} of {@code total} points already on disk. */
+    default void started(int total, int done) {
+    }
+
+    /** A point was written; {@code done} of {@code total} are on disk now. */
+    default void measured(PointRow row, int done, int total) {
+    }
+
+    /** A one-line note for the operator (reconnects, prompts, warnings). */
+    default void note(String line) {
+    }
+
+    /** The run ended (for whatever reason); release the display. */
+    default void finished() {
+    }
+}

@@ -1,0 +1,13 @@
+package org.zweep.runner.engine;
+
+import org.zweep.runner.results.PointRow;
+
+/** Where the engine puts each finished row. */
+@FunctionalInterface
+public interface RowSink {
+    /**
+     * Takes one row. When {@code lastOfTrigger} is true the row (and every row before it) must be
+     * durable on return; rows of one list sweep arrive together and may be synced once, with the last.
+     */
+    void write(PointRow row, boolean lastOfTrigger);
+}

@@ -1,0 +1,192 @@
+package org.zweep.runner.engine;
+
+import java.util.ArrayList;
+import java.util.BitSet;
+import java.util.List;
+import java.util.Locale;
+import org.zweep.driver.MeterException;
+import org.zweep.driver.impedance.Impedance;
+import org.zweep.driver.meter.MeasuredQuantity;
+import org.zweep.driver.meter.MeasurementSetting;
+import org.zweep.driver.meter.Reading;
+import org.zweep.driver.meter.ReadingStatus;
+import org.zweep.runner.plan.Plan;
+import org.zweep.runner.plan.PlannedPoint;
+import org.zweep.runner.plan.PlannedStep;
+import org.zweep.runner.results.Derived;
+import org.zweep.runner.results.PointRow;
+
+/**
+ * Measures a plan's points in the plan's order, skipping those already on disk, and hands each
+ * finished row to a sink as soon as it is read. Uses the meter's list sweep for runs of points
+ * that differ only in frequency when the meter has one, point by point otherwise. A meter-reported
+ * error stops the step it happened in (the next steps still run); a lost link that cannot be
+ * re-opened, a safety refusal or a stop request stops the run. DC bias is off when
+ * {@link #run} returns or throws. Not thread-safe; one run per engine.
+ */
+public final class RunEngine {
+    private final Plan plan;
+    private final Station station;
+    private final ReadingCorrector corrector;
+    private final PointChecks checks;
+    private final ProgressListener progress;
+    private final Interruption interruption;
+
+    /**
+     * @param plan what to measure
+     * @param station the bench (already started)
+     * @param corrector host-side fixture correction, or {@link ReadingCorrector#NONE}
+     * @param checks the point checks; rows already on disk must have been counted into it
+     * @param progress where progress goes
+     * @param interruption stop requests
+     */
+    public RunEngine(Plan plan, Station station, ReadingCorrector corrector, PointChecks checks,
+            ProgressListener progress, Interruption interruption) {
+        this.plan = plan;
+        this.station = station;
+        this.corrector = corrector;
+        this.checks = checks;
+        this.progress = progress;
+        this.interruption = interruption;
+    }
+
+    /**
+     * Runs the plan.
+     *
+     * @param done the indices of points already on disk; updated as points are written
+     * @param sink receives each new row (with its check outcome); rows of one trigger (a point, or
+     *     a whole list sweep) are made durable together, with the last of them
+     * @return how the run ended
+     */
+    public RunResult run(BitSet done, RowSink sink) {
+        int total = plan.points().size();
+        List<String> problems = new ArrayList<>();
+        RunResult.Outcome outcome = RunResult.Outcome.COMPLETED;
+        progress.started(total, done.cardinality());
+        try {
+            for (PlannedStep step : plan.steps()) {
+                if (step.points().stream().allMatch(p -> done.get(p.index()))) {
+                    continue;
+                }
+                stopIfRequested();
+                try {
+                    runStep(step, done, sink, total);
+                } catch (LinkLostException e) {
+                    throw e;
+                } catch (MeterException e) {
+                    String line = "step '" + step.name() + "' stopped: " + e.getMessage();
+                    problems.add(line);
+                    progress.note(line);
+                    station.biasOffNow();
+                }
+            }
+            if (!problems.isEmpty()) {
+                outcome = RunResult.Outcome.FAILED;
+            }
+        } catch (RunInterruptedException e) {
+            outcome = RunResult.Outcome.ABORTED;
+            problems.add("stopped: " + e.getMessage());
+        } catch (LinkLostException e) {
+            outcome = RunResult.Outcome.FAILED;
+            problems.add(e.getMessage());
+        } finally {
+            if (!station.biasOffNow()) {
+                progress.note("WARNING: could not confirm that DC bias is off on " + station.address()
+                        + "; check the meter before touching the part");
+            }
+            progress.finished();
+        }
+        return new RunResult(outcome, total, done.cardinality(), problems);
+    }
+
+    private void runStep(PlannedStep step, BitSet done, RowSink sink, int total) {
+        station.fit(SimulatorControl.Slot.DEVICE, step.prompt(), step.bias(), step.points().get(0).wiring());
+        int max = station.capabilities() == null ? 0 : station.capabilities().maxListPoints();
+        for (List<PlannedPoint> chunk : chunks(step.points(), max)) {
+            stopIfRequested();
+            if (chunk.stream().allMatch(p -> done.get(p.index()))) {
+                continue;
+            }
+            PlannedPoint first = chunk.get(0);
+            station.connect(first.wiring(), step.bias());
+            List<Reading> readings;
+            if (chunk.size() == 1) {
+                readings = List.of(station.measure(first.setting(), step.bias(), first.delayS(), first.index()));
+            } else {
+                readings = station.measureList(chunk.stream().map(PlannedPoint::setting).toList(), step.bias(),
+                        first.index());
+                if (readings.size() != chunk.size()) {
+                    throw new MeterException("the meter returned " + readings.size() + " readings for a list of "
+                            + chunk.size() + " points");
+                }
+            }
+            int last = chunk.size() - 1;
+            while (last > 0 && done.get(chunk.get(last).index())) {
+                last--;
+            }
+            for (int i = 0; i < chunk.size(); i++) {
+                PlannedPoint p = chunk.get(i);
+                if (done.get(p.index())) {
+                    continue;
+                }
+                PointRow row = row(p, step, corrector.correct(readings.get(i)));
+                row = row.withCheck(checks.evaluate(row));
+                sink.write(row, i == last);
+                done.set(p.index());
+                progress.measured(row, done.cardinality(), total);
+            }
+        }
+        station.rampBiasOff(step.bias());
+    }
+
+    private void stopIfRequested() {
+        if (interruption.requested()) {
+            throw new RunInterruptedException(interruption.reason());
+        }
+    }
+
+    /**
+     * Splits a step's points into runs measured with one trigger: consecutive points that differ
+     * only in frequency, without their own delay, at most {@code maxList} long. With no list
+     * sweep ({@code maxList} below 2), every point is its own run. The split depends only on the
+     * plan, so a resumed run measures the same lists (and draws the same simulator noise).
+     */
+    static List<List<PlannedPoint>> chunks(List<PlannedPoint> points, int maxList) {
+        List<List<PlannedPoint>> out = new ArrayList<>();
+        List<PlannedPoint> cur = new ArrayList<>();
+        for (PlannedPoint p : points) {
+            boolean joins = maxList >= 2 && !cur.isEmpty() && cur.size() < maxList && p.delayS() == 0.0
+                    && listCompatible(cur.get(0), p);
+            if (!joins && !cur.isEmpty()) {
+                out.add(cur);
+                cur = new ArrayList<>();
+            }
+            cur.add(p);
+        }
+        if (!cur.isEmpty()) {
+            out.add(cur);
+        }
+        return out;
+    }
+
+    private static boolean listCompatible(PlannedPoint a, PlannedPoint b) {
+        MeasurementSetting x = a.setting();
+        MeasurementSetting y = b.setting();
+        return a.stepIndex() == b.stepIndex() && a.repeat() == b.repeat() && a.wiring() == b.wiring()
+                && x.withFrequencyHz(y.frequencyHz()).equals(y);
+    }
+
+    /** The result row for point {@code p} of {@code step} read as {@code r}. */
+    static PointRow row(PlannedPoint p, PlannedStep step, Reading r) {
+        MeasurementSetting s = r.setting() != null ? r.setting() : p.setting();
+        boolean ratio = s.quantity() == MeasuredQuantity.VOLTAGE_RATIO;
+        boolean ok = r.status() == ReadingStatus.OK;
+        double re = ok ? r.real() : Double.NaN;
+        double im = ok ? r.imaginary() : Double.NaN;
+        Derived derived = ok && !ratio ? Derived.of(new Impedance(s.frequencyHz(), re, im)) : Derived.NONE;
+        return new PointRow(p.index(), step.name(), p.stepIndex(), p.repeat(), ratio ? "voltage_ratio" : "impedance",
+                p.wiring().name().toLowerCase(Locale.ROOT), s.frequencyHz(), s.drive().mode().unit(),
+                s.drive().levelRms(), s.bias().mode().unit(), s.bias().appliedValue(), re, im, derived,
+                ratio && ok ? Math.hypot(re, im) : Double.NaN, ok ? "ok" : "no_value", "", r.timestamp());
+    }
+}

@@ -1,0 +1,215 @@
+package org.zweep.runner.engine;
+
+import java.net.InetAddress;
+import java.net.UnknownHostException;
+import java.time.Clock;
+import java.util.ArrayList;
+import java.util.BitSet;
+import java.util.List;
+import java.util.Locale;
+import java.util.function.Consumer;
+import org.zweep.driver.InvalidInputException;
+import org.zweep.driver.MeterException;
+import org.zweep.runner.plan.CheckLimit;
+import org.zweep.runner.plan.Part;
+import org.zweep.runner.plan.Plan;
+import org.zweep.runner.plan.PlannedPoint;
+import org.zweep.runner.results.PointsCsvReader;
+import org.zweep.runner.results.PointsCsvWriter;
+import org.zweep.runner.results.RunFolder;
+import org.zweep.runner.results.RunManifest;
+import org.zweep.runner.safety.SafetyGuard;
+
+/**
+ * One run (or resumed run) into a run folder, from start to verdict: checks the plan against its
+ * safety limits, reads back what is already on disk, starts the station, prepares compensation,
+ * runs the engine, evaluates the checks and keeps {@code run.json} up to date. DC bias is off on
+ * every way out. Not thread-safe; one run per session.
+ */
+public final class RunSession {
+
+    /**
+     * Everything a run needs besides the plan and the meter.
+     *
+     * @param folder the run folder (fresh, or existing when {@code resuming})
+     * @param resuming whether this continues a run already in {@code folder}
+     * @param sequenceFile the original sequence file (for {@code run.json})
+     * @param dialect the dialect name or file in use
+     * @param seed the simulator's seed to use; {@code null} keeps (and records) the simulator's own
+     * @param reconnect how to reconnect after a lost link
+     * @param prompter asks the operator (not used on the simulator)
+     * @param progress where progress goes
+     * @param interruption stop requests (Ctrl-C, shutdown)
+     * @param compensation prepares fixture compensation
+     * @param sweepChecks evaluates whole-sweep checks at the end
+     * @param clock the wall clock
+     * @param version the software version
+     */
+    public record Setup(RunFolder folder, boolean resuming, String sequenceFile, String dialect, Long seed,
+            ReconnectPolicy reconnect, Prompter prompter, ProgressListener progress, Interruption interruption,
+            FixtureCompensation compensation, SweepChecks sweepChecks, Clock clock, String version) {
+    }
+
+    /**
+     * How the run ended.
+     *
+     * @param result the engine's result
+     * @param pointChecks the outcome of each point check
+     * @param sweepChecks the outcome of each whole-sweep check that was evaluated
+     * @param unevaluated whole-sweep checks nothing evaluated
+     * @param manifest the final manifest
+     */
+    public record Summary(RunResult result, List<PointChecks.Outcome> pointChecks,
+            List<SweepChecks.Outcome> sweepChecks, List<CheckLimit> unevaluated, RunManifest manifest) {
+        /** {@code pass} when completed and every evaluated check passed, {@code fail}, or {@code none} when not completed. */
+        public String verdict() {
+            return manifest.verdict();
+        }
+    }
+
+    private final Plan plan;
+    private final MeterLink link;
+    private final Setup setup;
+    private Station station;
+
+    /** A session running {@code plan} on {@code link} as {@code setup} says. */
+    public RunSession(Plan plan, MeterLink link, Setup setup) {
+        this.plan = plan;
+        this.link = link;
+        this.setup = setup;
+    }
+
+    /** Turns bias off now (for a shutdown hook); never throws. */
+    public boolean biasOffNow() {
+        Station s = station;
+        if (s != null) {
+            return s.biasOffNow();
+        }
+        try {
+            link.meter().biasOff();
+            return true;
+        } catch (RuntimeException e) {
+            return false;
+        }
+    }
+
+    /**
+     * Runs to the end, to a stop request or to a failure.
+     *
+     * @throws InvalidInputException when the plan or the folder's data cannot be used (bias is off)
+     * @throws MeterException when the meter fails before the first point (bias is off)
+     */
+    public Summary run() {
+        RunFolder folder = setup.folder();
+        SafetyGuard guard = new SafetyGuard(plan.safety());
+        guard.checkPlan(plan);
+        List<PlannedPoint> points = plan.points();
+        PointChecks checks = new PointChecks(plan.checks());
+        BitSet done = new BitSet(points.size());
+        PointsCsvReader.Recovery rec = PointsCsvReader.recover(folder.points(), row -> {
+            if (row.point() < 0 || row.point() >= points.size()
+                    || points.get(row.point()).stepIndex() != row.stepIndex()) {
+                throw new InvalidInputException(folder.points() + ": point " + row.point()
+                        + " does not belong to this sequence's plan");
+            }
+            if (!done.get(row.point())) {
+                done.set(row.point());
+                checks.evaluate(row);
+            }
+        });
+        ProgressListener progress = setup.progress();
+        if (rec.tornLineDropped()) {
+            progress.note("resume: dropped an incomplete last line of " + folder.points()
+                    + " (the point being written when the run stopped); it is measured again");
+        }
+        Consumer<String> log = progress::note;
+        Interruption interruption = setup.interruption();
+        boolean sim = link.simulator().isPresent();
+        boolean waits = !sim || link.simulator().get().realTiming();
+        Waiter waiter = waits ? Waiter.sleeping(interruption) : Waiter.none(interruption);
+        station = new Station(link, guard, setup.prompter(), waiter, setup.reconnect(), log);
+        RunManifest manifest = null;
+        try (PointsCsvWriter writer = PointsCsvWriter.open(folder.points())) {
+            Long seed = setup.seed();
+            if (seed == null && sim) {
+                seed = link.simulator().get().seed();
+            }
+            station.start(seed);
+            SafetyGuard.checkCapabilities(plan, station.capabilities(), "dialect " + setup.dialect());
+            manifest = manifest(seed);
+            manifest.write(folder.manifest());
+            ReadingCorrector corrector = ReadingCorrector.NONE;
+            if (done.cardinality() < points.size()) {
+                FixtureCompensation.Prepared comp = setup.compensation().prepare(station, setup.resuming(), log);
+                corrector = comp.corrector();
+                manifest = manifest.withCompensation(comp.info());
+                manifest.write(folder.manifest());
+            }
+            RunResult result = new RunEngine(plan, station, corrector, checks, progress, interruption)
+                    .run(done, writer::append);
+            List<SweepChecks.Outcome> sweep = List.of();
+            List<CheckLimit> unevaluated = new ArrayList<>(checks.wholeSweep());
+            String verdict = "none";
+            if (result.outcome() == RunResult.Outcome.COMPLETED) {
+                writer.close();
+                sweep = setup.sweepChecks().evaluate(folder, checks.wholeSweep());
+                sweep.forEach(o -> unevaluated.remove(o.limit()));
+                boolean pass = checks.allPassed() && sweep.stream().allMatch(SweepChecks.Outcome::passed);
+                verdict = plan.checks().isEmpty() ? "none" : pass ? "pass" : "fail";
+            }
+            manifest = manifest.finished(result.outcome().word(), setup.clock().instant().toString(),
+                    new RunManifest.Counts(points.size(), done.cardinality()), verdict);
+            manifest.write(folder.manifest());
+            return new Summary(result, checks.outcomes(), sweep, unevaluated, manifest);
+        } catch (RuntimeException e) {
+            station.biasOffNow();
+            if (manifest != null) {
+                manifest.finished("failed", setup.clock().instant().toString(),
+                        new RunManifest.Counts(points.size(), done.cardinality()), "none").write(folder.manifest());
+            }
+            throw e;
+        } finally {
+            interruption.markStopped();
+        }
+    }
+
+    private RunManifest manifest(Long seed) {
+        RunFolder folder = setup.folder();
+        RunManifest.MeterInfo meter = new RunManifest.MeterInfo(link.address(), setup.dialect(),
+                station.identity().toString());
+        if (setup.resuming()) {
+            RunManifest old = RunManifest.read(folder.manifest());
+            return new RunManifest(old.format(), old.sequence(), old.part(), old.steps(), old.checks(), meter,
+                    old.compensation(), old.software(), old.host(), seed, old.started(), null, old.counts(),
+                    "running", "none");
+        }
+        Part p = plan.part();
+        List<RunManifest.StepInfo> steps = plan.steps().stream()
+                .map(s -> new RunManifest.StepInfo(s.index(), s.name(), s.points().size())).toList();
+        List<RunManifest.CheckInfo> checks = plan.checks().stream()
+                .map(c -> new RunManifest.CheckInfo(c.name(), c.parameter(), c.step(), finite(c.frequencyHz()),
+                        finite(c.min()), finite(c.max()))).toList();
+        return new RunManifest(RunManifest.FORMAT,
+                new RunManifest.SequenceInfo(plan.name(), setup.sequenceFile(), RunFolder.sha256(folder.sequenceCopy()),
+                        RunFolder.SEQUENCE_COPY),
+                new RunManifest.PartInfo(p.kind().name().toLowerCase(Locale.ROOT), p.name(), finite(p.nominal()),
+                        p.nominalUnit(), finite(p.tolerancePercent()), finite(p.turnsRatio())),
+                steps, checks, meter, new RunManifest.CompensationInfo("none", List.of(), null),
+                new RunManifest.SoftwareInfo("zweep", setup.version()), host(), seed,
+                setup.clock().instant().toString(), null, new RunManifest.Counts(plan.points().size(), 0), "running",
+                "none");
+    }
+
+    private static Double finite(double v) {
+        return Double.isFinite(v) ? v : null;
+    }
+
+    private static String host() {
+        try {
+            return InetAddress.getLocalHost().getHostName();
+        } catch (UnknownHostException e) {
+            String h = System.getenv("HOSTNAME");
+            return h == null ? "unknown" : h;
+        }
+    }
+}

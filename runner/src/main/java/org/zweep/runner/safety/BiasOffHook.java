@@ -1,0 +1,133 @@
+package org.zweep.runner.safety;
+
+import java.io.PrintWriter;
+import java.lang.reflect.InvocationHandler;
+import java.lang.reflect.Method;
+import java.lang.reflect.Proxy;
+import java.util.concurrent.atomic.AtomicInteger;
+import java.util.function.BooleanSupplier;
+import org.zweep.runner.engine.Interruption;
+
+/**
+ * Keeps DC bias off when a run is stopped from outside. While installed:
+ * <ul>
+ *   <li>the first Ctrl-C (SIGINT) asks the run to stop after the point in progress; the run then
+ *       turns bias off, writes everything and leaves a resumable folder;</li>
+ *   <li>a second Ctrl-C turns bias off at once and exits with code 130;</li>
+ *   <li>JVM shutdown (SIGTERM, {@code System.exit}) asks the run to stop, waits up to
+ *       {@code graceMillis} for it, and turns bias off itself if the run did not stop in time.</li>
+ * </ul>
+ * Signal handling uses the JDK's {@code sun.misc.Signal} when present (looked up reflectively);
+ * without it, Ctrl-C is handled as JVM shutdown. {@link #close()} restores the previous handlers.
+ */
+public final class BiasOffHook implements AutoCloseable {
+    /** Exit code after a second Ctrl-C (128 + SIGINT). */
+    public static final int EXIT_INTERRUPTED = 130;
+
+    private final Interruption interruption;
+    private final BooleanSupplier biasOff;
+    private final PrintWriter err;
+    private final long graceMillis;
+    private final Thread hook;
+    private final AtomicInteger signals = new AtomicInteger();
+    private Object previousInt;
+
+    private BiasOffHook(Interruption interruption, BooleanSupplier biasOff, PrintWriter err, long graceMillis) {
+        this.interruption = interruption;
+        this.biasOff = biasOff;
+        this.err = err;
+        this.graceMillis = graceMillis;
+        this.hook = new Thread(this::onShutdown, "zweep-bias-off");
+    }
+
+    /**
+     * Installs the hook and the Ctrl-C handler.
+     *
+     * @param interruption the run's stop request, marked stopped by the run when done
+     * @param biasOff turns bias off now and tells whether the meter confirmed; must not throw
+     * @param err where to tell the operator what is happening
+     * @param graceMillis how long JVM shutdown waits for the run to stop by itself
+     */
+    public static BiasOffHook install(Interruption interruption, BooleanSupplier biasOff, PrintWriter err,
+            long graceMillis) {
+        BiasOffHook h = new BiasOffHook(interruption, biasOff, err, graceMillis);
+        Runtime.getRuntime().addShutdownHook(h.hook);
+        h.previousInt = h.trap("INT");
+        return h;
+    }
+
+    /** Handles one Ctrl-C as the signal handler does (exposed for tests of the sequence of events). */
+    void onInterrupt() {
+        if (signals.incrementAndGet() == 1) {
+            err.println();
+            err.println("zweep: stopping after the point in progress (Ctrl-C again to stop at once)");
+            err.flush();
+            interruption.request("Ctrl-C");
+        } else {
+            boolean off = biasOff.getAsBoolean();
+            err.println(off ? "zweep: stopped at once; DC bias is off" : "zweep: stopped at once; could NOT confirm"
+                    + " that DC bias is off - check the meter before touching the part");
+            err.flush();
+            Runtime.getRuntime().halt(EXIT_INTERRUPTED);
+        }
+    }
+
+    private void onShutdown() {
+        if (interruption.isStopped()) {
+            return;
+        }
+        interruption.request("shutting down");
+        if (!interruption.awaitStopped(graceMillis)) {
+            biasOff.getAsBoolean();
+        }
+    }
+
+    private Object trap(String name) {
+        try {
+            Class<?> signal = Class.forName("sun.misc.Signal");
+            Class<?> handler = Class.forName("sun.misc.SignalHandler");
+            Object sig = signal.getConstructor(String.class).newInstance(name);
+            InvocationHandler ih = (Object proxy, Method m, Object[] args) -> {
+                if (m.getName().equals("handle")) {
+                    onInterrupt();
+                    return null;
+                }
+                return switch (m.getName()) {
+                    case "hashCode" -> System.identityHashCode(proxy);
+                    case "equals" -> proxy == args[0];
+                    case "toString" -> "zweep Ctrl-C handler";
+                    default -> null;
+                };
+            };
+            Object h = Proxy.newProxyInstance(handler.getClassLoader(), new Class<?>[] {handler}, ih);
+            return signal.getMethod("handle", signal, handler).invoke(null, sig, h);
+        } catch (ReflectiveOperationException | RuntimeException | LinkageError e) {
+            return null;
+        }
+    }
+
+    private void restore(String name, Object previous) {
+        if (previous == null) {
+            return;
+        }
+        try {
+            Class<?> signal = Class.forName("sun.misc.Signal");
+            Class<?> handler = Class.forName("sun.misc.SignalHandler");
+            Object sig = signal.getConstructor(String.class).newInstance(name);
+            signal.getMethod("handle", signal, handler).invoke(null, sig, previous);
+        } catch (ReflectiveOperationException | RuntimeException | LinkageError e) {
+            // the previous handler stays replaced; the process is ending its run anyway
+        }
+    }
+
+    /** Removes the shutdown hook and restores the previous Ctrl-C handler. */
+    @Override
+    public void close() {
+        try {
+            Runtime.getRuntime().removeShutdownHook(hook);
+        } catch (IllegalStateException e) {
+            // the JVM is already shutting down: the hook is running or has run
+        }
+        restore("INT", previousInt);
+    }
+}

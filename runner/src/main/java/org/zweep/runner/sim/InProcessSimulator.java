@@ -1,0 +1,126 @@
+package org.zweep.runner.sim;
+
+import java.io.IOException;
+import java.io.UncheckedIOException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.Locale;
+import org.zweep.driver.InvalidInputException;
+import org.zweep.driver.address.Address;
+import org.zweep.driver.address.SimAddress;
+import org.zweep.driver.scpi.ScpiClient;
+import org.zweep.driver.scpi.ScpiSession;
+import org.zweep.driver.scpi.ScpiSettings;
+import org.zweep.driver.transport.Transport;
+import org.zweep.simulator.SimulatorInputException;
+import org.zweep.simulator.bench.BenchSpec;
+import org.zweep.simulator.bench.SimulatedBench;
+import org.zweep.simulator.bench.Timing;
+import org.zweep.simulator.scpi.InstrumentOptions;
+import org.zweep.simulator.scpi.TimingModel;
+import org.zweep.simulator.server.InMemoryConnection;
+import org.zweep.simulator.server.ServerOptions;
+import org.zweep.simulator.server.SimulatorServer;
+
+/**
+ * One simulated meter in this process, loaded from a bench file, served to any number of
+ * in-memory connections (each like a TCP connection: own parser, faults, noise-key counter).
+ *
+ * <p>The address form is {@code sim:BENCH_FILE[?timing=real|none]}: without {@code timing} the
+ * bench file's own timing model is used. Thread-safe; {@link #close()} stops the meter.
+ */
+public final class InProcessSimulator implements AutoCloseable {
+    private final String address;
+    private final SimulatorServer server;
+
+    private InProcessSimulator(String address, SimulatorServer server) {
+        this.address = address;
+        this.server = server;
+    }
+
+    /**
+     * Loads the bench named by a {@code sim:} address and starts its meter.
+     *
+     * @throws InvalidInputException when the address has no bench file, the file is missing or
+     *     invalid, or {@code timing} is not {@code real} or {@code none}
+     */
+    public static InProcessSimulator start(String address) {
+        Address a = Address.parse(address);
+        if (!(a instanceof SimAddress sim)) {
+            throw new InvalidInputException("address '" + address + "': not a sim: address");
+        }
+        String bench = sim.bench();
+        Timing timing = null;
+        int q = bench.indexOf('?');
+        if (q >= 0) {
+            String query = bench.substring(q + 1);
+            bench = bench.substring(0, q);
+            for (String kv : query.split("&")) {
+                String[] p = kv.split("=", 2);
+                if (p.length == 2 && p[0].equals("timing")) {
+                    timing = switch (p[1].toLowerCase(Locale.ROOT)) {
+                        case "real" -> Timing.REAL;
+                        case "none" -> Timing.NONE;
+                        default -> throw new InvalidInputException("address '" + address + "': timing must be real"
+                                + " or none, not '" + p[1] + "'");
+                    };
+                } else {
+                    throw new InvalidInputException("address '" + address + "': unknown option '" + kv
+                            + "' (sim:BENCH_FILE[?timing=real|none])");
+                }
+            }
+        }
+        if (bench.isBlank()) {
+            throw new InvalidInputException("address '" + address + "': name a bench file (sim:BENCH_FILE)");
+        }
+        Path file = Path.of(bench);
+        if (!Files.isRegularFile(file)) {
+            throw new InvalidInputException("address '" + address + "': bench file not found: " + file);
+        }
+        BenchSpec spec;
+        try {
+            spec = BenchSpec.load(file);
+        } catch (SimulatorInputException e) {
+            throw new InvalidInputException(e.getMessage(), e);
+        }
+        if (timing != null) {
+            spec = spec.withTiming(timing);
+        }
+        InstrumentOptions io = InstrumentOptions.defaults()
+                .withTiming(spec.timing() == Timing.REAL ? TimingModel.REAL : TimingModel.NONE);
+        try {
+            return new InProcessSimulator(address,
+                    SimulatorServer.start(new SimulatedBench(spec), ServerOptions.defaults().withTcp(false)
+                            .withInstrument(io)));
+        } catch (IOException e) {
+            throw new UncheckedIOException(e);
+        }
+    }
+
+    /** The address it was started from. */
+    public String address() {
+        return address;
+    }
+
+    /** The simulator server (for tests that inspect the meter's own state). */
+    public SimulatorServer server() {
+        return server;
+    }
+
+    /** A new in-memory connection as a byte transport. */
+    public Transport connectTransport() {
+        InMemoryConnection c = server.connectInMemory();
+        return Transport.ofStreams(c.input(), c.output(), address);
+    }
+
+    /** A new in-memory connection as a SCPI session. */
+    public ScpiSession connect(ScpiSettings settings) {
+        return ScpiClient.connect(connectTransport(), settings);
+    }
+
+    /** Stops the simulated meter; never throws. */
+    @Override
+    public void close() {
+        server.close();
+    }
+}

@@ -1,0 +1,243 @@
+package org.zweep.runner.engine;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
+import static org.junit.jupiter.api.Assertions.assertThrows;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.util.ArrayList;
+import java.util.BitSet;
+import java.util.List;
+import java.util.stream.IntStream;
+import org.junit.jupiter.api.Test;
+import org.zweep.driver.InvalidInputException;
+import org.zweep.driver.meter.Bias;
+import org.zweep.driver.meter.MeasurementSetting;
+import org.zweep.runner.plan.BiasControl;
+import org.zweep.runner.plan.Plan;
+import org.zweep.runner.results.PointRow;
+import org.zweep.runner.safety.SafetyGuard;
+
+class RunEngineTest {
+    final FakeBench bench = new FakeBench();
+    final FakeBench.Link link = bench.new Link();
+    final Interruption interruption = new Interruption();
+    final List<String> notes = new ArrayList<>();
+    final List<String> prompts = new ArrayList<>();
+    final List<PointRow> rows = new ArrayList<>();
+    ReconnectPolicy policy = new ReconnectPolicy(0.1, 1.0, 2.0, 10.0, 5);
+    ProgressListener progress = new Recorder();
+
+    class Recorder implements ProgressListener {
+        @Override
+        public void note(String line) {
+            notes.add(line);
+        }
+    }
+
+    Station station() {
+        Station s = new Station(link, new SafetyGuard(TestPlans.LIMITS), prompts::add, bench.waiter(interruption),
+                policy, notes::add);
+        s.start(42L);
+        return s;
+    }
+
+    RunResult run(Plan plan, BitSet done) {
+        Station st = station();
+        return new RunEngine(plan, st, ReadingCorrector.NONE, new PointChecks(plan.checks()), progress, interruption)
+                .run(done, (row, last) -> rows.add(row));
+    }
+
+    @Test
+    void measuresEveryPointInPlanOrderWithPointChecksPerRow() {
+        RunResult r = run(TestPlans.capacitor(), new BitSet());
+        assertEquals(RunResult.Outcome.COMPLETED, r.outcome());
+        assertEquals(IntStream.range(0, 11).boxed().toList(), rows.stream().map(PointRow::point).toList());
+        PointRow oneK = rows.get(1);
+        assertEquals(1000.0, oneK.frequencyHz());
+        // 100 nF at 1 kHz: X_C = -1591.5494 ohm (check-values.md §1.2) -> Cs = 100 nF, D = 0.010/1591.5 = 6.3e-6
+        assertEquals(-1591.5494, oneK.xOhm(), 1e-4);
+        assertEquals(100e-9, oneK.derived().csF(), 1e-15);
+        assertEquals("pass", oneK.check());
+        assertEquals("", rows.get(0).check());
+        assertEquals(5.0, rows.get(10).bias());
+        assertEquals("V", rows.get(10).biasMode());
+    }
+
+    @Test
+    void biasIsNeverSteppedFasterThanTheRampLimitAndSettlesBeforeMeasuring() {
+        run(TestPlans.capacitor(), new BitSet());
+        List<FakeBench.BiasEvent> h = bench.biasHistory;
+        assertTrue(h.size() > 10, "a 0 -> 2 -> 5 V ramp at 1 V/s takes intermediate steps: " + h);
+        double rampPerS = 1.0; // the plan's ramp limit
+        for (int i = 1; i < h.size(); i++) {
+            FakeBench.BiasEvent a = h.get(i - 1);
+            FakeBench.BiasEvent b = h.get(i);
+            if (a.on() && b.on()) {
+                double dv = Math.abs(b.value() - a.value());
+                assertTrue(dv <= rampPerS * (b.timeS() - a.timeS()) + 1e-9, "step " + a + " -> " + b);
+            }
+            if (!a.on() && b.on()) {
+                assertTrue(Math.abs(b.value()) <= rampPerS * Station.RAMP_STEP_S + 1e-9, "first step " + b);
+            }
+        }
+        // every biased point is measured at least the settle time (0.5 s) after the last bias change before it
+        for (PointRow row : rows) {
+            if (row.bias() == 0) {
+                continue;
+            }
+            double t = (row.time().getEpochSecond() - 1_700_000_000L) + row.time().getNano() / 1e9;
+            double lastChange = h.stream().filter(e -> e.timeS() <= t).mapToDouble(FakeBench.BiasEvent::timeS).max()
+                    .orElseThrow();
+            assertTrue(t - lastChange >= 0.5 - 1e-6, "point " + row.point() + " measured " + (t - lastChange)
+                    + " s after a bias change");
+        }
+    }
+
+    @Test
+    void biasIsOffAtTheNormalEnd() {
+        run(TestPlans.capacitor(), new BitSet());
+        assertEquals(Bias.OFF, bench.instrumentBias);
+        assertTrue(bench.biasHistory.stream().anyMatch(e -> e.value() == 5.0), "bias was applied during the run");
+    }
+
+    @Test
+    void meterReportedErrorStopsTheStepShowsTheMeterTextAndLaterStepsStillRun() {
+        bench.meterErrorAtMeasure = 2;
+        RunResult r = run(TestPlans.capacitor(), new BitSet());
+        assertEquals(RunResult.Outcome.FAILED, r.outcome());
+        assertEquals(1, r.problems().size());
+        assertTrue(r.problems().get(0).startsWith("step 'sweep' stopped: meter reported -222,\"Data out of range\""),
+                r.problems().get(0));
+        assertEquals(List.of(0, 5, 6, 7, 8, 9, 10), rows.stream().map(PointRow::point).toList());
+        assertEquals(Bias.OFF, bench.instrumentBias);
+    }
+
+    @Test
+    void droppedLinkIsReopenedBiasTurnedOffAgainAndTheInterruptedPointMeasuredAgain() {
+        bench.dropAtMeasure.add(8); // the 8th trigger is point 7: 2 V bias on, at 10 kHz
+        RunResult r = run(TestPlans.capacitor(), new BitSet());
+        assertEquals(RunResult.Outcome.COMPLETED, r.outcome());
+        assertEquals(IntStream.range(0, 11).boxed().toList(), rows.stream().map(PointRow::point).toList());
+        int reconnect = bench.trace.indexOf("reconnect");
+        assertTrue(reconnect > 0, bench.trace.toString());
+        assertEquals("bias off", bench.trace.get(reconnect + 1), "bias off first after reconnecting");
+        // the instrument kept 2 V while the link was down, then went off, then ramped up again
+        assertTrue(bench.biasHistory.stream().anyMatch(e -> !e.on() && e.timeS() > 0), bench.biasHistory.toString());
+        assertEquals(2.0, rows.get(7).bias());
+        assertEquals(1, notes.stream().filter(n -> n.startsWith("reconnected to fake:bench")).count(), notes.toString());
+    }
+
+    @Test
+    void givingUpAfterTheReconnectBudgetFailsTheRunWithAClearMessage() {
+        policy = new ReconnectPolicy(0.1, 1.0, 2.0, 10.0, 3);
+        bench.dropAtMeasure.add(3);
+        bench.failingReconnects = 3;
+        RunResult r = run(TestPlans.capacitor(), new BitSet());
+        assertEquals(RunResult.Outcome.FAILED, r.outcome());
+        assertEquals(2, r.measured());
+        assertTrue(r.problems().get(0).startsWith("lost the link to fake:bench while measuring at 10000.0 Hz and could"
+                + " not reconnect (3 attempts in 0.7 s since the last successful operation)"), r.problems().get(0));
+        assertEquals(Bias.OFF, bench.instrumentBias);
+    }
+
+    @Test
+    void linkThatBreaksAgainBeforeEveryPointCanFinishStillEndsWithinTheBudget() {
+        policy = new ReconnectPolicy(0.1, 1.0, 2.0, 10.0, 4);
+        for (int i = 3; i < 100; i++) {
+            bench.dropAtMeasure.add(i); // every trigger from the third on breaks the link
+        }
+        RunResult r = run(TestPlans.capacitor(), new BitSet());
+        assertEquals(RunResult.Outcome.FAILED, r.outcome());
+        assertEquals(2, r.measured());
+        assertEquals(4, bench.trace.stream().filter("reconnect"::equals).count() - 1,
+                "four reconnects for the point, one more to turn bias off at the end: " + bench.trace);
+        assertEquals(Bias.OFF, bench.instrumentBias);
+    }
+
+    @Test
+    void stopRequestEndsTheRunAfterThePointInProgressWithBiasOff() {
+        progress = new Recorder() {
+            @Override
+            public void measured(PointRow row, int done, int total) {
+                if (row.point() == 7) {
+                    interruption.request("Ctrl-C");
+                }
+            }
+        };
+        RunResult r = run(TestPlans.capacitor(), new BitSet());
+        assertEquals(RunResult.Outcome.ABORTED, r.outcome());
+        assertEquals(8, rows.size());
+        assertEquals(Bias.OFF, bench.instrumentBias);
+        assertEquals("stopped: Ctrl-C", r.problems().get(0));
+    }
+
+    @Test
+    void resumedRunMeasuresOnlyTheMissingPointsWithTheSameNoiseKeys() {
+        run(TestPlans.capacitor(), new BitSet());
+        List<PointRow> full = List.copyOf(rows);
+        rows.clear();
+        BitSet done = new BitSet();
+        done.set(0, 6);
+        RunResult r = run(TestPlans.capacitor(), done);
+        assertEquals(11, r.measured());
+        assertEquals(List.of(6, 7, 8, 9, 10), rows.stream().map(PointRow::point).toList());
+        for (PointRow row : rows) {
+            assertEquals(full.get(row.point()).rOhm(), row.rOhm(), 0.0);
+        }
+    }
+
+    @Test
+    void listSweepIsUsedForPointsThatDifferOnlyInFrequencyAndSplitTheSameWayOnResume() {
+        bench.maxListPoints = 3;
+        run(TestPlans.capacitor(), new BitSet());
+        assertTrue(bench.trace.contains("list 3 key 0"), bench.trace.toString());
+        assertTrue(bench.trace.contains("list 2 key 3"), bench.trace.toString());
+        assertTrue(bench.trace.contains("list 2 key 9"), bench.trace.toString());
+        List<PointRow> full = List.copyOf(rows);
+        rows.clear();
+        BitSet done = new BitSet();
+        done.set(0);
+        done.set(1);
+        run(TestPlans.capacitor(), done);
+        assertEquals(2, rows.get(0).point());
+        assertEquals(full.get(2).rOhm(), rows.get(0).rOhm(), 0.0);
+    }
+
+    @Test
+    void onTheSimulatorPromptsPassAndTheFixtureSlotIsSwitched() {
+        bench.slot = SimulatorControl.Slot.OPEN;
+        run(TestPlans.capacitor(), new BitSet());
+        assertTrue(prompts.isEmpty());
+        assertEquals(SimulatorControl.Slot.DEVICE, bench.slot);
+        assertTrue(notes.stream().anyMatch(n -> n.startsWith(">> fit the part (simulator")), notes.toString());
+    }
+
+    @Test
+    void onARealMeterTheOperatorIsPromptedWithTheStepInstruction() {
+        bench.simulator = false;
+        run(TestPlans.capacitor(), new BitSet());
+        assertEquals(List.of("fit the part"), prompts);
+    }
+
+    @Test
+    void settingOverTheSafetyLimitIsRefusedBeforeAnyCommandIsSent() {
+        Station st = station();
+        bench.trace.clear();
+        MeasurementSetting hot = MeasurementSetting.at(1000).withBias(Bias.voltage(30.0)); // limit is 25 V
+        InvalidInputException e = assertThrows(InvalidInputException.class,
+                () -> st.measure(hot, BiasControl.NONE, 0, 0));
+        assertTrue(e.getMessage().contains("DC bias 30.0 V exceeds the safety limit 25.0 V"), e.getMessage());
+        assertTrue(bench.trace.isEmpty(), bench.trace.toString());
+    }
+
+    @Test
+    void planOverTheSafetyLimitIsRefusedNamingTheStep() {
+        Plan p = TestPlans.plan(List.of(TestPlans.step(0, 0, "hot", "", BiasControl.NONE, new double[] {30}, 1000)),
+                List.of());
+        InvalidInputException e = assertThrows(InvalidInputException.class,
+                () -> new SafetyGuard(TestPlans.LIMITS).checkPlan(p));
+        assertTrue(e.getMessage().startsWith("step 'hot', point 0: DC bias 30.0 V exceeds"), e.getMessage());
+        assertFalse(bench.trace.contains("apply"));
+    }
+}

@@ -1,0 +1,108 @@
+package org.zweep.runner.it;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+
+/** Exit codes of {@code zweep run} and {@code zweep measure}, and refusals before anything is sent. */
+class RunCommandIT {
+    static final Path SEQ = Sims.sequences().resolve("incoming-kp-c0805-104.yaml");
+
+    @TempDir
+    Path dir;
+
+    String sim() {
+        return "sim:" + Sims.benchOf(SEQ) + "?timing=none";
+    }
+
+    /** A copy of the capacitor sequence, next to its bench, with {@code from} replaced by {@code to}. */
+    Path variant(String from, String to) throws Exception {
+        String text = Files.readString(SEQ);
+        assertTrue(text.contains(from), from);
+        Path seq = SEQ.resolveSibling("it-" + Math.abs((from + to).hashCode()) + ".yaml");
+        Path copy = dir.resolve(seq.getFileName());
+        Files.writeString(copy, text.replace(from, to).replace("benches/", Sims.sequences() + "/benches/"));
+        return copy;
+    }
+
+    @Test
+    void failedCheckGivesExitCode1() throws Exception {
+        // Cs of the 100 nF part cannot lie within 1 % of 200 nF
+        Path seq = variant("nominal: 100 nF", "nominal: 200 nF");
+        Sims.Result r = Sims.zweep("run", seq.toString(), "--meter", sim(), "--dialect", Sims.dialect(), "--out",
+                dir.resolve("out").toString(), "--quiet");
+        assertEquals(1, r.code(), r.out() + r.err());
+        assertTrue(r.out().contains("capacitance-1khz") && r.out().contains(": fail"), r.out());
+        assertTrue(r.out().contains("verdict: fail"), r.out());
+    }
+
+    @Test
+    void invalidSequenceGivesExitCode2AndOneLine() throws Exception {
+        Path seq = variant("averaging: 2", "averagin: 2");
+        Sims.Result r = Sims.zweep("run", seq.toString(), "--meter", sim(), "--out", dir.resolve("out").toString());
+        assertEquals(2, r.code(), r.err());
+        assertEquals(1, r.err().strip().lines().count(), r.err());
+        assertTrue(r.err().startsWith("zweep: " + seq + ":"), r.err());
+        assertFalse(Files.exists(dir.resolve("out")), "no run folder for an invalid sequence");
+    }
+
+    @Test
+    void biasOverTheSafetyLimitIsRefusedBeforeAnyCommandIsSent() throws Exception {
+        Path seq = variant("max_bias_voltage: 25 V", "max_bias_voltage: 20 V");
+        Path trace = dir.resolve("trace.txt");
+        Sims.Result r = Sims.zweep("run", seq.toString(), "--meter", sim(), "--dialect", Sims.dialect(), "--out",
+                dir.resolve("out").toString(), "--trace", trace.toString());
+        assertEquals(2, r.code(), r.err());
+        assertTrue(r.err().contains("bias-derating"), r.err());
+        assertTrue(!Files.exists(trace) || Files.readAllLines(trace).stream().noneMatch(l -> l.startsWith(">")),
+                "the traffic trace holds no command");
+    }
+
+    @Test
+    void meterThatCannotBeReachedGivesExitCode3() {
+        Sims.Result r = Sims.zweep("run", SEQ.toString(), "--meter", "tcp://127.0.0.1:1", "--out",
+                dir.resolve("out").toString(), "--quiet", "--timeout", "1");
+        assertEquals(3, r.code(), r.err());
+        assertEquals(1, r.err().strip().lines().count(), r.err());
+    }
+
+    @Test
+    void resumeOfACompletedRunChangesNothing() {
+        Path out = dir.resolve("done");
+        assertEquals(0, Sims.zweep("run", SEQ.toString(), "--meter", sim(), "--dialect", Sims.dialect(), "--out",
+                out.toString(), "--quiet").code());
+        var before = Rows.of(out);
+        Sims.Result r = Sims.zweep("run", "--resume", out.toString(), "--quiet");
+        assertEquals(0, r.code(), r.err());
+        assertEquals(before, Rows.of(out));
+    }
+
+    @Test
+    void measureJsonUsesTheConvertNamesAndRecoversTheCapacitor() throws Exception {
+        Sims.Result r = Sims.zweep("measure", sim(), "--frequency", "1kHz", "--level", "0.5V", "--dialect",
+                Sims.dialect(), "--json");
+        assertEquals(0, r.code(), r.err());
+        JsonNode n = new ObjectMapper().readTree(r.out());
+        for (String k : new String[] {"frequency_hz", "r_ohm", "x_ohm", "z_ohm", "theta_deg", "q", "d", "cs_f", "cp_f",
+            "ls_h", "lp_h", "rs_ohm", "rp_ohm"}) {
+            assertTrue(n.has(k), k + " in " + r.out());
+        }
+        assertEquals(1000.0, n.get("frequency_hz").asDouble());
+        // the bench's part is 100 nF (K, +-10 %): Cs at 1 kHz lies within the tolerance (IEC 60062 letter K)
+        double cs = n.get("cs_f").asDouble();
+        assertTrue(cs > 90e-9 && cs < 110e-9, "Cs = " + cs);
+    }
+
+    @Test
+    void measureOverTheMetersBiasRangeGivesExitCode2() {
+        Sims.Result r = Sims.zweep("measure", sim(), "--frequency", "1kHz", "--bias", "100V");
+        assertEquals(2, r.code(), r.err());
+    }
+}
