@@ -469,9 +469,11 @@ public final class Instrument implements AutoCloseable {
                     return;
                 }
                 PointRequest req = points.get(i);
+                long startNs = System.nanoTime();
                 PointResult r = b.measure(req);
                 if (timing == TimingModel.REAL) {
-                    sleeper.sleep(r.durationS());
+                    // The point takes its modelled duration in all, the physics' own compute time included.
+                    sleeper.sleep(r.durationS() - (System.nanoTime() - startNs) / 1e9);
                 }
                 range = r.rangeUsedOhm();
                 if (r.overload()) {
