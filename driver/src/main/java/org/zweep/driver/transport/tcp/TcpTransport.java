@@ -9,6 +9,7 @@ import java.net.NoRouteToHostException;
 import java.net.Socket;
 import java.net.SocketTimeoutException;
 import java.net.UnknownHostException;
+import java.time.Duration;
 import org.zweep.driver.address.TcpAddress;
 import org.zweep.driver.transport.ConnectFailedException;
 import org.zweep.driver.transport.ConnectionLostException;
@@ -24,11 +25,13 @@ public final class TcpTransport implements Transport {
     private final Socket socket;
     private final InputStream in;
     private final OutputStream out;
+    private final long replySpinNanos;
     private int soTimeoutMillis = -1;
 
-    private TcpTransport(String name, Socket socket) throws IOException {
+    private TcpTransport(String name, Socket socket, Duration replySpin) throws IOException {
         this.name = name;
         this.socket = socket;
+        this.replySpinNanos = replySpin.toNanos();
         this.in = socket.getInputStream();
         this.out = socket.getOutputStream();
     }
@@ -50,7 +53,7 @@ public final class TcpTransport implements Transport {
                 throw new ConnectFailedException(name + ": unknown host '" + address.host() + "'");
             }
             socket.connect(target, (int) Math.max(1, Math.min(Integer.MAX_VALUE, options.connectTimeout().toMillis())));
-            return new TcpTransport(name, socket);
+            return new TcpTransport(name, socket, options.replySpin());
         } catch (ConnectFailedException e) {
             closeQuietly(socket);
             throw e;
@@ -107,6 +110,11 @@ public final class TcpTransport implements Transport {
     public int read(byte[] buffer, int offset, int length, long timeoutMillis) {
         try {
             int t = (int) Math.max(1, Math.min(Integer.MAX_VALUE, timeoutMillis));
+            // A reply that arrives within the spin is read without the timed wait's poll and wake-up.
+            long spinEnd = System.nanoTime() + replySpinNanos;
+            while (replySpinNanos > 0 && in.available() == 0 && System.nanoTime() < spinEnd) {
+                Thread.onSpinWait();
+            }
             if (t != soTimeoutMillis) {
                 socket.setSoTimeout(t);
                 soTimeoutMillis = t;

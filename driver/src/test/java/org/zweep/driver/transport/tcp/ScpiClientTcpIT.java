@@ -89,6 +89,16 @@ class ScpiClientTcpIT {
     }
 
     @Test
+    void withoutAReplySpinTheTimedReadAloneStillReadsEveryReply() {
+        ScriptedPeer peer = ScriptedPeer.scripted().reply("A?", "1\n").on("B?", pause(30), send("2\n"));
+        server = new LoopbackServer(peer);
+        TransportOptions noSpin = TransportOptions.DEFAULT.withReplySpin(java.time.Duration.ZERO);
+        client = ScpiClient.connect(Transports.open(server.address(), noSpin), FAST);
+        assertEquals("1", client.query("A?"));
+        assertEquals("2", client.query("B?"));
+    }
+
+    @Test
     void replySplitAcrossPacketsWithPausesIsReassembled() {
         ScriptedPeer peer = ScriptedPeer.scripted()
                 .on("FREQ?", send("+1.0"), pause(60), send("00000E"), pause(60), send("+03\r"), pause(60), send("\n"));
