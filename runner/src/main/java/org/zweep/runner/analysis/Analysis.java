@@ -9,6 +9,7 @@ import java.util.Map;
 import java.util.TreeMap;
 import org.zweep.driver.InvalidInputException;
 import org.zweep.driver.impedance.DerivedParameter;
+import org.zweep.driver.impedance.Unit;
 import org.zweep.runner.results.PointRow;
 import org.zweep.runner.results.RunManifest;
 
@@ -216,7 +217,7 @@ public final class Analysis {
                 double v = PointValues.of(r, column);
                 if ("ok".equals(r.status()) && "impedance".equals(r.quantity()) && Double.isFinite(v)) {
                     measured = v;
-                    source = column + " of step " + r.step() + " at " + Si.format(r.frequencyHz(), "Hz");
+                    source = column + " of step " + r.step() + " at " + Si.format(r.frequencyHz(), Unit.HERTZ);
                     break;
                 }
             }

@@ -11,6 +11,7 @@ import org.jfree.chart.ChartUtils;
 import org.jfree.chart.JFreeChart;
 import org.jfree.svg.SVGGraphics2D;
 import org.zweep.driver.impedance.DerivedParameter;
+import org.zweep.driver.impedance.Unit;
 import org.zweep.runner.analysis.Analysis;
 import org.zweep.runner.analysis.AnalysisResult;
 import org.zweep.runner.analysis.CircuitFit;
@@ -74,7 +75,7 @@ public final class Plots {
             int i = 0;
             for (Derating d : s.derating()) {
                 String t = ("cs_f".equals(d.quantity()) ? "C vs DC bias" : "L vs bias current") + ", " + s.name() + " at "
-                        + Si.format(d.frequencyHz(), "Hz");
+                        + Si.format(d.frequencyHz(), Unit.HERTZ);
                 out.add(new Named(stem + "-bias" + (i++ == 0 ? "" : "-" + i), Charts.derating(t, d)));
             }
         }
