@@ -63,6 +63,15 @@ public record Sweep(String step, int stepIndex, String wiring, String drive, dou
         return out;
     }
 
+    /**
+     * A step name as it stands in file names: every run of characters other than letters, digits,
+     * {@code .}, {@code _} and {@code -} becomes {@code -}; {@code step} when nothing is left.
+     */
+    public static String fileStem(String step) {
+        String out = step.replaceAll("[^A-Za-z0-9._-]+", "-");
+        return out.isEmpty() ? "step" : out;
+    }
+
     /** The number of distinct frequencies. */
     public int frequencies() {
         return points.size();

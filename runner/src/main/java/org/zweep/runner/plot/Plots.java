@@ -56,7 +56,7 @@ public final class Plots {
         List<Sweep> all = Sweep.of(a.run().rows());
         List<Named> out = new ArrayList<>();
         for (StepResult s : a.steps()) {
-            String stem = safe(s.name());
+            String stem = Sweep.fileStem(s.name());
             List<Sweep> sweeps = all.stream().filter(w -> w.stepIndex() == s.index() && w.frequencies() > 1).toList();
             for (int from = 0; from < sweeps.size(); from += Charts.MAX_TRACES) {
                 List<Sweep> group = sweeps.subList(from, Math.min(sweeps.size(), from + Charts.MAX_TRACES));
@@ -132,10 +132,5 @@ public final class Plots {
             throw new UncheckedIOException("cannot draw the plots: Java finds no usable font; install one, e.g."
                     + " the Debian package fonts-dejavu-core", new IOException(e.toString(), e));
         }
-    }
-
-    private static String safe(String s) {
-        String out = s.replaceAll("[^A-Za-z0-9._-]+", "-");
-        return out.isEmpty() ? "step" : out;
     }
 }

@@ -286,9 +286,7 @@ public final class HtmlReport {
     }
 
     private static String fmt(double v) {
-        return Double.isFinite(v)
-                ? new java.math.BigDecimal(v).round(new java.math.MathContext(6)).stripTrailingZeros().toPlainString()
-                : "—";
+        return Si.format(v, Unit.NONE, 6);
     }
 
 
