@@ -24,9 +24,4 @@ public record TransportOptions(Duration connectTimeout, Duration writeTimeout) {
             throw new IllegalArgumentException("timeouts must be positive: " + connectTimeout + ", " + writeTimeout);
         }
     }
-
-    /** These options with another connect timeout. */
-    public TransportOptions withConnectTimeout(Duration timeout) {
-        return new TransportOptions(timeout, writeTimeout);
-    }
 }
