@@ -250,6 +250,27 @@ public final class Quantities {
         return mantissa.setScale(scale, RoundingMode.HALF_EVEN).toPlainString() + separator + p + unit.symbol();
     }
 
+    /**
+     * Formats {@code value} as {@link #format(double, Unit, int)} does, rounded to at most
+     * {@code maxSignificantDigits} digits and without trailing zeros: {@code 100 nF},
+     * {@code 1.5 kHz}, {@code 1.259 kHz} for 1258.9 Hz with 4 digits. Meant for set values and
+     * summaries, where the exact digit count carries no meaning.
+     *
+     * @param maxSignificantDigits 1 or more
+     */
+    public static String formatShort(double value, Unit unit, int maxSignificantDigits) {
+        if (maxSignificantDigits < 1) {
+            throw new IllegalArgumentException("maxSignificantDigits must be at least 1: " + maxSignificantDigits);
+        }
+        int digits = 1;
+        if (Double.isFinite(value) && value != 0.0) {
+            digits = Math.max(1, new BigDecimal(value)
+                    .round(new MathContext(maxSignificantDigits, RoundingMode.HALF_EVEN))
+                    .stripTrailingZeros().precision());
+        }
+        return format(value, unit, digits);
+    }
+
     private static String plain(BigDecimal rounded, int exponent, int significantDigits) {
         if (exponent < -6 || exponent > 12) {
             return scientific(rounded, exponent, significantDigits);

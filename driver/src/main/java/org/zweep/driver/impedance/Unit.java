@@ -1,6 +1,7 @@
 package org.zweep.driver.impedance;
 
 import java.util.List;
+import java.util.Optional;
 
 /**
  * The units the human-input grammar of {@link Quantities} knows, each with the spellings it
@@ -59,6 +60,19 @@ public enum Unit {
     /** The symbol used when formatting, e.g. {@code Ω}; empty for {@link #NONE}. */
     public String symbol() {
         return symbol;
+    }
+
+    /**
+     * The unit whose formatting symbol is {@code symbol} ({@code "F"}, {@code "Ω"}, {@code "Hz"},
+     * {@code ""} for {@link #NONE}); empty when no unit has that symbol.
+     */
+    public static Optional<Unit> ofSymbol(String symbol) {
+        for (Unit u : values()) {
+            if (u.symbol.equals(symbol)) {
+                return Optional.of(u);
+            }
+        }
+        return Optional.empty();
     }
 
     /** What a value of this unit is, with its article, e.g. "a capacitance". */

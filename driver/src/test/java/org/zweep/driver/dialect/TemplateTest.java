@@ -37,6 +37,7 @@ class TemplateTest {
     @Test
     void listPlaceholderJoinsValuesWithCommas() {
         Template t = Template.parse(":SOUR:LIST:FREQ {frequencies}", Command.LIST_FREQUENCY, FAIL);
+        // IEEE 488.2 §8.7.4 NR3 for each value; commas between list values, from memory
 
         assertEquals(":SOUR:LIST:FREQ 1.0E+02,1.0E+03,1.0E+04",
                 t.render(Map.of("frequencies", List.of(100.0, 1000.0, 10000.0))));

@@ -147,6 +147,7 @@ class ImpedanceTest {
         for (DerivedParameter p : DerivedParameter.values()) {
             assertFalse(Double.isNaN(p.of(z)), p.key());
         }
+        // a short: G = 1/R is infinite and Rp = 1/G is zero; common practice, no source
         assertEquals(Double.POSITIVE_INFINITY, z.conductanceS());
         assertEquals(0.0, z.parallelResistanceOhm());
     }

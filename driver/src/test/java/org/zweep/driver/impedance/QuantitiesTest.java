@@ -137,6 +137,28 @@ class QuantitiesTest {
         assertEquals(expected, Quantities.format(value, unit, digits)); // SI Brochure prefixes; common practice
     }
 
+    @ParameterizedTest(name = "{0} {1} to at most {2} digits is {3}")
+    @CsvSource(delimiter = '|', value = {
+        "30          | VOLT    | 12 | 30 V",
+        "1500        | HERTZ   | 12 | 1.5 kHz",
+        "100e-9      | FARAD   | 12 | 100 nF",
+        "0.025       | NONE    | 12 | 0.025",
+        "1258.925412 | HERTZ   | 4  | 1.259 kHz",
+        "999.96      | OHM     | 4  | 1 kΩ",
+        "0.1         | VOLT    | 6  | 100 mV",
+        "0           | AMPERE  | 6  | 0 A",
+    })
+    void shortFormatDropsTrailingZeros(double value, Unit unit, int maxDigits, String expected) {
+        assertEquals(expected, Quantities.formatShort(value, unit, maxDigits)); // SI Brochure prefixes; common practice
+    }
+
+    @Test
+    void unitIsFoundByItsSymbol() {
+        assertEquals(Unit.OHM, Unit.ofSymbol("Ω").orElseThrow());
+        assertEquals(Unit.NONE, Unit.ofSymbol("").orElseThrow());
+        assertEquals(java.util.Optional.empty(), Unit.ofSymbol("ohm"));
+    }
+
     @Test
     void formatWithSeventeenDigitsParsesBackToTheSameDouble() {
         SplittableRandom random = new SplittableRandom(42);

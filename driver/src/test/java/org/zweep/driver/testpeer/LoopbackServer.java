@@ -53,17 +53,25 @@ public final class LoopbackServer implements AutoCloseable {
     }
 
     @Override
-    public void close() throws Exception {
+    public void close() throws IOException {
         peer.stop();
         server.close();
         Socket s = socket;
         if (s != null) {
             s.close();
         }
-        thread.join(2000);
+        join(thread);
         if (thread.isAlive()) {
             throw new AssertionError("the peer thread is still running after close");
         }
         peer.verify();
+    }
+
+    private static void join(Thread t) {
+        try {
+            t.join(2000);
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+        }
     }
 }

@@ -9,6 +9,7 @@ import java.util.Map;
 import java.util.TreeMap;
 import org.zweep.driver.InvalidInputException;
 import org.zweep.driver.impedance.DerivedParameter;
+import org.zweep.driver.impedance.Unit;
 import org.zweep.runner.results.PointRow;
 import org.zweep.runner.results.RunManifest;
 
@@ -98,30 +99,32 @@ public final class Analysis {
         String column = mainColumn(run.partKind());
         List<Derating> derating = new ArrayList<>();
         if (!"rs_ohm".equals(column)) {
-            Map<String, Map<Double, double[]>> groups = new LinkedHashMap<>();
+            Map<DeratingKey, Map<Double, double[]>> groups = new LinkedHashMap<>();
             for (PointRow r : rows) {
                 if ("ok".equals(r.status()) && "impedance".equals(r.quantity())) {
-                    String key = r.frequencyHz() + "|" + r.level() + "|" + r.wiring() + "|" + r.biasMode();
+                    DeratingKey key = new DeratingKey(r.frequencyHz(), r.level(), r.wiring(), r.biasMode());
                     double[] acc = groups.computeIfAbsent(key, k -> new TreeMap<>())
                             .computeIfAbsent(r.bias(), b -> new double[2]);
                     acc[0] += PointValues.of(r, column);
                     acc[1]++;
                 }
             }
-            for (Map.Entry<String, Map<Double, double[]>> g : groups.entrySet()) {
+            for (Map.Entry<DeratingKey, Map<Double, double[]>> g : groups.entrySet()) {
                 if (g.getValue().size() < 2) {
                     continue;
                 }
                 double[] biases = g.getValue().keySet().stream().mapToDouble(Double::doubleValue).toArray();
                 double[] values = g.getValue().values().stream().mapToDouble(a -> a[0] / a[1]).toArray();
-                String[] parts = g.getKey().split("\\|");
-                String biasMode = parts[3];
-                derating.add(Derating.of(column, Double.parseDouble(parts[0]), biasMode, biases, values,
+                derating.add(Derating.of(column, g.getKey().frequencyHz(), g.getKey().biasMode(), biases, values,
                         "cs_f".equals(column) ? Derating.CAPACITOR_DROPS : Derating.INDUCTOR_DROPS));
             }
         }
         List<RepeatStats> repeats = RepeatStats.of(rows, List.of("r_ohm", "x_ohm", column));
         return new StepResult(first.step(), first.stepIndex(), fits, derating, repeats, notes);
+    }
+
+    /** The points of one bias sweep: same frequency, level, wiring and bias mode. */
+    private record DeratingKey(double frequencyHz, double level, String wiring, String biasMode) {
     }
 
     private static double nominalTurns(RunManifest m) {
@@ -216,7 +219,7 @@ public final class Analysis {
                 double v = PointValues.of(r, column);
                 if ("ok".equals(r.status()) && "impedance".equals(r.quantity()) && Double.isFinite(v)) {
                     measured = v;
-                    source = column + " of step " + r.step() + " at " + Si.format(r.frequencyHz(), "Hz");
+                    source = column + " of step " + r.step() + " at " + Si.format(r.frequencyHz(), Unit.HERTZ);
                     break;
                 }
             }
@@ -224,11 +227,7 @@ public final class Analysis {
         if (!(measured > 0)) {
             return null;
         }
-        String unit = switch (kind) {
-            case "capacitor" -> "F";
-            case "resistor" -> "Ω";
-            default -> "H";
-        };
+        String unit = mainParameter(kind).unit().symbol();
         double nominal = part == null || part.nominal() == null ? Double.NaN : part.nominal();
         double deviation = 100 * (measured - nominal) / nominal;
         String letter = Double.isFinite(nominal)

@@ -71,7 +71,7 @@ public record Derating(String quantity, double frequencyHz, String biasMode, dou
         double ref = pts.get(0)[1];
         if (refBias != 0) {
             notes.add(String.format(Locale.ROOT, "no 0 %s point: values are relative to the one at %s", biasMode,
-                    Si.format(refBias, biasMode)));
+                    Si.format(refBias, Si.unitOfSymbol(biasMode))));
         }
         List<Point> points = new ArrayList<>();
         for (double[] p : pts) {
@@ -92,8 +92,8 @@ public record Derating(String quantity, double frequencyHz, String biasMode, dou
             if (at == null) {
                 double min = points.stream().mapToDouble(Point::percent).min().orElseThrow();
                 notes.add(String.format(Locale.ROOT, "never falls by %d %% up to %s (lowest %.1f %% of the %s value)",
-                        drop, Si.format(points.get(points.size() - 1).bias(), biasMode), min,
-                        Si.format(refBias, biasMode)));
+                        drop, Si.format(points.get(points.size() - 1).bias(), Si.unitOfSymbol(biasMode)), min,
+                        Si.format(refBias, Si.unitOfSymbol(biasMode))));
             }
         }
         return new Derating(quantity, frequencyHz, biasMode, refBias, ref, points, drops, notes);

@@ -1,66 +1,56 @@
 package org.zweep.runner.analysis;
 
-import java.util.Locale;
+import org.zweep.driver.impedance.Quantities;
+import org.zweep.driver.impedance.Unit;
 
-/** Formats SI values with prefixes for people: {@code 100 nF}, {@code 15.9 MHz}. */
+/**
+ * Analysis figures for people ({@code 100 nF}, {@code 15.9 MHz}), formatted by the driver's
+ * {@link Quantities#formatShort}, and the units of analysis parameter names. Stateless.
+ */
 public final class Si {
-    private static final String[] PREFIX = {"a", "f", "p", "n", "µ", "m", "", "k", "M", "G", "T"};
-
     private Si() {
     }
 
-    /** {@code value} with an SI prefix and {@code unit}, to 4 significant digits ({@code 1.5 kHz}); "—" for NaN. */
-    public static String format(double value, String unit) {
+    /** {@code value} to at most 4 significant digits, trailing zeros dropped ({@code 1.5 kHz}); "—" when not finite. */
+    public static String format(double value, Unit unit) {
         return format(value, unit, 4);
     }
 
-    /** {@code value} with an SI prefix and {@code unit}, to {@code digits} significant digits. */
-    public static String format(double value, String unit, int digits) {
-        if (!Double.isFinite(value)) {
-            return "—";
-        }
-        if (value == 0) {
-            return "0 " + unit;
-        }
-        int e = (int) Math.floor(Math.log10(Math.abs(value)) / 3);
-        e = Math.max(-6, Math.min(4, e));
-        java.math.BigDecimal scaled = new java.math.BigDecimal(value / Math.pow(1000, e))
-                .round(new java.math.MathContext(digits));
-        if (scaled.abs().compareTo(java.math.BigDecimal.valueOf(1000)) >= 0 && e < 4) {
-            e++;
-            scaled = new java.math.BigDecimal(value / Math.pow(1000, e)).round(new java.math.MathContext(digits));
-        }
-        String num = scaled.stripTrailingZeros().toPlainString();
-        return num + " " + PREFIX[e + 6] + unit;
+    /** {@code value} to at most {@code digits} significant digits, trailing zeros dropped; "—" when not finite. */
+    public static String format(double value, Unit unit, int digits) {
+        return Double.isFinite(value) ? Quantities.formatShort(value, unit, digits) : "—";
     }
 
     /** A compact form for file names: no space, {@code u} for micro ({@code 10mA}, {@code 1V}, {@code 2.2uF}). */
-    public static String compact(double value, String unit) {
+    public static String compact(double value, Unit unit) {
         return format(value, unit, 6).replace(" ", "").replace("µ", "u");
     }
 
-    /** {@code value} as a plain number with {@code digits} significant digits (Locale.ROOT). */
-    static String plain(double value, int digits) {
-        return String.format(Locale.ROOT, "%." + digits + "g", value);
+    /**
+     * The unit a run folder names by its symbol ({@code V}, {@code A}, {@code F}, {@code Ω}, ...);
+     * {@link Unit#NONE} for a symbol no unit has, so that the number is still shown.
+     */
+    public static Unit unitOfSymbol(String symbol) {
+        return Unit.ofSymbol(symbol).orElse(Unit.NONE);
     }
 
-    /** The SI unit of a parameter or column name by its suffix ({@code esl_h} → {@code H}); empty when none. */
-    public static String unitOf(String key) {
+    /** The unit of a parameter or column name by its suffix ({@code esl_h} → henry); {@link Unit#NONE} when none. */
+    public static Unit unitOf(String key) {
         if (key.endsWith("_f")) {
-            return "F";
+            return Unit.FARAD;
         }
         if (key.endsWith("_h")) {
-            return "H";
+            return Unit.HENRY;
         }
         if (key.endsWith("_ohm")) {
-            return "Ω";
+            return Unit.OHM;
         }
         if (key.endsWith("_hz")) {
-            return "Hz";
+            return Unit.HERTZ;
         }
         if (key.endsWith("_deg")) {
-            return "°";
+            return Unit.DEGREE;
         }
-        return "";
+        return Unit.NONE;
     }
 }

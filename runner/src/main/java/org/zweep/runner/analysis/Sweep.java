@@ -63,6 +63,15 @@ public record Sweep(String step, int stepIndex, String wiring, String drive, dou
         return out;
     }
 
+    /**
+     * A step name as it stands in file names: every run of characters other than letters, digits,
+     * {@code .}, {@code _} and {@code -} becomes {@code -}; {@code step} when nothing is left.
+     */
+    public static String fileStem(String step) {
+        String out = step.replaceAll("[^A-Za-z0-9._-]+", "-");
+        return out.isEmpty() ? "step" : out;
+    }
+
     /** The number of distinct frequencies. */
     public int frequencies() {
         return points.size();
@@ -70,12 +79,12 @@ public record Sweep(String step, int stepIndex, String wiring, String drive, dou
 
     /** A label such as {@code 1V 0V} or {@code 10mA 2A}, also used in file names. */
     public String conditionLabel() {
-        return Si.compact(level, drive) + "_" + Si.compact(bias, biasMode) + ("none".equals(wiring) ? "" : "_" + wiring);
+        return Si.compact(level, Si.unitOfSymbol(drive)) + "_" + Si.compact(bias, Si.unitOfSymbol(biasMode)) + ("none".equals(wiring) ? "" : "_" + wiring);
     }
 
     /** A label for people, e.g. {@code 1 V, bias 0 V}. */
     public String describe() {
-        return Si.format(level, drive) + ", bias " + Si.format(bias, biasMode)
+        return Si.format(level, Si.unitOfSymbol(drive)) + ", bias " + Si.format(bias, Si.unitOfSymbol(biasMode))
                 + ("none".equals(wiring) ? "" : ", " + wiring.replace('_', ' '));
     }
 

@@ -5,6 +5,7 @@ import java.nio.file.Path;
 import java.util.Locale;
 import java.util.Map;
 import java.util.concurrent.Callable;
+import org.zweep.driver.impedance.Unit;
 import org.zweep.runner.analysis.Analysis;
 import org.zweep.runner.analysis.AnalysisJson;
 import org.zweep.runner.analysis.AnalysisResult;
@@ -69,26 +70,26 @@ public final class AnalyzeCommand implements Callable<Integer> {
                 CircuitFit f = sf.fit();
                 StringBuilder b = new StringBuilder("  " + f.model().id() + " fit, " + sf.sweep().describe() + ":");
                 for (Map.Entry<String, Double> e : f.parameters().entrySet()) {
-                    String unit = Si.unitOf(e.getKey());
+                    Unit unit = Si.unitOf(e.getKey());
                     b.append(' ').append(e.getKey()).append('=');
                     b.append(e.getValue() == null ? "not resolved"
                             : Si.format(e.getValue(), unit) + " ± " + Si.format(f.sigma().get(e.getKey()), unit, 2));
                 }
-                b.append(", srf ").append(f.srfHz() == null ? "not resolved" : Si.format(f.srfHz(), "Hz"));
+                b.append(", srf ").append(f.srfHz() == null ? "not resolved" : Si.format(f.srfHz(), Unit.HERTZ));
                 b.append(String.format(Locale.ROOT, ", residual %.2g", f.residualRms()));
                 out.println(b);
             }
             for (Derating d : s.derating()) {
-                StringBuilder b = new StringBuilder("  derating at " + Si.format(d.frequencyHz(), "Hz") + ":");
+                StringBuilder b = new StringBuilder("  derating at " + Si.format(d.frequencyHz(), Unit.HERTZ) + ":");
                 d.drops().forEach((pct, at) -> b.append(' ').append(pct).append("% drop at ")
-                        .append(at == null ? "not reached" : Si.format(at, d.biasMode())).append(';'));
+                        .append(at == null ? "not reached" : Si.format(at, Si.unitOfSymbol(d.biasMode()))).append(';'));
                 out.println(b);
             }
         }
         TransformerResult t = a.transformer();
         if (t != null) {
             out.printf(Locale.ROOT, "transformer: turns ratio %.5g, k %.6f, leakage %s, mutual %s%n", t.turnsRatio(),
-                    t.k(), Si.format(t.leakageH(), "H"), Si.format(t.mutualH(), "H"));
+                    t.k(), Si.format(t.leakageH(), Unit.HENRY), Si.format(t.mutualH(), Unit.HENRY));
         }
         for (CheckOutcome c : a.checks()) {
             out.printf(Locale.ROOT, "check %s (%s): %s%s%n", c.name(), c.parameter(), c.result(),

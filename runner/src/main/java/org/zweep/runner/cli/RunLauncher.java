@@ -23,6 +23,7 @@ import org.zweep.driver.scpi.ScpiSettings;
 import org.zweep.runner.analysis.Analysis;
 import org.zweep.runner.analysis.CheckOutcome;
 import org.zweep.runner.analysis.RunData;
+import org.zweep.runner.analysis.Si;
 import org.zweep.runner.compensation.CompensationWorkflow;
 import org.zweep.runner.engine.ConsoleProgress;
 import org.zweep.runner.engine.Interruption;
@@ -75,7 +76,7 @@ final class RunLauncher {
     /** Starts a new run of {@code sequenceFile}; returns the exit code. */
     int start(Path sequenceFile, Options o) {
         Plan plan = SequenceLoader.load(sequenceFile);
-        plan = withMeter(plan, o);
+        plan = withMeter(plan, o.meter(), o.dialect());
         new SafetyGuard(plan.safety()).checkPlan(plan);
         RunFolder folder = o.out() != null ? RunFolder.createAt(o.out(), sequenceFile)
                 : RunFolder.createUnder(o.resultsDir(), plan.name(), Clock.systemUTC().instant(),
@@ -107,7 +108,7 @@ final class RunLauncher {
         }
         String address = o.meter() != null ? o.meter() : m.meter().address();
         String dialect = o.dialect() != null ? o.dialect() : m.meter().dialect();
-        plan = withMeter(plan, new Options(address, dialect, null, null, false, null, false, null, 0, 0));
+        plan = withMeter(plan, address, dialect);
         new SafetyGuard(plan.safety()).checkPlan(plan);
         out.println("resuming run folder: " + folder.dir());
         return execute(plan, folder, true, m.sequence().file(), o.seed() != null ? o.seed() : m.seed(), o);
@@ -134,7 +135,8 @@ final class RunLauncher {
                     (station, res, log) -> CompensationWorkflow.prepare(plan, station, folder, res, clock, log),
                     RunLauncher::sweepChecks, clock, VersionProvider.version()));
             RunSession.Summary s;
-            try (BiasOffHook hook = BiasOffHook.install(interruption, session::biasOffNow, err, 10_000)) {
+            BiasOffHook hook = BiasOffHook.install(interruption, session::biasOffNow, err, 10_000);
+            try (hook) {
                 s = session.run();
             }
             printSummary(folder, s);
@@ -196,22 +198,16 @@ final class RunLauncher {
         if (Double.isNaN(v)) {
             return "no value";
         }
-        Unit u = switch (parameter) {
-            case "cs_f", "cp_f" -> Unit.FARAD;
-            case "ls_h", "lp_h" -> Unit.HENRY;
-            case "r_ohm", "x_ohm", "z_ohm", "rs_ohm", "rp_ohm" -> Unit.OHM;
-            case "srf_hz", "frequency_hz" -> Unit.HERTZ;
-            default -> Unit.NONE;
-        };
-        return Quantities.format(v, u, 4);
+        return Quantities.format(v, Si.unitOf(parameter), 4);
     }
 
-    private static Plan withMeter(Plan plan, Options o) {
-        if (o.meter() == null && o.dialect() == null) {
+    /** {@code plan} with its meter address and dialect replaced where {@code meter} or {@code dialect} is not null. */
+    private static Plan withMeter(Plan plan, String meter, String dialect) {
+        if (meter == null && dialect == null) {
             return plan;
         }
-        MeterSpec m = new MeterSpec(o.meter() != null ? o.meter() : plan.meter().address(),
-                o.dialect() != null ? o.dialect() : plan.meter().dialect());
+        MeterSpec m = new MeterSpec(meter != null ? meter : plan.meter().address(),
+                dialect != null ? dialect : plan.meter().dialect());
         Address.parse(m.address());
         return new Plan(plan.name(), plan.source(), m, plan.safety(), plan.fixture(), plan.part(), plan.steps(),
                 plan.checks());

@@ -56,7 +56,7 @@ public final class Exports {
             comments.add("step: " + s.step() + ", " + s.describe()
                     + (s.repeats() > 1 ? ", mean of " + s.repeats() + " repeats" : ""));
             comments.add("run: " + run.folder().dir().toAbsolutePath().normalize());
-            String name = safe(s.step()) + "_" + s.conditionLabel() + ".s1p";
+            String name = Sweep.fileStem(s.step()) + "_" + s.conditionLabel() + ".s1p";
             Path file = outDir.resolve(name);
             write(file, Touchstone.write(version, s.points(), comments, referenceOhm));
             written.add(file);
@@ -145,11 +145,6 @@ public final class Exports {
             return s;
         }
         return '"' + s.replace("\"", "\"\"") + '"';
-    }
-
-    static String safe(String s) {
-        String out = s.replaceAll("[^A-Za-z0-9._-]+", "-");
-        return out.isEmpty() ? "step" : out;
     }
 
     private static void write(Path file, String text) {

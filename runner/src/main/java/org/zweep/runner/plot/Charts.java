@@ -21,6 +21,7 @@ import org.jfree.data.xy.XYSeries;
 import org.jfree.data.xy.XYSeriesCollection;
 import org.zweep.driver.impedance.DerivedParameter;
 import org.zweep.driver.impedance.Impedance;
+import org.zweep.driver.impedance.Unit;
 import org.zweep.runner.analysis.CircuitFit;
 import org.zweep.runner.analysis.Derating;
 import org.zweep.runner.analysis.Si;
@@ -188,7 +189,7 @@ public final class Charts {
     /** The value in % of its zero-bias value versus DC bias, with the drop levels and crossings marked. */
     public static JFreeChart derating(String title, Derating d) {
         XYSeries s = new XYSeries(("cs_f".equals(d.quantity()) ? "C" : "L") + " / value at "
-                + Si.format(d.referenceBias(), d.biasMode()));
+                + Si.format(d.referenceBias(), Si.unitOfSymbol(d.biasMode())));
         for (Derating.Point p : d.points()) {
             s.add(p.bias(), p.percent());
         }
@@ -203,7 +204,7 @@ public final class Charts {
         NumberAxis x = new NumberAxis("DC bias (" + d.biasMode() + ")");
         style(x);
         x.setNumberFormatOverride(new SiTickFormat());
-        NumberAxis y = new NumberAxis("% of value at " + Si.format(d.referenceBias(), d.biasMode()));
+        NumberAxis y = new NumberAxis("% of value at " + Si.format(d.referenceBias(), Si.unitOfSymbol(d.biasMode())));
         style(y);
         y.setAutoRangeIncludesZero(false);
         XYLineAndShapeRenderer renderer = line(BLUE, true);

@@ -11,6 +11,7 @@ import org.jfree.chart.ChartUtils;
 import org.jfree.chart.JFreeChart;
 import org.jfree.svg.SVGGraphics2D;
 import org.zweep.driver.impedance.DerivedParameter;
+import org.zweep.driver.impedance.Unit;
 import org.zweep.runner.analysis.Analysis;
 import org.zweep.runner.analysis.AnalysisResult;
 import org.zweep.runner.analysis.CircuitFit;
@@ -55,7 +56,7 @@ public final class Plots {
         List<Sweep> all = Sweep.of(a.run().rows());
         List<Named> out = new ArrayList<>();
         for (StepResult s : a.steps()) {
-            String stem = safe(s.name());
+            String stem = Sweep.fileStem(s.name());
             List<Sweep> sweeps = all.stream().filter(w -> w.stepIndex() == s.index() && w.frequencies() > 1).toList();
             for (int from = 0; from < sweeps.size(); from += Charts.MAX_TRACES) {
                 List<Sweep> group = sweeps.subList(from, Math.min(sweeps.size(), from + Charts.MAX_TRACES));
@@ -74,7 +75,7 @@ public final class Plots {
             int i = 0;
             for (Derating d : s.derating()) {
                 String t = ("cs_f".equals(d.quantity()) ? "C vs DC bias" : "L vs bias current") + ", " + s.name() + " at "
-                        + Si.format(d.frequencyHz(), "Hz");
+                        + Si.format(d.frequencyHz(), Unit.HERTZ);
                 out.add(new Named(stem + "-bias" + (i++ == 0 ? "" : "-" + i), Charts.derating(t, d)));
             }
         }
@@ -131,10 +132,5 @@ public final class Plots {
             throw new UncheckedIOException("cannot draw the plots: Java finds no usable font; install one, e.g."
                     + " the Debian package fonts-dejavu-core", new IOException(e.toString(), e));
         }
-    }
-
-    private static String safe(String s) {
-        String out = s.replaceAll("[^A-Za-z0-9._-]+", "-");
-        return out.isEmpty() ? "step" : out;
     }
 }

@@ -3,6 +3,7 @@ package org.zweep.runner.plot;
 import java.text.FieldPosition;
 import java.text.NumberFormat;
 import java.text.ParsePosition;
+import org.zweep.driver.impedance.Unit;
 import org.zweep.runner.analysis.Si;
 
 /** Tick labels with SI prefixes ({@code 100 k}, {@code 1.5 n}); the unit is in the axis label. */
@@ -14,7 +15,10 @@ final class SiTickFormat extends NumberFormat {
         if (Math.abs(number) < 1e-300) {
             return toAppendTo.append('0');
         }
-        return toAppendTo.append(Si.format(number, "", 3).strip());
+        // Only values with a unit get a prefix: format as volts, then leave the symbol to the axis label.
+        String volts = Si.format(number, Unit.VOLT, 3);
+        return toAppendTo.append(volts.endsWith(Unit.VOLT.symbol())
+                ? volts.substring(0, volts.length() - Unit.VOLT.symbol().length()).strip() : volts);
     }
 
     @Override

@@ -8,6 +8,7 @@ import java.nio.file.Path;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
+import org.zweep.driver.impedance.Unit;
 import org.zweep.runner.analysis.AnalysisResult;
 import org.zweep.runner.analysis.Bins;
 import org.zweep.runner.analysis.CheckOutcome;
@@ -79,7 +80,7 @@ public final class HtmlReport {
                 .append("</b>, run ").append(esc(m.outcome())).append(", ").append(esc(String.valueOf(m.started())))
                 .append(" to ").append(esc(String.valueOf(m.ended()))).append("</p>\n");
         if (part != null) {
-            b.append("<p>Nominal ").append(esc(part.nominal() == null ? "—" : Si.format(part.nominal(), part.unit())))
+            b.append("<p>Nominal ").append(esc(part.nominal() == null ? "—" : Si.format(part.nominal(), Si.unitOfSymbol(part.unit()))))
                     .append(part.tolerancePercent() == null ? "" : " ± " + esc(fmt(part.tolerancePercent())) + " %")
                     .append(part.turnsRatio() == null ? "" : ", turns ratio " + esc(fmt(part.turnsRatio()))).append("</p>\n");
         }
@@ -137,7 +138,7 @@ public final class HtmlReport {
                 b.append("<h3>").append(esc(s.name() + ": " + sf.sweep().describe())).append("</h3>\n<table><tr><th>")
                         .append("parameter</th><th>value</th><th>uncertainty (1σ)</th></tr>");
                 for (Map.Entry<String, Double> e : f.parameters().entrySet()) {
-                    String unit = Si.unitOf(e.getKey());
+                    Unit unit = Si.unitOf(e.getKey());
                     b.append("<tr><td>").append(esc(e.getKey())).append("</td><td class=\"num\">")
                             .append(e.getValue() == null ? "not resolved" : esc(Si.format(e.getValue(), unit, 6)))
                             .append("</td><td class=\"num\">")
@@ -145,9 +146,9 @@ public final class HtmlReport {
                             .append("</td></tr>");
                 }
                 b.append("<tr><td>srf_hz (fit)</td><td class=\"num\">")
-                        .append(f.srfHz() == null ? "not resolved" : esc(Si.format(f.srfHz(), "Hz", 6)))
+                        .append(f.srfHz() == null ? "not resolved" : esc(Si.format(f.srfHz(), Unit.HERTZ, 6)))
                         .append("</td><td></td></tr><tr><td>srf_hz (data zero crossing)</td><td class=\"num\">")
-                        .append(f.srfDataHz() == null ? "not in sweep" : esc(Si.format(f.srfDataHz(), "Hz", 6)))
+                        .append(f.srfDataHz() == null ? "not in sweep" : esc(Si.format(f.srfDataHz(), Unit.HERTZ, 6)))
                         .append("</td><td></td></tr><tr><td>residual RMS (relative)</td><td class=\"num\">")
                         .append(esc(String.format(Locale.ROOT, "%.3g", f.residualRms())))
                         .append("</td><td></td></tr></table>\n<p class=\"note\">model ").append(esc(f.model().id()))
@@ -172,10 +173,10 @@ public final class HtmlReport {
         b.append("<table><tr><th>check</th><th>parameter</th><th>step</th><th>at</th><th>min</th><th>max</th>")
                 .append("<th>measured</th><th>result</th></tr>");
         for (CheckOutcome c : checks) {
-            String unit = Si.unitOf(c.parameter());
+            Unit unit = Si.unitOf(c.parameter());
             b.append("<tr><td>").append(esc(c.name())).append("</td><td>").append(esc(c.parameter())).append("</td><td>")
                     .append(esc(c.step())).append("</td><td class=\"num\">")
-                    .append(Double.isNaN(c.frequencyHz()) ? "sweep" : esc(Si.format(c.frequencyHz(), "Hz")))
+                    .append(Double.isNaN(c.frequencyHz()) ? "sweep" : esc(Si.format(c.frequencyHz(), Unit.HERTZ)))
                     .append("</td><td class=\"num\">").append(esc(Double.isNaN(c.min()) ? "—" : Si.format(c.min(), unit, 6)))
                     .append("</td><td class=\"num\">").append(esc(Double.isNaN(c.max()) ? "—" : Si.format(c.max(), unit, 6)))
                     .append("</td><td class=\"num\">");
@@ -195,14 +196,14 @@ public final class HtmlReport {
             return;
         }
         b.append("<h2>Bins</h2>\n<table>");
-        row(b, "measured", Si.format(bins.measured(), bins.unit(), 6) + " (" + bins.source() + ")");
-        row(b, "nominal", Si.format(bins.nominal(), bins.unit(), 6));
+        row(b, "measured", Si.format(bins.measured(), Si.unitOfSymbol(bins.unit()), 6) + " (" + bins.source() + ")");
+        row(b, "nominal", Si.format(bins.nominal(), Si.unitOfSymbol(bins.unit()), 6));
         row(b, "deviation", Double.isFinite(bins.deviationPercent())
                 ? String.format(Locale.ROOT, "%+.3f %%", bins.deviationPercent()) : "—");
         row(b, "IEC 60062 tolerance letter", bins.letter() == null ? "none" : bins.letter());
         row(b, "within stated tolerance", bins.withinTolerance() == null ? "no tolerance stated"
                 : bins.withinTolerance() ? "yes" : "no");
-        bins.nearest().forEach((k, v) -> row(b, "nearest " + k + " (IEC 60063)", Si.format(v, bins.unit(), 3)));
+        bins.nearest().forEach((k, v) -> row(b, "nearest " + k + " (IEC 60063)", Si.format(v, Si.unitOfSymbol(bins.unit()), 3)));
         b.append("</table>\n");
     }
 
@@ -214,12 +215,12 @@ public final class HtmlReport {
         row(b, "turns ratio N1/N2", fmt(t.turnsRatio()));
         row(b, "voltage ratio V1/V2 (secondary open)", fmt(t.voltageRatio()));
         row(b, "coupling k = √(1 − Lsc/Loc)", fmt(t.k()));
-        row(b, "open-circuit inductance Loc", Si.format(t.openH(), "H", 6));
-        row(b, "short-circuit inductance Lsc", Si.format(t.shortH(), "H", 6));
-        row(b, "leakage inductance Loc·(1 − k)", Si.format(t.leakageH(), "H", 6));
-        row(b, "mutual inductance M", Si.format(t.mutualH(), "H", 6));
-        row(b, "magnetizing inductance k·Loc", Si.format(t.magnetizingH(), "H", 6));
-        row(b, "at", Si.format(t.frequencyHz(), "Hz"));
+        row(b, "open-circuit inductance Loc", Si.format(t.openH(), Unit.HENRY, 6));
+        row(b, "short-circuit inductance Lsc", Si.format(t.shortH(), Unit.HENRY, 6));
+        row(b, "leakage inductance Loc·(1 − k)", Si.format(t.leakageH(), Unit.HENRY, 6));
+        row(b, "mutual inductance M", Si.format(t.mutualH(), Unit.HENRY, 6));
+        row(b, "magnetizing inductance k·Loc", Si.format(t.magnetizingH(), Unit.HENRY, 6));
+        row(b, "at", Si.format(t.frequencyHz(), Unit.HERTZ));
         b.append("</table>\n");
         t.notes().forEach(n -> b.append("<p class=\"note\">").append(esc(n)).append("</p>\n"));
     }
@@ -227,10 +228,10 @@ public final class HtmlReport {
     private static void derating(StringBuilder b, AnalysisResult a) {
         for (StepResult s : a.steps()) {
             for (Derating d : s.derating()) {
-                b.append("<h2>DC bias: ").append(esc(s.name() + " at " + Si.format(d.frequencyHz(), "Hz")))
+                b.append("<h2>DC bias: ").append(esc(s.name() + " at " + Si.format(d.frequencyHz(), Unit.HERTZ)))
                         .append("</h2>\n<table><tr><th>drop</th><th>bias</th></tr>");
                 d.drops().forEach((pct, at) -> b.append("<tr><td>").append(pct).append(" %</td><td class=\"num\">")
-                        .append(at == null ? "not reached" : esc(Si.format(at, d.biasMode(), 5))).append("</td></tr>"));
+                        .append(at == null ? "not reached" : esc(Si.format(at, Si.unitOfSymbol(d.biasMode()), 5))).append("</td></tr>"));
                 b.append("</table>\n");
                 d.notes().forEach(n -> b.append("<p class=\"note\">").append(esc(n)).append("</p>\n"));
             }
@@ -248,7 +249,7 @@ public final class HtmlReport {
                 }
                 for (String k : r.mean().keySet()) {
                     b.append("<tr><td>").append(esc(s.name())).append("</td><td class=\"num\">")
-                            .append(esc(Si.format(r.frequencyHz(), "Hz"))).append("</td><td class=\"num\">").append(r.count())
+                            .append(esc(Si.format(r.frequencyHz(), Unit.HERTZ))).append("</td><td class=\"num\">").append(r.count())
                             .append("</td><td>").append(esc(k)).append("</td><td class=\"num\">")
                             .append(esc(Si.format(r.mean().get(k), Si.unitOf(k), 6))).append("</td><td class=\"num\">")
                             .append(esc(Si.format(r.std().get(k), Si.unitOf(k), 3))).append("</td><td class=\"num\">")
@@ -268,7 +269,7 @@ public final class HtmlReport {
             List<org.zweep.driver.impedance.Impedance> p = s.points();
             b.append("<tr><td>").append(esc(s.step())).append("</td><td>").append(esc(s.describe())).append("</td><td class=\"num\">")
                     .append(p.size()).append("</td><td class=\"num\">")
-                    .append(esc(Si.format(p.get(0).frequencyHz(), "Hz") + " – " + Si.format(p.get(p.size() - 1).frequencyHz(), "Hz")))
+                    .append(esc(Si.format(p.get(0).frequencyHz(), Unit.HERTZ) + " – " + Si.format(p.get(p.size() - 1).frequencyHz(), Unit.HERTZ)))
                     .append("</td><td class=\"num\">").append(s.repeats()).append("</td></tr>");
         }
         b.append("</table>\n");
@@ -285,9 +286,7 @@ public final class HtmlReport {
     }
 
     private static String fmt(double v) {
-        return Double.isFinite(v)
-                ? new java.math.BigDecimal(v).round(new java.math.MathContext(6)).stripTrailingZeros().toPlainString()
-                : "—";
+        return Si.format(v, Unit.NONE, 6);
     }
 
 

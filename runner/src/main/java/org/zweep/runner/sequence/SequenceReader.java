@@ -581,7 +581,7 @@ final class SequenceReader {
         }
         if (!NOMINAL_PARAMETERS.get(part.kind()).contains(parameter)) {
             throw within.error("within compares with the nominal " + Units.format(part.nominal(),
-                    Units.ofSymbol(part.nominalUnit())) + ": for a " + part.kind().name().toLowerCase(Locale.ROOT)
+                    Unit.ofSymbol(part.nominalUnit()).orElse(Unit.NONE)) + ": for a " + part.kind().name().toLowerCase(Locale.ROOT)
                     + " use " + String.join(", ", NOMINAL_PARAMETERS.get(part.kind())) + ", not '" + parameter + "'");
         }
         return part.nominal();

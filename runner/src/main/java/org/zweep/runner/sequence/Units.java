@@ -1,7 +1,6 @@
 package org.zweep.runner.sequence;
 
 import java.math.BigDecimal;
-import java.util.List;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
 import org.zweep.driver.InvalidInputException;
@@ -128,12 +127,7 @@ final class Units {
 
     /** {@code value} for messages with as many digits as it needs, e.g. {@code 30 V}, {@code 1.5 kHz}. */
     static String format(double value, Unit unit) {
-        int digits = 1;
-        if (Double.isFinite(value) && value != 0.0) {
-            digits = Math.min(12, Math.max(1, BigDecimal.valueOf(value).round(new java.math.MathContext(12))
-                    .stripTrailingZeros().precision()));
-        }
-        return Quantities.format(value, unit, digits);
+        return Quantities.formatShort(value, unit, 12);
     }
 
     /** {@code v} rounded to 12 significant digits, so that computed grid points print and compare cleanly. */
@@ -142,15 +136,5 @@ final class Units {
             return v;
         }
         return new BigDecimal(v).round(new java.math.MathContext(12)).doubleValue();
-    }
-
-    /** The units a check parameter's limits are given in. */
-    static Unit ofSymbol(String symbol) {
-        for (Unit u : List.of(Unit.FARAD, Unit.HENRY, Unit.OHM, Unit.HERTZ, Unit.DEGREE)) {
-            if (u.symbol().equals(symbol)) {
-                return u;
-            }
-        }
-        return Unit.NONE;
     }
 }

@@ -40,10 +40,6 @@ final class YamlNode {
         return new InvalidInputException(where() + ": " + message);
     }
 
-    boolean isScalar() {
-        return node instanceof ScalarNode;
-    }
-
     boolean isList() {
         return node instanceof SequenceNode;
     }

@@ -125,6 +125,7 @@ class EquivalentCircuitFitTest {
         CircuitFit fit = EquivalentCircuitFit.fit(CircuitModel.INDUCTOR, data);
         assertNull(fit.parameters().get("cp_f"));
         assertNull(fit.srfHz());
+        // the synthetic part's own L and R under 0.1 % noise; common practice, no source
         assertWithin(10e-6, fit, "l_h");
         assertWithin(1.0, fit, "r_ohm");
     }

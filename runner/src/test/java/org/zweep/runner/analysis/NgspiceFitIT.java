@@ -151,6 +151,7 @@ class NgspiceFitIT {
                 "R1 in a 0.08\nL1 a 0 10u\nC1 in 0 2.8p\nR2 in 0 3k", "dec 20 1k 50meg");
         CircuitFit f = fitThroughRunFolder("inductor", "KP-L1210-100", 10e-6, "H", z, CircuitModel.INDUCTOR_CORE_LOSS);
         assertTrue(f.converged(), f.notes().toString());
+        // the netlist's element values through ngspice's AC sweep; 1e-5 relative as above
         assertEquals(10e-6, f.value("l_h"), 10e-6 * 1e-6);
         assertEquals(0.08, f.value("r_ohm"), 0.08 * 1e-5);
         assertEquals(2.8e-12, f.value("cp_f"), 2.8e-12 * 1e-6);

@@ -96,7 +96,7 @@ class HtmlReportChromiumIT {
         // do not fully silence) carries the initiator "not an origin"; anything the page fetched carries its origin
         JsonNode log = new ObjectMapper().readTree(netLog.toFile());
         Map<Integer, String> types = new HashMap<>();
-        log.get("constants").get("logEventTypes").fields().forEachRemaining(e -> types.put(e.getValue().asInt(), e.getKey()));
+        log.get("constants").get("logEventTypes").properties().forEach(e -> types.put(e.getValue().asInt(), e.getKey()));
         for (JsonNode e : log.get("events")) {
             if ("URL_REQUEST_START_JOB".equals(types.get(e.get("type").asInt()))) {
                 JsonNode params = e.path("params");

@@ -32,24 +32,24 @@ class SweepTest {
     @Test
     void logSweepEndingOffTheGridAppendsTheStop() {
         List<Double> f = frequencies("{start: 1 kHz, stop: 20 kHz, per_decade: 1}");
-        assertEquals(List.of(1000.0, 10000.0, 20000.0), f);
+        assertEquals(List.of(1000.0, 10000.0, 20000.0), f); // decades, then the stop; arithmetic
     }
 
     @Test
     void linearSweepSpacesPointsEvenly() {
         List<Double> f = frequencies("{start: 1 kHz, stop: 2 kHz, points: 5}");
-        assertEquals(List.of(1000.0, 1250.0, 1500.0, 1750.0, 2000.0), f);
+        assertEquals(List.of(1000.0, 1250.0, 1500.0, 1750.0, 2000.0), f); // steps of (2 − 1)/4 kHz, arithmetic
     }
 
     @Test
     void logSweepWithAPointCountSpacesPointsByEqualRatios() {
         List<Double> f = frequencies("{start: 10 Hz, stop: 1 kHz, points: 3, spacing: log}");
-        assertEquals(List.of(10.0, 100.0, 1000.0), f);
+        assertEquals(List.of(10.0, 100.0, 1000.0), f); // ratio (1000/10)^(1/2) = 10, arithmetic
     }
 
     @Test
     void explicitListKeepsItsOrderAndUnitsPrefixes() {
-        assertEquals(List.of(10e3, 1e3, 1.5e6), frequencies("[10 kHz, 1kHz, 1.5 MHz]"));
+        assertEquals(List.of(10e3, 1e3, 1.5e6), frequencies("[10 kHz, 1kHz, 1.5 MHz]")); // SI prefixes, from memory
     }
 
     @Test
@@ -69,6 +69,6 @@ class SweepTest {
         Plan plan = SequenceTestFiles.load(dir, "{max_level_current: 20 mA}", "{kind: inductor, nominal: 1 mH}",
                 "steps: [{name: s, frequency: 1 kHz, level: [1 mA, 10 mA]}]\n");
         assertEquals(org.zweep.driver.meter.SourceMode.CURRENT, plan.points().get(0).setting().drive().mode());
-        assertEquals(0.01, plan.points().get(1).setting().drive().levelRms(), 0.0);
+        assertEquals(0.01, plan.points().get(1).setting().drive().levelRms(), 0.0); // 10 mA, SI prefix m, from memory
     }
 }

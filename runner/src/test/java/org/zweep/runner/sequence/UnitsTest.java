@@ -16,6 +16,7 @@ class UnitsTest {
         return new YamlNode(new Compose(LoadSettings.builder().build()).composeString(text).orElseThrow(), "t.yaml");
     }
 
+    // the percent sign and ± as written on parts lists; common practice, no source
     @ParameterizedTest(name = "{0} = {1} %")
     @CsvSource(delimiter = ';', value = {"±10 %; 10", "10%; 10", "+-0.5 %; 0.5", "± 2 %; 2"})
     void percentagesAcceptThePlusMinusSignAndSpaces(String text, double percent) {
@@ -39,6 +40,7 @@ class UnitsTest {
 
     @Test
     void rampRateTakesPrefixesAndTheBiasUnit() {
+        // SI Brochure prefix m = 10⁻³, from memory
         assertEquals(0.5, Units.ratePerS(scalar("500 mA/s"), Unit.AMPERE), 1e-15);
         assertEquals(2.0, Units.ratePerS(scalar("2 V/s"), Unit.VOLT), 0.0);
         InvalidInputException e = assertThrows(InvalidInputException.class,
@@ -48,6 +50,7 @@ class UnitsTest {
 
     @Test
     void formatUsesAsFewDigitsAsTheValueNeeds() {
+        // SI Brochure prefixes; common practice
         assertEquals("30 V", Units.format(30.0, Unit.VOLT));
         assertEquals("1.5 kHz", Units.format(1500.0, Unit.HERTZ));
         assertEquals("100 nF", Units.format(100e-9, Unit.FARAD));

@@ -22,6 +22,7 @@ public record ServerOptions(boolean tcp, InetAddress bindAddress, int port, int 
     /** 1 MiB: room for a netlist block, far from exhausting memory. */
     public static final int DEFAULT_MAX_MESSAGE_BYTES = 1 << 20;
 
+    /** Checks the port (0..65535) and the message limit (at least 64 bytes). */
     public ServerOptions {
         if (port < 0 || port > 65535) {
             throw new IllegalArgumentException("port must be 0..65535, got " + port);
@@ -37,30 +38,37 @@ public record ServerOptions(boolean tcp, InetAddress bindAddress, int port, int 
                 FaultPlan.none(), InstrumentOptions.defaults(), line -> { });
     }
 
+    /** These options with the TCP listener on or off. */
     public ServerOptions withTcp(boolean t) {
         return new ServerOptions(t, bindAddress, port, maxMessageBytes, faults, instrument, log);
     }
 
+    /** These options with another address to bind the TCP listener to. */
     public ServerOptions withBindAddress(InetAddress a) {
         return new ServerOptions(tcp, a, port, maxMessageBytes, faults, instrument, log);
     }
 
+    /** These options with another TCP port (0 picks a free one). */
     public ServerOptions withPort(int p) {
         return new ServerOptions(tcp, bindAddress, p, maxMessageBytes, faults, instrument, log);
     }
 
+    /** These options with another longest program message, in bytes (at least 64). */
     public ServerOptions withMaxMessageBytes(int n) {
         return new ServerOptions(tcp, bindAddress, port, n, faults, instrument, log);
     }
 
+    /** These options with the faults every new connection starts with. */
     public ServerOptions withFaults(FaultPlan f) {
         return new ServerOptions(tcp, bindAddress, port, maxMessageBytes, f, instrument, log);
     }
 
+    /** These options with other instrument options. */
     public ServerOptions withInstrument(InstrumentOptions i) {
         return new ServerOptions(tcp, bindAddress, port, maxMessageBytes, faults, i, log);
     }
 
+    /** These options with another sink for connection events (called from the server's threads). */
     public ServerOptions withLog(Consumer<String> l) {
         return new ServerOptions(tcp, bindAddress, port, maxMessageBytes, faults, instrument, l);
     }

@@ -65,6 +65,7 @@ class MeterCorrectionTest {
         MeterCorrection c = MeterCorrection.none()
                 .with(Standard.OPEN, List.of(new Sample(1e3, Double.NaN, Double.NaN, true)))
                 .with(Standard.SHORT, one(1e3, 0.1, 0));
+        // Yo = 0 in Zdut = (Zm − Zs)/(1 − (Zm − Zs)·Yo) leaves Zm − Zs (check-values.md §3.1)
         assertEquals(0, c.apply(1e3, new Complex(10.1, 5)).subtract(new Complex(10, 5)).abs(),
                 1e-12);
     }

@@ -31,6 +31,7 @@ class SpiceValueTest {
 
     @Test
     void trailingUnitLettersAreIgnored() {
+        // SPICE ignores letters after a scale factor (ngspice manual, "Scale factors"), from memory
         assertEquals(100e-9, SpiceValue.parse("100nF"), 1e-22);
         assertEquals(10e-6, SpiceValue.parse("10uH"), 1e-20);
         assertEquals(4.7e3, SpiceValue.parse("4.7kOhm"), 1e-9);
@@ -40,6 +41,7 @@ class SpiceValueTest {
 
     @Test
     void exponentsAndSignsAreNumbers() {
+        // SPICE number syntax: exponent, then an optional scale factor; from memory
         assertEquals(1e-9, SpiceValue.parse("1e-9"), 1e-24);
         assertEquals(2.5e-6, SpiceValue.parse("2.5e-3m"), 1e-21);
         assertEquals(-3, SpiceValue.parse("-3"), 0);

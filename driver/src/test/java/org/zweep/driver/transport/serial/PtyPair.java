@@ -80,10 +80,15 @@ final class PtyPair implements AutoCloseable {
 
     /** Ends socat, which hangs up both ends (or the pty and the TCP connection). */
     @Override
-    public void close() throws InterruptedException {
+    public void close() {
         socat.destroy();
-        if (!socat.waitFor(5, TimeUnit.SECONDS)) {
+        try {
+            if (!socat.waitFor(5, TimeUnit.SECONDS)) {
+                socat.destroyForcibly();
+            }
+        } catch (InterruptedException e) {
             socat.destroyForcibly();
+            Thread.currentThread().interrupt();
         }
     }
 }
