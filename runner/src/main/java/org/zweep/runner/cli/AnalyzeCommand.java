@@ -81,9 +81,11 @@ public final class AnalyzeCommand implements Callable<Integer> {
             }
             for (Derating d : s.derating()) {
                 StringBuilder b = new StringBuilder("  derating at " + Si.format(d.frequencyHz(), Unit.HERTZ) + ":");
-                d.drops().forEach((pct, at) -> b.append(' ').append(pct).append("% drop at ")
-                        .append(at == null ? "not reached" : Si.format(at, Si.unitOfSymbol(d.biasMode()))).append(';'));
-                out.println(b);
+                d.drops().forEach((pct, at) -> b.append(' ').append(pct).append(" % down: ")
+                        .append(at == null ? "not reached" : "at " + Si.format(at, Si.unitOfSymbol(d.biasMode())))
+                        .append(';'));
+                d.notes().forEach(n -> b.append(' ').append(n).append(';'));
+                out.println(b.substring(0, b.length() - 1));
             }
         }
         TransformerResult t = a.transformer();
