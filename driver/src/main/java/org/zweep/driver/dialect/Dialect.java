@@ -61,8 +61,15 @@ public final class Dialect {
      * @throws InvalidInputException when no such built-in or file exists, or the file is malformed
      */
     public static Dialect load(String nameOrPath) {
-        boolean isPath = nameOrPath.contains("/") || nameOrPath.contains("\\") || nameOrPath.endsWith(".dialect");
-        return isPath ? fromFile(Path.of(nameOrPath)) : builtIn(nameOrPath);
+        return isPath(nameOrPath) ? fromFile(Path.of(nameOrPath)) : builtIn(nameOrPath);
+    }
+
+    /**
+     * Whether {@link #load} takes {@code nameOrPath} as a file path (it contains {@code /} or
+     * {@code \} or ends in {@code .dialect}) rather than a built-in's name.
+     */
+    public static boolean isPath(String nameOrPath) {
+        return nameOrPath.contains("/") || nameOrPath.contains("\\") || nameOrPath.endsWith(".dialect");
     }
 
     /** The names of the dialects shipped with zweep, in the order they are documented. */

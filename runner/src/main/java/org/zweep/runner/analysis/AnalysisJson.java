@@ -2,6 +2,7 @@ package org.zweep.runner.analysis;
 
 import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.databind.PropertyNamingStrategies;
 import com.fasterxml.jackson.databind.SerializationFeature;
 import com.fasterxml.jackson.databind.node.ArrayNode;
 import com.fasterxml.jackson.databind.node.ObjectNode;
@@ -24,6 +25,8 @@ public final class AnalysisJson {
     public static final String FILE = "analysis.json";
 
     private static final ObjectMapper JSON = new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT);
+    /** For values taken over from {@code run.json}, whose field names are snake_case there too. */
+    private static final ObjectMapper SNAKE = JSON.copy().setPropertyNamingStrategy(PropertyNamingStrategies.SNAKE_CASE);
 
     private AnalysisJson() {
     }
@@ -36,7 +39,7 @@ public final class AnalysisJson {
         if (a.run().manifest().sequence() != null) {
             root.put("sequence", a.run().manifest().sequence().name());
         }
-        root.set("part", JSON.valueToTree(a.run().manifest().part()));
+        root.set("part", SNAKE.valueToTree(a.run().manifest().part()));
         root.put("verdict", a.verdict());
         ArrayNode steps = root.putArray("steps");
         for (StepResult s : a.steps()) {

@@ -2,6 +2,8 @@ package org.zweep.runner.cli;
 
 import java.io.PrintWriter;
 import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.concurrent.Callable;
@@ -25,9 +27,9 @@ import picocli.CommandLine.Spec;
 
 /** {@code zweep analyze DIR}: fits, derating, transformer figures, checks; writes {@code DIR/analysis.json}. */
 @Command(name = "analyze", mixinStandardHelpOptions = true,
-        description = {"Analyse a run folder: equivalent-circuit fits, DC-bias derating, transformer parameters,",
-            "repeat statistics, checks and bins. Writes DIR/analysis.json.",
-            "Exit code 1 when a check failed."},
+        description = {"Analyses a run folder and writes DIR/analysis.json.",
+            "Equivalent-circuit fits, DC-bias derating, transformer parameters, repeat statistics, checks and bins."
+                + " Exit code 1 when a check failed."},
         footer = ExitCode.HELP_LIST)
 public final class AnalyzeCommand implements Callable<Integer> {
     @Spec
@@ -80,12 +82,10 @@ public final class AnalyzeCommand implements Callable<Integer> {
                 out.println(b);
             }
             for (Derating d : s.derating()) {
-                StringBuilder b = new StringBuilder("  derating at " + Si.format(d.frequencyHz(), Unit.HERTZ) + ":");
-                d.drops().forEach((pct, at) -> b.append(' ').append(pct).append(" % down: ")
-                        .append(at == null ? "not reached" : "at " + Si.format(at, Si.unitOfSymbol(d.biasMode())))
-                        .append(';'));
-                d.notes().forEach(n -> b.append(' ').append(n).append(';'));
-                out.println(b.substring(0, b.length() - 1));
+                List<String> drops = new ArrayList<>();
+                d.drops().forEach((pct, at) -> drops.add(at == null ? "never falls by " + pct + " %"
+                        : pct + " % drop at " + Si.format(at, Si.unitOfSymbol(d.biasMode()))));
+                out.println("  derating at " + Si.format(d.frequencyHz(), Unit.HERTZ) + ": " + String.join(", ", drops));
             }
         }
         TransformerResult t = a.transformer();

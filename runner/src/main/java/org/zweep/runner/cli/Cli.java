@@ -2,6 +2,7 @@ package org.zweep.runner.cli;
 
 import java.io.PrintWriter;
 import java.util.Arrays;
+import java.util.List;
 import org.zweep.driver.InvalidInputException;
 import org.zweep.driver.MeterException;
 import picocli.CommandLine;
@@ -37,9 +38,7 @@ public final class Cli {
         cl.setCaseInsensitiveEnumValuesAllowed(true);
         cl.setExitCodeExceptionMapper(Cli::exitCodeOf);
         cl.setParameterExceptionHandler((ex, a) -> {
-            err.println("zweep: " + ex.getMessage());
-            CommandLine.UnmatchedArgumentException.printSuggestions(ex, err);
-            err.println("Try '" + ex.getCommandLine().getCommandSpec().qualifiedName() + " --help'.");
+            err.println(usageLine(ex));
             return ExitCode.USAGE;
         });
         cl.setExecutionExceptionHandler((ex, c, parseResult) -> {
@@ -53,6 +52,32 @@ public final class Cli {
             return exitCodeOf(ex);
         });
         return cl;
+    }
+
+    /**
+     * One line for a command-line mistake: what was wrong, a suggestion for a near typo, and where
+     * the help is, e.g. {@code zweep: unknown option '--frequncy' (did you mean --frequency?); see
+     * 'zweep convert --help'}.
+     */
+    static String usageLine(CommandLine.ParameterException ex) {
+        CommandLine cl = ex.getCommandLine();
+        String what;
+        if (ex instanceof CommandLine.UnmatchedArgumentException u && !u.getUnmatched().isEmpty()) {
+            String first = u.getUnmatched().get(0);
+            boolean command = !first.startsWith("-") && !cl.getSubcommands().isEmpty();
+            what = (first.startsWith("-") ? "unknown option '" : command ? "unknown command '" : "unexpected argument '")
+                    + first + "'";
+            List<String> near = u.getSuggestions().stream().filter(x -> !x.isBlank()).toList();
+            if (!near.isEmpty()) {
+                what += " (did you mean " + String.join(" or ", near) + "?)";
+            }
+        } else {
+            what = oneLine(ex).replace("' is not a long", "' is not a whole number")
+                    .replace("' is not an int", "' is not a whole number")
+                    .replace("' is not a double", "' is not a number");
+            what = Character.toLowerCase(what.charAt(0)) + what.substring(1);
+        }
+        return "zweep: " + what + "; see '" + cl.getCommandSpec().qualifiedName() + " --help'";
     }
 
     static int exitCodeOf(Throwable ex) {

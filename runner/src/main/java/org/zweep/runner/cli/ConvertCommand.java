@@ -35,7 +35,7 @@ import picocli.CommandLine.Spec;
         mixinStandardHelpOptions = true,
         sortOptions = false,
         description = {
-            "Print every parameter of an impedance given by one pair of values at a frequency.",
+            "Prints every parameter of an impedance given by one pair of values at a frequency.",
             "Values take SI prefixes and units (100nF, 4.7 kΩ, 1.5kHz, 2.2Meg) or the IEC 60062 code (4k7, R47, 4u7).",
             "C and L are magnitudes (positive); D, ESR and Rs may be zero; θ is in degrees."
         },

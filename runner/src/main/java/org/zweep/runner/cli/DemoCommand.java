@@ -17,9 +17,9 @@ import picocli.CommandLine.Spec;
         name = "demo",
         mixinStandardHelpOptions = true,
         description = {
-            "Runs the shipped incoming-inspection sequence of a 100 nF ceramic capacitor "
-                + "(sequences/" + DemoCommand.SEQUENCE + ") on the built-in simulator into a fresh folder "
-                + "under results/, then prints where the results are and a short summary.",
+            "Runs the shipped incoming inspection of a 100 nF capacitor on the built-in simulator.",
+            "The sequence is sequences/" + DemoCommand.SEQUENCE + "; the results go into a fresh folder "
+                + "under results/, and the command prints where they are and a short summary.",
             "The simulated meter takes as long as a real one would (tens of seconds)."
         },
         footer = ExitCode.HELP_LIST + "  130 stopped by Ctrl-C (resumable)%n")

@@ -17,8 +17,8 @@ import picocli.CommandLine.Spec;
 
 /** {@code zweep export DIR --format csv|json|touchstone}. */
 @Command(name = "export", mixinStandardHelpOptions = true,
-        description = {"Export a run folder as CSV, JSON or Touchstone one-port Z-parameter files",
-            "(one .s1p per frequency sweep at fixed level and bias). Prints the files written."},
+        description = {"Exports a run folder as CSV, JSON or Touchstone one-port Z-parameter files.",
+            "Touchstone: one .s1p per frequency sweep at fixed level and bias. Prints the files written."},
         footer = ExitCode.HELP_LIST)
 public final class ExportCommand implements Callable<Integer> {
     /** Export formats. */

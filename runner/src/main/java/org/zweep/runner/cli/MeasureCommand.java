@@ -33,8 +33,9 @@ import picocli.CommandLine.Spec;
         name = "measure",
         mixinStandardHelpOptions = true,
         description = {
-            "Measures one point and prints every derived parameter (the names of 'zweep convert --json' "
-                + "with --json). DC bias is switched off again before the command ends."
+            "Measures one point and prints every derived parameter.",
+            "With --json the names are those of 'zweep convert --json'. DC bias is switched off again "
+                + "before the command ends."
         },
         footer = ExitCode.HELP_LIST)
 public final class MeasureCommand implements Callable<Integer> {

@@ -20,9 +20,9 @@ import picocli.CommandLine.Spec;
         name = "ping",
         mixinStandardHelpOptions = true,
         description = {
-            "Measures the query round trip to the meter at ADDRESS: sends the query COUNT times, one after the"
-                    + " other, after one unmeasured warm-up, and prints count, min, median, 99th percentile and"
-                    + " max in microseconds and queries per second.",
+            "Measures the query round trip to the meter at ADDRESS.",
+            "Sends the query COUNT times, one after the other, after one unmeasured warm-up, and prints count,"
+                    + " min, median, 99th percentile and max in microseconds and queries per second.",
             "ADDRESS: tcp://HOST[:PORT], serial:DEVICE[?baud=N&...], sim:[BENCH], TCPIP::HOST::PORT::SOCKET,"
                     + " ASRL<device>::INSTR."
         },

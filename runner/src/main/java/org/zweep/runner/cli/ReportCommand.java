@@ -16,8 +16,9 @@ import picocli.CommandLine.Spec;
 
 /** {@code zweep report DIR}: writes the self-contained {@code DIR/report.html} and prints its path. */
 @Command(name = "report", mixinStandardHelpOptions = true,
-        description = {"Write DIR/report.html, a self-contained HTML report (plots embedded, no network needed),",
-            "with DIR/analysis.json and DIR/plots/*.png|svg. Prints the report's path."},
+        description = {"Writes DIR/report.html, a self-contained HTML report of a run folder.",
+            "The plots are embedded and nothing outside the file is referenced; DIR/analysis.json and"
+                + " DIR/plots/*.png|svg are written too. Prints the report's path."},
         footer = ExitCode.HELP_LIST)
 public final class ReportCommand implements Callable<Integer> {
     @Spec

@@ -12,11 +12,13 @@ import java.time.Clock;
 import java.time.Duration;
 import java.time.ZoneId;
 import java.util.ArrayList;
+import java.util.Comparator;
 import java.util.List;
 import java.util.Locale;
 import org.zweep.driver.InvalidInputException;
 import org.zweep.driver.address.Address;
 import org.zweep.driver.address.SimAddress;
+import org.zweep.driver.dialect.Dialect;
 import org.zweep.driver.impedance.Quantities;
 import org.zweep.driver.impedance.Unit;
 import org.zweep.driver.scpi.ScpiSettings;
@@ -78,12 +80,45 @@ final class RunLauncher {
         Plan plan = SequenceLoader.load(sequenceFile);
         plan = withMeter(plan, o.meter(), o.dialect());
         new SafetyGuard(plan.safety()).checkPlan(plan);
+        boolean existed = o.out() != null && Files.isDirectory(o.out());
         RunFolder folder = o.out() != null ? RunFolder.createAt(o.out(), sequenceFile)
                 : RunFolder.createUnder(o.resultsDir(), plan.name(), Clock.systemUTC().instant(),
                         ZoneId.systemDefault(), sequenceFile);
-        copyBench(plan, sequenceFile, folder);
-        out.println("run folder: " + folder.dir());
-        return execute(plan, folder, false, sequenceFile.toAbsolutePath().toString(), o.seed(), o);
+        try {
+            copyBench(plan, sequenceFile, folder);
+            copyDialect(plan, sequenceFile, folder);
+            out.println("run folder: " + folder.dir());
+            return execute(plan, folder, false, sequenceFile.toAbsolutePath().toString(), o.seed(), o);
+        } catch (RuntimeException e) {
+            discardIfUnstarted(folder, !existed);
+            throw e;
+        }
+    }
+
+    /**
+     * Removes what {@link #start} put into a run folder when the run was refused before it started
+     * (no {@code run.json} yet, so nothing was measured): the same {@code --out} can then be used
+     * again, instead of a folder that is neither empty nor resumable.
+     */
+    static void discardIfUnstarted(RunFolder folder, boolean removeDir) {
+        Path dir = folder.dir();
+        if (Files.exists(folder.manifest())) {
+            return;
+        }
+        try {
+            if (Files.exists(folder.points()) && Files.readAllLines(folder.points(), StandardCharsets.UTF_8).size() > 1) {
+                return; // rows without a manifest: keep them, whatever they are
+            }
+            try (var files = Files.walk(dir)) {
+                for (Path p : files.sorted(Comparator.reverseOrder()).toList()) {
+                    if (!p.equals(dir) || removeDir) {
+                        Files.deleteIfExists(p);
+                    }
+                }
+            }
+        } catch (IOException e) {
+            // best effort: the refusal itself is what the user must see
+        }
     }
 
     /** Resumes the run in {@code dir}; returns the exit code. */
@@ -209,8 +244,35 @@ final class RunLauncher {
         MeterSpec m = new MeterSpec(meter != null ? meter : plan.meter().address(),
                 dialect != null ? dialect : plan.meter().dialect());
         Address.parse(m.address());
+        Dialect.load(m.dialect());
         return new Plan(plan.name(), plan.source(), m, plan.safety(), plan.fixture(), plan.part(), plan.steps(),
                 plan.checks());
+    }
+
+    /** Copies a dialect file that lies under the sequence's folder to the same place in the run folder. */
+    private static void copyDialect(Plan plan, Path sequenceFile, RunFolder folder) {
+        if (Dialect.isPath(plan.meter().dialect())) {
+            copyBeside(Path.of(plan.meter().dialect()), sequenceFile, folder, "dialect");
+        }
+    }
+
+    private static void copyBeside(Path source, Path sequenceFile, RunFolder folder, String what) {
+        Path file = source.toAbsolutePath().normalize();
+        Path base = sequenceFile.toAbsolutePath().getParent();
+        if (base == null || !file.startsWith(base) || !Files.isRegularFile(file)) {
+            return;
+        }
+        Path target = folder.dir().resolve(base.relativize(file));
+        if (Files.exists(target)) {
+            return;
+        }
+        try {
+            Files.createDirectories(target.getParent());
+            Files.copy(file, target);
+        } catch (IOException e) {
+            throw new UncheckedIOException("cannot copy the " + what + " file into " + folder.dir() + ": "
+                    + e.getMessage(), e);
+        }
     }
 
     /** Copies a sim: bench file that lies under the sequence's folder to the same place in the run folder. */
@@ -221,17 +283,6 @@ final class RunLauncher {
         }
         String bench = sim.bench();
         int q = bench.indexOf('?');
-        Path file = Path.of(q >= 0 ? bench.substring(0, q) : bench).toAbsolutePath().normalize();
-        Path base = sequenceFile.toAbsolutePath().getParent();
-        if (base == null || !file.startsWith(base) || !Files.isRegularFile(file)) {
-            return;
-        }
-        Path target = folder.dir().resolve(base.relativize(file));
-        try {
-            Files.createDirectories(target.getParent());
-            Files.copy(file, target);
-        } catch (IOException e) {
-            throw new UncheckedIOException("cannot copy the bench file into " + folder.dir() + ": " + e.getMessage(), e);
-        }
+        copyBeside(Path.of(q >= 0 ? bench.substring(0, q) : bench), sequenceFile, folder, "bench");
     }
 }

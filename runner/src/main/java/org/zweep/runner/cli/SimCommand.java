@@ -13,6 +13,7 @@ import java.util.concurrent.CountDownLatch;
 import org.zweep.driver.InvalidInputException;
 import org.zweep.driver.MeterException;
 import org.zweep.simulator.SimulatorInputException;
+import org.zweep.runner.sim.InProcessSimulator;
 import org.zweep.simulator.bench.BenchSpec;
 import org.zweep.simulator.bench.SimulatedBench;
 import org.zweep.simulator.bench.Timing;
@@ -198,7 +199,7 @@ public final class SimCommand implements Callable<Integer> {
                 }
                 return BenchSpec.ofNetlist(source.device.replace("\\n", "\n"), "--device");
             }
-            return BenchSpec.ofNetlist("R1 hi lo 100", "the default 100 ohm resistor");
+            return InProcessSimulator.defaultBench();
         } catch (SimulatorInputException e) {
             throw new InvalidInputException(e.getMessage(), e);
         } catch (IOException e) {

@@ -13,6 +13,9 @@ import java.util.Optional;
 import java.util.OptionalDouble;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
+import org.zweep.driver.InvalidInputException;
+import org.zweep.driver.address.Address;
+import org.zweep.driver.dialect.Dialect;
 import org.zweep.driver.impedance.DerivedParameter;
 import org.zweep.driver.impedance.Impedance;
 import org.zweep.driver.impedance.Unit;
@@ -133,7 +136,7 @@ final class SequenceReader {
 
     private MeterSpec meter(YamlNode node) {
         YamlNode.YamlMap m = node.map("meter", METER_KEYS);
-        String dialect = m.optional("dialect").map(d -> d.text("a dialect")).orElse(DEFAULT_DIALECT);
+        String dialect = m.optional("dialect").map(this::dialect).orElse(DEFAULT_DIALECT);
         Optional<YamlNode> address = m.optional("address");
         Optional<YamlNode> bench = m.optional("bench");
         if (address.isPresent() && bench.isPresent()) {
@@ -149,7 +152,34 @@ final class SequenceReader {
         if (a.startsWith("sim:")) {
             a = "sim:" + benchFile(address.get(), a.substring(4));
         }
+        try {
+            Address.parse(a);
+        } catch (InvalidInputException e) {
+            throw address.get().error(e.getMessage());
+        }
         return new MeterSpec(a, dialect);
+    }
+
+    /**
+     * A built-in dialect's name, or a dialect file resolved against the sequence's folder; either is
+     * loaded now, so that a wrong name or a malformed file is refused before anything is measured.
+     */
+    private String dialect(YamlNode node) {
+        String d = node.text("a dialect");
+        if (!Dialect.isPath(d)) {
+            try {
+                Dialect.load(d);
+            } catch (InvalidInputException e) {
+                throw node.error(e.getMessage());
+            }
+            return d;
+        }
+        Path p = source.toAbsolutePath().getParent().resolve(d).normalize();
+        if (!Files.isRegularFile(p)) {
+            throw node.error("dialect file not found: " + d + " (looked for " + p + ")");
+        }
+        Dialect.load(p.toString()); // its own errors name the dialect file's line and column
+        return p.toString();
     }
 
     private Path benchFile(YamlNode node, String path) {

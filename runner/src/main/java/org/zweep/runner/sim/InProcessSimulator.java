@@ -41,7 +41,7 @@ public final class InProcessSimulator implements AutoCloseable {
     /**
      * Loads the bench named by a {@code sim:} address and starts its meter.
      *
-     * @throws InvalidInputException when the address has no bench file, the file is missing or
+     * @throws InvalidInputException when the address's bench file (none: {@link #defaultBench()}) is missing or
      *     invalid, or {@code timing} is not {@code real} or {@code none}
      */
     public static InProcessSimulator start(String address) {
@@ -70,18 +70,19 @@ public final class InProcessSimulator implements AutoCloseable {
                 }
             }
         }
-        if (bench.isBlank()) {
-            throw new InvalidInputException("address '" + address + "': name a bench file (sim:BENCH_FILE)");
-        }
-        Path file = Path.of(bench);
-        if (!Files.isRegularFile(file)) {
-            throw new InvalidInputException("address '" + address + "': bench file not found: " + file);
-        }
         BenchSpec spec;
-        try {
-            spec = BenchSpec.load(file);
-        } catch (SimulatorInputException e) {
-            throw new InvalidInputException(e.getMessage(), e);
+        if (bench.isBlank()) {
+            spec = defaultBench();
+        } else {
+            Path file = Path.of(bench);
+            if (!Files.isRegularFile(file)) {
+                throw new InvalidInputException("address '" + address + "': bench file not found: " + file);
+            }
+            try {
+                spec = BenchSpec.load(file);
+            } catch (SimulatorInputException e) {
+                throw new InvalidInputException(e.getMessage(), e);
+            }
         }
         if (timing != null) {
             spec = spec.withTiming(timing);
@@ -95,6 +96,11 @@ public final class InProcessSimulator implements AutoCloseable {
         } catch (IOException e) {
             throw new UncheckedIOException(e);
         }
+    }
+
+    /** The bench of {@code sim:} without a file and of {@code zweep sim} without options: a 100 Ω resistor. */
+    public static BenchSpec defaultBench() {
+        return BenchSpec.ofNetlist("R1 hi lo 100", "the default 100 ohm resistor");
     }
 
     /** The address it was started from. */

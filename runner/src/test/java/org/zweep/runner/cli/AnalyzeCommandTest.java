@@ -12,6 +12,8 @@ import java.nio.file.Path;
 import java.util.List;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import org.zweep.driver.impedance.Impedance;
+import org.zweep.runner.analysis.TestRunFolders;
 
 class AnalyzeCommandTest {
     @TempDir
@@ -19,6 +21,22 @@ class AnalyzeCommandTest {
 
     static int run(StringWriter out, StringWriter err, String... args) {
         return Cli.run(args, new PrintWriter(out), new PrintWriter(err));
+    }
+
+    @Test
+    void summarySaysWhichDropsTheBiasSweepNeverReaches() throws Exception {
+        // synthetic class-2 curve C0/(1 + (V/10 V)²) up to 6 V only: it falls by 20 % at 5 V, never by 50 %
+        TestRunFolders run = new TestRunFolders(tmp.resolve("short-bias"));
+        double w = 2 * Math.PI * 1000;
+        for (int v = 0; v <= 6; v++) {
+            double c = 100e-9 / (1 + Math.pow(v / 10.0, 2));
+            run.impedance("bias", List.of(new Impedance(1000, 0.05, -1 / (w * c))), "V", 1.0, "V", v, "none", 0);
+        }
+        StringWriter out = new StringWriter();
+        StringWriter err = new StringWriter();
+        assertEquals(0, run(out, err, "analyze", run.write().toString()), err.toString());
+        String line = out.toString().lines().filter(l -> l.contains("derating at")).findFirst().orElseThrow();
+        assertTrue(line.matches("  derating at 1(\\.0+)? kHz: 20 % drop at 5(\\.0+)? V, never falls by 50 %"), line);
     }
 
     @Test

@@ -72,6 +72,20 @@ class AnalyzeContractTest {
     }
 
     @Test
+    void partFieldsUseTheSameSnakeCaseNamesAsRunJson() throws Exception {
+        Path dir = new TestRunFolders(tmp.resolve("p"))
+                .part("capacitor", "KP-C0805-104", 100e-9, "F", 10.0, null)
+                .impedance("sweep", sweep(100, 20e6, 53, Sweeps.lossyCapacitor(0.025, 0.8e-9, 100e-9, 0.012)), "V",
+                        0.5, "V", 0, "none", 0)
+                .write();
+        JsonNode part = analyzeJson(dir).get("part");
+        // README "run.json": part has kind, name, nominal, unit, tolerance_percent, turns_ratio
+        assertEquals(List.of("kind", "name", "nominal", "unit", "tolerance_percent", "turns_ratio"), keys(part));
+        assertEquals(10.0, part.get("tolerance_percent").asDouble(), 0.0); // the value given above
+        assertTrue(part.get("turns_ratio").isNull());
+    }
+
+    @Test
     void capacitorStepHasTheContractKeysAndDefaultModel() throws Exception {
         JsonNode step = analyzeJson(capacitorRun("c")).at("/steps/0");
         assertStepContract(step, "capacitor", List.of("c_f", "esr_ohm", "esl_h"));

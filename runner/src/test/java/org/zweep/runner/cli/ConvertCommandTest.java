@@ -165,7 +165,32 @@ class ConvertCommandTest {
     void unknownOptionExitsTwo() {
         Run run = zweep("convert", "-f", "1kHz", "--bogus", "1");
         assertEquals(ExitCode.USAGE, run.exitCode());
-        assertTrue(run.err().startsWith("zweep: Unknown options: '--bogus', '1'"), run.err());
+        assertEquals("zweep: unknown option '--bogus'; see 'zweep convert --help'" + System.lineSeparator(), run.err());
+    }
+
+    @Test
+    void mistypedOptionIsOneLineWithTheNearOption() {
+        Run run = zweep("convert", "--frequncy", "1kHz", "--cs", "1n", "--d", "0.1");
+        assertEquals(ExitCode.USAGE, run.exitCode());
+        assertEquals("zweep: unknown option '--frequncy' (did you mean --frequency?); see 'zweep convert --help'"
+                + System.lineSeparator(), run.err());
+    }
+
+    @Test
+    void mistypedCommandIsOneLineWithTheNearCommand() {
+        Run run = zweep("convrt");
+        assertEquals(ExitCode.USAGE, run.exitCode());
+        assertEquals(1, run.err().lines().count(), run.err());
+        assertTrue(run.err().startsWith("zweep: unknown command 'convrt' (did you mean "), run.err());
+        assertTrue(run.err().contains("convert"), run.err());
+    }
+
+    @Test
+    void missingParameterIsOneLine() {
+        Run run = zweep("check");
+        assertEquals(ExitCode.USAGE, run.exitCode());
+        assertEquals("zweep: missing required parameter: 'FILE'; see 'zweep check --help'" + System.lineSeparator(),
+                run.err());
     }
 
     @Test

@@ -74,6 +74,30 @@ class RunCommandIT {
     }
 
     @Test
+    void unreachableMeterLeavesNoHalfMadeRunFolderSoTheSameOutWorksAgain() {
+        Path out = dir.resolve("out");
+        for (int attempt = 0; attempt < 2; attempt++) {
+            Sims.Result r = Sims.zweep("run", SEQ.toString(), "--meter", "tcp://127.0.0.1:1", "--out", out.toString(),
+                    "--quiet", "--timeout", "1");
+            assertEquals(3, r.code(), r.err());
+            assertTrue(r.err().contains("connection refused"), "attempt " + attempt + ": " + r.err());
+            assertFalse(Files.exists(out), "nothing measured, so no run folder is left behind");
+        }
+    }
+
+    @Test
+    void settingTheMeterCannotDoIsRefusedWithExitCode2AndNoRunFolder() throws Exception {
+        // the standard dialect's frequency range ends at 20 MHz (standard.dialect [capabilities])
+        Path seq = variant("stop: 20 MHz", "stop: 30 MHz");
+        Path out = dir.resolve("out");
+        Sims.Result r = Sims.zweep("run", seq.toString(), "--meter", sim(), "--dialect", Sims.dialect(), "--out",
+                out.toString(), "--quiet");
+        assertEquals(2, r.code(), r.err());
+        assertEquals(1, r.err().strip().lines().count(), r.err());
+        assertFalse(Files.exists(out), "refused before the first point: no run folder");
+    }
+
+    @Test
     void resumeOfACompletedRunChangesNothing() {
         Path out = dir.resolve("done");
         assertEquals(0, Sims.zweep("run", SEQ.toString(), "--meter", sim(), "--dialect", Sims.dialect(), "--out",

@@ -4,12 +4,15 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertNull;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 
+import java.io.InputStream;
+import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Duration;
 import java.util.List;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.zweep.driver.InvalidInputException;
+import org.zweep.driver.dialect.Dialect;
 import org.zweep.driver.meter.CorrectionStandard;
 import org.zweep.driver.meter.ImpedanceRange;
 import org.zweep.runner.plan.CompensationMode;
@@ -44,10 +47,44 @@ class SequenceSectionsTest {
         assertEquals("sim:" + dir.resolve("b.bench.yaml").toAbsolutePath().normalize(),
                 load("meter: {address: 'sim:b.bench.yaml'}\n", "{name: s, frequency: 1 kHz, level: 1 V}")
                         .meter().address());
-        Plan tcp = load("meter: {address: 'tcp://127.0.0.1:5025', dialect: mine.dialect.yaml}\n",
+        Plan tcp = load("meter: {address: 'tcp://127.0.0.1:5025', dialect: mz300}\n",
                 "{name: s, frequency: 1 kHz, level: 1 V}");
         assertEquals("tcp://127.0.0.1:5025", tcp.meter().address());
-        assertEquals("mine.dialect.yaml", tcp.meter().dialect());
+        assertEquals("mz300", tcp.meter().dialect());
+    }
+
+    @Test
+    void dialectFileIsResolvedAgainstTheSequenceFolderAndLoaded() throws Exception {
+        Path meters = Files.createDirectories(dir.resolve("meters"));
+        try (InputStream in = Dialect.class.getResourceAsStream("/org/zweep/driver/dialect/standard.dialect")) {
+            Files.write(meters.resolve("mine.dialect"), in.readAllBytes());
+        }
+        Plan plan = load("meter: {address: 'tcp://127.0.0.1:5025', dialect: meters/mine.dialect}\n",
+                "{name: s, frequency: 1 kHz, level: 1 V}");
+        assertEquals(meters.resolve("mine.dialect").toAbsolutePath().normalize().toString(), plan.meter().dialect());
+    }
+
+    @Test
+    void unknownDialectNameIsRefusedAtItsNode() {
+        InvalidInputException e = assertThrows(InvalidInputException.class,
+                () -> load("meter: {bench: b.bench.yaml, dialect: nosuch}\n", "{name: s, frequency: 1 kHz, level: 1 V}"));
+        assertEquals(dir.resolve("s.yaml") + ":2:39: unknown dialect 'nosuch': the built-in dialects are standard, mz300;"
+                + " give a path to use a dialect file", e.getMessage());
+    }
+
+    @Test
+    void missingDialectFileIsRefusedAtItsNode() {
+        InvalidInputException e = assertThrows(InvalidInputException.class,
+                () -> load("meter: {bench: b.bench.yaml, dialect: x.dialect}\n", "{name: s, frequency: 1 kHz, level: 1 V}"));
+        assertEquals(dir.resolve("s.yaml") + ":2:39: dialect file not found: x.dialect (looked for "
+                + dir.resolve("x.dialect").toAbsolutePath().normalize() + ")", e.getMessage());
+    }
+
+    @Test
+    void malformedAddressIsRefusedAtItsNode() {
+        InvalidInputException e = assertThrows(InvalidInputException.class,
+                () -> load("meter: {address: 'tcp://:x'}\n", "{name: s, frequency: 1 kHz, level: 1 V}"));
+        assertEquals(dir.resolve("s.yaml") + ":2:18: address 'tcp://:x': missing host", e.getMessage());
     }
 
     @Test
