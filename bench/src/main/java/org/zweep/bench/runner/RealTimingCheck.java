@@ -39,7 +39,8 @@ import org.zweep.simulator.server.SimulatorServer;
  * {@code java -cp bench/target/benchmarks.jar org.zweep.bench.runner.RealTimingCheck [REPO [POINTS]]}.
  * The meter time is the sum of the bench's point durations; a sweep of POINTS (default 200)
  * points is run point by point and with list sweeps, each with rows synced before the next point
- * starts (the run-folder contract) and synced behind, overlapped with the next point.
+ * starts (the run-folder contract) and synced behind, overlapped with the next point, after a
+ * discarded warm-up run.
  */
 public final class RealTimingCheck {
     private RealTimingCheck() {
@@ -49,15 +50,18 @@ public final class RealTimingCheck {
         Path repo = Path.of(args.length > 0 ? args[0] : ".").toAbsolutePath();
         int points = args.length > 1 ? Integer.parseInt(args[1]) : 200;
         Path dir = Files.createTempDirectory("zweep-timing");
+        // the first run in a JVM pays for class loading and compilation (~0.5 s), not per point
+        runOnce(repo, dir, 50, 0, PointsCsvWriter.Sync.EACH_ROW, false);
         for (int list : new int[] {0, 201}) {
             for (PointsCsvWriter.Sync sync : new PointsCsvWriter.Sync[] {PointsCsvWriter.Sync.EACH_ROW,
                     PointsCsvWriter.Sync.BEHIND}) {
-                runOnce(repo, dir, points, list, sync);
+                runOnce(repo, dir, points, list, sync, true);
             }
         }
     }
 
-    private static void runOnce(Path repo, Path dir, int points, int list, PointsCsvWriter.Sync sync)
+    private static void runOnce(Path repo, Path dir, int points, int list, PointsCsvWriter.Sync sync,
+            boolean report)
             throws Exception {
         Path seq = BenchFiles.sweep(dir, BenchFiles.capacitorBench(repo), points, "20 ms");
         String dialect = BenchFiles.dialect(dir, list);
@@ -69,7 +73,7 @@ public final class RealTimingCheck {
                 InProcessSimulator.transport(server.connectInMemory(), "sim:counting"), ScpiSettings.DEFAULTS),
                 server::close);
         Plan plan = SequenceLoader.load(seq);
-        RunFolder folder = RunFolder.createAt(dir.resolve("run-" + list + "-" + sync), seq);
+        RunFolder folder = RunFolder.createAt(dir.resolve("run-" + points + "-" + list + "-" + sync), seq);
         RunSession session = new RunSession(plan, link, new RunSession.Setup(folder, false, seq.toString(), dialect,
                 null, ReconnectPolicy.DEFAULT, Prompter.refusing(), ProgressListener.QUIET, new Interruption(),
                 FixtureCompensation.NONE, SweepChecks.NONE, Clock.systemUTC(), "bench", sync));
@@ -79,6 +83,9 @@ public final class RealTimingCheck {
         double wall = (System.nanoTime() - t0) / 1e9;
         link.close();
         double m = meterS.sum();
+        if (!report) {
+            return;
+        }
         System.out.printf(Locale.ROOT,
                 "%s, rows synced %s: %d points, wall %.3f s, simulated meter time %.3f s, excess %.2f %%%n",
                 list == 0 ? "point by point" : "list sweep (201)", sync == PointsCsvWriter.Sync.EACH_ROW
