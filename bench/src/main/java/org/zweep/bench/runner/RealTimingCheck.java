@@ -7,7 +7,6 @@ import java.util.Locale;
 import java.util.concurrent.atomic.DoubleAdder;
 import org.zweep.driver.scpi.ScpiClient;
 import org.zweep.driver.scpi.ScpiSettings;
-import org.zweep.driver.transport.Transport;
 import org.zweep.runner.engine.FixtureCompensation;
 import org.zweep.runner.engine.Interruption;
 import org.zweep.runner.engine.ProgressListener;
@@ -17,8 +16,10 @@ import org.zweep.runner.engine.RunSession;
 import org.zweep.runner.engine.ScpiMeterLink;
 import org.zweep.runner.engine.SweepChecks;
 import org.zweep.runner.plan.Plan;
+import org.zweep.runner.results.PointsCsvWriter;
 import org.zweep.runner.results.RunFolder;
 import org.zweep.runner.sequence.SequenceLoader;
+import org.zweep.runner.sim.InProcessSimulator;
 import org.zweep.simulator.bench.Bench;
 import org.zweep.simulator.bench.BenchSpec;
 import org.zweep.simulator.bench.FixtureSlot;
@@ -30,7 +31,6 @@ import org.zweep.simulator.bench.Timing;
 import org.zweep.simulator.bench.Wiring;
 import org.zweep.simulator.scpi.InstrumentOptions;
 import org.zweep.simulator.scpi.TimingModel;
-import org.zweep.simulator.server.InMemoryConnection;
 import org.zweep.simulator.server.ServerOptions;
 import org.zweep.simulator.server.SimulatorServer;
 
@@ -38,7 +38,9 @@ import org.zweep.simulator.server.SimulatorServer;
  * Wall time of a run against the simulated meter's own time, with timing {@code real}:
  * {@code java -cp bench/target/benchmarks.jar org.zweep.bench.runner.RealTimingCheck [REPO [POINTS]]}.
  * The meter time is the sum of the bench's point durations; a sweep of POINTS (default 200)
- * points is run point by point and with list sweeps.
+ * points is run point by point and with list sweeps, each with rows synced before the next point
+ * starts (the run-folder contract) and synced behind, overlapped with the next point, after a
+ * discarded warm-up run.
  */
 public final class RealTimingCheck {
     private RealTimingCheck() {
@@ -48,33 +50,47 @@ public final class RealTimingCheck {
         Path repo = Path.of(args.length > 0 ? args[0] : ".").toAbsolutePath();
         int points = args.length > 1 ? Integer.parseInt(args[1]) : 200;
         Path dir = Files.createTempDirectory("zweep-timing");
+        // the first run in a JVM pays for class loading and compilation (~0.5 s), not per point
+        runOnce(repo, dir, 50, 0, PointsCsvWriter.Sync.EACH_ROW, false);
         for (int list : new int[] {0, 201}) {
-            Path seq = BenchFiles.sweep(dir, BenchFiles.capacitorBench(repo), points, "20 ms");
-            String dialect = BenchFiles.dialect(dir, list);
-            DoubleAdder meterS = new DoubleAdder();
-            Bench inner = new SimulatedBench(BenchSpec.load(BenchFiles.capacitorBench(repo)).withTiming(Timing.REAL));
-            SimulatorServer server = SimulatorServer.start(counting(inner, meterS), ServerOptions.defaults()
-                    .withTcp(false).withInstrument(InstrumentOptions.defaults().withTiming(TimingModel.REAL)));
-            ScpiMeterLink link = ScpiMeterLink.open("sim:counting", dialect, () -> {
-                InMemoryConnection c = server.connectInMemory();
-                return ScpiClient.connect(Transport.ofStreams(c.input(), c.output(), "sim:counting"),
-                        ScpiSettings.DEFAULTS);
-            }, server::close);
-            Plan plan = SequenceLoader.load(seq);
-            RunFolder folder = RunFolder.createAt(dir.resolve("run-" + list), seq);
-            RunSession session = new RunSession(plan, link, new RunSession.Setup(folder, false, seq.toString(), dialect,
-                    null, ReconnectPolicy.DEFAULT, Prompter.refusing(), ProgressListener.QUIET, new Interruption(),
-                    FixtureCompensation.NONE, SweepChecks.NONE, Clock.systemUTC(), "bench"));
-            meterS.reset();
-            long t0 = System.nanoTime();
-            session.run();
-            double wall = (System.nanoTime() - t0) / 1e9;
-            link.close();
-            double m = meterS.sum();
-            System.out.printf(Locale.ROOT, "%s: %d points, wall %.3f s, simulated meter time %.3f s, excess %.2f %%%n",
-                    list == 0 ? "point by point" : "list sweep (201)", plan.points().size(), wall, m,
-                    100 * (wall - m) / m);
+            for (PointsCsvWriter.Sync sync : new PointsCsvWriter.Sync[] {PointsCsvWriter.Sync.EACH_ROW,
+                    PointsCsvWriter.Sync.BEHIND}) {
+                runOnce(repo, dir, points, list, sync, true);
+            }
         }
+    }
+
+    private static void runOnce(Path repo, Path dir, int points, int list, PointsCsvWriter.Sync sync,
+            boolean report)
+            throws Exception {
+        Path seq = BenchFiles.sweep(dir, BenchFiles.capacitorBench(repo), points, "20 ms");
+        String dialect = BenchFiles.dialect(dir, list);
+        DoubleAdder meterS = new DoubleAdder();
+        Bench inner = new SimulatedBench(BenchSpec.load(BenchFiles.capacitorBench(repo)).withTiming(Timing.REAL));
+        SimulatorServer server = SimulatorServer.start(counting(inner, meterS), ServerOptions.defaults()
+                .withTcp(false).withInstrument(InstrumentOptions.defaults().withTiming(TimingModel.REAL)));
+        ScpiMeterLink link = ScpiMeterLink.open("sim:counting", dialect, () -> ScpiClient.connect(
+                InProcessSimulator.transport(server.connectInMemory(), "sim:counting"), ScpiSettings.DEFAULTS),
+                server::close);
+        Plan plan = SequenceLoader.load(seq);
+        RunFolder folder = RunFolder.createAt(dir.resolve("run-" + points + "-" + list + "-" + sync), seq);
+        RunSession session = new RunSession(plan, link, new RunSession.Setup(folder, false, seq.toString(), dialect,
+                null, ReconnectPolicy.DEFAULT, Prompter.refusing(), ProgressListener.QUIET, new Interruption(),
+                FixtureCompensation.NONE, SweepChecks.NONE, Clock.systemUTC(), "bench", sync));
+        meterS.reset();
+        long t0 = System.nanoTime();
+        session.run();
+        double wall = (System.nanoTime() - t0) / 1e9;
+        link.close();
+        double m = meterS.sum();
+        if (!report) {
+            return;
+        }
+        System.out.printf(Locale.ROOT,
+                "%s, rows synced %s: %d points, wall %.3f s, simulated meter time %.3f s, excess %.2f %%%n",
+                list == 0 ? "point by point" : "list sweep (201)", sync == PointsCsvWriter.Sync.EACH_ROW
+                        ? "before the next point" : "behind (overlapped)", plan.points().size(), wall, m,
+                100 * (wall - m) / m);
     }
 
     static Bench counting(Bench b, DoubleAdder total) {

@@ -97,7 +97,7 @@ public class RunnerOverheadBenchmark {
                 ReconnectPolicy.DEFAULT, line -> { });
         st.start(null);
         Path csv = dir.resolve("points-" + (run++) + ".csv");
-        try (PointsCsvWriter w = PointsCsvWriter.open(csv, sync)) {
+        try (PointsCsvWriter w = PointsCsvWriter.open(csv, sync ? PointsCsvWriter.Sync.EACH_ROW : PointsCsvWriter.Sync.NONE)) {
             return new RunEngine(plan, st, ReadingCorrector.NONE, new PointChecks(plan.checks()),
                     ProgressListener.QUIET, interruption).run(new BitSet(), w::append);
         } finally {

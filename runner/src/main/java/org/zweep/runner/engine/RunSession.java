@@ -44,10 +44,22 @@ public final class RunSession {
      * @param sweepChecks evaluates whole-sweep checks at the end
      * @param clock the wall clock
      * @param version the software version
+     * @param rowSync when rows reach the storage device: {@link PointsCsvWriter.Sync#EACH_ROW}
+     *     (the default) before the next point starts, as the run-folder contract asks, or
+     *     {@link PointsCsvWriter.Sync#BEHIND} while the next point is measured
      */
     public record Setup(RunFolder folder, boolean resuming, String sequenceFile, String dialect, Long seed,
             ReconnectPolicy reconnect, Prompter prompter, ProgressListener progress, Interruption interruption,
-            FixtureCompensation compensation, SweepChecks sweepChecks, Clock clock, String version) {
+            FixtureCompensation compensation, SweepChecks sweepChecks, Clock clock, String version,
+            PointsCsvWriter.Sync rowSync) {
+
+        /** A setup whose rows are synced before the next point starts ({@link PointsCsvWriter.Sync#EACH_ROW}). */
+        public Setup(RunFolder folder, boolean resuming, String sequenceFile, String dialect, Long seed,
+                ReconnectPolicy reconnect, Prompter prompter, ProgressListener progress, Interruption interruption,
+                FixtureCompensation compensation, SweepChecks sweepChecks, Clock clock, String version) {
+            this(folder, resuming, sequenceFile, dialect, seed, reconnect, prompter, progress, interruption,
+                    compensation, sweepChecks, clock, version, PointsCsvWriter.Sync.EACH_ROW);
+        }
     }
 
     /**
@@ -129,7 +141,7 @@ public final class RunSession {
         Waiter waiter = waits ? Waiter.sleeping(interruption) : Waiter.none(interruption);
         station = new Station(link, guard, setup.prompter(), waiter, setup.reconnect(), log);
         RunManifest manifest = null;
-        try (PointsCsvWriter writer = PointsCsvWriter.open(folder.points())) {
+        try (PointsCsvWriter writer = PointsCsvWriter.open(folder.points(), setup.rowSync())) {
             Long seed = setup.seed();
             if (seed == null && sim) {
                 seed = link.simulator().get().seed();

@@ -52,7 +52,7 @@ public final class ScpiMeterLink implements MeterLink {
     }
 
     private Meter connect() {
-        ScpiSession s = connector.get();
+        JoiningSession s = new JoiningSession(connector.get());
         try {
             DialectMeter m = new DialectMeter(s, dialect);
             MeterIdentity id = m.identify();

@@ -2,17 +2,19 @@ package org.zweep.runner.engine;
 
 import java.util.Locale;
 import org.zweep.driver.meter.MeterIdentity;
-import org.zweep.driver.scpi.ScpiSession;
 import org.zweep.runner.plan.Wiring;
 
-/** {@link SimulatorControl} through the simulator's {@code SIMulate} subsystem over any SCPI session. */
+/**
+ * {@link SimulatorControl} through the simulator's {@code SIMulate} subsystem over any SCPI session.
+ * The noise key travels in front of the next message (the trigger's), not as a write of its own.
+ */
 final class ScpiSimulatorControl implements SimulatorControl {
     /** The simulator's {@code *IDN?} manufacturer field. */
     static final String MANUFACTURER = "Kestrel Bench Instruments";
 
-    private final ScpiSession session;
+    private final JoiningSession session;
 
-    ScpiSimulatorControl(ScpiSession session) {
+    ScpiSimulatorControl(JoiningSession session) {
         this.session = session;
     }
 
@@ -40,7 +42,7 @@ final class ScpiSimulatorControl implements SimulatorControl {
 
     @Override
     public void setNoiseKey(long key) {
-        session.write(":SIM:NOIS:KEY " + key);
+        session.joinNext(":SIM:NOIS:KEY " + key);
     }
 
     @Override

@@ -5,7 +5,8 @@ import org.zweep.runner.plan.Wiring;
 /**
  * What only the simulator offers: switching what the fixture holds and how a transformer's second
  * winding is connected (so that operator prompts pass by themselves), and keying the noise of the
- * next point so that a run is reproducible point by point. Each call blocks until sent.
+ * next point so that a run is reproducible point by point. Each call blocks until sent, except
+ * {@link #setNoiseKey}, which may travel with the next message to the meter.
  */
 public interface SimulatorControl {
 
@@ -18,7 +19,10 @@ public interface SimulatorControl {
     /** Connects the second winding as {@code wiring} ({@link Wiring#NONE} leaves it as it is). */
     void setWiring(Wiring wiring);
 
-    /** Makes the noise of the next point (or list) depend only on the seed and {@code key}. */
+    /**
+     * Makes the noise of the next point (or list) depend only on the seed and {@code key}; may be
+     * sent with the next message (the trigger's) rather than on its own.
+     */
     void setNoiseKey(long key);
 
     /** Sets the seed all noise is drawn from. */

@@ -1,5 +1,7 @@
 package org.zweep.runner.engine;
 
+import java.util.concurrent.locks.LockSupport;
+
 /**
  * Waits on the host side (bias ramp steps, settling, delays, reconnect back-off). Tests and
  * simulator runs without timing use one that does not sleep.
@@ -25,10 +27,9 @@ public interface Waiter {
                 if (left <= 0) {
                     return;
                 }
-                try {
-                    Thread.sleep(Math.min(50, Math.max(1, left / 1_000_000)), 0);
-                } catch (InterruptedException e) {
-                    Thread.currentThread().interrupt();
+                // parks to the deadline: Thread.sleep would round every wait up to a whole millisecond
+                LockSupport.parkNanos(Math.min(50_000_000L, left));
+                if (Thread.currentThread().isInterrupted()) {
                     throw new RunInterruptedException("interrupted");
                 }
             }

@@ -1,18 +1,24 @@
 package org.zweep.runner.results;
 
 import java.util.List;
+import org.zweep.driver.impedance.DerivedParameter;
 import org.zweep.driver.impedance.Impedance;
 
 /**
  * The derived parameters of one impedance reading, under the column names of {@code points.csv}
- * (the same names as {@code zweep convert --json}). {@code NaN} means not applicable.
+ * (the same names as {@code zweep convert --json}: the {@link DerivedParameter} keys). {@code NaN}
+ * means not applicable.
  */
 public record Derived(double zOhm, double thetaDeg, double csF, double cpF, double lsH, double lpH, double rsOhm,
         double rpOhm, double d, double q) {
 
+    /** The parameters of the record's components, in component (and {@code points.csv}) order. */
+    private static final List<DerivedParameter> COLUMNS = List.of(DerivedParameter.Z, DerivedParameter.THETA,
+            DerivedParameter.CS, DerivedParameter.CP, DerivedParameter.LS, DerivedParameter.LP, DerivedParameter.RS,
+            DerivedParameter.RP, DerivedParameter.D, DerivedParameter.Q);
+
     /** The column names, in {@code points.csv} order. */
-    public static final List<String> NAMES =
-            List.of("z_ohm", "theta_deg", "cs_f", "cp_f", "ls_h", "lp_h", "rs_ohm", "rp_ohm", "d", "q");
+    public static final List<String> NAMES = COLUMNS.stream().map(DerivedParameter::key).toList();
 
     /** No derived parameters (voltage-ratio rows, rows without a value). */
     public static final Derived NONE = new Derived(Double.NaN, Double.NaN, Double.NaN, Double.NaN, Double.NaN,
@@ -20,24 +26,13 @@ public record Derived(double zOhm, double thetaDeg, double csF, double cpF, doub
 
     /** The derived parameters of {@code z}. */
     public static Derived of(Impedance z) {
-        return DerivedTable.of(z);
+        return fromValues(COLUMNS.stream().mapToDouble(p -> p.of(z)).toArray());
     }
 
     /** The value named {@code name} (one of {@link #NAMES}), or {@code NaN} for an unknown name. */
     public double value(String name) {
-        return switch (name) {
-            case "z_ohm" -> zOhm;
-            case "theta_deg" -> thetaDeg;
-            case "cs_f" -> csF;
-            case "cp_f" -> cpF;
-            case "ls_h" -> lsH;
-            case "lp_h" -> lpH;
-            case "rs_ohm" -> rsOhm;
-            case "rp_ohm" -> rpOhm;
-            case "d" -> d;
-            case "q" -> q;
-            default -> Double.NaN;
-        };
+        int i = NAMES.indexOf(name);
+        return i < 0 ? Double.NaN : values()[i];
     }
 
     /** The values in {@link #NAMES} order. */

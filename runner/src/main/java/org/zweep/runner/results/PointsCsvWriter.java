@@ -7,46 +7,78 @@ import java.nio.channels.FileChannel;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Path;
 import java.nio.file.StandardOpenOption;
+import java.util.concurrent.ExecutionException;
+import java.util.concurrent.ExecutorService;
+import java.util.concurrent.Executors;
+import java.util.concurrent.Future;
 
 /**
- * Appends rows to a {@code points.csv}, each one written, flushed and synced to the storage device
- * ({@link FileChannel#force}) before {@link #append} returns, so a power cut loses at most the row
- * being written. Writes the header when the file is new or empty.
+ * Appends rows to a {@code points.csv}. Every row is written to the operating system before
+ * {@link #append} returns, so killing the process ({@code kill -9}, a JVM crash) never loses a
+ * row that was appended. What a power cut or an operating-system crash can lose depends on the
+ * {@link Sync} mode (the device cache is trusted to honour {@code fdatasync}):
+ * <ul>
+ *   <li>{@link Sync#EACH_ROW} (the run engine's): a row asked to be synced is on the device when
+ *       {@code append} returns, so the engine starts the next point only once the last one is
+ *       durable; a power cut loses at most the point in progress (for a list sweep, whose rows
+ *       arrive in one reply and are synced once with the last, the sweep in progress).
+ *   <li>{@link Sync#BEHIND}: the sync runs on a background thread while the caller goes on (the
+ *       next point is measured meanwhile); the next {@code append} first waits for it, so at most
+ *       one sync is ever in flight. A power cut loses at most the point in progress <em>and</em>
+ *       the row appended just before it, if its sync had not finished.
+ *   <li>{@link Sync#NONE}: never synced before {@link #close()}; for benchmarks that measure
+ *       what syncing costs.
+ * </ul>
+ * Writes the header when the file is new or empty.
  *
- * <p>Not thread-safe: one run engine writes one file. I/O failures are thrown as
- * {@link UncheckedIOException}.
+ * <p>Not thread-safe: one run engine writes one file. I/O failures, a background sync's
+ * included (reported by the next call), are thrown as {@link UncheckedIOException}.
  */
 public final class PointsCsvWriter implements AutoCloseable {
+    /** When rows reach the storage device; see the class description for what each can lose. */
+    public enum Sync {
+        /** Synced before {@code append} returns. */
+        EACH_ROW,
+        /** Synced in the background, at most one sync in flight. */
+        BEHIND,
+        /** Synced only on close. */
+        NONE
+    }
+
     private final Path file;
     private final FileChannel channel;
-    private final boolean sync;
+    private final Sync mode;
+    private final ExecutorService syncer;
+    private Future<?> inFlight;
     private ByteBuffer buffer = ByteBuffer.allocate(1024);
 
-    private PointsCsvWriter(Path file, FileChannel channel, boolean sync) {
+    private PointsCsvWriter(Path file, FileChannel channel, Sync mode) {
         this.file = file;
         this.channel = channel;
-        this.sync = sync;
+        this.mode = mode;
+        this.syncer = mode == Sync.BEHIND ? Executors.newSingleThreadExecutor(r -> {
+            Thread t = new Thread(r, "zweep-points-sync");
+            t.setDaemon(true);
+            return t;
+        }) : null;
     }
 
     /**
-     * Opens {@code file} for appending (creating it with a header when missing or empty). A torn
-     * last line must have been removed first, see {@link PointsCsvReader#recover}.
+     * Opens {@code file} for appending with {@link Sync#EACH_ROW} (creating it with a header when
+     * missing or empty). A torn last line must have been removed first, see {@link PointsCsvReader#recover}.
      */
     public static PointsCsvWriter open(Path file) {
-        return open(file, true);
+        return open(file, Sync.EACH_ROW);
     }
 
-    /**
-     * As {@link #open(Path)}, choosing whether each row is synced to the device; {@code false} only
-     * for benchmarks that measure what the sync costs.
-     */
-    public static PointsCsvWriter open(Path file, boolean syncEachRow) {
+    /** As {@link #open(Path)}, with rows synced as {@code mode} says. */
+    public static PointsCsvWriter open(Path file, Sync mode) {
         try {
             FileChannel ch = FileChannel.open(file, StandardOpenOption.CREATE, StandardOpenOption.WRITE,
                     StandardOpenOption.APPEND);
-            PointsCsvWriter w = new PointsCsvWriter(file, ch, syncEachRow);
+            PointsCsvWriter w = new PointsCsvWriter(file, ch, mode);
             if (ch.size() == 0) {
-                w.writeLine(PointsCsv.HEADER);
+                w.writeLine(PointsCsv.HEADER, true);
             }
             return w;
         } catch (IOException e) {
@@ -59,24 +91,27 @@ public final class PointsCsvWriter implements AutoCloseable {
         return file;
     }
 
-    /** Appends {@code row} and syncs it to the device before returning. */
+    /** The sync mode. */
+    public Sync mode() {
+        return mode;
+    }
+
+    /** Appends {@code row} and syncs it (and every row before it) as the mode says. */
     public void append(PointRow row) {
         append(row, true);
     }
 
     /**
-     * Appends {@code row}; when {@code sync} is true, syncs it and every row before it to the device
-     * before returning (used once per list sweep, whose rows arrive together).
+     * Appends {@code row}; when {@code sync} is true, syncs it and every row before it as the mode
+     * says (the engine asks once per list sweep, whose rows arrive together). Blocks first until
+     * a background sync still in flight has finished.
      */
     public void append(PointRow row, boolean sync) {
         writeLine(PointsCsv.format(row), sync);
     }
 
-    private void writeLine(String line) {
-        writeLine(line, true);
-    }
-
     private void writeLine(String line, boolean syncNow) {
+        awaitInFlight();
         byte[] bytes = (line + "\n").getBytes(StandardCharsets.UTF_8);
         if (buffer.capacity() < bytes.length) {
             buffer = ByteBuffer.allocate(bytes.length * 2);
@@ -87,24 +122,76 @@ public final class PointsCsvWriter implements AutoCloseable {
             while (buffer.hasRemaining()) {
                 channel.write(buffer);
             }
-            if (sync && syncNow) {
+            if (syncNow && mode == Sync.EACH_ROW) {
                 channel.force(false);
             }
         } catch (IOException e) {
             throw new UncheckedIOException("cannot write " + file + ": " + e.getMessage(), e);
         }
+        if (syncNow && mode == Sync.BEHIND) {
+            inFlight = syncer.submit(() -> {
+                channel.force(false);
+                return null;
+            });
+        }
     }
 
-    /** Syncs and closes the file; I/O failures are thrown as {@link UncheckedIOException}. */
+    /** Waits, uninterruptibly, for the background sync in flight; rethrows its failure. */
+    private void awaitInFlight() {
+        Future<?> f = inFlight;
+        if (f == null) {
+            return;
+        }
+        inFlight = null;
+        boolean interrupted = false;
+        try {
+            while (true) {
+                try {
+                    f.get();
+                    return;
+                } catch (InterruptedException e) {
+                    interrupted = true;
+                } catch (ExecutionException e) {
+                    Throwable c = e.getCause();
+                    throw new UncheckedIOException("cannot sync " + file + ": " + c.getMessage(),
+                            c instanceof IOException io ? io : new IOException(c));
+                }
+            }
+        } finally {
+            if (interrupted) {
+                Thread.currentThread().interrupt();
+            }
+        }
+    }
+
+    /**
+     * Waits for a background sync, syncs and closes the file; I/O failures are thrown as
+     * {@link UncheckedIOException} (the file is closed all the same).
+     */
     @Override
     public void close() {
+        UncheckedIOException failure = null;
+        try {
+            awaitInFlight();
+        } catch (UncheckedIOException e) {
+            failure = e;
+        }
         try {
             if (channel.isOpen()) {
                 channel.force(true);
                 channel.close();
             }
         } catch (IOException e) {
-            throw new UncheckedIOException("cannot close " + file + ": " + e.getMessage(), e);
+            if (failure == null) {
+                failure = new UncheckedIOException("cannot close " + file + ": " + e.getMessage(), e);
+            }
+        } finally {
+            if (syncer != null) {
+                syncer.shutdown();
+            }
+        }
+        if (failure != null) {
+            throw failure;
         }
     }
 }

@@ -2,8 +2,10 @@ package org.zweep.runner.results;
 
 import com.fasterxml.jackson.annotation.JsonInclude;
 import com.fasterxml.jackson.annotation.JsonPropertyOrder;
+import com.fasterxml.jackson.core.JsonLocation;
 import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.databind.DeserializationFeature;
+import com.fasterxml.jackson.databind.JsonMappingException;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.PropertyNamingStrategies;
 import com.fasterxml.jackson.databind.SerializationFeature;
@@ -181,7 +183,7 @@ public record RunManifest(String format, SequenceInfo sequence, PartInfo part, L
         try {
             m = JSON.readValue(file.toFile(), RunManifest.class);
         } catch (JsonProcessingException e) {
-            throw new InvalidInputException(file + ": not a valid run manifest: " + e.getOriginalMessage(), e);
+            throw new InvalidInputException(problem(file, e), e);
         } catch (IOException e) {
             throw new UncheckedIOException("cannot read " + file + ": " + e.getMessage(), e);
         }
@@ -189,5 +191,33 @@ public record RunManifest(String format, SequenceInfo sequence, PartInfo part, L
             throw new InvalidInputException(file + ": format is " + m.format() + ", expected " + FORMAT);
         }
         return m;
+    }
+
+    /**
+     * {@code file:line:column: not a valid run manifest: what} (the field's path first when the
+     * value is the problem), from the parser's own location rather than its message, which names
+     * no position once the source is redacted.
+     */
+    static String problem(Path file, JsonProcessingException e) {
+        JsonLocation loc = e.getLocation();
+        String at = loc == null || loc.getLineNr() < 1 ? file + ": "
+                : file + ":" + loc.getLineNr() + ":" + loc.getColumnNr() + ": ";
+        String what = e.getOriginalMessage();
+        int nl = what.indexOf('\n');
+        if (nl >= 0) {
+            what = what.substring(0, nl);
+        }
+        if (e instanceof JsonMappingException m && !m.getPath().isEmpty()) {
+            StringBuilder path = new StringBuilder();
+            for (JsonMappingException.Reference r : m.getPath()) {
+                if (r.getFieldName() != null) {
+                    path.append(path.length() == 0 ? "" : ".").append(r.getFieldName());
+                } else if (r.getIndex() >= 0) {
+                    path.append('[').append(r.getIndex()).append(']');
+                }
+            }
+            what = path + ": " + what;
+        }
+        return at + "not a valid run manifest: " + what;
     }
 }

@@ -113,10 +113,19 @@ public final class InProcessSimulator implements AutoCloseable {
         return server;
     }
 
-    /** A new in-memory connection as a byte transport. */
+    /** A new in-memory connection as a byte transport (see {@link #transport}). */
     public Transport connectTransport() {
-        InMemoryConnection c = server.connectInMemory();
-        return Transport.ofStreams(c.input(), c.output(), address);
+        return transport(server.connectInMemory(), address);
+    }
+
+    /**
+     * A byte transport over an in-memory simulator connection whose reads wait on the caller's
+     * thread, with no pump thread between the simulator's reply and the client.
+     *
+     * @param name the name used in messages, e.g. the address
+     */
+    public static Transport transport(InMemoryConnection connection, String name) {
+        return new InMemoryTransport(connection, name);
     }
 
     /** A new in-memory connection as a SCPI session. */

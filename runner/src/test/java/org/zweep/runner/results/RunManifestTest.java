@@ -1,6 +1,7 @@
 package org.zweep.runner.results;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
@@ -78,6 +79,19 @@ class RunManifestTest {
         Path f = dir.resolve("run.json");
         Files.writeString(f, "{not json");
         InvalidInputException e = assertThrows(InvalidInputException.class, () -> RunManifest.read(f));
-        assertTrue(e.getMessage().startsWith(f + ": not a valid run manifest"), e.getMessage());
+        // RFC 8259 §4: member names are strings; the offending n is at line 1, column 2
+        assertEquals(f + ":1:2: not a valid run manifest: Unexpected character ('n' (code 110)): was expecting"
+                + " double-quote to start field name", e.getMessage());
+    }
+
+    @Test
+    void aValueOfTheWrongTypeIsNamedWithItsPathLineAndColumn() throws Exception {
+        Path f = dir.resolve("run.json");
+        Files.writeString(f, "{\n  \"format\": \"zweep-run/1\",\n  \"counts\": {\"planned\": \"many\"}\n}\n");
+        InvalidInputException e = assertThrows(InvalidInputException.class, () -> RunManifest.read(f));
+        // the value "many" starts at line 3, column 25 (counted by hand)
+        assertEquals(f + ":3:25: not a valid run manifest: counts.planned: Cannot deserialize value of type `int`"
+                + " from String \"many\": not a valid `int` value", e.getMessage());
+        assertFalse(e.getMessage().contains("Source"), e.getMessage());
     }
 }

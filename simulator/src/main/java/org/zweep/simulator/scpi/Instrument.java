@@ -447,21 +447,33 @@ public final class Instrument implements AutoCloseable {
                 s.averages, s.apertureS, range, key);
     }
 
+    /**
+     * Starts {@code job} on the worker. Its points are timed from now, the instant of the trigger,
+     * not from when the worker gets to them: the hand-off to the worker thread is part of the
+     * modelled duration rather than added to it.
+     */
     private void start(Job job) {
         state = State.MEASURING;
         status.setOperation(StatusModel.OPER_MEASURING, true);
-        running = worker.submit(() -> run(job));
+        long triggeredNanos = sleeper.nanoTime();
+        running = worker.submit(() -> run(job, triggeredNanos));
     }
 
-    private void run(Job job) {
+    /**
+     * Point {@code i} of a sweep ends at the trigger instant plus the modelled durations of points
+     * 0..i, so neither the physics' compute time nor a late wake-up of one point delays the next:
+     * the sweep as a whole takes what the timing model says, to within one wake-up.
+     */
+    private void run(Job job, long triggeredNanos) {
         if (job.collect() != null) {
-            collectRun(job);
+            collectRun(job, triggeredNanos);
             return;
         }
         List<PointRequest> points = job.points();
         double[] values = new double[points.size() * 2];
         boolean overload = false;
         double range = Double.NaN;
+        double elapsedS = 0.0;
         try {
             Bench b = bench;
             for (int i = 0; i < points.size(); i++) {
@@ -469,11 +481,10 @@ public final class Instrument implements AutoCloseable {
                     return;
                 }
                 PointRequest req = points.get(i);
-                long startNs = System.nanoTime();
                 PointResult r = b.measure(req);
                 if (timing == TimingModel.REAL) {
-                    // The point takes its modelled duration in all, the physics' own compute time included.
-                    sleeper.sleep(r.durationS() - (System.nanoTime() - startNs) / 1e9);
+                    elapsedS += r.durationS();
+                    sleeper.sleepUntil(triggeredNanos + (long) (elapsedS * 1e9));
                 }
                 range = r.rangeUsedOhm();
                 if (r.overload()) {
@@ -498,12 +509,12 @@ public final class Instrument implements AutoCloseable {
         finish(job, values, null, overload, range, null);
     }
 
-    private void collectRun(Job job) {
+    private void collectRun(Job job, long triggeredNanos) {
         MeterCorrection.Acquisition acq;
         try {
             acq = MeterCorrection.acquire(bench, job.grid(), job.points().get(0));
             if (timing == TimingModel.REAL) {
-                sleeper.sleep(acq.durationS());
+                sleeper.sleepUntil(triggeredNanos + (long) (acq.durationS() * 1e9));
             }
         } catch (InterruptedException e) {
             return;

@@ -2,26 +2,35 @@ package org.zweep.simulator.scpi;
 
 import java.util.concurrent.locks.LockSupport;
 
-/** Waits out a point's duration; replaced in unit tests so that nothing sleeps. */
-@FunctionalInterface
+/** The clock points are timed on and the wait for their end; replaced in unit tests so that nothing sleeps. */
 interface Sleeper {
-    /** Waits {@code seconds}; interruptible (ABORt cancels a running measurement). */
-    void sleep(double seconds) throws InterruptedException;
+    /** The monotonic clock, in nanoseconds ({@link System#nanoTime()} outside tests). */
+    long nanoTime();
 
     /**
-     * Parks until a deadline on the monotonic clock. {@code Thread.sleep(millis, nanos)} on JDK 17
-     * rounds the nanoseconds to a whole millisecond, which made every simulated point up to 1 ms
-     * longer than the timing model says.
+     * Waits until {@link #nanoTime()} reaches {@code deadlineNanos} (returns at once if it has);
+     * interruptible (ABORt cancels a running measurement).
      */
-    Sleeper THREAD = seconds -> {
-        if (seconds <= 0) {
-            return;
+    void sleepUntil(long deadlineNanos) throws InterruptedException;
+
+    /**
+     * Parks until a deadline on {@link System#nanoTime()}. {@code Thread.sleep(millis, nanos)} on
+     * JDK 17 rounds the nanoseconds to a whole millisecond, which made every simulated point up to
+     * 1 ms longer than the timing model says.
+     */
+    Sleeper THREAD = new Sleeper() {
+        @Override
+        public long nanoTime() {
+            return System.nanoTime();
         }
-        long deadline = System.nanoTime() + (long) (seconds * 1e9);
-        for (long left = deadline - System.nanoTime(); left > 0; left = deadline - System.nanoTime()) {
-            LockSupport.parkNanos(left);
-            if (Thread.interrupted()) {
-                throw new InterruptedException("measurement aborted");
+
+        @Override
+        public void sleepUntil(long deadlineNanos) throws InterruptedException {
+            for (long left = deadlineNanos - System.nanoTime(); left > 0; left = deadlineNanos - System.nanoTime()) {
+                LockSupport.parkNanos(left);
+                if (Thread.interrupted()) {
+                    throw new InterruptedException("measurement aborted");
+                }
             }
         }
     };

@@ -112,10 +112,25 @@ final class BytePipe {
     }
 
     private int read(byte[] b, int off, int len) throws IOException {
+        int n = read(b, off, len, readTimeoutMillis);
+        if (n == TIMED_OUT) {
+            throw new SocketTimeoutException("read timed out after " + readTimeoutMillis + " ms");
+        }
+        return n;
+    }
+
+    /** What {@link #read(byte[], int, int, long)} returns when nothing arrived in time. */
+    static final int TIMED_OUT = -2;
+
+    /**
+     * Reads at least one byte, waiting at most {@code timeout} ms (0: for ever) for the first.
+     *
+     * @return the number of bytes read, -1 at end of stream, or {@link #TIMED_OUT}
+     */
+    int read(byte[] b, int off, int len, long timeout) throws IOException {
         if (len == 0) {
             return 0;
         }
-        int timeout = readTimeoutMillis;
         long deadline = timeout > 0 ? System.nanoTime() + TimeUnit.MILLISECONDS.toNanos(timeout) : 0;
         boolean reported = false;
         lock.lock();
@@ -141,7 +156,7 @@ final class BytePipe {
                     long left = deadline - System.nanoTime();
                     if (left <= 0) {
                         readerWaiting = false;
-                        throw new SocketTimeoutException("read timed out after " + timeout + " ms");
+                        return TIMED_OUT;
                     }
                     wait = Math.min(wait, left);
                 }

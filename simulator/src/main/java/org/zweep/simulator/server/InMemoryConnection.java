@@ -1,5 +1,6 @@
 package org.zweep.simulator.server;
 
+import java.io.IOException;
 import java.io.InputStream;
 import java.io.OutputStream;
 
@@ -20,6 +21,23 @@ public final class InMemoryConnection implements AutoCloseable {
     /** Replies from the simulator; reading blocks until bytes arrive, -1 once the connection is closed. */
     public InputStream input() {
         return toClient.input;
+    }
+
+    /**
+     * Reads replies with a timeout on the calling thread, so that a client needs no pump thread
+     * (one thread hand-off less per reply than reading {@link #input()} from another thread).
+     *
+     * @param timeoutMillis the longest wait for the first byte; positive
+     * @return the number of bytes read (at least one), 0 if none arrived in time, -1 once the
+     *     connection is closed and every reply has been read
+     * @throws java.io.InterruptedIOException if the calling thread is interrupted while waiting
+     */
+    public int read(byte[] buffer, int offset, int length, long timeoutMillis) throws IOException {
+        if (timeoutMillis <= 0) {
+            throw new IllegalArgumentException("timeout must be positive, got " + timeoutMillis + " ms");
+        }
+        int n = toClient.read(buffer, offset, length, timeoutMillis);
+        return n == BytePipe.TIMED_OUT ? 0 : n;
     }
 
     /** Program messages to the simulator; writing blocks while the simulator's input buffer is full. */

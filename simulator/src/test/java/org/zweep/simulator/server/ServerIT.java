@@ -156,6 +156,21 @@ class ServerIT {
     }
 
     @Test
+    void aTimedInMemoryReadReturnsZeroWhenNothingArrivesAndTheReplyWhenItDoes() throws IOException {
+        start();
+        try (InMemoryConnection m = server.connectInMemory()) {
+            byte[] buf = new byte[64];
+            assertEquals(0, m.read(buf, 0, buf.length, 5), "no query sent: nothing to read");
+            m.output().write("*TST?\n".getBytes(StandardCharsets.US_ASCII));
+            int n = m.read(buf, 0, buf.length, 5_000);
+            // IEEE 488.2 §10.38: *TST? answers 0 when the self-test passed
+            assertEquals("0\n", new String(buf, 0, n, StandardCharsets.US_ASCII));
+            m.close();
+            assertEquals(-1, m.read(buf, 0, buf.length, 5), "closed: end of stream");
+        }
+    }
+
+    @Test
     void aServerWithoutTcpStillServesInMemory() throws IOException {
         server = SimulatorServer.start(TestBench.resistor(), ServerOptions.defaults().withTcp(false));
         assertEquals(-1, server.port());
