@@ -229,6 +229,13 @@ public final class Station {
         withRetry("turning bias off", () -> {
             if (applied.on()) {
                 if (lastSetting != null) {
+                    double seconds = Math.abs(applied.value()) / bias.rampPerS();
+                    if (seconds >= 1.0) {
+                        // Tell the operator why nothing seems to happen for a while.
+                        log.accept(String.format(java.util.Locale.ROOT, "bringing DC bias from %s %s down to 0 at"
+                                + " %s %s/s (about %.0f s)", num(applied.value()), applied.mode().unit(),
+                                num(bias.rampPerS()), applied.mode().unit(), seconds));
+                    }
                     ramp(lastSetting, applied.mode(), applied.value(), 0.0, bias.rampPerS());
                 }
                 link.meter().biasOff();
@@ -385,5 +392,9 @@ public final class Station {
 
     private static String fmt(double s) {
         return String.format(java.util.Locale.ROOT, "%.1f", s);
+    }
+
+    private static String num(double v) {
+        return java.math.BigDecimal.valueOf(v).stripTrailingZeros().toPlainString();
     }
 }
