@@ -21,6 +21,7 @@ class CompensationTest {
         // Hand-derived: Zs = 1 + j, Yo = 0.01 S, DUT 10 Ω, so Zm = Zs + 1/(Yo + 1/10) = 1 + 100/11 + j
         // and the open reads Zs + 1/Yo = 101 + j.
         Compensation c = Compensation.openShort(new Complex(101, 1), new Complex(1, 1));
+        // no outside source: arithmetic from the inputs above (topology A, check-values.md §3.1)
         assertClose(new Complex(10, 0), c.correct(new Complex(1 + 100.0 / 11, 1)), 1e-14);
     }
 
@@ -57,6 +58,7 @@ class CompensationTest {
         // Same hand-derived fixture as above; a 50 Ω load reads 1 + j + 1/(0.01 + 0.02) = 34.333… + j.
         Compensation c = Compensation.openShortLoad(new Complex(101, 1), new Complex(1, 1),
                 new Complex(1 + 100.0 / 3, 1), new Complex(50, 0));
+        // no outside source: arithmetic from the inputs above (cross-ratio form, check-values.md §3.2)
         assertClose(new Complex(10, 0), c.correct(new Complex(1 + 100.0 / 11, 1)), 1e-13);
     }
 
@@ -72,7 +74,7 @@ class CompensationTest {
             Complex load = new Complex(random.nextDouble(1, 1000), random.nextDouble(-500, 500));
             Complex dut = new Complex(random.nextDouble(0.1, 100), random.nextDouble(-100, 100));
             Compensation c = Compensation.openShortLoad(a.divide(cc), b.divide(a), abcd(a, b, cc, a, load), load);
-            assertClose(dut, c.correct(abcd(a, b, cc, a, dut)), 1e-9);
+            assertClose(dut, c.correct(abcd(a, b, cc, a, dut)), 1e-9); // source: check-values.md §3.2 consistency test
         }
     }
 
@@ -83,13 +85,14 @@ class CompensationTest {
     @Test
     void noCompensationReturnsTheReading() {
         Impedance z = new Impedance(1e3, 3, -4);
-        assertEquals(z, Compensation.none().correct(z));
+        assertEquals(z, Compensation.none().correct(z)); // the input back, no outside value
     }
 
     @Test
     void equalOpenAndShortReadingsAreRejected() {
         InvalidInputException e = assertThrows(InvalidInputException.class,
                 () -> Compensation.openShort(new Complex(1, 1), new Complex(1, 1)));
+        // our own message text; the numbers are the inputs above, no outside source
         assertEquals("the open and short readings are equal ((1.0, 1.0) Ω): compensation data unusable",
                 e.getMessage());
     }

@@ -10,7 +10,8 @@ class DerivedParameterTest {
 
     @Test
     void contractNamesAreExactlyTheDocumentedOnesInOrder() {
-        // issue 2, "zweep convert": the JSON field names are a contract
+        // issue 2, "zweep convert": the JSON field names are our own contract; 1 kHz, 3 + j4 Ω is our own demo
+        // input, not an outside value
         List<String> expected = List.of("frequency_hz", "r_ohm", "x_ohm", "z_ohm", "theta_deg", "delta_deg", "q", "d",
                 "g_s", "b_s", "cs_f", "cp_f", "ls_h", "lp_h", "rs_ohm", "rp_ohm");
         Map<String, Double> values = DerivedParameter.contractValues(new Impedance(1e3, 3, 4));
@@ -22,8 +23,8 @@ class DerivedParameterTest {
         Impedance z = Impedance.fromCsEsr(1e3, 1e-6, 1.0);
         Map<String, Double> values = DerivedParameter.contractValues(z);
         assertEquals(-159.15494, values.get("x_ohm"), 1e-5); // check-values.md §1.2 further values
-        assertEquals(1e-6, values.get("cs_f"), 1e-18); // the input
-        assertEquals(1.0, values.get("rs_ohm"), 1e-15); // the input
+        assertEquals(1e-6, values.get("cs_f"), 1e-18); // the input above, no outside source
+        assertEquals(1.0, values.get("rs_ohm"), 1e-15); // the input above, no outside source
         assertEquals(25_331.296, values.get("rp_ohm"), 1e-3); // check-values.md §2.2 P1
     }
 }

@@ -14,19 +14,20 @@ class TransformerAnalysisTest {
 
     @Test
     void x7TransformerFiguresComeOutOfARunFolder() throws Exception {
-        // check-values.md §7 X7 [calc]: L1 = 10 mH, n = 4, k = 0.99 → Lsc1 = 199.0 µH, V1/V2 = 4.0404 (= L1/M)
+        // source: check-values.md §7 X7 [calc]: L1 = 10 mH, n = 4, k = 0.99 → Lsc1 = 199.0 µH,
+        // V1/V2 = 4.0404 (= L1/M)
         Path dir = TestRunFolders.x7Transformer(tmp.resolve("run")).check("coupling", "k", "open", null, 0.98, null)
                 .write();
         AnalysisResult a = Analysis.analyze(RunData.read(dir), null);
         TransformerResult t = a.transformer();
-        assertEquals(0.99, t.k(), 1e-12);
-        assertEquals(4.0404, t.voltageRatio(), 1e-4);
-        assertEquals(4.000, t.turnsRatio(), 1e-12);
-        assertEquals(2.475e-3, t.mutualH(), 1e-12);
+        assertEquals(0.99, t.k(), 1e-12); // check-values.md §7 X7, k (also the model's input)
+        assertEquals(4.0404, t.voltageRatio(), 1e-4); // check-values.md §7 X7, r_fwd = L1/M
+        assertEquals(4.000, t.turnsRatio(), 1e-12); // check-values.md §7 X7, √(r_fwd·r_rev)
+        assertEquals(2.475e-3, t.mutualH(), 1e-12); // check-values.md §7 X7, M
         assertEquals(10e-3 * (1 - 0.99), t.leakageH(), 1e-15); // split-k, Wikipedia "Leakage inductance"
-        assertEquals(199.0e-6, t.shortH(), 1e-15);
+        assertEquals(199.0e-6, t.shortH(), 1e-15); // check-values.md §7 X7, L_sc1
         List<CheckOutcome> checks = Analysis.evaluateChecks(RunData.read(dir));
-        assertEquals("pass", checks.get(0).result());
+        assertEquals("pass", checks.get(0).result()); // k = 0.99 against our own demo limit k >= 0.98
         assertTrue(AnalysisJson.tree(a).at("/transformer/turns_ratio").isNumber());
     }
 }

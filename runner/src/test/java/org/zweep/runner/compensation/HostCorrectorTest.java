@@ -41,8 +41,8 @@ class HostCorrectorTest {
                 e(CorrectionStandard.OPEN, 1e6, 1.0632118354, -31830.8629224),
                 e(CorrectionStandard.SHORT, 1e6, 0.05, 0.125663706144)));
         Reading out = new HostCorrector(d, "test", null).correct(reading(1e6, 0.550197489669, 6.41008164433));
-        assertEquals(0.5, out.real(), 1e-8);
-        assertEquals(6.28318530718, out.imaginary(), 1e-8);
+        assertEquals(0.5, out.real(), 1e-8); // source: check-values.md §3.4 T-A
+        assertEquals(6.28318530718, out.imaginary(), 1e-8); // source: check-values.md §3.4 T-A
     }
 
     @Test
@@ -54,8 +54,8 @@ class HostCorrectorTest {
                 e(CorrectionStandard.LOAD, 1e6, 104.197060198, 4.86376149172)));
         Reading out = new HostCorrector(d, "test", new Impedance(1e6, 100, 0))
                 .correct(reading(1e6, 0.587717263528, 8.59911787287));
-        assertEquals(0.5, out.real(), 1e-9);
-        assertEquals(6.28318530718, out.imaginary(), 1e-9);
+        assertEquals(0.5, out.real(), 1e-9); // source: check-values.md §3.4 T-OSL
+        assertEquals(6.28318530718, out.imaginary(), 1e-9); // source: check-values.md §3.4 T-OSL
     }
 
     /** Residuals of check-values.md §3.4: Zs = 0.05 ohm + 20 nH, Yo = 1 nS + 5 pF (topology A). */
@@ -78,8 +78,8 @@ class HostCorrectorTest {
         CompensationData d = new CompensationData(info(List.of("OPEN", "SHORT")), entries);
         // T-A's DUT reading at 1 MHz (check-values.md §3.4): residuals linear in f, so interpolation is exact
         Reading out = new HostCorrector(d, "test", null).correct(reading(1e6, 0.550197489669, 6.41008164433));
-        assertEquals(0.5, out.real(), 1e-6);
-        assertEquals(6.28318530718, out.imaginary(), 1e-6);
+        assertEquals(0.5, out.real(), 1e-6); // source: check-values.md §3.4 T-A
+        assertEquals(6.28318530718, out.imaginary(), 1e-6); // source: check-values.md §3.4 T-A
     }
 
     @Test
@@ -88,6 +88,7 @@ class HostCorrectorTest {
                 e(CorrectionStandard.SHORT, 100, 0.05, 0.0), e(CorrectionStandard.SHORT, 1e5, 0.05, 0.01)));
         HostCorrector c = new HostCorrector(d, "comp.csv", null);
         InvalidInputException ex = assertThrows(InvalidInputException.class, () -> c.checkCovers(List.of(1e3, 1e6)));
+        // our own message text; the frequencies are the inputs above, no outside source
         assertTrue(ex.getMessage().startsWith("comp.csv: the SHORT data covers 100.0 Hz to 100000.0 Hz but the sweep"
                 + " needs 1000000.0 Hz; compensation is never extrapolated"), ex.getMessage());
     }
@@ -98,6 +99,6 @@ class HostCorrectorTest {
                 e(CorrectionStandard.OPEN, 1e3, 1e-3, -1.0e7), e(CorrectionStandard.SHORT, 1e3, 0.004, 1.2566e-5)));
         Path f = dir.resolve("c/host.csv");
         d.write(f);
-        assertEquals(d, CompensationData.read(f));
+        assertEquals(d, CompensationData.read(f)); // round trip of our own demo data, not an outside value
     }
 }

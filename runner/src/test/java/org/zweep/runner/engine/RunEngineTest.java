@@ -52,15 +52,16 @@ class RunEngineTest {
     void measuresEveryPointInPlanOrderWithPointChecksPerRow() {
         RunResult r = run(TestPlans.capacitor(), new BitSet());
         assertEquals(RunResult.Outcome.COMPLETED, r.outcome());
+        // our own demo plan (TestPlans.capacitor): 5 sweep points + 3 bias values × 2 frequencies = 11 points
         assertEquals(IntStream.range(0, 11).boxed().toList(), rows.stream().map(PointRow::point).toList());
         PointRow oneK = rows.get(1);
-        assertEquals(1000.0, oneK.frequencyHz());
+        assertEquals(1000.0, oneK.frequencyHz()); // our own demo plan's second frequency
         // 100 nF at 1 kHz: X_C = -1591.5494 ohm (check-values.md §1.2) -> Cs = 100 nF, D = 0.010/1591.5 = 6.3e-6
         assertEquals(-1591.5494, oneK.xOhm(), 1e-4);
-        assertEquals(100e-9, oneK.derived().csF(), 1e-15);
-        assertEquals("pass", oneK.check());
+        assertEquals(100e-9, oneK.derived().csF(), 1e-15); // our own demo data: FakeBench's 100 nF part
+        assertEquals("pass", oneK.check()); // against the plan's limits (TestPlans, check-values.md §5.3)
         assertEquals("", rows.get(0).check());
-        assertEquals(5.0, rows.get(10).bias());
+        assertEquals(5.0, rows.get(10).bias()); // our own demo plan's last bias value, not an outside value
         assertEquals("V", rows.get(10).biasMode());
     }
 
@@ -81,6 +82,7 @@ class RunEngineTest {
                 assertTrue(Math.abs(b.value()) <= rampPerS * Station.RAMP_STEP_S + 1e-9, "first step " + b);
             }
         }
+        // arithmetic from the plan's ramp limit and settle time (our own demo data, no outside source)
         // every biased point is measured at least the settle time (0.5 s) after the last bias change before it
         for (PointRow row : rows) {
             if (row.bias() == 0) {
@@ -98,6 +100,7 @@ class RunEngineTest {
     void biasIsOffAtTheNormalEnd() {
         run(TestPlans.capacitor(), new BitSet());
         assertEquals(Bias.OFF, bench.instrumentBias);
+        // 5 V is our own demo plan's highest bias, not an outside value
         assertTrue(bench.biasHistory.stream().anyMatch(e -> e.value() == 5.0), "bias was applied during the run");
     }
 
@@ -107,8 +110,10 @@ class RunEngineTest {
         RunResult r = run(TestPlans.capacitor(), new BitSet());
         assertEquals(RunResult.Outcome.FAILED, r.outcome());
         assertEquals(1, r.problems().size());
+        // -222 "Data out of range": SCPI-99 Vol 2 §21.8 (standards.md §2.3)
         assertTrue(r.problems().get(0).startsWith("step 'sweep' stopped: meter reported -222,\"Data out of range\""),
                 r.problems().get(0));
+        // arithmetic from the plan: the error at point 1 ends step 'sweep' (points 1-4), step 'bias' is 5-10
         assertEquals(List.of(0, 5, 6, 7, 8, 9, 10), rows.stream().map(PointRow::point).toList());
         assertEquals(Bias.OFF, bench.instrumentBias);
     }
@@ -124,7 +129,7 @@ class RunEngineTest {
         assertEquals("bias off", bench.trace.get(reconnect + 1), "bias off first after reconnecting");
         // the instrument kept 2 V while the link was down, then went off, then ramped up again
         assertTrue(bench.biasHistory.stream().anyMatch(e -> !e.on() && e.timeS() > 0), bench.biasHistory.toString());
-        assertEquals(2.0, rows.get(7).bias());
+        assertEquals(2.0, rows.get(7).bias()); // our own demo plan: point 7 is at 2 V
         assertEquals(1, notes.stream().filter(n -> n.startsWith("reconnected to fake:bench")).count(), notes.toString());
     }
 
@@ -135,6 +140,7 @@ class RunEngineTest {
         bench.failingReconnects = 3;
         RunResult r = run(TestPlans.capacitor(), new BitSet());
         assertEquals(RunResult.Outcome.FAILED, r.outcome());
+        // arithmetic from the inputs above: points 0 and 1 measured; waits 0.1 + 0.2 + 0.4 s = 0.7 s
         assertEquals(2, r.measured());
         assertTrue(r.problems().get(0).startsWith("lost the link to fake:bench while measuring at 10000.0 Hz and could"
                 + " not reconnect (3 attempts in 0.7 s since the last successful operation)"), r.problems().get(0));
@@ -149,6 +155,7 @@ class RunEngineTest {
         }
         RunResult r = run(TestPlans.capacitor(), new BitSet());
         assertEquals(RunResult.Outcome.FAILED, r.outcome());
+        // arithmetic from the inputs above: two triggers succeed, the policy allows four reconnects
         assertEquals(2, r.measured());
         assertEquals(4, bench.trace.stream().filter("reconnect"::equals).count() - 1,
                 "four reconnects for the point, one more to turn bias off at the end: " + bench.trace);
@@ -167,7 +174,7 @@ class RunEngineTest {
         };
         RunResult r = run(TestPlans.capacitor(), new BitSet());
         assertEquals(RunResult.Outcome.ABORTED, r.outcome());
-        assertEquals(8, rows.size());
+        assertEquals(8, rows.size()); // arithmetic from the inputs above: points 0-7
         assertEquals(Bias.OFF, bench.instrumentBias);
         assertEquals("stopped: Ctrl-C", r.problems().get(0));
     }
@@ -180,10 +187,11 @@ class RunEngineTest {
         BitSet done = new BitSet();
         done.set(0, 6);
         RunResult r = run(TestPlans.capacitor(), done);
+        // arithmetic from the inputs above: 6 done + 5 measured of the 11 points
         assertEquals(11, r.measured());
         assertEquals(List.of(6, 7, 8, 9, 10), rows.stream().map(PointRow::point).toList());
         for (PointRow row : rows) {
-            assertEquals(full.get(row.point()).rOhm(), row.rOhm(), 0.0);
+            assertEquals(full.get(row.point()).rOhm(), row.rOhm(), 0.0); // the first run's value, no outside source
         }
     }
 
@@ -191,6 +199,7 @@ class RunEngineTest {
     void listSweepIsUsedForPointsThatDifferOnlyInFrequencyAndSplitTheSameWayOnResume() {
         bench.maxListPoints = 3;
         run(TestPlans.capacitor(), new BitSet());
+        // arithmetic from the inputs above: at most 3 per list; sweep 0-4 → 3 + 2; bias pairs start at 5, 7, 9
         assertTrue(bench.trace.contains("list 3 key 0"), bench.trace.toString());
         assertTrue(bench.trace.contains("list 2 key 3"), bench.trace.toString());
         assertTrue(bench.trace.contains("list 2 key 9"), bench.trace.toString());
@@ -201,7 +210,7 @@ class RunEngineTest {
         done.set(1);
         run(TestPlans.capacitor(), done);
         assertEquals(2, rows.get(0).point());
-        assertEquals(full.get(2).rOhm(), rows.get(0).rOhm(), 0.0);
+        assertEquals(full.get(2).rOhm(), rows.get(0).rOhm(), 0.0); // the first run's value, no outside source
     }
 
     @Test
@@ -227,6 +236,7 @@ class RunEngineTest {
         MeasurementSetting hot = MeasurementSetting.at(1000).withBias(Bias.voltage(30.0)); // limit is 25 V
         InvalidInputException e = assertThrows(InvalidInputException.class,
                 () -> st.measure(hot, BiasControl.NONE, 0, 0));
+        // 25 V is our own test configuration (TestPlans.LIMITS), not an outside value
         assertTrue(e.getMessage().contains("DC bias 30.0 V exceeds the safety limit 25.0 V"), e.getMessage());
         assertTrue(bench.trace.isEmpty(), bench.trace.toString());
     }

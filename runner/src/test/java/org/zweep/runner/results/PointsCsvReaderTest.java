@@ -34,7 +34,7 @@ class PointsCsvReaderTest {
         Path f = writeRows(5);
         List<PointRow> rows = new ArrayList<>();
         PointsCsvReader.Recovery r = PointsCsvReader.recover(f, rows::add);
-        assertEquals(5, r.rows());
+        assertEquals(5, r.rows()); // arithmetic from the inputs above (rows written), no outside source
         assertFalse(r.tornLineDropped());
         assertEquals(List.of(0, 1, 2, 3, 4), rows.stream().map(PointRow::point).toList());
     }
@@ -47,6 +47,7 @@ class PointsCsvReaderTest {
 
         List<PointRow> rows = new ArrayList<>();
         PointsCsvReader.Recovery r = PointsCsvReader.recover(f, rows::add);
+        // arithmetic from the inputs above: 3 whole rows, then 1 appended; 4.0 Ω is our own demo data
         assertEquals(3, r.rows());
         assertTrue(r.tornLineDropped());
         try (PointsCsvWriter w = PointsCsvWriter.open(f)) {
@@ -63,6 +64,7 @@ class PointsCsvReaderTest {
         Path f = writeRows(2);
         Files.write(f, new byte[] {0, 0, 0, 0, '\n'}, StandardOpenOption.APPEND);
         PointsCsvReader.Recovery r = PointsCsvReader.recover(f, row -> { });
+        // arithmetic from the inputs above: 2 whole rows, the file keeps header + 2 lines; no outside source
         assertEquals(2, r.rows());
         assertTrue(r.tornLineDropped());
         assertEquals(3, Files.readAllLines(f).size());
@@ -88,7 +90,7 @@ class PointsCsvReaderTest {
 
     @Test
     void missingFileReadsAsEmpty() {
-        assertEquals(0, PointsCsvReader.recover(dir.resolve("none.csv"), r -> { }).rows());
+        assertEquals(0, PointsCsvReader.recover(dir.resolve("none.csv"), r -> { }).rows()); // no file, no rows
     }
 
     @Test
@@ -98,7 +100,7 @@ class PointsCsvReaderTest {
             w.append(PointsCsvTest.row(1, "s", 1.0, -1.0));
         }
         List<String> lines = Files.readAllLines(f);
-        assertEquals(3, lines.size());
+        assertEquals(3, lines.size()); // arithmetic from the inputs above: header + 2 rows
         assertEquals(PointsCsv.HEADER, lines.get(0));
         assertEquals(1, lines.stream().filter(PointsCsv.HEADER::equals).count());
     }

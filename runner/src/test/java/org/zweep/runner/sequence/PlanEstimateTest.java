@@ -23,6 +23,8 @@ class PlanEstimateTest {
                     integration: 100 ms
                     bias: {values: [0 V, 10 V], ramp: 5 V/s, settle: 1 s}
                 """);
+        // no outside source: arithmetic from the sequence above, 0.01 s overhead per point as input, and our own
+        // estimate rule (PlanEstimate: integration covers at least 2 periods).
         // by hand: 10 Hz needs 2 periods = 200 ms > 100 ms; per bias value 2·0.2 + 2·0.1 + 2·0.01 = 0.62 s;
         // bias 0 V → 10 V: 2 s ramp + 1 s settle; back to 0 V at the end: 2 s
         assertEquals(2 * 0.62 + 3.0 + 2.0, PlanEstimate.seconds(plan, 0.01), 1e-12);
@@ -30,6 +32,7 @@ class PlanEstimateTest {
 
     @Test
     void formatsForPeople() {
+        // our own display format; arithmetic from the inputs (185 s = 3 min 5 s, 3720 s = 1 h 2 min), no source
         assertEquals("42 s", PlanEstimate.format(42.4));
         assertEquals("3 min 5 s", PlanEstimate.format(185));
         assertEquals("1 h 2 min", PlanEstimate.format(3720));

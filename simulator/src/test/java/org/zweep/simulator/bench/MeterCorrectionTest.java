@@ -24,8 +24,8 @@ class MeterCorrectionTest {
                 .with(Standard.SHORT, one(1e6, 0.05, 0.125663706144))
                 .with(Standard.OPEN, one(1e6, 1.0632118354, -31830.8629224));
         Complex z = c.apply(1e6, new Complex(0.550197489669, 6.41008164433));
-        assertEquals(0.5, z.getReal(), 1e-9);
-        assertEquals(6.28318530718, z.getImaginary(), 1e-9);
+        assertEquals(0.5, z.getReal(), 1e-9); // source: check-values.md §3.4 T-A
+        assertEquals(6.28318530718, z.getImaginary(), 1e-9); // source: check-values.md §3.4 T-A
     }
 
     @Test
@@ -37,27 +37,27 @@ class MeterCorrectionTest {
                 .with(Standard.LOAD, one(1e6, 104.197060198, 4.86376149172))
                 .withLoadReference(new Complex(100, 0));
         Complex z = c.apply(1e6, new Complex(0.587717263528, 8.59911787287));
-        assertEquals(0.5, z.getReal(), 1e-9);
-        assertEquals(6.28318530718, z.getImaginary(), 1e-9);
+        assertEquals(0.5, z.getReal(), 1e-9); // source: check-values.md §3.4 T-OSL
+        assertEquals(6.28318530718, z.getImaginary(), 1e-9); // source: check-values.md §3.4 T-OSL
     }
 
     @Test
     void aLoadWithoutOpenAndShortIsNotUsed() {
         MeterCorrection c = MeterCorrection.none().with(Standard.LOAD, one(1e6, 104, 4));
         assertFalse(c.isActive());
-        assertEquals(new Complex(3, 4), c.apply(1e6, new Complex(3, 4)));
+        assertEquals(new Complex(3, 4), c.apply(1e6, new Complex(3, 4))); // the input back, no outside value
     }
 
     @Test
     void shortAloneSubtractsTheResidualAndOpenAloneRemovesTheStray() {
         // Zdut = Zm − Zs with Yo = 0; Zdut = Zm/(1 − Zm·Yo) with Zs = 0 (check-values.md §3.1)
         MeterCorrection s = MeterCorrection.none().with(Standard.SHORT, one(1e3, 0.1, 0.2));
-        assertEquals(new Complex(9.9, 19.8), s.apply(1e3, new Complex(10, 20)));
+        assertEquals(new Complex(9.9, 19.8), s.apply(1e3, new Complex(10, 20))); // arithmetic from the inputs above
         MeterCorrection o = MeterCorrection.none().with(Standard.OPEN, one(1e3, 0, -1e6));
         Complex zm = new Complex(100, 0);
         Complex yo = new Complex(0, 1e-6);
         Complex expected = zm.divide(Complex.ONE.subtract(zm.multiply(yo)));
-        assertEquals(0, o.apply(1e3, zm).subtract(expected).abs(), 1e-12);
+        assertEquals(0, o.apply(1e3, zm).subtract(expected).abs(), 1e-12); // source: check-values.md §3.1 formula
     }
 
     @Test
@@ -80,10 +80,10 @@ class MeterCorrectionTest {
         double f = 123456;
         Complex zs = new Complex(0.05, 2 * Math.PI * f * l);
         Complex corrected = c.apply(f, zs.add(new Complex(1, 1)));
-        assertEquals(0, corrected.subtract(new Complex(1, 1)).abs(), 1e-12);
+        assertEquals(0, corrected.subtract(new Complex(1, 1)).abs(), 1e-12); // arithmetic from the inputs above
         // outside the samples the nearest end is used
         Complex above = c.apply(2e6, new Complex(1, 1));
-        assertEquals(1 - 0.05, above.getReal(), 1e-12);
+        assertEquals(1 - 0.05, above.getReal(), 1e-12); // arithmetic from the inputs above, no outside source
     }
 
     @Test
@@ -99,12 +99,14 @@ class MeterCorrectionTest {
     @Test
     void acquisitionFrequenciesSpanTheMeterLogarithmically() {
         double[] f = MeterCorrection.frequencies(MeterSpec.defaults().limits(), 5);
+        // 10 Hz to 20 MHz is our own simulator configuration (MeterSpec.defaults), not an outside value
         assertEquals(10, f[0], 0);
         assertEquals(20e6, f[f.length - 1], 0);
         for (int i = 1; i < f.length; i++) {
             assertTrue(f[i] > f[i - 1]);
         }
-        assertEquals(33, f.length); // ceil(6.301·5) + 1
+        // arithmetic from the inputs above: ceil(log10(20e6 / 10)·5) + 1 = ceil(6.301·5) + 1
+        assertEquals(33, f.length);
     }
 
     @Test
@@ -127,6 +129,7 @@ class MeterCorrectionTest {
         b.setSlot(FixtureSlot.DEVICE);
         PointResult raw = b.measure(Requests.at(1e5));
         Complex z = c.apply(1e5, new Complex(raw.real(), raw.imaginary()));
+        // the device's own demo values (1 nF, 0.3 Ω ESR); X = −1/ωC from check-values.md §1.1, no other source
         double x = -1 / (2 * Math.PI * 1e5 * 1e-9); // X = −1/ωC
         assertEquals(0.3, z.getReal(), 1e-6);
         assertEquals(x, z.getImaginary(), 1e-6 * Math.abs(x));
