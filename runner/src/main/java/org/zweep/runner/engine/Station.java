@@ -233,8 +233,8 @@ public final class Station {
                     if (seconds >= 1.0) {
                         // Tell the operator why nothing seems to happen for a while.
                         log.accept(String.format(java.util.Locale.ROOT, "bringing DC bias from %s %s down to 0 at"
-                                + " %s %s/s (about %.0f s)", num(applied.value()), applied.mode().unit(),
-                                num(bias.rampPerS()), applied.mode().unit(), seconds));
+                                + " %s %s/s (about %.0f s)", ConsoleProgress.num(applied.value()), applied.mode().unit(),
+                                ConsoleProgress.num(bias.rampPerS()), applied.mode().unit(), seconds));
                     }
                     ramp(lastSetting, applied.mode(), applied.value(), 0.0, bias.rampPerS());
                 }
@@ -392,9 +392,5 @@ public final class Station {
 
     private static String fmt(double s) {
         return String.format(java.util.Locale.ROOT, "%.1f", s);
-    }
-
-    private static String num(double v) {
-        return java.math.BigDecimal.valueOf(v).stripTrailingZeros().toPlainString();
     }
 }
