@@ -12,7 +12,7 @@ import java.nio.charset.StandardCharsets;
 
 /** A minimal meter on loopback: answers every LF-terminated message with one fixed reply line. */
 final class EchoPeer implements AutoCloseable {
-    static final byte[] REPLY = "Kestrel Passives,KP-LCR-1,0001,1.0\n".getBytes(StandardCharsets.US_ASCII);
+    static final byte[] REPLY = "Korvane Passives,KP-LCR-1,0001,1.0\n".getBytes(StandardCharsets.US_ASCII);
 
     private final ServerSocket server;
     private final Thread thread;

@@ -57,8 +57,8 @@ class ScpiClientTest {
 
     @Test
     void queryAppendsLfAndStripsTheTerminator() {
-        meter.send("Kestrel Passives,KP-LCR-1,0001,1.0\n");
-        assertEquals("Kestrel Passives,KP-LCR-1,0001,1.0", client().query("*IDN?"));
+        meter.send("Korvane Passives,KP-LCR-1,0001,1.0\n");
+        assertEquals("Korvane Passives,KP-LCR-1,0001,1.0", client().query("*IDN?"));
         assertEquals(List.of("*IDN?\n"), meter.written());
     }
 
@@ -325,7 +325,7 @@ class ScpiClientTest {
 
     @Test
     void peerClosingMidReplyIsConnectionLostAndLaterCallsFailAtOnce() {
-        meter.send("Kestrel").end();
+        meter.send("Korvane").end();
         ScpiClient c = client();
         ConnectionLostException e = assertThrows(ConnectionLostException.class, () -> c.query("*IDN?"));
         assertTrue(e.getMessage().contains("'*IDN?'") && e.getMessage().contains("7 bytes received"),

@@ -10,7 +10,7 @@ import org.zweep.runner.plan.Wiring;
  */
 final class ScpiSimulatorControl implements SimulatorControl {
     /** The simulator's {@code *IDN?} manufacturer field. */
-    static final String MANUFACTURER = "Kestrel Bench Instruments";
+    static final String MANUFACTURER = "Korvane Bench Instruments";
 
     private final JoiningSession session;
 

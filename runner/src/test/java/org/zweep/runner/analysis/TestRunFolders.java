@@ -91,7 +91,7 @@ public final class TestRunFolders {
         steps.forEach((name, index) -> stepInfo.add(new RunManifest.StepInfo(index, name,
                 (int) rows.stream().filter(r -> r.step().equals(name)).count())));
         new RunManifest(RunManifest.FORMAT, new RunManifest.SequenceInfo("test", "/tmp/test.yaml", "00", "sequence.yaml"),
-                part, stepInfo, checks, new RunManifest.MeterInfo("sim:bench.yaml", "standard", "Kestrel Test,SIM-1,0001,1.0"),
+                part, stepInfo, checks, new RunManifest.MeterInfo("sim:bench.yaml", "standard", "Korvane Test,SIM-1,0001,1.0"),
                 new RunManifest.CompensationInfo("none", List.of(), null), new RunManifest.SoftwareInfo("zweep", "test"),
                 "test-host", 1L, "2024-05-01T10:00:00Z", time.toString(), new RunManifest.Counts(rows.size(), rows.size()),
                 "completed", "none").write(dir.resolve("run.json"));

@@ -18,7 +18,7 @@ import java.util.concurrent.CopyOnWriteArrayList;
  * {@code HANG?}. Serves connections one after another until closed.
  */
 final class TinyMeter implements AutoCloseable {
-    static final String IDN = "Kestrel Passives,KP-LCR-1,0001,1.0";
+    static final String IDN = "Korvane Passives,KP-LCR-1,0001,1.0";
 
     private final ServerSocket server;
     private final Thread thread;

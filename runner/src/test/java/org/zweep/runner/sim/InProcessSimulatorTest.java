@@ -13,7 +13,7 @@ class InProcessSimulatorTest {
     void simWithoutABenchFileServesTheDefault100OhmResistor() {
         try (InProcessSimulator sim = InProcessSimulator.start("sim:?timing=none");
                 ScpiSession meter = sim.connect(ScpiSettings.builder().build())) {
-            assertTrue(meter.query("*IDN?").startsWith("Kestrel Bench Instruments,"));
+            assertTrue(meter.query("*IDN?").startsWith("Korvane Bench Instruments,"));
             String[] z = meter.query("READ?").split(",");
             // README "zweep sim": the default device is a 100 Ω resistor; noise and fixture residuals are far below 1 %
             assertEquals(100.0, Double.parseDouble(z[0]), 1.0);

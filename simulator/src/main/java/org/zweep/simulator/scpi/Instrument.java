@@ -30,7 +30,7 @@ import org.zweep.simulator.bench.SourceKind;
  */
 public final class Instrument implements AutoCloseable {
     /** The manufacturer field of {@code *IDN?}: a made-up maker; the runner recognises the simulator by it. */
-    public static final String MANUFACTURER = "Kestrel Bench Instruments";
+    public static final String MANUFACTURER = "Korvane Bench Instruments";
     /** The model field of {@code *IDN?}. */
     public static final String MODEL = "ZS-1 Impedance Simulator";
     /** The firmware field of {@code *IDN?}: the version of this command set. */

@@ -78,9 +78,9 @@ class SerialTransportIT {
 
     @Test
     void queryRoundTripOverAPty() throws Exception {
-        ScriptedPeer script = ScriptedPeer.scripted().on("*CLS").reply("*IDN?", "Kestrel Passives,KP-LCR-1,0001,1.0\n");
+        ScriptedPeer script = ScriptedPeer.scripted().on("*CLS").reply("*IDN?", "Korvane Passives,KP-LCR-1,0001,1.0\n");
         ScpiClient c = connect(script, "?baud=115200", ScpiSettings.DEFAULTS);
-        assertEquals("Kestrel Passives,KP-LCR-1,0001,1.0", c.query("*IDN?"));
+        assertEquals("Korvane Passives,KP-LCR-1,0001,1.0", c.query("*IDN?"));
         assertEquals("*CLS", peer.takeCommand(Duration.ofSeconds(5)));
     }
 

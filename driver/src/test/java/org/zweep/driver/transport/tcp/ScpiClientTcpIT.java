@@ -64,9 +64,9 @@ class ScpiClientTcpIT {
 
     @Test
     void openFromAnAddressSendsClearStatusThenQueries() throws Exception {
-        ScriptedPeer peer = ScriptedPeer.scripted().on("*CLS").reply("*IDN?", "Kestrel Passives,KP-LCR-1,0001,1.0\n");
+        ScriptedPeer peer = ScriptedPeer.scripted().on("*CLS").reply("*IDN?", "Korvane Passives,KP-LCR-1,0001,1.0\n");
         ScpiClient c = connect(peer, ScpiSettings.DEFAULTS);
-        assertEquals("Kestrel Passives,KP-LCR-1,0001,1.0", c.query("*IDN?"));
+        assertEquals("Korvane Passives,KP-LCR-1,0001,1.0", c.query("*IDN?"));
         assertEquals("*CLS", peer.takeCommand(WAIT));
         assertEquals("*IDN?", peer.takeCommand(WAIT));
     }
@@ -163,7 +163,7 @@ class ScpiClientTcpIT {
 
     @Test
     void peerClosingMidReplyIsConnectionLost() {
-        ScriptedPeer peer = ScriptedPeer.scripted().on("*IDN?", send("Kestrel Pass"), close());
+        ScriptedPeer peer = ScriptedPeer.scripted().on("*IDN?", send("Korvane Pass"), close());
         ConnectionLostException e = assertThrows(ConnectionLostException.class, () -> connect(peer, FAST).query("*IDN?"));
         assertTrue(e.getMessage().contains(server.address()) && e.getMessage().contains("'*IDN?'"), e.getMessage());
     }
@@ -227,7 +227,7 @@ class ScpiClientTcpIT {
     @Test
     void traceFileRecordsBothDirectionsAndTimeouts(@TempDir Path dir) throws Exception {
         Path trace = dir.resolve("trace.log");
-        ScriptedPeer peer = ScriptedPeer.scripted().reply("*IDN?", "Kestrel\r\n").on("X?", stall());
+        ScriptedPeer peer = ScriptedPeer.scripted().reply("*IDN?", "Korvane\r\n").on("X?", stall());
         ScpiClient c = connect(peer, FAST.toBuilder().tracePath(trace).build());
         c.query("*IDN?");
         assertThrows(MeterTimeoutException.class, () -> c.query("X?"));
@@ -235,7 +235,7 @@ class ScpiClientTcpIT {
         List<String> lines = Files.readAllLines(trace);
         assertTrue(lines.get(0).matches("\\S+Z ! connected to tcp://127\\.0\\.0\\.1:\\d+"), lines.get(0));
         assertTrue(lines.get(1).endsWith(" > *IDN?\\n"), lines.get(1));
-        assertTrue(lines.get(2).endsWith(" < Kestrel\\r\\n"), lines.get(2));
+        assertTrue(lines.get(2).endsWith(" < Korvane\\r\\n"), lines.get(2));
         assertTrue(lines.get(3).endsWith(" > X?\\n"), lines.get(3));
         assertTrue(lines.get(4).contains(" ! timeout after 300 ms"), lines.get(4));
     }
