@@ -105,13 +105,18 @@ final class RunLauncher {
             if (lock == null) {
                 lock = FolderLock.acquire(folder.dir(), clock.instant());
             }
-            copyBench(plan, sequenceFile, folder);
-            copyDialect(plan, sequenceFile, folder);
-            // written before the meter is reached, so that a run stopped before its first point
-            // (SIGTERM while connecting) leaves a folder that --resume completes
-            RunSession.freshManifest(plan, folder, sequenceFile.toAbsolutePath().toString(),
-                    new RunManifest.MeterInfo(plan.meter().address(), plan.meter().dialect(), null), o.seed(), clock,
-                    VersionProvider.version()).write(folder.manifest());
+            try {
+                copyBench(plan, sequenceFile, folder);
+                copyDialect(plan, sequenceFile, folder);
+                // written before the meter is reached, so that a run stopped before its first point
+                // (SIGTERM while connecting) leaves a folder that --resume completes
+                RunSession.freshManifest(plan, folder, sequenceFile.toAbsolutePath().toString(),
+                        new RunManifest.MeterInfo(plan.meter().address(), plan.meter().dialect(), null), o.seed(),
+                        clock, VersionProvider.version()).write(folder.manifest());
+            } catch (UncheckedIOException e) {
+                // nothing measured yet: the folder is refused (a full disk, permissions)
+                throw new InvalidInputException(e.getMessage(), e);
+            }
             out.println("run folder: " + folder.dir());
             return execute(plan, folder, false, sequenceFile.toAbsolutePath().toString(), o.seed(), o);
         } catch (RuntimeException e) {

@@ -146,6 +146,7 @@ public final class RunSession {
             }
             station.start(seed);
             SafetyGuard.checkCapabilities(plan, station.capabilities(), "dialect " + setup.dialect());
+            SafetyGuard.checkCapabilities(plan, station.statedLimits(), "as the meter states its limits");
             manifest = manifest(seed);
             manifest.write(folder.manifest());
             ReadingCorrector corrector = ReadingCorrector.NONE;

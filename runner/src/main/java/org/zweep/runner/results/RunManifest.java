@@ -185,6 +185,11 @@ public record RunManifest(String format, SequenceInfo sequence, PartInfo part, L
                 Files.move(tmp, file, StandardCopyOption.REPLACE_EXISTING);
             }
         } catch (IOException e) {
+            try {
+                Files.deleteIfExists(tmp);
+            } catch (IOException ignored) {
+                // the failure below is what the user must see
+            }
             throw new UncheckedIOException("cannot write " + file + ": " + e.getMessage(), e);
         }
     }
