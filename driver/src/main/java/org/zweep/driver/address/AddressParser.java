@@ -9,8 +9,11 @@ import org.zweep.driver.address.SerialParameters.Parity;
 
 /** The address grammar of {@link Address}; every error names the offending part. */
 final class AddressParser {
-    private static final String FORMS = "tcp://HOST[:PORT], vxi11://HOST[:PORT][/DEVICE], serial:DEVICE[?baud=N&...], "
-            + "sim:[BENCH], TCPIP::HOST::PORT::SOCKET, TCPIP::HOST[::DEVICE]::INSTR or ASRL<device>::INSTR";
+    private static final String FORMS = "tcp://HOST[:PORT], vxi11://HOST[:PORT][/DEVICE], hislip://HOST[:PORT][/SUBADDRESS], "
+            + "serial:DEVICE[?baud=N&...], "
+            + "usbtmc:/dev/usbtmcN, sim:[BENCH], TCPIP::HOST::PORT::SOCKET, TCPIP::HOST[::DEVICE]::INSTR, "
+            + "TCPIP::HOST::hislip0::INSTR, "
+            + "USB::VID::PID::SERIAL::INSTR or ASRL<device>::INSTR";
 
     private AddressParser() {
     }
@@ -26,6 +29,19 @@ final class AddressParser {
         }
         if (lower.startsWith("vxi11://")) {
             return vxi11(text, text.substring("vxi11://".length()));
+        }
+        if (lower.startsWith("hislip://")) {
+            return hislip(text, text.substring("hislip://".length()));
+        }
+        if (lower.startsWith("usbtmc:")) {
+            String device = text.substring("usbtmc:".length());
+            if (device.isBlank()) {
+                throw new InvalidInputException("address '" + text + "': missing device node, e.g. usbtmc:/dev/usbtmc0");
+            }
+            return new UsbtmcAddress(text, device, null);
+        }
+        if (lower.startsWith("usb")) {
+            return visaUsb(text);
         }
         if (lower.startsWith("serial:")) {
             return serial(text, text.substring("serial:".length()));
@@ -72,6 +88,19 @@ final class AddressParser {
         String[] hostPort = hostAndPort(text, authority, "vxi11://[::1]/inst0");
         int port = hostPort[1] == null ? Vxi11Address.DEFAULT_PORTMAPPER_PORT : port(text, hostPort[1]);
         return new Vxi11Address(text, hostPort[0], port, lanDevice(text, device));
+    }
+
+    /** {@code hislip://HOST[:PORT][/SUBADDRESS]}. */
+    private static HislipAddress hislip(String text, String rest) {
+        int slash = rest.indexOf('/');
+        String authority = slash >= 0 ? rest.substring(0, slash) : rest;
+        String sub = slash >= 0 ? rest.substring(slash + 1) : HislipAddress.DEFAULT_SUB_ADDRESS;
+        if (authority.isEmpty()) {
+            throw new InvalidInputException("address '" + text + "': missing host after 'hislip://'");
+        }
+        String[] hostPort = hostAndPort(text, authority, "hislip://[::1]/hislip0");
+        int port = hostPort[1] == null ? HislipAddress.DEFAULT_PORT : port(text, hostPort[1]);
+        return new HislipAddress(text, hostPort[0], port, lanDevice(text, sub));
     }
 
     /** A LAN device name: {@code inst0}, {@code gpib0,5}; no separators, spaces or slashes. */
@@ -253,10 +282,55 @@ final class AddressParser {
                     + "socket is TCPIP::" + parts[1] + "::" + device + "::SOCKET");
         }
         if (device.toLowerCase(Locale.ROOT).startsWith("hislip")) {
-            throw new InvalidInputException("address '" + text + "': HiSLIP is not supported yet; use VXI-11 "
-                    + "(TCPIP::" + parts[1] + "::INSTR) or the raw socket (TCPIP::" + parts[1] + "::5025::SOCKET)");
+            // hislipN or hislipN,PORT (VPP-4.3)
+            int comma = device.indexOf(',');
+            String sub = comma >= 0 ? device.substring(0, comma) : device;
+            int port = comma >= 0 ? port(text, device.substring(comma + 1)) : HislipAddress.DEFAULT_PORT;
+            return new HislipAddress(text, parts[1], port, lanDevice(text, sub));
         }
         return new Vxi11Address(text, parts[1], Vxi11Address.DEFAULT_PORTMAPPER_PORT, lanDevice(text, device));
+    }
+
+    /** {@code USB[board]::VID::PID::SERIAL[::INTFC][::INSTR]} (VPP-4.3); ids in hex (0x…) or decimal. */
+    private static UsbtmcAddress visaUsb(String text) {
+        String[] parts = text.split("::", -1);
+        String board = parts[0].substring("USB".length());
+        if (!board.chars().allMatch(Character::isDigit)) {
+            throw new InvalidInputException("address '" + text + "': '" + parts[0]
+                    + "' is not USB followed by an optional board number");
+        }
+        String last = parts[parts.length - 1];
+        if (last.equalsIgnoreCase("RAW")) {
+            throw new InvalidInputException("address '" + text + "': USB RAW resources are not supported; "
+                    + "a USBTMC instrument is USB::VID::PID::SERIAL::INSTR");
+        }
+        int fields = last.equalsIgnoreCase("INSTR") ? parts.length - 1 : parts.length;
+        if (fields < 4 || fields > 5) {
+            throw new InvalidInputException("address '" + text + "': a VISA USB instrument is "
+                    + "USB[board]::VID::PID::SERIAL[::INTERFACE]::INSTR, e.g. USB0::0x1234::0x5678::SN0001::INSTR");
+        }
+        int vendor = usbNumber(text, "vendor id", parts[1], 0xFFFF);
+        int product = usbNumber(text, "product id", parts[2], 0xFFFF);
+        if (parts[3].isEmpty()) {
+            throw new InvalidInputException("address '" + text + "': missing serial number");
+        }
+        int intf = fields == 5 ? usbNumber(text, "interface number", parts[4], 0xFF) : 0;
+        return new UsbtmcAddress(text, null, new UsbtmcAddress.UsbId(vendor, product, parts[3], intf));
+    }
+
+    private static int usbNumber(String text, String what, String s, int max) {
+        String lower = s.toLowerCase(Locale.ROOT);
+        boolean hex = lower.startsWith("0x");
+        String digits = hex ? lower.substring(2) : lower;
+        int radix = hex ? 16 : 10;
+        if (!digits.isEmpty() && digits.length() <= 6 && digits.chars().allMatch(c -> Character.digit(c, radix) >= 0)) {
+            int v = Integer.parseInt(digits, radix);
+            if (v <= max) {
+                return v;
+            }
+        }
+        throw new InvalidInputException("address '" + text + "': " + what + " '" + s + "' is not a number from 0 to 0x"
+                + Integer.toHexString(max).toUpperCase(Locale.ROOT) + " (hex with 0x, or decimal)");
     }
 
     /** {@code ASRL<device>[::INSTR][?options]}; the device is a path or port name, not a VISA board number. */
