@@ -96,13 +96,14 @@ public final class FaultSurvivalCheck {
         Path bench = benchOf(seq);
         String name = seq.getFileName().toString().replace(".yaml", "") + "-" + kind.replaceAll("[^a-z0-9.]", "_")
                 + "-" + seed;
-        Path ref = dir.resolve(name + "-reference");
+        // each run in a folder of its own: host-side compensation data in sibling run folders would be reused
+        Path ref = dir.resolve(name + "-reference").resolve("run");
         int refCode;
         try (SimulatorServer server = server(bench, FaultPlan.none())) {
             refCode = zweep(run(seq, server, ref, seed));
         }
         Map<Integer, PointRow> expected = rows(ref);
-        Path out = dir.resolve(name);
+        Path out = dir.resolve(name).resolve("run");
         String problem = null;
         int resumes = 0;
         boolean unattended;
