@@ -15,7 +15,7 @@ import org.zweep.runner.engine.ReadingCorrector;
 
 /**
  * Corrects readings with stored standards: at a stored frequency the stored readings are used as
- * they are; between two stored frequencies each standard is interpolated linearly in frequency
+ * they are (an OPEN beyond the meter's range as admittance 0); between two stored frequencies each standard is interpolated linearly in frequency
  * (the open as an admittance G + jB, the short and load as impedances R + jX, the quantities
  * that the usual residual models make linear in frequency); outside the stored span it refuses.
  * Not thread-safe (caches one correction per frequency).
@@ -73,19 +73,19 @@ public final class HostCorrector implements ReadingCorrector {
         boolean open = has(CorrectionStandard.OPEN);
         boolean shrt = has(CorrectionStandard.SHORT);
         boolean load = has(CorrectionStandard.LOAD);
-        Complex zo = open ? at(CorrectionStandard.OPEN, f) : null;
+        Complex yo = open ? openAdmittanceAt(f) : null;
         Complex zs = shrt ? at(CorrectionStandard.SHORT, f) : null;
         if (open && shrt && load) {
             if (loadKnown == null) {
                 throw new InvalidInputException(source + ": load data but no known load value in the sequence");
             }
-            return Compensation.openShortLoad(zo, zs, at(CorrectionStandard.LOAD, f), loadKnown);
+            return Compensation.openShortLoadFromAdmittance(yo, zs, at(CorrectionStandard.LOAD, f), loadKnown);
         }
         if (open && shrt) {
-            return Compensation.openShort(zo, zs);
+            return Compensation.openShortFromAdmittance(yo, zs);
         }
         if (open) {
-            return Compensation.fromResiduals(Complex.ZERO, zo.reciprocal());
+            return Compensation.fromResiduals(Complex.ZERO, yo);
         }
         if (shrt) {
             return Compensation.fromResiduals(zs, Complex.ZERO);
@@ -93,12 +93,32 @@ public final class HostCorrector implements ReadingCorrector {
         throw new InvalidInputException(source + ": holds no OPEN or SHORT data");
     }
 
-    private boolean has(CorrectionStandard s) {
-        return data.entries().stream().anyMatch(e -> e.standard() == s);
+    /**
+     * The OPEN's admittance at {@code f}, interpolated linearly between stored points; 0 where the
+     * meter read the open as beyond its range (an admittance below what it can see).
+     */
+    private Complex openAdmittanceAt(double f) {
+        List<CompensationData.Entry> e = span(CorrectionStandard.OPEN, f);
+        for (int i = 0; i < e.size(); i++) {
+            CompensationData.Entry a = e.get(i);
+            if (Math.abs(a.frequencyHz() - f) <= SAME * f) {
+                return admittance(a);
+            }
+            if (i + 1 < e.size() && e.get(i + 1).frequencyHz() > f) {
+                CompensationData.Entry b = e.get(i + 1);
+                double t = (f - a.frequencyHz()) / (b.frequencyHz() - a.frequencyHz());
+                return admittance(a).multiply(1 - t).add(admittance(b).multiply(t));
+            }
+        }
+        return admittance(e.get(e.size() - 1));
     }
 
-    /** The standard's impedance at {@code f}, interpolated (open in admittance) between stored points. */
-    private Complex at(CorrectionStandard s, double f) {
+    private static Complex admittance(CompensationData.Entry e) {
+        return e.overRange() ? Complex.ZERO : new Complex(e.rOhm(), e.xOhm()).reciprocal();
+    }
+
+    /** The entries of {@code s}, once {@code f} is known to lie within their span. */
+    private List<CompensationData.Entry> span(CorrectionStandard s, double f) {
         List<CompensationData.Entry> e = data.of(s);
         double lo = e.get(0).frequencyHz();
         double hi = e.get(e.size() - 1).frequencyHz();
@@ -107,6 +127,16 @@ public final class HostCorrector implements ReadingCorrector {
                     + " Hz but the sweep needs " + f + " Hz; compensation is never extrapolated: measure the"
                     + " standards over the sweep's range (or lower the reuse age)");
         }
+        return e;
+    }
+
+    private boolean has(CorrectionStandard s) {
+        return data.entries().stream().anyMatch(e -> e.standard() == s);
+    }
+
+    /** The SHORT's or LOAD's impedance at {@code f}, interpolated linearly between stored points. */
+    private Complex at(CorrectionStandard s, double f) {
+        List<CompensationData.Entry> e = span(s, f);
         for (int i = 0; i < e.size(); i++) {
             CompensationData.Entry a = e.get(i);
             if (Math.abs(a.frequencyHz() - f) <= SAME * f) {
@@ -115,13 +145,7 @@ public final class HostCorrector implements ReadingCorrector {
             if (i + 1 < e.size() && e.get(i + 1).frequencyHz() > f) {
                 CompensationData.Entry b = e.get(i + 1);
                 double t = (f - a.frequencyHz()) / (b.frequencyHz() - a.frequencyHz());
-                Complex za = new Complex(a.rOhm(), a.xOhm());
-                Complex zb = new Complex(b.rOhm(), b.xOhm());
-                if (s == CorrectionStandard.OPEN) {
-                    Complex y = za.reciprocal().multiply(1 - t).add(zb.reciprocal().multiply(t));
-                    return y.reciprocal();
-                }
-                return za.multiply(1 - t).add(zb.multiply(t));
+                return new Complex(a.rOhm(), a.xOhm()).multiply(1 - t).add(new Complex(b.rOhm(), b.xOhm()).multiply(t));
             }
         }
         CompensationData.Entry last = e.get(e.size() - 1);
