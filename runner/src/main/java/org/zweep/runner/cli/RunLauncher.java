@@ -266,16 +266,16 @@ final class RunLauncher {
         CheckLimit.Selection s = l.selection();
         List<String> sel = new ArrayList<>();
         if (!Double.isNaN(s.frequencyHz())) {
-            sel.add(Quantities.format(s.frequencyHz(), Unit.HERTZ, 4));
+            sel.add(Quantities.formatShort(s.frequencyHz(), Unit.HERTZ, 4));
         }
         if (!Double.isNaN(s.bias())) {
-            sel.add("bias " + Quantities.format(s.bias(), Unit.NONE, 4));
+            sel.add("bias " + Quantities.formatShort(s.bias(), Unit.NONE, 4));
         }
         if (!Double.isNaN(s.level())) {
-            sel.add("level " + Quantities.format(s.level(), Unit.NONE, 4));
+            sel.add("level " + Quantities.formatShort(s.level(), Unit.NONE, 4));
         }
         if (!Double.isNaN(l.dropPercent())) {
-            sel.add(String.format(Locale.ROOT, "%s %% drop", Quantities.format(l.dropPercent(), Unit.NONE, 4)));
+            sel.add(String.format(Locale.ROOT, "%s %% drop", Quantities.formatShort(l.dropPercent(), Unit.NONE, 4)));
         }
         if (!sel.isEmpty()) {
             where.append(" at ").append(String.join(", ", sel));
@@ -284,11 +284,11 @@ final class RunLauncher {
         if (c.values().isEmpty()) {
             value = "no value";
         } else if (c.values().size() == 1) {
-            value = Quantities.format(c.values().get(0), c.unit(), 4);
+            value = Quantities.formatShort(c.values().get(0), c.unit(), 4);
         } else {
             double lo = c.values().stream().mapToDouble(Double::doubleValue).min().orElseThrow();
             double hi = c.values().stream().mapToDouble(Double::doubleValue).max().orElseThrow();
-            value = Quantities.format(lo, c.unit(), 4) + " … " + Quantities.format(hi, c.unit(), 4) + " ("
+            value = Quantities.formatShort(lo, c.unit(), 4) + " … " + Quantities.formatShort(hi, c.unit(), 4) + " ("
                     + c.values().size() + " points)";
         }
         return String.format(Locale.ROOT, "check %-22s %s%s in %s = %s: %s%s", l.name(), l.parameter(), where,
