@@ -69,10 +69,16 @@ final class RunLauncher {
 
     private final PrintWriter out;
     private final PrintWriter err;
+    private Path finishedFolder;
 
     RunLauncher(PrintWriter out, PrintWriter err) {
         this.out = out;
         this.err = err;
+    }
+
+    /** The folder of the run whose summary was printed last, or null. */
+    Path finishedFolder() {
+        return finishedFolder;
     }
 
     /** Starts a new run of {@code sequenceFile}; returns the exit code. */
@@ -203,6 +209,7 @@ final class RunLauncher {
 
     void printSummary(RunFolder folder, RunSession.Summary s) {
         RunResult r = s.result();
+        finishedFolder = folder.dir();
         out.printf(Locale.ROOT, "results: %s%n", folder.dir());
         out.printf(Locale.ROOT, "points: %d of %d measured (%s)%n", r.measured(), r.planned(), r.outcome().word());
         for (String p : r.problems()) {
