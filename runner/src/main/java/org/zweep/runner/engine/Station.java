@@ -141,7 +141,9 @@ public final class Station {
                 });
                 slot = s;
             }
-            if (!instruction.isEmpty()) {
+            if (!instruction.isEmpty() && prompter.onSimulator()) {
+                prompter.prompt(instruction);
+            } else if (!instruction.isEmpty()) {
                 log.accept(">> " + instruction + " (simulator: fixture holds " + s.name().toLowerCase(java.util.Locale.ROOT)
                         + ")");
             }
