@@ -98,7 +98,7 @@ final class ScpiCommand implements Callable<Integer> {
      */
     static int keepGoing(ScpiClient client, String message, String where, PrintWriter out, PrintWriter err) {
         try {
-            exchange(client, message, out);
+            exchange(client, message, out, err);
             return 0;
         } catch (ConnectionLostException e) {
             throw e;
@@ -122,9 +122,21 @@ final class ScpiCommand implements Callable<Integer> {
         }
     }
 
-    /** Sends one message; prints the reply if it is a query. */
-    static void exchange(ScpiClient client, String message, PrintWriter out) {
+    /** How long the link must stay silent before a query for nothing unasked to be waiting. */
+    static final Duration UNASKED_QUIET = Duration.ofMillis(20);
+
+    /**
+     * Sends one message; prints the reply if it is a query. Before a query, bytes that answer no
+     * query (a reply the meter sent twice, or a late one) are discarded with a note on {@code err}
+     * and the client resynchronises, so one stray reply never shifts every later answer.
+     */
+    static void exchange(ScpiClient client, String message, PrintWriter out, PrintWriter err) {
         if (isQuery(message)) {
+            client.discardUnasked(UNASKED_QUIET).ifPresent(stray -> {
+                err.println("zweep: discarded a reply no query asked for ('" + stray + "') before '" + message
+                        + "'; resynchronised with the meter");
+                err.flush();
+            });
             out.println(printable(client.queryBytes(message)));
             out.flush();
         } else {

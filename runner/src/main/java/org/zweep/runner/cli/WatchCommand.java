@@ -137,6 +137,10 @@ final class WatchCommand implements Callable<Integer> {
                         StringBuilder b = new StringBuilder(String.format(Locale.ROOT, "[%d/%d] %s",
                                 e.path("done").asInt(), e.path("total").asInt(),
                                 Si.format(e.path("frequency_hz").asDouble(), Unit.HERTZ)));
+                        if (e.path("bias").asDouble() != 0) {
+                            b.append(", bias ").append(Si.format(e.path("bias").asDouble(),
+                                    Si.unitOfSymbol(e.path("bias_mode").asText("V"))));
+                        }
                         if (e.has("z_ohm")) {
                             stepZ.add(e.path("z_ohm").asDouble());
                             b.append("  |Z| ").append(Si.format(e.path("z_ohm").asDouble(), Unit.OHM))
