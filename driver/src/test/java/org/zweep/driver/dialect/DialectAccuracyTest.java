@@ -48,6 +48,22 @@ class DialectAccuracyTest {
     }
 
     @Test
+    void theReadmeExampleParsesAndGivesTheFiguresReadmeQuotes() throws java.io.IOException {
+        String readme = java.nio.file.Files.readString(java.nio.file.Path.of("..", "README.md"));
+        int start = readme.indexOf("```text\n[accuracy]");
+        assertTrue(start >= 0, "README has no [accuracy] example");
+        start += "```text\n".length();
+        Dialect d = Dialect.parse("readme", TINY + readme.substring(start, readme.indexOf("```", start)));
+        MeterAccuracy a = d.accuracy().orElseThrow();
+        org.zweep.driver.uncertainty.UncertainImpedance u = a.uncertainty(
+                new org.zweep.driver.impedance.Impedance(1e3, 1000, 0), 1.0, false, 0.01).orElseThrow();
+        // README: e = 0.101 %, u(|Z|) = 0.58 Ω, u(θ) = 0.033° (arithmetic of the made-up example)
+        assertEquals(0.58, u.standardUncertainty(org.zweep.driver.impedance.DerivedParameter.Z), 0.005);
+        assertEquals(0.033, u.standardUncertainty(org.zweep.driver.impedance.DerivedParameter.THETA), 0.0005);
+        assertEquals(0.006, a.band(1e3, 1.0, false, 0.01).orElseThrow().magnitudeLimit(1.0), 1e-8);
+    }
+
+    @Test
     void aDialectWithoutTheSectionStatesNoAccuracy() {
         assertTrue(Dialect.parse("tiny.dialect", TINY).accuracy().isEmpty());
     }
