@@ -70,6 +70,24 @@ public record UncertainImpedance(Impedance value, double uROhm, double uXOhm, do
         return fromCovariance(value, varR, varX, covRX);
     }
 
+    /**
+     * The contribution of this estimate's uncertainty to an output Z_out = g(Z) of a holomorphic
+     * map g with derivative {@code derivative} = g'(Z) = a + jb at this estimate: the covariance
+     * J Σ Jᵀ with J = [[a, −b], [b, a]] (the Cauchy–Riemann form of the real Jacobian), as an
+     * uncertain {@code output}.
+     */
+    public UncertainImpedance through(Impedance output, org.apache.commons.math3.complex.Complex derivative) {
+        double a = derivative.getReal();
+        double b = derivative.getImaginary();
+        double vr = varianceR();
+        double vx = varianceX();
+        double c = covarianceRX();
+        double varR = a * a * vr - 2 * a * b * c + b * b * vx;
+        double varX = b * b * vr + 2 * a * b * c + a * a * vx;
+        double cov = a * b * vr + (a * a - b * b) * c - a * b * vx;
+        return fromCovariance(output, varR, varX, cov);
+    }
+
     /** Variance of R in Ω². */
     public double varianceR() {
         return uROhm * uROhm;

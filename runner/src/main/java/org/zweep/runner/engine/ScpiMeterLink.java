@@ -12,6 +12,7 @@ import org.zweep.driver.scpi.ScpiSession;
 import org.zweep.driver.transport.ConnectFailedException;
 import org.zweep.driver.transport.ConnectionLostException;
 import org.zweep.driver.transport.MeterTimeoutException;
+import org.zweep.driver.uncertainty.MeterAccuracy;
 
 /**
  * A {@link MeterLink} over SCPI: a {@link DialectMeter} on a session from {@code connector},
@@ -49,6 +50,11 @@ public final class ScpiMeterLink implements MeterLink {
         ScpiMeterLink link = new ScpiMeterLink(address, Dialect.load(dialect), connector, onClose);
         link.connect();
         return link;
+    }
+
+    @Override
+    public Optional<MeterAccuracy> accuracy() {
+        return dialect.accuracy();
     }
 
     private Meter connect() {
