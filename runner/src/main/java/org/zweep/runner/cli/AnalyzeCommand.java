@@ -58,7 +58,7 @@ public final class AnalyzeCommand implements Callable<Integer> {
             summary(out, a);
             out.println("wrote " + file);
         }
-        return "fail".equals(a.verdict()) ? ExitCode.CHECK_FAILED : ExitCode.OK;
+        return CheckOutcome.failed(a.verdict()) ? ExitCode.CHECK_FAILED : ExitCode.OK;
     }
 
     static void summary(PrintWriter out, AnalysisResult a) {

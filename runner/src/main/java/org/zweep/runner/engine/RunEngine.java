@@ -9,6 +9,7 @@ import org.zweep.driver.meter.MeasuredQuantity;
 import org.zweep.driver.meter.MeasurementSetting;
 import org.zweep.driver.meter.Reading;
 import org.zweep.driver.meter.ReadingStatus;
+import org.zweep.driver.uncertainty.UncertainImpedance;
 import org.zweep.runner.plan.Plan;
 import org.zweep.runner.plan.PlannedPoint;
 import org.zweep.runner.plan.PlannedStep;
@@ -30,6 +31,7 @@ public final class RunEngine {
     private final CheckEvaluator checks;
     private final ProgressListener progress;
     private final Interruption interruption;
+    private final PointUncertainty uncertainty;
 
     /**
      * @param plan what to measure
@@ -41,9 +43,19 @@ public final class RunEngine {
      */
     public RunEngine(Plan plan, Station station, ReadingCorrector corrector, CheckEvaluator checks,
             ProgressListener progress, Interruption interruption) {
+        this(plan, station, corrector, PointUncertainty.NONE, checks, progress, interruption);
+    }
+
+    /**
+     * As above, with each point's uncertainty from {@code uncertainty} (which should use the same
+     * {@code corrector}).
+     */
+    public RunEngine(Plan plan, Station station, ReadingCorrector corrector, PointUncertainty uncertainty,
+            CheckEvaluator checks, ProgressListener progress, Interruption interruption) {
         this.plan = plan;
         this.station = station;
         this.corrector = corrector;
+        this.uncertainty = uncertainty;
         this.checks = checks;
         this.progress = progress;
         this.interruption = interruption;
@@ -128,7 +140,8 @@ public final class RunEngine {
                 if (done.get(p.index())) {
                     continue;
                 }
-                PointRow row = row(p, step, corrector.correct(readings.get(i)));
+                Reading raw = readings.get(i);
+                PointRow row = row(p, step, corrector.correct(raw), uncertainty.of(raw));
                 row = row.withCheck(checks.judge(row));
                 sink.write(row, i == last);
                 done.set(p.index());
@@ -177,6 +190,11 @@ public final class RunEngine {
 
     /** The result row for point {@code p} of {@code step} read as {@code r}. */
     static PointRow row(PlannedPoint p, PlannedStep step, Reading r) {
+        return row(p, step, r, null);
+    }
+
+    /** As {@link #row(PlannedPoint, PlannedStep, Reading)} with the corrected reading's uncertainty (null: unknown). */
+    static PointRow row(PlannedPoint p, PlannedStep step, Reading r, UncertainImpedance u) {
         MeasurementSetting s = r.setting() != null ? r.setting() : p.setting();
         boolean ratio = s.quantity() == MeasuredQuantity.VOLTAGE_RATIO;
         PointRow.Conditions c = new PointRow.Conditions(ratio ? "voltage_ratio" : "impedance",
@@ -184,6 +202,6 @@ public final class RunEngine {
                 new PointRow.Source(s.drive().mode().unit(), s.drive().levelRms()),
                 new PointRow.Source(s.bias().mode().unit(), s.bias().appliedValue()));
         return PointRow.of(new PointRow.Key(p.index(), step.name(), p.stepIndex(), p.repeat()), c,
-                r.status() == ReadingStatus.OK, r.real(), r.imaginary(), "", r.timestamp());
+                r.status() == ReadingStatus.OK, r.real(), r.imaginary(), u, "", r.timestamp());
     }
 }
