@@ -122,10 +122,8 @@ public final class RunSession {
                 throw new InvalidInputException(folder.points() + ": point " + row.point()
                         + " does not belong to this sequence's plan");
             }
-            if (!done.get(row.point())) {
-                done.set(row.point());
-                checks.judge(row);
-            }
+            done.set(row.point());
+            checks.judge(row);
         });
         ProgressListener progress = setup.progress();
         if (rec.tornLineDropped()) {

@@ -66,7 +66,9 @@ public record PointRow(Key key, Conditions conditions, Measured measured, String
     /**
      * What was measured.
      *
-     * @param status {@code ok} or {@code no_value}
+     * @param status {@code ok}, {@code no_value}, or {@code implausible} (physics does not allow the
+     *     reading: |θ| above 90° or |Z| beyond the meter's reach, twice; its values are kept but
+     *     no check accepts them)
      * @param rOhm R in ohms (corrected when compensation applies), or the ratio's real part
      * @param xOhm X in ohms (corrected when compensation applies), or the ratio's imaginary part
      * @param ratio |V2/V1| for voltage-ratio rows, {@code NaN} otherwise
@@ -117,6 +119,12 @@ public record PointRow(Key key, Conditions conditions, Measured measured, String
             }
             return new Measured("ok", re, im, Double.NaN, Derived.of(new Impedance(c.frequencyHz(), re, im)));
         }
+    }
+
+    /** This row with another status ({@code ok}, {@code no_value} or {@code implausible}); the values stay. */
+    public PointRow withStatus(String newStatus) {
+        return new PointRow(key, conditions, new Measured(newStatus, measured.rOhm(), measured.xOhm(), measured.ratio(),
+                measured.derived(), measured.uncertainty()), check, time);
     }
 
     /** A row made from a reading: the derived values are computed by {@link Measured#of}. */

@@ -72,10 +72,12 @@ public final class PointsCsv {
                     new PointRow.Source(c.get(9), parseNum(c.get(10))));
             // the derived cells are not read back: every derived value (and its u) is computed from R and X
             // (and u(R), u(X), r), once
-            return PointRow.of(new PointRow.Key(Integer.parseInt(c.get(0)), c.get(1), Integer.parseInt(c.get(2)),
-                    Integer.parseInt(c.get(3))), conditions, "ok".equals(c.get(after + 1)), parseNum(c.get(11)),
-                    parseNum(c.get(12)), parseNum(c.get(after + 4)), parseNum(c.get(after + 5)),
+            String status = c.get(after + 1);
+            PointRow row = PointRow.of(new PointRow.Key(Integer.parseInt(c.get(0)), c.get(1),
+                    Integer.parseInt(c.get(2)), Integer.parseInt(c.get(3))), conditions, !"no_value".equals(status),
+                    parseNum(c.get(11)), parseNum(c.get(12)), parseNum(c.get(after + 4)), parseNum(c.get(after + 5)),
                     parseNum(c.get(after + 6)), c.get(after + 2), Instant.parse(c.get(after + 3)));
+            return "ok".equals(status) || "no_value".equals(status) ? row : row.withStatus(status);
         } catch (NumberFormatException | DateTimeParseException e) {
             throw new IllegalArgumentException(e.getMessage(), e);
         }
