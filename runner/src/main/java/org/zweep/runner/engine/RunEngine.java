@@ -183,8 +183,22 @@ public final class RunEngine {
     }
 
     /** One entry per reading: what physics does not allow in it, or empty. */
+    /**
+     * Whether {@code r}'s only fault is a negative R that lies within three standard
+     * uncertainties of zero: a nearly lossless part read by a meter that states its accuracy
+     * (an R of −0.05 Ω with u(R) = 0.1 Ω is what such a part gives half the time).
+     */
+    private boolean negativeWithinUncertainty(Reading r) {
+        if (!(r.real() < 0) || !Double.isFinite(r.imaginary()) || r.magnitude() > plausibility.maxImpedanceOhm()) {
+            return false;
+        }
+        UncertainImpedance u = uncertainty.of(r);
+        return u != null && r.real() >= -3 * u.uROhm();
+    }
+
     private List<String> problems(List<Reading> readings) {
-        return readings.stream().map(r -> plausibility.problem(r).orElse("")).toList();
+        return readings.stream().map(r -> plausibility.problem(r).filter(x -> !negativeWithinUncertainty(r))
+                .orElse("")).toList();
     }
 
     private void stopIfRequested() {

@@ -207,7 +207,7 @@ class UncertaintyCoverageIT {
                     truth = truth(d, rows.values().stream().map(PointRow::frequencyHz).distinct().sorted().toList());
                 }
                 for (PointRow row : rows.values()) {
-                    assertTrue(row.okImpedance(), "a value at " + row.frequencyHz() + " Hz");
+                    assertTrue(row.okImpedance(), "a value at " + row.frequencyHz() + " Hz, status " + row.status());
                     Impedance t = truth.get(row.frequencyHz());
                     for (String p : List.of("r_ohm", "x_ohm", "z_ohm", "theta_deg")) {
                         double tv = switch (p) {
