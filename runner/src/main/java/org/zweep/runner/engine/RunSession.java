@@ -218,7 +218,8 @@ public final class RunSession {
             RunManifest.MeterInfo meter, Long seed, Clock clock, String version) {
         Part p = plan.part();
         List<RunManifest.StepInfo> steps = plan.steps().stream()
-                .map(s -> new RunManifest.StepInfo(s.index(), s.name(), s.points().size())).toList();
+                .map(s -> new RunManifest.StepInfo(s.index(), s.name(), s.points().size(),
+                        s.deratingDrops().isEmpty() ? null : s.deratingDrops())).toList();
         List<RunManifest.CheckInfo> checks = plan.checks().stream().map(RunManifest.CheckInfo::of).toList();
         return new RunManifest(RunManifest.FORMAT,
                 new RunManifest.SequenceInfo(plan.name(), sequenceFile, RunFolder.sha256(folder.sequenceCopy()),

@@ -169,8 +169,14 @@ public record RunManifest(String format, SequenceInfo sequence, PartInfo part, L
      * @param mode {@code none}, {@code meter} or {@code host}
      * @param standards the standards, e.g. {@code ["OPEN","SHORT"]}
      * @param data the host-side data file, relative to the folder when inside it; {@code null} otherwise
+     * @param openOverRangeHz the frequencies where the OPEN read beyond the meter's range (its
+     *     admittance taken as 0); {@code null} when none
      */
-    public record CompensationInfo(String mode, List<String> standards, String data) {
+    public record CompensationInfo(String mode, List<String> standards, String data, List<Double> openOverRangeHz) {
+        /** A compensation record with the OPEN readable everywhere. */
+        public CompensationInfo(String mode, List<String> standards, String data) {
+            this(mode, standards, data, null);
+        }
     }
 
     /** The program that wrote the folder. */
