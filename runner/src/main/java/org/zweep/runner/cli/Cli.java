@@ -5,6 +5,8 @@ import java.util.Arrays;
 import java.util.List;
 import org.zweep.driver.InvalidInputException;
 import org.zweep.driver.MeterException;
+import org.zweep.runner.engine.RunInterruptedException;
+import org.zweep.runner.safety.BiasOffHook;
 import picocli.CommandLine;
 
 /**
@@ -42,6 +44,11 @@ public final class Cli {
             return ExitCode.USAGE;
         });
         cl.setExecutionExceptionHandler((ex, c, parseResult) -> {
+            if (ex instanceof RunInterruptedException) {
+                // a stop request (Ctrl-C, a termination signal) before the run had anything to keep
+                err.println("zweep: stopped: " + oneLine(ex) + "; DC bias is off");
+                return BiasOffHook.EXIT_INTERRUPTED;
+            }
             boolean expected = ex instanceof InvalidInputException || ex instanceof MeterException
                     || ex instanceof java.io.UncheckedIOException;
             err.println("zweep: " + (expected ? "" : "internal error: ") + oneLine(ex)
@@ -81,6 +88,9 @@ public final class Cli {
     }
 
     static int exitCodeOf(Throwable ex) {
+        if (ex instanceof RunInterruptedException) {
+            return BiasOffHook.EXIT_INTERRUPTED;
+        }
         if (ex instanceof InvalidInputException || ex instanceof CommandLine.ParameterException) {
             return ExitCode.USAGE;
         }

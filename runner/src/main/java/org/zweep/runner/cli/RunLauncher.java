@@ -43,6 +43,7 @@ import org.zweep.runner.plan.Plan;
 import org.zweep.runner.results.RunFolder;
 import org.zweep.runner.results.RunManifest;
 import org.zweep.runner.safety.BiasOffHook;
+import org.zweep.runner.safety.BiasRamp;
 import org.zweep.runner.safety.SafetyGuard;
 import org.zweep.runner.sequence.SequenceLoader;
 import org.zweep.runner.sim.MeterLinks;
@@ -170,13 +171,30 @@ final class RunLauncher {
                     (station, res, log) -> CompensationWorkflow.prepare(plan, station, folder, res, clock, log),
                     RunLauncher::sweepChecks, clock, VersionProvider.version()));
             RunSession.Summary s;
-            BiasOffHook hook = BiasOffHook.install(interruption, session::biasOffNow, err, 10_000);
+            BiasOffHook hook = BiasOffHook.install(interruption, session::biasOffNow, err, shutdownGraceMillis(plan));
             try (hook) {
                 s = session.run();
             }
             printSummary(folder, s);
             return exitCode(s);
         }
+    }
+
+    /**
+     * How long JVM shutdown (SIGTERM) waits for the run to stop by itself: the longest bias ramp
+     * down the plan can need, plus 10 s for the point in progress and writing.
+     */
+    static long shutdownGraceMillis(Plan plan) {
+        double longest = 0.0;
+        for (var step : plan.steps()) {
+            for (var p : step.points()) {
+                var b = p.setting().bias();
+                if (b.on()) {
+                    longest = Math.max(longest, BiasRamp.durationS(b.value(), 0.0, step.bias().rampPerS()));
+                }
+            }
+        }
+        return (long) Math.ceil((longest + 10.0) * 1000);
     }
 
     /** The whole-sweep checks (such as {@code srf_hz}) of a completed run, evaluated by the analysis. */

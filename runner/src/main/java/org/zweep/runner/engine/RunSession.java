@@ -173,8 +173,20 @@ public final class RunSession {
                     new RunManifest.Counts(points.size(), done.cardinality()), verdict);
             manifest.write(folder.manifest());
             return new Summary(result, checks.outcomes(), sweep, unevaluated, manifest);
+        } catch (RunInterruptedException e) {
+            // a stop request before the engine ran (while identifying the meter or compensating)
+            station.stopBias();
+            if (manifest == null) {
+                throw e;
+            }
+            manifest = manifest.finished("aborted", setup.clock().instant().toString(),
+                    new RunManifest.Counts(points.size(), done.cardinality()), "none");
+            manifest.write(folder.manifest());
+            RunResult result = new RunResult(RunResult.Outcome.ABORTED, points.size(), done.cardinality(),
+                    List.of("stopped: " + e.getMessage()));
+            return new Summary(result, checks.outcomes(), List.of(), new ArrayList<>(checks.wholeSweep()), manifest);
         } catch (RuntimeException e) {
-            station.biasOffNow();
+            station.stopBias();
             if (manifest != null) {
                 manifest.finished("failed", setup.clock().instant().toString(),
                         new RunManifest.Counts(points.size(), done.cardinality()), "none").write(folder.manifest());
