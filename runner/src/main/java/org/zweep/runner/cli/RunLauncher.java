@@ -88,7 +88,6 @@ final class RunLauncher {
         try {
             copyBench(plan, sequenceFile, folder);
             copyDialect(plan, sequenceFile, folder);
-            out.println("run folder: " + folder.dir());
             return execute(plan, folder, false, sequenceFile.toAbsolutePath().toString(), o.seed(), o);
         } catch (RuntimeException e) {
             discardIfUnstarted(folder, !existed);
@@ -97,14 +96,18 @@ final class RunLauncher {
     }
 
     /**
-     * Removes what {@link #start} put into a run folder when the run was refused before it started
-     * (no {@code run.json} yet, so nothing was measured): the same {@code --out} can then be used
-     * again, instead of a folder that is neither empty nor resumable.
+     * Removes what {@link #start} put into a run folder when the run was refused before its first
+     * point (nothing measured, and not stopped by Ctrl-C or a signal, which leaves a resumable
+     * folder): a refused run leaves nothing, and the same {@code --out} can be used again.
      */
     static void discardIfUnstarted(RunFolder folder, boolean removeDir) {
         Path dir = folder.dir();
-        if (Files.exists(folder.manifest())) {
-            return;
+        try {
+            if (Files.exists(folder.manifest()) && "aborted".equals(RunManifest.read(folder.manifest()).outcome())) {
+                return;
+            }
+        } catch (RuntimeException e) {
+            return; // a manifest that cannot be read: keep everything
         }
         try {
             if (Files.exists(folder.points()) && Files.readAllLines(folder.points(), StandardCharsets.UTF_8).size() > 1) {
@@ -157,8 +160,9 @@ final class RunLauncher {
         }
         Interruption interruption = new Interruption();
         boolean terminal = System.console() != null;
-        ProgressListener progress = o.quiet() ? ProgressListener.QUIET
+        ProgressListener shown = o.quiet() ? ProgressListener.QUIET
                 : new ConsoleProgress(out, terminal, System::nanoTime, 5.0);
+        ProgressListener progress = resuming ? shown : announcingFolder(folder, shown);
         try (ScpiMeterLink link = MeterLinks.open(plan.meter().address(), plan.meter().dialect(), sb.build())) {
             Prompter prompter = o.yes() ? Prompter.yes(out) : terminal
                     ? Prompter.terminal(new BufferedReader(new InputStreamReader(System.in, StandardCharsets.UTF_8)),
@@ -195,6 +199,37 @@ final class RunLauncher {
             }
         }
         return (long) Math.ceil((longest + 10.0) * 1000);
+    }
+
+    /**
+     * {@code shown}, printing {@code run folder: DIR} when the first point is about to be measured:
+     * a run refused before that (safety, the meter's limits, compensation, no meter) prints no
+     * such line and leaves no folder.
+     */
+    private ProgressListener announcingFolder(RunFolder folder, ProgressListener shown) {
+        return new ProgressListener() {
+            @Override
+            public void started(int total, int done) {
+                out.println("run folder: " + folder.dir());
+                out.flush();
+                shown.started(total, done);
+            }
+
+            @Override
+            public void measured(org.zweep.runner.results.PointRow row, int done, int total) {
+                shown.measured(row, done, total);
+            }
+
+            @Override
+            public void note(String line) {
+                shown.note(line);
+            }
+
+            @Override
+            public void finished() {
+                shown.finished();
+            }
+        };
     }
 
     /** The whole-sweep checks (such as {@code srf_hz}) of a completed run, evaluated by the analysis. */

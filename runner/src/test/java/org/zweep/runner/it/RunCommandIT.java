@@ -98,6 +98,21 @@ class RunCommandIT {
     }
 
     @Test
+    void runRefusedDuringCompensationPrintsNoRunFolderLineAndLeavesNoFolder() {
+        // message 20 falls in the host-side OPEN standard's sweep (after identify, reset and setup)
+        try (org.zweep.simulator.server.SimulatorServer server = Sims.tcp(Sims.benchOf(SEQ),
+                org.zweep.simulator.server.FaultPlan.parse("error=-222@20", 1))) {
+            Path out = dir.resolve("out");
+            Sims.Result r = Sims.zweep("run", SEQ.toString(), "--meter", "tcp://127.0.0.1:" + server.port(),
+                    "--dialect", Sims.dialect(), "--quiet", "--out", out.toString());
+            assertEquals(3, r.code(), r.out() + r.err());
+            assertTrue(r.err().contains("-222"), r.err());
+            assertFalse(r.out().contains("run folder:"), r.out());
+            assertFalse(Files.exists(out), "refused before the first point: no run folder");
+        }
+    }
+
+    @Test
     void resumeOfACompletedRunChangesNothing() {
         Path out = dir.resolve("done");
         assertEquals(0, Sims.zweep("run", SEQ.toString(), "--meter", sim(), "--dialect", Sims.dialect(), "--out",

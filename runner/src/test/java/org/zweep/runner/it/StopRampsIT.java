@@ -77,6 +77,40 @@ class StopRampsIT {
         }
     }
 
+    @ParameterizedTest(name = "SIG{0} during host compensation")
+    @CsvSource({"INT, 130", "TERM, 143"})
+    void aSignalDuringHostCompensationStopsTheRunWithoutAnInternalError(String signal, int exitCode) throws Exception {
+        Path seq = Sims.sequences().resolve("incoming-kp-c0805-104.yaml"); // compensation: host, open and short
+        try (SimulatorServer server = Sims.tcp(Sims.benchOf(seq), FaultPlan.none())) {
+            server.instrument().setTiming(TimingModel.REAL);
+            String address = "tcp://127.0.0.1:" + server.port();
+            Path log = dir.resolve("comp.log");
+            Process p = Children.zweep(log, "run", seq.toString(), "--meter", address, "--dialect", Sims.dialect(),
+                    "--out", dir.resolve("comp").toString(), "--seed", "3", "--yes");
+            long end = System.nanoTime() + TimeUnit.SECONDS.toNanos(60);
+            while (!fixtureHoldsAStandard(address)) {
+                assertTrue(p.isAlive(), () -> "child ended early: " + read(log));
+                assertTrue(System.nanoTime() < end, () -> "no compensation within 60 s: " + read(log));
+                Thread.sleep(20);
+            }
+            Thread.sleep(300); // well inside the standard's sweep
+            Children.signal(p, signal);
+            assertTrue(p.waitFor(60, TimeUnit.SECONDS), "child stopped");
+            String text = read(log);
+            assertEquals(exitCode, p.exitValue(), text);
+            assertTrue(!text.contains("internal error"), text);
+            assertTrue(Sims.biasOff(server), "bias off after the signal");
+        }
+    }
+
+    private static boolean fixtureHoldsAStandard(String address) {
+        try (org.zweep.driver.scpi.ScpiClient c = org.zweep.driver.scpi.ScpiClient.open(address,
+                org.zweep.driver.scpi.ScpiSettings.DEFAULTS)) {
+            String slot = c.query(":SIM:FIXT?").strip();
+            return slot.equals("OPEN") || slot.equals("SHOR");
+        }
+    }
+
     private static String read(Path log) {
         try {
             return Files.readString(log);
