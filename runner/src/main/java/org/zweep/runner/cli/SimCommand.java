@@ -195,15 +195,13 @@ public final class SimCommand implements Callable<Integer> {
             if (source != null && source.device != null) {
                 Path file = Path.of(source.device);
                 if (!source.device.contains("\n") && !source.device.contains("\\n") && Files.isRegularFile(file)) {
-                    return BenchSpec.ofNetlist(Files.readString(file), file.toString());
+                    return BenchSpec.ofNetlistFile(file);
                 }
                 return BenchSpec.ofNetlist(source.device.replace("\\n", "\n"), "--device");
             }
             return InProcessSimulator.defaultBench();
         } catch (SimulatorInputException e) {
             throw new InvalidInputException(e.getMessage(), e);
-        } catch (IOException e) {
-            throw new InvalidInputException("--device: cannot read " + source.device + ": " + e.getMessage(), e);
         }
     }
 
