@@ -44,6 +44,7 @@ import org.zweep.runner.plan.Plan;
 import org.zweep.runner.results.FolderLock;
 import org.zweep.runner.results.RunFolder;
 import org.zweep.runner.results.RunManifest;
+import org.zweep.runner.safety.BiasGuard;
 import org.zweep.runner.safety.BiasOffHook;
 import org.zweep.runner.safety.BiasRamp;
 import org.zweep.runner.safety.SafetyGuard;
@@ -237,12 +238,36 @@ final class RunLauncher {
                     (station, res, log) -> CompensationWorkflow.prepare(plan, station, folder, res, clock, log),
                     RunLauncher::sweepChecks, clock, VersionProvider.version()));
             RunSession.Summary s;
+            BiasGuard guard = startGuard(plan.meter().address(), folder);
+            if (guard != null) {
+                session.watchBias(guard);
+            }
             BiasOffHook hook = BiasOffHook.install(interruption, session::biasOffNow, err, shutdownGraceMillis(plan));
             try (hook) {
                 s = session.run();
+            } finally {
+                if (guard != null) {
+                    guard.close();
+                }
             }
             printSummary(folder, s);
             return exitCode(s);
+        }
+    }
+
+    /**
+     * Starts the guard process that ramps bias down should this process die (not for a {@code sim:}
+     * meter, which dies with it); {@code null}, after a note, when it cannot be started.
+     */
+    private BiasGuard startGuard(String address, RunFolder folder) {
+        if (Address.parse(address) instanceof SimAddress) {
+            return null;
+        }
+        try {
+            return BiasGuard.start(address, folder.dir());
+        } catch (UncheckedIOException e) {
+            err.println("zweep: WARNING: " + e.getMessage() + "; the run goes on without it");
+            return null;
         }
     }
 

@@ -83,12 +83,18 @@ public final class RunSession {
     private final MeterLink link;
     private final Setup setup;
     private Station station;
+    private BiasWatcher biasWatcher = BiasWatcher.NONE;
 
     /** A session running {@code plan} on {@code link} as {@code setup} says. */
     public RunSession(Plan plan, MeterLink link, Setup setup) {
         this.plan = plan;
         this.link = link;
         this.setup = setup;
+    }
+
+    /** Makes {@code w} hear of every DC bias change of the run, before it is sent (the guard process). */
+    public void watchBias(BiasWatcher w) {
+        this.biasWatcher = w;
     }
 
     /** Turns bias off now (for a shutdown hook); never throws. */
@@ -138,6 +144,7 @@ public final class RunSession {
         boolean waits = !sim || link.simulator().get().realTiming();
         Waiter waiter = waits ? Waiter.sleeping(interruption) : Waiter.none(interruption);
         station = new Station(link, guard, setup.prompter(), waiter, setup.reconnect(), log);
+        station.watchBias(biasWatcher);
         RunManifest manifest = null;
         try (PointsCsvWriter writer = PointsCsvWriter.open(folder.points(), setup.rowSync())) {
             Long seed = setup.seed();
