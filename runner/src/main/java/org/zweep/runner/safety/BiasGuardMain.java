@@ -88,6 +88,10 @@ public final class BiasGuardMain {
         ignore("HUP");
         String address = args[0];
         Path folder = Path.of(args[1]);
+        // everything the ramp down needs is loaded now, while the run is alive: no class loading
+        // (Jackson, the dialect, the transport) between the run's death and the first command
+        String dialect = dialect(folder);
+        warmUp(address, dialect);
         Last last = Last.OFF;
         boolean ended = false;
         try (BufferedReader in = new BufferedReader(new InputStreamReader(System.in, StandardCharsets.US_ASCII))) {
@@ -105,15 +109,20 @@ public final class BiasGuardMain {
             // the pipe broke: the run's process is gone all the same
         }
         Instant gone = Instant.now();
+        String result = null;
+        if (last.on()) {
+            result = act(address, dialect, last); // first the bias, then the paperwork
+        }
         String outcome = outcome(folder);
         boolean finalManifest = outcome != null && !outcome.equals("running");
-        if ((ended || finalManifest) && !last.on()) {
-            return; // the run ended by itself with bias off
+        if (!last.on()) {
+            if (ended || finalManifest) {
+                return; // the run ended by itself with bias off
+            }
+            result = act(address, dialect, last);
         }
-        String dialect = dialect(folder);
         String why = finalManifest ? "the run ended with DC bias last set on" : "the run's process ended without"
                 + " its final manifest";
-        String result = act(address, dialect, last);
         String line = gone + " guard: " + why + " (run.json: " + (outcome == null ? "none" : outcome) + "); "
                 + result;
         System.err.println("zweep guard: " + why + "; " + result);
@@ -131,10 +140,16 @@ public final class BiasGuardMain {
                 String what;
                 if (last.on()) {
                     m.apply(last.setting(last.value()));
+                    // each value is sent no sooner than its step's wait after the one before it was sent,
+                    // so the time the commands take counts into the wait (the ramp keeps its planned time)
+                    // (the last value is held one step first: the run may have sent it just before it died)
+                    long next = System.nanoTime() + (long) (BiasRamp.MAX_STEP_S * 1e9);
                     for (BiasRamp.Step s : BiasRamp.plan(last.value(), 0.0, last.rampPerS())) {
+                        sleep((next - System.nanoTime()) / 1e9);
+                        next = System.nanoTime() + (long) (s.waitS() * 1e9);
                         m.apply(last.setting(s.value()));
-                        sleep(s.waitS());
                     }
+                    sleep((next - System.nanoTime()) / 1e9);
                     m.biasOff();
                     what = String.format(Locale.ROOT, "brought DC bias from %s %s down to 0 at %s %s/s and switched"
                             + " it off on %s in %.1f s (the meter confirmed)", last.value(), last.mode().unit(),
@@ -152,6 +167,22 @@ public final class BiasGuardMain {
         return "could NOT reach " + address + " to turn DC bias off (" + failure.getMessage() + "); last set: "
                 + (last.on() ? last.value() + " " + last.mode().unit() : "off")
                 + " - check the meter before touching the part";
+    }
+
+    /** Loads the classes the ramp down uses (nothing is sent to the meter). */
+    private static void warmUp(String address, String dialect) {
+        try {
+            org.zweep.driver.address.Address.parse(address);
+            org.zweep.driver.dialect.Dialect.load(dialect);
+            BiasRamp.plan(1.0, 0.0, 1.0);
+            Last.parse("on V 1.0 1.0 1000.0 V 0.5").setting(0.5);
+            for (String c : new String[] {"org.zweep.driver.dialect.DialectMeter", "org.zweep.driver.scpi.ScpiClient",
+                "org.zweep.runner.engine.ScpiMeterLink", "org.zweep.runner.engine.JoiningSession"}) {
+                Class.forName(c);
+            }
+        } catch (ReflectiveOperationException | RuntimeException | LinkageError e) {
+            // loaded later, when needed
+        }
     }
 
     private static String outcome(Path folder) {
