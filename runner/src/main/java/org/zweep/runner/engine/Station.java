@@ -275,8 +275,16 @@ public final class Station {
         try {
             rampBiasOff(rampControl);
         } catch (RuntimeException e) {
-            log.accept("could not ramp DC bias down (" + e.getMessage() + "); switching it off at once, without"
-                    + " a ramp");
+            // given up on (a lost link, a meter error): once more on a fresh connection, still ramped
+            try {
+                link.reconnect();
+                reconnects++;
+                rampDownNow(rampControl.rampPerS());
+                log.accept("reconnected to " + link.address() + " and brought DC bias down at the ramp rate");
+            } catch (RuntimeException second) {
+                log.accept("could not ramp DC bias down (" + e.getMessage() + "); switching it off at once,"
+                        + " without a ramp");
+            }
         }
         return biasOffNow();
     }

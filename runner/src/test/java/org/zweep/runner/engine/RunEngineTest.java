@@ -350,4 +350,16 @@ class RunEngineTest {
         assertEquals(11, r.measured());
         assertRampedEverywhere(1.0);
     }
+
+    @Test
+    void aLinkGivenUpOnIsRampedDownOnceItIsBack() {
+        policy = new ReconnectPolicy(0.1, 1.0, 2.0, 10.0, 3);
+        bench.dropAtMeasure.add(10); // point 9: 5 V on (points 5-6 at 0 V, 7-8 at 2 V, 9-10 at 5 V)
+        bench.failingReconnects = 3; // the run gives up after 3 attempts; the 4th connects
+        RunResult r = run(TestPlans.capacitor(), new BitSet());
+        assertEquals(RunResult.Outcome.FAILED, r.outcome());
+        assertTrue(bench.biasHistory.stream().anyMatch(e -> e.value() == 5.0), "5 V was reached");
+        assertRampedEverywhere(1.0); // the plan's 1 V/s: brought down from 5 V, not cut
+        assertTrue(notes.stream().anyMatch(n -> n.contains("brought DC bias down at the ramp rate")), notes.toString());
+    }
 }
