@@ -92,6 +92,11 @@ class BiasGuardIT {
             double offS = t.last().timeS() - killedS;
             double excess = t.largestExcess(c.current(), c.rampPerS());
             Path record = out.resolve(BiasGuardMain.LOG);
+            // the guard writes its record after the bias is off: give it a moment
+            long recordBy = System.nanoTime() + TimeUnit.SECONDS.toNanos(10);
+            while (!Files.exists(record) && System.nanoTime() < recordBy) {
+                Thread.sleep(50);
+            }
             String guardLog = Files.exists(record) ? Files.readString(record) : "";
             System.out.printf(Locale.ROOT, "guard figures: run %d, %s: killed at %.3f %s, off %.2f s later (allowed"
                     + " %.2f s), largest excess over the ramp %.4f%n", i, c.file(), value, c.current() ? "A" : "V", offS,
