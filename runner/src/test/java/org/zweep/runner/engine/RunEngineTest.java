@@ -10,6 +10,7 @@ import java.util.BitSet;
 import java.util.List;
 import java.util.stream.IntStream;
 import org.junit.jupiter.api.Test;
+import org.zweep.runner.verdict.CheckEvaluator;
 import org.zweep.driver.InvalidInputException;
 import org.zweep.driver.meter.Bias;
 import org.zweep.driver.meter.MeasurementSetting;
@@ -44,7 +45,7 @@ class RunEngineTest {
 
     RunResult run(Plan plan, BitSet done) {
         Station st = station();
-        return new RunEngine(plan, st, ReadingCorrector.NONE, new PointChecks(plan.checks()), progress, interruption)
+        return new RunEngine(plan, st, ReadingCorrector.NONE, new CheckEvaluator(plan.checks()), progress, interruption)
                 .run(done, (row, last) -> rows.add(row));
     }
 
@@ -141,21 +142,39 @@ class RunEngineTest {
     }
 
     @Test
-    void droppedLinkIsReopenedBiasTurnedOffAgainAndTheInterruptedPointMeasuredAgain() {
+    void droppedLinkToAMeterThatCannotTellItsBiasIsReopenedBiasTurnedOffAndThePointMeasuredAgain() {
         bench.dropAtMeasure.add(8); // the 8th trigger is point 7: 2 V bias on, at 10 kHz
         RunResult r = run(TestPlans.capacitor(), new BitSet());
         assertEquals(RunResult.Outcome.COMPLETED, r.outcome());
         assertEquals(IntStream.range(0, 11).boxed().toList(), rows.stream().map(PointRow::point).toList());
         int reconnect = bench.trace.indexOf("reconnect");
         assertTrue(reconnect > 0, bench.trace.toString());
-        // the meter kept 2 V while the link was down: it comes down at the ramp rate, then goes off
-        assertEquals("bias off", bench.trace.subList(reconnect + 1, bench.trace.size()).stream()
-                .filter(t -> !t.startsWith("apply")).findFirst().orElseThrow(), "bias off first after reconnecting");
-        assertRampedEverywhere(1.0);
+        assertEquals("read bias", bench.trace.get(reconnect + 1), "asked first (this meter cannot tell)");
+        assertEquals("bias off", bench.trace.get(reconnect + 2), "then bias off, before anything else");
         // the instrument kept 2 V while the link was down, then went off, then ramped up again
         assertTrue(bench.biasHistory.stream().anyMatch(e -> !e.on() && e.timeS() > 0), bench.biasHistory.toString());
         assertEquals(2.0, rows.get(7).bias()); // our own demo plan: point 7 is at 2 V
         assertEquals(1, notes.stream().filter(n -> n.startsWith("reconnected to fake:bench")).count(), notes.toString());
+    }
+
+    @Test
+    void droppedLinkDuringABiasStepKeepsTheBiasTheMeterHoldsAndGoesOnFromThere() {
+        bench.readsBias = true;
+        bench.dropAtMeasure.add(8); // the 8th trigger is point 7: 2 V bias on, at 10 kHz
+        RunResult r = run(TestPlans.capacitor(), new BitSet());
+        assertEquals(RunResult.Outcome.COMPLETED, r.outcome());
+        assertEquals(IntStream.range(0, 11).boxed().toList(), rows.stream().map(PointRow::point).toList());
+        int reconnect = bench.trace.indexOf("reconnect");
+        assertEquals("read bias", bench.trace.get(reconnect + 1), "the bias is read back first");
+        assertFalse(bench.trace.subList(reconnect, reconnect + 3).contains("bias off"), bench.trace.toString());
+        // between the first time 2 V was reached and the end of the step, the bias was never off
+        double firstAt2 = bench.biasHistory.stream().filter(e -> e.on() && e.value() == 2.0).findFirst()
+                .orElseThrow().timeS();
+        double leftAt2 = bench.biasHistory.stream().filter(e -> e.timeS() > firstAt2 && e.value() != 2.0).findFirst()
+                .map(FakeBench.BiasEvent::timeS).orElse(Double.MAX_VALUE);
+        assertTrue(bench.biasHistory.stream().noneMatch(e -> !e.on() && e.timeS() > firstAt2 && e.timeS() < leftAt2),
+                bench.biasHistory.toString());
+        assertTrue(notes.stream().anyMatch(n -> n.contains("bias held at 2 V")), notes.toString());
     }
 
     @Test
@@ -316,7 +335,7 @@ class RunEngineTest {
         Station st = new Station(link, new SafetyGuard(TestPlans.LIMITS), prompts::add, stopAt4V, policy, notes::add);
         st.start(42L);
         Plan plan = TestPlans.capacitor();
-        RunResult r = new RunEngine(plan, st, ReadingCorrector.NONE, new PointChecks(plan.checks()), progress,
+        RunResult r = new RunEngine(plan, st, ReadingCorrector.NONE, new CheckEvaluator(plan.checks()), progress,
                 interruption).run(new BitSet(), (row, last) -> rows.add(row));
         assertEquals(RunResult.Outcome.ABORTED, r.outcome());
         assertTrue(bench.biasHistory.stream().anyMatch(e -> e.value() >= 4.0), "stopped mid ramp: " + bench.biasHistory);
