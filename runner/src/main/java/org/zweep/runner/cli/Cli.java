@@ -8,6 +8,8 @@ import java.util.Map;
 import java.util.function.Supplier;
 import org.zweep.driver.InvalidInputException;
 import org.zweep.driver.MeterException;
+import org.zweep.runner.engine.RunInterruptedException;
+import org.zweep.runner.safety.BiasOffHook;
 import picocli.CommandLine;
 
 /**
@@ -88,6 +90,11 @@ public final class Cli {
             return ExitCode.USAGE;
         });
         cl.setExecutionExceptionHandler((ex, c, parseResult) -> {
+            if (ex instanceof RunInterruptedException) {
+                // a stop request (Ctrl-C, a termination signal) before the run had anything to keep
+                err.println("zweep: stopped: " + oneLine(ex) + "; DC bias is off");
+                return BiasOffHook.EXIT_INTERRUPTED;
+            }
             boolean expected = exitCodeOf(ex) != ExitCode.INTERNAL;
             err.println("zweep: " + (expected ? "" : "internal error: ") + oneLine(ex)
                     + (expected ? "" : debug ? "; this is a bug in zweep, please report it with the trace below"
@@ -128,6 +135,9 @@ public final class Cli {
     }
 
     static int exitCodeOf(Throwable ex) {
+        if (ex instanceof RunInterruptedException) {
+            return BiasOffHook.EXIT_INTERRUPTED;
+        }
         if (ex instanceof InvalidInputException || ex instanceof CommandLine.ParameterException) {
             return ExitCode.USAGE;
         }

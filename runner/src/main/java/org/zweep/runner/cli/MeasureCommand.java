@@ -4,6 +4,7 @@ import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.SerializationFeature;
 import java.io.PrintWriter;
+import java.nio.file.Path;
 import java.util.LinkedHashMap;
 import java.util.Locale;
 import java.util.Map;
@@ -16,10 +17,22 @@ import org.zweep.driver.impedance.Unit;
 import org.zweep.driver.meter.Bias;
 import org.zweep.driver.meter.Drive;
 import org.zweep.driver.meter.MeasurementSetting;
-import org.zweep.driver.meter.Meter;
 import org.zweep.driver.meter.Reading;
 import org.zweep.driver.meter.ReadingStatus;
+import org.zweep.driver.meter.SourceMode;
 import org.zweep.driver.scpi.ScpiSettings;
+import org.zweep.runner.engine.Interruption;
+import org.zweep.runner.engine.Prompter;
+import org.zweep.runner.engine.ReconnectPolicy;
+import org.zweep.runner.engine.SimulatorControl;
+import org.zweep.runner.engine.Station;
+import org.zweep.runner.engine.Waiter;
+import org.zweep.runner.plan.BiasControl;
+import org.zweep.runner.plan.SafetyLimits;
+import org.zweep.runner.safety.BiasOffHook;
+import org.zweep.runner.safety.BiasRamp;
+import org.zweep.runner.safety.SafetyGuard;
+import org.zweep.runner.sequence.SequenceLoader;
 import org.zweep.runner.engine.ScpiMeterLink;
 import org.zweep.runner.sim.MeterLinks;
 import picocli.CommandLine.Command;
@@ -34,8 +47,9 @@ import picocli.CommandLine.Spec;
         mixinStandardHelpOptions = true,
         description = {
             "Measures one point and prints every derived parameter.",
-            "With --json the names are those of 'zweep convert --json'. DC bias is switched off again "
-                + "before the command ends."
+            "With --json the names are those of 'zweep convert --json'. The drive level and DC bias are "
+                + "checked against the safety limits (options, or a sequence's safety section) before anything is "
+                + "sent; DC bias is ramped up and down at --ramp as in 'zweep run', also on Ctrl-C."
         },
         footer = ExitCode.HELP_LIST)
 public final class MeasureCommand implements Callable<Integer> {
@@ -64,27 +78,117 @@ public final class MeasureCommand implements Callable<Integer> {
     @Option(names = "--json", description = "print one JSON object")
     boolean json;
 
+    @Option(names = "--sequence", paramLabel = "FILE",
+            description = "take the safety limits from this sequence's safety section (the options below override)")
+    Path sequence;
+
+    @Option(names = "--max-bias-voltage", paramLabel = "V", description = "largest DC bias voltage (default: the"
+            + " sequence's, else 0 V: no voltage bias)")
+    String maxBiasVoltage;
+
+    @Option(names = "--max-bias-current", paramLabel = "A", description = "largest DC bias current (default: the"
+            + " sequence's, else 0 A: no current bias)")
+    String maxBiasCurrent;
+
+    @Option(names = "--max-level-voltage", paramLabel = "V", description = "largest drive voltage, V rms (default:"
+            + " the sequence's, else only the meter's range)")
+    String maxLevelVoltage;
+
+    @Option(names = "--max-level-current", paramLabel = "A", description = "largest drive current, A rms (default:"
+            + " the sequence's, else only the meter's range)")
+    String maxLevelCurrent;
+
+    @Option(names = "--ramp", paramLabel = "RATE", description = "fastest DC bias change, e.g. 2V/s or 500mA/s"
+            + " (default: no limit)")
+    String ramp;
+
+    @Option(names = "--settle", paramLabel = "T", defaultValue = "0 s",
+            description = "wait after a bias change before measuring (default: ${DEFAULT-VALUE})")
+    String settle;
+
     @Override
     public Integer call() {
         double f = Quantities.parse(frequency, Unit.HERTZ);
         Drive drive = level(level);
         Bias b = bias == null ? Bias.OFF : bias(bias);
         MeasurementSetting s = MeasurementSetting.at(f).withDrive(drive).withBias(b);
+        SafetyLimits limits = limits();
+        SafetyGuard guard = new SafetyGuard(limits);
+        if (b.on() && b.value() != 0.0 && (b.mode() == SourceMode.VOLTAGE ? limits.maxBiasVoltageV()
+                : limits.maxBiasCurrentA()) == 0.0) {
+            throw new InvalidInputException("--bias needs a safety limit: give " + (b.mode() == SourceMode.VOLTAGE
+                    ? "--max-bias-voltage" : "--max-bias-current") + ", or --sequence FILE with a safety section;"
+                    + " nothing was sent to the meter");
+        }
+        guard.check(s, "--level/--bias");
+        BiasControl control = new BiasControl(ramp == null ? Double.POSITIVE_INFINITY : rate(ramp, b.mode()),
+                Quantities.parse(settle, Unit.SECOND, Unit.Bound.NON_NEGATIVE));
         Reading r;
         String identity;
+        PrintWriter err = spec.commandLine().getErr();
+        Interruption interruption = new Interruption();
         try (ScpiMeterLink link = MeterLinks.open(address, dialect, ScpiSettings.DEFAULTS)) {
-            Meter m = link.meter();
-            try {
-                identity = m.identify().toString();
-                m.reset();
-                m.apply(s);
-                r = m.measure();
-            } finally {
-                m.biasOff();
+            boolean waits = link.simulator().map(SimulatorControl::realTiming).orElse(true);
+            Station station = new Station(link, guard, Prompter.refusing(), waits ? Waiter.sleeping(interruption)
+                    : Waiter.none(interruption), ReconnectPolicy.DEFAULT, note -> {
+                        err.println("zweep: " + note);
+                        err.flush();
+                    });
+            long graceMillis = (long) ((BiasRamp.durationS(b.value(), 0.0, control.rampPerS()) + 10.0) * 1000);
+            try (BiasOffHook hook = BiasOffHook.install(interruption, station::biasOffNow, err, graceMillis)) {
+                try {
+                    station.start(null);
+                    identity = station.identity().toString();
+                    r = station.measure(s, control, 0.0, 0L);
+                } finally {
+                    if (!station.stopBias()) {
+                        err.println("zweep: WARNING: could not confirm that DC bias is off on " + address
+                                + "; check the meter before touching the part");
+                    }
+                    interruption.markStopped();
+                }
             }
         }
         print(spec.commandLine().getOut(), identity, r);
         return ExitCode.OK;
+    }
+
+    /** The safety limits: the sequence's, with each option given replacing its limit. */
+    private SafetyLimits limits() {
+        SafetyLimits base = sequence != null ? SequenceLoader.load(sequence).safety()
+                : new SafetyLimits(0.0, 0.0, Double.POSITIVE_INFINITY, Double.POSITIVE_INFINITY);
+        return new SafetyLimits(
+                maxBiasVoltage == null ? base.maxBiasVoltageV() : limit("--max-bias-voltage", maxBiasVoltage, Unit.VOLT),
+                maxBiasCurrent == null ? base.maxBiasCurrentA()
+                        : limit("--max-bias-current", maxBiasCurrent, Unit.AMPERE),
+                maxLevelVoltage == null ? base.maxLevelVrms() : limit("--max-level-voltage", maxLevelVoltage, Unit.VOLT),
+                maxLevelCurrent == null ? base.maxLevelArms()
+                        : limit("--max-level-current", maxLevelCurrent, Unit.AMPERE));
+    }
+
+    private static double limit(String option, String text, Unit unit) {
+        try {
+            return Quantities.parse(text, unit, Unit.Bound.NON_NEGATIVE);
+        } catch (InvalidInputException e) {
+            throw new InvalidInputException(option + " '" + text + "': expected a limit in " + unit.symbol()
+                    + ", e.g. 5" + unit.symbol());
+        }
+    }
+
+    /** A ramp rate such as {@code 2V/s} or {@code 500 mA/s}, in the bias's unit per second. */
+    private static double rate(String text, SourceMode mode) {
+        Unit unit = mode == SourceMode.VOLTAGE ? Unit.VOLT : Unit.AMPERE;
+        String t = text.strip();
+        String per = unit.symbol() + "/s";
+        try {
+            if (!t.endsWith(per)) {
+                throw new InvalidInputException(t);
+            }
+            return Quantities.parse(t.substring(0, t.length() - 2), unit, Unit.Bound.POSITIVE);
+        } catch (InvalidInputException e) {
+            throw new InvalidInputException("--ramp '" + text + "': expected a rate above zero in " + per
+                    + " (the bias's unit per second), e.g. 2" + per);
+        }
     }
 
     private void print(PrintWriter out, String identity, Reading r) {

@@ -31,6 +31,7 @@ import org.zweep.runner.engine.Interruption;
 import org.zweep.runner.engine.ProgressListener;
 import org.zweep.runner.engine.Prompter;
 import org.zweep.runner.engine.ReconnectPolicy;
+import org.zweep.runner.engine.RunInterruptedException;
 import org.zweep.runner.engine.RunResult;
 import org.zweep.runner.engine.RunSession;
 import org.zweep.runner.engine.ScpiMeterLink;
@@ -40,7 +41,9 @@ import org.zweep.runner.plan.Plan;
 import org.zweep.runner.results.FolderLock;
 import org.zweep.runner.results.RunFolder;
 import org.zweep.runner.results.RunManifest;
+import org.zweep.runner.safety.BiasGuard;
 import org.zweep.runner.safety.BiasOffHook;
+import org.zweep.runner.safety.BiasRamp;
 import org.zweep.runner.safety.SafetyGuard;
 import org.zweep.runner.sequence.SequenceLoader;
 import org.zweep.runner.sim.MeterLinks;
@@ -126,10 +129,11 @@ final class RunLauncher {
                 // nothing measured yet: the folder is refused (a full disk, permissions)
                 throw new InvalidInputException(e.getMessage(), e);
             }
-            out.println("run folder: " + folder.dir());
             return execute(plan, folder, false, sequenceFile.toAbsolutePath().toString(), o.seed(), o);
         } catch (RuntimeException e) {
-            discardIfUnstarted(folder, !existed);
+            if (!(e instanceof RunInterruptedException)) {
+                discardIfUnstarted(folder, !existed); // a stop request leaves a folder that --resume completes
+            }
             throw e;
         } finally {
             if (lock != null) {
@@ -147,14 +151,22 @@ final class RunLauncher {
     }
 
     /**
-     * Removes what {@link #start} put into a run folder when the run was refused before it started
-     * (no measured row and no compensation data, so nothing was measured): the same {@code --out}
-     * can then be used again, instead of a folder that is neither empty nor resumable.
+     * Removes what {@link #start} put into a run folder when the run was refused before its first
+     * point (no measured row, no compensation data, and not stopped by Ctrl-C or a signal, which
+     * leaves a resumable folder): a refused run leaves nothing, and the same {@code --out} can be
+     * used again.
      */
     static void discardIfUnstarted(RunFolder folder, boolean removeDir) {
         Path dir = folder.dir();
         if (!Files.isDirectory(dir) || Files.exists(folder.compensation())) {
             return;
+        }
+        try {
+            if (Files.exists(folder.manifest()) && "aborted".equals(RunManifest.read(folder.manifest()).outcome())) {
+                return;
+            }
+        } catch (RuntimeException e) {
+            return; // a manifest that cannot be read: keep everything
         }
         try {
             if (Files.exists(folder.points()) && Files.readAllLines(folder.points(), StandardCharsets.UTF_8).size() > 1) {
@@ -223,8 +235,9 @@ final class RunLauncher {
         ProgressListener console = o.quiet() ? ProgressListener.QUIET
                 : new ConsoleProgress(out, terminal, System::nanoTime, 5.0);
         org.zweep.runner.live.EventLog events = org.zweep.runner.live.EventLog.open(folder.dir(), Clock.systemUTC());
-        ProgressListener progress = new org.zweep.runner.live.EventRecorder(events, console,
+        ProgressListener shown = new org.zweep.runner.live.EventRecorder(events, console,
                 Analysis.mainParameter(plan.part().kind().name().toLowerCase(Locale.ROOT)), plan.name());
+        ProgressListener progress = resuming ? shown : announcingFolder(folder, shown);
         org.zweep.runner.live.LiveServer server = null;
         boolean ended = false;
         try (ScpiMeterLink link = MeterLinks.open(plan.meter().address(), plan.meter().dialect(), sb.build())) {
@@ -247,9 +260,17 @@ final class RunLauncher {
                     (station, res, log) -> CompensationWorkflow.prepare(plan, station, folder, res, clock, log),
                     f -> Analysis.sweepFigures(RunData.read(f.dir())), clock, VersionProvider.version()));
             RunSession.Summary s;
-            BiasOffHook hook = BiasOffHook.install(interruption, session::biasOffNow, err, 10_000);
+            BiasGuard guard = startGuard(plan.meter().address(), folder);
+            if (guard != null) {
+                session.watchBias(guard);
+            }
+            BiasOffHook hook = BiasOffHook.install(interruption, session::biasOffNow, err, shutdownGraceMillis(plan));
             try (hook) {
                 s = session.run();
+            } finally {
+                if (guard != null) {
+                    guard.close();
+                }
             }
             printSummary(folder, s);
             recordEnd(events, s);
@@ -267,6 +288,70 @@ final class RunLauncher {
             }
             events.close();
         }
+    }
+
+    /**
+     * Starts the guard process that ramps bias down should this process die (not for a {@code sim:}
+     * meter, which dies with it); {@code null}, after a note, when it cannot be started.
+     */
+    private BiasGuard startGuard(String address, RunFolder folder) {
+        if (Address.parse(address) instanceof SimAddress) {
+            return null;
+        }
+        try {
+            return BiasGuard.start(address, folder.dir());
+        } catch (UncheckedIOException e) {
+            err.println("zweep: WARNING: " + e.getMessage() + "; the run goes on without it");
+            return null;
+        }
+    }
+
+    /**
+     * How long JVM shutdown (SIGTERM) waits for the run to stop by itself: the longest bias ramp
+     * down the plan can need, plus 10 s for the point in progress and writing.
+     */
+    static long shutdownGraceMillis(Plan plan) {
+        double longest = 0.0;
+        for (var step : plan.steps()) {
+            for (var p : step.points()) {
+                var b = p.setting().bias();
+                if (b.on()) {
+                    longest = Math.max(longest, BiasRamp.durationS(b.value(), 0.0, step.bias().rampPerS()));
+                }
+            }
+        }
+        return (long) Math.ceil((longest + 10.0) * 1000);
+    }
+
+    /**
+     * {@code shown}, printing {@code run folder: DIR} when the first point is about to be measured:
+     * a run refused before that (safety, the meter's limits, compensation, no meter) prints no
+     * such line and leaves no folder.
+     */
+    private ProgressListener announcingFolder(RunFolder folder, ProgressListener shown) {
+        return new ProgressListener() {
+            @Override
+            public void started(int total, int done) {
+                out.println("run folder: " + folder.dir());
+                out.flush();
+                shown.started(total, done);
+            }
+
+            @Override
+            public void measured(org.zweep.runner.results.PointRow row, int done, int total) {
+                shown.measured(row, done, total);
+            }
+
+            @Override
+            public void note(String line) {
+                shown.note(line);
+            }
+
+            @Override
+            public void finished() {
+                shown.finished();
+            }
+        };
     }
 
     /** The checks and the end of the run, for the live view. */

@@ -22,7 +22,7 @@ import org.zweep.runner.verdict.CheckEvaluator;
  * that differ only in frequency when the meter has one, point by point otherwise. A meter-reported
  * error stops the step it happened in (the next steps still run); a lost link that cannot be
  * re-opened, a safety refusal or a stop request stops the run. DC bias is off when
- * {@link #run} returns or throws. Not thread-safe; one run per engine.
+ * {@link #run} returns or throws, brought down at the step's ramp rate on every one of these ways. Not thread-safe; one run per engine.
  */
 public final class RunEngine {
     private final Plan plan;
@@ -99,7 +99,7 @@ public final class RunEngine {
                     String line = "step '" + step.name() + "' stopped: " + e.getMessage();
                     problems.add(line);
                     progress.note(line);
-                    station.biasOffNow();
+                    station.stopBias();
                 }
             }
             if (!problems.isEmpty()) {
@@ -112,7 +112,7 @@ public final class RunEngine {
             outcome = RunResult.Outcome.FAILED;
             problems.add(e.getMessage());
         } finally {
-            if (!station.biasOffNow()) {
+            if (!station.stopBias()) {
                 progress.note("WARNING: could not confirm that DC bias is off on " + station.address()
                         + "; check the meter before touching the part");
             }

@@ -81,12 +81,18 @@ public final class RunSession {
     private final MeterLink link;
     private final Setup setup;
     private Station station;
+    private BiasWatcher biasWatcher = BiasWatcher.NONE;
 
     /** A session running {@code plan} on {@code link} as {@code setup} says. */
     public RunSession(Plan plan, MeterLink link, Setup setup) {
         this.plan = plan;
         this.link = link;
         this.setup = setup;
+    }
+
+    /** Makes {@code w} hear of every DC bias change of the run, before it is sent (the guard process). */
+    public void watchBias(BiasWatcher w) {
+        this.biasWatcher = w;
     }
 
     /** Turns bias off now (for a shutdown hook); never throws. */
@@ -136,6 +142,7 @@ public final class RunSession {
         boolean waits = !sim || link.simulator().get().realTiming();
         Waiter waiter = waits ? Waiter.sleeping(interruption) : Waiter.none(interruption);
         station = new Station(link, guard, setup.prompter(), waiter, setup.reconnect(), log);
+        station.watchBias(biasWatcher);
         RunManifest manifest = null;
         try (PointsCsvWriter writer = PointsCsvWriter.open(folder.points(), setup.rowSync())) {
             Long seed = setup.seed();
@@ -176,8 +183,20 @@ public final class RunSession {
             }
             manifest.write(folder.manifest());
             return new Summary(result, outcomes, manifest);
+        } catch (RunInterruptedException e) {
+            // a stop request before the engine ran (while identifying the meter or compensating)
+            station.stopBias();
+            if (manifest == null) {
+                throw e;
+            }
+            manifest = manifest.finished("aborted", setup.clock().instant().toString(),
+                    new RunManifest.Counts(points.size(), done.cardinality()), "none");
+            manifest.write(folder.manifest());
+            RunResult result = new RunResult(RunResult.Outcome.ABORTED, points.size(), done.cardinality(),
+                    List.of("stopped: " + e.getMessage()));
+            return new Summary(result, List.of(), manifest);
         } catch (RuntimeException e) {
-            station.biasOffNow();
+            station.stopBias();
             if (manifest != null) {
                 try {
                     manifest.finished("failed", setup.clock().instant().toString(),

@@ -16,6 +16,7 @@ import org.zweep.driver.meter.Reading;
 import org.zweep.driver.meter.SourceMode;
 import org.zweep.runner.plan.BiasControl;
 import org.zweep.runner.plan.Wiring;
+import org.zweep.runner.safety.BiasRamp;
 import org.zweep.runner.safety.SafetyGuard;
 
 /**
@@ -30,7 +31,7 @@ import org.zweep.runner.safety.SafetyGuard;
  */
 public final class Station {
     /** The longest wait between two bias steps of a ramp, in seconds. */
-    static final double RAMP_STEP_S = 0.1;
+    static final double RAMP_STEP_S = BiasRamp.MAX_STEP_S;
 
     private final MeterLink link;
     private final SafetyGuard guard;
@@ -44,6 +45,10 @@ public final class Station {
     private MeterCapabilities statedLimits;
     private double topRangeOhm;
     private volatile Bias applied = Bias.OFF;
+    /** How the bias now applied was reached: it goes down no faster than it went up. */
+    private BiasControl rampControl = BiasControl.NONE;
+    /** Told of every bias value before it is sent (the guard process). */
+    private volatile BiasWatcher biasWatcher = BiasWatcher.NONE;
     /** The bias of the setting being sent (it may or may not have reached the meter). */
     private Bias sending;
     private boolean meterCorrection;
@@ -247,29 +252,75 @@ public final class Station {
         meterCorrection = on;
     }
 
-    /** Brings bias down to zero at the ramp limit and switches it off. */
+    /**
+     * Brings bias down to zero, no faster than {@code bias} allows nor than it went up, and
+     * switches it off. The ramp's waits go on through a stop request (Ctrl-C, a termination
+     * signal): only the end of the process cuts it short.
+     */
     public void rampBiasOff(BiasControl bias) {
         Bias from = applied;
         if (!from.on()) {
             return;
         }
         withRetry("turning bias off", () -> {
-            if (applied.on()) {
-                if (lastSetting != null) {
-                    double seconds = Math.abs(applied.value()) / bias.rampPerS();
-                    if (seconds >= 1.0) {
-                        // Tell the operator why nothing seems to happen for a while.
-                        log.accept(String.format(java.util.Locale.ROOT, "bringing DC bias from %s %s down to 0 at"
-                                + " %s %s/s (about %.0f s)", ConsoleProgress.num(applied.value()), applied.mode().unit(),
-                                ConsoleProgress.num(bias.rampPerS()), applied.mode().unit(), seconds));
-                    }
-                    ramp(lastSetting, applied.mode(), applied.value(), 0.0, bias.rampPerS());
-                }
-                link.meter().biasOff();
-                applied = Bias.OFF;
-            }
+            rampDownNow(downRate(bias));
             return null;
         });
+    }
+
+    /**
+     * Brings bias down at the ramp rate it went up at and switches it off, whatever stopped the
+     * run; falls back to {@link #biasOffNow()} (and says so) only when the ramp cannot be done.
+     * Never throws.
+     *
+     * @return whether the meter confirmed that bias is off
+     */
+    public boolean stopBias() {
+        try {
+            rampBiasOff(rampControl);
+        } catch (RuntimeException e) {
+            // given up on (a lost link, a meter error): once more on a fresh connection, still ramped
+            try {
+                link.reconnect();
+                reconnects++;
+                rampDownNow(rampControl.rampPerS());
+                log.accept("reconnected to " + link.address() + " and brought DC bias down at the ramp rate");
+            } catch (RuntimeException second) {
+                log.accept("could not ramp DC bias down (" + e.getMessage() + "); switching it off at once,"
+                        + " without a ramp");
+            }
+        }
+        return biasOffNow();
+    }
+
+    /** Makes {@code w} hear of every bias change before it is sent (the guard process's feed). */
+    public void watchBias(BiasWatcher w) {
+        this.biasWatcher = w;
+    }
+
+    private double downRate(BiasControl bias) {
+        return Math.min(bias.rampPerS(), rampControl.rampPerS());
+    }
+
+    /** Ramps the applied bias to 0 at {@code rate} on the link as it is, then switches bias off. */
+    private void rampDownNow(double rate) {
+        if (!applied.on()) {
+            return;
+        }
+        if (lastSetting != null) {
+            double seconds = BiasRamp.durationS(applied.value(), 0.0, rate);
+            if (seconds >= 1.0) {
+                // Tell the operator why nothing seems to happen for a while.
+                log.accept(String.format(java.util.Locale.ROOT, "bringing DC bias from %s %s down to 0 at"
+                        + " %s %s/s (about %.0f s)", ConsoleProgress.num(applied.value()), applied.mode().unit(),
+                        ConsoleProgress.num(rate), applied.mode().unit(), seconds));
+            }
+            ramp(lastSetting, applied.mode(), applied.value(), 0.0, rate, true);
+        }
+        link.meter().biasOff();
+        applied = Bias.OFF;
+        rampControl = BiasControl.NONE;
+        biasWatcher.off();
     }
 
     /**
@@ -282,6 +333,7 @@ public final class Station {
         try {
             link.meter().biasOff();
             applied = Bias.OFF;
+            biasWatcher.off();
             return true;
         } catch (MeterException e) {
             if (!link.isLinkFailure(e)) {
@@ -293,6 +345,7 @@ public final class Station {
         try {
             link.reconnect().biasOff();
             applied = Bias.OFF;
+            biasWatcher.off();
             log.accept("bias turned off after reconnecting to " + link.address());
             return true;
         } catch (RuntimeException e) {
@@ -311,15 +364,16 @@ public final class Station {
         double rate = control.rampPerS();
         boolean changed = false;
         if (from.on() && (!to.on() || from.mode() != to.mode())) {
-            ramp(target, from.mode(), from.value(), 0.0, rate);
+            ramp(target, from.mode(), from.value(), 0.0, downRate(control), false);
             apply(target.withBias(new Bias(from.mode(), 0.0, false)));
             changed = true;
             from = Bias.OFF;
         }
         if (to.on()) {
+            rampControl = control;
             double start = from.on() ? from.value() : 0.0;
             if (!from.on() || start != to.value()) {
-                ramp(target, to.mode(), start, to.value(), rate);
+                ramp(target, to.mode(), start, to.value(), rate, false);
                 changed = true;
             }
         }
@@ -329,21 +383,24 @@ public final class Station {
         }
     }
 
-    /** Steps bias from {@code a} to {@code b} no faster than {@code rate}, ending at {@code b} applied. */
-    private void ramp(MeasurementSetting base, SourceMode mode, double a, double b, double rate) {
-        if (a == b) {
-            return;
-        }
-        int n = 1;
-        double total = 0.0;
-        if (Double.isFinite(rate) && rate > 0) {
-            total = Math.abs(b - a) / rate;
-            n = Math.max(1, (int) Math.ceil(total / RAMP_STEP_S - 1e-9));
-        }
-        for (int k = 1; k <= n; k++) {
-            double v = k == n ? b : a + (b - a) * k / n;
-            apply(base.withBias(new Bias(mode, v, true)));
-            waiter.waitS(total / n);
+    /**
+     * Steps bias from {@code a} to {@code b} no faster than {@code rate}, ending at {@code b}
+     * applied, as {@link BiasRamp} plans it; {@code stopping} ramps go on through a stop request.
+     */
+    private void ramp(MeasurementSetting base, SourceMode mode, double a, double b, double rate, boolean stopping) {
+        for (BiasRamp.Step step : BiasRamp.plan(a, b, rate, RAMP_STEP_S)) {
+            apply(base.withBias(new Bias(mode, step.value(), true)));
+            if (stopping) {
+                waiter.waitThroughStopS(step.waitS());
+            } else {
+                try {
+                    waiter.waitS(step.waitS());
+                } catch (RunInterruptedException e) {
+                    // hold this value its full step before the ramp down starts from it
+                    waiter.waitThroughStopS(step.waitS());
+                    throw e;
+                }
+            }
         }
     }
 
@@ -367,6 +424,9 @@ public final class Station {
     private void apply(MeasurementSetting s) {
         guard.check(s, "setting at " + org.zweep.runner.safety.SafetyGuard.human(s.frequencyHz(), "Hz"));
         sending = s.bias();
+        if (s.bias().on() || applied.on()) {
+            biasWatcher.applying(s, rampControl.rampPerS());
+        }
         link.meter().apply(s);
         lastSetting = s;
         applied = s.bias();
@@ -424,6 +484,7 @@ public final class Station {
                 } else {
                     m.biasOff();
                     applied = Bias.OFF;
+                    biasWatcher.off();
                     lastSetting = null;
                 }
                 if (meterCorrection) {

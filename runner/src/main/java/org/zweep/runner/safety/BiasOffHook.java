@@ -12,10 +12,11 @@ import org.zweep.runner.engine.Interruption;
  * Keeps DC bias off when a run is stopped from outside. While installed:
  * <ul>
  *   <li>the first Ctrl-C (SIGINT) asks the run to stop after the point in progress; the run then
- *       turns bias off, writes everything and leaves a resumable folder;</li>
- *   <li>a second Ctrl-C turns bias off at once and exits with code 130;</li>
- *   <li>JVM shutdown (SIGTERM, {@code System.exit}) asks the run to stop, waits up to
- *       {@code graceMillis} for it, and turns bias off itself if the run did not stop in time.</li>
+ *       brings bias down at the step's ramp rate, writes everything and leaves a resumable folder;</li>
+ *   <li>a second Ctrl-C cuts bias at once (no ramp), says so and exits with code 130;</li>
+ *   <li>JVM shutdown (SIGTERM, {@code System.exit}) asks the run to stop the same way, waits up to
+ *       {@code graceMillis} for it (the ramp down included), and cuts bias itself, saying so, if
+ *       the run did not stop in time.</li>
  * </ul>
  * Signal handling uses the JDK's {@code sun.misc.Signal} when present (looked up reflectively);
  * without it, Ctrl-C is handled as JVM shutdown. {@link #close()} restores the previous handlers.
@@ -60,13 +61,14 @@ public final class BiasOffHook implements AutoCloseable {
     void onInterrupt() {
         if (signals.incrementAndGet() == 1) {
             err.println();
-            err.println("zweep: stopping after the point in progress (Ctrl-C again to stop at once)");
+            err.println("zweep: stopping after the point in progress; DC bias comes down at the step's ramp rate"
+                    + " (Ctrl-C again to cut it at once)");
             err.flush();
             interruption.request("Ctrl-C");
         } else {
             boolean off = biasOff.getAsBoolean();
-            err.println(off ? "zweep: stopped at once; DC bias is off" : "zweep: stopped at once; could NOT confirm"
-                    + " that DC bias is off - check the meter before touching the part");
+            err.println(off ? "zweep: stopped at once; DC bias was cut without a ramp" : "zweep: stopped at once;"
+                    + " could NOT confirm that DC bias is off - check the meter before touching the part");
             err.flush();
             Runtime.getRuntime().halt(EXIT_INTERRUPTED);
         }
@@ -78,7 +80,11 @@ public final class BiasOffHook implements AutoCloseable {
         }
         interruption.request("shutting down");
         if (!interruption.awaitStopped(graceMillis)) {
-            biasOff.getAsBoolean();
+            boolean off = biasOff.getAsBoolean();
+            err.println(String.format(java.util.Locale.ROOT, "zweep: the run did not stop within %.0f s of the"
+                    + " shutdown request; %s", graceMillis / 1000.0, off ? "DC bias was cut without a ramp"
+                    : "could NOT confirm that DC bias is off - check the meter before touching the part"));
+            err.flush();
         }
     }
 

@@ -72,11 +72,19 @@ final class FakeBench {
     };
 
     Waiter waiter(Interruption i) {
-        return s -> {
-            if (i.requested()) {
-                throw new RunInterruptedException(i.reason());
+        return new Waiter() {
+            @Override
+            public void waitS(double s) {
+                if (i.requested()) {
+                    throw new RunInterruptedException(i.reason());
+                }
+                waiter.waitS(s);
             }
-            waiter.waitS(s);
+
+            @Override
+            public void waitThroughStopS(double s) {
+                waiter.waitS(s);
+            }
         };
     }
 

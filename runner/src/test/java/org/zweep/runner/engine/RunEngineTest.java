@@ -294,4 +294,91 @@ class RunEngineTest {
         assertTrue(e.getMessage().startsWith("step 'hot', point 0: DC bias 30 V exceeds"), e.getMessage());
         assertFalse(bench.trace.contains("apply"));
     }
+
+    /**
+     * Every change in the bench's bias history is within {@code rampPerS} (the plan's ramp): between
+     * two values by the time between them, and switching on or off only within one ramp step of 0.
+     */
+    void assertRampedEverywhere(double rampPerS) {
+        List<FakeBench.BiasEvent> h = bench.biasHistory;
+        for (int i = 1; i < h.size(); i++) {
+            FakeBench.BiasEvent a = h.get(i - 1);
+            FakeBench.BiasEvent b = h.get(i);
+            if (a.on() && b.on()) {
+                assertTrue(Math.abs(b.value() - a.value()) <= rampPerS * (b.timeS() - a.timeS()) + 1e-9,
+                        "step " + a + " -> " + b + " in " + h);
+            } else if (a.on() != b.on()) {
+                double v = a.on() ? a.value() : b.value();
+                assertTrue(Math.abs(v) <= rampPerS * Station.RAMP_STEP_S + 1e-9, "switched at " + v + " in " + h);
+            }
+        }
+        assertEquals(Bias.OFF, bench.instrumentBias);
+    }
+
+    @Test
+    void stopRequestDuringARampUpBringsBiasDownAtTheRampRateNotAtOnce() {
+        Waiter inner = bench.waiter(interruption);
+        Waiter stopAt4V = new Waiter() {
+            @Override
+            public void waitS(double seconds) {
+                if (bench.instrumentBias.on() && bench.instrumentBias.value() >= 4.0) {
+                    interruption.request("Ctrl-C");
+                }
+                inner.waitS(seconds);
+            }
+
+            @Override
+            public void waitThroughStopS(double seconds) {
+                inner.waitThroughStopS(seconds);
+            }
+        };
+        Station st = new Station(link, new SafetyGuard(TestPlans.LIMITS), prompts::add, stopAt4V, policy, notes::add);
+        st.start(42L);
+        Plan plan = TestPlans.capacitor();
+        RunResult r = new RunEngine(plan, st, ReadingCorrector.NONE, new CheckEvaluator(plan.checks()), progress,
+                interruption).run(new BitSet(), (row, last) -> rows.add(row));
+        assertEquals(RunResult.Outcome.ABORTED, r.outcome());
+        assertTrue(bench.biasHistory.stream().anyMatch(e -> e.value() >= 4.0), "stopped mid ramp: " + bench.biasHistory);
+        assertRampedEverywhere(1.0); // the plan's 1 V/s ramp
+        double peakS = bench.biasHistory.stream().filter(e -> e.value() >= 4.0).findFirst().orElseThrow().timeS();
+        double offS = bench.biasHistory.get(bench.biasHistory.size() - 1).timeS();
+        assertTrue(offS - peakS >= 4.0 - 1.0 * Station.RAMP_STEP_S - 1e-9, "from 4 V at 1 V/s takes 4 s, took "
+                + (offS - peakS));
+    }
+
+    @Test
+    void meterErrorDuringABiasStepBringsBiasDownAtTheRampRate() {
+        bench.meterErrorAtMeasure = 10; // point 9: 5 V on (points 5-6 at 0 V, 7-8 at 2 V, 9-10 at 5 V)
+        RunResult r = run(TestPlans.capacitor(), new BitSet());
+        assertEquals(RunResult.Outcome.FAILED, r.outcome());
+        assertTrue(bench.biasHistory.stream().anyMatch(e -> e.value() == 5.0), "5 V was reached");
+        assertRampedEverywhere(1.0);
+    }
+
+    @Test
+    void endOfStepRampDownGoesOnThroughAStopRequest() {
+        progress = new Recorder() {
+            @Override
+            public void measured(PointRow row, int done, int total) {
+                if (row.point() == 10) {
+                    interruption.request("shutting down"); // the last point: the end-of-step ramp is next
+                }
+            }
+        };
+        RunResult r = run(TestPlans.capacitor(), new BitSet());
+        assertEquals(11, r.measured());
+        assertRampedEverywhere(1.0);
+    }
+
+    @Test
+    void aLinkGivenUpOnIsRampedDownOnceItIsBack() {
+        policy = new ReconnectPolicy(0.1, 1.0, 2.0, 10.0, 3);
+        bench.dropAtMeasure.add(10); // point 9: 5 V on (points 5-6 at 0 V, 7-8 at 2 V, 9-10 at 5 V)
+        bench.failingReconnects = 3; // the run gives up after 3 attempts; the 4th connects
+        RunResult r = run(TestPlans.capacitor(), new BitSet());
+        assertEquals(RunResult.Outcome.FAILED, r.outcome());
+        assertTrue(bench.biasHistory.stream().anyMatch(e -> e.value() == 5.0), "5 V was reached");
+        assertRampedEverywhere(1.0); // the plan's 1 V/s: brought down from 5 V, not cut
+        assertTrue(notes.stream().anyMatch(n -> n.contains("brought DC bias down at the ramp rate")), notes.toString());
+    }
 }

@@ -28,14 +28,10 @@ class KillAndResumeIT {
     @TempDir
     Path dir;
 
+    /** Starts {@code zweep run} in a child JVM with default signal dispositions (see {@link Children}). */
     static Process child(Path out, String meter) throws Exception {
-        String java = Path.of(System.getProperty("java.home"), "bin", "java").toString();
-        ProcessBuilder pb = new ProcessBuilder(java, "-cp", System.getProperty("java.class.path"),
-                "org.zweep.runner.cli.Main", "run", SEQ.toString(), "--meter", meter, "--dialect", Sims.dialect(),
-                "--out", out.toString(), "--seed", "7", "--quiet");
-        pb.redirectErrorStream(true);
-        pb.redirectOutput(out.resolveSibling(out.getFileName() + ".log").toFile());
-        return pb.start();
+        return Children.zweep(out.resolveSibling(out.getFileName() + ".log"), "run", SEQ.toString(), "--meter", meter,
+                "--dialect", Sims.dialect(), "--out", out.toString(), "--seed", "7", "--quiet");
     }
 
     /** Waits until the folder holds at least {@code rows} complete rows (bias step under way). */
@@ -97,11 +93,7 @@ class KillAndResumeIT {
             server.instrument().setTiming(org.zweep.simulator.scpi.TimingModel.REAL);
             Process p = child(out, "tcp://127.0.0.1:" + server.port());
             awaitRows(out, 55, p);
-            if (ctrlC) {
-                new ProcessBuilder("kill", "-INT", Long.toString(p.pid())).start().waitFor();
-            } else {
-                p.destroy(); // SIGTERM: JVM shutdown hooks run
-            }
+            Children.signal(p, ctrlC ? "INT" : "TERM"); // SIGTERM: JVM shutdown hooks run
             assertTrue(p.waitFor(30, TimeUnit.SECONDS), "child stopped");
             assertTrue(Sims.biasOff(server), "bias off on the simulator after the signal");
             RunManifest m = RunManifest.read(out.resolve("run.json"));

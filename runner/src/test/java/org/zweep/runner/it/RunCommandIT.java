@@ -98,6 +98,21 @@ class RunCommandIT {
     }
 
     @Test
+    void runRefusedDuringCompensationPrintsNoRunFolderLineAndLeavesNoFolder() {
+        // message 20 falls in the host-side OPEN standard's sweep (after identify, reset and setup)
+        try (org.zweep.simulator.server.SimulatorServer server = Sims.tcp(Sims.benchOf(SEQ),
+                org.zweep.simulator.server.FaultPlan.parse("error=-222@20", 1))) {
+            Path out = dir.resolve("out");
+            Sims.Result r = Sims.zweep("run", SEQ.toString(), "--meter", "tcp://127.0.0.1:" + server.port(),
+                    "--dialect", Sims.dialect(), "--quiet", "--out", out.toString());
+            assertEquals(3, r.code(), r.out() + r.err());
+            assertTrue(r.err().contains("-222"), r.err());
+            assertFalse(r.out().contains("run folder:"), r.out());
+            assertFalse(Files.exists(out), "refused before the first point: no run folder");
+        }
+    }
+
+    @Test
     void resumeOfACompletedRunChangesNothing() {
         Path out = dir.resolve("done");
         assertEquals(0, Sims.zweep("run", SEQ.toString(), "--meter", sim(), "--dialect", Sims.dialect(), "--out",
@@ -128,5 +143,41 @@ class RunCommandIT {
     void measureOverTheMetersBiasRangeGivesExitCode2() {
         Sims.Result r = Sims.zweep("measure", sim(), "--frequency", "1kHz", "--bias", "100V");
         assertEquals(2, r.code(), r.err());
+    }
+
+    @Test
+    void measureRefusesBiasWithoutASafetyLimitAndBiasOverTheLimitBeforeAnythingIsSent() {
+        Sims.Result r = Sims.zweep("measure", "tcp://127.0.0.1:1", "--frequency", "1kHz", "--bias", "2V");
+        assertEquals(2, r.code(), r.err());
+        assertTrue(r.err().contains("--bias needs a safety limit: give --max-bias-voltage"), r.err());
+        // the unreachable address shows that nothing was even connected to
+        r = Sims.zweep("measure", "tcp://127.0.0.1:1", "--frequency", "1kHz", "--bias", "30V", "--sequence",
+                SEQ.toString());
+        assertEquals(2, r.code(), r.err());
+        assertTrue(r.err().contains("DC bias 30") && r.err().contains("exceeds the safety limit 25"), r.err());
+        r = Sims.zweep("measure", "tcp://127.0.0.1:1", "--frequency", "1kHz", "--level", "0.8V", "--sequence",
+                SEQ.toString(), "--max-level-voltage", "0.5V");
+        assertEquals(2, r.code(), r.err());
+        assertTrue(r.err().contains("drive level") && r.err().contains("exceeds the safety limit"), r.err());
+    }
+
+    @Test
+    void measureRampsBiasUpAndDownAtTheGivenRateOnTheMetersSide() throws Exception {
+        try (org.zweep.simulator.server.SimulatorServer server = Sims.tcp(Sims.benchOf(SEQ),
+                org.zweep.simulator.server.FaultPlan.none())) {
+            server.instrument().setTiming(org.zweep.simulator.scpi.TimingModel.REAL);
+            String address = "tcp://127.0.0.1:" + server.port();
+            Sims.Result r = Sims.zweep("measure", address, "--frequency", "1kHz", "--level", "0.5V", "--bias", "5V",
+                    "--ramp", "10V/s", "--settle", "100ms", "--sequence", SEQ.toString(), "--json");
+            assertEquals(0, r.code(), r.out() + r.err());
+            assertEquals(5.0, new ObjectMapper().readTree(r.out()).get("bias").asDouble(), 0.0);
+            BiasTrace t = BiasTrace.read(address);
+            assertEquals(5.0, t.peak(false), 0.0);
+            assertEquals(0.0, t.last().voltageV(), 0.0);
+            assertTrue(Sims.biasOff(server));
+            // 5 V at 10 V/s: 0.5 s each way in steps of 1 V (0.1 s); nothing faster than the ramp plus one step
+            assertTrue(t.entries().size() >= 2 * 5, "ramped in steps: " + t);
+            assertTrue(t.largestExcess(false, 10.0) <= 1.0 + 1e-9, "within the ramp: " + t);
+        }
     }
 }

@@ -67,6 +67,7 @@ public final class Instrument implements AutoCloseable {
     private double lastRangeOhm = Double.NaN;
     private boolean opcArmed;
     private MeterCorrection correction = MeterCorrection.none();
+    private final BiasHistory biasHistory = new BiasHistory(java.time.Instant::now);
 
     /** A meter in front of {@code bench} with the SCPI command set and the SIMulate subsystem. */
     public Instrument(Bench bench, InstrumentOptions options) {
@@ -126,6 +127,11 @@ public final class Instrument implements AutoCloseable {
         this.timing = t;
     }
 
+    /** The DC bias applied over time ({@code SIMulate:BIAS:HISTory?}). */
+    BiasHistory biasHistory() {
+        return biasHistory;
+    }
+
     InstrumentOptions options() {
         return options;
     }
@@ -151,6 +157,7 @@ public final class Instrument implements AutoCloseable {
         lock.lock();
         try {
             f.accept(settings);
+            biasHistory.record(settings);
         } finally {
             lock.unlock();
         }
@@ -165,6 +172,7 @@ public final class Instrument implements AutoCloseable {
             opcArmed = false;
             abortLocked();
             settings = Settings.defaults(bench.limits());
+            biasHistory.record(settings);
             data = null;
             opcArmed = false;
             status.setQuestionable(StatusModel.QUES_OVERLOAD, false);

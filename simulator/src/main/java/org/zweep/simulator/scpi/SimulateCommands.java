@@ -9,7 +9,7 @@ import org.zweep.simulator.bench.Wiring;
 
 /**
  * The simulator-only {@code SIMulate} subsystem (our own, in SCPI-1999 style): what is in the
- * fixture, the transformer's second winding, the seed and noise key, the timing model, loading a
+ * fixture, the transformer's second winding, the seed and noise key, the timing model, the applied DC bias over time, loading a
  * device or bench, and the strict IEEE 488.2 query rules. The server adds {@code SIMulate:FAULt}.
  */
 final class SimulateCommands {
@@ -81,6 +81,23 @@ final class SimulateCommands {
             c.count(0, 0);
             return Response.text(c.session().strict() ? "1" : "0");
         });
+        b.on("SIMulate:BIAS:HISTory?", c -> {
+            c.count(0, 0);
+            StringBuilder out = new StringBuilder();
+            for (BiasHistory.Entry e : in.biasHistory().entries()) {
+                if (out.length() > 0) {
+                    out.append(',');
+                }
+                out.append(String.format(java.util.Locale.ROOT, "%.6f,%s,%s", e.timeS(), nr3(e.voltageV()),
+                        nr3(e.currentA())));
+            }
+            return Response.text(out.toString());
+        });
+        b.on("SIMulate:BIAS:HISTory:CLEar", c -> {
+            c.count(0, 0);
+            in.biasHistory().clear();
+            return null;
+        });
         b.on("SIMulate:DEVice", c -> {
             c.count(1, 1);
             String netlist = c.text(0).replace("\\n", "\n");
@@ -98,6 +115,10 @@ final class SimulateCommands {
             in.setBench(load(() -> loader.load(file)));
             return null;
         });
+    }
+
+    private static String nr3(double v) {
+        return String.format(java.util.Locale.ROOT, "%.9E", v);
     }
 
     private static BenchLoader loader(Instrument in) {

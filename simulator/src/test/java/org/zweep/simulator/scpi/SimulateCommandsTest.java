@@ -120,4 +120,29 @@ class SimulateCommandsTest {
         send("SIM:TIM NONE");
         assertEquals("NONE", send("SIM:TIM?"));
     }
+
+    @Test
+    void theBiasHistoryRecordsEachChangeOfTheAppliedBiasWithItsTime() {
+        send("SIM:BIAS:HIST:CLE");
+        send("SOUR:VOLT:OFFS 2;:SOUR:VOLT:OFFS:STAT ON");
+        send("SOUR:VOLT:OFFS 4");
+        send("SOUR:VOLT:OFFS 4"); // no change: no entry
+        send("SOUR:CURR:OFFS 0.5;:SOUR:CURR:OFFS:STAT ON"); // one source: the voltage goes off
+        send("*RST");
+        double[] h = Arrays.stream(send("SIMulate:BIAS:HISTory?").split(",")).mapToDouble(Double::parseDouble)
+                .toArray();
+        assertEquals(5 * 3, h.length, Arrays.toString(h));
+        double[][] expected = {{0, 0}, {2, 0}, {4, 0}, {0, 0.5}, {0, 0}};
+        for (int k = 0; k < expected.length; k++) {
+            assertEquals(expected[k][0], h[3 * k + 1], 0.0, "voltage of entry " + k);
+            assertEquals(expected[k][1], h[3 * k + 2], 0.0, "current of entry " + k);
+            if (k > 0) {
+                assertTrue(h[3 * k] >= h[3 * (k - 1)], "times in order");
+            }
+        }
+        assertTrue(Math.abs(h[0] - System.currentTimeMillis() / 1000.0) < 60, "seconds since the epoch: " + h[0]);
+        assertEquals(0, nextError());
+        send("SIM:BIAS:HIST:CLE");
+        assertEquals(3, send("SIM:BIAS:HIST?").split(",").length);
+    }
 }

@@ -1,0 +1,49 @@
+package org.zweep.runner.it;
+
+import java.io.IOException;
+import java.io.UncheckedIOException;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+
+/**
+ * Child JVMs running {@code zweep}, started as a shell starts a foreground command: SIGINT and
+ * SIGTERM at their default disposition ({@code env --default-signal=INT,TERM}, GNU coreutils
+ * 8.31 or later), whatever disposition this JVM inherited (a job started in the background by a
+ * non-interactive shell ignores SIGINT, and its children would too).
+ */
+final class Children {
+    private Children() {
+    }
+
+    /** Starts {@code zweep args} with its output (both streams) going to {@code log}. */
+    static Process zweep(Path log, String... args) {
+        String java = Path.of(System.getProperty("java.home"), "bin", "java").toString();
+        List<String> cmd = new ArrayList<>(List.of("env", "--default-signal=INT,TERM", java, "-cp",
+                System.getProperty("java.class.path"), "org.zweep.runner.cli.Main"));
+        cmd.addAll(List.of(args));
+        ProcessBuilder pb = new ProcessBuilder(cmd);
+        pb.redirectErrorStream(true);
+        pb.redirectOutput(log.toFile());
+        try {
+            return pb.start();
+        } catch (IOException e) {
+            throw new UncheckedIOException(e);
+        }
+    }
+
+    /** Sends {@code signal} (e.g. {@code INT}, {@code TERM}, {@code KILL}) to {@code p} alone. */
+    static void signal(Process p, String signal) {
+        try {
+            int rc = new ProcessBuilder("kill", "-" + signal, Long.toString(p.pid())).inheritIO().start().waitFor();
+            if (rc != 0) {
+                throw new AssertionError("kill -" + signal + " " + p.pid() + " gave " + rc);
+            }
+        } catch (IOException e) {
+            throw new UncheckedIOException(e);
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+            throw new AssertionError(e);
+        }
+    }
+}
