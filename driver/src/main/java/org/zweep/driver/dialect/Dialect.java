@@ -36,11 +36,12 @@ public final class Dialect {
     private final boolean compoundMessages;
     private final boolean appendErrorQuery;
     private final ReplyShape reply;
+    private final MeterTiming timing;
     private final Map<Command, Template> commands;
 
     Dialect(String name, String description, String source, MeterCapabilities capabilities, Range averagingCount,
             Range integrationTimeS, Range impedanceRangeOhm, boolean compoundMessages, boolean appendErrorQuery,
-            ReplyShape reply, Map<Command, Template> commands) {
+            ReplyShape reply, MeterTiming timing, Map<Command, Template> commands) {
         this.name = name;
         this.description = description;
         this.source = source;
@@ -51,6 +52,7 @@ public final class Dialect {
         this.compoundMessages = compoundMessages;
         this.appendErrorQuery = appendErrorQuery;
         this.reply = reply;
+        this.timing = timing;
         this.commands = new EnumMap<>(commands);
     }
 
@@ -70,6 +72,11 @@ public final class Dialect {
      */
     public static boolean isPath(String nameOrPath) {
         return nameOrPath.contains("/") || nameOrPath.contains("\\") || nameOrPath.endsWith(".dialect");
+    }
+
+    /** How long the meter works on what it is asked (the {@code [timing]} section, or its defaults). */
+    public MeterTiming timing() {
+        return timing;
     }
 
     /** The names of the dialects shipped with zweep, in the order they are documented. */

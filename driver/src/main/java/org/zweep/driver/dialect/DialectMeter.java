@@ -4,6 +4,7 @@ import java.math.BigDecimal;
 import java.nio.ByteBuffer;
 import java.nio.ByteOrder;
 import java.time.Clock;
+import java.time.Duration;
 import java.time.Instant;
 import java.util.ArrayList;
 import java.util.EnumMap;
@@ -31,6 +32,7 @@ import org.zweep.driver.scpi.ScpiError;
 import org.zweep.driver.scpi.ScpiProtocolException;
 import org.zweep.driver.scpi.ScpiSession;
 import org.zweep.driver.scpi.ScpiValues;
+import org.zweep.driver.transport.MeterTimeoutException;
 
 /**
  * A {@link Meter} driven entirely by a {@link Dialect} over one {@link ScpiSession}.
@@ -41,6 +43,9 @@ import org.zweep.driver.scpi.ScpiValues;
  * configuration round trip, one trigger and one read. Every setting is checked against the
  * dialect's capabilities before anything is sent ({@link InvalidInputException} naming the setting
  * and the limit); errors the meter reports raise {@link MeterErrorException} with every entry.
+ *
+ * <p>Deadlines: a measurement, a sweep or a correction standard is awaited for the time the
+ * dialect's {@link MeterTiming} expects plus the session's slack; a timeout names the exchange.
  *
  * <p>Not thread-safe: one thread drives a meter at a time. After any failure the remembered state
  * is forgotten, so the next {@link #apply} sends every setting again.
@@ -53,6 +58,8 @@ public final class DialectMeter implements Meter {
     private final Clock clock;
     private KnownState known = new KnownState();
     private MeasurementSetting current;
+    /** The setting of the point this object last had measured (for the timing model), or null. */
+    private MeasurementSetting lastMeasured;
     private boolean resync;
     private boolean setupDone;
     private boolean closed;
@@ -108,6 +115,7 @@ public final class DialectMeter implements Meter {
         known = new KnownState();
         setupDone = false;
         current = null;
+        lastMeasured = null;
         resync = false;
         send(List.of(render(Command.RESET)), "resetting");
     }
@@ -142,7 +150,9 @@ public final class DialectMeter implements Meter {
         if (resync) {
             apply(current);
         }
-        double[] values = readValues(Command.MEASURE, 1, "measuring at " + describe(current));
+        double expected = dialect.timing().pointS(current, lastMeasured);
+        double[] values = readValues(Command.MEASURE, 1, expected, "measuring at " + describe(current));
+        lastMeasured = current;
         return reading(current, values, 0, clock.instant());
     }
 
@@ -188,8 +198,12 @@ public final class DialectMeter implements Meter {
             case SHORT -> Command.CORRECTION_SHORT;
             case LOAD -> Command.CORRECTION_LOAD;
         };
-        send(List.of(render(c)), "acquiring the " + standard + " correction");
+        MeasurementSetting at = current != null ? current : MeasurementSetting.at(dialect.capabilities().frequencyHz().min());
+        send(List.of(render(c)), dialect.timing().correctionS(at, dialect.capabilities().frequencyHz()),
+                "acquiring the " + standard + " correction");
+        lastMeasured = null;
     }
+
 
     @Override
     public void setLoadStandard(Impedance known) {
@@ -269,7 +283,10 @@ public final class DialectMeter implements Meter {
         configure(chunk.get(0), chunk, "setting up a list sweep of " + chunk.size() + " points");
         current = chunk.get(chunk.size() - 1);
         resync = true;
-        double[] values = readValues(Command.LIST_MEASURE, chunk.size(), "sweeping " + chunk.size() + " points");
+        double expected = dialect.timing().sweepS(chunk, lastMeasured);
+        double[] values = readValues(Command.LIST_MEASURE, chunk.size(), expected, "sweeping " + chunk.size()
+                + " points from " + describe(chunk.get(0)) + " to " + describe(chunk.get(chunk.size() - 1)));
+        lastMeasured = chunk.get(chunk.size() - 1);
         Instant t = clock.instant();
         List<Reading> readings = new ArrayList<>(chunk.size());
         for (int i = 0; i < chunk.size(); i++) {
@@ -436,6 +453,11 @@ public final class DialectMeter implements Meter {
      * for no units. On any failure the remembered state is forgotten.
      */
     private void send(List<String> units, String what) {
+        send(units, 0.0, what);
+    }
+
+    /** As {@link #send(List, String)}, for a message the meter works on for {@code expectedS} seconds. */
+    private void send(List<String> units, double expectedS, String what) {
         if (units.isEmpty()) {
             return;
         }
@@ -446,34 +468,56 @@ public final class DialectMeter implements Meter {
             }
             String last = messages.get(messages.size() - 1);
             Optional<Template> errorQuery = dialect.command(Command.ERROR_QUERY);
+            Duration work = seconds(expectedS);
             if (dialect.appendErrorQuery()) {
-                ScpiError first = parseError(session.query(last + ";" + errorQuery.orElseThrow().render()), what);
+                ScpiError first = parseError(session.query(last + ";" + errorQuery.orElseThrow().render(), work),
+                        what);
                 if (first.code() != 0) {
                     throw errors(first, what);
                 }
             } else {
                 session.write(last);
                 if (errorQuery.isPresent()) {
-                    List<ScpiError> errors = readErrors(new ArrayList<>(), what);
+                    List<ScpiError> errors = readErrors(new ArrayList<>(), work, what);
                     if (!errors.isEmpty()) {
                         throw errors(errors, what);
                     }
                 } else {
-                    dialect.command(Command.SYNC).ifPresent(t -> session.query(t.render()));
+                    dialect.command(Command.SYNC).ifPresent(t -> session.query(t.render(), work));
                 }
             }
+        } catch (MeterTimeoutException e) {
+            known = new KnownState();
+            resync = current != null;
+            lastMeasured = null;
+            throw named(e, what);
         } catch (RuntimeException e) {
             known = new KnownState();
             resync = current != null;
+            lastMeasured = null;
             throw e;
         }
     }
 
+    /** {@code e} with the exchange it happened in named. */
+    private static MeterTimeoutException named(MeterTimeoutException e, String what) {
+        return new MeterTimeoutException(e.getMessage() + " while " + what, e.received());
+    }
+
+    private static Duration seconds(double s) {
+        return s > 0 ? Duration.ofNanos((long) Math.ceil(s * 1e9)) : Duration.ZERO;
+    }
+
     /** Reads the error query until it answers 0, after the entries already in {@code errors}. */
     private List<ScpiError> readErrors(List<ScpiError> errors, String what) {
+        return readErrors(errors, Duration.ZERO, what);
+    }
+
+    /** As {@link #readErrors(List, String)}, the first answer awaited after {@code work} of the meter's. */
+    private List<ScpiError> readErrors(List<ScpiError> errors, Duration work, String what) {
         String query = render(Command.ERROR_QUERY);
         for (int i = 0; i < MAX_ERROR_ENTRIES; i++) {
-            ScpiError e = parseError(session.query(query), what);
+            ScpiError e = parseError(session.query(query, i == 0 ? work : Duration.ZERO), what);
             if (e.code() == 0) {
                 break;
             }
@@ -511,8 +555,20 @@ public final class DialectMeter implements Meter {
         }
     }
 
-    /** Sends {@code command} (a query) and returns {@code points} points' worth of numbers. */
-    private double[] readValues(Command command, int points, String what) {
+    /**
+     * Sends {@code command} (a query the meter works on for about {@code expectedS} seconds) and
+     * returns {@code points} points' worth of numbers.
+     */
+    private double[] readValues(Command command, int points, double expectedS, String what) {
+        try {
+            return readValuesTimed(command, points, seconds(expectedS), what);
+        } catch (MeterTimeoutException e) {
+            lastMeasured = null;
+            throw named(e, what);
+        }
+    }
+
+    private double[] readValuesTimed(Command command, int points, Duration work, String what) {
         String query = render(command);
         ReplyShape shape = dialect.reply();
         int expected = points * shape.fields().size();
@@ -520,7 +576,7 @@ public final class DialectMeter implements Meter {
         String shown;
         if (shape.encoding() == ReplyShape.Encoding.ASCII) {
             boolean append = dialect.appendErrorQuery();
-            String reply = session.query(append ? query + ";" + render(Command.ERROR_QUERY) : query);
+            String reply = session.query(append ? query + ";" + render(Command.ERROR_QUERY) : query, work);
             List<String> units = splitOutsideQuotes(reply, ';');
             if (append) {
                 ScpiError error = parseError(units.remove(units.size() - 1), what);
@@ -534,7 +590,7 @@ public final class DialectMeter implements Meter {
             shown = abbreviate(data);
             values = parseNumbers(data, what);
         } else {
-            byte[] block = session.queryBlock(query);
+            byte[] block = session.queryBlock(query, work);
             if (block.length % Double.BYTES != 0) {
                 throw new ScpiProtocolException(session.address() + ": a REAL,64 block of " + block.length
                         + " bytes is not a whole number of doubles while " + what);
