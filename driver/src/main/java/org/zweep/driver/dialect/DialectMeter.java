@@ -662,52 +662,9 @@ public final class DialectMeter implements Meter {
     // ---- validation ---------------------------------------------------------------------------
 
     private void validate(MeasurementSetting s) {
-        MeterCapabilities caps = dialect.capabilities();
-        if (s.quantity() == MeasuredQuantity.VOLTAGE_RATIO && !caps.voltageRatio()) {
-            throw new InvalidInputException("quantity: " + meterName() + " cannot measure a voltage ratio");
-        }
-        within("frequency", s.frequencyHz(), caps.frequencyHz(), "Hz");
-        if (s.drive().mode() == SourceMode.VOLTAGE) {
-            supported("voltage drive", Command.DRIVE_VOLTAGE);
-            within("drive level", s.drive().levelRms(), caps.voltageLevelVrms(), "V rms");
-        } else {
-            supported("current drive", Command.DRIVE_CURRENT);
-            within("drive level", s.drive().levelRms(), caps.currentLevelArms(), "A rms");
-        }
-        if (s.bias().on() && s.bias().mode() == SourceMode.VOLTAGE) {
-            supported("voltage bias", Command.BIAS_VOLTAGE);
-            within("DC bias", s.bias().value(), caps.biasVoltageV(), "V");
-        } else if (s.bias().on()) {
-            supported("current bias", Command.BIAS_CURRENT);
-            within("DC bias", s.bias().value(), caps.biasCurrentA(), "A");
-        }
-        within("averaging count", s.averagingCount(), dialect.averagingCount(), "");
-        within("integration time", s.integrationTimeS(), dialect.integrationTimeS(), "s");
-        if (!s.range().auto()) {
-            supported("held impedance range", Command.RANGE_HOLD);
-            within("impedance range", s.range().upperOhm(), dialect.impedanceRangeOhm(), "ohm");
-        }
-    }
-
-    private void supported(String what, Command c) {
-        if (!dialect.has(c)) {
-            throw new InvalidInputException(what + ": " + meterName() + " cannot set it");
-        }
-    }
-
-    private void within(String setting, double value, Range r, String unit) {
-        String u = unit.isEmpty() ? "" : " " + unit;
-        if (Double.isNaN(value)) {
-            throw new InvalidInputException(setting + " is not a number");
-        }
-        if (value < r.min()) {
-            throw new InvalidInputException(setting + " " + plain(value) + u + " is below the minimum " + plain(r.min())
-                    + u + " of " + meterName());
-        }
-        if (value > r.max()) {
-            throw new InvalidInputException(setting + " " + plain(value) + u + " is above the maximum " + plain(r.max())
-                    + u + " of " + meterName());
-        }
+        dialect.refusal(s).ifPresent(r -> {
+            throw new InvalidInputException(r.message());
+        });
     }
 
     private String meterName() {

@@ -33,6 +33,7 @@ import org.zweep.runner.engine.PointChecks;
 import org.zweep.runner.engine.ProgressListener;
 import org.zweep.runner.engine.Prompter;
 import org.zweep.runner.engine.ReconnectPolicy;
+import org.zweep.runner.engine.RunEstimate;
 import org.zweep.runner.engine.RunResult;
 import org.zweep.runner.engine.RunSession;
 import org.zweep.runner.engine.ScpiMeterLink;
@@ -77,7 +78,7 @@ final class RunLauncher {
 
     /** Starts a new run of {@code sequenceFile}; returns the exit code. */
     int start(Path sequenceFile, Options o) {
-        Plan plan = SequenceLoader.load(sequenceFile);
+        Plan plan = SequenceLoader.loadForMeter(sequenceFile, o.dialect());
         plan = withMeter(plan, o.meter(), o.dialect());
         new SafetyGuard(plan.safety()).checkPlan(plan);
         boolean existed = o.out() != null && Files.isDirectory(o.out());
@@ -156,8 +157,20 @@ final class RunLauncher {
         }
         Interruption interruption = new Interruption();
         boolean terminal = System.console() != null;
-        ProgressListener progress = o.quiet() ? ProgressListener.QUIET
-                : new ConsoleProgress(out, terminal, System::nanoTime, 5.0);
+        try (TerminalWidth width = terminal && !o.quiet() ? TerminalWidth.open() : null) {
+            ProgressListener progress = o.quiet() ? ProgressListener.QUIET
+                    : new ConsoleProgress(out, terminal, System::nanoTime, 5.0, RunEstimate.of(plan),
+                            width == null ? () -> 0 : width::columns);
+            try {
+                return execute(plan, folder, resuming, sequenceFile, seed, o, sb, interruption, terminal, progress);
+            } finally {
+                progress.finished();
+            }
+        }
+    }
+
+    private int execute(Plan plan, RunFolder folder, boolean resuming, String sequenceFile, Long seed, Options o,
+            ScpiSettings.Builder sb, Interruption interruption, boolean terminal, ProgressListener progress) {
         try (ScpiMeterLink link = MeterLinks.open(plan.meter().address(), plan.meter().dialect(), sb.build())) {
             Prompter prompter = o.yes() ? Prompter.yes(out) : terminal
                     ? Prompter.terminal(new BufferedReader(new InputStreamReader(System.in, StandardCharsets.UTF_8)),

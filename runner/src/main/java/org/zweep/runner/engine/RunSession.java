@@ -140,6 +140,7 @@ public final class RunSession {
         boolean waits = !sim || link.simulator().get().realTiming();
         Waiter waiter = waits ? Waiter.sleeping(interruption) : Waiter.none(interruption);
         station = new Station(link, guard, setup.prompter(), waiter, setup.reconnect(), log);
+        station.reportWorkTo(progress::work);
         RunManifest manifest = null;
         try (PointsCsvWriter writer = PointsCsvWriter.open(folder.points(), setup.rowSync())) {
             Long seed = setup.seed();

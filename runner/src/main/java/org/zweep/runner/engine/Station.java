@@ -51,6 +51,7 @@ public final class Station {
     /** Reconnect attempts and back-off waited since the last operation that succeeded. */
     private int budgetAttempts;
     private double budgetWaitedS;
+    private volatile java.util.function.ObjDoubleConsumer<String> work = (what, expectedS) -> { };
 
     /**
      * @param link the meter connection
@@ -195,6 +196,28 @@ public final class Station {
         });
     }
 
+    /**
+     * Where announcements of long pieces of work without points of their own go (compensation
+     * standards, bias ramps): what is being done and its expected time in s.
+     */
+    public void reportWorkTo(java.util.function.ObjDoubleConsumer<String> listener) {
+        this.work = listener;
+    }
+
+    /** Announces a piece of work about to start and its expected time in s (see {@link #reportWorkTo}). */
+    public void announce(String what, double expectedS) {
+        work.accept(what, expectedS);
+    }
+
+    /** Moves the meter to {@code s} (checked against the safety limits, bias ramped) without measuring. */
+    public void applySetting(MeasurementSetting s) {
+        guard.check(s, "setting at " + s.frequencyHz() + " Hz");
+        withRetry("applying the setting at " + s.frequencyHz() + " Hz", () -> {
+            moveTo(s, BiasControl.NONE);
+            return null;
+        });
+    }
+
     /** Tells the meter to acquire {@code standard} now fitted. */
     public void acquireCorrection(CorrectionStandard standard) {
         withRetry("acquiring the " + standard + " correction", () -> {
@@ -312,6 +335,10 @@ public final class Station {
         if (Double.isFinite(rate) && rate > 0) {
             total = Math.abs(b - a) / rate;
             n = Math.max(1, (int) Math.ceil(total / RAMP_STEP_S - 1e-9));
+        }
+        if (total >= 0.5) {
+            work.accept(String.format(java.util.Locale.ROOT, "ramping DC bias %s → %s %s", ConsoleProgress.num(a),
+                    ConsoleProgress.num(b), mode.unit()), total);
         }
         for (int k = 1; k <= n; k++) {
             double v = k == n ? b : a + (b - a) * k / n;

@@ -52,6 +52,27 @@ public final class SequenceLoader {
      * @throws InvalidInputException when the text does not validate
      */
     public static Plan parse(String text, Path source) {
+        return parse(text, source, null);
+    }
+
+    /**
+     * {@link #load(Path)}, also checking every point against a meter's declared capabilities: the
+     * dialect {@code dialect} names, or the sequence's own when {@code dialect} is {@code null}. A
+     * point the meter cannot do is refused at the step key that asks for it ({@code file:line:column}).
+     */
+    public static Plan loadForMeter(Path file, String dialect) {
+        String text;
+        try {
+            text = Files.readString(file, StandardCharsets.UTF_8);
+        } catch (CharacterCodingException e) {
+            throw new InvalidInputException(file + ": not UTF-8 text");
+        } catch (IOException e) {
+            throw new InvalidInputException(file + ": cannot read: " + reason(e));
+        }
+        return parse(text, file, dialect == null ? "" : dialect);
+    }
+
+    private static Plan parse(String text, Path source, String meterCheck) {
         String file = source.toString();
         List<Node> documents = new ArrayList<>();
         try {
@@ -74,7 +95,7 @@ public final class SequenceLoader {
         if (documents.size() > 1) {
             throw new YamlNode(documents.get(1), file).error("expected one YAML document, found another");
         }
-        return new SequenceReader(source).read(new YamlNode(documents.get(0), file));
+        return new SequenceReader(source, meterCheck).read(new YamlNode(documents.get(0), file));
     }
 
     private static String reason(IOException e) {
