@@ -40,6 +40,7 @@ public final class ConsoleProgress implements ProgressListener {
     private double workExpectedS;
     private long workStartNs;
     private boolean active;
+    private boolean measuredAny;
 
     /**
      * A progress display that redraws by itself between events (call {@link #finished()} at the end).
@@ -101,6 +102,7 @@ public final class ConsoleProgress implements ProgressListener {
         this.total = total;
         eta.measured(row.point(), now);
         work = null;
+        measuredAny = true;
         detail = row.step() + "  " + hz(row.frequencyHz()) + " " + num(row.level()) + " " + row.drive() + ", bias "
                 + num(row.bias()) + " " + row.biasMode();
         if (terminal) {
@@ -191,12 +193,14 @@ public final class ConsoleProgress implements ProgressListener {
         int pct = total == 0 ? 100 : (int) Math.floor(100.0 * done / total);
         String head = String.format(Locale.ROOT, "[%d/%d] %d%%  ETA %s  elapsed %s", done, total, pct,
                 clock(eta.remainingS(nowNs)), clock(elapsedS));
-        String now;
+        String now = detail;
         if (work != null) {
-            double left = Math.max(0, workExpectedS - (nowNs - workStartNs) / 1e9);
-            now = work + " (" + clock(left) + " left)";
-        } else {
-            now = detail;
+            double left = workExpectedS - (nowNs - workStartNs) / 1e9;
+            if (left > 0) {
+                now = work + " (" + clock(left) + " left)";
+            } else if (!measuredAny) {
+                now = work;
+            }
         }
         return fit(head + "  " + now, max);
     }

@@ -41,10 +41,10 @@ class RunEstimateTest {
         assertEquals(2 * (0.452 + 0.202), e.steps().get(0).meterS(), 1e-12);
         // host: settle 1 s at 0 V; ramp 0 → 10 V at 5 V/s = 2 s then settle 1 s; ramp back down 2 s;
         // exchanges: fixture and wiring 2, per sweep apply + list set-up + trigger 3 (twice),
-        // 20 ramp steps of 0.1 s up and 20 down, bias off 1: 49
-        assertEquals(6.0 + 49 * RunEstimate.EXCHANGE_S, e.steps().get(0).waitS(), 1e-12);
-        assertEquals(RunEstimate.START_S + 1.308 + 6.0 + 49 * RunEstimate.EXCHANGE_S + RunEstimate.END_S, e.totalS(),
-                1e-12);
+        // 20 ramp steps of 0.1 s up and 20 down, bias off 1: 49; rows: 4, made durable twice
+        double host = 6.0 + 49 * RunEstimate.EXCHANGE_S + 4 * RunEstimate.ROW_S + 2 * RunEstimate.SYNC_S;
+        assertEquals(host, e.steps().get(0).waitS(), 1e-12);
+        assertEquals(RunEstimate.START_S + 1.308 + host + RunEstimate.END_S, e.totalS(), 1e-12);
         // the ETA's schedule adds up to the same run
         double points = e.points().stream().mapToDouble(p -> p.meterS() + p.waitS()).sum();
         assertEquals(e.totalS(), e.startS() + e.compensationS() + points + e.finishS(), 1e-12);
