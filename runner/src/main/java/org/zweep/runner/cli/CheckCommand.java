@@ -58,7 +58,7 @@ public final class CheckCommand implements Callable<Integer> {
                     + ")", RunEstimate.format(e.compensationS()));
         }
         for (RunEstimate.StepTime s : e.steps()) {
-            out.printf(Locale.ROOT, "  %-34s %10s  (meter %s, ramps, settling and commands %s)%n",
+            out.printf(Locale.ROOT, "  %-34s %10s  (meter %s, host waits and commands %s)%n",
                     "step " + s.name() + ", " + s.points() + " " + plural(s.points(), "point"),
                     RunEstimate.format(s.totalS()), RunEstimate.format(s.meterS()), RunEstimate.format(s.waitS()));
         }

@@ -15,8 +15,9 @@ import org.zweep.runner.results.PointRow;
  * the run's {@link RunEstimate}) and what is being done now (the current point's setting, or a
  * compensation standard or bias ramp with its own time left). On a terminal one line redrawn in
  * place about twice a second, never wider than the terminal (its width is asked at each redraw);
- * otherwise plain lines at most every {@code plainIntervalS} seconds, also while a long piece of
- * work runs. Thread-safe: a daemon thread redraws between events; {@link #finished()} stops it.
+ * otherwise a plain line every {@code plainIntervalS} seconds (not at each point: the rows of a
+ * list sweep arrive together), also while a long piece of work runs, and one when the last point
+ * is done. Thread-safe: a daemon thread redraws between events; {@link #finished()} stops it.
  */
 public final class ConsoleProgress implements ProgressListener {
     /** The width assumed when the terminal does not say. */
@@ -107,7 +108,7 @@ public final class ConsoleProgress implements ProgressListener {
                 + num(row.bias()) + " " + row.biasMode();
         if (terminal) {
             redraw(now);
-        } else if ((now - lastPrintNs) / 1e9 >= plainIntervalS || done == total) {
+        } else if (done == total) {
             printPlain(now);
         }
     }
