@@ -28,6 +28,8 @@ import org.zweep.driver.meter.SourceMode;
 public final class Dialect {
     private static final List<String> BUILT_INS = List.of("standard", "mz300");
     private static final String RESOURCE_DIR = "/org/zweep/driver/dialect/";
+    /** The largest dialect file read, in bytes (and the longest dialect text, in characters). */
+    public static final int MAX_FILE_BYTES = 1 << 20;
 
     private final String name;
     private final String description;
@@ -95,6 +97,9 @@ public final class Dialect {
      * @throws InvalidInputException naming {@code source:line:column} and the problem
      */
     public static Dialect parse(String source, String text) {
+        if (text.length() > MAX_FILE_BYTES) {
+            throw new InvalidInputException(source + ": larger than " + MAX_FILE_BYTES + " characters, the limit for a dialect file");
+        }
         return new DialectParser(source, text).parse();
     }
 
@@ -115,12 +120,23 @@ public final class Dialect {
     }
 
     private static Dialect fromFile(Path path) {
-        try {
-            return parse(path.toString(), Files.readString(path, StandardCharsets.UTF_8));
+        byte[] bytes;
+        try (InputStream in = Files.newInputStream(path)) {
+            bytes = in.readNBytes(MAX_FILE_BYTES + 1); // bounded: a device such as /dev/zero is refused, not read whole
         } catch (NoSuchFileException e) {
             throw new InvalidInputException(path + ": no such dialect file", e);
         } catch (IOException e) {
             throw new InvalidInputException(path + ": cannot read dialect file: " + e.getMessage(), e);
+        }
+        if (bytes.length > MAX_FILE_BYTES) {
+            throw new InvalidInputException(path + ": larger than " + MAX_FILE_BYTES + " bytes, the limit for a dialect file");
+        }
+        try {
+            return parse(path.toString(), StandardCharsets.UTF_8.newDecoder()
+                    .onMalformedInput(java.nio.charset.CodingErrorAction.REPORT)
+                    .decode(java.nio.ByteBuffer.wrap(bytes)).toString());
+        } catch (java.nio.charset.CharacterCodingException e) {
+            throw new InvalidInputException(path + ": the dialect file is not UTF-8 text", e);
         }
     }
 

@@ -1,16 +1,7 @@
 package org.zweep.runner.sequence;
 
-import java.io.IOException;
-import java.nio.charset.CharacterCodingException;
-import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
 import java.nio.file.Path;
-import java.util.ArrayList;
 import java.util.List;
-import org.snakeyaml.engine.v2.api.LoadSettings;
-import org.snakeyaml.engine.v2.api.lowlevel.Compose;
-import org.snakeyaml.engine.v2.exceptions.MarkedYamlEngineException;
-import org.snakeyaml.engine.v2.exceptions.YamlEngineException;
 import org.snakeyaml.engine.v2.nodes.Node;
 import org.zweep.driver.InvalidInputException;
 import org.zweep.runner.plan.Plan;
@@ -34,15 +25,7 @@ public final class SequenceLoader {
      * @throws InvalidInputException when the file cannot be read or does not validate
      */
     public static Plan load(Path file) {
-        String text;
-        try {
-            text = Files.readString(file, StandardCharsets.UTF_8);
-        } catch (CharacterCodingException e) {
-            throw new InvalidInputException(file + ": not UTF-8 text");
-        } catch (IOException e) {
-            throw new InvalidInputException(file + ": cannot read: " + reason(e));
-        }
-        return parse(text, file);
+        return parse(BoundedYaml.read(file, "sequence file"), file);
     }
 
     /**
@@ -61,50 +44,16 @@ public final class SequenceLoader {
      * point the meter cannot do is refused at the step key that asks for it ({@code file:line:column}).
      */
     public static Plan loadForMeter(Path file, String dialect) {
-        String text;
-        try {
-            text = Files.readString(file, StandardCharsets.UTF_8);
-        } catch (CharacterCodingException e) {
-            throw new InvalidInputException(file + ": not UTF-8 text");
-        } catch (IOException e) {
-            throw new InvalidInputException(file + ": cannot read: " + reason(e));
-        }
-        return parse(text, file, dialect == null ? "" : dialect);
+        return parse(BoundedYaml.read(file, "sequence file"), file, dialect == null ? "" : dialect);
     }
 
     private static Plan parse(String text, Path source, String meterCheck) {
         String file = source.toString();
-        List<Node> documents = new ArrayList<>();
-        try {
-            LoadSettings settings = LoadSettings.builder().setLabel(file).build();
-            new Compose(settings).composeAllFromString(text).forEach(documents::add);
-        } catch (MarkedYamlEngineException e) {
-            String where = YamlNode.where(file, e.getProblemMark().isPresent() ? e.getProblemMark() : e.getContextMark());
-            String context = e.getContext() != null && e.getContextMark().isPresent() && e.getProblemMark().isPresent()
-                    ? " (" + e.getContext() + " at line " + (e.getContextMark().get().getLine() + 1) + ", column "
-                            + (e.getContextMark().get().getColumn() + 1) + ")"
-                    : "";
-            throw new InvalidInputException(where + ": YAML syntax: " + e.getProblem() + context, e);
-        } catch (YamlEngineException e) {
-            throw new InvalidInputException(file + ": YAML syntax: " + e.getMessage(), e);
-        }
+        List<Node> documents = BoundedYaml.compose(text, file, "sequence file");
         if (documents.isEmpty()) {
             throw new InvalidInputException(file + ":1:1: empty file: expected a sequence (a mapping with "
                     + "format, meter, safety, part and steps)");
         }
-        if (documents.size() > 1) {
-            throw new YamlNode(documents.get(1), file).error("expected one YAML document, found another");
-        }
         return new SequenceReader(source, meterCheck).read(new YamlNode(documents.get(0), file));
-    }
-
-    private static String reason(IOException e) {
-        if (e instanceof java.nio.file.NoSuchFileException) {
-            return "no such file";
-        }
-        if (e instanceof java.nio.file.AccessDeniedException) {
-            return "permission denied";
-        }
-        return e.getMessage() == null ? e.getClass().getSimpleName() : e.getMessage();
     }
 }

@@ -1,8 +1,5 @@
 package org.zweep.simulator.bench;
 
-import java.io.IOException;
-import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.LinkedHashMap;
@@ -13,6 +10,12 @@ import java.util.Set;
 import java.util.regex.Pattern;
 import org.snakeyaml.engine.v2.api.LoadSettings;
 import org.snakeyaml.engine.v2.api.lowlevel.Compose;
+import org.snakeyaml.engine.v2.api.lowlevel.Parse;
+import org.snakeyaml.engine.v2.events.AliasEvent;
+import org.snakeyaml.engine.v2.events.CollectionEndEvent;
+import org.snakeyaml.engine.v2.events.CollectionStartEvent;
+import org.snakeyaml.engine.v2.events.DocumentStartEvent;
+import org.snakeyaml.engine.v2.events.Event;
 import org.snakeyaml.engine.v2.common.ScalarStyle;
 import org.snakeyaml.engine.v2.exceptions.Mark;
 import org.snakeyaml.engine.v2.exceptions.MarkedYamlEngineException;
@@ -22,6 +25,7 @@ import org.snakeyaml.engine.v2.nodes.Node;
 import org.snakeyaml.engine.v2.nodes.NodeTuple;
 import org.snakeyaml.engine.v2.nodes.ScalarNode;
 import org.snakeyaml.engine.v2.nodes.SequenceNode;
+import org.zweep.simulator.InputFiles;
 import org.zweep.simulator.SimulatorInputException;
 import org.zweep.simulator.netlist.Netlist;
 
@@ -36,6 +40,16 @@ final class BenchFileReader {
             Pattern.compile("[-+]?(?:\\d+\\.?\\d*|\\.\\d+)(?:[eE][-+]?\\d+)?");
     private static final Pattern INTEGER = Pattern.compile("[-+]?\\d+");
 
+    /** The deepest nesting of mappings and lists. */
+    static final int MAX_DEPTH = 64;
+    /** The most aliases ({@code *name}) in one file. */
+    static final int MAX_ALIASES = 64;
+    /**
+     * SnakeYAML Engine re-copies its read window every buffer's length while one scalar is being
+     * scanned, so its default of 1024 code points makes a long line cost the square of its length.
+     */
+    private static final int READ_BUFFER = 1 << 16;
+
     private final String source;
     private final Path baseDir;
     private String[] rawLines = new String[0];
@@ -46,10 +60,16 @@ final class BenchFileReader {
     }
 
     BenchSpec read(String yaml) {
+        if (yaml.length() > InputFiles.MAX_FILE_BYTES) {
+            throw new SimulatorInputException(source + ": larger than " + InputFiles.MAX_FILE_BYTES
+                    + " characters, the limit for a bench file");
+        }
         rawLines = yaml.split("\r?\n|\r", -1);
         Node root;
         try {
-            LoadSettings settings = LoadSettings.builder().setLabel(source).build();
+            LoadSettings settings = LoadSettings.builder().setLabel(source).setBufferSize(READ_BUFFER)
+                    .setCodePointLimit(InputFiles.MAX_FILE_BYTES).setMaxAliasesForCollections(MAX_ALIASES).build();
+            checkLimits(new Parse(settings).parseString(yaml));
             root = new Compose(settings).composeString(yaml).orElse(null);
         } catch (MarkedYamlEngineException e) {
             Optional<Mark> m = e.getProblemMark();
@@ -74,6 +94,36 @@ final class BenchFileReader {
             throw top.error("a bench file needs a 'device' section");
         }
         return new BenchSpec(description, meter, fixture, device(deviceSection), seed);
+    }
+
+    /**
+     * Depth, alias and document limits, checked on the event stream (the parser keeps its own
+     * stack; the composer recurses and would overflow on deep nesting).
+     */
+    private void checkLimits(Iterable<Event> events) {
+        int depth = 0;
+        int aliases = 0;
+        int documents = 0;
+        for (Event e : events) {
+            if (e instanceof CollectionStartEvent) {
+                if (++depth > MAX_DEPTH) {
+                    throw at(e.getStartMark(), "nested deeper than " + MAX_DEPTH + " levels (the limit)");
+                }
+            } else if (e instanceof CollectionEndEvent) {
+                depth--;
+            } else if (e instanceof AliasEvent) {
+                if (++aliases > MAX_ALIASES) {
+                    throw at(e.getStartMark(), "more than " + MAX_ALIASES + " aliases (the limit)");
+                }
+            } else if (e instanceof DocumentStartEvent && ++documents > 1) {
+                throw at(e.getStartMark(), "expected one YAML document, found another");
+            }
+        }
+    }
+
+    private SimulatorInputException at(Optional<Mark> m, String what) {
+        return SimulatorInputException.at(source, m.map(x -> x.getLine() + 1).orElse(1),
+                m.map(x -> x.getColumn() + 1).orElse(0), what);
     }
 
     private MeterSpec meter(Section s) {
@@ -234,9 +284,9 @@ final class BenchFileReader {
         Path file = baseDir == null ? Path.of(node.getValue()) : baseDir.resolve(node.getValue());
         String text;
         try {
-            text = Files.readString(file, StandardCharsets.UTF_8);
-        } catch (IOException e) {
-            throw at(node, "cannot read netlist file " + file + ": " + e.getMessage());
+            text = InputFiles.read(file, "netlist file");
+        } catch (SimulatorInputException e) {
+            throw at(node, e.getMessage());
         }
         return new NetlistDevice(Netlist.parse(text, file.toString()));
     }

@@ -1,9 +1,7 @@
 package org.zweep.simulator.bench;
 
-import java.io.IOException;
-import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
 import java.nio.file.Path;
+import org.zweep.simulator.InputFiles;
 import org.zweep.simulator.SimulatorInputException;
 import org.zweep.simulator.netlist.Netlist;
 
@@ -35,13 +33,7 @@ public final class BenchSpec {
      *     or is not a valid bench description
      */
     public static BenchSpec load(Path file) {
-        String text;
-        try {
-            text = Files.readString(file, StandardCharsets.UTF_8);
-        } catch (IOException e) {
-            throw new SimulatorInputException(file + ": cannot read the bench file: "
-                    + e.getMessage(), e);
-        }
+        String text = InputFiles.read(file, "bench file");
         Path parent = file.toAbsolutePath().getParent();
         return parse(text, file.toString(), parent);
     }
@@ -68,6 +60,16 @@ public final class BenchSpec {
     public static BenchSpec ofNetlist(String netlist, String sourceName) {
         return new BenchSpec("netlist from " + sourceName, MeterSpec.defaults(),
                 FixtureSpec.defaults(), new NetlistDevice(Netlist.parse(netlist, sourceName)), 0);
+    }
+
+    /**
+     * The default meter and fixture with the device in a netlist file (read in bounded memory).
+     *
+     * @throws SimulatorInputException with {@code file:line:column} for an invalid netlist, or
+     *     naming the file when it cannot be read or is too large
+     */
+    public static BenchSpec ofNetlistFile(Path file) {
+        return ofNetlist(InputFiles.read(file, "netlist file"), file.toString());
     }
 
     /**

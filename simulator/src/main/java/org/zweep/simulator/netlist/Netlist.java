@@ -27,6 +27,12 @@ import org.zweep.simulator.SimulatorInputException;
  * <p>Instances are immutable and thread-safe.
  */
 public final class Netlist {
+    /** The most element lines (R, L, C, K) in one netlist. */
+    public static final int MAX_ELEMENTS = 200;
+    /** The most distinct nodes, {@code hi} and {@code lo} included. */
+    public static final int MAX_NODES = 200;
+    /** The longest netlist text, in characters. */
+    public static final int MAX_TEXT_CHARS = 1 << 20;
 
     private final int elementCount;
     private final int size;
@@ -171,7 +177,12 @@ public final class Netlist {
             Map<String, NetlistParser.Element> firstUse = new HashMap<>();
             Map<String, Integer> degree = new HashMap<>();
             for (NetlistParser.Element e : twoTerminal) {
-                for (String n : List.of(e.nodeA(), e.nodeB())) {
+                for (int side = 0; side < 2; side++) {
+                    String n = side == 0 ? e.nodeA() : e.nodeB();
+                    if (!nodeIds.containsKey(n) && nodeIds.size() == MAX_NODES) {
+                        throw SimulatorInputException.at(source, e.line(), e.nodeColumn(side),
+                                "more than " + MAX_NODES + " nodes (the limit)");
+                    }
                     nodeIds.putIfAbsent(n, nodeIds.size());
                     firstUse.putIfAbsent(n, e);
                     degree.merge(n, 1, Integer::sum);

@@ -43,6 +43,10 @@ final class NetlistParser {
     }
 
     static List<Element> parse(String text, String source, int firstLine, int indent) {
+        if (text.length() > Netlist.MAX_TEXT_CHARS) {
+            throw new SimulatorInputException(source + ": the netlist is longer than " + Netlist.MAX_TEXT_CHARS
+                    + " characters (the limit)");
+        }
         List<List<Token>> statements = new ArrayList<>();
         String[] lines = text.split("\r?\n|\r", -1);
         for (int i = 0; i < lines.length; i++) {
@@ -68,6 +72,11 @@ final class NetlistParser {
             }
             for (List<Token> piece : pieces) {
                 if (!piece.isEmpty()) {
+                    if (statements.size() == Netlist.MAX_ELEMENTS) {
+                        Token t = piece.get(0);
+                        throw SimulatorInputException.at(source, t.line(), t.column(),
+                                "more than " + Netlist.MAX_ELEMENTS + " elements (the limit)");
+                    }
                     statements.add(piece);
                 }
             }

@@ -60,44 +60,44 @@ public final class MessageFramer {
                 }
                 continue;
             }
-            switch (blockState) {
-                case 1 -> {
-                    if (b >= '1' && b <= '9') {
-                        digitsLeft = b - '0';
-                        bytesLeft = 0;
-                        blockState = 2;
-                    } else {
-                        blockState = 0;
-                    }
+            boolean text = true; // false for a byte of a block's header or data
+            if (blockState == 1) {
+                if (b >= '1' && b <= '9') {
+                    digitsLeft = b - '0';
+                    bytesLeft = 0;
+                    blockState = 2;
+                    text = false;
+                } else {
+                    blockState = 0; // a lone '#': what follows is ordinary text, an LF ends the message
                 }
-                case 2 -> {
-                    if (b >= '0' && b <= '9') {
-                        bytesLeft = Math.min(bytesLeft * 10 + (b - '0'), Integer.MAX_VALUE);
-                        if (--digitsLeft == 0) {
-                            blockState = bytesLeft > 0 ? 3 : 0;
-                        }
-                    } else {
-                        blockState = 0;
+            } else if (blockState == 2) {
+                if (b >= '0' && b <= '9') {
+                    bytesLeft = Math.min(bytesLeft * 10 + (b - '0'), Integer.MAX_VALUE);
+                    if (--digitsLeft == 0) {
+                        blockState = bytesLeft > 0 ? 3 : 0;
                     }
+                    text = false;
+                } else {
+                    blockState = 0;
                 }
-                case 3 -> {
-                    if (--bytesLeft == 0) {
-                        blockState = 0;
-                    }
+            } else if (blockState == 3) {
+                if (--bytesLeft == 0) {
+                    blockState = 0;
                 }
-                default -> {
-                    if (b == '\n') {
-                        return new Message(Arrays.copyOf(msg, len), false);
+                text = false;
+            }
+            if (text) {
+                if (b == '\n') {
+                    return new Message(Arrays.copyOf(msg, len), false);
+                }
+                if (quote != 0) {
+                    if (b == quote) {
+                        quote = 0;
                     }
-                    if (quote != 0) {
-                        if (b == quote) {
-                            quote = 0;
-                        }
-                    } else if (b == '"' || b == '\'') {
-                        quote = b;
-                    } else if (b == '#') {
-                        blockState = 1;
-                    }
+                } else if (b == '"' || b == '\'') {
+                    quote = b;
+                } else if (b == '#') {
+                    blockState = 1;
                 }
             }
             if (len == maxBytes) {

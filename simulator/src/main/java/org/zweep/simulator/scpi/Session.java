@@ -97,6 +97,9 @@ public final class Session {
                     if (e.error().code() <= -100 && e.error().code() > -200) {
                         break;
                     }
+                } catch (RuntimeException e) {
+                    // a handler's own bug: one error in the queue, never a stack trace
+                    report(StandardError.DEVICE_SPECIFIC_ERROR, headerText + ": " + e);
                 }
                 firstUnit = false;
                 if (Thread.currentThread().isInterrupted()) {

@@ -44,7 +44,8 @@ public enum StandardError {
     INPUT_BUFFER_OVERRUN(-363, "Input buffer overrun"),
     QUERY_ERROR(-400, "Query error"),
     QUERY_INTERRUPTED(-410, "Query INTERRUPTED"),
-    QUERY_UNTERMINATED(-420, "Query UNTERMINATED");
+    QUERY_UNTERMINATED(-420, "Query UNTERMINATED"),
+    QUERY_DEADLOCKED(-430, "Query DEADLOCKED");
 
     private final int code;
     private final String text;

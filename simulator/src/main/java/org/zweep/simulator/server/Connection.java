@@ -40,7 +40,7 @@ final class Connection implements Session.Hooks {
         this.server = server;
         this.id = id;
         this.link = link;
-        this.faults = new ConnectionFaults(plan);
+        this.faults = new ConnectionFaults(plan, id);
         this.session = server.instrument().openSession(this);
         session.attach(this);
     }

@@ -3,13 +3,36 @@ package org.zweep.simulator.server;
 import java.time.Duration;
 import java.util.ArrayList;
 import java.util.List;
+import java.util.SplittableRandom;
 
-/** One connection's faults; thread-safe. */
+/**
+ * One connection's faults; thread-safe. Random faults are drawn from the plan's seed and the
+ * connection's number, so a reconnect is a new draw, as on a real link.
+ */
 final class ConnectionFaults {
     private final List<ScheduledFault> active = new ArrayList<>();
+    private final long connection;
 
-    ConnectionFaults(FaultPlan plan) {
-        plan.faults().forEach(this::add);
+    /**
+     * @param plan the faults the connection starts with
+     * @param connection the connection's number (1, 2, ... in the order the server accepted them)
+     */
+    ConnectionFaults(FaultPlan plan, long connection) {
+        this.connection = connection;
+        plan.faults().forEach(f -> add(drawnHere(f)));
+    }
+
+    /** {@code f} with its random draw (exchanges picked, garbling) keyed to this connection. */
+    ScheduledFault drawnHere(ScheduledFault f) {
+        Exchanges when = f.when() instanceof Exchanges.Random r
+                ? new Exchanges.Random(r.probability(), seed(r.seed())) : f.when();
+        Fault fault = f.fault() instanceof Fault.Garble g ? new Fault.Garble(seed(g.seed())) : f.fault();
+        return new ScheduledFault(f.phase(), when, fault);
+    }
+
+    /** A seed drawn from {@code seed} and this connection's number. */
+    long seed(long seed) {
+        return new SplittableRandom(seed ^ (connection * 0xD1B54A32D192ED03L)).nextLong();
     }
 
     synchronized void add(ScheduledFault f) {

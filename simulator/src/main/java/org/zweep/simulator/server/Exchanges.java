@@ -37,7 +37,8 @@ public sealed interface Exchanges {
 
     /**
      * Each exchange with {@code probability}; whether exchange n is picked depends only on
-     * {@code seed} and n, so every connection picks the same ones.
+     * {@code seed} and n. A connection draws its own seed from the plan's seed and its number,
+     * so each connection (a reconnect too) picks other exchanges.
      */
     record Random(double probability, long seed) implements Exchanges {
         public Random {

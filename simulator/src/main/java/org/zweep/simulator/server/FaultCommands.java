@@ -14,6 +14,8 @@ import org.zweep.simulator.scpi.Unit;
 final class FaultCommands {
     private static final double MAX_SECONDS = 1e6;
     private static final long MAX_COUNT = 1_000_000_000L;
+    /** The shortest idle time a connection can be dropped after (the socket timeout's grain). */
+    private static final double MIN_IDLE_SECONDS = 1e-3;
 
     private FaultCommands() {
     }
@@ -37,6 +39,10 @@ final class FaultCommands {
         b.on("SIMulate:FAULt:DROP:IDLE", c -> {
             c.count(1, 1);
             double s = c.number(0, Unit.SECOND, 0, MAX_SECONDS, 0);
+            if (s > 0 && s < MIN_IDLE_SECONDS) {
+                throw new ScpiException(StandardError.DATA_OUT_OF_RANGE,
+                        "idle time " + s + " s is below 1 ms (0 turns the fault off)");
+            }
             Connection k = conn(c);
             k.faults().removeIdle();
             if (s > 0) {
@@ -49,7 +55,8 @@ final class FaultCommands {
             c.count(1, 2);
             double p = c.number(0, Unit.NONE, 0, 1, 0);
             long seed = c.params().size() > 1 ? c.integer(1, -(1L << 53), 1L << 53, 0) : c.session().instrument().bench().seed();
-            conn(c).faults().add(new ScheduledFault(Phase.RECEIVE, new Exchanges.Random(p, seed), new Fault.Drop()));
+            ConnectionFaults f = conn(c).faults();
+            f.add(f.drawnHere(new ScheduledFault(Phase.RECEIVE, new Exchanges.Random(p, seed), new Fault.Drop())));
             return null;
         });
         b.on("SIMulate:FAULt:DELay", c -> {
@@ -71,7 +78,7 @@ final class FaultCommands {
         });
         b.on("SIMulate:FAULt:GARBle", c -> {
             c.count(0, 1);
-            nextReplies(c, 0, new Fault.Garble(c.session().instrument().bench().seed()));
+            nextReplies(c, 0, new Fault.Garble(conn(c).faults().seed(c.session().instrument().bench().seed())));
             return null;
         });
         b.on("SIMulate:FAULt:STALl", c -> {

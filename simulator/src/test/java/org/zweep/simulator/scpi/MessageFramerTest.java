@@ -64,4 +64,16 @@ class MessageFramerTest {
     void aPartialMessageAtEndOfStreamIsDropped() throws IOException {
         assertNull(framer("*IDN".getBytes(StandardCharsets.US_ASCII), 100).next());
     }
+
+    @Test
+    void theLineEndingAfterALoneHashEndsTheMessage() throws IOException {
+        // IEEE 488.2 §7.7.6: a block starts with '#' and a non-zero digit; a '#' followed by LF is no block
+        MessageFramer f = framer("*IDN? #\n*OPC?\nA #\n#3\nB\n".getBytes(StandardCharsets.US_ASCII), 100);
+        assertEquals("*IDN? #", text(f.next()));
+        assertEquals("*OPC?", text(f.next()));
+        assertEquals("A #", text(f.next()));
+        assertEquals("#3", text(f.next())); // the LF in the length digits ends the message too
+        assertEquals("B", text(f.next()));
+        assertNull(f.next());
+    }
 }

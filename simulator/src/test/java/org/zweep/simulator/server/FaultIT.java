@@ -72,24 +72,45 @@ class FaultIT {
     }
 
     @Test
-    void randomDropsFollowTheSeedAndHappen() throws IOException {
-        start(FaultPlan.parse("drop-random=0.2", 7));
-        int[] answered = new int[2];
-        for (int k = 0; k < 2; k++) {
-            try (RawClient c = new RawClient(server)) {
-                while (answered[k] < 200) {
-                    c.send("*IDN?");
-                    if (c.readLine() == null) {
-                        break;
-                    }
-                    answered[k]++;
-                }
-            } catch (java.net.SocketException e) {
-                // reset by the server counts as dropped
+    void randomDropsFollowTheSeedAndTheConnectionNumberAndHappen() throws IOException {
+        int[][] answered = new int[2][3];
+        for (int run = 0; run < 2; run++) {
+            start(FaultPlan.parse("drop-random=0.2", 7));
+            for (int k = 0; k < 3; k++) {
+                answered[run][k] = answeredBeforeDrop();
             }
+            server.close();
         }
-        assertTrue(answered[0] < 200, "p = 0.2 should drop within 200 messages");
-        assertEquals(answered[0], answered[1], "the same seed drops at the same message");
+        assertTrue(answered[0][0] < 200, "p = 0.2 should drop within 200 messages");
+        // the same seed and the same connection numbers (1, 2, 3 on a fresh server) drop at the same messages
+        assertArrayEquals(answered[0], answered[1]);
+    }
+
+    private int answeredBeforeDrop() throws IOException {
+        int answered = 0;
+        try (RawClient c = new RawClient(server)) {
+            while (answered < 200) {
+                c.send("*IDN?");
+                if (c.readLine() == null) {
+                    break;
+                }
+                answered++;
+            }
+        } catch (java.net.SocketException e) {
+            // reset by the server counts as dropped
+        }
+        return answered;
+    }
+
+    @Test
+    void anIdleTimeBelowAMillisecondIsRefusedWithAnErrorNotAStackTrace() throws IOException {
+        // issue 17, item 7: SIM:FAUL:DROP:IDLE 1E-10 printed a stack trace
+        start(FaultPlan.none());
+        try (RawClient c = new RawClient(server)) {
+            c.send("SIM:FAUL:DROP:IDLE 1E-10");
+            assertTrue(c.query("SYST:ERR?").startsWith("-222,"));
+            assertEquals(IDN, c.query("*IDN?"));
+        }
     }
 
     @Test

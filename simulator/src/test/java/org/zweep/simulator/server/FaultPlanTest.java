@@ -44,10 +44,10 @@ class FaultPlanTest {
     }
 
     @Test
-    void rangesAndSeededRandomSelectionPickTheSameExchangesOnEveryConnection() {
+    void aSeededRandomDrawIsTheSameForTheSameConnectionNumber() {
         FaultPlan plan = FaultPlan.parse("delay=1@2+,garble@~0.5", 42);
-        ConnectionFaults a = new ConnectionFaults(plan);
-        ConnectionFaults b = new ConnectionFaults(plan);
+        ConnectionFaults a = new ConnectionFaults(plan, 3);
+        ConnectionFaults b = new ConnectionFaults(plan, 3);
         // "delay=1@2+": none at exchange 1, one from exchange 2 on; arithmetic from the inputs above
         assertEquals(0, a.at(Phase.REPLY, 1).stream().filter(x -> x instanceof Fault.Delay).count());
         assertEquals(1, a.at(Phase.REPLY, 2).stream().filter(x -> x instanceof Fault.Delay).count());
@@ -59,7 +59,31 @@ class FaultPlanTest {
         for (int i = 3; i < 40; i++) {
             sb.append(b.at(Phase.REPLY, i).size());
         }
-        assertEquals(sa.toString(), sb.toString()); // the same seed picks the same exchanges on each connection
+        assertEquals(sa.toString(), sb.toString()); // the same seed and connection pick the same exchanges
         assertTrue(sa.toString().contains("1") && sa.toString().contains("2"), sa.toString());
+    }
+
+    @Test
+    void aReconnectIsANewDrawOfTheRandomFaults() {
+        // issue 17, item 3: every reconnect met the same fault again at the same exchange
+        FaultPlan plan = FaultPlan.parse("drop-random=0.1,garble@~0.1", 42);
+        java.util.Set<String> draws = new java.util.HashSet<>();
+        java.util.Set<Long> garbleSeeds = new java.util.HashSet<>();
+        for (long connection = 1; connection <= 5; connection++) {
+            ConnectionFaults f = new ConnectionFaults(plan, connection);
+            StringBuilder s = new StringBuilder();
+            for (int n = 1; n <= 200; n++) {
+                s.append(f.at(Phase.RECEIVE, n).size());
+            }
+            draws.add(s.toString());
+            f.at(Phase.REPLY, Long.MAX_VALUE - 1).size();
+            for (int n = 1; n <= 200; n++) {
+                for (Fault x : f.at(Phase.REPLY, n)) {
+                    garbleSeeds.add(((Fault.Garble) x).seed());
+                }
+            }
+        }
+        assertEquals(5, draws.size(), "five connections, five different draws");
+        assertEquals(5, garbleSeeds.size(), "each connection garbles with its own seed");
     }
 }

@@ -1,0 +1,51 @@
+package org.zweep.simulator;
+
+import java.io.IOException;
+import java.io.InputStream;
+import java.nio.ByteBuffer;
+import java.nio.charset.CharacterCodingException;
+import java.nio.charset.CodingErrorAction;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.AccessDeniedException;
+import java.nio.file.Files;
+import java.nio.file.NoSuchFileException;
+import java.nio.file.Path;
+
+/** Reading description files nobody vouches for, in bounded memory. */
+public final class InputFiles {
+    /** The largest bench or netlist file read, in bytes. */
+    public static final int MAX_FILE_BYTES = 1 << 20;
+
+    private InputFiles() {
+    }
+
+    /**
+     * Reads at most {@link #MAX_FILE_BYTES} bytes of UTF-8 text; a device such as {@code /dev/zero}
+     * or a pipe is refused once the limit is passed, without reading further.
+     *
+     * @param what what the file is, for the message ("bench file")
+     * @throws SimulatorInputException naming the file and the limit, or why it cannot be read
+     */
+    public static String read(Path file, String what) {
+        byte[] bytes;
+        try (InputStream in = Files.newInputStream(file)) {
+            bytes = in.readNBytes(MAX_FILE_BYTES + 1);
+        } catch (NoSuchFileException e) {
+            throw new SimulatorInputException(file + ": cannot read the " + what + ": no such file");
+        } catch (AccessDeniedException e) {
+            throw new SimulatorInputException(file + ": cannot read the " + what + ": permission denied");
+        } catch (IOException e) {
+            throw new SimulatorInputException(file + ": cannot read the " + what + ": "
+                    + (e.getMessage() == null ? e.getClass().getSimpleName() : e.getMessage()));
+        }
+        if (bytes.length > MAX_FILE_BYTES) {
+            throw new SimulatorInputException(file + ": larger than " + MAX_FILE_BYTES + " bytes, the limit for a " + what);
+        }
+        try {
+            return StandardCharsets.UTF_8.newDecoder().onMalformedInput(CodingErrorAction.REPORT)
+                    .onUnmappableCharacter(CodingErrorAction.REPORT).decode(ByteBuffer.wrap(bytes)).toString();
+        } catch (CharacterCodingException e) {
+            throw new SimulatorInputException(file + ": the " + what + " is not UTF-8 text");
+        }
+    }
+}
