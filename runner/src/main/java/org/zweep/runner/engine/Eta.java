@@ -50,8 +50,10 @@ final class Eta {
     void pointsStart(int alreadyDone, long nowNs) {
         done.set(0, Math.min(alreadyDone, points.size()));
         double beforeS = (nowNs - beginNs) / 1e9;
-        if (beforePointsS >= 2 * MIN_MEASURED_S && beforeS > 0) {
-            ratio = clamp(beforeS / beforePointsS);
+        double r = beforeS / beforePointsS;
+        // a compensation that was reused (or already done, on resume) took no time: no evidence then
+        if (beforePointsS >= 2 * MIN_MEASURED_S && r >= 0.5 && r <= 2) {
+            ratio = r;
         }
         pointsStarted = true;
         pointsStartNs = nowNs;

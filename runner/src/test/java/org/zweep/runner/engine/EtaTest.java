@@ -41,6 +41,14 @@ class EtaTest {
     }
 
     @Test
+    void aCompensationThatWasReusedSaysNothingAboutTheMetersSpeed() {
+        Eta eta = new Eta(estimate());
+        eta.begin(0);
+        eta.pointsStart(0, S / 10); // 0.1 s instead of 2 s: the stored compensation was reused
+        assertEquals(4 + 10 + 1, eta.remainingS(S / 10), 1e-9);
+    }
+
+    @Test
     void aResumedRunCountsOnlyThePointsLeft() {
         Eta eta = new Eta(estimate());
         eta.begin(0);
