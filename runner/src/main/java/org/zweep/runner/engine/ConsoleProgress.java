@@ -90,6 +90,7 @@ public final class ConsoleProgress implements ProgressListener {
         long now = nanoClock.getAsLong();
         eta.pointsStart(done, now);
         work = null;
+        detail = "measuring";
         clearLine();
         out.println(done == 0 ? "measuring " + total + " points" : "resuming: " + done + " of " + total
                 + " points already measured");

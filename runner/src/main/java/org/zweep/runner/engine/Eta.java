@@ -7,7 +7,7 @@ import java.util.List;
  * The time left in a run, from its {@link RunEstimate} and the time measured so far for each kind
  * of work: the host's planned waits (bias ramps, settling, delays) count as planned; the meter's
  * work is scaled by how long it has really taken so far against what the timing model expected
- * (compensation first, then the points). Between two events the estimate counts down. Not
+ * (compensation first, then the points, judged when a trigger's last row is in). Between two events the estimate counts down. Not
  * thread-safe; times are nanoseconds of a monotonic clock.
  */
 final class Eta {
@@ -17,7 +17,8 @@ final class Eta {
     private static final double MAX_RATIO = 4;
 
     private final List<RunEstimate.PointTime> points;
-    private final double beforePointsS;
+    private final double startS;
+    private final double compensationS;
     private final double finishS;
     private final BitSet done;
     private long beginNs;
@@ -31,7 +32,8 @@ final class Eta {
 
     Eta(RunEstimate estimate) {
         this.points = estimate.points();
-        this.beforePointsS = estimate.startS() + estimate.compensationS();
+        this.startS = estimate.startS();
+        this.compensationS = estimate.compensationS();
         this.finishS = estimate.finishS();
         this.done = new BitSet(points.size());
     }
@@ -40,7 +42,7 @@ final class Eta {
     void begin(long nowNs) {
         beginNs = nowNs;
         eventNs = nowNs;
-        remainingAtEventS = beforePointsS + remainingPointsS();
+        remainingAtEventS = startS + compensationS + remainingPointsS();
     }
 
     /**
@@ -49,10 +51,10 @@ final class Eta {
      */
     void pointsStart(int alreadyDone, long nowNs) {
         done.set(0, Math.min(alreadyDone, points.size()));
-        double beforeS = (nowNs - beginNs) / 1e9;
-        double r = beforeS / beforePointsS;
-        // a compensation that was reused (or already done, on resume) took no time: no evidence then
-        if (beforePointsS >= 2 * MIN_MEASURED_S && r >= 0.5 && r <= 2) {
+        // the compensation was the meter's work; one that was reused (or done before a resume)
+        // took no time and says nothing about the meter's speed
+        double r = ((nowNs - beginNs) / 1e9 - startS) / compensationS;
+        if (compensationS >= 2 * MIN_MEASURED_S && r >= 0.5 && r <= 2) {
             ratio = r;
         }
         pointsStarted = true;
@@ -72,7 +74,8 @@ final class Eta {
             doneWaitS += points.get(index).waitS();
         }
         double elapsedS = (nowNs - pointsStartNs) / 1e9;
-        if (doneMeterS >= MIN_MEASURED_S) {
+        boolean triggerDone = index < 0 || index >= points.size() || points.get(index).endsTrigger();
+        if (triggerDone && doneMeterS >= MIN_MEASURED_S) {
             ratio = clamp((elapsedS - doneWaitS) / doneMeterS);
         }
         eventNs = nowNs;

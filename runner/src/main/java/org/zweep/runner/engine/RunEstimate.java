@@ -74,10 +74,11 @@ public record RunEstimate(double startS, double compensationS, List<Double> comp
     /**
      * One point's share of the run.
      *
-     * @param meterS the meter's work for it, in s
+     * @param meterS the meter's work for it (its share of its trigger's), in s
      * @param waitS the host's waits and exchanges attributed to it, in s
+     * @param endsTrigger whether it is the last point of its trigger (a list sweep's rows arrive together)
      */
-    public record PointTime(double meterS, double waitS) {
+    public record PointTime(double meterS, double waitS, boolean endsTrigger) {
     }
 
     /** The whole run, in s. */
@@ -137,7 +138,7 @@ public record RunEstimate(double startS, double compensationS, List<Double> comp
                     previous = settings.get(settings.size() - 1);
                     double share = (meter - m0) / chunk.size();
                     for (int i = 0; i < chunk.size(); i++) {
-                        points.add(new PointTime(share, i == 0 ? host - h0 + pending : 0));
+                        points.add(new PointTime(share, i == 0 ? host - h0 + pending : 0, i == chunk.size() - 1));
                     }
                     pending = 0;
                 }

@@ -18,7 +18,7 @@ class ConsoleProgressTest {
 
     private static RunEstimate estimate(int points) {
         return new RunEstimate(1, 0, List.of(), List.of(),
-                java.util.Collections.nCopies(points, new RunEstimate.PointTime(1, 0)), 0.5);
+                java.util.Collections.nCopies(points, new RunEstimate.PointTime(1, 0, true)), 0.5);
     }
 
     private static PointRow row(int i) {
