@@ -29,8 +29,8 @@ import org.zweep.simulator.server.SimulatorServer;
  * Issue 9: every shipped sequence end to end at the simulator's real timing with zweep's default
  * options (only the address points at a loopback simulator, so that its bias can be asked
  * afterwards over a second connection): it completes with every point, leaves the bias off, and
- * takes within 10 % of the time {@code zweep check} estimates. The ETA printed nearest half-way is
- * compared with the time that was really left (printed for the record; the issue's goal is 15 %).
+ * takes within 10 % of the time {@code zweep check} estimates; the ETA printed nearest half-way is
+ * within 15 % of the time that was really left after it.
  */
 class RealTimingRunIT {
     private static final Pattern PROGRESS = Pattern.compile("^\\[(\\d+)/(\\d+)] \\d+%  ETA (\\d+):(\\d\\d)  ");
@@ -104,6 +104,9 @@ class RealTimingRunIT {
             assertTrue(Math.abs(error) <= 0.10, String.format(Locale.ROOT,
                     "%s took %.1f s, check estimated %.1f s (%+.1f %%)%n%s", seq.getFileName(), wallS, estimateS,
                     100 * error, r.out()));
+            assertTrue(Math.abs(etaError) <= 0.15, String.format(Locale.ROOT,
+                    "%s: the ETA at half-way was off by %+.1f %% of the time left%n%s", seq.getFileName(),
+                    100 * etaError, r.out()));
         }
     }
 
