@@ -28,7 +28,8 @@ import org.zweep.driver.transport.Transports;
  * and {@link ConnectionLostException} (the link), {@link MeterTimeoutException} (keeps the bytes
  * received), {@link ScpiProtocolException} (a reply that breaks the rules), {@link MeterErrorException}
  * (the meter's error queue). After a timeout or a broken reply the client resynchronises before the
- * next command ({@link ScpiSettings#resync()}), so a late reply is never returned for a new query.
+ * next command ({@link ScpiSettings#resync()}), so a late reply is never returned for a new query;
+ * while resynchronising, each reply line may take twice the slack (the late reply comes first).
  * After a lost connection every call fails at once; reconnecting is the caller's decision.
  *
  * <p>Bytes are read and written as ISO-8859-1 (SCPI messages are 7-bit ASCII). A message written
@@ -46,6 +47,8 @@ public final class ScpiClient implements ScpiSession {
     private static final String RESYNC = "*OPC? (resynchronising after an earlier failure)";
     /** Below this expected work, a reply that never starts may well be a terminator mismatch. */
     static final long SHORT_WORK_MILLIS = 1000;
+    /** How many slacks one reply line may take while resynchronising after a timeout. */
+    static final int RESYNC_SLACKS = 2;
 
     private final Transport transport;
     private final ScpiSettings settings;
@@ -476,7 +479,10 @@ public final class ScpiClient implements ScpiSession {
         if (settings.resync() == Resync.OPC) {
             send("*OPC?");
             for (int i = 0; i < MAX_RESYNC_LINES; i++) {
-                int len = readLine(RESYNC, deadline(0));
+                // the answer queues behind whatever late reply the meter still owes, which arrives
+                // later than the slack by definition: recovery waits twice the slack per line
+                int len = readLine(RESYNC, new Deadline(System.nanoTime() + RESYNC_SLACKS * readTimeoutMillis
+                        * 1_000_000L, 0, RESYNC_SLACKS * readTimeoutMillis));
                 if (len == 1 && line[0] == '1') {
                     outOfStep = false;
                     return;
