@@ -16,6 +16,7 @@ import org.zweep.driver.meter.MeasurementSetting;
 import org.zweep.driver.meter.MeterCapabilities;
 import org.zweep.driver.meter.Range;
 import org.zweep.driver.meter.SourceMode;
+import org.zweep.driver.uncertainty.MeterAccuracy;
 
 /**
  * A meter's dialect: its capabilities and the SCPI command template for each meter operation, as
@@ -43,10 +44,11 @@ public final class Dialect {
     private final ReplyShape reply;
     private final MeterTiming timing;
     private final Map<Command, Template> commands;
+    private final MeterAccuracy accuracy;
 
     Dialect(String name, String description, String source, MeterCapabilities capabilities, Range averagingCount,
             Range integrationTimeS, Range impedanceRangeOhm, boolean compoundMessages, boolean appendErrorQuery,
-            ReplyShape reply, MeterTiming timing, Map<Command, Template> commands) {
+            ReplyShape reply, MeterTiming timing, Map<Command, Template> commands, MeterAccuracy accuracy) {
         this.name = name;
         this.description = description;
         this.source = source;
@@ -59,6 +61,7 @@ public final class Dialect {
         this.reply = reply;
         this.timing = timing;
         this.commands = new EnumMap<>(commands);
+        this.accuracy = accuracy;
     }
 
     /**
@@ -168,6 +171,11 @@ public final class Dialect {
     /** Upper limits of the impedance ranges the meter can hold, in ohms; {@code [0, 0]} when it cannot. */
     public Range impedanceRangeOhm() {
         return impedanceRangeOhm;
+    }
+
+    /** The meter's stated accuracy from the {@code [accuracy]} section; empty when the file states none. */
+    public Optional<MeterAccuracy> accuracy() {
+        return Optional.ofNullable(accuracy);
     }
 
     /** Where the dialect was loaded from, as used in messages. */
