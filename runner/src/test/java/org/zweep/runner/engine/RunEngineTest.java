@@ -141,18 +141,39 @@ class RunEngineTest {
     }
 
     @Test
-    void droppedLinkIsReopenedBiasTurnedOffAgainAndTheInterruptedPointMeasuredAgain() {
+    void droppedLinkToAMeterThatCannotTellItsBiasIsReopenedBiasTurnedOffAndThePointMeasuredAgain() {
         bench.dropAtMeasure.add(8); // the 8th trigger is point 7: 2 V bias on, at 10 kHz
         RunResult r = run(TestPlans.capacitor(), new BitSet());
         assertEquals(RunResult.Outcome.COMPLETED, r.outcome());
         assertEquals(IntStream.range(0, 11).boxed().toList(), rows.stream().map(PointRow::point).toList());
         int reconnect = bench.trace.indexOf("reconnect");
         assertTrue(reconnect > 0, bench.trace.toString());
-        assertEquals("bias off", bench.trace.get(reconnect + 1), "bias off first after reconnecting");
+        assertEquals("read bias", bench.trace.get(reconnect + 1), "asked first (this meter cannot tell)");
+        assertEquals("bias off", bench.trace.get(reconnect + 2), "then bias off, before anything else");
         // the instrument kept 2 V while the link was down, then went off, then ramped up again
         assertTrue(bench.biasHistory.stream().anyMatch(e -> !e.on() && e.timeS() > 0), bench.biasHistory.toString());
         assertEquals(2.0, rows.get(7).bias()); // our own demo plan: point 7 is at 2 V
         assertEquals(1, notes.stream().filter(n -> n.startsWith("reconnected to fake:bench")).count(), notes.toString());
+    }
+
+    @Test
+    void droppedLinkDuringABiasStepKeepsTheBiasTheMeterHoldsAndGoesOnFromThere() {
+        bench.readsBias = true;
+        bench.dropAtMeasure.add(8); // the 8th trigger is point 7: 2 V bias on, at 10 kHz
+        RunResult r = run(TestPlans.capacitor(), new BitSet());
+        assertEquals(RunResult.Outcome.COMPLETED, r.outcome());
+        assertEquals(IntStream.range(0, 11).boxed().toList(), rows.stream().map(PointRow::point).toList());
+        int reconnect = bench.trace.indexOf("reconnect");
+        assertEquals("read bias", bench.trace.get(reconnect + 1), "the bias is read back first");
+        assertFalse(bench.trace.subList(reconnect, reconnect + 3).contains("bias off"), bench.trace.toString());
+        // between the first time 2 V was reached and the end of the step, the bias was never off
+        double firstAt2 = bench.biasHistory.stream().filter(e -> e.on() && e.value() == 2.0).findFirst()
+                .orElseThrow().timeS();
+        double leftAt2 = bench.biasHistory.stream().filter(e -> e.timeS() > firstAt2 && e.value() != 2.0).findFirst()
+                .map(FakeBench.BiasEvent::timeS).orElse(Double.MAX_VALUE);
+        assertTrue(bench.biasHistory.stream().noneMatch(e -> !e.on() && e.timeS() > firstAt2 && e.timeS() < leftAt2),
+                bench.biasHistory.toString());
+        assertTrue(notes.stream().anyMatch(n -> n.contains("bias held at 2 V")), notes.toString());
     }
 
     @Test
@@ -164,7 +185,7 @@ class RunEngineTest {
         assertEquals(RunResult.Outcome.FAILED, r.outcome());
         // arithmetic from the inputs above: points 0 and 1 measured; waits 0.1 + 0.2 + 0.4 s = 0.7 s
         assertEquals(2, r.measured());
-        assertTrue(r.problems().get(0).startsWith("lost the link to fake:bench while measuring at 10000.0 Hz and could"
+        assertTrue(r.problems().get(0).startsWith("lost the link to fake:bench while measuring at 10 kHz and could"
                 + " not reconnect (3 attempts in 0.7 s since the last successful operation)"), r.problems().get(0));
         assertEquals(Bias.OFF, bench.instrumentBias);
     }
@@ -259,7 +280,7 @@ class RunEngineTest {
         InvalidInputException e = assertThrows(InvalidInputException.class,
                 () -> st.measure(hot, BiasControl.NONE, 0, 0));
         // 25 V is our own test configuration (TestPlans.LIMITS), not an outside value
-        assertTrue(e.getMessage().contains("DC bias 30.0 V exceeds the safety limit 25.0 V"), e.getMessage());
+        assertTrue(e.getMessage().contains("DC bias 30 V exceeds the safety limit 25 V"), e.getMessage());
         assertTrue(bench.trace.isEmpty(), bench.trace.toString());
     }
 
@@ -269,7 +290,7 @@ class RunEngineTest {
                 List.of());
         InvalidInputException e = assertThrows(InvalidInputException.class,
                 () -> new SafetyGuard(TestPlans.LIMITS).checkPlan(p));
-        assertTrue(e.getMessage().startsWith("step 'hot', point 0: DC bias 30.0 V exceeds"), e.getMessage());
+        assertTrue(e.getMessage().startsWith("step 'hot', point 0: DC bias 30 V exceeds"), e.getMessage());
         assertFalse(bench.trace.contains("apply"));
     }
 }
