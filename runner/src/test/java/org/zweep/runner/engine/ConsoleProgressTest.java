@@ -9,7 +9,6 @@ import java.time.Instant;
 import java.util.List;
 import java.util.concurrent.atomic.AtomicLong;
 import org.junit.jupiter.api.Test;
-import org.zweep.runner.results.Derived;
 import org.zweep.runner.results.PointRow;
 
 class ConsoleProgressTest {
@@ -22,8 +21,9 @@ class ConsoleProgressTest {
     }
 
     private static PointRow row(int i) {
-        return new PointRow(i, "a-step-with-a-rather-long-name", 0, 0, "impedance", "none", 123456.7, "V", 0.5, "A",
-                3.75, 1, 2, Derived.NONE, Double.NaN, "ok", "", Instant.EPOCH);
+        return PointRow.of(new PointRow.Key(i, "a-step-with-a-rather-long-name", 0, 0),
+                new PointRow.Conditions("impedance", "none", 123456.7, new PointRow.Source("V", 0.5),
+                        new PointRow.Source("A", 3.75)), true, 1, 2, "", Instant.EPOCH);
     }
 
     @Test
