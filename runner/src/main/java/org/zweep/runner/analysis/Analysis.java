@@ -105,7 +105,9 @@ public final class Analysis {
             if (s.frequencies() < model.keys().size() + 1) {
                 continue;
             }
-            fits.add(new StepResult.SweepFit(s, EquivalentCircuitFit.fit(model, s.points())));
+            fits.add(new StepResult.SweepFit(s, s.hasUncertainties()
+                    ? EquivalentCircuitFit.fitWeighted(model, s.uncertainties())
+                    : EquivalentCircuitFit.fit(model, s.points())));
         }
         long noValue = rows.stream().filter(r -> !"ok".equals(r.status())).count();
         if (noValue > 0) {

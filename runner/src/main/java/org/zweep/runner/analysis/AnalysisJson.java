@@ -62,6 +62,9 @@ public final class AnalysisJson {
             ArrayNode vs = n.putArray("values");
             c.values().forEach(v -> num(vs, v));
             n.put("result", c.result());
+            n.put("rule", c.limit().rule().text());
+            num(n, "expanded_u", c.expandedU());
+            num(n, "probability", c.probability());
             if (!c.note().isEmpty()) {
                 n.put("note", c.note());
             }
@@ -137,6 +140,8 @@ public final class AnalysisJson {
         num(n, "srf_hz", f.srfHz() == null ? Double.NaN : f.srfHz());
         num(n, "srf_data_hz", f.srfDataHz() == null ? Double.NaN : f.srfDataHz());
         num(n, "residual_rms", f.residualRms());
+        n.put("weighted", f.weighted());
+        num(n, "reduced_chi_squared", f.reducedChiSquared());
         n.put("iterations", f.iterations());
         n.put("converged", f.converged());
         n.put("points", f.points());

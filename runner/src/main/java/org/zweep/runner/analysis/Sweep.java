@@ -1,13 +1,13 @@
 package org.zweep.runner.analysis;
 
 import java.util.ArrayList;
-import java.util.Comparator;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.TreeMap;
 import org.zweep.driver.impedance.Impedance;
+import org.zweep.driver.uncertainty.UncertainImpedance;
 import org.zweep.runner.results.PointRow;
 
 /**
@@ -23,11 +23,27 @@ import org.zweep.runner.results.PointRow;
  * @param bias the DC bias in V or A
  * @param points the mean impedance per frequency, ascending in frequency
  * @param repeats the largest number of readings averaged at one frequency
+ * @param uncertainties the standard uncertainty of each mean (same order as {@code points}), or
+ *     empty when any point's is unknown: the average of the readings' stated-accuracy covariances
+ *     (a systematic limit, not divided by the number of repeats) plus, with two or more repeats,
+ *     the covariance of the mean of the repeats (Type A, JCGM 100:2008, 4.2)
  */
 public record Sweep(String step, int stepIndex, String wiring, String drive, double level, String biasMode,
-        double bias, List<Impedance> points, int repeats) {
+        double bias, List<Impedance> points, int repeats, List<UncertainImpedance> uncertainties) {
     public Sweep {
         points = List.copyOf(points);
+        uncertainties = List.copyOf(uncertainties);
+    }
+
+    /** A sweep without uncertainties. */
+    public Sweep(String step, int stepIndex, String wiring, String drive, double level, String biasMode,
+            double bias, List<Impedance> points, int repeats) {
+        this(step, stepIndex, wiring, drive, level, biasMode, bias, points, repeats, List.of());
+    }
+
+    /** Whether every point has a known uncertainty (then fits are weighted by it). */
+    public boolean hasUncertainties() {
+        return !points.isEmpty() && uncertainties.size() == points.size();
     }
 
     /** The sweeps in {@code rows} (ok impedance rows only), in order of first appearance. */
@@ -48,19 +64,57 @@ public record Sweep(String step, int stepIndex, String wiring, String drive, dou
                 byF.computeIfAbsent(r.frequencyHz(), k -> new ArrayList<>()).add(r);
             }
             List<Impedance> pts = new ArrayList<>();
+            List<UncertainImpedance> us = new ArrayList<>();
+            boolean known = true;
             int repeats = 0;
             for (Map.Entry<Double, List<PointRow>> e : byF.entrySet()) {
-                double re = e.getValue().stream().mapToDouble(PointRow::rOhm).average().orElseThrow();
-                double im = e.getValue().stream().mapToDouble(PointRow::xOhm).average().orElseThrow();
-                pts.add(new Impedance(e.getKey(), re, im));
-                repeats = Math.max(repeats, e.getValue().size());
+                List<PointRow> rs = e.getValue();
+                double re = rs.stream().mapToDouble(PointRow::rOhm).average().orElseThrow();
+                double im = rs.stream().mapToDouble(PointRow::xOhm).average().orElseThrow();
+                Impedance mean = new Impedance(e.getKey(), re, im);
+                pts.add(mean);
+                repeats = Math.max(repeats, rs.size());
+                known = known && rs.stream().allMatch(r -> r.uncertainty().known());
+                if (known) {
+                    us.add(meanUncertainty(mean, rs));
+                }
             }
-            pts.sort(Comparator.comparingDouble(Impedance::frequencyHz));
             PointRow first = g.get(0);
             out.add(new Sweep(first.step(), first.stepIndex(), first.wiring(), first.drive(), first.level(),
-                    first.biasMode(), first.bias(), pts, repeats));
+                    first.biasMode(), first.bias(), pts, repeats, known ? us : List.of()));
         }
         return out;
+    }
+
+    /** Stated accuracy averaged over the readings plus the Type A covariance of their mean. */
+    private static UncertainImpedance meanUncertainty(Impedance mean, List<PointRow> rows) {
+        int n = rows.size();
+        double vr = 0;
+        double vx = 0;
+        double c = 0;
+        for (PointRow r : rows) {
+            UncertainImpedance u = r.uncertainty().at(r.impedance());
+            vr += u.varianceR() / n;
+            vx += u.varianceX() / n;
+            c += u.covarianceRX() / n;
+        }
+        if (n >= 2) {
+            double sr = 0;
+            double sx = 0;
+            double srx = 0;
+            for (PointRow r : rows) {
+                double dr = r.rOhm() - mean.resistanceOhm();
+                double dx = r.xOhm() - mean.reactanceOhm();
+                sr += dr * dr;
+                sx += dx * dx;
+                srx += dr * dx;
+            }
+            // the covariance of the mean: the sample covariance (n − 1 in the denominator) over n
+            vr += sr / (n - 1) / n;
+            vx += sx / (n - 1) / n;
+            c += srx / (n - 1) / n;
+        }
+        return UncertainImpedance.fromCovariance(mean, vr, vx, c);
     }
 
     /**

@@ -58,7 +58,7 @@ public final class AnalyzeCommand implements Callable<Integer> {
             summary(out, a);
             out.println("wrote " + file);
         }
-        return "fail".equals(a.verdict()) ? ExitCode.CHECK_FAILED : ExitCode.OK;
+        return CheckOutcome.failed(a.verdict()) ? ExitCode.CHECK_FAILED : ExitCode.OK;
     }
 
     static void summary(PrintWriter out, AnalysisResult a) {
@@ -79,7 +79,11 @@ public final class AnalyzeCommand implements Callable<Integer> {
                 }
                 b.append(", SRF ").append(f.srfHz() == null ? "not resolved" : Si.format(f.srfHz(), Unit.HERTZ));
                 b.append(String.format(Locale.ROOT, ", residual %.2g", f.residualRms()));
+                if (f.weighted()) {
+                    b.append(String.format(Locale.ROOT, ", weighted by u, reduced chi-squared %.3g", f.reducedChiSquared()));
+                }
                 out.println(b);
+                f.notes().stream().filter(n -> n.contains("does not fit")).forEach(n -> out.println("    " + n));
             }
             for (Derating d : s.derating()) {
                 List<String> drops = new ArrayList<>();

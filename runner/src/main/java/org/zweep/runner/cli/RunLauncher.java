@@ -186,7 +186,7 @@ final class RunLauncher {
         RunManifest m = RunManifest.read(folder.manifest()).requireResumable(folder.manifest());
         if ("completed".equals(m.outcome())) {
             out.println(dir + ": the run is already complete (" + m.counts().measured() + " points); nothing to do");
-            return "fail".equals(m.verdict()) ? ExitCode.CHECK_FAILED : ExitCode.OK;
+            return CheckOutcome.failed(m.verdict()) ? ExitCode.CHECK_FAILED : ExitCode.OK;
         }
         String sha = RunFolder.sha256(folder.sequenceCopy());
         if (!m.sequence().sha256().equalsIgnoreCase(sha)) {
@@ -309,7 +309,7 @@ final class RunLauncher {
 
     static int exitCode(RunSession.Summary s) {
         return switch (s.result().outcome()) {
-            case COMPLETED -> "fail".equals(s.verdict()) ? ExitCode.CHECK_FAILED : ExitCode.OK;
+            case COMPLETED -> CheckOutcome.failed(s.verdict()) ? ExitCode.CHECK_FAILED : ExitCode.OK;
             case ABORTED -> BiasOffHook.EXIT_INTERRUPTED;
             case FAILED -> ExitCode.METER;
         };
@@ -368,8 +368,15 @@ final class RunLauncher {
             value = Quantities.formatShort(lo, c.unit(), 4) + " … " + Quantities.formatShort(hi, c.unit(), 4) + " ("
                     + c.values().size() + " points)";
         }
-        return String.format(Locale.ROOT, "check %-22s %s%s in %s = %s: %s%s", l.name(), l.parameter(), where,
-                l.step(), value, c.result(), c.note().isEmpty() ? "" : " (" + c.note() + ")");
+        String rule = "";
+        if (l.rule() != org.zweep.runner.conformance.DecisionRule.SIMPLE || !Double.isNaN(c.expandedU())) {
+            rule = " [" + l.rule().text()
+                    + (Double.isNaN(c.expandedU()) ? ", U unknown" : ", U = " + Quantities.format(c.expandedU(), c.unit(), 2))
+                    + (Double.isNaN(c.probability()) ? "" : String.format(Locale.ROOT, ", p = %.3f", c.probability()))
+                    + "]";
+        }
+        return String.format(Locale.ROOT, "check %-22s %s%s in %s = %s: %s%s%s", l.name(), l.parameter(), where,
+                l.step(), value, c.result(), rule, c.note().isEmpty() ? "" : " (" + c.note() + ")");
     }
 
     /** {@code plan} with its meter address and dialect replaced where {@code meter} or {@code dialect} is not null. */

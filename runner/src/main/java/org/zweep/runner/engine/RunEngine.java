@@ -9,6 +9,7 @@ import org.zweep.driver.meter.MeasuredQuantity;
 import org.zweep.driver.meter.MeasurementSetting;
 import org.zweep.driver.meter.Reading;
 import org.zweep.driver.meter.ReadingStatus;
+import org.zweep.driver.uncertainty.UncertainImpedance;
 import org.zweep.runner.plan.Plan;
 import org.zweep.runner.plan.PlannedPoint;
 import org.zweep.runner.plan.PlannedStep;
@@ -30,6 +31,7 @@ public final class RunEngine {
     private final CheckEvaluator checks;
     private final ProgressListener progress;
     private final Interruption interruption;
+    private final PointUncertainty uncertainty;
     private final Plausibility plausibility;
 
     /**
@@ -42,9 +44,19 @@ public final class RunEngine {
      */
     public RunEngine(Plan plan, Station station, ReadingCorrector corrector, CheckEvaluator checks,
             ProgressListener progress, Interruption interruption) {
+        this(plan, station, corrector, PointUncertainty.NONE, checks, progress, interruption);
+    }
+
+    /**
+     * As above, with each point's uncertainty from {@code uncertainty} (which should use the same
+     * {@code corrector}).
+     */
+    public RunEngine(Plan plan, Station station, ReadingCorrector corrector, PointUncertainty uncertainty,
+            CheckEvaluator checks, ProgressListener progress, Interruption interruption) {
         this.plan = plan;
         this.station = station;
         this.corrector = corrector;
+        this.uncertainty = uncertainty;
         this.checks = checks;
         this.progress = progress;
         this.interruption = interruption;
@@ -140,7 +152,8 @@ public final class RunEngine {
                 if (done.get(p.index())) {
                     continue;
                 }
-                PointRow row = row(p, step, corrector.correct(readings.get(i)));
+                Reading raw = readings.get(i);
+                PointRow row = row(p, step, corrector.correct(raw), uncertainty.of(raw));
                 if (!problems.get(i).isEmpty()) {
                     progress.note("point " + p.index() + ": " + problems.get(i) + " again; stored with status"
                             + " implausible");
@@ -170,8 +183,22 @@ public final class RunEngine {
     }
 
     /** One entry per reading: what physics does not allow in it, or empty. */
+    /**
+     * Whether {@code r}'s only fault is a negative R that lies within three standard
+     * uncertainties of zero: a nearly lossless part read by a meter that states its accuracy
+     * (an R of −0.05 Ω with u(R) = 0.1 Ω is what such a part gives half the time).
+     */
+    private boolean negativeWithinUncertainty(Reading r) {
+        if (!(r.real() < 0) || !Double.isFinite(r.imaginary()) || r.magnitude() > plausibility.maxImpedanceOhm()) {
+            return false;
+        }
+        UncertainImpedance u = uncertainty.of(r);
+        return u != null && r.real() >= -3 * u.uROhm();
+    }
+
     private List<String> problems(List<Reading> readings) {
-        return readings.stream().map(r -> plausibility.problem(r).orElse("")).toList();
+        return readings.stream().map(r -> plausibility.problem(r).filter(x -> !negativeWithinUncertainty(r))
+                .orElse("")).toList();
     }
 
     private void stopIfRequested() {
@@ -213,6 +240,11 @@ public final class RunEngine {
 
     /** The result row for point {@code p} of {@code step} read as {@code r}. */
     static PointRow row(PlannedPoint p, PlannedStep step, Reading r) {
+        return row(p, step, r, null);
+    }
+
+    /** As {@link #row(PlannedPoint, PlannedStep, Reading)} with the corrected reading's uncertainty (null: unknown). */
+    static PointRow row(PlannedPoint p, PlannedStep step, Reading r, UncertainImpedance u) {
         MeasurementSetting s = r.setting() != null ? r.setting() : p.setting();
         boolean ratio = s.quantity() == MeasuredQuantity.VOLTAGE_RATIO;
         PointRow.Conditions c = new PointRow.Conditions(ratio ? "voltage_ratio" : "impedance",
@@ -220,6 +252,6 @@ public final class RunEngine {
                 new PointRow.Source(s.drive().mode().unit(), s.drive().levelRms()),
                 new PointRow.Source(s.bias().mode().unit(), s.bias().appliedValue()));
         return PointRow.of(new PointRow.Key(p.index(), step.name(), p.stepIndex(), p.repeat()), c,
-                r.status() == ReadingStatus.OK, r.real(), r.imaginary(), "", r.timestamp());
+                r.status() == ReadingStatus.OK, r.real(), r.imaginary(), u, "", r.timestamp());
     }
 }

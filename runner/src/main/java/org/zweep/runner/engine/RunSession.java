@@ -155,7 +155,8 @@ public final class RunSession {
                 manifest = manifest.withCompensation(comp.info());
                 manifest.write(folder.manifest());
             }
-            RunResult result = new RunEngine(plan, station, corrector, checks, progress, interruption)
+            RunResult result = new RunEngine(plan, station, corrector,
+                    new PointUncertainty(link.accuracy().orElse(null), corrector), checks, progress, interruption)
                     .run(done, writer::append);
             List<CheckOutcome> outcomes = List.of();
             String verdict = "none";
@@ -166,6 +167,14 @@ public final class RunSession {
             }
             manifest = manifest.finished(result.outcome().word(), setup.clock().instant().toString(),
                     new RunManifest.Counts(points.size(), done.cardinality()), verdict);
+            if (outcomes.size() == manifest.checks().size()) {
+                List<RunManifest.CheckInfo> judged = new ArrayList<>();
+                for (int i = 0; i < outcomes.size(); i++) {
+                    CheckOutcome o = outcomes.get(i);
+                    judged.add(manifest.checks().get(i).judged(o.result(), o.expandedU(), o.probability()));
+                }
+                manifest = manifest.withChecks(judged);
+            }
             manifest.write(folder.manifest());
             return new Summary(result, outcomes, manifest);
         } catch (RuntimeException e) {

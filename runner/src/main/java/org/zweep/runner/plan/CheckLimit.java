@@ -1,5 +1,7 @@
 package org.zweep.runner.plan;
 
+import org.zweep.runner.conformance.DecisionRule;
+
 /**
  * A pass/fail limit on a measured or derived figure.
  *
@@ -12,9 +14,25 @@ package org.zweep.runner.plan;
  * @param selection the points it judges
  * @param bounds the passing interval
  * @param dropPercent for {@code saturation}, the drop in percent; {@code NaN} otherwise
+ * @param rule how a value and its uncertainty become a decision (JCGM 106:2012, ILAC-G8:09/2019)
  */
 public record CheckLimit(String name, String parameter, String step, Selection selection, Bounds bounds,
-        double dropPercent) {
+        double dropPercent, DecisionRule rule) {
+
+    public CheckLimit {
+        java.util.Objects.requireNonNull(rule, "rule");
+    }
+
+    /** A check under the simple decision rule. */
+    public CheckLimit(String name, String parameter, String step, Selection selection, Bounds bounds,
+            double dropPercent) {
+        this(name, parameter, step, selection, bounds, dropPercent, DecisionRule.SIMPLE);
+    }
+
+    /** This check under another decision rule. */
+    public CheckLimit withRule(DecisionRule r) {
+        return new CheckLimit(name, parameter, step, selection, bounds, dropPercent, r);
+    }
 
     /** The whole-sweep figure of the self-resonant frequency. */
     public static final String SRF = "srf_hz";

@@ -76,7 +76,7 @@ public final class HtmlReport {
                 .append("</style></head><body>\n");
         b.append("<h1>").append(esc(partName)).append("</h1>\n");
         String verdict = a.verdict();
-        b.append("<p>Verdict: <span class=\"verdict ").append(verdict).append("\">").append(verdict.toUpperCase(Locale.ROOT))
+        b.append("<p>Verdict: <span class=\"verdict ").append(verdict.replace(' ', '-')).append("\">").append(verdict.toUpperCase(Locale.ROOT))
                 .append("</span> &nbsp; sequence <b>").append(esc(m.sequence() == null ? "" : m.sequence().name()))
                 .append("</b>, run ").append(esc(m.outcome())).append(", ").append(esc(Si.time(m.started())))
                 .append(" to ").append(esc(Si.time(m.ended()))).append("</p>\n");
@@ -153,6 +153,8 @@ public final class HtmlReport {
                         .append(f.srfDataHz() == null ? "not in sweep" : esc(Si.format(f.srfDataHz(), Unit.HERTZ, 6)))
                         .append("</td><td></td></tr><tr><td>residual RMS (relative)</td><td class=\"num\">")
                         .append(esc(String.format(Locale.ROOT, "%.3g", f.residualRms())))
+                        .append(f.weighted() ? "</td><td></td></tr><tr><td>reduced χ² (weighted by u)</td><td class=\"num\">"
+                                + esc(String.format(Locale.ROOT, "%.3g", f.reducedChiSquared())) : "")
                         .append("</td><td></td></tr></table>\n<p class=\"note\">model ").append(esc(f.model().id()))
                         .append(", ").append(f.points()).append(" frequencies, ").append(f.iterations())
                         .append(" iterations, ").append(f.converged() ? "converged" : "NOT converged").append("</p>\n");
@@ -173,7 +175,7 @@ public final class HtmlReport {
             return;
         }
         b.append("<table><tr><th>check</th><th>parameter</th><th>step</th><th>at</th><th>min</th><th>max</th>")
-                .append("<th>measured</th><th>result</th></tr>");
+                .append("<th>measured</th><th>rule</th><th>U (k = 2)</th><th>p(conformance)</th><th>result</th></tr>");
         for (CheckOutcome c : checks) {
             Unit unit = c.unit();
             b.append("<tr><td>").append(esc(c.name())).append("</td><td>").append(esc(c.parameter())).append("</td><td>")
@@ -188,7 +190,12 @@ public final class HtmlReport {
             if (!c.note().isEmpty()) {
                 b.append(c.values().isEmpty() ? "" : " — ").append(esc(c.note()));
             }
-            b.append("</td><td><span class=\"verdict ").append(c.result()).append("\">").append(c.result())
+            b.append("</td><td>").append(esc(c.limit().rule().text())).append("</td><td class=\"num\">")
+                    .append(esc(Double.isNaN(c.expandedU()) ? "—" : Si.format(c.expandedU(), unit, 3)))
+                    .append("</td><td class=\"num\">")
+                    .append(esc(Double.isNaN(c.probability()) ? "—" : String.format(Locale.ROOT, "%.4f", c.probability())))
+                    .append("</td><td><span class=\"verdict ").append(c.result().replace(' ', '-')).append("\">")
+                    .append(c.result())
                     .append("</span></td></tr>");
         }
         b.append("</table>\n");

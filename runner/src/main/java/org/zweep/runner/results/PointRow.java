@@ -3,6 +3,7 @@ package org.zweep.runner.results;
 import java.time.Instant;
 import java.util.Objects;
 import org.zweep.driver.impedance.Impedance;
+import org.zweep.driver.uncertainty.UncertainImpedance;
 
 /**
  * One row of {@code points.csv}: one measured point, as small records (where it sits in the plan,
@@ -72,11 +73,20 @@ public record PointRow(Key key, Conditions conditions, Measured measured, String
      * @param xOhm X in ohms (corrected when compensation applies), or the ratio's imaginary part
      * @param ratio |V2/V1| for voltage-ratio rows, {@code NaN} otherwise
      * @param derived every derived parameter; all {@code NaN} for voltage-ratio rows and rows without a value
+     * @param uncertainty the standard uncertainties of R, X and every derived parameter; unknown
+     *     ({@link RowUncertainty#NONE}) when the meter states no accuracy for the point
      */
-    public record Measured(String status, double rOhm, double xOhm, double ratio, Derived derived) {
+    public record Measured(String status, double rOhm, double xOhm, double ratio, Derived derived,
+            RowUncertainty uncertainty) {
         public Measured {
             Objects.requireNonNull(status, "status");
             Objects.requireNonNull(derived, "derived");
+            Objects.requireNonNull(uncertainty, "uncertainty");
+        }
+
+        /** Without uncertainty. */
+        public Measured(String status, double rOhm, double xOhm, double ratio, Derived derived) {
+            this(status, rOhm, xOhm, ratio, derived, RowUncertainty.NONE);
         }
 
         /**
@@ -86,6 +96,21 @@ public record PointRow(Key key, Conditions conditions, Measured measured, String
          * @param ok whether the meter gave a value ({@code re}, {@code im} are ignored otherwise)
          */
         public static Measured of(Conditions c, boolean ok, double re, double im) {
+            return of(c, ok, re, im, Double.NaN, Double.NaN, Double.NaN);
+        }
+
+        /**
+         * As {@link #of(Conditions, boolean, double, double)}, with the standard uncertainties of R
+         * and X and their correlation (NaN when unknown; ignored for a voltage ratio); the derived
+         * parameters' uncertainties are computed here.
+         */
+        public static Measured of(Conditions c, boolean ok, double re, double im, double uROhm, double uXOhm,
+                double correlation) {
+            if (ok && "impedance".equals(c.quantity())) {
+                Impedance z = new Impedance(c.frequencyHz(), re, im);
+                return new Measured("ok", re, im, Double.NaN, Derived.of(z),
+                        RowUncertainty.of(z, uROhm, uXOhm, correlation));
+            }
             if (!ok) {
                 return new Measured("no_value", Double.NaN, Double.NaN, Double.NaN, Derived.NONE);
             }
@@ -99,13 +124,35 @@ public record PointRow(Key key, Conditions conditions, Measured measured, String
     /** This row with another status ({@code ok}, {@code no_value} or {@code implausible}); the values stay. */
     public PointRow withStatus(String newStatus) {
         return new PointRow(key, conditions, new Measured(newStatus, measured.rOhm(), measured.xOhm(), measured.ratio(),
-                measured.derived()), check, time);
+                measured.derived(), measured.uncertainty()), check, time);
     }
 
     /** A row made from a reading: the derived values are computed by {@link Measured#of}. */
     public static PointRow of(Key key, Conditions conditions, boolean ok, double re, double im, String check,
             Instant time) {
         return new PointRow(key, conditions, Measured.of(conditions, ok, re, im), check, time);
+    }
+
+    /**
+     * A row made from a reading and its uncertainty ({@code u} null when unknown; its value must be
+     * the reading's).
+     */
+    public static PointRow of(Key key, Conditions conditions, boolean ok, double re, double im, UncertainImpedance u,
+            String check, Instant time) {
+        return new PointRow(key, conditions, u == null ? Measured.of(conditions, ok, re, im)
+                : Measured.of(conditions, ok, re, im, u.uROhm(), u.uXOhm(), u.correlation()), check, time);
+    }
+
+    /** A row from stored values, u(R), u(X) and r(R, X) NaN when unknown. */
+    public static PointRow of(Key key, Conditions conditions, boolean ok, double re, double im, double uROhm,
+            double uXOhm, double correlation, String check, Instant time) {
+        return new PointRow(key, conditions, Measured.of(conditions, ok, re, im, uROhm, uXOhm, correlation), check,
+                time);
+    }
+
+    /** The standard uncertainties of R, X and every derived parameter (unknown: {@link RowUncertainty#NONE}). */
+    public RowUncertainty uncertainty() {
+        return measured.uncertainty();
     }
 
     /** This row with another check outcome ({@code ""}, {@code pass} or {@code fail}). */

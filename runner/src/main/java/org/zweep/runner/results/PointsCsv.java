@@ -17,7 +17,8 @@ public final class PointsCsv {
             List.of("point", "step", "step_index", "repeat", "quantity", "wiring", "frequency_hz", "drive", "level",
                     "bias_mode", "bias", "r_ohm", "x_ohm"),
             Derived.NAMES,
-            List.of("ratio", "status", "check", "time"))
+            List.of("ratio", "status", "check", "time"),
+            RowUncertainty.COLUMNS)
             .flatMap(List::stream).toList();
 
     /** The header line, without its line break. */
@@ -48,6 +49,9 @@ public final class PointsCsv {
         text(b, row.status()).append(',');
         text(b, row.check()).append(',');
         b.append(row.time());
+        for (double v : row.uncertainty().columns()) {
+            num(b.append(','), v);
+        }
         return b.toString();
     }
 
@@ -66,11 +70,13 @@ public final class PointsCsv {
             PointRow.Conditions conditions = new PointRow.Conditions(c.get(4), c.get(5), parseNum(c.get(6)),
                     new PointRow.Source(c.get(7), parseNum(c.get(8))),
                     new PointRow.Source(c.get(9), parseNum(c.get(10))));
-            // the derived cells are not read back: every derived value is computed from R and X, once
+            // the derived cells are not read back: every derived value (and its u) is computed from R and X
+            // (and u(R), u(X), r), once
             String status = c.get(after + 1);
             PointRow row = PointRow.of(new PointRow.Key(Integer.parseInt(c.get(0)), c.get(1),
                     Integer.parseInt(c.get(2)), Integer.parseInt(c.get(3))), conditions, !"no_value".equals(status),
-                    parseNum(c.get(11)), parseNum(c.get(12)), c.get(after + 2), Instant.parse(c.get(after + 3)));
+                    parseNum(c.get(11)), parseNum(c.get(12)), parseNum(c.get(after + 4)), parseNum(c.get(after + 5)),
+                    parseNum(c.get(after + 6)), c.get(after + 2), Instant.parse(c.get(after + 3)));
             return "ok".equals(status) || "no_value".equals(status) ? row : row.withStatus(status);
         } catch (NumberFormatException | DateTimeParseException e) {
             throw new IllegalArgumentException(e.getMessage(), e);

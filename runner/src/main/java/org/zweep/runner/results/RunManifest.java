@@ -103,18 +103,41 @@ public record RunManifest(String format, SequenceInfo sequence, PartInfo part, L
      * {@code null} when the check selects any; {@code dropPercent} only for {@code saturation}.
      */
     public record CheckInfo(String name, String parameter, String step, Double frequencyHz, Double min, Double max,
-            Double bias, Double level, Double dropPercent) {
+            Double bias, Double level, Double dropPercent, String rule, String result, Double expandedU,
+            Double probability) {
 
-        /** A check at one frequency (or a whole-sweep one), any bias and level. */
+        /** Before it is judged. */
+        public CheckInfo(String name, String parameter, String step, Double frequencyHz, Double min, Double max,
+                Double bias, Double level, Double dropPercent, String rule) {
+            this(name, parameter, step, frequencyHz, min, max, bias, level, dropPercent, rule, null, null, null);
+        }
+
+        /**
+         * This check with its outcome: the decision ({@code pass}, {@code conditional pass},
+         * {@code conditional fail}, {@code fail}, {@code not evaluated}), the expanded uncertainty U
+         * (k = 2) and the probability of conformance of the value that decided it (null when unknown).
+         */
+        public CheckInfo judged(String newResult, double newExpandedU, double newProbability) {
+            return new CheckInfo(name, parameter, step, frequencyHz, min, max, bias, level, dropPercent, rule,
+                    newResult, finite(newExpandedU), finite(newProbability));
+        }
+
+        /** A check at one frequency (or a whole-sweep one), any bias and level, under the simple rule. */
         public CheckInfo(String name, String parameter, String step, Double frequencyHz, Double min, Double max) {
-            this(name, parameter, step, frequencyHz, min, max, null, null, null);
+            this(name, parameter, step, frequencyHz, min, max, null, null, null, null);
+        }
+
+        /** Under the simple rule. */
+        public CheckInfo(String name, String parameter, String step, Double frequencyHz, Double min, Double max,
+                Double bias, Double level, Double dropPercent) {
+            this(name, parameter, step, frequencyHz, min, max, bias, level, dropPercent, null);
         }
 
         /** The record of {@code c}. */
         public static CheckInfo of(CheckLimit c) {
             return new CheckInfo(c.name(), c.parameter(), c.step(), finite(c.frequencyHz()), finite(c.min()),
                     finite(c.max()), finite(c.selection().bias()), finite(c.selection().level()),
-                    finite(c.dropPercent()));
+                    finite(c.dropPercent()), c.rule().text());
         }
 
         /** The check this records. */
@@ -123,7 +146,8 @@ public record RunManifest(String format, SequenceInfo sequence, PartInfo part, L
                     new CheckLimit.Selection(nan(frequencyHz), nan(bias), nan(level)),
                     new CheckLimit.Bounds(min == null ? Double.NEGATIVE_INFINITY : min,
                             max == null ? Double.POSITIVE_INFINITY : max),
-                    nan(dropPercent));
+                    nan(dropPercent), rule == null ? org.zweep.runner.conformance.DecisionRule.SIMPLE
+                            : org.zweep.runner.conformance.DecisionRule.parse(rule));
         }
 
         private static Double finite(double v) {
@@ -167,6 +191,12 @@ public record RunManifest(String format, SequenceInfo sequence, PartInfo part, L
     public RunManifest finished(String newOutcome, String newEnded, Counts newCounts, String newVerdict) {
         return new RunManifest(format, sequence, part, steps, checks, meter, compensation, software, host, seed,
                 started, newEnded, newCounts, newOutcome, newVerdict);
+    }
+
+    /** This manifest with each check's outcome (same order as {@link #checks()}). */
+    public RunManifest withChecks(List<CheckInfo> judged) {
+        return new RunManifest(format, sequence, part, steps, List.copyOf(judged), meter, compensation, software, host,
+                seed, started, ended, counts, outcome, verdict);
     }
 
     /** This manifest with another meter and compensation record (after a resume reconnects). */

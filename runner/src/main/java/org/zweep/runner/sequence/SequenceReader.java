@@ -24,6 +24,7 @@ import org.zweep.driver.meter.CorrectionStandard;
 import org.zweep.driver.meter.ImpedanceRange;
 import org.zweep.driver.meter.MeasuredQuantity;
 import org.zweep.runner.plan.BiasControl;
+import org.zweep.runner.conformance.DecisionRule;
 import org.zweep.runner.plan.CheckLimit;
 import org.zweep.runner.plan.CompensationMode;
 import org.zweep.runner.plan.Connection;
@@ -44,7 +45,8 @@ final class SequenceReader {
     static final int MAX_POINTS = 1_000_000;
 
     static final List<String> TOP_KEYS =
-            List.of("format", "name", "description", "meter", "safety", "fixture", "part", "steps", "checks");
+            List.of("format", "name", "description", "meter", "safety", "fixture", "part", "steps", "checks",
+                    "decision_rule");
     static final List<String> METER_KEYS = List.of("address", "bench", "dialect");
     static final List<String> SAFETY_KEYS =
             List.of("max_bias_voltage", "max_bias_current", "max_level_voltage", "max_level_current");
@@ -56,7 +58,7 @@ final class SequenceReader {
     static final List<String> BIAS_KEYS =
             List.of("values", "start", "stop", "points", "per_decade", "spacing", "ramp", "settle");
     static final List<String> CHECK_KEYS =
-            List.of("name", "step", "parameter", "at", "bias", "level", "drop", "min", "max", "within");
+            List.of("name", "step", "parameter", "at", "bias", "level", "drop", "min", "max", "within", "rule");
 
     /**
      * Check parameters measured at one point, with the unit of their limits: the impedance core's
@@ -121,7 +123,9 @@ final class SequenceReader {
                         Duration.ZERO, null));
         Part part = part(top.required("part"));
         List<StepSpec> specs = steps(top.required("steps"), part, safety);
-        List<CheckLimit> checks = top.optional("checks").map(c -> checks(c, specs, part)).orElse(List.of());
+        DecisionRule defaultRule = top.optional("decision_rule").map(SequenceReader::rule).orElse(DecisionRule.SIMPLE);
+        List<CheckLimit> checks = top.optional("checks").map(c -> checks(c, specs, part, defaultRule))
+                .orElse(List.of());
         List<PlannedStep> steps = PlanExpander.expand(specs);
         if (meterCheck != null) {
             checkMeter(specs, steps, Dialect.load(meterCheck.isEmpty() ? meter.dialect() : meterCheck));
@@ -533,13 +537,24 @@ final class SequenceReader {
 
     // ---- checks ----
 
-    private List<CheckLimit> checks(YamlNode node, List<StepSpec> steps, Part part) {
+    /** A decision rule: {@code simple}, {@code guarded} or {@code probability P}. */
+    private static DecisionRule rule(YamlNode node) {
+        try {
+            return DecisionRule.parse(node.text("a decision rule"));
+        } catch (InvalidInputException e) {
+            throw node.error(e.getMessage());
+        }
+    }
+
+    private List<CheckLimit> checks(YamlNode node, List<StepSpec> steps, Part part, DecisionRule defaultRule) {
         Map<String, StepSpec> byName = new LinkedHashMap<>();
         steps.forEach(s -> byName.put(s.name(), s));
         Map<String, YamlNode> names = new HashMap<>();
         List<CheckLimit> out = new ArrayList<>();
         for (YamlNode item : node.items("a list of checks")) {
-            out.add(check(item, byName, part, names));
+            CheckLimit c = check(item, byName, part, names);
+            YamlNode r = item.map("a check", CHECK_KEYS).values().get("rule");
+            out.add(c.withRule(r == null ? defaultRule : rule(r)));
         }
         return out;
     }

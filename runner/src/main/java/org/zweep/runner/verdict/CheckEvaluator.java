@@ -5,6 +5,8 @@ import java.util.BitSet;
 import java.util.List;
 import org.zweep.driver.impedance.DerivedParameter;
 import org.zweep.driver.impedance.Unit;
+import org.zweep.runner.conformance.Conformance;
+import org.zweep.runner.conformance.Decision;
 import org.zweep.runner.plan.CheckLimit;
 import org.zweep.runner.results.Derived;
 import org.zweep.runner.results.PointRow;
@@ -15,7 +17,8 @@ import org.zweep.runner.results.PointRow;
  *
  * <p>The rules: a check selects the rows of its step whose frequency, bias and level match its
  * selection within {@link #RELATIVE_TOLERANCE} (a selection left open matches any value); a
- * selected row passes when its value lies within the bounds, limits included; a selected row
+ * selected row is decided by the check's decision rule from its value and standard uncertainty
+ * ({@code simple}: passes when its value lies within the bounds, limits included); a selected row
  * without a value (the meter gave none, or the parameter does not apply) fails; a point check that
  * selects no row fails. Each planned point is judged once (a second row of the same point, as left
  * by an interrupted list sweep, is judged but not counted again). Not thread-safe.
@@ -34,6 +37,8 @@ public final class CheckEvaluator {
         int rows;
         int failures;
         int noValue;
+        /** The worst conformance judged so far (null before the first). */
+        Conformance worst;
 
         Tally(CheckLimit limit) {
             this.limit = limit;
@@ -61,6 +66,16 @@ public final class CheckEvaluator {
     }
 
     /**
+     * The decision {@code check}'s rule makes for {@code row}'s value with its standard uncertainty
+     * (unknown when the row has none for the parameter); a row without a value fails.
+     */
+    public static Conformance decide(CheckLimit check, PointRow row) {
+        double v = row.ok() ? row.value(check.parameter()) : Double.NaN;
+        double u = row.ok() ? row.uncertainty().of(check.parameter()) : Double.NaN;
+        return check.rule().decide(v, u, check.min(), check.max());
+    }
+
+    /**
      * Judges {@code row} by every point check that selects it and counts the result (once per
      * planned point).
      *
@@ -70,12 +85,13 @@ public final class CheckEvaluator {
         boolean count = !counted.get(row.point());
         counted.set(row.point());
         String outcome = "";
+        Decision worst = Decision.PASS;
         for (Tally t : tallies) {
             if (t == null || !selects(t.limit, row)) {
                 continue;
             }
             double v = row.ok() ? row.value(t.limit.parameter()) : Double.NaN;
-            boolean ok = passes(t.limit, row);
+            Conformance c = decide(t.limit, row);
             if (count) {
                 t.rows++;
                 if (Double.isNaN(v)) {
@@ -83,14 +99,16 @@ public final class CheckEvaluator {
                 } else {
                     t.values.add(v);
                 }
-                if (!ok) {
+                if (c.decision() != Decision.PASS) {
                     t.failures++;
                 }
+                if (t.worst == null || c.decision().ordinal() > t.worst.decision().ordinal()) {
+                    t.worst = c;
+                }
             }
-            if (!ok) {
-                outcome = "fail";
-            } else if (outcome.isEmpty()) {
-                outcome = "pass";
+            if (outcome.isEmpty() || c.decision().ordinal() > worst.ordinal()) {
+                worst = c.decision();
+                outcome = worst.word();
             }
         }
         return outcome;
@@ -113,9 +131,8 @@ public final class CheckEvaluator {
                     "no measured point selected");
         }
         String note = t.noValue == 0 ? "" : t.noValue + " of " + t.rows + " selected point(s) without a value";
-        return new CheckOutcome(t.limit, t.values, t.noValue,
-                t.failures == 0 ? CheckOutcome.Verdict.PASS : CheckOutcome.Verdict.FAIL, unitOf(t.limit.parameter()),
-                note);
+        return new CheckOutcome(t.limit, t.values, t.noValue, CheckOutcome.of(t.worst.decision()),
+                unitOf(t.limit.parameter()), note, t.worst.expandedU(), t.worst.probability());
     }
 
     private static CheckOutcome sweepOutcome(CheckLimit c, SweepFigures.Figure f) {
@@ -127,8 +144,9 @@ public final class CheckEvaluator {
             return new CheckOutcome(c, List.of(), 1, CheckOutcome.Verdict.FAIL, f.unit(),
                     f.note().isEmpty() ? c.parameter() + " not resolved by the data" : f.note());
         }
-        return new CheckOutcome(c, List.of(f.value()), 0,
-                c.passes(f.value()) ? CheckOutcome.Verdict.PASS : CheckOutcome.Verdict.FAIL, f.unit(), f.note());
+        Conformance d = c.rule().decide(f.value(), f.standardU(), c.min(), c.max());
+        return new CheckOutcome(c, List.of(f.value()), 0, CheckOutcome.of(d.decision()), f.unit(), f.note(),
+                d.expandedU(), d.probability());
     }
 
     /** The unit of a point parameter (or of {@code srf_hz}); {@link Unit#NONE} for one without. */

@@ -13,13 +13,25 @@ import org.zweep.runner.plan.CheckLimit;
  * @param verdict pass, fail, or not evaluated (a whole-sweep figure the run leaves to the analysis)
  * @param unit the unit of the values and limits
  * @param note why it failed or was not evaluated, for people; empty when there is nothing to say
+ * @param expandedU the expanded uncertainty U (k = 2) of the value that decided the outcome (the
+ *     worst-judged one); NaN when unknown
+ * @param probability that value's probability of conformance (JCGM 106:2012, normal model); NaN when unknown
  */
 public record CheckOutcome(CheckLimit limit, List<Double> values, int noValue, Verdict verdict, Unit unit,
-        String note) {
+        String note, double expandedU, double probability) {
 
-    /** How a check ended. */
+    /** Without uncertainty. */
+    public CheckOutcome(CheckLimit limit, List<Double> values, int noValue, Verdict verdict, Unit unit, String note) {
+        this(limit, values, noValue, verdict, unit, note, Double.NaN, Double.NaN);
+    }
+
+    /**
+     * How a check ended, from best to worst: the two conditional outcomes say that the value lies
+     * inside (or outside) the limits but its uncertainty does not prove it (ILAC-G8:09/2019).
+     */
     public enum Verdict {
-        PASS("pass"), FAIL("fail"), NOT_EVALUATED("not evaluated");
+        PASS("pass"), CONDITIONAL_PASS("conditional pass"), CONDITIONAL_FAIL("conditional fail"), FAIL("fail"),
+        NOT_EVALUATED("not evaluated");
 
         private final String word;
 
@@ -37,15 +49,40 @@ public record CheckOutcome(CheckLimit limit, List<Double> values, int noValue, V
         values = List.copyOf(values);
     }
 
+    /** The verdict of a decision. */
+    public static Verdict of(org.zweep.runner.conformance.Decision d) {
+        return switch (d) {
+            case PASS -> Verdict.PASS;
+            case CONDITIONAL_PASS -> Verdict.CONDITIONAL_PASS;
+            case CONDITIONAL_FAIL -> Verdict.CONDITIONAL_FAIL;
+            case FAIL -> Verdict.FAIL;
+        };
+    }
+
     /**
-     * The verdict of a run with these outcomes: {@code none} without checks, {@code fail} when one
-     * failed, {@code pass} otherwise (checks not evaluated do not count).
+     * The verdict of a run with these outcomes: {@code none} without checks, else the worst outcome
+     * of those evaluated ({@code pass}, {@code conditional pass}, {@code conditional fail} or
+     * {@code fail}); {@code pass} when none was evaluated.
      */
     public static String verdictOf(List<CheckOutcome> outcomes) {
         if (outcomes.isEmpty()) {
             return "none";
         }
-        return outcomes.stream().anyMatch(o -> o.verdict() == Verdict.FAIL) ? "fail" : "pass";
+        Verdict worst = Verdict.PASS;
+        for (CheckOutcome o : outcomes) {
+            if (o.verdict() != Verdict.NOT_EVALUATED && o.verdict().ordinal() > worst.ordinal()) {
+                worst = o.verdict();
+            }
+        }
+        return worst.word();
+    }
+
+    /**
+     * Whether a run or analysis verdict counts as failed for the exit code: anything but
+     * {@code pass} and {@code none} (a conditional pass is not a proven pass).
+     */
+    public static boolean failed(String verdict) {
+        return !"pass".equals(verdict) && !"none".equals(verdict);
     }
 
     /** The check's name. */

@@ -18,8 +18,13 @@ public interface SweepFigures {
      * @param value the figure in SI units; NaN when the data do not resolve it
      * @param unit its unit
      * @param note why it is NaN, or how it was found; may be empty
+     * @param standardU its standard uncertainty; NaN when unknown
      */
-    record Figure(double value, Unit unit, String note) {
+    record Figure(double value, Unit unit, String note, double standardU) {
+        /** A figure of unknown uncertainty. */
+        public Figure(double value, Unit unit, String note) {
+            this(value, unit, note, Double.NaN);
+        }
     }
 
     /** The figure {@code check} judges; null when this source does not evaluate it. */

@@ -21,7 +21,25 @@ class PointsCsvTest {
     void headerListsTheRunFolderContractColumnsInOrder() {
         // RUNFOLDER.md column table (the contract with the analysis reader)
         assertEquals("point,step,step_index,repeat,quantity,wiring,frequency_hz,drive,level,bias_mode,bias,r_ohm,x_ohm,"
-                + "z_ohm,theta_deg,cs_f,cp_f,ls_h,lp_h,rs_ohm,rp_ohm,d,q,ratio,status,check,time", PointsCsv.HEADER);
+                + "z_ohm,theta_deg,cs_f,cp_f,ls_h,lp_h,rs_ohm,rp_ohm,d,q,ratio,status,check,time,"
+                + "u_r_ohm,u_x_ohm,r_rx,u_z_ohm,u_theta_deg,u_cs_f,u_cp_f,u_ls_h,u_lp_h,u_rs_ohm,u_rp_ohm,u_d,u_q",
+                PointsCsv.HEADER);
+    }
+
+    @Test
+    void uncertaintiesRoundTripAndTheDerivedOnesAreRecomputed() {
+        org.zweep.driver.impedance.Impedance z = new org.zweep.driver.impedance.Impedance(50, 127.732, 219.847);
+        PointRow r = PointRow.of(new PointRow.Key(1, "s", 0, 0), new PointRow.Conditions("impedance", "none", 50,
+                new PointRow.Source("V", 1.0), new PointRow.Source("V", 0.0)), true, z.resistanceOhm(),
+                z.reactanceOhm(), new org.zweep.driver.uncertainty.UncertainImpedance(z, 0.071, 0.295, -0.588), "",
+                Instant.parse("2024-05-01T10:00:00Z"));
+        PointRow back = PointsCsv.parse(PointsCsv.format(r));
+        assertEquals(r, back);
+        assertEquals(0.236, back.uncertainty().of("z_ohm"), 0.0005); // JCGM 100:2008, H.2, Table H.3: u(|Z|)
+        // a row without a stated accuracy has empty uncertainty cells
+        PointRow none = row(2, "s", 1, -1);
+        assertEquals(RowUncertainty.NONE, PointsCsv.parse(PointsCsv.format(none)).uncertainty());
+        assertEquals(true, PointsCsv.format(none).endsWith(",,,,,,,,,,,,,"));
     }
 
     @Test

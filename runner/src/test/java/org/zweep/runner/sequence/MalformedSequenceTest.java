@@ -51,7 +51,7 @@ class MalformedSequenceTest {
         return Stream.of(
                 Arguments.of("unknown top-level key with a suggestion", HEAD + STEP + "chekcs: []\n",
                         "9:1: unknown key 'chekcs' in the sequence (did you mean 'checks'?); expected one of: format, "
-                                + "name, description, meter, safety, fixture, part, steps, checks"),
+                                + "name, description, meter, safety, fixture, part, steps, checks, decision_rule"),
                 Arguments.of("missing format names the document start", """
                         meter: {bench: b.bench.yaml}
                         """, "1:1: missing key 'format' in the sequence"),
@@ -258,6 +258,14 @@ class MalformedSequenceTest {
                         checks:
                           - {name: c, step: sweep, parameter: d, at: 1 kHz, max: 0.025 V}
                         """, "10:58: \"0.025 V\" has the wrong unit V; expected a number, e.g. 0.01, 1e-3 or 1%"),
+                Arguments.of("check with an unknown decision rule", HEAD + STEP + """
+                        checks:
+                          - {name: c, step: sweep, parameter: d, at: 1 kHz, max: 0.025, rule: strict}
+                        """, "10:71: unknown decision rule \"strict\": use simple, guarded or probability P"
+                                + " (e.g. probability 0.95)"),
+                Arguments.of("sequence decision rule with a probability below one half", HEAD + STEP
+                        + "decision_rule: probability 0.3\n",
+                        "9:16: a minimum probability of conformance must be above 0.5 and below 1, got 0.3"),
                 Arguments.of("check max below min", HEAD + STEP + """
                         checks:
                           - {name: c, step: sweep, parameter: q, at: 1 kHz, min: 50, max: 10}
