@@ -11,8 +11,11 @@ import java.util.List;
 import java.util.Map;
 import java.util.Optional;
 import org.zweep.driver.InvalidInputException;
+import org.zweep.driver.meter.MeasuredQuantity;
+import org.zweep.driver.meter.MeasurementSetting;
 import org.zweep.driver.meter.MeterCapabilities;
 import org.zweep.driver.meter.Range;
+import org.zweep.driver.meter.SourceMode;
 import org.zweep.driver.uncertainty.MeterAccuracy;
 
 /**
@@ -39,12 +42,13 @@ public final class Dialect {
     private final boolean compoundMessages;
     private final boolean appendErrorQuery;
     private final ReplyShape reply;
+    private final MeterTiming timing;
     private final Map<Command, Template> commands;
     private final MeterAccuracy accuracy;
 
     Dialect(String name, String description, String source, MeterCapabilities capabilities, Range averagingCount,
             Range integrationTimeS, Range impedanceRangeOhm, boolean compoundMessages, boolean appendErrorQuery,
-            ReplyShape reply, Map<Command, Template> commands, MeterAccuracy accuracy) {
+            ReplyShape reply, MeterTiming timing, Map<Command, Template> commands, MeterAccuracy accuracy) {
         this.name = name;
         this.description = description;
         this.source = source;
@@ -55,6 +59,7 @@ public final class Dialect {
         this.compoundMessages = compoundMessages;
         this.appendErrorQuery = appendErrorQuery;
         this.reply = reply;
+        this.timing = timing;
         this.commands = new EnumMap<>(commands);
         this.accuracy = accuracy;
     }
@@ -75,6 +80,11 @@ public final class Dialect {
      */
     public static boolean isPath(String nameOrPath) {
         return nameOrPath.contains("/") || nameOrPath.contains("\\") || nameOrPath.endsWith(".dialect");
+    }
+
+    /** How long the meter works on what it is asked (the {@code [timing]} section, or its defaults). */
+    public MeterTiming timing() {
+        return timing;
     }
 
     /** The names of the dialects shipped with zweep, in the order they are documented. */
@@ -196,5 +206,78 @@ public final class Dialect {
     @Override
     public String toString() {
         return "dialect " + name + " (" + source + ")";
+    }
+
+    /**
+     * Why this dialect's meter cannot do {@code s}: which part of the setting ({@code quantity},
+     * {@code frequency}, {@code level}, {@code bias}, {@code averaging}, {@code integration},
+     * {@code range}) and a one-line message naming the value and the limit.
+     *
+     * @param setting the part of the setting refused
+     * @param message what is wrong, e.g. {@code frequency 1E7 Hz is above the maximum 5000000 Hz of ...}
+     */
+    public record Refusal(String setting, String message) {
+    }
+
+    /** The first reason this dialect's meter cannot do {@code s}, or empty when it can. */
+    public Optional<Refusal> refusal(MeasurementSetting s) {
+        MeterCapabilities caps = capabilities;
+        if (s.quantity() == MeasuredQuantity.VOLTAGE_RATIO && !caps.voltageRatio()) {
+            return Optional.of(new Refusal("quantity", "quantity: " + meterName() + " cannot measure a voltage ratio"));
+        }
+        Optional<Refusal> r = within("frequency", "frequency", s.frequencyHz(), caps.frequencyHz(), "Hz");
+        if (r.isEmpty()) {
+            r = s.drive().mode() == SourceMode.VOLTAGE
+                    ? supported("level", "voltage drive", Command.DRIVE_VOLTAGE)
+                            .or(() -> within("level", "drive level", s.drive().levelRms(), caps.voltageLevelVrms(),
+                                    "V rms"))
+                    : supported("level", "current drive", Command.DRIVE_CURRENT)
+                            .or(() -> within("level", "drive level", s.drive().levelRms(), caps.currentLevelArms(),
+                                    "A rms"));
+        }
+        if (r.isEmpty() && s.bias().on()) {
+            r = s.bias().mode() == SourceMode.VOLTAGE
+                    ? supported("bias", "voltage bias", Command.BIAS_VOLTAGE)
+                            .or(() -> within("bias", "DC bias", s.bias().value(), caps.biasVoltageV(), "V"))
+                    : supported("bias", "current bias", Command.BIAS_CURRENT)
+                            .or(() -> within("bias", "DC bias", s.bias().value(), caps.biasCurrentA(), "A"));
+        }
+        return r.or(() -> within("averaging", "averaging count", s.averagingCount(), averagingCount, ""))
+                .or(() -> within("integration", "integration time", s.integrationTimeS(), integrationTimeS, "s"))
+                .or(() -> s.range().auto() ? Optional.empty()
+                        : supported("range", "held impedance range", Command.RANGE_HOLD)
+                                .or(() -> within("range", "impedance range", s.range().upperOhm(),
+                                        impedanceRangeOhm, "ohm")));
+    }
+
+    private Optional<Refusal> supported(String key, String what, Command c) {
+        return has(c) ? Optional.empty() : Optional.of(new Refusal(key, what + ": " + meterName() + " cannot set it"));
+    }
+
+    private Optional<Refusal> within(String key, String setting, double value, Range r, String unit) {
+        String u = unit.isEmpty() ? "" : " " + unit;
+        if (Double.isNaN(value)) {
+            return Optional.of(new Refusal(key, setting + " is not a number"));
+        }
+        if (value < r.min()) {
+            return Optional.of(new Refusal(key, setting + " " + plain(value) + u + " is below the minimum "
+                    + plain(r.min()) + u + " of " + meterName()));
+        }
+        if (value > r.max()) {
+            return Optional.of(new Refusal(key, setting + " " + plain(value) + u + " is above the maximum "
+                    + plain(r.max()) + u + " of " + meterName()));
+        }
+        return Optional.empty();
+    }
+
+    private String meterName() {
+        return "the meter (dialect " + name + ")";
+    }
+
+    private static String plain(double v) {
+        if (!Double.isFinite(v)) {
+            return Double.toString(v);
+        }
+        return new java.math.BigDecimal(Double.toString(v)).stripTrailingZeros().toPlainString();
     }
 }

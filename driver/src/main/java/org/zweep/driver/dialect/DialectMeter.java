@@ -4,6 +4,7 @@ import java.math.BigDecimal;
 import java.nio.ByteBuffer;
 import java.nio.ByteOrder;
 import java.time.Clock;
+import java.time.Duration;
 import java.time.Instant;
 import java.util.ArrayList;
 import java.util.Arrays;
@@ -32,6 +33,7 @@ import org.zweep.driver.scpi.ScpiError;
 import org.zweep.driver.scpi.ScpiProtocolException;
 import org.zweep.driver.scpi.ScpiSession;
 import org.zweep.driver.scpi.ScpiValues;
+import org.zweep.driver.transport.MeterTimeoutException;
 
 /**
  * A {@link Meter} driven entirely by a {@link Dialect} over one {@link ScpiSession}.
@@ -42,6 +44,9 @@ import org.zweep.driver.scpi.ScpiValues;
  * configuration round trip, one trigger and one read. Every setting is checked against the
  * dialect's capabilities before anything is sent ({@link InvalidInputException} naming the setting
  * and the limit); errors the meter reports raise {@link MeterErrorException} with every entry.
+ *
+ * <p>Deadlines: a measurement, a sweep or a correction standard is awaited for the time the
+ * dialect's {@link MeterTiming} expects plus the session's slack; a timeout names the exchange.
  *
  * <p>Not thread-safe: one thread drives a meter at a time. After any failure the remembered state
  * is forgotten, so the next {@link #apply} sends every setting again.
@@ -56,6 +61,8 @@ public final class DialectMeter implements Meter {
     private final Clock clock;
     private KnownState known = new KnownState();
     private MeasurementSetting current;
+    /** The setting of the point this object last had measured (for the timing model), or null. */
+    private MeasurementSetting lastMeasured;
     private boolean resync;
     private boolean setupDone;
     private boolean closed;
@@ -111,6 +118,7 @@ public final class DialectMeter implements Meter {
         known = new KnownState();
         setupDone = false;
         current = null;
+        lastMeasured = null;
         resync = false;
         send(List.of(render(Command.RESET)), "resetting");
     }
@@ -185,7 +193,8 @@ public final class DialectMeter implements Meter {
             apply(current);
         }
         String what = "measuring at " + describe(current);
-        double[] values = measured(Command.MEASURE, 1, what);
+        double[] values = measured(Command.MEASURE, 1, dialect.timing().pointS(current, lastMeasured), what);
+        lastMeasured = current;
         return reading(current, values, 0, clock.instant());
     }
 
@@ -231,8 +240,12 @@ public final class DialectMeter implements Meter {
             case SHORT -> Command.CORRECTION_SHORT;
             case LOAD -> Command.CORRECTION_LOAD;
         };
-        send(List.of(render(c)), "acquiring the " + standard + " correction");
+        MeasurementSetting at = current != null ? current : MeasurementSetting.at(dialect.capabilities().frequencyHz().min());
+        send(List.of(render(c)), dialect.timing().correctionS(at, dialect.capabilities().frequencyHz()),
+                "acquiring the " + standard + " correction");
+        lastMeasured = null;
     }
+
 
     @Override
     public void setLoadStandard(Impedance known) {
@@ -357,8 +370,11 @@ public final class DialectMeter implements Meter {
         configure(chunk.get(0), chunk, "setting up a list sweep of " + chunk.size() + " points");
         current = chunk.get(chunk.size() - 1);
         resync = true;
-        String what = "sweeping " + chunk.size() + " points";
-        double[] values = measured(Command.LIST_MEASURE, chunk.size(), what);
+        String what = "sweeping " + chunk.size() + " points from " + describe(chunk.get(0)) + " to "
+                + describe(chunk.get(chunk.size() - 1));
+        double[] values = measured(Command.LIST_MEASURE, chunk.size(), dialect.timing().sweepS(chunk, lastMeasured),
+                what);
+        lastMeasured = chunk.get(chunk.size() - 1);
         Instant t = clock.instant();
         List<Reading> readings = new ArrayList<>(chunk.size());
         for (int i = 0; i < chunk.size(); i++) {
@@ -525,6 +541,11 @@ public final class DialectMeter implements Meter {
      * for no units. On any failure the remembered state is forgotten.
      */
     private void send(List<String> units, String what) {
+        send(units, 0.0, what);
+    }
+
+    /** As {@link #send(List, String)}, for a message the meter works on for {@code expectedS} seconds. */
+    private void send(List<String> units, double expectedS, String what) {
         if (units.isEmpty()) {
             return;
         }
@@ -535,34 +556,56 @@ public final class DialectMeter implements Meter {
             }
             String last = messages.get(messages.size() - 1);
             Optional<Template> errorQuery = dialect.command(Command.ERROR_QUERY);
+            Duration work = seconds(expectedS);
             if (dialect.appendErrorQuery()) {
-                ScpiError first = parseError(session.query(last + ";" + errorQuery.orElseThrow().render()), what);
+                ScpiError first = parseError(session.query(last + ";" + errorQuery.orElseThrow().render(), work),
+                        what);
                 if (first.code() != 0) {
                     throw errors(first, what);
                 }
             } else {
                 session.write(last);
                 if (errorQuery.isPresent()) {
-                    List<ScpiError> errors = readErrors(new ArrayList<>(), what);
+                    List<ScpiError> errors = readErrors(new ArrayList<>(), work, what);
                     if (!errors.isEmpty()) {
                         throw errors(errors, what);
                     }
                 } else {
-                    dialect.command(Command.SYNC).ifPresent(t -> session.query(t.render()));
+                    dialect.command(Command.SYNC).ifPresent(t -> session.query(t.render(), work));
                 }
             }
+        } catch (MeterTimeoutException e) {
+            known = new KnownState();
+            resync = current != null;
+            lastMeasured = null;
+            throw named(e, what);
         } catch (RuntimeException e) {
             known = new KnownState();
             resync = current != null;
+            lastMeasured = null;
             throw e;
         }
     }
 
+    /** {@code e} with the exchange it happened in named. */
+    private static MeterTimeoutException named(MeterTimeoutException e, String what) {
+        return new MeterTimeoutException(e.getMessage() + " while " + what, e.received());
+    }
+
+    private static Duration seconds(double s) {
+        return s > 0 ? Duration.ofNanos((long) Math.ceil(s * 1e9)) : Duration.ZERO;
+    }
+
     /** Reads the error query until it answers 0, after the entries already in {@code errors}. */
     private List<ScpiError> readErrors(List<ScpiError> errors, String what) {
+        return readErrors(errors, Duration.ZERO, what);
+    }
+
+    /** As {@link #readErrors(List, String)}, the first answer awaited after {@code work} of the meter's. */
+    private List<ScpiError> readErrors(List<ScpiError> errors, Duration work, String what) {
         String query = render(Command.ERROR_QUERY);
         for (int i = 0; i < MAX_ERROR_ENTRIES; i++) {
-            ScpiError e = parseError(session.query(query), what);
+            ScpiError e = parseError(session.query(query, i == 0 ? work : Duration.ZERO), what);
             if (e.code() == 0) {
                 break;
             }
@@ -627,19 +670,19 @@ public final class DialectMeter implements Meter {
      *
      * @throws ScpiProtocolException when no two of the reads agree
      */
-    private double[] measured(Command command, int points, String what) {
+    private double[] measured(Command command, int points, double expectedS, String what) {
         if (!dialect.has(Command.MEASURE_AGAIN)) {
-            return readValues(command, points, what);
+            return readValues(command, points, expectedS, what, false)[0];
         }
         List<double[]> seen = new ArrayList<>();
         if (dialect.compoundMessages() && dialect.reply().encoding() == ReplyShape.Encoding.ASCII) {
-            double[][] both = readValues(command, points, what, true);
+            double[][] both = readValues(command, points, expectedS, what, true);
             if (Arrays.equals(both[0], both[1])) {
                 return both[0];
             }
             seen.addAll(List.of(both));
         } else {
-            seen.add(readValues(command, points, what));
+            seen.add(readValues(command, points, expectedS, what, false)[0]);
         }
         for (int i = 0; i < MAX_READS_AGAIN; i++) {
             double[] again = readValues(Command.MEASURE_AGAIN, points, what + " (reading the result again)");
@@ -673,17 +716,27 @@ public final class DialectMeter implements Meter {
         return differ * 3 <= NO_ERROR.length();
     }
 
-    /** Sends {@code command} (a query) and returns {@code points} points' worth of numbers. */
+    /** Sends {@code command} (a query, no work for the meter) and returns {@code points} points' worth of numbers. */
     private double[] readValues(Command command, int points, String what) {
-        return readValues(command, points, what, false)[0];
+        return readValues(command, points, 0.0, what, false)[0];
     }
 
     /**
-     * Sends {@code command} (a query) and returns {@code points} points' worth of numbers; with
-     * {@code twice}, {@code measure-again} joins the same message (ASCII replies only) and both
-     * results are returned.
+     * Sends {@code command} (a query the meter works on for about {@code expectedS} seconds) and
+     * returns {@code points} points' worth of numbers; with {@code twice}, {@code measure-again}
+     * joins the same message (ASCII replies only) and both results are returned. A timeout names
+     * the exchange ({@code what}).
      */
-    private double[][] readValues(Command command, int points, String what, boolean twice) {
+    private double[][] readValues(Command command, int points, double expectedS, String what, boolean twice) {
+        try {
+            return readValuesTimed(command, points, seconds(expectedS), what, twice);
+        } catch (MeterTimeoutException e) {
+            lastMeasured = null;
+            throw named(e, what);
+        }
+    }
+
+    private double[][] readValuesTimed(Command command, int points, Duration work, String what, boolean twice) {
         String query = twice ? render(command) + ";" + render(Command.MEASURE_AGAIN) : render(command);
         ReplyShape shape = dialect.reply();
         int expected = points * shape.fields().size();
@@ -691,7 +744,7 @@ public final class DialectMeter implements Meter {
         String shown;
         if (shape.encoding() == ReplyShape.Encoding.ASCII) {
             boolean append = dialect.appendErrorQuery();
-            String reply = session.query(append ? query + ";" + render(Command.ERROR_QUERY) : query);
+            String reply = session.query(append ? query + ";" + render(Command.ERROR_QUERY) : query, work);
             List<String> units = splitOutsideQuotes(reply, ';');
             if (append) {
                 ScpiError error = parseError(units.remove(units.size() - 1), what);
@@ -714,7 +767,7 @@ public final class DialectMeter implements Meter {
                 results = new double[][] {parseNumbers(data, what)};
             }
         } else {
-            byte[] block = session.queryBlock(query);
+            byte[] block = session.queryBlock(query, work);
             if (block.length % Double.BYTES != 0) {
                 throw new ScpiProtocolException(session.address() + ": a REAL,64 block of " + block.length
                         + " bytes is not a whole number of doubles while " + what);
@@ -789,52 +842,9 @@ public final class DialectMeter implements Meter {
     // ---- validation ---------------------------------------------------------------------------
 
     private void validate(MeasurementSetting s) {
-        MeterCapabilities caps = dialect.capabilities();
-        if (s.quantity() == MeasuredQuantity.VOLTAGE_RATIO && !caps.voltageRatio()) {
-            throw new InvalidInputException("quantity: " + meterName() + " cannot measure a voltage ratio");
-        }
-        within("frequency", s.frequencyHz(), caps.frequencyHz(), "Hz");
-        if (s.drive().mode() == SourceMode.VOLTAGE) {
-            supported("voltage drive", Command.DRIVE_VOLTAGE);
-            within("drive level", s.drive().levelRms(), caps.voltageLevelVrms(), "V rms");
-        } else {
-            supported("current drive", Command.DRIVE_CURRENT);
-            within("drive level", s.drive().levelRms(), caps.currentLevelArms(), "A rms");
-        }
-        if (s.bias().on() && s.bias().mode() == SourceMode.VOLTAGE) {
-            supported("voltage bias", Command.BIAS_VOLTAGE);
-            within("DC bias", s.bias().value(), caps.biasVoltageV(), "V");
-        } else if (s.bias().on()) {
-            supported("current bias", Command.BIAS_CURRENT);
-            within("DC bias", s.bias().value(), caps.biasCurrentA(), "A");
-        }
-        within("averaging count", s.averagingCount(), dialect.averagingCount(), "");
-        within("integration time", s.integrationTimeS(), dialect.integrationTimeS(), "s");
-        if (!s.range().auto()) {
-            supported("held impedance range", Command.RANGE_HOLD);
-            within("impedance range", s.range().upperOhm(), dialect.impedanceRangeOhm(), "ohm");
-        }
-    }
-
-    private void supported(String what, Command c) {
-        if (!dialect.has(c)) {
-            throw new InvalidInputException(what + ": " + meterName() + " cannot set it");
-        }
-    }
-
-    private void within(String setting, double value, Range r, String unit) {
-        String u = unit.isEmpty() ? "" : " " + unit;
-        if (Double.isNaN(value)) {
-            throw new InvalidInputException(setting + " is not a number");
-        }
-        if (value < r.min()) {
-            throw new InvalidInputException(setting + " " + plain(value) + u + " is below the minimum " + plain(r.min())
-                    + u + " of " + meterName());
-        }
-        if (value > r.max()) {
-            throw new InvalidInputException(setting + " " + plain(value) + u + " is above the maximum " + plain(r.max())
-                    + u + " of " + meterName());
-        }
+        dialect.refusal(s).ifPresent(r -> {
+            throw new InvalidInputException(r.message());
+        });
     }
 
     private String meterName() {

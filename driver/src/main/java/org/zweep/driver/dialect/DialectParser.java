@@ -17,7 +17,8 @@ import org.zweep.driver.uncertainty.MeterAccuracy;
 /** Reads the text of one dialect file and checks it; every problem names {@code source:line:column}. */
 final class DialectParser {
     private static final String HEADER = "zweep-dialect 1";
-    private static final List<String> SECTIONS = List.of("meter", "capabilities", "reply", "commands", "accuracy");
+    private static final List<String> SECTIONS = List.of("meter", "capabilities", "reply", "timing", "commands",
+            "accuracy");
     private static final Pattern KEY = Pattern.compile("[a-z][a-z0-9-]*");
     private static final Pattern NAME = Pattern.compile("[a-z0-9][a-z0-9-]*");
     private static final Range NONE = new Range(0, 0);
@@ -78,6 +79,7 @@ final class DialectParser {
         }
 
         ReplyShape reply = reply(sections.getOrDefault("reply", Map.of()));
+        MeterTiming timing = timing(sections.getOrDefault("timing", Map.of()));
         Map<Command, Template> commands = commands(sections.get("commands"), compound);
 
         requireFor(commands, caps.get("frequency"), Command.FREQUENCY);
@@ -150,7 +152,7 @@ final class DialectParser {
                 listPoints, corrections, ratio);
         MeterAccuracy accuracy = sections.containsKey("accuracy") ? accuracy(sections.get("accuracy")) : null;
         return new Dialect(nameEntry.value, description == null ? "" : description.value, source, capabilities,
-                averaging, integration, impedanceRange, compound, append, reply, commands, accuracy);
+                averaging, integration, impedanceRange, compound, append, reply, timing, commands, accuracy);
     }
 
     private static Command correctionCommand(CorrectionStandard s) {
@@ -257,7 +259,8 @@ final class DialectParser {
             "capabilities", Set.of("frequency", "voltage-level", "current-level", "bias-voltage", "bias-current",
                     "averaging", "integration-time", "impedance-range", "list-points", "corrections",
                     "voltage-ratio", "compound-messages", "append-error-query"),
-            "reply", Set.of("encoding", "fields"));
+            "reply", Set.of("encoding", "fields"),
+            "timing", Set.of("point-overhead", "min-periods", "bias-settle", "range-change", "correction-grid"));
 
     private void rejectUnknownKeys() {
         for (Map.Entry<String, Map<String, Entry>> s : sections.entrySet()) {
@@ -307,6 +310,53 @@ final class DialectParser {
             throw fail(e.line, column(e, spans, 0), e.key + " must be positive, found " + token(e, spans, 0));
         }
         return new Range(min, max);
+    }
+
+    /** The {@code [timing]} section; a missing key takes {@link MeterTiming#DEFAULT}'s value. */
+    private MeterTiming timing(Map<String, Entry> section) {
+        MeterTiming d = MeterTiming.DEFAULT;
+        double overhead = section.containsKey("point-overhead") ? seconds(section.get("point-overhead"))
+                : d.pointOverheadS();
+        double periods = d.minPeriods();
+        if (section.containsKey("min-periods")) {
+            Entry e = section.get("min-periods");
+            List<int[]> spans = tokens(e.value);
+            if (spans.size() != 1) {
+                throw fail(e.line, e.valueColumn, "expected one number for 'min-periods'");
+            }
+            periods = number(e, spans, 0);
+            if (periods < 0) {
+                throw fail(e.line, e.valueColumn, "min-periods must be 0 or more, found " + token(e, spans, 0));
+            }
+        }
+        double settle = section.containsKey("bias-settle") ? seconds(section.get("bias-settle")) : d.biasSettleS();
+        double range = section.containsKey("range-change") ? seconds(section.get("range-change")) : d.rangeChangeS();
+        int grid = d.correctionPointsPerDecade();
+        if (section.containsKey("correction-grid")) {
+            Entry e = section.get("correction-grid");
+            List<int[]> spans = tokens(e.value);
+            if (spans.size() != 3 || !token(e, spans, 1).equals("per") || !token(e, spans, 2).equals("decade")) {
+                throw fail(e.line, e.valueColumn, "expected 'correction-grid = N per decade'");
+            }
+            grid = integer(e, spans, 0);
+            if (grid < 1) {
+                throw fail(e.line, e.valueColumn, "correction-grid must be 1 or more points per decade, found " + grid);
+            }
+        }
+        return new MeterTiming(overhead, periods, settle, range, grid);
+    }
+
+    /** {@code N s}: a plain decimal number of seconds, not negative. */
+    private double seconds(Entry e) {
+        List<int[]> spans = tokens(e.value);
+        if (spans.size() != 2 || !token(e, spans, 1).equals("s")) {
+            throw fail(e.line, e.valueColumn, "expected '" + e.key + " = SECONDS s'");
+        }
+        double v = number(e, spans, 0);
+        if (v < 0) {
+            throw fail(e.line, e.valueColumn, e.key + " must be 0 s or more, found " + token(e, spans, 0));
+        }
+        return v;
     }
 
     private Range countRange(Entry e) {

@@ -22,12 +22,14 @@ import org.zweep.driver.transport.Transports;
  * {@code *OPC?} synchronisation.
  *
  * <p>Open one with {@link #open(String, ScpiSettings)}. Every method blocks until the meter has
- * answered or the read timeout ({@link ScpiSettings#readTimeout()}: the longest wait for a reply to
- * start and for each pause within it) has passed. Failures are typed: {@link ConnectFailedException}
+ * answered or its reply's deadline has passed: the meter's expected work for that query (none,
+ * unless given with {@link #query(String, Duration)}) plus the slack {@link ScpiSettings#readTimeout()},
+ * counted once per reply from when the query was sent, however the bytes trickle in. Failures are typed: {@link ConnectFailedException}
  * and {@link ConnectionLostException} (the link), {@link MeterTimeoutException} (keeps the bytes
  * received), {@link ScpiProtocolException} (a reply that breaks the rules), {@link MeterErrorException}
  * (the meter's error queue). After a timeout or a broken reply the client resynchronises before the
- * next command ({@link ScpiSettings#resync()}), so a late reply is never returned for a new query.
+ * next command ({@link ScpiSettings#resync()}), so a late reply is never returned for a new query;
+ * while resynchronising, each reply line may take twice the slack (the late reply comes first).
  * After a lost connection every call fails at once; reconnecting is the caller's decision.
  *
  * <p>Bytes are read and written as ISO-8859-1 (SCPI messages are 7-bit ASCII). A message written
@@ -43,6 +45,10 @@ public final class ScpiClient implements ScpiSession {
     private static final int MAX_RESYNC_LINES = 1000;
     private static final int DRAIN_LIMIT_TIMEOUTS = 10;
     private static final String RESYNC = "*OPC? (resynchronising after an earlier failure)";
+    /** Below this expected work, a reply that never starts may well be a terminator mismatch. */
+    static final long SHORT_WORK_MILLIS = 1000;
+    /** How many slacks one reply line may take while resynchronising after a timeout. */
+    static final int RESYNC_SLACKS = 2;
 
     private final Transport transport;
     private final ScpiSettings settings;
@@ -138,14 +144,19 @@ public final class ScpiClient implements ScpiSession {
 
     @Override
     public String query(String message) {
-        return query(message, settings.readTimeout());
+        return query(message, Duration.ZERO);
     }
 
-    /** {@link #query(String)} with another read timeout for this one reply (e.g. a slow measurement). */
-    public String query(String message, Duration timeout) {
+    /**
+     * {@link #query(String)} for a query the meter works on for about {@code expectedWork} (a
+     * measurement, a sweep): the reply must be complete within {@code expectedWork} plus the read
+     * timeout (the slack) after the query was sent.
+     */
+    @Override
+    public String query(String message, Duration expectedWork) {
         lock.lock();
         try {
-            return queryUnlocked(message, millis(timeout));
+            return queryUnlocked(message, work(expectedWork));
         } finally {
             lock.unlock();
         }
@@ -194,18 +205,19 @@ public final class ScpiClient implements ScpiSession {
         try {
             begin();
             send(message);
-            int first = nextByte(message, readTimeoutMillis, 0);
+            Deadline d = deadline(0);
+            int first = nextByte(message, d, 0);
             if (first != '#') {
                 pos -= 1;
-                return Arrays.copyOf(line, readLine(message, readTimeoutMillis));
+                return Arrays.copyOf(line, readLine(message, d));
             }
             line[0] = '#';
-            int digit = nextByte(message, readTimeoutMillis, 1);
+            int digit = nextByte(message, d, 1);
             pos -= 1;
             if (digit >= '1' && digit <= '9') {
-                return readDefiniteBlock(message, readTimeoutMillis, true);
+                return readDefiniteBlock(message, d, true);
             }
-            return Arrays.copyOf(line, readLine(message, readTimeoutMillis, 1));
+            return Arrays.copyOf(line, readLine(message, d, 1));
         } finally {
             lock.unlock();
         }
@@ -277,11 +289,16 @@ public final class ScpiClient implements ScpiSession {
 
     @Override
     public byte[] queryBlock(String message) {
+        return queryBlock(message, Duration.ZERO);
+    }
+
+    @Override
+    public byte[] queryBlock(String message, Duration expectedWork) {
         lock.lock();
         try {
             begin();
             send(message);
-            return readBlock(message, readTimeoutMillis);
+            return readBlock(message, deadline(work(expectedWork)));
         } finally {
             lock.unlock();
         }
@@ -314,7 +331,7 @@ public final class ScpiClient implements ScpiSession {
         try {
             List<ScpiError> errors = new ArrayList<>();
             for (int i = 0; i < MAX_ERROR_ENTRIES; i++) {
-                String reply = queryUnlocked(settings.errorQuery(), readTimeoutMillis);
+                String reply = queryUnlocked(settings.errorQuery(), 0);
                 ScpiError e;
                 try {
                     e = ScpiValues.parseError(reply);
@@ -359,7 +376,16 @@ public final class ScpiClient implements ScpiSession {
      * @throws MeterTimeoutException if the operations did not finish in time
      */
     public void waitForCompletion(Duration timeout) {
-        String reply = query("*OPC?", timeout).strip();
+        String reply;
+        lock.lock();
+        try {
+            begin();
+            send("*OPC?");
+            reply = new String(line, 0, readLine("*OPC?", new Deadline(System.nanoTime() + millis(timeout) * 1_000_000L,
+                    0, millis(timeout))), StandardCharsets.ISO_8859_1).strip();
+        } finally {
+            lock.unlock();
+        }
         if (!reply.equals("1") && !reply.equals("+1")) {
             throw new ScpiProtocolException(address() + ": '*OPC?' answered '" + reply + "' instead of 1");
         }
@@ -381,11 +407,33 @@ public final class ScpiClient implements ScpiSession {
 
     // ---- the conversation, called with the lock held ----
 
-    private String queryUnlocked(String message, long timeoutMillis) {
+    private String queryUnlocked(String message, long expectedMillis) {
         begin();
         send(message);
-        int n = readLine(message, timeoutMillis);
+        int n = readLine(message, deadline(expectedMillis));
         return new String(line, 0, n, StandardCharsets.ISO_8859_1);
+    }
+
+    /**
+     * When a reply must be complete: {@code expectedMillis} of the meter's work plus
+     * {@code slackMillis}, counted from when the query was sent.
+     */
+    private record Deadline(long atNanos, long expectedMillis, long slackMillis) {
+        long totalMillis() {
+            return expectedMillis + slackMillis;
+        }
+
+        /** Milliseconds left, rounded up; 0 when the deadline has passed. */
+        long remainingMillis() {
+            long r = atNanos - System.nanoTime();
+            return r <= 0 ? 0 : (r + 999_999) / 1_000_000;
+        }
+    }
+
+    /** The deadline of a reply to a query just sent, which the meter works on for {@code expectedMillis}. */
+    private Deadline deadline(long expectedMillis) {
+        return new Deadline(System.nanoTime() + (expectedMillis + readTimeoutMillis) * 1_000_000L, expectedMillis,
+                readTimeoutMillis);
     }
 
     private void begin() {
@@ -431,7 +479,10 @@ public final class ScpiClient implements ScpiSession {
         if (settings.resync() == Resync.OPC) {
             send("*OPC?");
             for (int i = 0; i < MAX_RESYNC_LINES; i++) {
-                int len = readLine(RESYNC, readTimeoutMillis);
+                // the answer queues behind whatever late reply the meter still owes, which arrives
+                // later than the slack by definition: recovery waits twice the slack per line
+                int len = readLine(RESYNC, new Deadline(System.nanoTime() + RESYNC_SLACKS * readTimeoutMillis
+                        * 1_000_000L, 0, RESYNC_SLACKS * readTimeoutMillis));
                 if (len == 1 && line[0] == '1') {
                     outOfStep = false;
                     return;
@@ -444,19 +495,19 @@ public final class ScpiClient implements ScpiSession {
     }
 
     /** Reads one response message into {@link #line}; returns its length without the terminator. */
-    private int readLine(String message, long timeoutMillis) {
-        return readLine(message, timeoutMillis, 0);
+    private int readLine(String message, Deadline d) {
+        return readLine(message, d, 0);
     }
 
-    /** As {@link #readLine(String, long)}, with {@code line[0, start)} already received. */
-    private int readLine(String message, long timeoutMillis, int start) {
+    /** As {@link #readLine(String, Deadline)}, with {@code line[0, start)} already received. */
+    private int readLine(String message, Deadline d, int start) {
         byte[] term = readTerminator;
         int tl = term.length;
         byte last = term[tl - 1];
         int len = start;
         while (true) {
             if (pos == lim) {
-                fill(message, timeoutMillis, len);
+                fill(message, d, len);
             }
             int i = pos;
             int end = lim;
@@ -496,29 +547,29 @@ public final class ScpiClient implements ScpiSession {
     }
 
     /** Reads an arbitrary block (the header byte '#' not yet consumed) and its terminator. */
-    private byte[] readBlock(String message, long timeoutMillis) {
-        int first = nextByte(message, timeoutMillis, 0);
+    private byte[] readBlock(String message, Deadline d) {
+        int first = nextByte(message, d, 0);
         if (first != '#') {
             pos -= 1;
-            int n = readLine(message, timeoutMillis);
+            int n = readLine(message, d);
             throw new ScpiProtocolException(address() + ": the reply to '" + message
                     + "' is not an arbitrary block (#...): '" + ScpiValues.escape(line, 0, n, 80) + "'");
         }
         line[0] = '#';
-        int digit = nextByte(message, timeoutMillis, 1);
+        int digit = nextByte(message, d, 1);
         if (digit == '0') {
-            return Arrays.copyOf(line, readLine(message, timeoutMillis));
+            return Arrays.copyOf(line, readLine(message, d));
         }
         pos -= 1;
-        return readDefiniteBlock(message, timeoutMillis, false);
+        return readDefiniteBlock(message, d, false);
     }
 
     /**
      * Reads {@code <n><len><payload>} and the terminator after it (the '#' consumed and stored in
      * {@code line[0]}); returns the payload, or with {@code withHeader} header and payload.
      */
-    private byte[] readDefiniteBlock(String message, long timeoutMillis, boolean withHeader) {
-        int digit = nextByte(message, timeoutMillis, 1);
+    private byte[] readDefiniteBlock(String message, Deadline d, boolean withHeader) {
+        int digit = nextByte(message, d, 1);
         line[1] = (byte) digit;
         if (digit < '1' || digit > '9') {
             outOfStep = true;
@@ -528,7 +579,7 @@ public final class ScpiClient implements ScpiSession {
         int digits = digit - '0';
         long length = 0;
         for (int k = 0; k < digits; k++) {
-            int c = nextByte(message, timeoutMillis, 2 + k);
+            int c = nextByte(message, d, 2 + k);
             line[2 + k] = (byte) c;
             if (c < '0' || c > '9') {
                 outOfStep = true;
@@ -549,16 +600,18 @@ public final class ScpiClient implements ScpiSession {
         System.arraycopy(buf, pos, data, header, got);
         pos += got;
         while (got < length) {
-            int n = read(data, header + got, (int) length - got, timeoutMillis, message, got);
+            long left = d.remainingMillis();
+            int n = left == 0 ? 0 : read(data, header + got, (int) length - got, left, message, got);
             if (n == 0) {
                 outOfStep = true;
+                event("deadline passed after " + d.totalMillis() + " ms in the block replying to '" + message + "'");
                 throw new MeterTimeoutException(address() + ": the block replying to '" + message
-                        + "' stopped after " + got + " of " + length + " bytes (no more within " + timeoutMillis
-                        + " ms)", Arrays.copyOfRange(data, header, header + got));
+                        + "' stopped after " + got + " of " + length + " bytes (" + waited(d) + ")",
+                        Arrays.copyOfRange(data, header, header + got));
             }
             got += n;
         }
-        int trailing = readLine(message, timeoutMillis);
+        int trailing = readLine(message, d);
         if (trailing != 0) {
             throw new ScpiProtocolException(address() + ": " + trailing + " unexpected bytes after the "
                     + length + "-byte block replying to '" + message + "': '"
@@ -567,32 +620,56 @@ public final class ScpiClient implements ScpiSession {
         return data;
     }
 
-    private int nextByte(String message, long timeoutMillis, int receivedSoFar) {
+    private int nextByte(String message, Deadline d, int receivedSoFar) {
         if (pos == lim) {
-            fill(message, timeoutMillis, receivedSoFar);
+            fill(message, d, receivedSoFar);
         }
         return buf[pos++] & 0xff;
     }
 
     /** Refills the receive buffer; {@code line[0, receivedSoFar)} is what this reply brought so far. */
-    private void fill(String message, long timeoutMillis, int receivedSoFar) {
-        int n = read(buf, 0, buf.length, timeoutMillis, message, receivedSoFar);
+    private void fill(String message, Deadline d, int receivedSoFar) {
+        long left = d.remainingMillis();
+        int n = left == 0 ? 0 : read(buf, 0, buf.length, left, message, receivedSoFar);
         if (n == 0) {
             outOfStep = true;
             byte[] got = Arrays.copyOf(line, receivedSoFar);
-            event("timeout after " + timeoutMillis + " ms waiting for the reply to '" + message + "'");
+            event("deadline passed after " + d.totalMillis() + " ms waiting for the reply to '" + message + "'");
             if (receivedSoFar == 0) {
-                throw new MeterTimeoutException(address() + ": no reply to '" + message + "' within " + timeoutMillis
-                        + " ms (nothing received: is it a query, and does the meter use the terminators set here,"
-                        + " write " + show(writeTerminator) + ", read " + show(readTerminator) + "?)", got);
+                String hint = d.expectedMillis() < SHORT_WORK_MILLIS
+                        ? "; is it a query, and does the meter use the terminators set here, write "
+                                + show(writeTerminator) + ", read " + show(readTerminator) + "?"
+                        : "";
+                throw new MeterTimeoutException(address() + ": no reply to '" + message + "' (" + waited(d)
+                        + "; nothing received" + hint + ")", got);
             }
-            throw new MeterTimeoutException(address() + ": the reply to '" + message + "' was incomplete after "
-                    + timeoutMillis + " ms: " + receivedSoFar + " bytes without the read terminator "
-                    + show(readTerminator) + ": '" + ScpiValues.escape(got, 0, got.length, 80)
-                    + "' (check the read terminator setting)", got);
+            throw new MeterTimeoutException(address() + ": the reply to '" + message + "' was incomplete ("
+                    + waited(d) + "): " + receivedSoFar + " bytes without the read terminator "
+                    + show(readTerminator) + ": '" + ScpiValues.escape(got, 0, got.length, 80) + "'", got);
         }
         pos = 0;
         lim = n;
+    }
+
+    /** What was expected and how long was waited, for a timeout's message. */
+    private static String waited(Deadline d) {
+        if (d.expectedMillis() == 0) {
+            return "waited " + human(d.totalMillis());
+        }
+        return "the meter was expected to take about " + human(d.expectedMillis()) + "; waited "
+                + human(d.totalMillis()) + ", " + human(d.slackMillis()) + " beyond that";
+    }
+
+    private static String human(long millis) {
+        return millis < 1000 ? millis + " ms" : String.format(java.util.Locale.ROOT, "%.1f s", millis / 1000.0);
+    }
+
+    /** A query's expected work in whole milliseconds (rounded up), 0 for none. */
+    private static long work(Duration expected) {
+        if (expected.isNegative() || expected.isZero()) {
+            return 0;
+        }
+        return Math.max(1, (expected.toNanos() + 999_999) / 1_000_000);
     }
 
     private int read(byte[] into, int offset, int length, long timeoutMillis, String message, int receivedSoFar) {

@@ -1,5 +1,6 @@
 package org.zweep.driver.scpi;
 
+import java.time.Duration;
 import java.util.List;
 
 /**
@@ -19,6 +20,21 @@ public interface ScpiSession extends AutoCloseable {
 
     /** Sends a program message that ends in a query and returns the reply without its terminator. */
     String query(String message);
+
+    /**
+     * {@link #query(String)} for a query the meter works on for about {@code expectedWork} before
+     * it answers (a measurement, a sweep): the reply is awaited until {@code expectedWork} plus the
+     * session's slack (its read timeout) has passed since the query was sent. A session without
+     * deadlines of its own ignores {@code expectedWork}.
+     */
+    default String query(String message, Duration expectedWork) {
+        return query(message);
+    }
+
+    /** {@link #queryBlock(String)} with the reply awaited as in {@link #query(String, Duration)}. */
+    default byte[] queryBlock(String message, Duration expectedWork) {
+        return queryBlock(message);
+    }
 
     /**
      * Sends a query whose reply is an IEEE 488.2 arbitrary block (definite or indefinite length)

@@ -167,8 +167,42 @@ class DialectMeterTest {
         assertEquals(List.of(), fake.messages());
     }
 
+    @Test
+    void aListSweepIsAwaitedForTheTimeTheDialectsTimingModelExpects() {
+        List<java.time.Duration> works = new ArrayList<>();
+        AnsweringMeter session = new AnsweringMeter(acceptingStandardMeter()) {
+            @Override
+            public String query(String message, java.time.Duration expectedWork) {
+                works.add(expectedWork);
+                return query(message);
+            }
+        };
+        DialectMeter meter = DialectMeter.open(session, "standard");
+        MeasurementSetting s = MeasurementSetting.at(100).withAveragingCount(4).withIntegrationTimeS(0.1);
+        meter.measureList(List.of(s, s.withFrequencyHz(1000), s.withFrequencyHz(10_000)));
+        // no outside source: standard.dialect's [timing] (2 ms per point, at least 2 periods):
+        // 100 Hz: 4 · max(0.1, 0.02) + 0.002 = 0.402 s, twice more at 1 kHz and 10 kHz: 1.206 s
+        assertEquals(List.of(java.time.Duration.ZERO, java.time.Duration.ofNanos(1_206_000_000)), works);
+    }
+
+    @Test
+    void aTimeoutNamesTheExchangeItHappenedIn() {
+        AnsweringMeter session = new AnsweringMeter(m -> {
+            if (m.contains(":READ?")) {
+                throw new org.zweep.driver.transport.MeterTimeoutException(
+                        "fake:answering: no reply to ':READ?;:SYST:ERR?' (waited 10.0 s; nothing received)", new byte[0]);
+            }
+            return "0,\"No error\"";
+        });
+        DialectMeter meter = DialectMeter.open(session, "standard");
+        meter.apply(MeasurementSetting.at(1000));
+        var e = assertThrows(org.zweep.driver.transport.MeterTimeoutException.class, meter::measure);
+        assertEquals("fake:answering: no reply to ':READ?;:SYST:ERR?' (waited 10.0 s; nothing received)"
+                + " while measuring at 1000 Hz", e.getMessage());
+    }
+
     /** A fake meter answering each query with {@code answer}; records every call, close included. */
-    static final class AnsweringMeter implements ScpiSession {
+    static class AnsweringMeter implements ScpiSession {
         final List<String> calls = new ArrayList<>();
         UnaryOperator<String> answer;
         RuntimeException closeFailure;

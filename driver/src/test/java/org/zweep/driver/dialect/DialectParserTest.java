@@ -56,6 +56,34 @@ class DialectParserTest {
     }
 
     @Test
+    void timingSectionIsReadAndLeftOutKeysTakeTheDefaults() {
+        // standard.dialect declares the built-in simulator's timing (its bench files' defaults)
+        assertEquals(new MeterTiming(0.002, 2, 0.05, 0, 10), Dialect.load("standard").timing());
+        assertEquals(new MeterTiming(0.05, 1, 0.2, 0.1, 5), Dialect.load("mz300").timing());
+        Dialect partial = Dialect.parse("partial.dialect", """
+                zweep-dialect 1
+                [meter]
+                name = partial
+                [capabilities]
+                frequency = 10 .. 1e6 Hz
+                voltage-level = 0.01 .. 1 V
+                integration-time = 0.01 .. 1 s
+                [timing]
+                bias-settle = 1.5 s
+                [commands]
+                identify = *IDN?
+                reset = *RST
+                measure = :READ?
+                bias-off = :SOUR:VOLT:OFFS:STAT OFF
+                frequency = :SOUR:FREQ {frequency}
+                drive-voltage = :SOUR:VOLT {level}
+                integration-time = :SENS:IMP:APER {seconds}
+                """);
+        assertEquals(new MeterTiming(MeterTiming.DEFAULT.pointOverheadS(), MeterTiming.DEFAULT.minPeriods(), 1.5,
+                MeterTiming.DEFAULT.rangeChangeS(), MeterTiming.DEFAULT.correctionPointsPerDecade()), partial.timing());
+    }
+
+    @Test
     void workedExampleDialectDeclaresPolarRepliesAndNoCurrentSource() {
         Dialect d = Dialect.load("mz300");
 

@@ -246,9 +246,18 @@ class ScpiClientTest {
     @Test
     void timeoutWithNothingReceivedHintsAtTheTerminators() {
         MeterTimeoutException e = assertThrows(MeterTimeoutException.class, () -> client().query("*IDN?"));
-        assertTrue(e.getMessage().startsWith("test:scripted: no reply to '*IDN?' within 5000 ms"), e.getMessage());
+        assertTrue(e.getMessage().startsWith("test:scripted: no reply to '*IDN?' (waited 5.0 s; nothing received;"),
+                e.getMessage());
         assertTrue(e.getMessage().contains("terminators") && e.getMessage().contains("read LF"), e.getMessage());
         assertEquals(0, e.received().length);
+    }
+
+    @Test
+    void timeoutOfALongMeasurementSaysWhatWasExpectedAndDoesNotBlameTheTerminators() {
+        MeterTimeoutException e = assertThrows(MeterTimeoutException.class,
+                () -> client().query(":READ?", java.time.Duration.ofMillis(12_500)));
+        assertEquals("test:scripted: no reply to ':READ?' (the meter was expected to take about 12.5 s; waited"
+                + " 17.5 s, 5.0 s beyond that; nothing received)", e.getMessage());
     }
 
     @Test
@@ -256,7 +265,8 @@ class ScpiClientTest {
         meter.send("1.23");
         MeterTimeoutException e = assertThrows(MeterTimeoutException.class, () -> client().query("FREQ?"));
         assertArrayEquals(ascii("1.23"), e.received());
-        assertTrue(e.getMessage().contains("read terminator"), e.getMessage());
+        assertTrue(e.getMessage().contains("4 bytes without the read terminator LF"), e.getMessage());
+        assertTrue(!e.getMessage().contains("check the"), "no terminator hint once something arrived: " + e.getMessage());
     }
 
     @Test

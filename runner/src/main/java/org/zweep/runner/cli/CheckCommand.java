@@ -1,12 +1,17 @@
 package org.zweep.runner.cli;
 
+import java.io.PrintWriter;
 import java.nio.file.Path;
+import java.util.Locale;
 import java.util.concurrent.Callable;
+import org.zweep.driver.dialect.Dialect;
+import org.zweep.runner.engine.RunEstimate;
+import org.zweep.runner.plan.CompensationMode;
 import org.zweep.runner.plan.Plan;
-import org.zweep.runner.sequence.PlanEstimate;
 import org.zweep.runner.sequence.SequenceLoader;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Model.CommandSpec;
+import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
 
@@ -16,8 +21,10 @@ import picocli.CommandLine.Spec;
         mixinStandardHelpOptions = true,
         description = {
             "Validates a sequence file without touching any instrument.",
-            "Prints one line: the number of steps, points and checks and a rough run time, "
-                + "or the first error as file:line:column: what was expected."
+            "Checks every point against the meter's declared capabilities (the sequence's dialect, or "
+                + "--dialect) and prints the number of steps, points and checks, then the estimated time of "
+                + "compensation and of each step (the dialect's timing model, bias ramps, settling) and in "
+                + "total; or the first error as file:line:column: what was expected."
         },
         footer = ExitCode.HELP_LIST)
 public final class CheckCommand implements Callable<Integer> {
@@ -28,14 +35,35 @@ public final class CheckCommand implements Callable<Integer> {
     @Parameters(index = "0", paramLabel = "FILE", description = "the sequence file (YAML)")
     Path file;
 
+    @Option(names = "--dialect", paramLabel = "NAME|FILE",
+            description = "check against this meter dialect instead of the sequence's own")
+    String dialect;
+
     @Override
     public Integer call() {
-        Plan plan = SequenceLoader.load(file);
+        Plan plan = SequenceLoader.loadForMeter(file, dialect);
+        Dialect d = Dialect.load(dialect != null ? dialect : plan.meter().dialect());
+        RunEstimate e = RunEstimate.of(plan, d);
         int points = plan.points().size();
-        spec.commandLine().getOut().printf("%s: ok, sequence '%s': %d %s, %d %s, %d %s, about %s%n", file,
+        PrintWriter out = spec.commandLine().getOut();
+        out.printf("%s: ok, sequence '%s': %d %s, %d %s, %d %s, about %s%n", file,
                 plan.name(), plan.steps().size(), plural(plan.steps().size(), "step"), points,
                 plural(points, "point"), plan.checks().size(), plural(plan.checks().size(), "check"),
-                PlanEstimate.format(PlanEstimate.seconds(plan)));
+                RunEstimate.format(e.totalS()));
+        out.printf(Locale.ROOT, "  %-34s %10s%n", "start (connect, identify, reset)", RunEstimate.format(e.startS()));
+        if (e.compensationS() > 0) {
+            CompensationMode mode = plan.fixture().compensation();
+            out.printf(Locale.ROOT, "  %-34s %10s%n", "compensation (" + mode.name().toLowerCase(Locale.ROOT) + ", "
+                    + e.compensationStandardS().size() + " " + plural(e.compensationStandardS().size(), "standard")
+                    + ")", RunEstimate.format(e.compensationS()));
+        }
+        for (RunEstimate.StepTime s : e.steps()) {
+            out.printf(Locale.ROOT, "  %-34s %10s  (meter %s, host waits and commands %s)%n",
+                    "step " + s.name() + ", " + s.points() + " " + plural(s.points(), "point"),
+                    RunEstimate.format(s.totalS()), RunEstimate.format(s.meterS()), RunEstimate.format(s.waitS()));
+        }
+        out.printf(Locale.ROOT, "  %-34s %10s  (dialect %s; operator prompts not counted)%n", "total",
+                RunEstimate.format(e.totalS()), d.name());
         return ExitCode.OK;
     }
 

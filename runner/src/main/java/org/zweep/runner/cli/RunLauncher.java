@@ -32,6 +32,7 @@ import org.zweep.runner.engine.ProgressListener;
 import org.zweep.runner.engine.Prompter;
 import org.zweep.runner.engine.ReconnectPolicy;
 import org.zweep.runner.engine.RunInterruptedException;
+import org.zweep.runner.engine.RunEstimate;
 import org.zweep.runner.engine.RunResult;
 import org.zweep.runner.engine.RunSession;
 import org.zweep.runner.engine.ScpiMeterLink;
@@ -90,7 +91,7 @@ final class RunLauncher {
 
     /** Starts a new run of {@code sequenceFile}; returns the exit code. */
     int start(Path sequenceFile, Options o) {
-        Plan plan = SequenceLoader.load(sequenceFile);
+        Plan plan = SequenceLoader.loadForMeter(sequenceFile, o.dialect());
         plan = withMeter(plan, o.meter(), o.dialect());
         new SafetyGuard(plan.safety()).checkPlan(plan);
         Clock clock = Clock.systemUTC();
@@ -232,8 +233,10 @@ final class RunLauncher {
         }
         Interruption interruption = new Interruption();
         boolean terminal = System.console() != null;
+        TerminalWidth width = terminal && !o.quiet() ? TerminalWidth.open() : null;
         ProgressListener console = o.quiet() ? ProgressListener.QUIET
-                : new ConsoleProgress(out, terminal, System::nanoTime, 5.0);
+                : new ConsoleProgress(out, terminal, System::nanoTime, 5.0, RunEstimate.of(plan),
+                        width == null ? () -> 0 : width::columns);
         org.zweep.runner.live.EventLog events = org.zweep.runner.live.EventLog.open(folder.dir(), Clock.systemUTC());
         ProgressListener shown = new org.zweep.runner.live.EventRecorder(events, console,
                 Analysis.mainParameter(plan.part().kind().name().toLowerCase(Locale.ROOT)), plan.name());
@@ -282,6 +285,10 @@ final class RunLauncher {
                     n.put("outcome", "failed");
                     n.put("verdict", "none");
                 });
+            }
+            console.finished();
+            if (width != null) {
+                width.close();
             }
             if (server != null) {
                 lingerThenClose(server);

@@ -28,6 +28,7 @@ import org.zweep.driver.meter.Reading;
 import org.zweep.driver.meter.ReadingStatus;
 import org.zweep.runner.engine.FixtureCompensation;
 import org.zweep.runner.engine.ReadingCorrector;
+import org.zweep.runner.engine.RunEstimate;
 import org.zweep.runner.engine.SimulatorControl;
 import org.zweep.runner.engine.Station;
 import org.zweep.runner.plan.BiasControl;
@@ -73,7 +74,7 @@ public final class CompensationWorkflow {
             return new FixtureCompensation.Prepared(ReadingCorrector.NONE, new RunManifest.CompensationInfo("none", List.of(), null));
         }
         if (fx.compensation() == CompensationMode.METER) {
-            meterSide(fx, station);
+            meterSide(plan, fx, station);
             return new FixtureCompensation.Prepared(ReadingCorrector.NONE, new RunManifest.CompensationInfo("meter", names, null));
         }
         Path runData = folder.dir().resolve(RUN_DATA);
@@ -114,16 +115,26 @@ public final class CompensationWorkflow {
         return hz.size() == 1 ? lo : lo + " … " + Quantities.formatShort(hz.get(hz.size() - 1), Unit.HERTZ, 4);
     }
 
-    private static void meterSide(FixturePlan fx, Station station) {
+    private static void meterSide(Plan plan, FixturePlan fx, Station station) {
         station.setMeterCorrection(false);
+        // the standards are acquired at the run's own drive, averaging and integration (bias off),
+        // which also makes their time known beforehand (RunEstimate)
+        RunEstimate estimate = RunEstimate.of(plan);
+        int k = 0;
+        MeasurementSetting at = plan.points().stream().map(PlannedPoint::setting)
+                .filter(x -> x.quantity() == MeasuredQuantity.IMPEDANCE).findFirst()
+                .orElse(plan.points().get(0).setting()).withBias(Bias.OFF);
         for (CorrectionStandard s : fx.standards()) {
             station.fit(slot(s), instruction(s), BiasControl.NONE, Wiring.NONE);
+            station.applySetting(at);
             if (s == CorrectionStandard.LOAD) {
                 if (fx.loadStandard() == null) {
                     throw new InvalidInputException("meter-side LOAD compensation needs the load standard's value");
                 }
                 station.setLoadStandard(fx.loadStandard());
             }
+            station.announce("compensation: the meter acquires the " + s + " standard",
+                    estimate.compensationStandardS().get(k++));
             station.acquireCorrection(s);
         }
         station.setMeterCorrection(true);
@@ -133,8 +144,12 @@ public final class CompensationWorkflow {
         FixturePlan fx = plan.fixture();
         Map<Double, MeasurementSetting> settings = settings(plan);
         List<CompensationData.Entry> entries = new ArrayList<>();
+        RunEstimate estimate = RunEstimate.of(plan);
+        int k = 0;
         for (CorrectionStandard s : fx.standards()) {
             station.fit(slot(s), instruction(s), BiasControl.NONE, Wiring.NONE);
+            station.announce("compensation: measuring the " + s + " standard at " + settings.size() + " frequencies",
+                    estimate.compensationStandardS().get(k++));
             int i = 0;
             for (MeasurementSetting m : settings.values()) {
                 long key = -1L - (s.ordinal() * 1_000_000L + i++);
@@ -164,14 +179,7 @@ public final class CompensationWorkflow {
 
     /** One setting per distinct impedance frequency of the plan (the first point's drive), bias off, ascending. */
     static Map<Double, MeasurementSetting> settings(Plan plan) {
-        Map<Double, MeasurementSetting> bySetting = new java.util.TreeMap<>();
-        for (PlannedPoint p : plan.points()) {
-            MeasurementSetting s = p.setting();
-            if (s.quantity() == MeasuredQuantity.IMPEDANCE) {
-                bySetting.putIfAbsent(s.frequencyHz(), s.withBias(Bias.OFF));
-            }
-        }
-        return new LinkedHashMap<>(bySetting);
+        return RunEstimate.hostSettings(plan);
     }
 
     private static List<Double> frequencies(Plan plan) {

@@ -52,8 +52,18 @@ final class JoiningSession implements ScpiSession {
     }
 
     @Override
+    public synchronized String query(String message, java.time.Duration expectedWork) {
+        return inner.query(take(message), expectedWork);
+    }
+
+    @Override
     public synchronized byte[] queryBlock(String message) {
         return inner.queryBlock(take(message));
+    }
+
+    @Override
+    public synchronized byte[] queryBlock(String message, java.time.Duration expectedWork) {
+        return inner.queryBlock(take(message), expectedWork);
     }
 
     @Override

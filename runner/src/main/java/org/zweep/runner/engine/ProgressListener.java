@@ -16,6 +16,13 @@ public interface ProgressListener {
     default void measured(PointRow row, int done, int total) {
     }
 
+    /**
+     * A piece of work without points of its own begins (a compensation standard, a bias ramp),
+     * expected to take {@code expectedS} seconds; it lasts until the next event.
+     */
+    default void work(String what, double expectedS) {
+    }
+
     /** A one-line note for the operator (reconnects, prompts, warnings). */
     default void note(String line) {
     }

@@ -143,6 +143,7 @@ public final class RunSession {
         Waiter waiter = waits ? Waiter.sleeping(interruption) : Waiter.none(interruption);
         station = new Station(link, guard, setup.prompter(), waiter, setup.reconnect(), log);
         station.watchBias(biasWatcher);
+        station.reportWorkTo(progress::work);
         RunManifest manifest = null;
         try (PointsCsvWriter writer = PointsCsvWriter.open(folder.points(), setup.rowSync())) {
             Long seed = setup.seed();

@@ -60,6 +60,7 @@ public final class Station {
     /** Reconnect attempts and back-off waited since the last operation that succeeded. */
     private int budgetAttempts;
     private double budgetWaitedS;
+    private volatile java.util.function.ObjDoubleConsumer<String> work = (what, expectedS) -> { };
     /** Settings the meter accepted in the current attempt of an operation, and the most in any attempt. */
     private int acceptedThisAttempt;
     private int mostAccepted;
@@ -222,6 +223,28 @@ public final class Station {
             moveTo(settings.get(0), bias);
             link.simulator().ifPresent(c -> c.setNoiseKey(noiseKey));
             return link.meter().measureList(settings);
+        });
+    }
+
+    /**
+     * Where announcements of long pieces of work without points of their own go (compensation
+     * standards, bias ramps): what is being done and its expected time in s.
+     */
+    public void reportWorkTo(java.util.function.ObjDoubleConsumer<String> listener) {
+        this.work = listener;
+    }
+
+    /** Announces a piece of work about to start and its expected time in s (see {@link #reportWorkTo}). */
+    public void announce(String what, double expectedS) {
+        work.accept(what, expectedS);
+    }
+
+    /** Moves the meter to {@code s} (checked against the safety limits, bias ramped) without measuring. */
+    public void applySetting(MeasurementSetting s) {
+        guard.check(s, "setting at " + s.frequencyHz() + " Hz");
+        withRetry("applying the setting at " + s.frequencyHz() + " Hz", () -> {
+            moveTo(s, BiasControl.NONE);
+            return null;
         });
     }
 
@@ -388,7 +411,13 @@ public final class Station {
      * applied, as {@link BiasRamp} plans it; {@code stopping} ramps go on through a stop request.
      */
     private void ramp(MeasurementSetting base, SourceMode mode, double a, double b, double rate, boolean stopping) {
-        for (BiasRamp.Step step : BiasRamp.plan(a, b, rate, RAMP_STEP_S)) {
+        List<BiasRamp.Step> steps = BiasRamp.plan(a, b, rate, RAMP_STEP_S);
+        double total = steps.stream().mapToDouble(BiasRamp.Step::waitS).sum();
+        if (total >= 0.5) {
+            work.accept(String.format(java.util.Locale.ROOT, "ramping DC bias %s → %s %s", ConsoleProgress.num(a),
+                    ConsoleProgress.num(b), mode.unit()), total);
+        }
+        for (BiasRamp.Step step : steps) {
             apply(base.withBias(new Bias(mode, step.value(), true)));
             if (stopping) {
                 waiter.waitThroughStopS(step.waitS());

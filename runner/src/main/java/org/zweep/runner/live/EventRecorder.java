@@ -86,6 +86,11 @@ public final class EventRecorder implements ProgressListener {
     }
 
     @Override
+    public void work(String what, double expectedS) {
+        next.work(what, expectedS);
+    }
+
+    @Override
     public void note(String line) {
         log.write(line.contains("reconnect") ? "reconnect" : "note", n -> n.put("text", line));
         next.note(line);

@@ -35,12 +35,25 @@ public final class SequenceLoader {
      * @throws InvalidInputException when the text does not validate
      */
     public static Plan parse(String text, Path source) {
+        return parse(text, source, null);
+    }
+
+    /**
+     * {@link #load(Path)}, also checking every point against a meter's declared capabilities: the
+     * dialect {@code dialect} names, or the sequence's own when {@code dialect} is {@code null}. A
+     * point the meter cannot do is refused at the step key that asks for it ({@code file:line:column}).
+     */
+    public static Plan loadForMeter(Path file, String dialect) {
+        return parse(BoundedYaml.read(file, "sequence file"), file, dialect == null ? "" : dialect);
+    }
+
+    private static Plan parse(String text, Path source, String meterCheck) {
         String file = source.toString();
         List<Node> documents = BoundedYaml.compose(text, file, "sequence file");
         if (documents.isEmpty()) {
             throw new InvalidInputException(file + ":1:1: empty file: expected a sequence (a mapping with "
                     + "format, meter, safety, part and steps)");
         }
-        return new SequenceReader(source).read(new YamlNode(documents.get(0), file));
+        return new SequenceReader(source, meterCheck).read(new YamlNode(documents.get(0), file));
     }
 }

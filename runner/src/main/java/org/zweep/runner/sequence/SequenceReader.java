@@ -89,9 +89,23 @@ final class SequenceReader {
     private final Path source;
     private final String file;
 
+    /** When not null, every point is checked against this dialect (empty: the sequence's own). */
+    private final String meterCheck;
+
     SequenceReader(Path source) {
+        this(source, null);
+    }
+
+    /**
+     * A reader that also checks every point against a meter's declared capabilities.
+     *
+     * @param dialect a dialect name or file to check against; {@code ""} for the sequence's own
+     *     dialect; {@code null} for no check
+     */
+    SequenceReader(Path source, String dialect) {
         this.source = source;
         this.file = source.toString();
+        this.meterCheck = dialect;
     }
 
     Plan read(YamlNode root) {
@@ -113,7 +127,27 @@ final class SequenceReader {
         List<CheckLimit> checks = top.optional("checks").map(c -> checks(c, specs, part, defaultRule))
                 .orElse(List.of());
         List<PlannedStep> steps = PlanExpander.expand(specs);
+        if (meterCheck != null) {
+            checkMeter(specs, steps, Dialect.load(meterCheck.isEmpty() ? meter.dialect() : meterCheck));
+        }
         return new Plan(name, source, meter, safety, fixture, part, steps, checks);
+    }
+
+    /**
+     * Refuses the first point the meter cannot do, at the step's key that asks for it (the step
+     * itself when the value is a default).
+     */
+    private static void checkMeter(List<StepSpec> specs, List<PlannedStep> steps, Dialect dialect) {
+        for (int i = 0; i < specs.size(); i++) {
+            StepSpec spec = specs.get(i);
+            for (var p : steps.get(i).points()) {
+                Optional<Dialect.Refusal> r = dialect.refusal(p.setting());
+                if (r.isPresent()) {
+                    YamlNode at = spec.node().child(r.get().setting()).orElse(spec.node());
+                    throw at.error("step '" + spec.name() + "': " + r.get().message());
+                }
+            }
+        }
     }
 
     private String defaultName() {

@@ -108,6 +108,18 @@ final class YamlNode {
         return Optional.empty();
     }
 
+    /** The value node under {@code key} when this is a mapping, without any checks (for locating messages). */
+    Optional<YamlNode> child(String key) {
+        if (node instanceof MappingNode m) {
+            for (NodeTuple t : m.getValue()) {
+                if (t.getKeyNode() instanceof ScalarNode k && k.getValue().equals(key)) {
+                    return Optional.of(new YamlNode(t.getValueNode(), file));
+                }
+            }
+        }
+        return Optional.empty();
+    }
+
     String shape() {
         if (node instanceof ScalarNode s) {
             return s.getValue().isEmpty() ? "nothing" : "'" + s.getValue() + "'";

@@ -41,7 +41,7 @@ class ShippedSequencesTest {
         Plan plan = SequenceLoader.load(file);
         assertTrue(plan.meter().address().startsWith("sim:"), "runs unattended on the simulator");
         assertTrue(Files.isRegularFile(Path.of(plan.meter().address().substring(4))));
-        double s = PlanEstimate.seconds(plan);
+        double s = org.zweep.runner.engine.RunEstimate.of(plan).totalS();
         assertTrue(s >= 10 && s <= 300, file + " takes about " + s + " s"); // issue 5: tens of seconds to a few minutes
         assertEquals(file.getFileName().toString().replace(".yaml", ""), plan.name());
     }

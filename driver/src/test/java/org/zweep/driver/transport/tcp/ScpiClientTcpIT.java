@@ -28,6 +28,7 @@ import org.zweep.driver.scpi.Resync;
 import org.zweep.driver.scpi.ScpiClient;
 import org.zweep.driver.scpi.ScpiProtocolException;
 import org.zweep.driver.scpi.ScpiSettings;
+import org.zweep.driver.testpeer.Action;
 import org.zweep.driver.testpeer.LoopbackServer;
 import org.zweep.driver.testpeer.ScriptedPeer;
 import org.zweep.driver.transport.ConnectFailedException;
@@ -99,6 +100,47 @@ class ScpiClientTcpIT {
     }
 
     @Test
+    void aReplyTricklingOneByteEveryHalfSecondTimesOutAtItsDeadlineNotPerRead() {
+        // issue 17: a peer that sends one byte every 0.5 s kept a 1 s read timeout waiting for 90 s
+        List<Action> trickle = new ArrayList<>();
+        for (int i = 0; i < 40; i++) {
+            trickle.add(send("1"));
+            trickle.add(pause(500));
+        }
+        ScriptedPeer peer = ScriptedPeer.scripted().on("SLOW?", trickle.toArray(Action[]::new));
+        ScpiSettings oneSecond = ScpiSettings.builder().clearOnConnect(false).resync(Resync.DRAIN)
+                .readTimeout(Duration.ofSeconds(1)).connectTimeout(Duration.ofSeconds(2)).build();
+        ScpiClient c = connect(peer, oneSecond);
+        long t0 = System.nanoTime();
+        MeterTimeoutException e = assertThrows(MeterTimeoutException.class,
+                () -> c.query("SLOW?", Duration.ofMillis(500)));
+        double waitedS = (System.nanoTime() - t0) / 1e9;
+        // the deadline is 0.5 s of expected work plus 1 s of slack; one more read's wake-up at most
+        assertTrue(waitedS >= 1.45 && waitedS < 2.5, "waited " + waitedS + " s: " + e.getMessage());
+        assertTrue(e.getMessage().contains("was incomplete (the meter was expected to take about 500 ms; waited 1.5 s"),
+                e.getMessage());
+        assertTrue(e.received().length >= 2 && e.received().length <= 5, e.received().length + " bytes");
+    }
+
+    @Test
+    void aBlockTricklingInTimesOutAtItsDeadline() {
+        List<Action> trickle = new ArrayList<>(List.of(send("#210")));
+        for (int i = 0; i < 20; i++) {
+            trickle.add(send("x"));
+            trickle.add(pause(400));
+        }
+        ScriptedPeer peer = ScriptedPeer.scripted().on("DATA?", trickle.toArray(Action[]::new));
+        ScpiSettings oneSecond = ScpiSettings.builder().clearOnConnect(false).resync(Resync.DRAIN)
+                .readTimeout(Duration.ofSeconds(1)).connectTimeout(Duration.ofSeconds(2)).build();
+        ScpiClient c = connect(peer, oneSecond);
+        long t0 = System.nanoTime();
+        MeterTimeoutException e = assertThrows(MeterTimeoutException.class, () -> c.queryBlock("DATA?"));
+        double waitedS = (System.nanoTime() - t0) / 1e9;
+        assertTrue(waitedS >= 0.95 && waitedS < 2.0, "waited " + waitedS + " s: " + e.getMessage());
+        assertTrue(e.getMessage().contains("stopped after"), e.getMessage());
+    }
+
+    @Test
     void replySplitAcrossPacketsWithPausesIsReassembled() {
         ScriptedPeer peer = ScriptedPeer.scripted()
                 .on("FREQ?", send("+1.0"), pause(60), send("00000E"), pause(60), send("+03\r"), pause(60), send("\n"));
@@ -150,7 +192,7 @@ class ScpiClientTcpIT {
         MeterTimeoutException e = assertThrows(MeterTimeoutException.class, () -> c.query("MEAS?"));
         long ms = (System.nanoTime() - t0) / 1_000_000;
         assertTrue(ms >= 290 && ms < 3000, "waited " + ms + " ms for a 300 ms timeout");
-        assertTrue(e.getMessage().startsWith(server.address() + ": no reply to 'MEAS?' within 300 ms"), e.getMessage());
+        assertTrue(e.getMessage().startsWith(server.address() + ": no reply to 'MEAS?' (waited 300 ms; nothing received"), e.getMessage());
         assertEquals(0, e.received().length);
     }
 
@@ -237,7 +279,7 @@ class ScpiClientTcpIT {
         assertTrue(lines.get(1).endsWith(" > *IDN?\\n"), lines.get(1));
         assertTrue(lines.get(2).endsWith(" < Korvane\\r\\n"), lines.get(2));
         assertTrue(lines.get(3).endsWith(" > X?\\n"), lines.get(3));
-        assertTrue(lines.get(4).contains(" ! timeout after 300 ms"), lines.get(4));
+        assertTrue(lines.get(4).contains(" ! deadline passed after 300 ms"), lines.get(4));
     }
 
     @Test

@@ -1,0 +1,251 @@
+package org.zweep.runner.engine;
+
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Map;
+import java.util.TreeMap;
+import org.zweep.driver.dialect.Dialect;
+import org.zweep.driver.dialect.MeterTiming;
+import org.zweep.driver.meter.Bias;
+import org.zweep.driver.meter.CorrectionStandard;
+import org.zweep.driver.meter.MeasuredQuantity;
+import org.zweep.driver.meter.MeasurementSetting;
+import org.zweep.driver.meter.MeterCapabilities;
+import org.zweep.runner.plan.BiasControl;
+import org.zweep.runner.plan.CompensationMode;
+import org.zweep.runner.plan.Plan;
+import org.zweep.runner.plan.PlannedPoint;
+import org.zweep.runner.plan.PlannedStep;
+
+/**
+ * How long a run of a plan takes, walked the way {@link RunEngine} and {@link Station} run it:
+ * the meter's work from its dialect's {@link MeterTiming} (the same model the reply deadlines come
+ * from), the host's planned waits (bias ramps at the step's rate, settling, point delays) and a
+ * small cost per command exchange. Compensation is counted as if measured (stored data that is
+ * reused makes the run shorter); operator prompts are not counted (on the simulator they pass at
+ * once). Immutable.
+ *
+ * @param startS connecting, identifying and resetting the meter, in s
+ * @param compensationS preparing fixture compensation (every standard), in s
+ * @param compensationStandardS each standard's share of {@code compensationS}, in order
+ * @param steps each step's time
+ * @param points per point index: the meter's work (its share of its trigger) and the host's waits
+ *     and exchanges before it (a ramp down after a step counts before the next step's first point), in s
+ * @param finishS after the last point: the last ramp down, the whole-sweep checks and the summary, in s
+ */
+public record RunEstimate(double startS, double compensationS, List<Double> compensationStandardS,
+        List<StepTime> steps, List<PointTime> points, double finishS) {
+
+    /** The cost of one command exchange with the meter (write, reply, error query), in s. */
+    static final double EXCHANGE_S = 0.001;
+    /**
+     * Starting a run in a running JVM: opening the link, identifying, resetting, the run folder and
+     * its manifest, the first use of each part of zweep, in s (measured on the shipped sequences).
+     */
+    static final double START_S = 1.0;
+    /** Ending a run: the whole-sweep checks, the final manifest and the summary, in s. */
+    static final double END_S = 0.5;
+    /** Writing one result row (formatting, its check), in s. */
+    static final double ROW_S = 0.001;
+    /** Making one trigger's rows durable (one file sync), in s. */
+    static final double SYNC_S = 0.01;
+
+    public RunEstimate {
+        compensationStandardS = List.copyOf(compensationStandardS);
+        steps = List.copyOf(steps);
+        points = List.copyOf(points);
+    }
+
+    /**
+     * One step's expected time.
+     *
+     * @param name the step's name
+     * @param points how many points
+     * @param meterS the meter's work (measuring), in s
+     * @param waitS the host's waits (bias ramps, settling, delays) and command exchanges, in s
+     */
+    public record StepTime(String name, int points, double meterS, double waitS) {
+        /** The step's whole time, in s. */
+        public double totalS() {
+            return meterS + waitS;
+        }
+    }
+
+    /**
+     * One point's share of the run.
+     *
+     * @param meterS the meter's work for it (its share of its trigger's), in s
+     * @param waitS the host's waits and exchanges attributed to it, in s
+     * @param endsTrigger whether it is the last point of its trigger (a list sweep's rows arrive together)
+     */
+    public record PointTime(double meterS, double waitS, boolean endsTrigger) {
+    }
+
+    /** The whole run, in s. */
+    public double totalS() {
+        return startS + compensationS + steps.stream().mapToDouble(StepTime::totalS).sum() + END_S;
+    }
+
+    /** The estimate of {@code plan} on the meter its dialect describes. */
+    public static RunEstimate of(Plan plan) {
+        return of(plan, Dialect.load(plan.meter().dialect()));
+    }
+
+    /** The estimate of {@code plan} on a meter speaking {@code dialect}. */
+    public static RunEstimate of(Plan plan, Dialect dialect) {
+        return new Walk(dialect.timing(), dialect.capabilities()).run(plan);
+    }
+
+    /** The walk through a plan, tracking what the meter last measured and the bias applied. */
+    private static final class Walk {
+        private final MeterTiming timing;
+        private final MeterCapabilities caps;
+        private MeasurementSetting previous;
+        private Bias applied = Bias.OFF;
+        private double meter;
+        private double host;
+
+        Walk(MeterTiming timing, MeterCapabilities caps) {
+            this.timing = timing;
+            this.caps = caps;
+        }
+
+        RunEstimate run(Plan plan) {
+            List<Double> standards = compensation(plan);
+            double comp = standards.stream().mapToDouble(Double::doubleValue).sum();
+            List<StepTime> steps = new ArrayList<>();
+            List<PointTime> points = new ArrayList<>();
+            double pending = 0; // host time after the last point, counted with the next one
+            for (PlannedStep step : plan.steps()) {
+                meter = 0;
+                host = 0;
+                exchange(2); // the fixture and the wiring
+                pending += host;
+                int max = caps.maxListPoints();
+                for (List<PlannedPoint> chunk : RunEngine.chunks(step.points(), max)) {
+                    double m0 = meter;
+                    double h0 = host;
+                    PlannedPoint first = chunk.get(0);
+                    moveTo(first.setting(), step.bias());
+                    host += first.delayS();
+                    List<MeasurementSetting> settings = chunk.stream().map(PlannedPoint::setting).toList();
+                    if (chunk.size() > 1) {
+                        exchange(1); // the list set-up
+                    }
+                    exchange(1);
+                    host += SYNC_S + chunk.size() * ROW_S;
+                    meter += timing.sweepS(settings, previous);
+                    previous = settings.get(settings.size() - 1);
+                    double share = (meter - m0) / chunk.size();
+                    for (int i = 0; i < chunk.size(); i++) {
+                        points.add(new PointTime(share, i == 0 ? host - h0 + pending : 0, i == chunk.size() - 1));
+                    }
+                    pending = 0;
+                }
+                double h0 = host;
+                rampTo(0.0, step.bias());
+                if (applied.on()) {
+                    exchange(1);
+                    applied = Bias.OFF;
+                }
+                pending += host - h0;
+                steps.add(new StepTime(step.name(), step.points().size(), meter, host));
+            }
+            return new RunEstimate(START_S, comp, standards, steps, points, pending + END_S);
+        }
+
+        /** Each standard's time, as {@code CompensationWorkflow} acquires or measures it. */
+        private List<Double> compensation(Plan plan) {
+            List<Double> out = new ArrayList<>();
+            var fx = plan.fixture();
+            if (fx.compensation() == CompensationMode.NONE || fx.standards().isEmpty()) {
+                return out;
+            }
+            MeasurementSetting first = plan.points().stream().map(PlannedPoint::setting)
+                    .filter(s -> s.quantity() == MeasuredQuantity.IMPEDANCE).findFirst()
+                    .orElse(plan.points().get(0).setting()).withBias(Bias.OFF);
+            for (CorrectionStandard s : fx.standards()) {
+                double t = EXCHANGE_S; // the fixture
+                if (fx.compensation() == CompensationMode.METER) {
+                    t += 2 * EXCHANGE_S + timing.correctionS(first, caps.frequencyHz());
+                    previous = null;
+                } else {
+                    for (MeasurementSetting m : hostSettings(plan).values()) {
+                        t += 2 * EXCHANGE_S + timing.pointS(m, previous);
+                        previous = m;
+                    }
+                }
+                out.add(t);
+            }
+            return out;
+        }
+
+        private void moveTo(MeasurementSetting target, BiasControl control) {
+            Bias to = target.bias();
+            boolean changed = false;
+            if (applied.on() && (!to.on() || applied.mode() != to.mode())) {
+                rampTo(0.0, control);
+                exchange(1);
+                applied = Bias.OFF;
+                changed = true;
+            }
+            if (to.on() && (!applied.on() || applied.value() != to.value())) {
+                applied = new Bias(to.mode(), applied.on() ? applied.value() : 0.0, true);
+                rampTo(to.value(), control);
+                changed = true;
+            }
+            exchange(1);
+            applied = to;
+            if (changed) {
+                host += control.settleS();
+            }
+        }
+
+        /** Steps the applied bias to {@code value} as {@code Station} does (steps of at most {@link Station#RAMP_STEP_S}). */
+        private void rampTo(double value, BiasControl control) {
+            if (!applied.on() || applied.value() == value) {
+                return;
+            }
+            double rate = control.rampPerS();
+            double total = Double.isFinite(rate) && rate > 0 ? Math.abs(value - applied.value()) / rate : 0.0;
+            int n = total > 0 ? Math.max(1, (int) Math.ceil(total / Station.RAMP_STEP_S - 1e-9)) : 1;
+            host += total;
+            exchange(n);
+            applied = new Bias(applied.mode(), value, true);
+        }
+
+        private void exchange(int n) {
+            host += n * EXCHANGE_S;
+        }
+    }
+
+    /**
+     * The settings host-side compensation measures each standard at: one per distinct impedance
+     * frequency of the plan (the first point's drive), bias off, ascending.
+     */
+    public static Map<Double, MeasurementSetting> hostSettings(Plan plan) {
+        Map<Double, MeasurementSetting> bySetting = new TreeMap<>();
+        for (PlannedPoint p : plan.points()) {
+            MeasurementSetting s = p.setting();
+            if (s.quantity() == MeasuredQuantity.IMPEDANCE) {
+                bySetting.putIfAbsent(s.frequencyHz(), s.withBias(Bias.OFF));
+            }
+        }
+        return new java.util.LinkedHashMap<>(bySetting);
+    }
+
+    /** {@code seconds} for people: {@code 4.2 s}, {@code 42 s}, {@code 3 min 5 s}, {@code 1 h 2 min}. */
+    public static String format(double seconds) {
+        if (seconds < 9.95) {
+            return String.format(java.util.Locale.ROOT, "%.1f s", seconds);
+        }
+        long s = Math.round(seconds);
+        if (s < 60) {
+            return s + " s";
+        }
+        if (s < 3600) {
+            return (s / 60) + " min " + (s % 60) + " s";
+        }
+        return (s / 3600) + " h " + ((s % 3600) / 60) + " min";
+    }
+}
