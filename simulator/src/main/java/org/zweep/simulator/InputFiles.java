@@ -8,8 +8,10 @@ import java.nio.charset.CodingErrorAction;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.AccessDeniedException;
 import java.nio.file.Files;
+import java.nio.file.InvalidPathException;
 import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
+import java.util.List;
 
 /** Reading description files nobody vouches for, in bounded memory. */
 public final class InputFiles {
@@ -47,5 +49,34 @@ public final class InputFiles {
         } catch (CharacterCodingException e) {
             throw new SimulatorInputException(file + ": the " + what + " is not UTF-8 text");
         }
+    }
+
+    /**
+     * The file {@code name} names inside one of {@code folders}: a relative name is looked up in
+     * each folder in turn, an absolute one must lie in one of them; symbolic links are followed
+     * before the check, so a link cannot lead out.
+     *
+     * @return the file's real path, or {@code null} when it is not an existing regular file inside
+     *     a folder (the caller cannot tell a missing file from one outside, and neither can a client)
+     */
+    public static Path inside(String name, List<Path> folders) {
+        Path asked;
+        try {
+            asked = Path.of(name);
+        } catch (InvalidPathException e) {
+            return null;
+        }
+        for (Path folder : folders) {
+            try {
+                Path root = folder.toRealPath();
+                Path real = root.resolve(asked).toRealPath();
+                if (real.startsWith(root) && Files.isRegularFile(real)) {
+                    return real;
+                }
+            } catch (IOException | SecurityException e) {
+                // not there: try the next folder
+            }
+        }
+        return null;
     }
 }

@@ -54,9 +54,13 @@ final class BenchFileReader {
     private final Path baseDir;
     private String[] rawLines = new String[0];
 
-    BenchFileReader(String source, Path baseDir) {
+    /** The folders a netlist file must lie in, or null for anywhere. */
+    private final List<Path> folders;
+
+    BenchFileReader(String source, Path baseDir, List<Path> folders) {
         this.source = source;
         this.baseDir = baseDir;
+        this.folders = folders;
     }
 
     BenchSpec read(String yaml) {
@@ -282,6 +286,12 @@ final class BenchFileReader {
 
     private Device netlistFile(ScalarNode node) {
         Path file = baseDir == null ? Path.of(node.getValue()) : baseDir.resolve(node.getValue());
+        if (folders != null) {
+            file = InputFiles.inside(file.toString(), folders);
+            if (file == null) {
+                throw at(node, "netlist file '" + node.getValue() + "' not found in the bench folders");
+            }
+        }
         String text;
         try {
             text = InputFiles.read(file, "netlist file");
