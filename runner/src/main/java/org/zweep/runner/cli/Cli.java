@@ -2,7 +2,10 @@ package org.zweep.runner.cli;
 
 import java.io.PrintWriter;
 import java.util.Arrays;
+import java.util.LinkedHashMap;
 import java.util.List;
+import java.util.Map;
+import java.util.function.Supplier;
 import org.zweep.driver.InvalidInputException;
 import org.zweep.driver.MeterException;
 import picocli.CommandLine;
@@ -12,7 +15,31 @@ import picocli.CommandLine;
  * codes and one-line messages. Tests call {@link #run} directly, without a terminal.
  */
 public final class Cli {
+    /**
+     * The subcommands, in the order {@code zweep --help} lists them. Each is built only when the
+     * command line needs it: picocli reads a command's annotations (and loads what its options
+     * use) when it is added, and a JVM that runs one subcommand should not pay for the others.
+     */
+    static final Map<String, Supplier<Object>> SUBCOMMANDS = subcommands();
+
     private Cli() {
+    }
+
+    private static Map<String, Supplier<Object>> subcommands() {
+        Map<String, Supplier<Object>> m = new LinkedHashMap<>();
+        m.put("help", () -> new CommandLine.HelpCommand());
+        m.put("convert", () -> new ConvertCommand());
+        m.put("check", () -> new CheckCommand());
+        m.put("demo", () -> new DemoCommand());
+        m.put("run", () -> new RunCommand());
+        m.put("measure", () -> new MeasureCommand());
+        m.put("analyze", () -> new AnalyzeCommand());
+        m.put("export", () -> new ExportCommand());
+        m.put("report", () -> new ReportCommand());
+        m.put("scpi", () -> new ScpiCommand());
+        m.put("ping", () -> new PingCommand());
+        m.put("sim", () -> new SimCommand());
+        return m;
     }
 
     /**
@@ -23,16 +50,34 @@ public final class Cli {
     public static int run(String[] args, PrintWriter out, PrintWriter err) {
         boolean debug = Arrays.asList(args).contains("--debug");
         String[] rest = Arrays.stream(args).filter(a -> !a.equals("--debug")).toArray(String[]::new);
-        CommandLine cl = commandLine(out, err, debug);
+        CommandLine cl = commandLine(out, err, debug, needed(rest));
         int code = cl.execute(rest);
         out.flush();
         err.flush();
         return code;
     }
 
-    /** The configured picocli command line (exposed for completion-script generation and tests). */
-    static CommandLine commandLine(PrintWriter out, PrintWriter err, boolean debug) {
+    /**
+     * The subcommands {@code args} can reach: the one named first, none for a bare
+     * {@code --version}, otherwise all (for the help, and for the suggestion after a typo).
+     */
+    static List<String> needed(String[] args) {
+        if (args.length > 0 && !args[0].startsWith("-") && SUBCOMMANDS.containsKey(args[0])
+                && !args[0].equals("help")) {
+            return List.of(args[0]);
+        }
+        if (args.length == 1 && (args[0].equals("--version") || args[0].equals("-V"))) {
+            return List.of();
+        }
+        return List.copyOf(SUBCOMMANDS.keySet());
+    }
+
+    /** The configured picocli command line with the {@code subcommands} named (tests use all of them). */
+    static CommandLine commandLine(PrintWriter out, PrintWriter err, boolean debug, List<String> subcommands) {
         CommandLine cl = new CommandLine(new ZweepCommand());
+        for (String name : subcommands) {
+            cl.addSubcommand(name, SUBCOMMANDS.get(name).get());
+        }
         cl.setOut(out);
         cl.setErr(err);
         cl.setCaseInsensitiveEnumValuesAllowed(true);

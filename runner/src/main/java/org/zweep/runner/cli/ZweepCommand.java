@@ -6,27 +6,13 @@ import picocli.CommandLine.Command;
 import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Spec;
 
-/** The top-level {@code zweep} command: lists the subcommands. */
+/** The top-level {@code zweep} command: lists the subcommands ({@link Cli} adds them). */
 @Command(
         name = "zweep",
         mixinStandardHelpOptions = true,
         versionProvider = VersionProvider.class,
         description = "Automated component-impedance measurement over SCPI.",
-        footer = ExitCode.HELP_LIST,
-        subcommands = {
-            CommandLine.HelpCommand.class,
-            ConvertCommand.class,
-            CheckCommand.class,
-            DemoCommand.class,
-            RunCommand.class,
-            MeasureCommand.class,
-            AnalyzeCommand.class,
-            ExportCommand.class,
-            ReportCommand.class,
-            ScpiCommand.class,
-            PingCommand.class,
-            SimCommand.class,
-        })
+        footer = ExitCode.HELP_LIST)
 public final class ZweepCommand implements Callable<Integer> {
 
     @Spec
