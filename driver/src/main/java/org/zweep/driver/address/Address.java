@@ -10,17 +10,19 @@ import org.zweep.driver.InvalidInputException;
  *   tcp://HOST[:PORT]                       raw SCPI socket, PORT defaults to 5025
  *   serial:DEVICE[?OPTION=VALUE&amp;...]       OPTION: baud, data, parity, stop, flow
  *   sim:[BENCH]                             the built-in simulator, in this process
+ *   vxi11://HOST[:PORT][/DEVICE]            VXI-11; PORT is the portmapper's (111), DEVICE inst0
  *   TCPIP[board]::HOST::PORT::SOCKET        VISA raw socket, same as tcp://HOST:PORT
+ *   TCPIP[board]::HOST[::DEVICE][::INSTR]   VISA VXI-11, same as vxi11://HOST/DEVICE
  *   ASRL&lt;device&gt;[::INSTR][?OPTION=...]     VISA serial, same as serial:DEVICE
  * </pre>
  * An IPv6 host is written in brackets: {@code tcp://[::1]:5025}.
  */
-public sealed interface Address permits TcpAddress, SerialAddress, SimAddress {
+public sealed interface Address permits TcpAddress, SerialAddress, SimAddress, Vxi11Address {
 
     /** The address exactly as the user wrote it (trimmed), for messages. */
     String text();
 
-    /** The transport scheme that opens it: {@code tcp}, {@code serial} or {@code sim}. */
+    /** The transport scheme that opens it: {@code tcp}, {@code serial}, {@code sim} or {@code vxi11}. */
     String scheme();
 
     /**

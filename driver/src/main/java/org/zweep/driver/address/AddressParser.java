@@ -9,8 +9,8 @@ import org.zweep.driver.address.SerialParameters.Parity;
 
 /** The address grammar of {@link Address}; every error names the offending part. */
 final class AddressParser {
-    private static final String FORMS = "tcp://HOST[:PORT], serial:DEVICE[?baud=N&...], sim:[BENCH], "
-            + "TCPIP::HOST::PORT::SOCKET or ASRL<device>::INSTR";
+    private static final String FORMS = "tcp://HOST[:PORT], vxi11://HOST[:PORT][/DEVICE], serial:DEVICE[?baud=N&...], "
+            + "sim:[BENCH], TCPIP::HOST::PORT::SOCKET, TCPIP::HOST[::DEVICE]::INSTR or ASRL<device>::INSTR";
 
     private AddressParser() {
     }
@@ -23,6 +23,9 @@ final class AddressParser {
         String lower = text.toLowerCase(Locale.ROOT);
         if (lower.startsWith("tcp://")) {
             return tcp(text, text.substring("tcp://".length()));
+        }
+        if (lower.startsWith("vxi11://")) {
+            return vxi11(text, text.substring("vxi11://".length()));
         }
         if (lower.startsWith("serial:")) {
             return serial(text, text.substring("serial:".length()));
@@ -53,6 +56,38 @@ final class AddressParser {
             throw new InvalidInputException("address '" + text + "': unexpected path '" + authority.substring(slash)
                     + "' (a raw SCPI socket has none)");
         }
+        String[] hostPort = hostAndPort(text, authority, "tcp://[::1]:5025");
+        int port = hostPort[1] == null ? TcpAddress.DEFAULT_PORT : port(text, hostPort[1]);
+        return new TcpAddress(text, hostPort[0], port);
+    }
+
+    /** {@code vxi11://HOST[:PORT][/DEVICE]}: PORT is the portmapper's. */
+    private static Vxi11Address vxi11(String text, String rest) {
+        int slash = rest.indexOf('/');
+        String authority = slash >= 0 ? rest.substring(0, slash) : rest;
+        String device = slash >= 0 ? rest.substring(slash + 1) : Vxi11Address.DEFAULT_DEVICE;
+        if (authority.isEmpty()) {
+            throw new InvalidInputException("address '" + text + "': missing host after 'vxi11://'");
+        }
+        String[] hostPort = hostAndPort(text, authority, "vxi11://[::1]/inst0");
+        int port = hostPort[1] == null ? Vxi11Address.DEFAULT_PORTMAPPER_PORT : port(text, hostPort[1]);
+        return new Vxi11Address(text, hostPort[0], port, lanDevice(text, device));
+    }
+
+    /** A LAN device name: {@code inst0}, {@code gpib0,5}; no separators, spaces or slashes. */
+    private static String lanDevice(String text, String device) {
+        if (device.isEmpty()) {
+            throw new InvalidInputException("address '" + text + "': empty device name (leave it out for inst0)");
+        }
+        if (!device.chars().allMatch(c -> c > ' ' && c < 0x7f && c != '/' && c != ':')) {
+            throw new InvalidInputException("address '" + text + "': device name '" + device
+                    + "' must be printable ASCII without spaces, '/' or ':', e.g. inst0 or gpib0,5");
+        }
+        return device;
+    }
+
+    /** Splits {@code HOST[:PORT]} or {@code [V6HOST][:PORT]}; the port text is null when absent. */
+    private static String[] hostAndPort(String text, String authority, String v6Example) {
         String host;
         String portText = null;
         if (authority.startsWith("[")) {
@@ -72,7 +107,7 @@ final class AddressParser {
             int colon = authority.lastIndexOf(':');
             if (colon >= 0 && authority.indexOf(':') != colon) {
                 throw new InvalidInputException("address '" + text + "': an IPv6 host must be written in brackets, "
-                        + "e.g. tcp://[::1]:5025");
+                        + "e.g. " + v6Example);
             }
             host = colon >= 0 ? authority.substring(0, colon) : authority;
             portText = colon >= 0 ? authority.substring(colon + 1) : null;
@@ -80,8 +115,7 @@ final class AddressParser {
         if (host.isEmpty()) {
             throw new InvalidInputException("address '" + text + "': missing host");
         }
-        int port = portText == null ? TcpAddress.DEFAULT_PORT : port(text, portText);
-        return new TcpAddress(text, host, port);
+        return new String[] {host, portText};
     }
 
     private static int port(String text, String portText) {
@@ -171,9 +205,24 @@ final class AddressParser {
         };
     }
 
-    /** {@code TCPIP[board]::HOST::PORT::SOCKET} (VPP-4.3); the VXI-11 and HiSLIP forms are refused by name. */
-    private static TcpAddress visaTcpip(String text) {
-        String[] parts = text.split("::", -1);
+    /**
+     * {@code TCPIP[board]::HOST::PORT::SOCKET} and {@code TCPIP[board]::HOST[::DEVICE][::INSTR]}
+     * (VPP-4.3); the HiSLIP form ({@code hislip} device names) is refused by name.
+     */
+    private static Address visaTcpip(String text) {
+        // an IPv6 host is bracketed and may itself contain "::"
+        String bracketed = null;
+        String splittable = text;
+        int open = text.indexOf("::[");
+        int close = open < 0 ? -1 : text.indexOf(']', open);
+        if (close > 0) {
+            bracketed = text.substring(open + 3, close);
+            splittable = text.substring(0, open + 2) + "v6" + text.substring(close + 1);
+        }
+        String[] parts = splittable.split("::", -1);
+        if (bracketed != null && parts.length > 1) {
+            parts[1] = bracketed;
+        }
         String board = parts[0].substring("TCPIP".length());
         if (!board.chars().allMatch(Character::isDigit)) {
             throw new InvalidInputException("address '" + text + "': '" + parts[0]
@@ -190,8 +239,24 @@ final class AddressParser {
             }
             return new TcpAddress(text, parts[1], port(text, parts[2]));
         }
-        throw new InvalidInputException("address '" + text + "': VXI-11 and HiSLIP (TCPIP...::INSTR) are not "
-                + "supported; use the raw socket, TCPIP::HOST::5025::SOCKET or tcp://HOST");
+        int fields = last.equalsIgnoreCase("INSTR") ? parts.length - 1 : parts.length;
+        if (fields < 2 || fields > 3) {
+            throw new InvalidInputException("address '" + text + "': a VISA LAN instrument is "
+                    + "TCPIP[board]::HOST[::DEVICE]::INSTR or TCPIP[board]::HOST::PORT::SOCKET");
+        }
+        if (parts[1].isEmpty()) {
+            throw new InvalidInputException("address '" + text + "': missing host");
+        }
+        String device = fields == 3 ? parts[2] : Vxi11Address.DEFAULT_DEVICE;
+        if (!device.isEmpty() && device.chars().allMatch(Character::isDigit)) {
+            throw new InvalidInputException("address '" + text + "': '" + device + "' looks like a port; a raw "
+                    + "socket is TCPIP::" + parts[1] + "::" + device + "::SOCKET");
+        }
+        if (device.toLowerCase(Locale.ROOT).startsWith("hislip")) {
+            throw new InvalidInputException("address '" + text + "': HiSLIP is not supported yet; use VXI-11 "
+                    + "(TCPIP::" + parts[1] + "::INSTR) or the raw socket (TCPIP::" + parts[1] + "::5025::SOCKET)");
+        }
+        return new Vxi11Address(text, parts[1], Vxi11Address.DEFAULT_PORTMAPPER_PORT, lanDevice(text, device));
     }
 
     /** {@code ASRL<device>[::INSTR][?options]}; the device is a path or port name, not a VISA board number. */

@@ -44,7 +44,17 @@ enum Command {
     CORRECTION_LOAD("correction-load"),
     CORRECTION_ON("correction-on"),
     CORRECTION_OFF("correction-off"),
-    LOAD_STANDARD("load-standard", Slot.number("resistance", "ohm"), Slot.number("reactance", "ohm"));
+    LOAD_STANDARD("load-standard", Slot.number("resistance", "ohm"), Slot.number("reactance", "ohm")),
+    LIMIT_FREQUENCY_MIN("limit-frequency-min"),
+    LIMIT_FREQUENCY_MAX("limit-frequency-max"),
+    LIMIT_VOLTAGE_LEVEL_MIN("limit-voltage-level-min"),
+    LIMIT_VOLTAGE_LEVEL_MAX("limit-voltage-level-max"),
+    LIMIT_CURRENT_LEVEL_MIN("limit-current-level-min"),
+    LIMIT_CURRENT_LEVEL_MAX("limit-current-level-max"),
+    LIMIT_BIAS_VOLTAGE_MIN("limit-bias-voltage-min"),
+    LIMIT_BIAS_VOLTAGE_MAX("limit-bias-voltage-max"),
+    LIMIT_BIAS_CURRENT_MIN("limit-bias-current-min"),
+    LIMIT_BIAS_CURRENT_MAX("limit-bias-current-max");
 
     private static final Map<String, Command> BY_KEY =
             Arrays.stream(values()).collect(Collectors.toUnmodifiableMap(c -> c.key, Function.identity()));

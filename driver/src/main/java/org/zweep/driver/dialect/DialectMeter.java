@@ -118,6 +118,37 @@ public final class DialectMeter implements Meter {
     }
 
     @Override
+    public MeterCapabilities statedLimits() {
+        requireOpen();
+        MeterCapabilities c = dialect.capabilities();
+        return new MeterCapabilities(
+                stated(c.frequencyHz(), Command.LIMIT_FREQUENCY_MIN, Command.LIMIT_FREQUENCY_MAX),
+                stated(c.voltageLevelVrms(), Command.LIMIT_VOLTAGE_LEVEL_MIN, Command.LIMIT_VOLTAGE_LEVEL_MAX),
+                stated(c.currentLevelArms(), Command.LIMIT_CURRENT_LEVEL_MIN, Command.LIMIT_CURRENT_LEVEL_MAX),
+                stated(c.biasVoltageV(), Command.LIMIT_BIAS_VOLTAGE_MIN, Command.LIMIT_BIAS_VOLTAGE_MAX),
+                stated(c.biasCurrentA(), Command.LIMIT_BIAS_CURRENT_MIN, Command.LIMIT_BIAS_CURRENT_MAX),
+                c.maxListPoints(), c.corrections(), c.voltageRatio());
+    }
+
+    /** {@code declared} with each end the meter answers for in its place. */
+    private Range stated(Range declared, Command min, Command max) {
+        double lo = dialect.has(min) ? limit(min) : declared.min();
+        double hi = dialect.has(max) ? limit(max) : declared.max();
+        return new Range(lo, hi);
+    }
+
+    private double limit(Command c) {
+        String what = "asking the meter its limit (" + c.key() + ")";
+        String reply = session.query(render(c));
+        double[] v = parseNumbers(reply, what);
+        if (v.length != 1) {
+            throw new ScpiProtocolException(session.address() + ": expected one number but got '" + abbreviate(reply)
+                    + "' while " + what);
+        }
+        return v[0];
+    }
+
+    @Override
     public void apply(MeasurementSetting setting) {
         requireOpen();
         validate(setting);

@@ -23,6 +23,15 @@ public interface Meter extends AutoCloseable {
     MeterCapabilities capabilities();
 
     /**
+     * The capabilities with each range the meter itself states (its answers to the minimum and
+     * maximum queries, where the dialect declares them) in place of the dialect's; the dialect's
+     * elsewhere. Blocking: one query per declared limit. The default asks nothing.
+     */
+    default MeterCapabilities statedLimits() {
+        return capabilities();
+    }
+
+    /**
      * Makes {@code setting} the meter's current setting, sending only what differs from the
      * setting last applied through this object.
      */

@@ -73,6 +73,25 @@ class AddressTest {
         assertEquals("COM3", b.device());
     }
 
+    @ParameterizedTest(name = "{0}")
+    @CsvSource(delimiter = '|', value = {
+        // VPP-4.3: TCPIP[board]::host address[::LAN device name][::INSTR], device inst0 by default
+        "TCPIP::192.168.1.50::INSTR           | 192.168.1.50 | 111  | inst0",
+        "TCPIP0::192.168.1.50::inst0::INSTR   | 192.168.1.50 | 111  | inst0",
+        "tcpip3::meter.lab::gpib0,5::INSTR    | meter.lab    | 111  | gpib0,5",
+        "TCPIP::meter.lab                     | meter.lab    | 111  | inst0",
+        "TCPIP::meter.lab::inst1              | meter.lab    | 111  | inst1",
+        "TCPIP::[fe80::1]::INSTR              | fe80::1      | 111  | inst0",
+        "vxi11://meter.lab                    | meter.lab    | 111  | inst0",
+        "VXI11://127.0.0.1:4111/inst2         | 127.0.0.1    | 4111 | inst2",
+        "vxi11://[::1]:111                    | ::1          | 111  | inst0",
+    })
+    void vxi11FormsGiveHostPortmapperPortAndDevice(String text, String host, int port, String device) {
+        Vxi11Address a = assertInstanceOf(Vxi11Address.class, Address.parse(text));
+        assertEquals(new Vxi11Address(text, host, port, device), a);
+        assertEquals("vxi11", a.scheme());
+    }
+
     @Test
     void simWithAndWithoutBench() {
         assertEquals("", assertInstanceOf(SimAddress.class, Address.parse("sim:")).bench());
@@ -100,8 +119,15 @@ class AddressTest {
         "serial:/dev/ttyS0?speed=9600        | unknown serial option 'speed'",
         "serial:/dev/ttyS0?baud=9600&baud=1  | 'baud' given twice",
         "serial:/dev/ttyS0?baud              | 'baud' is not NAME=VALUE",
-        "TCPIP0::10.0.0.5::INSTR             | VXI-11 and HiSLIP",
-        "TCPIP0::10.0.0.5::hislip0::INSTR    | VXI-11 and HiSLIP",
+        "TCPIP0::10.0.0.5::hislip0::INSTR    | HiSLIP is not supported yet",
+        "TCPIP0::10.0.0.5::5025              | TCPIP::10.0.0.5::5025::SOCKET",
+        "TCPIP0::::INSTR                     | missing host",
+        "TCPIP0::h::inst0::x::INSTR          | TCPIP[board]::HOST[::DEVICE]::INSTR",
+        "vxi11://                            | missing host after 'vxi11://'",
+        "vxi11://meter:0                     | port '0'",
+        "vxi11://meter/                      | empty device name",
+        "vxi11://meter/inst 0                | device name 'inst 0'",
+        "vxi11://::1/inst0                   | brackets, e.g. vxi11://[::1]/inst0",
         "TCPIP0::10.0.0.5::SOCKET            | 3 fields given",
         "TCPIPx::10.0.0.5::5025::SOCKET      | 'TCPIPx'",
         "ASRL1::INSTR                        | VISA board number",

@@ -20,20 +20,24 @@ import org.zweep.simulator.scpi.TimingModel;
 import org.zweep.simulator.server.InMemoryConnection;
 import org.zweep.simulator.server.ServerOptions;
 import org.zweep.simulator.server.SimulatorServer;
+import org.zweep.simulator.vxi11.Vxi11Options;
+import org.zweep.simulator.vxi11.Vxi11Server;
 
 /**
- * A simulator server on one bench and a {@link ScpiClient} connected to it, over loopback TCP or
- * an in-memory stream pair; every message the client sends is recorded.
+ * A simulator server on one bench and a {@link ScpiClient} connected to it, over loopback TCP,
+ * an in-memory stream pair or VXI-11 (the simulator's own portmapper and core channel); every message the client sends is recorded.
  */
 final class SimulatorLink implements AutoCloseable {
 
     /** How the client reaches the simulator. */
-    enum Kind { TCP, IN_MEMORY }
+    enum Kind { TCP, IN_MEMORY, VXI11 }
 
     /** Short read timeouts for the fault tests. */
     static final ScpiSettings FAST = ScpiSettings.builder().readTimeout(java.time.Duration.ofMillis(400)).build();
 
     final SimulatorServer server;
+    /** The VXI-11 front of {@link #server} (its own portmapper on a free port), or null for other kinds. */
+    final Vxi11Server vxi11;
     final ScpiClient client;
     final Recording session;
     private final Kind kind;
@@ -43,6 +47,7 @@ final class SimulatorLink implements AutoCloseable {
     private SimulatorLink(SimulatorServer server, Kind kind, ScpiSettings settings) {
         this.server = server;
         this.kind = kind;
+        this.vxi11 = kind == Kind.VXI11 ? startVxi11(server) : null;
         this.client = connect(settings);
         this.session = new Recording(client);
         // opened now: its *CLS would clear the shared error queue later
@@ -60,6 +65,20 @@ final class SimulatorLink implements AutoCloseable {
         } catch (IOException e) {
             throw new UncheckedIOException(e);
         }
+    }
+
+    private static Vxi11Server startVxi11(SimulatorServer server) {
+        try {
+            return Vxi11Server.start(server, Vxi11Options.defaults());
+        } catch (IOException e) {
+            server.close();
+            throw new UncheckedIOException(e);
+        }
+    }
+
+    /** The VXI-11 address of the simulator (portmapper on a free port). */
+    String vxi11Address() {
+        return "vxi11://127.0.0.1:" + vxi11.portmapperPort() + "/inst0";
     }
 
     /** Loopback TCP on a free port, with {@code timing}. */
@@ -82,6 +101,9 @@ final class SimulatorLink implements AutoCloseable {
     private ScpiClient connect(ScpiSettings settings) {
         if (kind == Kind.TCP) {
             return ScpiClient.open(tcpAddress(), settings);
+        }
+        if (kind == Kind.VXI11) {
+            return ScpiClient.open(vxi11Address(), settings);
         }
         InMemoryConnection c = server.connectInMemory();
         return ScpiClient.connect(Transport.ofStreams(c.input(), c.output(), "sim:in-memory"), settings);
@@ -106,6 +128,9 @@ final class SimulatorLink implements AutoCloseable {
     public void close() {
         client.close();
         others.forEach(ScpiClient::close);
+        if (vxi11 != null) {
+            vxi11.close();
+        }
         server.close();
     }
 

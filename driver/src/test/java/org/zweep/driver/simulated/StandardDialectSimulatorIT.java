@@ -263,6 +263,20 @@ class StandardDialectSimulatorIT {
             assertEquals("0", sim.query(":SENS:CORR?"));
             link.assertNoErrors("correction on, a measurement, correction off");
 
+            // the limits the meter states are the simulator's own
+            MeterCapabilities stated = meter.statedLimits();
+            assertEquals(new org.zweep.driver.meter.Range(RC.limits().minFrequencyHz(), RC.limits().maxFrequencyHz()),
+                    stated.frequencyHz());
+            assertEquals(new org.zweep.driver.meter.Range(RC.limits().minVoltageVrms(), RC.limits().maxVoltageVrms()),
+                    stated.voltageLevelVrms());
+            assertEquals(new org.zweep.driver.meter.Range(RC.limits().minCurrentArms(), RC.limits().maxCurrentArms()),
+                    stated.currentLevelArms());
+            assertEquals(new org.zweep.driver.meter.Range(-RC.limits().maxBiasVoltageV(), RC.limits().maxBiasVoltageV()),
+                    stated.biasVoltageV());
+            assertEquals(new org.zweep.driver.meter.Range(-RC.limits().maxBiasCurrentA(), RC.limits().maxBiasCurrentA()),
+                    stated.biasCurrentA());
+            link.assertNoErrors("the limit queries");
+
             meter.apply(base.withBias(Bias.voltage(5)));
             assertEquals("1", sim.query(":SOUR:VOLT:OFFS:STAT?"));
             assertTrue(meter.safeShutdown(), "bias confirmed off");

@@ -10,6 +10,7 @@ import java.util.List;
 import org.zweep.driver.InvalidInputException;
 import org.zweep.runner.results.PointRow;
 import org.zweep.runner.results.PointsCsv;
+import org.zweep.runner.results.PointsCsvReader;
 import org.zweep.runner.results.RunFolder;
 import org.zweep.runner.results.RunManifest;
 
@@ -58,20 +59,25 @@ public record RunData(RunFolder folder, RunManifest manifest, List<PointRow> row
         }
         List<PointRow> rows = new ArrayList<>();
         List<String> notes = new ArrayList<>();
+        PointsCsvReader.UniquePoints unique = new PointsCsvReader.UniquePoints(points);
         for (int i = 1; i < lines.size(); i++) {
             String line = lines.get(i);
             if (line.isEmpty()) {
                 continue;
             }
+            PointRow row;
             try {
-                rows.add(PointsCsv.parse(line));
+                row = PointsCsv.parse(line);
             } catch (IllegalArgumentException e) {
                 if (i == lines.size() - 1) {
                     notes.add(points.getFileName() + ":" + (i + 1) + ": incomplete last row skipped");
                 } else {
                     throw new InvalidInputException(points + ":" + (i + 1) + ": malformed row: " + e.getMessage());
                 }
+                continue;
             }
+            unique.add(row.point(), i + 1);
+            rows.add(row);
         }
         return new RunData(folder, manifest, rows, notes);
     }

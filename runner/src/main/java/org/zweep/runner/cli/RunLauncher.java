@@ -40,6 +40,7 @@ import org.zweep.runner.engine.SweepChecks;
 import org.zweep.runner.plan.CheckLimit;
 import org.zweep.runner.plan.MeterSpec;
 import org.zweep.runner.plan.Plan;
+import org.zweep.runner.results.FolderLock;
 import org.zweep.runner.results.RunFolder;
 import org.zweep.runner.results.RunManifest;
 import org.zweep.runner.safety.BiasOffHook;
@@ -80,34 +81,75 @@ final class RunLauncher {
         Plan plan = SequenceLoader.load(sequenceFile);
         plan = withMeter(plan, o.meter(), o.dialect());
         new SafetyGuard(plan.safety()).checkPlan(plan);
+        Clock clock = Clock.systemUTC();
         boolean existed = o.out() != null && Files.isDirectory(o.out());
-        RunFolder folder = o.out() != null ? RunFolder.createAt(o.out(), sequenceFile)
-                : RunFolder.createUnder(o.resultsDir(), plan.name(), Clock.systemUTC().instant(),
-                        ZoneId.systemDefault(), sequenceFile);
+        boolean hadLockFile = existed && Files.exists(o.out().resolve(FolderLock.FILE));
+        FolderLock lock = o.out() != null ? RunFolder.lockAt(o.out(), clock.instant()) : null;
+        RunFolder folder;
         try {
-            copyBench(plan, sequenceFile, folder);
-            copyDialect(plan, sequenceFile, folder);
+            folder = o.out() != null ? RunFolder.createAt(o.out(), sequenceFile)
+                    : RunFolder.createUnder(o.resultsDir(), plan.name(), clock.instant(), ZoneId.systemDefault(),
+                            sequenceFile);
+        } catch (RuntimeException e) {
+            if (lock != null) {
+                lock.close();
+                if (!existed) {
+                    discardIfUnstarted(new RunFolder(o.out()), true);
+                } else if (!hadLockFile) {
+                    deleteQuietly(o.out().resolve(FolderLock.FILE));
+                }
+            }
+            throw e;
+        }
+        try {
+            if (lock == null) {
+                lock = FolderLock.acquire(folder.dir(), clock.instant());
+            }
+            try {
+                copyBench(plan, sequenceFile, folder);
+                copyDialect(plan, sequenceFile, folder);
+                // written before the meter is reached, so that a run stopped before its first point
+                // (SIGTERM while connecting) leaves a folder that --resume completes
+                RunSession.freshManifest(plan, folder, sequenceFile.toAbsolutePath().toString(),
+                        new RunManifest.MeterInfo(plan.meter().address(), plan.meter().dialect(), null), o.seed(),
+                        clock, VersionProvider.version()).write(folder.manifest());
+            } catch (UncheckedIOException e) {
+                // nothing measured yet: the folder is refused (a full disk, permissions)
+                throw new InvalidInputException(e.getMessage(), e);
+            }
             out.println("run folder: " + folder.dir());
             return execute(plan, folder, false, sequenceFile.toAbsolutePath().toString(), o.seed(), o);
         } catch (RuntimeException e) {
             discardIfUnstarted(folder, !existed);
             throw e;
+        } finally {
+            if (lock != null) {
+                lock.close();
+            }
+        }
+    }
+
+    private static void deleteQuietly(Path p) {
+        try {
+            Files.deleteIfExists(p);
+        } catch (IOException e) {
+            // best effort: the refusal itself is what the user must see
         }
     }
 
     /**
      * Removes what {@link #start} put into a run folder when the run was refused before it started
-     * (no {@code run.json} yet, so nothing was measured): the same {@code --out} can then be used
-     * again, instead of a folder that is neither empty nor resumable.
+     * (no measured row and no compensation data, so nothing was measured): the same {@code --out}
+     * can then be used again, instead of a folder that is neither empty nor resumable.
      */
     static void discardIfUnstarted(RunFolder folder, boolean removeDir) {
         Path dir = folder.dir();
-        if (Files.exists(folder.manifest())) {
+        if (!Files.isDirectory(dir) || Files.exists(folder.compensation())) {
             return;
         }
         try {
             if (Files.exists(folder.points()) && Files.readAllLines(folder.points(), StandardCharsets.UTF_8).size() > 1) {
-                return; // rows without a manifest: keep them, whatever they are
+                return; // rows: keep them, whatever they are
             }
             try (var files = Files.walk(dir)) {
                 for (Path p : files.sorted(Comparator.reverseOrder()).toList()) {
@@ -116,7 +158,7 @@ final class RunLauncher {
                     }
                 }
             }
-        } catch (IOException e) {
+        } catch (IOException | UncheckedIOException e) {
             // best effort: the refusal itself is what the user must see
         }
     }
@@ -124,10 +166,23 @@ final class RunLauncher {
     /** Resumes the run in {@code dir}; returns the exit code. */
     int resume(Path dir, Options o) {
         RunFolder folder = RunFolder.existing(dir);
-        RunManifest m = RunManifest.read(folder.manifest());
+        try (FolderLock lock = FolderLock.acquire(dir, Clock.systemUTC().instant())) {
+            return resumeLocked(folder, o);
+        }
+    }
+
+    private int resumeLocked(RunFolder folder, Options o) {
+        Path dir = folder.dir();
+        RunManifest m = RunManifest.read(folder.manifest()).requireResumable(folder.manifest());
         if ("completed".equals(m.outcome())) {
             out.println(dir + ": the run is already complete (" + m.counts().measured() + " points); nothing to do");
             return "fail".equals(m.verdict()) ? ExitCode.CHECK_FAILED : ExitCode.OK;
+        }
+        String sha = RunFolder.sha256(folder.sequenceCopy());
+        if (!m.sequence().sha256().equalsIgnoreCase(sha)) {
+            throw new InvalidInputException(folder.sequenceCopy() + ": changed since the run started (SHA-256 "
+                    + sha + ", run.json records " + m.sequence().sha256() + "); a resumed run must measure the plan"
+                    + " it started with: restore the copy, or start a new run");
         }
         Plan plan;
         try {

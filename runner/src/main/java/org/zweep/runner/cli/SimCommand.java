@@ -23,6 +23,8 @@ import org.zweep.simulator.scpi.TimingModel;
 import org.zweep.simulator.server.FaultPlan;
 import org.zweep.simulator.server.ServerOptions;
 import org.zweep.simulator.server.SimulatorServer;
+import org.zweep.simulator.vxi11.Vxi11Options;
+import org.zweep.simulator.vxi11.Vxi11Server;
 import picocli.CommandLine.ArgGroup;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Model.CommandSpec;
@@ -34,7 +36,8 @@ import picocli.CommandLine.Spec;
         name = "sim",
         mixinStandardHelpOptions = true,
         description = {
-            "Serves the simulated impedance meter (IEEE 488.2 / SCPI over raw TCP) in the foreground.",
+            "Serves the simulated impedance meter (IEEE 488.2 / SCPI over raw TCP, and VXI-11 with --vxi11-port)"
+                    + " in the foreground.",
             "Prints 'listening on tcp://HOST:PORT' once ready, logs connections, stops on Ctrl-C."},
         footer = {
             "%nFault specs for --fault (repeatable or comma-separated): KIND[=VALUE][@WHEN]",
@@ -51,6 +54,11 @@ public final class SimCommand implements Callable<Integer> {
     @Option(names = "--port", paramLabel = "N", description = "TCP port (default ${DEFAULT-VALUE}; 0 picks a free one).",
             defaultValue = "5025")
     int port;
+
+    @Option(names = "--vxi11-port", paramLabel = "N",
+            description = "Also serve over VXI-11: a portmapper on this port (111 is the standard one, which VISA"
+                    + " clients look up; 0 picks a free one) and the core channel on a free port registered there.")
+    Integer vxi11Port;
 
     @Option(names = "--bind", paramLabel = "ADDR",
             description = "Address to listen on (default ${DEFAULT-VALUE}: this machine only).", defaultValue = "127.0.0.1")
@@ -167,14 +175,31 @@ public final class SimCommand implements Callable<Integer> {
         } catch (IllegalArgumentException e) {
             throw new InvalidInputException(e.getMessage());
         }
+        if (vxi11Port != null && (vxi11Port < 0 || vxi11Port > 65535)) {
+            throw new InvalidInputException("--vxi11-port: must be 0..65535, got " + vxi11Port);
+        }
         SimulatorServer server;
         try {
             server = SimulatorServer.start(new SimulatedBench(benchSpec), options);
         } catch (IOException e) {
             throw new MeterException(e.getMessage(), e);
         }
+        Vxi11Server vxi11 = null;
+        if (vxi11Port != null) {
+            try {
+                vxi11 = Vxi11Server.start(server, Vxi11Options.defaults().withBindAddress(address)
+                        .withPortmapperPort(vxi11Port).withLog(options.log()));
+            } catch (IOException e) {
+                server.close();
+                throw new MeterException(e.getMessage(), e);
+            }
+        }
+        Vxi11Server lan = vxi11;
         CountDownLatch stopped = new CountDownLatch(1);
         Thread hook = new Thread(() -> {
+            if (lan != null) {
+                lan.close();
+            }
             server.close();
             stopped.countDown();
         }, "zweep-sim-shutdown");
@@ -182,6 +207,12 @@ public final class SimCommand implements Callable<Integer> {
         synchronized (out) {
             out.println("listening on tcp://" + server.address().getAddress().getHostAddress() + ":" + server.port()
                     + " (" + benchSpec.description() + ")");
+            if (lan != null) {
+                String host = server.address().getAddress().getHostAddress();
+                out.println("listening on vxi11://" + host + ":" + lan.portmapperPort() + "/inst0 (portmapper; core"
+                        + " channel on port " + lan.corePort() + ")" + (lan.portmapperPort() == 111
+                        ? ", VISA: TCPIP::" + host + "::INSTR" : ""));
+            }
             out.flush();
         }
         try {
@@ -189,6 +220,9 @@ public final class SimCommand implements Callable<Integer> {
         } catch (InterruptedException e) {
             Thread.currentThread().interrupt();
         } finally {
+            if (lan != null) {
+                lan.close();
+            }
             server.close();
             try {
                 Runtime.getRuntime().removeShutdownHook(hook);

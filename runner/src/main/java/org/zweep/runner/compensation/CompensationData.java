@@ -73,7 +73,12 @@ public record CompensationData(Info info, List<Entry> entries) {
                 .sorted(java.util.Comparator.comparingDouble(Entry::frequencyHz)).toList();
     }
 
-    /** Writes {@code csv} and its sidecar (same name, {@code .json}). */
+    /**
+     * Writes {@code csv} and its sidecar (same name, {@code .json}), each to a temporary file first
+     * and then moved into place, the sidecar first: a failure part-way (a full disk) leaves either
+     * both files whole or no {@code csv} (so a resumed run measures the standards again), never a
+     * half-written one.
+     */
     public void write(Path csv) {
         StringBuilder b = new StringBuilder(HEADER).append('\n');
         for (Entry e : entries) {
@@ -82,10 +87,40 @@ public record CompensationData(Info info, List<Entry> entries) {
         }
         try {
             Files.createDirectories(csv.toAbsolutePath().getParent());
-            Files.writeString(csv, b, StandardCharsets.UTF_8);
-            Files.writeString(sidecar(csv), JSON.writeValueAsString(info) + "\n", StandardCharsets.UTF_8);
         } catch (IOException e) {
-            throw new UncheckedIOException("cannot write " + csv + ": " + e.getMessage(), e);
+            throw new UncheckedIOException("cannot create " + csv.toAbsolutePath().getParent() + ": " + e.getMessage(), e);
+        }
+        String json;
+        try {
+            json = JSON.writeValueAsString(info) + "\n";
+        } catch (JsonProcessingException e) {
+            throw new IllegalStateException("cannot write compensation settings: " + e.getMessage(), e);
+        }
+        writeWhole(sidecar(csv), json);
+        writeWhole(csv, b.toString());
+    }
+
+    private static void writeWhole(Path file, String text) {
+        Path tmp = file.resolveSibling(file.getFileName() + ".tmp");
+        try {
+            try (java.nio.channels.FileChannel ch = java.nio.channels.FileChannel.open(tmp,
+                    java.nio.file.StandardOpenOption.CREATE, java.nio.file.StandardOpenOption.WRITE,
+                    java.nio.file.StandardOpenOption.TRUNCATE_EXISTING)) {
+                java.nio.ByteBuffer buf = java.nio.ByteBuffer.wrap(text.getBytes(StandardCharsets.UTF_8));
+                while (buf.hasRemaining()) {
+                    ch.write(buf);
+                }
+                ch.force(true);
+            }
+            Files.move(tmp, file, java.nio.file.StandardCopyOption.REPLACE_EXISTING,
+                    java.nio.file.StandardCopyOption.ATOMIC_MOVE);
+        } catch (IOException e) {
+            try {
+                Files.deleteIfExists(tmp);
+            } catch (IOException ignored) {
+                // the failure below is what matters
+            }
+            throw new UncheckedIOException("cannot write " + file + ": " + e.getMessage(), e);
         }
     }
 

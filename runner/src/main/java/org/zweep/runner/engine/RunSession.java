@@ -124,10 +124,8 @@ public final class RunSession {
                 throw new InvalidInputException(folder.points() + ": point " + row.point()
                         + " does not belong to this sequence's plan");
             }
-            if (!done.get(row.point())) {
-                done.set(row.point());
-                checks.evaluate(row);
-            }
+            done.set(row.point());
+            checks.evaluate(row);
         });
         ProgressListener progress = setup.progress();
         if (rec.tornLineDropped()) {
@@ -148,6 +146,7 @@ public final class RunSession {
             }
             station.start(seed);
             SafetyGuard.checkCapabilities(plan, station.capabilities(), "dialect " + setup.dialect());
+            SafetyGuard.checkCapabilities(plan, station.statedLimits(), "as the meter states its limits");
             manifest = manifest(seed);
             manifest.write(folder.manifest());
             ReadingCorrector corrector = ReadingCorrector.NONE;
@@ -176,8 +175,14 @@ public final class RunSession {
         } catch (RuntimeException e) {
             station.biasOffNow();
             if (manifest != null) {
-                manifest.finished("failed", setup.clock().instant().toString(),
-                        new RunManifest.Counts(points.size(), done.cardinality()), "none").write(folder.manifest());
+                try {
+                    manifest.finished("failed", setup.clock().instant().toString(),
+                            new RunManifest.Counts(points.size(), done.cardinality()), "none")
+                            .write(folder.manifest());
+                } catch (RuntimeException second) {
+                    // a full disk fails this too: the first failure is what the user must see
+                    e.addSuppressed(second);
+                }
             }
             throw e;
         } finally {
@@ -195,6 +200,18 @@ public final class RunSession {
                     old.compensation(), old.software(), old.host(), seed, old.started(), null, old.counts(),
                     "running", "none");
         }
+        return freshManifest(plan, folder, setup.sequenceFile(), meter, seed, setup.clock(), setup.version());
+    }
+
+    /**
+     * The manifest of a run starting now in {@code folder} (outcome {@code running}, nothing
+     * measured), from the plan and the sequence copy already in the folder.
+     *
+     * @param meter the meter; its identity may be {@code null} before the meter was reached
+     * @param seed the simulator's seed, or {@code null}
+     */
+    public static RunManifest freshManifest(Plan plan, RunFolder folder, String sequenceFile,
+            RunManifest.MeterInfo meter, Long seed, Clock clock, String version) {
         Part p = plan.part();
         List<RunManifest.StepInfo> steps = plan.steps().stream()
                 .map(s -> new RunManifest.StepInfo(s.index(), s.name(), s.points().size())).toList();
@@ -202,13 +219,13 @@ public final class RunSession {
                 .map(c -> new RunManifest.CheckInfo(c.name(), c.parameter(), c.step(), finite(c.frequencyHz()),
                         finite(c.min()), finite(c.max()))).toList();
         return new RunManifest(RunManifest.FORMAT,
-                new RunManifest.SequenceInfo(plan.name(), setup.sequenceFile(), RunFolder.sha256(folder.sequenceCopy()),
+                new RunManifest.SequenceInfo(plan.name(), sequenceFile, RunFolder.sha256(folder.sequenceCopy()),
                         RunFolder.SEQUENCE_COPY),
                 new RunManifest.PartInfo(p.kind().name().toLowerCase(Locale.ROOT), p.name(), finite(p.nominal()),
                         p.nominalUnit(), finite(p.tolerancePercent()), finite(p.turnsRatio())),
                 steps, checks, meter, new RunManifest.CompensationInfo("none", List.of(), null),
-                new RunManifest.SoftwareInfo("zweep", setup.version()), host(), seed,
-                setup.clock().instant().toString(), null, new RunManifest.Counts(plan.points().size(), 0), "running",
+                new RunManifest.SoftwareInfo("zweep", version), host(), seed,
+                clock.instant().toString(), null, new RunManifest.Counts(plan.points().size(), 0), "running",
                 "none");
     }
 

@@ -41,6 +41,7 @@ public final class Station {
 
     private MeterIdentity identity;
     private MeterCapabilities capabilities;
+    private MeterCapabilities statedLimits;
     private volatile Bias applied = Bias.OFF;
     private boolean meterCorrection;
     private SimulatorControl.Slot slot;
@@ -82,6 +83,7 @@ public final class Station {
             identity = m.identify();
             capabilities = m.capabilities();
             m.reset();
+            statedLimits = m.statedLimits();
             applied = Bias.OFF;
             if (seed != null) {
                 link.simulator().ifPresent(s -> s.setSeed(seed));
@@ -98,6 +100,14 @@ public final class Station {
     /** The meter's capabilities (after {@link #start}). */
     public MeterCapabilities capabilities() {
         return capabilities;
+    }
+
+    /**
+     * The capabilities with the ranges the meter itself states (its minimum and maximum answers,
+     * where the dialect declares the queries), asked at {@link #start}.
+     */
+    public MeterCapabilities statedLimits() {
+        return statedLimits;
     }
 
     /** Whether the meter is the simulator (prompts pass by themselves). */

@@ -29,6 +29,34 @@ public final class PointsCsvReader {
     public record Recovery(int rows, boolean tornLineDropped) {
     }
 
+    /**
+     * Refuses a second row of a point index: each planned point is measured once into a run
+     * folder, so a repeated index means the file was written twice at once or edited by hand.
+     */
+    public static final class UniquePoints {
+        private final Path file;
+        private final java.util.Map<Integer, Integer> lineOf = new java.util.HashMap<>();
+
+        /** Checks the rows of {@code file}. */
+        public UniquePoints(Path file) {
+            this.file = file;
+        }
+
+        /**
+         * Records that {@code line} holds {@code point}.
+         *
+         * @throws InvalidInputException {@code file:line: point N repeats line M} when seen before
+         */
+        public void add(int point, int line) {
+            Integer first = lineOf.putIfAbsent(point, line);
+            if (first != null) {
+                throw new InvalidInputException(file + ":" + line + ": point " + point + " repeats line " + first
+                        + " (a point is measured once per run folder; was the folder written by two runs at once"
+                        + " or edited?)");
+            }
+        }
+    }
+
     private PointsCsvReader() {
     }
 
@@ -37,8 +65,8 @@ public final class PointsCsvReader {
      * an incomplete last line (no line break, or not a whole row) so that appending can continue.
      * A missing file counts as empty.
      *
-     * @throws InvalidInputException when the header is not the expected one or a row other than
-     *     the last is malformed ({@code file:line: what})
+     * @throws InvalidInputException when the header is not the expected one, a row other than
+     *     the last is malformed, or a point index repeats ({@code file:line: what})
      */
     public static Recovery recover(Path file, Consumer<PointRow> sink) {
         if (!Files.exists(file)) {
@@ -59,6 +87,7 @@ public final class PointsCsvReader {
             int start = 0;
             long goodEnd = 0;
             boolean torn = false;
+            UniquePoints unique = new UniquePoints(file);
             while (start < bytes.length) {
                 int nl = indexOf(bytes, (byte) '\n', start);
                 lineNo++;
@@ -96,6 +125,7 @@ public final class PointsCsvReader {
                         }
                         throw new InvalidInputException(file + ":" + lineNo + ": malformed row: " + e.getMessage());
                     }
+                    unique.add(row.point(), lineNo);
                     sink.accept(row);
                     rows++;
                 }

@@ -67,15 +67,18 @@ public record RunFolder(Path dir) {
                 return populate(dir, sequenceFile);
             }
         } catch (IOException e) {
-            throw new UncheckedIOException("cannot create a run folder under " + resultsDir + ": " + e.getMessage(), e);
+            throw new InvalidInputException("cannot create a run folder under " + resultsDir + ": "
+                    + FolderLock.reason(e));
         }
     }
 
     /**
      * Uses {@code dir} as a fresh run folder (created when missing) and copies
-     * {@code sequenceFile} into it.
+     * {@code sequenceFile} into it. Call with the folder's {@link FolderLock} held (see
+     * {@link #lockAt}), so that two runs cannot both find it empty.
      *
-     * @throws InvalidInputException when {@code dir} exists and is not an empty folder
+     * @throws InvalidInputException when {@code dir} exists and is not an empty folder (its lock
+     *     file aside), or cannot be created or written (nothing has been measured yet)
      */
     public static RunFolder createAt(Path dir, Path sequenceFile) {
         try {
@@ -84,7 +87,7 @@ public record RunFolder(Path dir) {
                     throw new InvalidInputException(dir + ": exists and is not a folder");
                 }
                 try (Stream<Path> s = Files.list(dir)) {
-                    if (s.findAny().isPresent()) {
+                    if (s.anyMatch(p -> !FolderLock.isLockFile(p))) {
                         throw new InvalidInputException(dir + ": folder is not empty (use --resume " + dir
                                 + " to continue a run, or choose another --out)");
                     }
@@ -93,8 +96,26 @@ public record RunFolder(Path dir) {
             Files.createDirectories(dir);
             return populate(dir, sequenceFile);
         } catch (IOException e) {
-            throw new UncheckedIOException("cannot create run folder " + dir + ": " + e.getMessage(), e);
+            throw new InvalidInputException("cannot create run folder " + dir + ": " + FolderLock.reason(e));
         }
+    }
+
+    /**
+     * Creates {@code dir} when missing and takes its {@link FolderLock}.
+     *
+     * @throws InvalidInputException when it cannot be created (permissions, a file in the way) or
+     *     another run holds it (naming the holder)
+     */
+    public static FolderLock lockAt(Path dir, Instant now) {
+        if (Files.exists(dir) && !Files.isDirectory(dir)) {
+            throw new InvalidInputException(dir + ": exists and is not a folder");
+        }
+        try {
+            Files.createDirectories(dir);
+        } catch (IOException e) {
+            throw new InvalidInputException("cannot create run folder " + dir + ": " + FolderLock.reason(e));
+        }
+        return FolderLock.acquire(dir, now);
     }
 
     /**

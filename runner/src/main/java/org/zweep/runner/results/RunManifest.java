@@ -136,6 +136,25 @@ public record RunManifest(String format, SequenceInfo sequence, PartInfo part, L
                 started, ended, counts, outcome, verdict);
     }
 
+    /**
+     * This manifest, when it holds what resuming a run needs: the sequence (file and SHA-256),
+     * the meter (address and dialect) and the counts.
+     *
+     * @param file where it was read from, for the message
+     * @throws InvalidInputException naming the first missing field
+     */
+    public RunManifest requireResumable(Path file) {
+        String missing = sequence == null ? "sequence" : sequence.file() == null ? "sequence.file"
+                : sequence.sha256() == null ? "sequence.sha256"
+                : meter == null ? "meter" : meter.address() == null ? "meter.address"
+                : meter.dialect() == null ? "meter.dialect" : counts == null ? "counts" : null;
+        if (missing != null) {
+            throw new InvalidInputException(file + ": not a valid run manifest: \"" + missing
+                    + "\" is missing (a run folder's run.json records it when the run starts); cannot resume");
+        }
+        return this;
+    }
+
     /** The manifest as JSON text. */
     public String toJson() {
         try {
@@ -166,6 +185,11 @@ public record RunManifest(String format, SequenceInfo sequence, PartInfo part, L
                 Files.move(tmp, file, StandardCopyOption.REPLACE_EXISTING);
             }
         } catch (IOException e) {
+            try {
+                Files.deleteIfExists(tmp);
+            } catch (IOException ignored) {
+                // the failure below is what the user must see
+            }
             throw new UncheckedIOException("cannot write " + file + ": " + e.getMessage(), e);
         }
     }
