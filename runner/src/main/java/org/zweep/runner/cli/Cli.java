@@ -87,10 +87,11 @@ public final class Cli {
             return ExitCode.USAGE;
         });
         cl.setExecutionExceptionHandler((ex, c, parseResult) -> {
-            boolean expected = ex instanceof InvalidInputException || ex instanceof MeterException
-                    || ex instanceof java.io.UncheckedIOException;
+            boolean expected = exitCodeOf(ex) != ExitCode.INTERNAL;
             err.println("zweep: " + (expected ? "" : "internal error: ") + oneLine(ex)
-                    + (expected || debug ? "" : " (run with --debug for details)"));
+                    + (expected ? "" : debug ? "; this is a bug in zweep, please report it with the trace below"
+                            : "; this is a bug in zweep, please report it with the output of the same command"
+                                    + " run with --debug"));
             if (debug) {
                 ex.printStackTrace(err);
             }
@@ -129,8 +130,12 @@ public final class Cli {
         if (ex instanceof InvalidInputException || ex instanceof CommandLine.ParameterException) {
             return ExitCode.USAGE;
         }
-        // A meter failure, an I/O failure and an unexpected fault all stop the run the same way.
-        return ExitCode.METER;
+        if (ex instanceof MeterException || ex instanceof java.io.UncheckedIOException
+                || ex instanceof java.io.IOException) {
+            return ExitCode.METER;
+        }
+        // Anything else is zweep's own fault, never to be read as a wiring problem.
+        return ExitCode.INTERNAL;
     }
 
     private static String oneLine(Throwable ex) {

@@ -10,13 +10,16 @@ public final class ExitCode {
     public static final int USAGE = 2;
     /** The meter or the connection to it failed. */
     public static final int METER = 3;
+    /** zweep itself failed (a bug): the message asks for a report. */
+    public static final int INTERNAL = 4;
 
     /** The exit-code list shown at the end of every {@code --help}. */
     static final String HELP_LIST = "%nExit codes:%n"
             + "  0  ok, every check passed%n"
             + "  1  a check failed%n"
             + "  2  usage or validation error%n"
-            + "  3  meter or connection failure%n";
+            + "  3  meter or connection failure%n"
+            + "  4  internal error (a bug in zweep: please report it)%n";
 
     private ExitCode() {
     }
