@@ -39,7 +39,7 @@ class ServerSoakIT {
         try (SimulatorServer server = SimulatorServer.start(bench, ServerOptions.defaults().withPort(0)
                 .withMaxConnections(CAP).withInstrument(InstrumentOptions.defaults().withTiming(TimingModel.NONE)
                         .withBenchLoader(BenchLoader.simulated(true, TimingModel.NONE))))) {
-            attackRound(server); // warm-up: threads, JIT and buffers reach their steady state
+            attackRound(server, new AtomicBoolean()); // warm-up: threads, JIT and buffers reach their steady state
             settle(server);
             long heapBefore = heapUsed();
             int threadsBefore = threads();
@@ -49,7 +49,7 @@ class ServerSoakIT {
             Thread t = new Thread(probe, "soak-probe");
             t.start();
             for (int r = 0; r < rounds; r++) {
-                attackRound(server);
+                attackRound(server, probe.paused);
             }
             probe.stop.set(true);
             t.join();
@@ -76,13 +76,15 @@ class ServerSoakIT {
     }
 
     /** One of each attack, each bounded, each closed at the end. */
-    private static void attackRound(SimulatorServer server) throws Exception {
+    private static void attackRound(SimulatorServer server, AtomicBoolean paused) throws Exception {
+        Probe.phase = "delayed flood";
         // unread delayed replies: the queue fills to its bound, then -430
         try (RawClient c = new RawClient(server)) {
             c.send("SIM:FAUL:DEL 3600,100000000");
             c.sendRaw(ServerLimitsIT.repeated("*IDN?", 10_000));
             c.send("*OPC?");
         }
+        Probe.phase = "non-readers";
         // twenty clients that never read
         List<RawClient> quiet = new ArrayList<>();
         for (int i = 0; i < 20; i++) {
@@ -91,14 +93,16 @@ class ServerSoakIT {
             c.sendRaw(ServerLimitsIT.repeated("*IDN?", 3000));
         }
         closeAll(quiet);
+        Probe.phase = "idle";
         // idle connections up to a few below the cap (the probe needs a free slot)
         List<RawClient> idle = new ArrayList<>();
         for (int i = 0; i < CAP - 4; i++) {
             idle.add(new RawClient(server));
         }
         closeAll(idle);
+        Probe.phase = "long line";
         // a line longer than the message limit without LF, then one with; the connection goes on
-        awaitAttackersGone(server); // the error queue is the meter's, shared: let the floods finish first
+        awaitAttackersGone(server, paused); // the error queue is the meter's, shared: let the floods finish first
         try (RawClient c = new RawClient(server)) {
             c.send("*CLS");
             byte[] a = new byte[2 << 20];
@@ -108,7 +112,10 @@ class ServerSoakIT {
             assertTrue(c.query("SYST:ERR?").startsWith("-363,"));
             assertEquals(IDN, c.query("*IDN?"));
         }
+        paused.set(false);
+        Probe.phase = "netlist";
         // a netlist far over the element limit
+        awaitAttackersGone(server, paused);
         try (RawClient c = new RawClient(server)) {
             c.send("*CLS");
             StringBuilder n = new StringBuilder();
@@ -118,6 +125,8 @@ class ServerSoakIT {
             c.send("SIM:DEV \"" + n + "\"");
             assertTrue(c.query("SYST:ERR?").startsWith("-200,"));
         }
+        paused.set(false);
+        Probe.phase = "odd syntax";
         // odd syntax: a lone '#', a block whose length never comes, a bad idle time, an unknown header
         try (RawClient c = new RawClient(server)) {
             c.sendRaw("SOUR:FREQ #\n*IDN?\n".getBytes(StandardCharsets.US_ASCII));
@@ -126,6 +135,7 @@ class ServerSoakIT {
             c.send("NO:SUCH:HEADer 1;*CLS");
             c.send("SIM:DEV #9000000100R1 hi lo 1");
         }
+        Probe.phase = "half-open";
         // half-open: a partial message, then the client vanishes
         List<RawClient> partial = new ArrayList<>();
         for (int i = 0; i < 20; i++) {
@@ -136,9 +146,10 @@ class ServerSoakIT {
         closeAll(partial);
     }
 
-    /** Until only the probe (at most) is connected. */
-    private static void awaitAttackersGone(SimulatorServer server) {
-        ServerLimitsIT.awaitTrue(() -> server.connectionCount() <= 1, "the attackers' connections closed");
+    /** Pauses the probe until every connection, the attackers' included, has closed. */
+    private static void awaitAttackersGone(SimulatorServer server, AtomicBoolean paused) {
+        paused.set(true);
+        ServerLimitsIT.awaitTrue(() -> server.connectionCount() == 0, "the attackers' connections closed");
     }
 
     private static void closeAll(List<RawClient> clients) throws IOException {
@@ -185,6 +196,9 @@ class ServerSoakIT {
 
     /** A fresh connection every 20 ms: connect, *IDN?, close; the time from connecting to the reply. */
     private static final class Probe implements Runnable {
+        /** Set while a check needs the meter's shared error queue to itself. */
+        final AtomicBoolean paused = new AtomicBoolean();
+        static volatile String phase = "";
         final AtomicBoolean stop = new AtomicBoolean();
         final List<Long> nanos = new ArrayList<>();
         final SimulatorServer server;
@@ -197,10 +211,18 @@ class ServerSoakIT {
         @Override
         public void run() {
             while (!stop.get()) {
+                if (paused.get()) {
+                    ServerIT.sleep(5);
+                    continue;
+                }
                 long t0 = System.nanoTime();
                 try (RawClient c = new RawClient(server)) {
                     if (IDN.equals(c.query("*IDN?"))) {
-                        nanos.add(System.nanoTime() - t0);
+                        long took = System.nanoTime() - t0;
+                        nanos.add(took);
+                        if (took > 50_000_000L) {
+                            System.out.printf("soak: slow probe %.1f ms during '%s'%n", took / 1e6, phase);
+                        }
                     } else {
                         failures++;
                     }
