@@ -10,7 +10,8 @@ import org.zweep.driver.address.SerialParameters.Parity;
 /** The address grammar of {@link Address}; every error names the offending part. */
 final class AddressParser {
     private static final String FORMS = "tcp://HOST[:PORT], vxi11://HOST[:PORT][/DEVICE], serial:DEVICE[?baud=N&...], "
-            + "sim:[BENCH], TCPIP::HOST::PORT::SOCKET, TCPIP::HOST[::DEVICE]::INSTR or ASRL<device>::INSTR";
+            + "usbtmc:/dev/usbtmcN, sim:[BENCH], TCPIP::HOST::PORT::SOCKET, TCPIP::HOST[::DEVICE]::INSTR, "
+            + "USB::VID::PID::SERIAL::INSTR or ASRL<device>::INSTR";
 
     private AddressParser() {
     }
@@ -26,6 +27,16 @@ final class AddressParser {
         }
         if (lower.startsWith("vxi11://")) {
             return vxi11(text, text.substring("vxi11://".length()));
+        }
+        if (lower.startsWith("usbtmc:")) {
+            String device = text.substring("usbtmc:".length());
+            if (device.isBlank()) {
+                throw new InvalidInputException("address '" + text + "': missing device node, e.g. usbtmc:/dev/usbtmc0");
+            }
+            return new UsbtmcAddress(text, device, null);
+        }
+        if (lower.startsWith("usb")) {
+            return visaUsb(text);
         }
         if (lower.startsWith("serial:")) {
             return serial(text, text.substring("serial:".length()));
@@ -257,6 +268,48 @@ final class AddressParser {
                     + "(TCPIP::" + parts[1] + "::INSTR) or the raw socket (TCPIP::" + parts[1] + "::5025::SOCKET)");
         }
         return new Vxi11Address(text, parts[1], Vxi11Address.DEFAULT_PORTMAPPER_PORT, lanDevice(text, device));
+    }
+
+    /** {@code USB[board]::VID::PID::SERIAL[::INTFC][::INSTR]} (VPP-4.3); ids in hex (0x…) or decimal. */
+    private static UsbtmcAddress visaUsb(String text) {
+        String[] parts = text.split("::", -1);
+        String board = parts[0].substring("USB".length());
+        if (!board.chars().allMatch(Character::isDigit)) {
+            throw new InvalidInputException("address '" + text + "': '" + parts[0]
+                    + "' is not USB followed by an optional board number");
+        }
+        String last = parts[parts.length - 1];
+        if (last.equalsIgnoreCase("RAW")) {
+            throw new InvalidInputException("address '" + text + "': USB RAW resources are not supported; "
+                    + "a USBTMC instrument is USB::VID::PID::SERIAL::INSTR");
+        }
+        int fields = last.equalsIgnoreCase("INSTR") ? parts.length - 1 : parts.length;
+        if (fields < 4 || fields > 5) {
+            throw new InvalidInputException("address '" + text + "': a VISA USB instrument is "
+                    + "USB[board]::VID::PID::SERIAL[::INTERFACE]::INSTR, e.g. USB0::0x1234::0x5678::SN0001::INSTR");
+        }
+        int vendor = usbNumber(text, "vendor id", parts[1], 0xFFFF);
+        int product = usbNumber(text, "product id", parts[2], 0xFFFF);
+        if (parts[3].isEmpty()) {
+            throw new InvalidInputException("address '" + text + "': missing serial number");
+        }
+        int intf = fields == 5 ? usbNumber(text, "interface number", parts[4], 0xFF) : 0;
+        return new UsbtmcAddress(text, null, new UsbtmcAddress.UsbId(vendor, product, parts[3], intf));
+    }
+
+    private static int usbNumber(String text, String what, String s, int max) {
+        String lower = s.toLowerCase(Locale.ROOT);
+        boolean hex = lower.startsWith("0x");
+        String digits = hex ? lower.substring(2) : lower;
+        int radix = hex ? 16 : 10;
+        if (!digits.isEmpty() && digits.length() <= 6 && digits.chars().allMatch(c -> Character.digit(c, radix) >= 0)) {
+            int v = Integer.parseInt(digits, radix);
+            if (v <= max) {
+                return v;
+            }
+        }
+        throw new InvalidInputException("address '" + text + "': " + what + " '" + s + "' is not a number from 0 to 0x"
+                + Integer.toHexString(max).toUpperCase(Locale.ROOT) + " (hex with 0x, or decimal)");
     }
 
     /** {@code ASRL<device>[::INSTR][?options]}; the device is a path or port name, not a VISA board number. */

@@ -92,6 +92,26 @@ class AddressTest {
         assertEquals("vxi11", a.scheme());
     }
 
+    @ParameterizedTest(name = "{0}")
+    @CsvSource(delimiter = '|', value = {
+        // VPP-4.3: USB[board]::manufacturer ID::model code::serial number[::USB interface number][::INSTR]
+        "USB0::0x1234::0x5678::SN0001::INSTR    | 4660  | 22136 | SN0001 | 0",
+        "usb::0X1234::0x5678::SN0001            | 4660  | 22136 | SN0001 | 0",
+        "USB1::4660::22136::MY-42::3::INSTR     | 4660  | 22136 | MY-42  | 3",
+        "USB::0xFFFF::0x0000::A::255            | 65535 | 0     | A      | 255",
+    })
+    void visaUsbStringsGiveVendorProductSerialAndInterface(String text, int vendor, int product, String serial,
+            int intf) {
+        UsbtmcAddress a = assertInstanceOf(UsbtmcAddress.class, Address.parse(text));
+        assertEquals(new UsbtmcAddress(text, null, new UsbtmcAddress.UsbId(vendor, product, serial, intf)), a);
+        assertEquals("usbtmc", a.scheme());
+    }
+
+    @Test
+    void usbtmcTakesADeviceNode() {
+        assertEquals(new UsbtmcAddress("usbtmc:/dev/usbtmc0", "/dev/usbtmc0", null), Address.parse("usbtmc:/dev/usbtmc0"));
+    }
+
     @Test
     void simWithAndWithoutBench() {
         assertEquals("", assertInstanceOf(SimAddress.class, Address.parse("sim:")).bench());
@@ -123,6 +143,14 @@ class AddressTest {
         "TCPIP0::10.0.0.5::5025              | TCPIP::10.0.0.5::5025::SOCKET",
         "TCPIP0::::INSTR                     | missing host",
         "TCPIP0::h::inst0::x::INSTR          | TCPIP[board]::HOST[::DEVICE]::INSTR",
+        "usbtmc:                             | missing device node",
+        "USB::0x1234::0x5678::INSTR          | USB[board]::VID::PID::SERIAL[::INTERFACE]::INSTR",
+        "USB::0x12345::0x5678::SN::INSTR     | vendor id '0x12345'",
+        "USB::0x1234::xyz::SN::INSTR         | product id 'xyz'",
+        "USB::0x1234::0x5678::::INSTR        | missing serial number",
+        "USB::0x1234::0x5678::SN::256::INSTR | interface number '256'",
+        "USB0::0x1234::0x5678::SN::RAW       | USB RAW resources are not supported",
+        "USBx::0x1234::0x5678::SN::INSTR     | 'USBx'",
         "vxi11://                            | missing host after 'vxi11://'",
         "vxi11://meter:0                     | port '0'",
         "vxi11://meter/                      | empty device name",

@@ -13,12 +13,12 @@ import org.junit.jupiter.api.Assumptions;
  * A pseudo-terminal pair made by {@code socat}, linked at {@code dir/meter} and {@code dir/host};
  * or ({@link #bridgeToTcp}) one pseudo-terminal at {@code dir/host} whose other side is a TCP
  * connection. Without socat the test fails when {@code CI=true} (CI must run the serial tests)
- * and is aborted, visibly, elsewhere.
+ * and is aborted, visibly, elsewhere. The USBTMC tests use a bridge as their stand-in device node.
  */
-final class PtyPair implements AutoCloseable {
+public final class PtyPair implements AutoCloseable {
     /** The meter's end; {@code null} for a bridge, where the meter is the TCP server. */
     final Path meter;
-    final Path host;
+    public final Path host;
     private final Process socat;
 
     private PtyPair(Path meter, Path host, Process socat) {
@@ -35,7 +35,7 @@ final class PtyPair implements AutoCloseable {
     }
 
     /** A pseudo-terminal at {@code dir/host} bridged to {@code 127.0.0.1:port}, as a serial-to-LAN adapter does. */
-    static PtyPair bridgeToTcp(Path dir, int port) throws IOException, InterruptedException {
+    public static PtyPair bridgeToTcp(Path dir, int port) throws IOException, InterruptedException {
         Path host = dir.resolve("host");
         return new PtyPair(null, host, socat(dir, List.of(host), "pty,raw,echo=0,link=" + host,
                 "tcp:127.0.0.1:" + port));
