@@ -15,23 +15,29 @@ import java.util.List;
 
 /** Reading description files nobody vouches for, in bounded memory. */
 public final class InputFiles {
-    /** The largest bench or netlist file read, in bytes. */
-    public static final int MAX_FILE_BYTES = 1 << 20;
+    /** The largest netlist file read, in bytes. */
+    public static final int MAX_NETLIST_BYTES = 1 << 20;
+    /**
+     * The largest bench file (YAML) read, in bytes: small enough that the two passes over it
+     * (limits, then nodes) stay well under a second on a cold JVM.
+     */
+    public static final int MAX_BENCH_BYTES = 256 << 10;
 
     private InputFiles() {
     }
 
     /**
-     * Reads at most {@link #MAX_FILE_BYTES} bytes of UTF-8 text; a device such as {@code /dev/zero}
-     * or a pipe is refused once the limit is passed, without reading further.
+     * Reads at most {@code maxBytes} bytes of UTF-8 text; a device such as {@code /dev/zero} or a
+     * pipe is refused once the limit is passed, without reading further.
      *
      * @param what what the file is, for the message ("bench file")
+     * @param maxBytes the limit ({@link #MAX_BENCH_BYTES}, {@link #MAX_NETLIST_BYTES})
      * @throws SimulatorInputException naming the file and the limit, or why it cannot be read
      */
-    public static String read(Path file, String what) {
+    public static String read(Path file, String what, int maxBytes) {
         byte[] bytes;
         try (InputStream in = Files.newInputStream(file)) {
-            bytes = in.readNBytes(MAX_FILE_BYTES + 1);
+            bytes = in.readNBytes(maxBytes + 1);
         } catch (NoSuchFileException e) {
             throw new SimulatorInputException(file + ": cannot read the " + what + ": no such file");
         } catch (AccessDeniedException e) {
@@ -40,8 +46,8 @@ public final class InputFiles {
             throw new SimulatorInputException(file + ": cannot read the " + what + ": "
                     + (e.getMessage() == null ? e.getClass().getSimpleName() : e.getMessage()));
         }
-        if (bytes.length > MAX_FILE_BYTES) {
-            throw new SimulatorInputException(file + ": larger than " + MAX_FILE_BYTES + " bytes, the limit for a " + what);
+        if (bytes.length > maxBytes) {
+            throw new SimulatorInputException(file + ": larger than " + maxBytes + " bytes, the limit for a " + what);
         }
         try {
             return StandardCharsets.UTF_8.newDecoder().onMalformedInput(CodingErrorAction.REPORT)

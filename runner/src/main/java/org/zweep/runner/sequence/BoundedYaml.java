@@ -32,8 +32,11 @@ import org.zweep.driver.InvalidInputException;
  * long lines). Limits in README, section "Limits on input files".
  */
 final class BoundedYaml {
-    /** The largest file read, in bytes. */
-    static final int MAX_FILE_BYTES = 1 << 20;
+    /**
+     * The largest file read, in bytes: a hundred times a long sequence file, and small enough
+     * that the two passes over it (limits, then nodes) stay well under a second on a cold JVM.
+     */
+    static final int MAX_FILE_BYTES = 256 << 10;
     /** The deepest nesting of mappings and lists. */
     static final int MAX_DEPTH = 64;
     /** The most aliases ({@code *name}) in one file. */

@@ -58,17 +58,17 @@ class HostileInputTest {
     }
 
     @Test
-    void aSequenceFileLargerThanOneMebibyteIsRefusedNamingTheLimit() throws IOException {
+    void aSequenceFileLargerThanTheLimitIsRefusedNamingIt() throws IOException {
         Path file = dir.resolve("long.yaml");
         Files.writeString(file, "format: zweep-sequence/1\ndescription: " + "x".repeat(8 << 20) + "\n");
         assertEquals(ExitCode.USAGE, zweep("check", file.toString()));
-        assertEquals("zweep: " + file + ": larger than 1048576 bytes, the limit for a sequence file", oneLine());
+        assertEquals("zweep: " + file + ": larger than 262144 bytes, the limit for a sequence file", oneLine());
     }
 
     @Test
     void devZeroAsASequenceFileIsRefusedAfterReadingTheLimitOnly() {
         assertEquals(ExitCode.USAGE, zweep("check", "/dev/zero"));
-        assertEquals("zweep: /dev/zero: larger than 1048576 bytes, the limit for a sequence file", oneLine());
+        assertEquals("zweep: /dev/zero: larger than 262144 bytes, the limit for a sequence file", oneLine());
     }
 
     @Test

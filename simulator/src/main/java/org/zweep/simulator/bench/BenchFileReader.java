@@ -64,15 +64,15 @@ final class BenchFileReader {
     }
 
     BenchSpec read(String yaml) {
-        if (yaml.length() > InputFiles.MAX_FILE_BYTES) {
-            throw new SimulatorInputException(source + ": larger than " + InputFiles.MAX_FILE_BYTES
+        if (yaml.length() > InputFiles.MAX_BENCH_BYTES) {
+            throw new SimulatorInputException(source + ": larger than " + InputFiles.MAX_BENCH_BYTES
                     + " characters, the limit for a bench file");
         }
         rawLines = yaml.split("\r?\n|\r", -1);
         Node root;
         try {
             LoadSettings settings = LoadSettings.builder().setLabel(source).setBufferSize(READ_BUFFER)
-                    .setCodePointLimit(InputFiles.MAX_FILE_BYTES).setMaxAliasesForCollections(MAX_ALIASES).build();
+                    .setCodePointLimit(InputFiles.MAX_BENCH_BYTES).setMaxAliasesForCollections(MAX_ALIASES).build();
             checkLimits(new Parse(settings).parseString(yaml));
             root = new Compose(settings).composeString(yaml).orElse(null);
         } catch (MarkedYamlEngineException e) {
@@ -294,7 +294,7 @@ final class BenchFileReader {
         }
         String text;
         try {
-            text = InputFiles.read(file, "netlist file");
+            text = InputFiles.read(file, "netlist file", InputFiles.MAX_NETLIST_BYTES);
         } catch (SimulatorInputException e) {
             throw at(node, e.getMessage());
         }

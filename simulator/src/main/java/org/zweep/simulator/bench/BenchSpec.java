@@ -34,7 +34,7 @@ public final class BenchSpec {
      *     or is not a valid bench description
      */
     public static BenchSpec load(Path file) {
-        String text = InputFiles.read(file, "bench file");
+        String text = InputFiles.read(file, "bench file", InputFiles.MAX_BENCH_BYTES);
         Path parent = file.toAbsolutePath().getParent();
         return new BenchFileReader(file.toString(), parent, null).read(text);
     }
@@ -46,7 +46,7 @@ public final class BenchSpec {
      * @throws SimulatorInputException as {@link #load(Path)}, and for a netlist file outside the folders
      */
     public static BenchSpec load(Path file, List<Path> folders) {
-        String text = InputFiles.read(file, "bench file");
+        String text = InputFiles.read(file, "bench file", InputFiles.MAX_BENCH_BYTES);
         Path parent = file.toAbsolutePath().getParent();
         return new BenchFileReader(file.toString(), parent, List.copyOf(folders)).read(text);
     }
@@ -82,7 +82,7 @@ public final class BenchSpec {
      *     naming the file when it cannot be read or is too large
      */
     public static BenchSpec ofNetlistFile(Path file) {
-        return ofNetlist(InputFiles.read(file, "netlist file"), file.toString());
+        return ofNetlist(InputFiles.read(file, "netlist file", InputFiles.MAX_NETLIST_BYTES), file.toString());
     }
 
     /**

@@ -50,7 +50,8 @@ public final class SimulatorServer implements AutoCloseable {
             ServerSocket s = new ServerSocket();
             try {
                 s.setReuseAddress(true);
-                s.bind(new InetSocketAddress(options.bindAddress(), options.port()), 50);
+                // a burst of up to the cap waits in the kernel; a full backlog drops SYNs and costs a client 1 s
+                s.bind(new InetSocketAddress(options.bindAddress(), options.port()), Math.max(50, options.maxConnections() + 16));
             } catch (IOException e) {
                 s.close();
                 instrument.close();
