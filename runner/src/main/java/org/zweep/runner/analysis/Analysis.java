@@ -9,6 +9,7 @@ import java.util.Map;
 import java.util.TreeMap;
 import org.zweep.driver.InvalidInputException;
 import org.zweep.driver.impedance.DerivedParameter;
+import org.zweep.driver.impedance.ToleranceCode;
 import org.zweep.driver.impedance.Unit;
 import org.zweep.runner.results.PointRow;
 import org.zweep.runner.results.RunManifest;

@@ -18,6 +18,7 @@ import org.zweep.driver.address.Address;
 import org.zweep.driver.dialect.Dialect;
 import org.zweep.driver.impedance.DerivedParameter;
 import org.zweep.driver.impedance.Impedance;
+import org.zweep.driver.impedance.ToleranceCode;
 import org.zweep.driver.impedance.Unit;
 import org.zweep.driver.meter.CorrectionStandard;
 import org.zweep.driver.meter.ImpedanceRange;
@@ -316,10 +317,10 @@ final class SequenceReader {
     private static double tolerance(YamlNode node, PartKind kind, double nominal) {
         String text = node.text("a tolerance");
         if (text.matches("[A-Za-z]")) {
-            OptionalDouble p = Tolerances.percentOf(text.charAt(0), kind == PartKind.CAPACITOR, nominal);
+            OptionalDouble p = ToleranceCode.symmetricPercent(text.charAt(0), kind == PartKind.CAPACITOR, nominal);
             if (p.isEmpty()) {
-                throw node.error("unknown tolerance letter '" + text
-                        + "': expected one of B C D F G J K M (IEC 60062) or a percentage such as ±10 %");
+                throw node.error("unknown tolerance letter '" + text + "': expected one of "
+                        + ToleranceCode.symmetricLetters() + " (IEC 60062) or a percentage such as ±10 %");
             }
             return p.getAsDouble();
         }

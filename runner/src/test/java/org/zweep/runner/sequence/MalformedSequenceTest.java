@@ -95,7 +95,7 @@ class MalformedSequenceTest {
                         meter: {bench: b.bench.yaml}
                         safety: {}
                         part: {kind: resistor, nominal: 10 kohm, tolerance: X}
-                        """, "4:53: unknown tolerance letter 'X': expected one of B C D F G J K M (IEC 60062) "
+                        """, "4:53: unknown tolerance letter 'X': expected one of E L P W B C D F G H J K M N (IEC 60062) "
                                 + "or a percentage such as ±10 %"),
                 Arguments.of("turns ratio on a capacitor", """
                         format: zweep-sequence/1

@@ -1,13 +1,16 @@
-package org.zweep.runner.analysis;
+package org.zweep.driver.impedance;
 
 import java.util.Comparator;
 import java.util.List;
 import java.util.Optional;
+import java.util.OptionalDouble;
+import java.util.stream.Collectors;
 
 /**
- * IEC 60062 tolerance letters. Relative letters give a band in percent of nominal; for
- * capacitances below 10 pF, A, B, C, D, F and G are absolute bands in pF instead (common
- * practice; check-values.md §4.1).
+ * The IEC 60062:2016 tolerance letters (the code printed on parts), the one table zweep has:
+ * sequences read their {@code tolerance} with it and analysis names the tightest letter a
+ * measured value meets. Relative letters give a band in percent of nominal; for capacitances
+ * below 10 pF, A, B, C, D, F and G are absolute bands in pF instead; A has only that meaning.
  *
  * @param letter the code letter
  * @param lowerPercent the lower bound in percent (negative)
@@ -18,7 +21,7 @@ public record ToleranceCode(char letter, double lowerPercent, double upperPercen
     /** Capacitances below this use the absolute pF meaning of A, B, C, D, F, G. */
     public static final double SMALL_CAPACITANCE_F = 10e-12;
 
-    /** The letters, IEC 60062 (check-values.md §4.1). */
+    /** The letters, IEC 60062:2016 tolerance letter code. */
     public static final List<ToleranceCode> ALL = List.of(
             sym('E', 0.005), sym('L', 0.01), sym('P', 0.02), sym('W', 0.05), new ToleranceCode('A', -0.05, 0.05, 0.05),
             new ToleranceCode('B', -0.1, 0.1, 0.1), new ToleranceCode('C', -0.25, 0.25, 0.25),
@@ -35,6 +38,38 @@ public record ToleranceCode(char letter, double lowerPercent, double upperPercen
     public static Optional<ToleranceCode> of(char letter) {
         char up = Character.toUpperCase(letter);
         return ALL.stream().filter(c -> c.letter == up).findFirst();
+    }
+
+    /** Whether the band is one ± figure (lower bound = −upper bound). */
+    public boolean symmetric() {
+        return lowerPercent == -upperPercent;
+    }
+
+    /**
+     * The ± tolerance in percent of {@code nominal} that {@code letter} stands for on a part, or
+     * empty when the letter is unknown, asymmetric (Q, S, T, Z) or, like A, has no meaning for
+     * this part.
+     *
+     * @param capacitor whether the part is a capacitor (for the absolute pF meaning below 10 pF)
+     * @param nominal the nominal value in SI units (F for a capacitor)
+     */
+    public static OptionalDouble symmetricPercent(char letter, boolean capacitor, double nominal) {
+        Optional<ToleranceCode> code = of(letter).filter(ToleranceCode::symmetric);
+        if (code.isEmpty()) {
+            return OptionalDouble.empty();
+        }
+        ToleranceCode c = code.get();
+        String unit = capacitor ? "F" : "";
+        if (c.absoluteFor(nominal, unit)) {
+            return OptionalDouble.of(c.absolutePf * 1e-12 / nominal * 100.0);
+        }
+        return c.letter == 'A' ? OptionalDouble.empty() : OptionalDouble.of(c.upperPercent);
+    }
+
+    /** The symmetric letters a part can carry, for messages: {@code E L P W B C D F G H J K M N}. */
+    public static String symmetricLetters() {
+        return ALL.stream().filter(c -> c.symmetric() && c.letter != 'A').map(c -> String.valueOf(c.letter))
+                .collect(Collectors.joining(" "));
     }
 
     /** Whether this letter means an absolute pF band for a part of this nominal value and unit. */
