@@ -144,4 +144,14 @@ class HostileInputTest {
         assertEquals(ExitCode.USAGE, zweep("sim", "--port", "0", "--device", file.toString()));
         assertEquals("zweep: " + file + ":200:11: more than 200 nodes (the limit)", oneLine());
     }
+
+    @Test
+    void aYamlErrorThatQuotesALineEndStaysOnOneLine() throws IOException {
+        // found by InputFuzzIT: the parser quotes the unexpected character as it is, here a line end
+        Path file = dir.resolve("directive.yaml");
+        Files.writeString(file, "%\nformat: zweep-sequence/1\n");
+        assertEquals(ExitCode.USAGE, zweep("check", file.toString()));
+        assertTrue(oneLine().startsWith("zweep: " + file + ":1:2: YAML syntax: expected alphabetic or numeric character, "
+                + "but found \\n(10)"), err.toString());
+    }
 }

@@ -80,9 +80,10 @@ final class BenchFileReader {
             int line = m.map(x -> x.getLine() + 1).orElse(1);
             int column = m.map(x -> x.getColumn() + 1).orElse(0);
             throw SimulatorInputException.at(source, line, column,
-                    "not valid YAML: " + e.getProblem());
+                    "not valid YAML: " + SimulatorInputException.oneLine(e.getProblem()));
         } catch (YamlEngineException e) {
-            throw new SimulatorInputException(source + ": not valid YAML: " + e.getMessage(), e);
+            throw new SimulatorInputException(source + ": not valid YAML: "
+                    + SimulatorInputException.oneLine(e.getMessage()), e);
         }
         if (root == null) {
             throw SimulatorInputException.at(source, 1, 0, "the bench file is empty");

@@ -114,6 +114,9 @@ final class Connection implements Session.Hooks {
             if (!closed) {
                 closeReason = "connection lost: " + e.getMessage();
             }
+        } catch (RuntimeException e) {
+            // a bug of ours: one log line and this connection closed, never a stack trace or the server
+            closeReason = "internal error: " + e;
         } finally {
             close(closeReason);
         }

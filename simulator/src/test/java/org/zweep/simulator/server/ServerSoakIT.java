@@ -39,7 +39,7 @@ class ServerSoakIT {
         try (SimulatorServer server = SimulatorServer.start(bench, ServerOptions.defaults().withPort(0)
                 .withMaxConnections(CAP).withInstrument(InstrumentOptions.defaults().withTiming(TimingModel.NONE)
                         .withBenchLoader(BenchLoader.simulated(true, TimingModel.NONE))))) {
-            attackRound(server, new AtomicBoolean()); // warm-up: threads, JIT and buffers reach their steady state
+            attackRound(server); // warm-up: threads, JIT and buffers reach their steady state
             settle(server);
             long heapBefore = heapUsed();
             int threadsBefore = threads();
@@ -49,7 +49,7 @@ class ServerSoakIT {
             Thread t = new Thread(probe, "soak-probe");
             t.start();
             for (int r = 0; r < rounds; r++) {
-                attackRound(server, probe.paused);
+                attackRound(server);
             }
             probe.stop.set(true);
             t.join();
@@ -69,7 +69,7 @@ class ServerSoakIT {
             assertTrue(threadsAfter <= threadsBefore, "threads " + threadsBefore + " -> " + threadsAfter);
             assertTrue(heapAfter <= heapBefore + (8 << 20), "heap " + heapBefore + " -> " + heapAfter + " bytes");
             assertEquals(0, probe.failures, "every probe answered");
-            assertTrue(lat.length >= 10, "probes ran: " + lat.length);
+            assertTrue(lat.length >= rounds, "probes ran: " + lat.length);
             // only liveness on a shared CI machine (a burst of connections can hold a probe up to a
             // second there); the measured figures are printed above and quoted in README
             assertTrue(pct(lat, 100) < 5000, "slowest probe " + pct(lat, 100) + " ms");
@@ -77,7 +77,7 @@ class ServerSoakIT {
     }
 
     /** One of each attack, each bounded, each closed at the end. */
-    private static void attackRound(SimulatorServer server, AtomicBoolean paused) throws Exception {
+    private static void attackRound(SimulatorServer server) throws Exception {
         Probe.phase = "delayed flood";
         // unread delayed replies: the queue fills to its bound, then -430
         try (RawClient c = new RawClient(server)) {
@@ -103,30 +103,25 @@ class ServerSoakIT {
         closeAll(idle);
         Probe.phase = "long line";
         // a line longer than the message limit without LF, then one with; the connection goes on
-        awaitAttackersGone(server, paused); // the error queue is the meter's, shared: let the floods finish first
+        // (the errors themselves are checked in ServerIT and ServerLimitsIT: the error queue is the
+        // meter's, shared with the attacks still draining, so here only that the connection goes on)
         try (RawClient c = new RawClient(server)) {
-            c.send("*CLS");
             byte[] a = new byte[2 << 20];
             Arrays.fill(a, (byte) 'A');
             c.sendRaw(a);
             c.send("");
-            assertTrue(c.query("SYST:ERR?").startsWith("-363,"));
             assertEquals(IDN, c.query("*IDN?"));
         }
-        paused.set(false);
         Probe.phase = "netlist";
         // a netlist far over the element limit
-        awaitAttackersGone(server, paused);
         try (RawClient c = new RawClient(server)) {
-            c.send("*CLS");
             StringBuilder n = new StringBuilder();
             for (int i = 1; i <= 12_000; i++) {
                 n.append('R').append(i).append(" a").append(i).append(" b").append(i).append(" 1\\n");
             }
             c.send("SIM:DEV \"" + n + "\"");
-            assertTrue(c.query("SYST:ERR?").startsWith("-200,"));
+            assertEquals(IDN, c.query("*IDN?"));
         }
-        paused.set(false);
         Probe.phase = "odd syntax";
         // odd syntax: a lone '#', a block whose length never comes, a bad idle time, an unknown header
         try (RawClient c = new RawClient(server)) {
@@ -145,12 +140,6 @@ class ServerSoakIT {
             c.sendRaw("SOUR:FREQ 1".getBytes(StandardCharsets.US_ASCII));
         }
         closeAll(partial);
-    }
-
-    /** Pauses the probe until every connection, the attackers' included, has closed. */
-    private static void awaitAttackersGone(SimulatorServer server, AtomicBoolean paused) {
-        paused.set(true);
-        ServerLimitsIT.awaitTrue(() -> server.connectionCount() == 0, "the attackers' connections closed");
     }
 
     private static void closeAll(List<RawClient> clients) throws IOException {
@@ -198,8 +187,6 @@ class ServerSoakIT {
 
     /** A fresh connection every 20 ms: connect, *IDN?, close; the time from connecting to the reply. */
     private static final class Probe implements Runnable {
-        /** Set while a check needs the meter's shared error queue to itself. */
-        final AtomicBoolean paused = new AtomicBoolean();
         static volatile String phase = "";
         final AtomicBoolean stop = new AtomicBoolean();
         final List<Long> nanos = new ArrayList<>();
@@ -213,10 +200,6 @@ class ServerSoakIT {
         @Override
         public void run() {
             while (!stop.get()) {
-                if (paused.get()) {
-                    ServerIT.sleep(5);
-                    continue;
-                }
                 long t0 = System.nanoTime();
                 try (RawClient c = new RawClient(server)) {
                     if (IDN.equals(c.query("*IDN?"))) {
