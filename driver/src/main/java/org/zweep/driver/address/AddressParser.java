@@ -9,8 +9,10 @@ import org.zweep.driver.address.SerialParameters.Parity;
 
 /** The address grammar of {@link Address}; every error names the offending part. */
 final class AddressParser {
-    private static final String FORMS = "tcp://HOST[:PORT], vxi11://HOST[:PORT][/DEVICE], serial:DEVICE[?baud=N&...], "
+    private static final String FORMS = "tcp://HOST[:PORT], vxi11://HOST[:PORT][/DEVICE], hislip://HOST[:PORT][/SUBADDRESS], "
+            + "serial:DEVICE[?baud=N&...], "
             + "usbtmc:/dev/usbtmcN, sim:[BENCH], TCPIP::HOST::PORT::SOCKET, TCPIP::HOST[::DEVICE]::INSTR, "
+            + "TCPIP::HOST::hislip0::INSTR, "
             + "USB::VID::PID::SERIAL::INSTR or ASRL<device>::INSTR";
 
     private AddressParser() {
@@ -27,6 +29,9 @@ final class AddressParser {
         }
         if (lower.startsWith("vxi11://")) {
             return vxi11(text, text.substring("vxi11://".length()));
+        }
+        if (lower.startsWith("hislip://")) {
+            return hislip(text, text.substring("hislip://".length()));
         }
         if (lower.startsWith("usbtmc:")) {
             String device = text.substring("usbtmc:".length());
@@ -83,6 +88,19 @@ final class AddressParser {
         String[] hostPort = hostAndPort(text, authority, "vxi11://[::1]/inst0");
         int port = hostPort[1] == null ? Vxi11Address.DEFAULT_PORTMAPPER_PORT : port(text, hostPort[1]);
         return new Vxi11Address(text, hostPort[0], port, lanDevice(text, device));
+    }
+
+    /** {@code hislip://HOST[:PORT][/SUBADDRESS]}. */
+    private static HislipAddress hislip(String text, String rest) {
+        int slash = rest.indexOf('/');
+        String authority = slash >= 0 ? rest.substring(0, slash) : rest;
+        String sub = slash >= 0 ? rest.substring(slash + 1) : HislipAddress.DEFAULT_SUB_ADDRESS;
+        if (authority.isEmpty()) {
+            throw new InvalidInputException("address '" + text + "': missing host after 'hislip://'");
+        }
+        String[] hostPort = hostAndPort(text, authority, "hislip://[::1]/hislip0");
+        int port = hostPort[1] == null ? HislipAddress.DEFAULT_PORT : port(text, hostPort[1]);
+        return new HislipAddress(text, hostPort[0], port, lanDevice(text, sub));
     }
 
     /** A LAN device name: {@code inst0}, {@code gpib0,5}; no separators, spaces or slashes. */
@@ -264,8 +282,11 @@ final class AddressParser {
                     + "socket is TCPIP::" + parts[1] + "::" + device + "::SOCKET");
         }
         if (device.toLowerCase(Locale.ROOT).startsWith("hislip")) {
-            throw new InvalidInputException("address '" + text + "': HiSLIP is not supported yet; use VXI-11 "
-                    + "(TCPIP::" + parts[1] + "::INSTR) or the raw socket (TCPIP::" + parts[1] + "::5025::SOCKET)");
+            // hislipN or hislipN,PORT (VPP-4.3)
+            int comma = device.indexOf(',');
+            String sub = comma >= 0 ? device.substring(0, comma) : device;
+            int port = comma >= 0 ? port(text, device.substring(comma + 1)) : HislipAddress.DEFAULT_PORT;
+            return new HislipAddress(text, parts[1], port, lanDevice(text, sub));
         }
         return new Vxi11Address(text, parts[1], Vxi11Address.DEFAULT_PORTMAPPER_PORT, lanDevice(text, device));
     }

@@ -107,6 +107,21 @@ class AddressTest {
         assertEquals("usbtmc", a.scheme());
     }
 
+    @ParameterizedTest(name = "{0}")
+    @CsvSource(delimiter = '|', value = {
+        // VPP-4.3: the LAN device name hislip<N>[,<port>]; IVI-6.1: port 4880
+        "TCPIP::192.168.1.50::hislip0::INSTR      | 192.168.1.50 | 4880 | hislip0",
+        "TCPIP0::meter.lab::HISLIP1,4881::INSTR   | meter.lab    | 4881 | HISLIP1",
+        "TCPIP::[::1]::hislip0                    | ::1          | 4880 | hislip0",
+        "hislip://meter.lab                       | meter.lab    | 4880 | hislip0",
+        "hislip://127.0.0.1:5000/hislip2          | 127.0.0.1    | 5000 | hislip2",
+    })
+    void hislipFormsGiveHostPortAndSubAddress(String text, String host, int port, String sub) {
+        HislipAddress a = assertInstanceOf(HislipAddress.class, Address.parse(text));
+        assertEquals(new HislipAddress(text, host, port, sub), a);
+        assertEquals("hislip", a.scheme());
+    }
+
     @Test
     void usbtmcTakesADeviceNode() {
         assertEquals(new UsbtmcAddress("usbtmc:/dev/usbtmc0", "/dev/usbtmc0", null), Address.parse("usbtmc:/dev/usbtmc0"));
@@ -139,7 +154,9 @@ class AddressTest {
         "serial:/dev/ttyS0?speed=9600        | unknown serial option 'speed'",
         "serial:/dev/ttyS0?baud=9600&baud=1  | 'baud' given twice",
         "serial:/dev/ttyS0?baud              | 'baud' is not NAME=VALUE",
-        "TCPIP0::10.0.0.5::hislip0::INSTR    | HiSLIP is not supported yet",
+        "TCPIP0::10.0.0.5::hislip0,x::INSTR  | port 'x'",
+        "hislip://                           | missing host after 'hislip://'",
+        "hislip://h:70000                    | port '70000'",
         "TCPIP0::10.0.0.5::5025              | TCPIP::10.0.0.5::5025::SOCKET",
         "TCPIP0::::INSTR                     | missing host",
         "TCPIP0::h::inst0::x::INSTR          | TCPIP[board]::HOST[::DEVICE]::INSTR",

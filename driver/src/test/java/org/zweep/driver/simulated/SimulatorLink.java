@@ -20,17 +20,19 @@ import org.zweep.simulator.scpi.TimingModel;
 import org.zweep.simulator.server.InMemoryConnection;
 import org.zweep.simulator.server.ServerOptions;
 import org.zweep.simulator.server.SimulatorServer;
+import org.zweep.simulator.hislip.HislipOptions;
+import org.zweep.simulator.hislip.HislipServer;
 import org.zweep.simulator.vxi11.Vxi11Options;
 import org.zweep.simulator.vxi11.Vxi11Server;
 
 /**
  * A simulator server on one bench and a {@link ScpiClient} connected to it, over loopback TCP,
- * an in-memory stream pair or VXI-11 (the simulator's own portmapper and core channel); every message the client sends is recorded.
+ * an in-memory stream pair, VXI-11 (the simulator's own portmapper and core channel) or HiSLIP; every message the client sends is recorded.
  */
 final class SimulatorLink implements AutoCloseable {
 
     /** How the client reaches the simulator. */
-    enum Kind { TCP, IN_MEMORY, VXI11 }
+    enum Kind { TCP, IN_MEMORY, VXI11, HISLIP }
 
     /** Short read timeouts for the fault tests. */
     static final ScpiSettings FAST = ScpiSettings.builder().readTimeout(java.time.Duration.ofMillis(400)).build();
@@ -38,6 +40,8 @@ final class SimulatorLink implements AutoCloseable {
     final SimulatorServer server;
     /** The VXI-11 front of {@link #server} (its own portmapper on a free port), or null for other kinds. */
     final Vxi11Server vxi11;
+    /** The HiSLIP front of {@link #server} (on a free port), or null for other kinds. */
+    final HislipServer hislip;
     final ScpiClient client;
     final Recording session;
     private final Kind kind;
@@ -48,6 +52,7 @@ final class SimulatorLink implements AutoCloseable {
         this.server = server;
         this.kind = kind;
         this.vxi11 = kind == Kind.VXI11 ? startVxi11(server) : null;
+        this.hislip = kind == Kind.HISLIP ? startHislip(server) : null;
         this.client = connect(settings);
         this.session = new Recording(client);
         // opened now: its *CLS would clear the shared error queue later
@@ -74,6 +79,20 @@ final class SimulatorLink implements AutoCloseable {
             server.close();
             throw new UncheckedIOException(e);
         }
+    }
+
+    private static HislipServer startHislip(SimulatorServer server) {
+        try {
+            return HislipServer.start(server, HislipOptions.defaults());
+        } catch (IOException e) {
+            server.close();
+            throw new UncheckedIOException(e);
+        }
+    }
+
+    /** The HiSLIP address of the simulator (a free port). */
+    String hislipAddress() {
+        return "hislip://127.0.0.1:" + hislip.port() + "/hislip0";
     }
 
     /** The VXI-11 address of the simulator (portmapper on a free port). */
@@ -105,6 +124,9 @@ final class SimulatorLink implements AutoCloseable {
         if (kind == Kind.VXI11) {
             return ScpiClient.open(vxi11Address(), settings);
         }
+        if (kind == Kind.HISLIP) {
+            return ScpiClient.open(hislipAddress(), settings);
+        }
         InMemoryConnection c = server.connectInMemory();
         return ScpiClient.connect(Transport.ofStreams(c.input(), c.output(), "sim:in-memory"), settings);
     }
@@ -130,6 +152,9 @@ final class SimulatorLink implements AutoCloseable {
         others.forEach(ScpiClient::close);
         if (vxi11 != null) {
             vxi11.close();
+        }
+        if (hislip != null) {
+            hislip.close();
         }
         server.close();
     }

@@ -22,6 +22,8 @@ import org.zweep.simulator.scpi.InstrumentOptions;
 import org.zweep.simulator.scpi.TimingModel;
 import org.zweep.simulator.server.FaultPlan;
 import org.zweep.simulator.server.ServerOptions;
+import org.zweep.simulator.hislip.HislipOptions;
+import org.zweep.simulator.hislip.HislipServer;
 import org.zweep.simulator.server.SimulatorServer;
 import org.zweep.simulator.vxi11.Vxi11Options;
 import org.zweep.simulator.vxi11.Vxi11Server;
@@ -36,7 +38,7 @@ import picocli.CommandLine.Spec;
         name = "sim",
         mixinStandardHelpOptions = true,
         description = {
-            "Serves the simulated impedance meter (IEEE 488.2 / SCPI over raw TCP, and VXI-11 with --vxi11-port)"
+            "Serves the simulated impedance meter (IEEE 488.2 / SCPI over raw TCP; VXI-11 and HiSLIP on request)"
                     + " in the foreground.",
             "Prints 'listening on tcp://HOST:PORT' once ready, logs connections, stops on Ctrl-C."},
         footer = {
@@ -59,6 +61,13 @@ public final class SimCommand implements Callable<Integer> {
             description = "Also serve over VXI-11: a portmapper on this port (111 is the standard one, which VISA"
                     + " clients look up; 0 picks a free one) and the core channel on a free port registered there.")
     Integer vxi11Port;
+
+    @Option(names = "--hislip-port", paramLabel = "N",
+            description = "Also serve over HiSLIP on this port (4880 is the standard one; 0 picks a free one).")
+    Integer hislipPort;
+
+    @Option(names = "--hislip-overlapped", description = "HiSLIP in overlapped mode (default: synchronized).")
+    boolean hislipOverlapped;
 
     @Option(names = "--bind", paramLabel = "ADDR",
             description = "Address to listen on (default ${DEFAULT-VALUE}: this machine only).", defaultValue = "127.0.0.1")
@@ -194,9 +203,33 @@ public final class SimCommand implements Callable<Integer> {
                 throw new MeterException(e.getMessage(), e);
             }
         }
+        HislipServer hislip = null;
+        if (hislipPort != null) {
+            if (hislipPort < 0 || hislipPort > 65535) {
+                if (vxi11 != null) {
+                    vxi11.close();
+                }
+                server.close();
+                throw new InvalidInputException("--hislip-port: must be 0..65535, got " + hislipPort);
+            }
+            try {
+                hislip = HislipServer.start(server, HislipOptions.defaults().withBindAddress(address)
+                        .withPort(hislipPort).withOverlapped(hislipOverlapped).withLog(options.log()));
+            } catch (IOException e) {
+                if (vxi11 != null) {
+                    vxi11.close();
+                }
+                server.close();
+                throw new MeterException(e.getMessage(), e);
+            }
+        }
         Vxi11Server lan = vxi11;
+        HislipServer hs = hislip;
         CountDownLatch stopped = new CountDownLatch(1);
         Thread hook = new Thread(() -> {
+            if (hs != null) {
+                hs.close();
+            }
             if (lan != null) {
                 lan.close();
             }
@@ -213,6 +246,12 @@ public final class SimCommand implements Callable<Integer> {
                         + " channel on port " + lan.corePort() + ")" + (lan.portmapperPort() == 111
                         ? ", VISA: TCPIP::" + host + "::INSTR" : ""));
             }
+            if (hs != null) {
+                String host = server.address().getAddress().getHostAddress();
+                out.println("listening on hislip://" + host + ":" + hs.port() + "/hislip0 ("
+                        + (hislipOverlapped ? "overlapped" : "synchronized") + " mode), VISA: TCPIP::" + host
+                        + "::hislip0" + (hs.port() == 4880 ? "" : "," + hs.port()) + "::INSTR");
+            }
             out.flush();
         }
         try {
@@ -220,6 +259,9 @@ public final class SimCommand implements Callable<Integer> {
         } catch (InterruptedException e) {
             Thread.currentThread().interrupt();
         } finally {
+            if (hs != null) {
+                hs.close();
+            }
             if (lan != null) {
                 lan.close();
             }

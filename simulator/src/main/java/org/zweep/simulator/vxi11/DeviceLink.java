@@ -3,8 +3,9 @@ package org.zweep.simulator.vxi11;
 import java.io.IOException;
 import java.io.InterruptedIOException;
 import java.io.OutputStream;
-import java.nio.charset.StandardCharsets;
 import java.util.Arrays;
+import org.zweep.simulator.lan.ResponseEnd;
+import org.zweep.simulator.lan.StatusProbe;
 import org.zweep.simulator.server.InMemoryConnection;
 import org.zweep.simulator.server.SimulatorServer;
 
@@ -26,7 +27,7 @@ final class DeviceLink {
     private final Object abortGuard = new Object();
     private final SimulatorServer meter;
     private InMemoryConnection conn;
-    private InMemoryConnection control;
+    private final StatusProbe probe;
     private byte[] buf = new byte[8192];
     private int pos;
     private int lim;
@@ -41,6 +42,7 @@ final class DeviceLink {
         this.channel = channel;
         this.meter = meter;
         this.conn = meter.connectInMemory();
+        this.probe = new StatusProbe(meter);
     }
 
     /** Passes a program message (piece) on; END without a final newline adds one (the simulator frames by newline). */
@@ -169,33 +171,12 @@ final class DeviceLink {
     }
 
     /**
-     * The status byte: the instrument's {@code *STB?} read over a side connection, with MAV
+     * The status byte: the instrument's {@code *STB?} (read over a side connection), with MAV
      * (bit 4) from this link's own unread replies. -1 when the simulator does not answer in time.
      */
     int statusByte(long ioTimeoutMillis) throws IOException {
-        if (control == null) {
-            control = meter.connectInMemory();
-        }
-        control.output().write("*STB?\n".getBytes(StandardCharsets.US_ASCII));
-        control.output().flush();
-        StringBuilder sb = new StringBuilder();
-        byte[] one = new byte[64];
-        long deadline = System.nanoTime() + Math.max(1, ioTimeoutMillis) * 1_000_000L;
-        while (sb.indexOf("\n") < 0) {
-            long left = (deadline - System.nanoTime()) / 1_000_000L;
-            if (left <= 0) {
-                return -1;
-            }
-            int n = control.read(one, 0, one.length, left);
-            if (n < 0) {
-                throw new IOException("the simulator closed the status connection");
-            }
-            sb.append(new String(one, 0, n, StandardCharsets.US_ASCII));
-        }
-        int stb;
-        try {
-            stb = Integer.parseInt(sb.toString().strip());
-        } catch (NumberFormatException e) {
+        int stb = probe.statusByte(ioTimeoutMillis);
+        if (stb < 0) {
             return -1;
         }
         if (lim == pos) {
@@ -210,8 +191,6 @@ final class DeviceLink {
 
     void close() {
         conn.close();
-        if (control != null) {
-            control.close();
-        }
+        probe.close();
     }
 }

@@ -1,4 +1,4 @@
-package org.zweep.simulator.vxi11;
+package org.zweep.simulator.lan;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
 

@@ -1,13 +1,13 @@
-package org.zweep.simulator.vxi11;
+package org.zweep.simulator.lan;
 
 /**
  * Finds where each response message ends in the simulator's reply bytes, so that a
  * {@code device_read} can set END there: at a newline outside a definite-length block
  * (IEEE 488.2 §8.7.9, §8.7.10). A block is recognised only where a data element starts (at the
  * start of the message or after ',' or ';') and only with a well-formed header, so that a reply
- * garbled by a fault still ends at its newline. Fed byte by byte, across reads.
+ * garbled by a fault still ends at its newline. Fed byte by byte, across reads. Not thread-safe.
  */
-final class ResponseEnd {
+public final class ResponseEnd {
     private static final int ELEMENT_START = 0;
     private static final int TEXT = 1;
     private static final int HASH = 2;
@@ -19,7 +19,7 @@ final class ResponseEnd {
     private long length;
 
     /** Whether {@code b} ends a response message. */
-    boolean endsAt(byte b) {
+    public boolean endsAt(byte b) {
         switch (state) {
             case HASH -> {
                 if (b >= '1' && b <= '9') {
@@ -65,7 +65,7 @@ final class ResponseEnd {
     }
 
     /** Forgets a half-seen message (device clear). */
-    void reset() {
+    public void reset() {
         state = ELEMENT_START;
     }
 }
