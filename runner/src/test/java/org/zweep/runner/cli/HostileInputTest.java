@@ -154,4 +154,11 @@ class HostileInputTest {
         assertTrue(oneLine().startsWith("zweep: " + file + ":1:2: YAML syntax: expected alphabetic or numeric character, "
                 + "but found \\n(10)"), err.toString());
     }
+
+    @Test
+    void aBenchDirThatIsNotAFolderIsRefusedBeforeTheServerStarts() throws IOException {
+        Path file = Files.writeString(dir.resolve("not-a-folder"), "x");
+        assertEquals(ExitCode.USAGE, zweep("sim", "--port", "0", "--bench-dir", file.toString()));
+        assertEquals("zweep: --bench-dir: " + file + " is not a folder", oneLine());
+    }
 }
