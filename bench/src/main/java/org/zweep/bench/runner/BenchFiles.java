@@ -15,13 +15,23 @@ final class BenchFiles {
         return repo.resolve("sequences/benches/kp-c0805-104.bench.yaml").toAbsolutePath();
     }
 
-    /** A one-step frequency sweep of {@code points} linear points on the simulator bench. */
+    /** A one-step frequency sweep of {@code points} linear points, 100 Hz to 1 MHz, on the simulator bench. */
     static Path sweep(Path dir, Path bench, int points, String integration) {
-        String yaml = """
+        return write(dir.resolve("sweep-" + points + ".yaml"),
+                sweepYaml("sim:" + bench, dialect(dir, 201), "100 Hz", "1 MHz", points, integration));
+    }
+
+    /**
+     * A one-step sweep of {@code points} linear frequencies from {@code start} to {@code stop}
+     * (both included) of a 100 nF capacitor at 0.5 V, no bias, on the meter at {@code address}.
+     */
+    static String sweepYaml(String address, String dialect, String start, String stop, int points,
+            String integration) {
+        return """
                 format: zweep-sequence/1
                 name: bench-sweep
                 meter:
-                  address: "sim:%s"
+                  address: "%s"
                   dialect: "%s"
                 safety:
                   max_bias_voltage: 0 V
@@ -34,11 +44,10 @@ final class BenchFiles {
                   tolerance: K
                 steps:
                   - name: sweep
-                    frequency: {start: 100 Hz, stop: 1 MHz, points: %d}
+                    frequency: {start: %s, stop: %s, points: %d}
                     level: 0.5 V
                     integration: %s
-                """.formatted(bench, dialect(dir, 201), points, integration);
-        return write(dir.resolve("sweep-" + points + ".yaml"), yaml);
+                """.formatted(address, dialect, start, stop, points, integration);
     }
 
     /** The standard dialect with the simulated bench's ranges and {@code listPoints} list points (0: none). */

@@ -11,9 +11,11 @@ import java.util.Locale;
 import org.zweep.runner.cli.Cli;
 
 /**
- * A 100 000-point run on the in-process simulator with timing {@code none}, for the heap figure:
- * {@code java -Xmx256m -cp bench/target/benchmarks.jar org.zweep.bench.runner.LargeRunCheck [REPO]}.
- * Prints the exit code, the rows written, the wall time and the peak heap in use.
+ * A large run on the in-process simulator with timing {@code none}, then {@code zweep analyze} of
+ * it in the same JVM, for the heap figures:
+ * {@code java -Xmx256m -cp bench/target/benchmarks.jar org.zweep.bench.runner.LargeRunCheck [REPO [POINTS]]}
+ * (POINTS defaults to 1,000,000). Prints, for each, the exit code, the wall time and the peak heap
+ * in use (the sum of the heap pools' peaks, so an upper bound).
  */
 public final class LargeRunCheck {
     private LargeRunCheck() {
@@ -22,7 +24,17 @@ public final class LargeRunCheck {
     public static void main(String[] args) throws Exception {
         Path repo = Path.of(args.length > 0 ? args[0] : ".").toAbsolutePath();
         Path dir = Files.createTempDirectory("zweep-large");
-        Path seq = BenchFiles.sweep(dir, BenchFiles.capacitorBench(repo), 100_000, "1 ms");
+        int points = args.length > 1 ? Integer.parseInt(args[1]) : 1_000_000;
+        Path seq = BenchFiles.sweep(dir, BenchFiles.capacitorBench(repo), points, "1 ms");
+        if (points > 100_000) {
+            // one axis holds at most 100,000 values: the same sweep in steps of 100,000 points
+            StringBuilder yaml = new StringBuilder(Files.readString(seq).replaceAll("(?s)steps:.*", "steps:\n"));
+            for (int left = points, k = 1; left > 0; left -= 100_000, k++) {
+                yaml.append("  - name: sweep-").append(k).append("\n    frequency: {start: 100 Hz, stop: 1 MHz, points: ")
+                        .append(Math.min(left, 100_000)).append("}\n    level: 0.5 V\n    integration: 1 ms\n");
+            }
+            Files.writeString(seq, yaml);
+        }
         Path out = dir.resolve("run");
         long t0 = System.nanoTime();
         StringWriter err = new StringWriter();
@@ -30,15 +42,35 @@ public final class LargeRunCheck {
             "sim:" + BenchFiles.capacitorBench(repo) + "?timing=none", "--out", out.toString(), "--quiet"},
                 new PrintWriter(new StringWriter()), new PrintWriter(err));
         double wall = (System.nanoTime() - t0) / 1e9;
-        long rows = Files.lines(out.resolve("points.csv")).count() - 1;
+        if (!Files.exists(out.resolve("points.csv"))) {
+            System.out.printf(Locale.ROOT, "run: exit %d, no points.csv: %s%n", code, err.toString().strip());
+            return;
+        }
+        long rows;
+        try (var lines = Files.lines(out.resolve("points.csv"))) {
+            rows = lines.count() - 1;
+        }
+        System.out.printf(Locale.ROOT, "run: exit %d, %d rows, %.1f s (%.1f us/point), peak heap used %.1f MB of max %.0f MB%s%n",
+                code, rows, wall, wall / rows * 1e6, peakHeap() / 1e6, Runtime.getRuntime().maxMemory() / 1e6,
+                err.toString().isBlank() ? "" : ", stderr: " + err.toString().strip());
+        System.gc();
+        ManagementFactory.getMemoryPoolMXBeans().forEach(MemoryPoolMXBean::resetPeakUsage);
+        StringWriter aerr = new StringWriter();
+        t0 = System.nanoTime();
+        int acode = Cli.run(new String[] {"analyze", out.toString(), "--json"}, new PrintWriter(new StringWriter()),
+                new PrintWriter(aerr));
+        wall = (System.nanoTime() - t0) / 1e9;
+        System.out.printf(Locale.ROOT, "analyze: exit %d, %.1f s, peak heap used %.1f MB%s%n", acode, wall,
+                peakHeap() / 1e6, aerr.toString().isBlank() ? "" : ", stderr: " + aerr.toString().strip());
+    }
+
+    private static long peakHeap() {
         long peak = 0;
         for (MemoryPoolMXBean p : ManagementFactory.getMemoryPoolMXBeans()) {
             if (p.getType() == MemoryType.HEAP) {
                 peak += p.getPeakUsage().getUsed();
             }
         }
-        System.out.printf(Locale.ROOT, "exit %d, %d rows, %.1f s (%.1f us/point), peak heap used %.1f MB of max %.0f MB%s%n",
-                code, rows, wall, wall / rows * 1e6, peak / 1e6, Runtime.getRuntime().maxMemory() / 1e6,
-                err.toString().isBlank() ? "" : ", stderr: " + err.toString().strip());
+        return peak;
     }
 }

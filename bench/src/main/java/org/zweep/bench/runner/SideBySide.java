@@ -120,27 +120,8 @@ public final class SideBySide {
     }
 
     private static Path sequence(Path dir, Case k, int port) {
-        String yaml = """
-                format: zweep-sequence/1
-                name: side-by-side
-                meter:
-                  address: "tcp://127.0.0.1:%d"
-                  dialect: "%s"
-                safety:
-                  max_bias_voltage: 0 V
-                  max_bias_current: 0 A
-                  max_level_voltage: 1 V
-                  max_level_current: 0 A
-                part:
-                  kind: capacitor
-                  nominal: 100 nF
-                  tolerance: K
-                steps:
-                  - name: sweep
-                    frequency: {start: 1 kHz, stop: 1 MHz, points: %d}
-                    level: 0.5 V
-                    integration: %s
-                """.formatted(port, BenchFiles.dialect(dir, k.list()), k.points(), APERTURE);
+        String yaml = BenchFiles.sweepYaml("tcp://127.0.0.1:" + port, BenchFiles.dialect(dir, k.list()), "1 kHz",
+                "1 MHz", k.points(), APERTURE);
         return BenchFiles.write(dir.resolve("side-" + k.points() + "-" + k.list() + "-" + k.timing() + ".yaml"), yaml);
     }
 
