@@ -39,6 +39,7 @@ enum Command {
     LIST_MODE_ON("list-mode-on"),
     LIST_MODE_OFF("list-mode-off"),
     LIST_MEASURE("list-measure"),
+    MEASURE_AGAIN("measure-again"),
     CORRECTION_OPEN("correction-open"),
     CORRECTION_SHORT("correction-short"),
     CORRECTION_LOAD("correction-load"),

@@ -6,6 +6,7 @@ import java.nio.ByteOrder;
 import java.time.Clock;
 import java.time.Instant;
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.EnumMap;
 import java.util.List;
 import java.util.Map;
@@ -47,6 +48,8 @@ import org.zweep.driver.scpi.ScpiValues;
  */
 public final class DialectMeter implements Meter {
     private static final int MAX_ERROR_ENTRIES = 64;
+    /** How often a result is read again, at most, to find two reads that agree. */
+    private static final int MAX_READS_AGAIN = 3;
 
     private final ScpiSession session;
     private final Dialect dialect;
@@ -173,7 +176,8 @@ public final class DialectMeter implements Meter {
         if (resync) {
             apply(current);
         }
-        double[] values = readValues(Command.MEASURE, 1, "measuring at " + describe(current));
+        String what = "measuring at " + describe(current);
+        double[] values = measured(Command.MEASURE, 1, what);
         return reading(current, values, 0, clock.instant());
     }
 
@@ -300,7 +304,8 @@ public final class DialectMeter implements Meter {
         configure(chunk.get(0), chunk, "setting up a list sweep of " + chunk.size() + " points");
         current = chunk.get(chunk.size() - 1);
         resync = true;
-        double[] values = readValues(Command.LIST_MEASURE, chunk.size(), "sweeping " + chunk.size() + " points");
+        String what = "sweeping " + chunk.size() + " points";
+        double[] values = measured(Command.LIST_MEASURE, chunk.size(), what);
         Instant t = clock.instant();
         List<Reading> readings = new ArrayList<>(chunk.size());
         for (int i = 0; i < chunk.size(); i++) {
@@ -532,8 +537,27 @@ public final class DialectMeter implements Meter {
         try {
             int n = Integer.parseInt(code.startsWith("+") ? code.substring(1) : code);
             String text = comma < 0 ? "" : r.substring(comma + 1).strip();
-            if (text.length() >= 2 && text.startsWith("\"") && text.endsWith("\"")) {
-                text = text.substring(1, text.length() - 1).replace("\"\"", "\"");
+            boolean quoted = text.length() >= 2 && text.startsWith("\"") && text.endsWith("\"");
+            if (n != 0 && !text.isEmpty() && !quoted) {
+                throw new ScpiProtocolException(session.address() + ": reply '" + abbreviate(reply)
+                        + "' to the error query is not 'code,\"text\"' (corrupted on the way) while " + what);
+            }
+            if (quoted) {
+                String inner = text.substring(1, text.length() - 1);
+                if (n != 0 && inner.replace("\"\"", "").contains("\"")) {
+                    // IEEE 488.2 §7.7.5: a quote inside a string is doubled; a lone one means the
+                    // reply was corrupted on the way (a lost separator joined two replies)
+                    throw new ScpiProtocolException(session.address() + ": reply '" + abbreviate(reply)
+                            + "' to the error query is not 'code,\"text\"' (corrupted on the way) while " + what);
+                }
+                text = inner.replace("\"\"", "\"");
+            }
+            if (n != 0 && nearNoError(r)) {
+                // SCPI-1999 Vol 2 §21.8: 0,"No error" is the empty queue's answer; a reply of its length
+                // that differs from it in a few characters is that answer corrupted on the way
+                throw new ScpiProtocolException(session.address() + ": reply '" + abbreviate(reply)
+                        + "' to the error query is 0,\"No error\" with characters replaced (corrupted on the way)"
+                        + " while " + what);
             }
             return new ScpiError(n, text);
         } catch (NumberFormatException e) {
@@ -542,12 +566,75 @@ public final class DialectMeter implements Meter {
         }
     }
 
+    /**
+     * The result of {@code command}, read until two reads agree when the dialect declares
+     * {@code measure-again} (the last result again, no new trigger): so a reply corrupted on the
+     * way that still reads as numbers is never taken for a measurement. With compound messages
+     * and ASCII replies the second read joins the trigger's message (no extra round trip).
+     *
+     * @throws ScpiProtocolException when no two of the reads agree
+     */
+    private double[] measured(Command command, int points, String what) {
+        if (!dialect.has(Command.MEASURE_AGAIN)) {
+            return readValues(command, points, what);
+        }
+        List<double[]> seen = new ArrayList<>();
+        if (dialect.compoundMessages() && dialect.reply().encoding() == ReplyShape.Encoding.ASCII) {
+            double[][] both = readValues(command, points, what, true);
+            if (Arrays.equals(both[0], both[1])) {
+                return both[0];
+            }
+            seen.addAll(List.of(both));
+        } else {
+            seen.add(readValues(command, points, what));
+        }
+        for (int i = 0; i < MAX_READS_AGAIN; i++) {
+            double[] again = readValues(Command.MEASURE_AGAIN, points, what + " (reading the result again)");
+            for (double[] earlier : seen) {
+                if (Arrays.equals(earlier, again)) {
+                    return again;
+                }
+            }
+            seen.add(again);
+        }
+        known = new KnownState();
+        resync = current != null;
+        throw new ScpiProtocolException(session.address() + ": the meter gave " + seen.size()
+                + " different results for one measurement (replies corrupted on the way) while " + what);
+    }
+
+    /** The empty error queue's answer (SCPI-1999 Vol 2 §21.8). */
+    private static final String NO_ERROR = "0,\"No error\"";
+
+    /** Whether {@code reply} is {@link #NO_ERROR} with at most a third of its characters replaced. */
+    static boolean nearNoError(String reply) {
+        if (reply.length() != NO_ERROR.length()) {
+            return false;
+        }
+        int differ = 0;
+        for (int i = 0; i < reply.length(); i++) {
+            if (Character.toLowerCase(reply.charAt(i)) != Character.toLowerCase(NO_ERROR.charAt(i))) {
+                differ++;
+            }
+        }
+        return differ * 3 <= NO_ERROR.length();
+    }
+
     /** Sends {@code command} (a query) and returns {@code points} points' worth of numbers. */
     private double[] readValues(Command command, int points, String what) {
-        String query = render(command);
+        return readValues(command, points, what, false)[0];
+    }
+
+    /**
+     * Sends {@code command} (a query) and returns {@code points} points' worth of numbers; with
+     * {@code twice}, {@code measure-again} joins the same message (ASCII replies only) and both
+     * results are returned.
+     */
+    private double[][] readValues(Command command, int points, String what, boolean twice) {
+        String query = twice ? render(command) + ";" + render(Command.MEASURE_AGAIN) : render(command);
         ReplyShape shape = dialect.reply();
         int expected = points * shape.fields().size();
-        double[] values;
+        double[][] results;
         String shown;
         if (shape.encoding() == ReplyShape.Encoding.ASCII) {
             boolean append = dialect.appendErrorQuery();
@@ -561,9 +648,18 @@ public final class DialectMeter implements Meter {
                     throw errors(error, what);
                 }
             }
-            String data = String.join(",", units);
-            shown = abbreviate(data);
-            values = parseNumbers(data, what);
+            if (twice) {
+                if (units.size() != 2) {
+                    throw new ScpiProtocolException(session.address() + ": expected two results separated by ';'"
+                            + " but got '" + abbreviate(String.join(";", units)) + "' while " + what);
+                }
+                results = new double[][] {parseNumbers(units.get(0), what), parseNumbers(units.get(1), what)};
+                shown = abbreviate(String.join(";", units));
+            } else {
+                String data = String.join(",", units);
+                shown = abbreviate(data);
+                results = new double[][] {parseNumbers(data, what)};
+            }
         } else {
             byte[] block = session.queryBlock(query);
             if (block.length % Double.BYTES != 0) {
@@ -572,18 +668,21 @@ public final class DialectMeter implements Meter {
             }
             ByteBuffer b = ByteBuffer.wrap(block).order(shape.encoding() == ReplyShape.Encoding.REAL64_BIG
                     ? ByteOrder.BIG_ENDIAN : ByteOrder.LITTLE_ENDIAN);
-            values = new double[block.length / Double.BYTES];
+            double[] values = new double[block.length / Double.BYTES];
             for (int i = 0; i < values.length; i++) {
                 values[i] = b.getDouble();
             }
+            results = new double[][] {values};
             shown = block.length + " bytes";
         }
-        if (values.length != expected) {
-            throw new ScpiProtocolException(session.address() + ": expected " + expected + " numbers (" + points
-                    + " points of " + shape.fields().size() + " fields) but got " + values.length + " ('" + shown
-                    + "') while " + what);
+        for (double[] values : results) {
+            if (values.length != expected) {
+                throw new ScpiProtocolException(session.address() + ": expected " + expected + " numbers (" + points
+                        + " points of " + shape.fields().size() + " fields) but got " + values.length + " ('" + shown
+                        + "') while " + what);
+            }
         }
-        return values;
+        return results;
     }
 
     private double[] parseNumbers(String data, String what) {

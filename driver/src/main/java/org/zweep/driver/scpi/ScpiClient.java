@@ -152,6 +152,39 @@ public final class ScpiClient implements ScpiSession {
     }
 
     /**
+     * Looks for bytes that answer no query (a reply sent twice, or one that came after its query
+     * timed out), waiting at most {@code quiet} for them. When there are some, they are discarded
+     * and the client resynchronises at once as after a failure (the late replies drained, then
+     * {@code *OPC?} answered in the {@link Resync#OPC} mode), so that the next query gets its own
+     * reply. Blocking; costs {@code quiet} when nothing is waiting.
+     *
+     * @return the discarded bytes, escaped as one line (at most 60 characters), or empty
+     */
+    public java.util.Optional<String> discardUnasked(Duration quiet) {
+        lock.lock();
+        try {
+            if (closed || lost != null) {
+                return java.util.Optional.empty();
+            }
+            if (pos >= lim) {
+                pos = 0;
+                lim = 0;
+                int n = read(buf, 0, buf.length, Math.max(1, millis(quiet)), "(nothing: bytes nobody asked for)", 0);
+                lim = n;
+            }
+            if (pos >= lim) {
+                return java.util.Optional.empty();
+            }
+            String stray = ScpiValues.escape(buf, pos, lim - pos, 60);
+            event("unasked bytes: " + stray);
+            resync();
+            return java.util.Optional.of(stray);
+        } finally {
+            lock.unlock();
+        }
+    }
+
+    /**
      * Sends a query and returns the reply as bytes, without its terminator. A reply that starts
      * with a definite-length block ({@code #<n><len>}) is read by its length, so binary payloads
      * come back whole, header included; anything else is read up to the read terminator.

@@ -76,7 +76,7 @@ final class ScpiCommand implements Callable<Integer> {
         try (ScpiClient client = ScpiClient.open(address, settings)) {
             if (!commands.isEmpty()) {
                 for (String c : commands) {
-                    exchange(client, c, out);
+                    exchange(client, c, out, spec.commandLine().getErr());
                 }
             } else if (stdin == System.in && System.console() != null) {
                 console(client, out);
@@ -87,9 +87,21 @@ final class ScpiCommand implements Callable<Integer> {
         return ExitCode.OK;
     }
 
-    /** Sends one message; prints the reply if it is a query. */
-    static void exchange(ScpiClient client, String message, PrintWriter out) {
+    /** How long the link must stay silent before a query for nothing unasked to be waiting. */
+    static final Duration UNASKED_QUIET = Duration.ofMillis(20);
+
+    /**
+     * Sends one message; prints the reply if it is a query. Before a query, bytes that answer no
+     * query (a reply the meter sent twice, or a late one) are discarded with a note on {@code err}
+     * and the client resynchronises, so one stray reply never shifts every later answer.
+     */
+    static void exchange(ScpiClient client, String message, PrintWriter out, PrintWriter err) {
         if (isQuery(message)) {
+            client.discardUnasked(UNASKED_QUIET).ifPresent(stray -> {
+                err.println("zweep: discarded a reply no query asked for ('" + stray + "') before '" + message
+                        + "'; resynchronised with the meter");
+                err.flush();
+            });
             out.println(printable(client.queryBytes(message)));
             out.flush();
         } else {
@@ -128,7 +140,7 @@ final class ScpiCommand implements Callable<Integer> {
         String line;
         while ((line = in.readLine()) != null) {
             if (!line.isBlank()) {
-                exchange(client, line.strip(), out);
+                exchange(client, line.strip(), out, spec.commandLine().getErr());
             }
         }
     }
@@ -159,7 +171,7 @@ final class ScpiCommand implements Callable<Integer> {
                     return;
                 }
                 try {
-                    exchange(client, m, out);
+                    exchange(client, m, out, err);
                 } catch (ConnectionLostException e) {
                     throw e;
                 } catch (MeterException e) {

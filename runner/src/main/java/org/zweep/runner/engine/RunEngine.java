@@ -31,6 +31,7 @@ public final class RunEngine {
     private final PointChecks checks;
     private final ProgressListener progress;
     private final Interruption interruption;
+    private final Plausibility plausibility;
 
     /**
      * @param plan what to measure
@@ -48,6 +49,16 @@ public final class RunEngine {
         this.checks = checks;
         this.progress = progress;
         this.interruption = interruption;
+        this.plausibility = station.capabilities() == null ? Plausibility.PHASE_ONLY
+                : new Plausibility(maxReadable(station));
+    }
+
+    /** The row status of a reading physics does not allow, measured twice. */
+    static final String IMPLAUSIBLE = "implausible";
+
+    private static double maxReadable(Station station) {
+        double top = station.dialectImpedanceRangeMaxOhm();
+        return top > 0 ? 10 * top : Double.POSITIVE_INFINITY;
     }
 
     /**
@@ -109,15 +120,16 @@ public final class RunEngine {
             }
             PlannedPoint first = chunk.get(0);
             station.connect(first.wiring(), step.bias());
-            List<Reading> readings;
-            if (chunk.size() == 1) {
-                readings = List.of(station.measure(first.setting(), step.bias(), first.delayS(), first.index()));
-            } else {
-                readings = station.measureList(chunk.stream().map(PlannedPoint::setting).toList(), step.bias(),
-                        first.index());
-                if (readings.size() != chunk.size()) {
-                    throw new MeterException("the meter returned " + readings.size() + " readings for a list of "
-                            + chunk.size() + " points");
+            List<Reading> readings = measure(chunk, step);
+            List<String> problems = problems(readings);
+            for (int i = 0; i < problems.size(); i++) {
+                if (!problems.get(i).isEmpty()) {
+                    // measured again (the same noise key on the simulator): a reading corrupted on the way
+                    // comes back right, a real one comes back the same
+                    progress.note("point " + chunk.get(i).index() + ": " + problems.get(i) + "; measuring again");
+                    readings = measure(chunk, step);
+                    problems = problems(readings);
+                    break;
                 }
             }
             int last = chunk.size() - 1;
@@ -130,6 +142,11 @@ public final class RunEngine {
                     continue;
                 }
                 PointRow row = row(p, step, corrector.correct(readings.get(i)));
+                if (!problems.get(i).isEmpty()) {
+                    progress.note("point " + p.index() + ": " + problems.get(i) + " again; stored with status"
+                            + " implausible");
+                    row = row.withStatus(IMPLAUSIBLE);
+                }
                 row = row.withCheck(checks.evaluate(row));
                 sink.write(row, i == last);
                 done.set(p.index());
@@ -137,6 +154,25 @@ public final class RunEngine {
             }
         }
         station.rampBiasOff(step.bias());
+    }
+
+    private List<Reading> measure(List<PlannedPoint> chunk, PlannedStep step) {
+        PlannedPoint first = chunk.get(0);
+        if (chunk.size() == 1) {
+            return List.of(station.measure(first.setting(), step.bias(), first.delayS(), first.index()));
+        }
+        List<Reading> readings = station.measureList(chunk.stream().map(PlannedPoint::setting).toList(), step.bias(),
+                first.index());
+        if (readings.size() != chunk.size()) {
+            throw new MeterException("the meter returned " + readings.size() + " readings for a list of "
+                    + chunk.size() + " points");
+        }
+        return readings;
+    }
+
+    /** One entry per reading: what physics does not allow in it, or empty. */
+    private List<String> problems(List<Reading> readings) {
+        return readings.stream().map(r -> plausibility.problem(r).orElse("")).toList();
     }
 
     private void stopIfRequested() {

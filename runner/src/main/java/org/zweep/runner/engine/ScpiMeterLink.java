@@ -47,15 +47,34 @@ public final class ScpiMeterLink implements MeterLink {
     public static ScpiMeterLink open(String address, String dialect, Supplier<ScpiSession> connector,
             Runnable onClose) {
         ScpiMeterLink link = new ScpiMeterLink(address, Dialect.load(dialect), connector, onClose);
-        link.connect();
-        return link;
+        // a link that breaks while the meter is being identified is opened again, as a reconnect
+        // would be; a meter that cannot be reached at all fails at once
+        for (int attempt = 1;; attempt++) {
+            try {
+                link.connect();
+                return link;
+            } catch (MeterException e) {
+                if (e instanceof ConnectFailedException || !link.isLinkFailure(e) || attempt >= FIRST_CONNECT_ATTEMPTS) {
+                    throw e;
+                }
+            }
+            try {
+                Thread.sleep(100L << attempt);
+            } catch (InterruptedException e) {
+                Thread.currentThread().interrupt();
+                throw new MeterException(address + ": interrupted while connecting");
+            }
+        }
     }
+
+    /** How often the first connection is tried when it breaks while identifying the meter. */
+    private static final int FIRST_CONNECT_ATTEMPTS = 5;
 
     private Meter connect() {
         JoiningSession s = new JoiningSession(connector.get());
         try {
             DialectMeter m = new DialectMeter(s, dialect);
-            MeterIdentity id = m.identify();
+            MeterIdentity id = agreedIdentity(m);
             session = s;
             meter = m;
             simulator = ScpiSimulatorControl.isSimulator(id) ? new ScpiSimulatorControl(s) : null;
@@ -64,6 +83,23 @@ public final class ScpiMeterLink implements MeterLink {
             s.close();
             throw e;
         }
+    }
+
+    /**
+     * The identity read until two reads agree (at most four): a reply corrupted on the way must not
+     * make the simulator look like a real meter, or a real meter like another.
+     */
+    private MeterIdentity agreedIdentity(DialectMeter m) {
+        java.util.List<MeterIdentity> seen = new java.util.ArrayList<>();
+        for (int i = 0; i < 4; i++) {
+            MeterIdentity id = m.identify();
+            if (seen.contains(id)) {
+                return id;
+            }
+            seen.add(id);
+        }
+        throw new ScpiProtocolException(address + ": the meter gave " + seen.size()
+                + " different identities (replies corrupted on the way)");
     }
 
     @Override

@@ -13,9 +13,39 @@ final class ScpiSimulatorControl implements SimulatorControl {
     static final String MANUFACTURER = "Korvane Bench Instruments";
 
     private final JoiningSession session;
+    private final boolean realTiming;
+    private volatile long seed;
 
+    /**
+     * Reads the simulator's timing and seed now, each until two reads agree, so that a reply
+     * corrupted on the way is neither taken for the wrong timing nor fails as a bad number.
+     *
+     * @throws ScpiProtocolException when no two of four reads agree
+     */
     ScpiSimulatorControl(JoiningSession session) {
         this.session = session;
+        this.realTiming = agreed(":SIM:TIM?").toUpperCase(Locale.ROOT).startsWith("REAL");
+        String s = agreed(":SIM:SEED?");
+        try {
+            long parsed = Long.parseLong(s);
+            this.seed = parsed;
+        } catch (NumberFormatException e) {
+            throw new org.zweep.driver.scpi.ScpiProtocolException(session.address() + ": the simulator's seed '" + s
+                    + "' is not a whole number");
+        }
+    }
+
+    private String agreed(String query) {
+        java.util.List<String> seen = new java.util.ArrayList<>();
+        for (int i = 0; i < 4; i++) {
+            String r = session.query(query).trim();
+            if (seen.contains(r)) {
+                return r;
+            }
+            seen.add(r);
+        }
+        throw new org.zweep.driver.scpi.ScpiProtocolException(session.address() + ": " + seen.size()
+                + " different replies to '" + query + "' (replies corrupted on the way)");
     }
 
     /** Whether {@code id} is the zweep simulator's identity (in-process or over TCP alike). */
@@ -48,15 +78,16 @@ final class ScpiSimulatorControl implements SimulatorControl {
     @Override
     public void setSeed(long seed) {
         session.write(":SIM:SEED " + seed);
+        this.seed = seed;
     }
 
     @Override
     public boolean realTiming() {
-        return session.query(":SIM:TIM?").trim().toUpperCase(Locale.ROOT).startsWith("REAL");
+        return realTiming;
     }
 
     @Override
     public long seed() {
-        return Long.parseLong(session.query(":SIM:SEED?").trim());
+        return seed;
     }
 }

@@ -42,6 +42,7 @@ public final class Station {
     private MeterIdentity identity;
     private MeterCapabilities capabilities;
     private MeterCapabilities statedLimits;
+    private double topRangeOhm;
     private volatile Bias applied = Bias.OFF;
     private boolean meterCorrection;
     private SimulatorControl.Slot slot;
@@ -52,6 +53,9 @@ public final class Station {
     /** Reconnect attempts and back-off waited since the last operation that succeeded. */
     private int budgetAttempts;
     private double budgetWaitedS;
+    /** Settings the meter accepted in the current attempt of an operation, and the most in any attempt. */
+    private int acceptedThisAttempt;
+    private int mostAccepted;
 
     /**
      * @param link the meter connection
@@ -84,6 +88,8 @@ public final class Station {
             capabilities = m.capabilities();
             m.reset();
             statedLimits = m.statedLimits();
+            topRangeOhm = m instanceof org.zweep.driver.dialect.DialectMeter d ? d.dialect().impedanceRangeOhm().max()
+                    : 0.0;
             applied = Bias.OFF;
             if (seed != null) {
                 link.simulator().ifPresent(s -> s.setSeed(seed));
@@ -108,6 +114,11 @@ public final class Station {
      */
     public MeterCapabilities statedLimits() {
         return statedLimits;
+    }
+
+    /** The upper limit of the meter's highest impedance range in ohms (its dialect's), 0 when unknown. */
+    public double dialectImpedanceRangeMaxOhm() {
+        return topRangeOhm;
     }
 
     /** Whether the meter is the simulator (prompts pass by themselves). */
@@ -208,6 +219,8 @@ public final class Station {
     /** Tells the meter to acquire {@code standard} now fitted. */
     public void acquireCorrection(CorrectionStandard standard) {
         withRetry("acquiring the " + standard + " correction", () -> {
+            // keyed like a point, so that an acquisition repeated after a reconnect draws the same noise
+            link.simulator().ifPresent(c -> c.setNoiseKey(-(1L << 40) - standard.ordinal() * 1_000_000L));
             link.meter().acquireCorrection(standard);
             return null;
         });
@@ -335,18 +348,29 @@ public final class Station {
         link.meter().apply(s);
         lastSetting = s;
         applied = s.bias();
+        acceptedThisAttempt++;
     }
 
     private <T> T withRetry(String what, Supplier<T> op) {
         while (true) {
+            acceptedThisAttempt = 0;
             try {
                 T result = op.get();
                 budgetAttempts = 0;
                 budgetWaitedS = 0.0;
+                mostAccepted = 0;
                 return result;
             } catch (MeterException e) {
                 if (!link.isLinkFailure(e)) {
                     throw e;
+                }
+                if (acceptedThisAttempt > mostAccepted) {
+                    // got further than every attempt before (a long bias ramp on a link that drops at
+                    // random): progress, so the budget starts again; a fault that strikes at the same
+                    // place on every connection makes no progress and still uses the budget up
+                    mostAccepted = acceptedThisAttempt;
+                    budgetAttempts = 0;
+                    budgetWaitedS = 0.0;
                 }
                 recover(what, e);
             }

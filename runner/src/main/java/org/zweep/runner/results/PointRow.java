@@ -22,7 +22,8 @@ import java.util.Objects;
  * @param xOhm X in ohms (corrected when compensation applies), or the ratio's imaginary part
  * @param derived the derived parameters; all {@code NaN} for voltage-ratio rows
  * @param ratio |V2/V1| for voltage-ratio rows, {@code NaN} otherwise
- * @param status {@code ok} or {@code no_value}
+ * @param status {@code ok}, {@code no_value}, or {@code implausible} (physics does not allow the
+ *     reading: |θ| above 90° or |Z| beyond the meter's reach, twice)
  * @param check empty, {@code pass} or {@code fail}
  * @param time when the reading arrived
  */
@@ -41,6 +42,12 @@ public record PointRow(int point, String step, int stepIndex, int repeat, String
     public PointRow withCheck(String outcome) {
         return new PointRow(point, step, stepIndex, repeat, quantity, wiring, frequencyHz, drive, level, biasMode,
                 bias, rOhm, xOhm, derived, ratio, status, outcome, time);
+    }
+
+    /** This row with another status ({@code ok}, {@code no_value} or {@code implausible}). */
+    public PointRow withStatus(String newStatus) {
+        return new PointRow(point, step, stepIndex, repeat, quantity, wiring, frequencyHz, drive, level, biasMode, bias,
+                rOhm, xOhm, derived, ratio, newStatus, check, time);
     }
 
     /**

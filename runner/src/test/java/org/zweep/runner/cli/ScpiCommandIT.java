@@ -26,6 +26,16 @@ class ScpiCommandIT extends TinyMeterCliBase {
     }
 
     @Test
+    void duplicatedReplyIsDiscardedAndDoesNotShiftTheLaterAnswers() {
+        int code = zweep("scpi", meter.address(), "TWICE?", "FREQ?", "*IDN?");
+        assertEquals(0, code, err.toString());
+        assertEquals("twice\n1.000000E+03\n" + TinyMeter.IDN + "\n", out.toString().replace("\r\n", "\n"));
+        assertEquals("zweep: discarded a reply no query asked for ('twice\\n') before 'FREQ?'; resynchronised with"
+                + " the meter\n", err.toString().replace("\r\n", "\n"));
+        assertEquals(List.of("*CLS", "TWICE?", "*OPC?", "FREQ?", "*IDN?"), meter.received);
+    }
+
+    @Test
     void binaryBlockRepliesArePrintedEscapedOnOneLine() {
         assertEquals(0, zweep("scpi", meter.address(), "DATA?"), err.toString());
         assertEquals("#14a\\n\\x01b\n", out.toString().replace("\r\n", "\n"));

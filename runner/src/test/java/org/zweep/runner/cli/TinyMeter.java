@@ -14,8 +14,8 @@ import java.util.concurrent.CopyOnWriteArrayList;
 
 /**
  * A minimal meter on a loopback port for command-line tests: answers {@code *IDN?}, remembers
- * {@code FREQ <x>} for {@code FREQ?}, sends a binary block for {@code DATA?}, and never answers
- * {@code HANG?}. Serves connections one after another until closed.
+ * {@code FREQ <x>} for {@code FREQ?}, sends a binary block for {@code DATA?}, answers {@code TWICE?}
+ * twice (a duplicated reply), {@code *OPC?} with 1, and never answers {@code HANG?}. Serves connections one after another until closed.
  */
 final class TinyMeter implements AutoCloseable {
     static final String IDN = "Korvane Passives,KP-LCR-1,0001,1.0";
@@ -63,6 +63,10 @@ final class TinyMeter implements AutoCloseable {
                 freq = line.substring(5);
             } else if (line.equals("FREQ?")) {
                 reply = freq + "\n";
+            } else if (line.equals("TWICE?")) {
+                reply = "twice\ntwice\n";
+            } else if (line.equals("*OPC?")) {
+                reply = "1\n";
             } else if (line.equals("DATA?")) {
                 reply = "#14a\n\u0001b\n";
             }

@@ -57,6 +57,8 @@ final class FakeBench {
     int failingReconnects;
     /** Fail the n-th measure() with a meter-reported error; 0 for none. */
     int meterErrorAtMeasure;
+    /** The measure() calls (1-based) whose R arrives with its sign flipped (a reply corrupted on the way). */
+    final List<Integer> negativeRAtMeasure = new ArrayList<>();
     SimulatorControl.Slot slot = SimulatorControl.Slot.DEVICE;
     long noiseKey;
     boolean simulator = true;
@@ -143,7 +145,11 @@ final class FakeBench {
             }
             trace.add("measure key " + noiseKey);
             nowS += 0.01;
-            return reading(current, noiseKey);
+            Reading r = reading(current, noiseKey);
+            if (negativeRAtMeasure.contains(measures)) {
+                return new Reading(r.setting(), -r.real(), r.imaginary(), r.status(), r.timestamp());
+            }
+            return r;
         }
 
         @Override

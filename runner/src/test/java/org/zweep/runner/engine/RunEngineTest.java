@@ -97,6 +97,28 @@ class RunEngineTest {
     }
 
     @Test
+    void readingWithPhaseBeyondNinetyDegreesIsMeasuredAgainAndTheSecondReadingKept() {
+        bench.negativeRAtMeasure.add(2); // point 1's reading arrives with R < 0: θ below -90°
+        RunResult r = run(TestPlans.capacitor(), new BitSet());
+        assertEquals(RunResult.Outcome.COMPLETED, r.outcome());
+        assertEquals("ok", rows.get(1).status());
+        assertEquals(0.010, rows.get(1).rOhm(), 1e-6); // FakeBench's part: 10 mOhm ESR, R > 0 as read again
+        assertEquals(2, bench.trace.stream().filter(t -> t.equals("measure key 1")).count(), bench.trace.toString());
+        assertTrue(notes.stream().anyMatch(n -> n.startsWith("point 1: θ = ") && n.endsWith("; measuring again")),
+                notes.toString());
+    }
+
+    @Test
+    void readingWithPhaseBeyondNinetyDegreesTwiceIsStoredAsImplausibleAndFailsItsCheck() {
+        bench.negativeRAtMeasure.addAll(List.of(2, 3));
+        run(TestPlans.capacitor(), new BitSet());
+        assertEquals("implausible", rows.get(1).status());
+        assertTrue(rows.get(1).rOhm() < 0, "what the meter said is kept");
+        assertEquals("fail", rows.get(1).check());
+        assertTrue(notes.stream().anyMatch(n -> n.contains("again; stored with status implausible")), notes.toString());
+    }
+
+    @Test
     void biasIsOffAtTheNormalEnd() {
         run(TestPlans.capacitor(), new BitSet());
         assertEquals(Bias.OFF, bench.instrumentBias);
