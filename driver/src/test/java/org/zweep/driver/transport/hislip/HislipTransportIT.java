@@ -163,6 +163,20 @@ class HislipTransportIT {
     }
 
     @Test
+    void aStalledReplyTimesOutAtTheReadTimeoutAndOtherSessionsGoOn() throws IOException {
+        HislipAddress a = start(HislipOptions.defaults());
+        ScpiSettings fast = ScpiSettings.builder().readTimeout(Duration.ofMillis(300)).build();
+        try (ScpiClient c = ScpiClient.open(a, fast); ScpiClient other = ScpiClient.open(a, ScpiSettings.DEFAULTS)) {
+            c.write(":SIM:FAUL:STAL");
+            long t0 = System.nanoTime();
+            assertThrows(MeterTimeoutException.class, () -> c.query("*IDN?"));
+            long ms = (System.nanoTime() - t0) / 1_000_000;
+            assertTrue(ms >= 300 && ms < 1300, "timed out after " + ms + " ms");
+            assertEquals(Instrument.IDENTIFICATION, other.query("*IDN?"));
+        }
+    }
+
+    @Test
     void anUnknownSubAddressIsAConnectFailureSayingWhatIsOffered() throws IOException {
         HislipAddress a = start(HislipOptions.defaults());
         ConnectFailedException e = assertThrows(ConnectFailedException.class, () -> ScpiClient.open(
