@@ -42,13 +42,23 @@ class Vxi11PyvisaIT {
         PipedReader pr = new PipedReader(1 << 16);
         PrintWriter out = new PrintWriter(new PipedWriter(pr), true);
         CompletableFuture<Integer> exit = new CompletableFuture<>();
-        Thread sim = new Thread(() -> exit.complete(Cli.run(new String[] {"sim", "--port", "0", "--vxi11-port", "111",
-                "--ideal", "--timing", "none", "--device", "R1 hi a 10; C1 a lo 100n"}, out,
-                new PrintWriter(new StringWriter()))));
+        StringWriter err = new StringWriter();
+        Thread sim = new Thread(() -> {
+            exit.complete(Cli.run(new String[] {"sim", "--port", "0", "--vxi11-port", "111", "--ideal", "--timing",
+                "none", "--device", "R1 hi a 10; C1 a lo 100n"}, out, new PrintWriter(err, true)));
+            out.close();
+        });
         sim.start();
         try {
             BufferedReader lines = new BufferedReader(pr);
-            assertTrue(lines.readLine().startsWith("listening on tcp://127.0.0.1:"));
+            String first = lines.readLine();
+            if (first == null) { // the simulator ended without listening
+                // another build on this machine may have taken port 111 between the check and the start
+                assumeTrue(!err.toString().contains("Address already in use"),
+                        "skipped: port 111 was taken by another process just now: " + err.toString().strip());
+                throw new AssertionError("zweep sim did not start: " + err);
+            }
+            assertTrue(first.startsWith("listening on tcp://127.0.0.1:"), first);
             String vxi = lines.readLine();
             assertTrue(vxi.startsWith("listening on vxi11://127.0.0.1:111/inst0 (portmapper; core channel on port ")
                     && vxi.endsWith("VISA: TCPIP::127.0.0.1::INSTR"), vxi);
@@ -69,7 +79,10 @@ class Vxi11PyvisaIT {
             assertEquals("1", r.get("after_clear").asText());
         } finally {
             sim.interrupt();
-            assertEquals(ExitCode.OK, exit.get(10, TimeUnit.SECONDS));
+            int code = exit.get(10, TimeUnit.SECONDS);
+            if (!err.toString().contains("Address already in use")) {
+                assertEquals(ExitCode.OK, code, err.toString());
+            }
         }
     }
 
