@@ -13,6 +13,7 @@ import java.util.Optional;
 import org.zweep.driver.InvalidInputException;
 import org.zweep.driver.meter.MeterCapabilities;
 import org.zweep.driver.meter.Range;
+import org.zweep.driver.uncertainty.MeterAccuracy;
 
 /**
  * A meter's dialect: its capabilities and the SCPI command template for each meter operation, as
@@ -39,10 +40,11 @@ public final class Dialect {
     private final boolean appendErrorQuery;
     private final ReplyShape reply;
     private final Map<Command, Template> commands;
+    private final MeterAccuracy accuracy;
 
     Dialect(String name, String description, String source, MeterCapabilities capabilities, Range averagingCount,
             Range integrationTimeS, Range impedanceRangeOhm, boolean compoundMessages, boolean appendErrorQuery,
-            ReplyShape reply, Map<Command, Template> commands) {
+            ReplyShape reply, Map<Command, Template> commands, MeterAccuracy accuracy) {
         this.name = name;
         this.description = description;
         this.source = source;
@@ -54,6 +56,7 @@ public final class Dialect {
         this.appendErrorQuery = appendErrorQuery;
         this.reply = reply;
         this.commands = new EnumMap<>(commands);
+        this.accuracy = accuracy;
     }
 
     /**
@@ -158,6 +161,11 @@ public final class Dialect {
     /** Upper limits of the impedance ranges the meter can hold, in ohms; {@code [0, 0]} when it cannot. */
     public Range impedanceRangeOhm() {
         return impedanceRangeOhm;
+    }
+
+    /** The meter's stated accuracy from the {@code [accuracy]} section; empty when the file states none. */
+    public Optional<MeterAccuracy> accuracy() {
+        return Optional.ofNullable(accuracy);
     }
 
     /** Where the dialect was loaded from, as used in messages. */

@@ -12,11 +12,12 @@ import org.zweep.driver.InvalidInputException;
 import org.zweep.driver.meter.CorrectionStandard;
 import org.zweep.driver.meter.MeterCapabilities;
 import org.zweep.driver.meter.Range;
+import org.zweep.driver.uncertainty.MeterAccuracy;
 
 /** Reads the text of one dialect file and checks it; every problem names {@code source:line:column}. */
 final class DialectParser {
     private static final String HEADER = "zweep-dialect 1";
-    private static final List<String> SECTIONS = List.of("meter", "capabilities", "reply", "commands");
+    private static final List<String> SECTIONS = List.of("meter", "capabilities", "reply", "commands", "accuracy");
     private static final Pattern KEY = Pattern.compile("[a-z][a-z0-9-]*");
     private static final Pattern NAME = Pattern.compile("[a-z0-9][a-z0-9-]*");
     private static final Range NONE = new Range(0, 0);
@@ -147,8 +148,9 @@ final class DialectParser {
         }
         MeterCapabilities capabilities = new MeterCapabilities(frequency, voltage, current, biasV, biasA,
                 listPoints, corrections, ratio);
+        MeterAccuracy accuracy = sections.containsKey("accuracy") ? accuracy(sections.get("accuracy")) : null;
         return new Dialect(nameEntry.value, description == null ? "" : description.value, source, capabilities,
-                averaging, integration, impedanceRange, compound, append, reply, commands);
+                averaging, integration, impedanceRange, compound, append, reply, commands, accuracy);
     }
 
     private static Command correctionCommand(CorrectionStandard s) {
@@ -260,8 +262,11 @@ final class DialectParser {
     private void rejectUnknownKeys() {
         for (Map.Entry<String, Map<String, Entry>> s : sections.entrySet()) {
             for (Entry e : s.getValue().values()) {
-                boolean known = s.getKey().equals("commands") ? Command.byKey(e.key).isPresent()
-                        : KEYS.get(s.getKey()).contains(e.key);
+                boolean known = switch (s.getKey()) {
+                    case "commands" -> Command.byKey(e.key).isPresent();
+                    case "accuracy" -> e.key.equals("distribution") || e.key.startsWith("band-");
+                    default -> KEYS.get(s.getKey()).contains(e.key);
+                };
                 if (!known) {
                     throw fail(e.line, e.keyColumn, "unknown key '" + e.key + "' in [" + s.getKey() + "]");
                 }
@@ -413,6 +418,91 @@ final class DialectParser {
             }
         }
         return new ReplyShape(encoding, fields);
+    }
+
+    /**
+     * {@code [accuracy]}: {@code distribution = rectangular | normal-k2} and rows
+     * {@code band-NAME = F1 .. F2 Hz; L1 .. L2 V|A; T s; A %; ZS ohm; YO S[; phase P rad|deg]}.
+     */
+    private MeterAccuracy accuracy(Map<String, Entry> section) {
+        MeterAccuracy.Distribution distribution = MeterAccuracy.Distribution.RECTANGULAR;
+        Entry d = section.get("distribution");
+        if (d != null) {
+            distribution = MeterAccuracy.Distribution.byWord(d.value).orElseThrow(() -> fail(d.line, d.valueColumn,
+                    "unknown distribution '" + d.value + "' (expected rectangular or normal-k2)"));
+        }
+        List<MeterAccuracy.Band> bands = new ArrayList<>();
+        for (Entry e : section.values()) {
+            if (e.key.startsWith("band-")) {
+                bands.add(band(e));
+            }
+        }
+        if (bands.isEmpty()) {
+            throw fail(sectionLines.get("accuracy"), 0, "[accuracy] must have at least one 'band-NAME = ...' row");
+        }
+        return new MeterAccuracy(bands, distribution);
+    }
+
+    private static final String BAND_SHAPE =
+            "'band-NAME = F1 .. F2 Hz; L1 .. L2 V; T s; A %; ZS ohm; YO S' and optionally '; phase P rad' (or deg)";
+
+    private MeterAccuracy.Band band(Entry e) {
+        String[] parts = e.value.split(";", -1);
+        if (parts.length != 6 && parts.length != 7) {
+            throw fail(e.line, e.valueColumn, "expected " + BAND_SHAPE);
+        }
+        int[] offsets = new int[parts.length];
+        for (int i = 1; i < parts.length; i++) {
+            offsets[i] = offsets[i - 1] + parts[i - 1].length() + 1;
+        }
+        Entry f = sub(e, parts[0], offsets[0]);
+        Range freq = range(f, "Hz", true);
+        Entry l = sub(e, parts[1], offsets[1]);
+        List<int[]> ls = tokens(l.value);
+        boolean current = ls.size() == 4 && token(l, ls, 3).equals("A");
+        Range level = range(l, current ? "A" : "V", true);
+        double t = quantity(sub(e, parts[2], offsets[2]), "s");
+        double a = quantity(sub(e, parts[3], offsets[3]), "%") / 100;
+        double zs = quantity(sub(e, parts[4], offsets[4]), "ohm");
+        double yo = quantity(sub(e, parts[5], offsets[5]), "S");
+        double phase = Double.NaN;
+        if (parts.length == 7) {
+            Entry p = sub(e, parts[6], offsets[6]);
+            List<int[]> ps = tokens(p.value);
+            if (ps.size() != 3 || !token(p, ps, 0).equals("phase")
+                    || !(token(p, ps, 2).equals("rad") || token(p, ps, 2).equals("deg"))) {
+                throw fail(p.line, p.valueColumn, "expected 'phase P rad' or 'phase P deg'");
+            }
+            phase = number(p, ps, 1);
+            if (token(p, ps, 2).equals("deg")) {
+                phase = Math.toRadians(phase);
+            }
+        }
+        try {
+            return new MeterAccuracy.Band(e.key.substring("band-".length()), freq.min(), freq.max(), level.min(),
+                    level.max(), current, t, a, zs, yo, phase);
+        } catch (InvalidInputException ex) {
+            throw fail(e.line, e.valueColumn, ex.getMessage());
+        }
+    }
+
+    /** A part of an entry's value as an entry of its own, keeping its columns. */
+    private static Entry sub(Entry e, String part, int offset) {
+        int lead = firstNonBlank(part);
+        return new Entry(e.key, part.strip(), e.line, e.keyColumn, e.valueColumn + offset + lead);
+    }
+
+    /** {@code NUMBER UNIT}, the number plain decimal and not negative. */
+    private double quantity(Entry e, String unit) {
+        List<int[]> spans = tokens(e.value);
+        if (spans.size() != 2 || !token(e, spans, 1).equals(unit)) {
+            throw fail(e.line, e.valueColumn, "expected 'NUMBER " + unit + "' in " + BAND_SHAPE);
+        }
+        double v = number(e, spans, 0);
+        if (v < 0) {
+            throw fail(e.line, e.valueColumn, "'" + token(e, spans, 0) + "' must not be negative");
+        }
+        return v;
     }
 
     private Map<Command, Template> commands(Map<String, Entry> section, boolean compound) {

@@ -23,10 +23,14 @@ import org.apache.commons.math3.complex.Complex;
  * @param iterations optimizer iterations of the final fit
  * @param converged whether the final fit converged to a stationary point
  * @param points the number of frequencies fitted
- * @param notes explanations for people (what was not resolved and why)
+ * @param notes explanations for people (what was not resolved and why, whether the model fits)
+ * @param reducedChiSquared χ²/ν of a fit weighted by the points' standard uncertainties (about 1
+ *     when the model and the uncertainties are right); NaN for an unweighted fit, whose sigmas
+ *     come from the scatter about the fit instead
  */
 public record CircuitFit(CircuitModel model, Map<String, Double> parameters, Map<String, Double> sigma, Double srfHz,
-        Double srfDataHz, double residualRms, int iterations, boolean converged, int points, List<String> notes) {
+        Double srfDataHz, double residualRms, int iterations, boolean converged, int points, List<String> notes,
+        double reducedChiSquared) {
     public CircuitFit {
         parameters = Collections.unmodifiableMap(new LinkedHashMap<>(parameters));
         sigma = Collections.unmodifiableMap(new LinkedHashMap<>(sigma));
@@ -36,6 +40,11 @@ public record CircuitFit(CircuitModel model, Map<String, Double> parameters, Map
     /** The fitted circuit's impedance at {@code frequencyHz}, with unresolved elements left out. */
     public Complex impedanceAt(double frequencyHz) {
         return model.impedance(2 * Math.PI * frequencyHz, physical());
+    }
+
+    /** Whether the fit was weighted by the points' standard uncertainties. */
+    public boolean weighted() {
+        return !Double.isNaN(reducedChiSquared);
     }
 
     /** The value of parameter {@code key}, or {@code NaN} when not resolved. */

@@ -7,8 +7,10 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import org.apache.commons.math3.complex.Complex;
+import org.apache.commons.math3.distribution.ChiSquaredDistribution;
 import org.zweep.driver.InvalidInputException;
 import org.zweep.driver.impedance.Impedance;
+import org.zweep.driver.uncertainty.UncertainImpedance;
 
 /**
  * Fits a {@link CircuitModel} to an impedance sweep by complex nonlinear least squares
@@ -19,6 +21,11 @@ import org.zweep.driver.impedance.Impedance;
  * <p>An element the data cannot resolve (its relative uncertainty above 1/3, or it ran into its
  * bound, typically ESL or a parallel C when the sweep stays far below resonance) is reported as
  * {@code null} and the fit is repeated without it, so the other values are not disturbed.
+ *
+ * <p>{@link #fitWeighted} instead divides each point's residual by its standard uncertainties
+ * (whitened with the Cholesky factor of its (R, X) covariance), so the parameter uncertainties
+ * are those of the weighted covariance and the fit has a χ²; when the reduced χ² is beyond its
+ * 99.9th percentile for the degrees of freedom, a note says the model does not fit.
  *
  * <p>Stateless and thread-safe; {@link #fit} blocks for the fit (well under a millisecond per
  * point).
@@ -33,7 +40,43 @@ public final class EquivalentCircuitFit {
     /** How far (a factor) the main element may move from its starting value. */
     private static final double MAIN_RANGE = 1e3;
 
+    /** A reduced χ² whose upper-tail probability is below this says the model does not fit. */
+    static final double MISFIT_PROBABILITY = 1e-3;
+
     private EquivalentCircuitFit() {
+    }
+
+    /** One point and the lower-triangular factor L of the covariance its residual is divided by. */
+    private record Point(Impedance z, double l11, double l21, double l22) {
+        static Point unweighted(Impedance z) {
+            return new Point(z, z.magnitudeOhm(), 0, z.magnitudeOhm());
+        }
+
+        static Point weighted(UncertainImpedance u) {
+            double l11 = u.uROhm();
+            double l21 = u.covarianceRX() / l11;
+            double l22 = Math.sqrt(Math.max(u.varianceX() - l21 * l21, 0));
+            return new Point(u.value(), l11, l21, l22);
+        }
+    }
+
+    /**
+     * Fits {@code model} to {@code sweep} weighted by each point's standard uncertainties.
+     *
+     * @throws InvalidInputException as {@link #fit}, or when a point has no positive, finite
+     *     u(R) and u(X) or its R and X are fully correlated
+     */
+    public static CircuitFit fitWeighted(CircuitModel model, List<UncertainImpedance> sweep) {
+        List<Point> points = new ArrayList<>();
+        for (UncertainImpedance u : sweep) {
+            Point p = Point.weighted(u);
+            if (!(p.l11 > 0) || !(p.l22 > 0) || !Double.isFinite(p.l11) || !Double.isFinite(p.l22)) {
+                throw new InvalidInputException("cannot weight a fit by u(R) = " + u.uROhm() + " ohm, u(X) = "
+                        + u.uXOhm() + " ohm, r = " + u.correlation() + " at " + u.value().frequencyHz() + " Hz");
+            }
+            points.add(p);
+        }
+        return fit(model, points, true);
     }
 
     /**
@@ -43,8 +86,13 @@ public final class EquivalentCircuitFit {
      *     has parameters plus one, or a zero impedance
      */
     public static CircuitFit fit(CircuitModel model, List<Impedance> sweep) {
-        List<Impedance> data = new ArrayList<>(sweep);
-        data.sort(Comparator.comparingDouble(Impedance::frequencyHz));
+        return fit(model, sweep.stream().map(Point::unweighted).toList(), false);
+    }
+
+    private static CircuitFit fit(CircuitModel model, List<Point> sweepPoints, boolean weighted) {
+        List<Point> points = new ArrayList<>(sweepPoints);
+        points.sort(Comparator.comparingDouble(p -> p.z.frequencyHz()));
+        List<Impedance> data = points.stream().map(Point::z).toList();
         long distinct = data.stream().mapToDouble(Impedance::frequencyHz).distinct().count();
         if (distinct < model.keys().size() + 1) {
             throw new InvalidInputException("a " + model.id() + " fit needs at least " + (model.keys().size() + 1)
@@ -66,9 +114,9 @@ public final class EquivalentCircuitFit {
         Pass pass;
         boolean first = true;
         while (true) {
-            pass = solve(model, data, current, start, present);
+            pass = solve(model, points, current, start, present, weighted);
             if (first && (worstUnresolved(model, pass, present) >= 0 || !pass.result.converged())) {
-                pass = bestOfRestarts(model, data, start, present, pass);
+                pass = bestOfRestarts(model, points, start, present, pass, weighted);
             }
             first = false;
             current = pass.physical;
@@ -96,8 +144,34 @@ public final class EquivalentCircuitFit {
             notes.add(String.format(Locale.ROOT, "the measured reactance crosses zero at %.6g Hz but the fitted"
                     + " circuit does not resonate there", srfData));
         }
+        double reducedChiSquared = Double.NaN;
+        if (weighted) {
+            int dof = 2 * data.size() - (int) java.util.stream.IntStream.range(0, n).filter(k -> present[k]).count();
+            double chi2 = pass.result.residualSumOfSquares();
+            reducedChiSquared = chi2 / dof;
+            double tail = 1 - new ChiSquaredDistribution(null, dof).cumulativeProbability(chi2);
+            if (tail < MISFIT_PROBABILITY) {
+                notes.add(String.format(Locale.ROOT, "the %s model does not fit the data within their uncertainties"
+                        + " (reduced chi-squared %.3g over %d degrees of freedom, probability %.1g)", model.id(),
+                        reducedChiSquared, dof, tail));
+            }
+        }
         return new CircuitFit(model, values, sigmas, srfFit, Double.isFinite(srfData) ? srfData : null,
-                pass.result.residualRms(), pass.result.iterations(), pass.result.converged(), data.size(), notes);
+                relativeRms(model, data, finalP), pass.result.iterations(), pass.result.converged(), data.size(),
+                notes, reducedChiSquared);
+    }
+
+    /** RMS of (Z_model − Z)/|Z|, real and imaginary parts stacked. */
+    private static double relativeRms(CircuitModel model, List<Impedance> data, double[] p) {
+        double ss = 0;
+        for (Impedance z : data) {
+            Complex zm = model.impedance(z.omega(), p);
+            double m = z.magnitudeOhm();
+            double dr = (zm.getReal() - z.resistanceOhm()) / m;
+            double dx = (zm.getImaginary() - z.reactanceOhm()) / m;
+            ss += dr * dr + dx * dx;
+        }
+        return Math.sqrt(ss / (2 * data.size()));
     }
 
     /**
@@ -105,13 +179,13 @@ public final class EquivalentCircuitFit {
      * resistor's Ls hidden behind its Cp, say); try each minor element 100× larger and smaller and
      * keep the lowest-cost fit.
      */
-    private static Pass bestOfRestarts(CircuitModel model, List<Impedance> data, double[] start, boolean[] present,
-            Pass best) {
+    private static Pass bestOfRestarts(CircuitModel model, List<Point> data, double[] start, boolean[] present,
+            Pass best, boolean weighted) {
         for (int k = 1; k < start.length; k++) {
             for (double factor : new double[] {100, 0.01}) {
                 double[] s = start.clone();
                 s[k] *= factor;
-                Pass p = solve(model, data, s, s, present);
+                Pass p = solve(model, data, s, s, present, weighted);
                 if (p.result.converged() && p.result.residualSumOfSquares() < best.result.residualSumOfSquares()) {
                     best = p;
                 }
@@ -163,21 +237,25 @@ public final class EquivalentCircuitFit {
         return worst;
     }
 
-    private static Pass solve(CircuitModel model, List<Impedance> data, double[] physical, double[] start,
-            boolean[] present) {
+    private static Pass solve(CircuitModel model, List<Point> data, double[] physical, double[] start,
+            boolean[] present, boolean weighted) {
         int n = physical.length;
         int[] active = java.util.stream.IntStream.range(0, n).filter(k -> present[k]).toArray();
         int m = 2 * data.size();
         double[] omega = new double[data.size()];
         double[] re = new double[data.size()];
         double[] im = new double[data.size()];
-        double[] mod = new double[data.size()];
+        double[] l11 = new double[data.size()];
+        double[] l21 = new double[data.size()];
+        double[] l22 = new double[data.size()];
         for (int i = 0; i < omega.length; i++) {
-            Impedance z = data.get(i);
+            Impedance z = data.get(i).z;
             omega[i] = z.omega();
             re[i] = z.resistanceOhm();
             im[i] = z.reactanceOhm();
-            mod[i] = z.magnitudeOhm();
+            l11[i] = data.get(i).l11;
+            l21[i] = data.get(i).l21;
+            l22[i] = data.get(i).l22;
         }
         double[] lo = new double[active.length];
         double[] hi = new double[active.length];
@@ -194,8 +272,9 @@ public final class EquivalentCircuitFit {
             double[] r = new double[m];
             for (int i = 0; i < omega.length; i++) {
                 Complex zm = model.impedance(omega[i], p);
-                r[2 * i] = (zm.getReal() - re[i]) / mod[i];
-                r[2 * i + 1] = (zm.getImaginary() - im[i]) / mod[i];
+                // L⁻¹·Δ: Δ divided by the Cholesky factor of the point's covariance (or by |Z| unweighted)
+                r[2 * i] = (zm.getReal() - re[i]) / l11[i];
+                r[2 * i + 1] = (zm.getImaginary() - im[i] - l21[i] * r[2 * i]) / l22[i];
             }
             return r;
         }, lp -> {
@@ -204,13 +283,19 @@ public final class EquivalentCircuitFit {
             for (int i = 0; i < omega.length; i++) {
                 Complex[] d = model.logDerivatives(omega[i], p, active);
                 for (int a = 0; a < active.length; a++) {
-                    j[2 * i][a] = d[a].getReal() / mod[i];
-                    j[2 * i + 1][a] = d[a].getImaginary() / mod[i];
+                    j[2 * i][a] = d[a].getReal() / l11[i];
+                    j[2 * i + 1][a] = (d[a].getImaginary() - l21[i] * j[2 * i][a]) / l22[i];
                 }
             }
             return j;
         }, p0, lo, hi);
-        FitResult result = LeastSquaresFit.defaults().withResidualFloor(RESOLUTION).withValueScale(1).solve(problem);
+        double scale = 1;
+        for (int i = 0; i < omega.length; i++) {
+            scale = Math.max(scale, Math.hypot(re[i], im[i]) / Math.min(l11[i], l22[i]));
+        }
+        LeastSquaresFit solver = weighted ? LeastSquaresFit.defaults().withKnownWeights().withValueScale(scale)
+                : LeastSquaresFit.defaults().withResidualFloor(RESOLUTION).withValueScale(1);
+        FitResult result = solver.solve(problem);
         double[] lp = result.parameters().stream().mapToDouble(Double::doubleValue).toArray();
         double[] p = expand(physical, active, lp);
         double[] logSigma = new double[n];

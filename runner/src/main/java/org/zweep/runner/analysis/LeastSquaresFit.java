@@ -38,19 +38,21 @@ public final class LeastSquaresFit {
     private final double tolerance;
     private final double residualFloor;
     private final double valueScale;
+    private final boolean knownWeights;
 
     private LeastSquaresFit(int maxIterations, int maxEvaluations, double tolerance, double residualFloor,
-            double valueScale) {
+            double valueScale, boolean knownWeights) {
         this.maxIterations = maxIterations;
         this.maxEvaluations = maxEvaluations;
         this.tolerance = tolerance;
         this.residualFloor = residualFloor;
         this.valueScale = valueScale;
+        this.knownWeights = knownWeights;
     }
 
     /** The default solver: 2,000 iterations, 10,000 evaluations, relative tolerances 1e-12. */
     public static LeastSquaresFit defaults() {
-        return new LeastSquaresFit(2_000, 10_000, 1e-12, 0.0, 0.0);
+        return new LeastSquaresFit(2_000, 10_000, 1e-12, 0.0, 0.0, false);
     }
 
     /**
@@ -59,7 +61,7 @@ public final class LeastSquaresFit {
      * perfectly determined.
      */
     public LeastSquaresFit withResidualFloor(double floor) {
-        return new LeastSquaresFit(maxIterations, maxEvaluations, tolerance, floor, valueScale);
+        return new LeastSquaresFit(maxIterations, maxEvaluations, tolerance, floor, valueScale, knownWeights);
     }
 
     /**
@@ -69,12 +71,22 @@ public final class LeastSquaresFit {
      * stationary" than that.
      */
     public LeastSquaresFit withValueScale(double scale) {
-        return new LeastSquaresFit(maxIterations, maxEvaluations, tolerance, residualFloor, scale);
+        return new LeastSquaresFit(maxIterations, maxEvaluations, tolerance, residualFloor, scale, knownWeights);
     }
 
     /** A copy with another iteration limit. */
     public LeastSquaresFit withMaxIterations(int iterations) {
-        return new LeastSquaresFit(iterations, Math.max(maxEvaluations, iterations), tolerance, residualFloor, valueScale);
+        return new LeastSquaresFit(iterations, Math.max(maxEvaluations, iterations), tolerance, residualFloor, valueScale,
+                knownWeights);
+    }
+
+    /**
+     * A copy for residuals already divided by their standard uncertainties (whitened): the
+     * parameter uncertainties are then those of the weighted covariance (JᵀJ)⁻¹, not scaled by
+     * the residual variance, and RSS is the χ² of the fit.
+     */
+    public LeastSquaresFit withKnownWeights() {
+        return new LeastSquaresFit(maxIterations, maxEvaluations, tolerance, 0.0, valueScale, true);
     }
 
     /** Solves {@code problem}; never throws for a numerical failure (see {@link FitResult#converged()}). */
@@ -129,7 +141,7 @@ public final class LeastSquaresFit {
         double rms = Math.sqrt(rss / m);
         double cosineLimit = Math.max(STATIONARY_COSINE, 1e3 * Math.ulp(1.0) * valueScale / rms);
         boolean stationary = finite && (stationary(j, r, rss, cosineLimit) || rss <= ZERO_RESIDUAL * startCost(problem));
-        List<Double> sigma = sigma(j, rss, m, n, residualFloor);
+        List<Double> sigma = sigma(j, rss, m, n, residualFloor, knownWeights);
         List<Double> params = new ArrayList<>(n);
         for (double v : p) {
             params.add(v);
@@ -172,7 +184,7 @@ public final class LeastSquaresFit {
         return true;
     }
 
-    private static List<Double> sigma(double[][] j, double rss, int m, int n, double floor) {
+    private static List<Double> sigma(double[][] j, double rss, int m, int n, double floor, boolean knownWeights) {
         List<Double> out = new ArrayList<>(n);
         if (m <= n) {
             for (int i = 0; i < n; i++) {
@@ -184,7 +196,7 @@ public final class LeastSquaresFit {
         SingularValueDecomposition svd = new SingularValueDecomposition(new Array2DRowRealMatrix(j, false));
         double[] sv = svd.getSingularValues();
         RealMatrix v = svd.getV();
-        double s2 = Math.max(rss / (m - n), floor * floor);
+        double s2 = knownWeights ? 1.0 : Math.max(rss / (m - n), floor * floor);
         for (int i = 0; i < n; i++) {
             double var = 0;
             for (int k = 0; k < sv.length; k++) {

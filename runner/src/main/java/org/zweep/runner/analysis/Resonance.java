@@ -6,7 +6,7 @@ import org.apache.commons.math3.analysis.solvers.BrentSolver;
 import org.zweep.driver.impedance.Impedance;
 
 /** Self-resonance: the zero crossing of the reactance, from data or from a model. */
-final class Resonance {
+public final class Resonance {
     private Resonance() {
     }
 
@@ -17,7 +17,7 @@ final class Resonance {
      *
      * @param ascending the sweep sorted by increasing frequency
      */
-    static double fromData(List<Impedance> ascending) {
+    public static double fromData(List<Impedance> ascending) {
         for (int i = 1; i < ascending.size(); i++) {
             Impedance a = ascending.get(i - 1);
             Impedance b = ascending.get(i);

@@ -53,4 +53,47 @@ public final class Si {
         }
         return Unit.NONE;
     }
+
+    /**
+     * The human label of a parameter or column name: {@code C}, {@code ESR}, {@code ESL},
+     * {@code SRF} for the fitted capacitor, {@code Cs}, {@code Ls}, {@code D}... for the derived
+     * parameters, {@code V2/V1} for the measured voltage ratio; the name itself when it has none.
+     */
+    public static String label(String key) {
+        return switch (key) {
+            case "c_f" -> "C";
+            case "esr_ohm" -> "ESR";
+            case "esl_h" -> "ESL";
+            case "l_h" -> "L";
+            case "r_ohm" -> "R";
+            case "rcore_ohm" -> "Rcore (core loss)";
+            case "tan_delta" -> "tan δ";
+            case "srf_hz" -> "SRF";
+            case "ratio" -> "V2/V1";
+            case "leakage_h" -> "leakage L";
+            case "mutual_h" -> "M";
+            default -> java.util.Arrays.stream(org.zweep.driver.impedance.DerivedParameter.values())
+                    .filter(p -> p.key().equals(key)).map(p -> p.label()).findFirst().orElse(key);
+        };
+    }
+
+    /** A time for people, to the second, in UTC: {@code 2026-12-03 08:09:58 UTC}; "—" for null. */
+    public static String time(java.time.Instant t) {
+        return t == null ? "—" : TIME.format(t);
+    }
+
+    /** {@link #time(java.time.Instant)} of an ISO-8601 instant text, or the text itself when it is not one. */
+    public static String time(String iso) {
+        if (iso == null) {
+            return "—";
+        }
+        try {
+            return time(java.time.Instant.parse(iso));
+        } catch (java.time.format.DateTimeParseException e) {
+            return iso;
+        }
+    }
+
+    private static final java.time.format.DateTimeFormatter TIME = java.time.format.DateTimeFormatter
+            .ofPattern("yyyy-MM-dd HH:mm:ss 'UTC'", java.util.Locale.ROOT).withZone(java.time.ZoneOffset.UTC);
 }

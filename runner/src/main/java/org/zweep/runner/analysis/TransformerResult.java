@@ -18,7 +18,8 @@ import org.zweep.runner.results.PointRow;
  * @param turnsRatio N1/N2 = k·V1/V2 (symmetric-leakage model), or V1/V2 when k is unknown, or the
  *     nominal when no ratio was measured; NaN when none of these
  * @param k coupling √(1 − L_sc/L_oc); NaN when L_oc or L_sc is missing
- * @param leakageH primary leakage inductance L_oc·(1 − k) (split-k convention)
+ * @param leakageH leakage inductance referred to the primary: L_sc as measured (the one
+ *     definition used everywhere; equal to {@code shortH})
  * @param mutualH mutual inductance k·L_oc/n (= k√(L1·L2) with L2 = L1/n²)
  * @param magnetizingH k·L_oc
  * @param notes explanations for people
@@ -27,6 +28,25 @@ public record TransformerResult(double frequencyHz, double openH, double shortH,
         double turnsRatio, double k, double leakageH, double mutualH, double magnetizingH, List<String> notes) {
     public TransformerResult {
         notes = List.copyOf(notes);
+    }
+
+    /** N1:N2 for people: {@code 3.995:1} (or {@code 1:4.1} for a step-up winding); "—" when unknown. */
+    public String turnsRatioText() {
+        return ratioText(turnsRatio);
+    }
+
+    /** The measured V1:V2 (secondary open) for people, as {@link #turnsRatioText()}. */
+    public String voltageRatioText() {
+        return ratioText(voltageRatio);
+    }
+
+    /** {@code r} (a ratio a/b) as {@code a:1}, or {@code 1:b} when r &lt; 1; "—" when not finite or not positive. */
+    public static String ratioText(double r) {
+        if (!(r > 0) || !Double.isFinite(r)) {
+            return "—";
+        }
+        return r >= 1 ? Si.format(r, org.zweep.driver.impedance.Unit.NONE, 4) + ":1"
+                : "1:" + Si.format(1 / r, org.zweep.driver.impedance.Unit.NONE, 4);
     }
 
     /** The transformer parameters in {@code rows}, or null when there are no transformer rows at all. */
@@ -74,7 +94,7 @@ public record TransformerResult(double frequencyHz, double openH, double shortH,
                         n));
             }
         }
-        return new TransformerResult(f, loc, lsc, fwd, n, k, TransformerMath.leakageSplitK(loc, k), k * loc / n, k * loc,
+        return new TransformerResult(f, loc, lsc, fwd, n, k, lsc, k * loc / n, k * loc,
                 notes);
     }
 

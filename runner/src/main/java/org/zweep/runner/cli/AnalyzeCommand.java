@@ -73,11 +73,11 @@ public final class AnalyzeCommand implements Callable<Integer> {
                 StringBuilder b = new StringBuilder("  " + f.model().id() + " fit, " + sf.sweep().describe() + ":");
                 for (Map.Entry<String, Double> e : f.parameters().entrySet()) {
                     Unit unit = Si.unitOf(e.getKey());
-                    b.append(' ').append(e.getKey()).append('=');
+                    b.append(' ').append(Si.label(e.getKey())).append(' ');
                     b.append(e.getValue() == null ? "not resolved"
                             : Si.format(e.getValue(), unit) + " ± " + Si.format(f.sigma().get(e.getKey()), unit, 2));
                 }
-                b.append(", srf ").append(f.srfHz() == null ? "not resolved" : Si.format(f.srfHz(), Unit.HERTZ));
+                b.append(", SRF ").append(f.srfHz() == null ? "not resolved" : Si.format(f.srfHz(), Unit.HERTZ));
                 b.append(String.format(Locale.ROOT, ", residual %.2g", f.residualRms()));
                 out.println(b);
             }
@@ -90,8 +90,10 @@ public final class AnalyzeCommand implements Callable<Integer> {
         }
         TransformerResult t = a.transformer();
         if (t != null) {
-            out.printf(Locale.ROOT, "transformer: turns ratio %.5g, k %.6f, leakage %s, mutual %s%n", t.turnsRatio(),
-                    t.k(), Si.format(t.leakageH(), Unit.HENRY), Si.format(t.mutualH(), Unit.HENRY));
+            out.printf(Locale.ROOT, "transformer: turns ratio N1:N2 %s (k × measured V1:V2 %s), k %s, leakage L_sc %s"
+                    + " (secondary shorted, at %s), mutual %s%n", t.turnsRatioText(), t.voltageRatioText(),
+                    Si.format(t.k(), Unit.NONE, 4), Si.format(t.leakageH(), Unit.HENRY),
+                    Si.format(t.frequencyHz(), Unit.HERTZ), Si.format(t.mutualH(), Unit.HENRY));
         }
         for (CheckOutcome c : a.checks()) {
             out.printf(Locale.ROOT, "check %s (%s): %s%s%n", c.name(), c.parameter(), c.result(),

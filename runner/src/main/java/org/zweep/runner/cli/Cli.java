@@ -39,6 +39,7 @@ public final class Cli {
         m.put("scpi", () -> new ScpiCommand());
         m.put("ping", () -> new PingCommand());
         m.put("sim", () -> new SimCommand());
+        m.put("watch", () -> new WatchCommand());
         return m;
     }
 

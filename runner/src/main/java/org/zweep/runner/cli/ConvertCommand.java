@@ -19,6 +19,7 @@ import org.zweep.driver.impedance.PartFamily;
 import org.zweep.driver.impedance.Quantities;
 import org.zweep.driver.impedance.Unit;
 import org.zweep.driver.impedance.Unit.Bound;
+import org.zweep.driver.uncertainty.UncertainImpedance;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
@@ -37,12 +38,16 @@ import picocli.CommandLine.Spec;
         description = {
             "Prints every parameter of an impedance given by one pair of values at a frequency.",
             "Values take SI prefixes and units (100nF, 4.7 kΩ, 1.5kHz, 2.2Meg) or the IEC 60062 code (4k7, R47, 4u7).",
-            "C and L are magnitudes (positive); D, ESR and Rs may be zero; θ is in degrees."
+            "C and L are magnitudes (positive); D, ESR and Rs may be zero; θ is in degrees.",
+            "With --u-r/--u-x/--correlation (or --u-z/--u-theta/--correlation) it also prints the standard",
+            "uncertainty u and the expanded uncertainty U (k = 2) of every parameter, by the law of",
+            "propagation of uncertainty (JCGM 100:2008); a missing u is zero."
         },
         footer = ExitCode.HELP_LIST)
 final class ConvertCommand implements Callable<Integer> {
 
     private static final int TABLE_DIGITS = 6;
+    private static final int UNCERTAINTY_DIGITS = 3;
     /** Immutable and thread-safe once built. */
     private static final ObjectWriter JSON = new ObjectMapper().writerWithDefaultPrettyPrinter();
 
@@ -127,6 +132,22 @@ final class ConvertCommand implements Callable<Integer> {
     @Option(names = "--rp", paramLabel = "OHMS", description = "parallel resistance (with --cp or --lp)")
     String rp;
 
+    @Option(names = "--u-r", paramLabel = "OHMS", description = "standard uncertainty of R")
+    String uR;
+
+    @Option(names = "--u-x", paramLabel = "OHMS", description = "standard uncertainty of X")
+    String uX;
+
+    @Option(names = "--u-z", paramLabel = "OHMS", description = "standard uncertainty of |Z| (instead of --u-r/--u-x)")
+    String uZ;
+
+    @Option(names = "--u-theta", paramLabel = "DEG", description = "standard uncertainty of θ in degrees (with --u-z)")
+    String uTheta;
+
+    @Option(names = "--correlation", paramLabel = "R",
+            description = "correlation coefficient of R and X (or of |Z| and θ), -1 to 1; default 0")
+    String correlation;
+
     @Option(names = "--json", description = "print one JSON object (SI numbers; null where infinite)")
     boolean json;
 
@@ -146,13 +167,44 @@ final class ConvertCommand implements Callable<Integer> {
             throw new InvalidInputException("--theta \"" + theta + "\" is out of range: θ must be from -180 to 180°");
         }
         Impedance impedance = pair.factory().make(frequencyHz, a, b);
+        UncertainImpedance uncertain = uncertainty(impedance);
         PrintWriter out = spec.commandLine().getOut();
         if (json) {
-            out.println(toJson(impedance));
-        } else {
+            out.println(uncertain == null ? toJson(impedance) : toJson(uncertain));
+        } else if (uncertain == null) {
             printTable(out, impedance, pair.family());
+        } else {
+            printTable(out, uncertain, pair.family());
         }
         return ExitCode.OK;
+    }
+
+    /** The uncertainty options as an uncertain impedance, or null when none is given. */
+    private UncertainImpedance uncertainty(Impedance impedance) {
+        boolean rectangular = uR != null || uX != null;
+        boolean polar = uZ != null || uTheta != null;
+        if (rectangular && polar) {
+            throw new InvalidInputException("give --u-r/--u-x or --u-z/--u-theta, not both");
+        }
+        if (!rectangular && !polar) {
+            if (correlation != null) {
+                throw new InvalidInputException("--correlation needs --u-r/--u-x or --u-z/--u-theta");
+            }
+            return null;
+        }
+        double r = correlation == null ? 0.0 : parse("--correlation", correlation, Unit.NONE, Bound.ANY);
+        if (Math.abs(r) > 1.0) {
+            throw new InvalidInputException("--correlation \"" + correlation + "\" is out of range: -1 to 1");
+        }
+        if (rectangular) {
+            return new UncertainImpedance(impedance, orZero("--u-r", uR, Unit.OHM), orZero("--u-x", uX, Unit.OHM), r);
+        }
+        return UncertainImpedance.fromPolar(impedance, orZero("--u-z", uZ, Unit.OHM),
+                orZero("--u-theta", uTheta, Unit.DEGREE), r);
+    }
+
+    private static double orZero(String option, String text, Unit unit) {
+        return text == null ? 0.0 : parse(option, text, unit, Bound.NON_NEGATIVE);
     }
 
     private static Pair selectPair(ParseResult parsed) {
@@ -205,6 +257,68 @@ final class ConvertCommand implements Callable<Integer> {
         }
     }
 
+    /** The correlations {@code zweep convert} prints: between R, X, |Z| and θ. */
+    private static final List<List<DerivedParameter>> CORRELATIONS = List.of(
+            List.of(DerivedParameter.R, DerivedParameter.X), List.of(DerivedParameter.R, DerivedParameter.Z),
+            List.of(DerivedParameter.X, DerivedParameter.Z), List.of(DerivedParameter.Z, DerivedParameter.THETA));
+
+    /**
+     * The contract map, then {@code u_<name>} and {@code U_<name>} (k = 2) for every contract
+     * parameter but the frequency, the coverage factor and the correlations as
+     * {@code "r_ohm,z_ohm": r}; infinite or undefined values become {@code null}.
+     */
+    static String toJson(UncertainImpedance z) {
+        Map<String, Object> values = new LinkedHashMap<>();
+        DerivedParameter.contractValues(z.value()).forEach((k, v) -> values.put(k, finiteOrNull(v)));
+        for (DerivedParameter p : DerivedParameter.contract()) {
+            if (p != DerivedParameter.FREQUENCY) {
+                values.put("u_" + p.key(), finiteOrNull(z.standardUncertainty(p)));
+            }
+        }
+        for (DerivedParameter p : DerivedParameter.contract()) {
+            if (p != DerivedParameter.FREQUENCY) {
+                values.put("U_" + p.key(), finiteOrNull(z.expandedUncertainty(p)));
+            }
+        }
+        values.put("coverage_factor", UncertainImpedance.COVERAGE_FACTOR);
+        Map<String, Double> correlations = new LinkedHashMap<>();
+        for (List<DerivedParameter> pq : CORRELATIONS) {
+            correlations.put(pq.get(0).key() + "," + pq.get(1).key(), finiteOrNull(z.correlation(pq.get(0), pq.get(1))));
+        }
+        values.put("correlations", correlations);
+        try {
+            return JSON.writeValueAsString(values);
+        } catch (JsonProcessingException e) {
+            throw new UncheckedIOException(e);
+        }
+    }
+
+    private static Double finiteOrNull(double v) {
+        return Double.isFinite(v) ? v : null;
+    }
+
+    private static void printTable(PrintWriter out, UncertainImpedance z, PartFamily family) {
+        int width = 0;
+        for (DerivedParameter p : DerivedParameter.values()) {
+            width = Math.max(width, p.label().length());
+        }
+        String row = "%-" + width + "s  %-14s  %-12s  %s%n";
+        out.printf(row, "", "value", "u", "U (k = 2)");
+        for (DerivedParameter p : DerivedParameter.values()) {
+            double u = z.standardUncertainty(p);
+            out.printf(row, p.label(), Quantities.format(p.of(z.value()), p.unit(), TABLE_DIGITS),
+                    Quantities.format(u, p.unit(), UNCERTAINTY_DIGITS),
+                    Quantities.format(z.expandedUncertainty(p), p.unit(), UNCERTAINTY_DIGITS));
+        }
+        out.println();
+        for (List<DerivedParameter> pq : CORRELATIONS) {
+            double r = z.correlation(pq.get(0), pq.get(1));
+            out.printf("r(%s, %s) = %s%n", pq.get(0).label(), pq.get(1).label(),
+                    Double.isNaN(r) ? "-" : String.format(java.util.Locale.ROOT, "%.3f", Math.round(r * 1000) / 1000.0 + 0.0));
+        }
+        suggest(out, z.value(), family);
+    }
+
     private static void printTable(PrintWriter out, Impedance impedance, PartFamily family) {
         int width = 0;
         for (DerivedParameter p : DerivedParameter.values()) {
@@ -213,6 +327,10 @@ final class ConvertCommand implements Callable<Integer> {
         for (DerivedParameter p : DerivedParameter.values()) {
             out.printf("%-" + width + "s  %s%n", p.label(), Quantities.format(p.of(impedance), p.unit(), TABLE_DIGITS));
         }
+        suggest(out, impedance, family);
+    }
+
+    private static void suggest(PrintWriter out, Impedance impedance, PartFamily family) {
         EquivalentCircuit model = EquivalentCircuit.AUTO.resolve(impedance, family);
         out.printf("%nsuggested model: %s (%s)%n", model.name().toLowerCase(java.util.Locale.ROOT),
                 suggestedParameters(impedance, model));

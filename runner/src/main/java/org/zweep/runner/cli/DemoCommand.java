@@ -44,7 +44,18 @@ public final class DemoCommand implements Callable<Integer> {
         Path sequence = locate();
         RunLauncher.Options o = new RunLauncher.Options(null, null, out, Path.of("results"), false, seed, quiet, null,
                 10, 60);
-        return new RunLauncher(spec.commandLine().getOut(), spec.commandLine().getErr()).start(sequence, o);
+        RunLauncher launcher = new RunLauncher(spec.commandLine().getOut(), spec.commandLine().getErr());
+        int code = launcher.start(sequence, o);
+        Path dir = launcher.finishedFolder();
+        if (dir != null && (code == ExitCode.OK || code == ExitCode.CHECK_FAILED)) {
+            var out = spec.commandLine().getOut();
+            out.println();
+            out.println("next:");
+            out.println("  zweep analyze " + dir + "   # fitted circuit, checks and bins (analysis.json)");
+            out.println("  zweep report " + dir + "    # report.html with the plots");
+            out.flush();
+        }
+        return code;
     }
 
     /**

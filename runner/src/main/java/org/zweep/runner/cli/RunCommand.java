@@ -61,6 +61,15 @@ public final class RunCommand implements Callable<Integer> {
             description = "give up reconnecting after this many seconds of waiting (default: ${DEFAULT-VALUE} s)")
     double reconnectBudgetS;
 
+    @Option(names = "--live", arity = "0..1", fallbackValue = "0", paramLabel = "PORT",
+            description = "serve the live page of the run (plots as points arrive, progress, prompts to answer) on"
+                    + " PORT (default: a free one), on the loopback address unless --live-bind says otherwise")
+    Integer live;
+
+    @Option(names = "--live-bind", paramLabel = "HOST", defaultValue = "127.0.0.1",
+            description = "the address the live page is served on (default: ${DEFAULT-VALUE})")
+    String liveBind;
+
     @Override
     public Integer call() {
         if ((file == null) == (resume == null)) {
@@ -75,6 +84,9 @@ public final class RunCommand implements Callable<Integer> {
         RunLauncher.Options o = new RunLauncher.Options(meter, dialect, out, Path.of("results"), yes, seed, quiet,
                 trace, timeoutS, reconnectBudgetS);
         RunLauncher l = new RunLauncher(spec.commandLine().getOut(), spec.commandLine().getErr());
+        if (live != null) {
+            l.live(new java.net.InetSocketAddress(liveBind, live));
+        }
         return resume != null ? l.resume(resume, o) : l.start(file, o);
     }
 }

@@ -70,10 +70,22 @@ final class RunLauncher {
 
     private final PrintWriter out;
     private final PrintWriter err;
+    private Path finishedFolder;
+    private java.net.InetSocketAddress live;
+
+    /** Serves the live page of the runs this launcher starts on {@code bind}. */
+    void live(java.net.InetSocketAddress bind) {
+        this.live = bind;
+    }
 
     RunLauncher(PrintWriter out, PrintWriter err) {
         this.out = out;
         this.err = err;
+    }
+
+    /** The folder of the run whose summary was printed last, or null. */
+    Path finishedFolder() {
+        return finishedFolder;
     }
 
     /** Starts a new run of {@code sequenceFile}; returns the exit code. */
@@ -211,10 +223,23 @@ final class RunLauncher {
         }
         Interruption interruption = new Interruption();
         boolean terminal = System.console() != null;
-        ProgressListener progress = o.quiet() ? ProgressListener.QUIET
+        ProgressListener console = o.quiet() ? ProgressListener.QUIET
                 : new ConsoleProgress(out, terminal, System::nanoTime, 5.0);
+        org.zweep.runner.live.EventLog events = org.zweep.runner.live.EventLog.open(folder.dir(), Clock.systemUTC());
+        ProgressListener progress = new org.zweep.runner.live.EventRecorder(events, console,
+                Analysis.mainParameter(plan.part().kind().name().toLowerCase(Locale.ROOT)), plan.name());
+        org.zweep.runner.live.LiveServer server = null;
+        boolean ended = false;
         try (ScpiMeterLink link = MeterLinks.open(plan.meter().address(), plan.meter().dialect(), sb.build())) {
-            Prompter prompter = o.yes() ? Prompter.yes(out) : terminal
+            if (live != null) {
+                server = org.zweep.runner.live.LiveServer.start(folder.dir(), live);
+                out.println("live view: " + server.url());
+                out.flush();
+            }
+            Prompter prompter = o.yes() ? Prompter.yes(out) : live != null
+                    ? new org.zweep.runner.live.LivePrompter(events, out, terminal ? new BufferedReader(
+                            new InputStreamReader(System.in, StandardCharsets.UTF_8)) : null, interruption)
+                    : terminal
                     ? Prompter.terminal(new BufferedReader(new InputStreamReader(System.in, StandardCharsets.UTF_8)),
                             out)
                     : Prompter.refusing();
@@ -230,8 +255,60 @@ final class RunLauncher {
                 s = session.run();
             }
             printSummary(folder, s);
+            recordEnd(events, s);
+            ended = true;
             return exitCode(s);
+        } finally {
+            if (!ended) {
+                events.write("finished", n -> {
+                    n.put("outcome", "failed");
+                    n.put("verdict", "none");
+                });
+            }
+            if (server != null) {
+                lingerThenClose(server);
+            }
+            events.close();
         }
+    }
+
+    /** The checks and the end of the run, for the live view. */
+    private static void recordEnd(org.zweep.runner.live.EventLog events, RunSession.Summary s) {
+        for (PointChecks.Outcome c : s.pointChecks()) {
+            events.write("check", n -> {
+                n.put("name", c.limit().name());
+                n.put("parameter", c.limit().parameter());
+                n.put("value", c.lastValue());
+                n.put("value_text", value(c.limit().parameter(), c.lastValue()));
+                n.put("result", c.verdict());
+            });
+        }
+        for (SweepChecks.Outcome c : s.sweepChecks()) {
+            events.write("check", n -> {
+                n.put("name", c.limit().name());
+                n.put("parameter", c.limit().parameter());
+                n.put("value", c.value());
+                n.put("value_text", value(c.limit().parameter(), c.value()));
+                n.put("result", c.passed() ? "pass" : "fail");
+            });
+        }
+        RunResult r = s.result();
+        events.write("finished", n -> {
+            n.put("outcome", r.outcome().word());
+            n.put("verdict", s.verdict());
+            n.put("measured", r.measured());
+            n.put("total", r.planned());
+        });
+    }
+
+    /** Gives connected pages a moment to receive the last events, then stops serving. */
+    private static void lingerThenClose(org.zweep.runner.live.LiveServer server) {
+        try {
+            Thread.sleep(1500);
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+        }
+        server.close();
     }
 
     /** The whole-sweep checks (such as {@code srf_hz}) of a completed run, evaluated by the analysis. */
@@ -258,6 +335,7 @@ final class RunLauncher {
 
     void printSummary(RunFolder folder, RunSession.Summary s) {
         RunResult r = s.result();
+        finishedFolder = folder.dir();
         out.printf(Locale.ROOT, "results: %s%n", folder.dir());
         out.printf(Locale.ROOT, "points: %d of %d measured (%s)%n", r.measured(), r.planned(), r.outcome().word());
         for (String p : r.problems()) {

@@ -73,18 +73,53 @@ final class ScpiCommand implements Callable<Integer> {
     public Integer call() throws IOException {
         PrintWriter out = spec.commandLine().getOut();
         ScpiSettings settings = ScpiSettings.builder().readTimeout(timeout).tracePath(trace).build();
+        PrintWriter err = spec.commandLine().getErr();
+        int failed = 0;
         try (ScpiClient client = ScpiClient.open(address, settings)) {
             if (!commands.isEmpty()) {
+                int n = 0;
                 for (String c : commands) {
-                    exchange(client, c, out, spec.commandLine().getErr());
+                    failed += keepGoing(client, c, "command " + (++n), out, err);
                 }
             } else if (stdin == System.in && System.console() != null) {
                 console(client, out);
             } else {
-                lines(client, out);
+                failed = lines(client, out, err);
             }
         }
-        return ExitCode.OK;
+        return failed > 0 ? ExitCode.METER : ExitCode.OK;
+    }
+
+    /**
+     * Sends one message; when the meter does not answer a query in time or reports an error, says
+     * so on {@code err} with what its error queue holds (when it can be read) and returns 1, so
+     * that the caller goes on with the next message; 0 when all went well. A lost connection ends
+     * the session (thrown).
+     */
+    static int keepGoing(ScpiClient client, String message, String where, PrintWriter out, PrintWriter err) {
+        try {
+            exchange(client, message, out, err);
+            return 0;
+        } catch (ConnectionLostException e) {
+            throw e;
+        } catch (MeterException e) {
+            String problem = e instanceof org.zweep.driver.transport.MeterTimeoutException
+                    ? "no reply to '" + message + "' within " + client.settings().readTimeout().toMillis() + " ms"
+                    : e.getMessage();
+            String queue;
+            try {
+                List<org.zweep.driver.scpi.ScpiError> errors = client.drainErrors();
+                queue = errors.isEmpty() ? "the meter's error queue is empty"
+                        : "the meter's error queue: " + String.join("; ", errors.stream().map(Object::toString).toList());
+            } catch (ConnectionLostException lost) {
+                throw lost;
+            } catch (MeterException unreadable) {
+                queue = "the meter's error queue could not be read (" + unreadable.getMessage() + ")";
+            }
+            err.println("zweep: " + where + ": " + problem + "; " + queue + "; going on");
+            err.flush();
+            return 1;
+        }
     }
 
     /** How long the link must stay silent before a query for nothing unasked to be waiting. */
@@ -135,14 +170,19 @@ final class ScpiCommand implements Callable<Integer> {
         return new String(reply, StandardCharsets.US_ASCII);
     }
 
-    private void lines(ScpiClient client, PrintWriter out) throws IOException {
+    /** One message per input line, going on past failures; returns how many failed. */
+    private int lines(ScpiClient client, PrintWriter out, PrintWriter err) throws IOException {
         BufferedReader in = new BufferedReader(new InputStreamReader(stdin, StandardCharsets.UTF_8));
         String line;
+        int n = 0;
+        int failed = 0;
         while ((line = in.readLine()) != null) {
+            n++;
             if (!line.isBlank()) {
-                exchange(client, line.strip(), out, spec.commandLine().getErr());
+                failed += keepGoing(client, line.strip(), "line " + n, out, err);
             }
         }
+        return failed;
     }
 
     private void console(ScpiClient client, PrintWriter out) throws IOException {
@@ -170,14 +210,7 @@ final class ScpiCommand implements Callable<Integer> {
                 if (m.equalsIgnoreCase("exit") || m.equalsIgnoreCase("quit")) {
                     return;
                 }
-                try {
-                    exchange(client, m, out, err);
-                } catch (ConnectionLostException e) {
-                    throw e;
-                } catch (MeterException e) {
-                    err.println("zweep: " + e.getMessage());
-                    err.flush();
-                }
+                keepGoing(client, m, "console", out, err);
             }
         } catch (UncheckedIOException e) {
             throw e.getCause();

@@ -3,6 +3,7 @@ package org.zweep.runner.compensation;
 import java.util.HashMap;
 import java.util.List;
 import java.util.Map;
+import java.util.function.Function;
 import org.apache.commons.math3.complex.Complex;
 import org.zweep.driver.InvalidInputException;
 import org.zweep.driver.impedance.Compensation;
@@ -11,6 +12,7 @@ import org.zweep.driver.meter.CorrectionStandard;
 import org.zweep.driver.meter.MeasuredQuantity;
 import org.zweep.driver.meter.Reading;
 import org.zweep.driver.meter.ReadingStatus;
+import org.zweep.driver.uncertainty.UncertainImpedance;
 import org.zweep.runner.engine.ReadingCorrector;
 
 /**
@@ -69,17 +71,96 @@ public final class HostCorrector implements ReadingCorrector {
         return c;
     }
 
+    /**
+     * The standard uncertainty of the corrected value of {@code raw}: the raw reading's own,
+     * {@code rawU}, through ∂Z/∂Zm, plus the uncertainty of each standard's reading at that
+     * frequency ({@code standardU} of the stored or interpolated reading) through ∂Z/∂Z_standard,
+     * all taken as independent (JCGM 100:2008, 5.1.2). The derivatives are central differences
+     * of the correction itself. The load standard's stated value is taken as exact.
+     *
+     * @param standardU the standard uncertainty of a standard's reading; null when unknown
+     * @return the corrected value's uncertainty; null when {@code rawU} or a standard's is unknown
+     */
+    public UncertainImpedance uncertainty(Reading raw, UncertainImpedance rawU,
+            Function<Impedance, UncertainImpedance> standardU) {
+        if (rawU == null || raw.status() != ReadingStatus.OK
+                || raw.setting().quantity() != MeasuredQuantity.IMPEDANCE) {
+            return null;
+        }
+        double f = raw.setting().frequencyHz();
+        Complex zm = new Complex(raw.real(), raw.imaginary());
+        Complex[] std = standards(f);
+        Complex z = build(std).correct(zm);
+        Impedance out = new Impedance(f, z.getReal(), z.getImaginary());
+        Complex hm = new Complex(step(zm), 0);
+        Complex dm = build(std).correct(zm.add(hm)).subtract(build(std).correct(zm.subtract(hm)))
+                .divide(hm.multiply(2));
+        UncertainImpedance total = rawU.through(out, dm);
+        for (int k = 0; k < std.length; k++) {
+            if (std[k] == null) {
+                continue;
+            }
+            UncertainImpedance uk = standardU.apply(new Impedance(f, std[k].getReal(), std[k].getImaginary()));
+            if (uk == null) {
+                return null;
+            }
+            Complex h = new Complex(step(std[k]), 0);
+            Complex[] plus = std.clone();
+            Complex[] minus = std.clone();
+            plus[k] = std[k].add(h);
+            minus[k] = std[k].subtract(h);
+            Complex dk = build(plus).correct(zm).subtract(build(minus).correct(zm)).divide(h.multiply(2));
+            total = total.plus(uk.through(out, dk));
+        }
+        return total;
+    }
+
+    /**
+     * {@inheritDoc}
+     *
+     * <p>Here: {@link #uncertainty(Reading, UncertainImpedance, Function)} with each standard's
+     * reading judged by {@code accuracy} at the drive level and integration time the standards
+     * were measured with.
+     */
+    @Override
+    public UncertainImpedance uncertainty(Reading raw, UncertainImpedance rawU,
+            org.zweep.driver.uncertainty.MeterAccuracy accuracy) {
+        if (accuracy == null) {
+            return null;
+        }
+        CompensationData.Info info = data.info();
+        boolean current = "A".equals(info.drive());
+        return uncertainty(raw, rawU,
+                z -> accuracy.uncertainty(z, info.level(), current, info.integrationS()).orElse(null));
+    }
+
+    private static double step(Complex z) {
+        return 1e-6 * Math.max(z.abs(), 1e-9);
+    }
+
+    /** The open, short and load readings at {@code f} (null for a standard not stored). */
+    private Complex[] standards(double f) {
+        return new Complex[] {
+            has(CorrectionStandard.OPEN) ? at(CorrectionStandard.OPEN, f) : null,
+            has(CorrectionStandard.SHORT) ? at(CorrectionStandard.SHORT, f) : null,
+            has(CorrectionStandard.LOAD) ? at(CorrectionStandard.LOAD, f) : null};
+    }
+
     private Compensation build(double f) {
-        boolean open = has(CorrectionStandard.OPEN);
-        boolean shrt = has(CorrectionStandard.SHORT);
-        boolean load = has(CorrectionStandard.LOAD);
-        Complex zo = open ? at(CorrectionStandard.OPEN, f) : null;
-        Complex zs = shrt ? at(CorrectionStandard.SHORT, f) : null;
+        return build(standards(f));
+    }
+
+    private Compensation build(Complex[] std) {
+        Complex zo = std[0];
+        Complex zs = std[1];
+        boolean open = zo != null;
+        boolean shrt = zs != null;
+        boolean load = std[2] != null;
         if (open && shrt && load) {
             if (loadKnown == null) {
                 throw new InvalidInputException(source + ": load data but no known load value in the sequence");
             }
-            return Compensation.openShortLoad(zo, zs, at(CorrectionStandard.LOAD, f), loadKnown);
+            return Compensation.openShortLoad(zo, zs, std[2], loadKnown);
         }
         if (open && shrt) {
             return Compensation.openShort(zo, zs);

@@ -3,6 +3,7 @@ package org.zweep.runner.engine;
 import java.util.Optional;
 import org.zweep.driver.MeterException;
 import org.zweep.driver.meter.Meter;
+import org.zweep.driver.uncertainty.MeterAccuracy;
 
 /**
  * The connection to one meter, which can be re-opened after it broke.
@@ -34,6 +35,11 @@ public interface MeterLink extends AutoCloseable {
 
     /** The simulator's own controls, when the meter is the zweep simulator; empty otherwise. */
     Optional<SimulatorControl> simulator();
+
+    /** The accuracy the meter's dialect states; empty when it states none. */
+    default Optional<MeterAccuracy> accuracy() {
+        return Optional.empty();
+    }
 
     /** Turns bias off (best effort) and closes the connection; never throws. */
     @Override

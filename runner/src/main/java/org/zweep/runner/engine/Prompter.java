@@ -17,6 +17,14 @@ public interface Prompter {
      */
     void prompt(String instruction);
 
+    /**
+     * Whether prompts go to the operator on the simulator too (the live view's prompter), instead
+     * of passing by themselves while the simulator switches its fixture.
+     */
+    default boolean onSimulator() {
+        return false;
+    }
+
     /** Waits for Enter on {@code in}, showing the instruction on {@code out}. */
     static Prompter terminal(BufferedReader in, PrintWriter out) {
         return instruction -> {

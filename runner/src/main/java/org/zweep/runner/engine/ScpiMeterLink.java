@@ -12,6 +12,7 @@ import org.zweep.driver.scpi.ScpiSession;
 import org.zweep.driver.transport.ConnectFailedException;
 import org.zweep.driver.transport.ConnectionLostException;
 import org.zweep.driver.transport.MeterTimeoutException;
+import org.zweep.driver.uncertainty.MeterAccuracy;
 
 /**
  * A {@link MeterLink} over SCPI: a {@link DialectMeter} on a session from {@code connector},
@@ -69,6 +70,11 @@ public final class ScpiMeterLink implements MeterLink {
 
     /** How often the first connection is tried when it breaks while identifying the meter. */
     private static final int FIRST_CONNECT_ATTEMPTS = 5;
+
+    @Override
+    public Optional<MeterAccuracy> accuracy() {
+        return dialect.accuracy();
+    }
 
     private Meter connect() {
         JoiningSession s = new JoiningSession(connector.get());

@@ -152,7 +152,9 @@ public final class Station {
                 });
                 slot = s;
             }
-            if (!instruction.isEmpty()) {
+            if (!instruction.isEmpty() && prompter.onSimulator()) {
+                prompter.prompt(instruction);
+            } else if (!instruction.isEmpty()) {
                 log.accept(">> " + instruction + " (simulator: fixture holds " + s.name().toLowerCase(java.util.Locale.ROOT)
                         + ")");
             }
@@ -192,8 +194,8 @@ public final class Station {
      * the simulator's noise with {@code noiseKey}, triggers and reads.
      */
     public Reading measure(MeasurementSetting s, BiasControl bias, double delayS, long noiseKey) {
-        guard.check(s, "setting at " + s.frequencyHz() + " Hz");
-        return withRetry("measuring at " + s.frequencyHz() + " Hz", () -> {
+        guard.check(s, "setting at " + org.zweep.runner.safety.SafetyGuard.human(s.frequencyHz(), "Hz"));
+        return withRetry("measuring at " + org.zweep.runner.safety.SafetyGuard.human(s.frequencyHz(), "Hz"), () -> {
             moveTo(s, bias);
             waiter.waitS(delayS);
             link.simulator().ifPresent(c -> c.setNoiseKey(noiseKey));
@@ -207,7 +209,7 @@ public final class Station {
      */
     public List<Reading> measureList(List<MeasurementSetting> settings, BiasControl bias, long noiseKey) {
         for (MeasurementSetting s : settings) {
-            guard.check(s, "setting at " + s.frequencyHz() + " Hz");
+            guard.check(s, "setting at " + org.zweep.runner.safety.SafetyGuard.human(s.frequencyHz(), "Hz"));
         }
         return withRetry("measuring a list of " + settings.size() + " points", () -> {
             moveTo(settings.get(0), bias);
@@ -344,7 +346,7 @@ public final class Station {
     }
 
     private void apply(MeasurementSetting s) {
-        guard.check(s, "setting at " + s.frequencyHz() + " Hz");
+        guard.check(s, "setting at " + org.zweep.runner.safety.SafetyGuard.human(s.frequencyHz(), "Hz"));
         link.meter().apply(s);
         lastSetting = s;
         applied = s.bias();

@@ -92,11 +92,19 @@ public final class Exports {
         write(file, b.toString());
     }
 
+    private static com.fasterxml.jackson.databind.JsonNode manifestTree(RunData run) {
+        try {
+            return JSON.readTree(run.manifest().toJson());
+        } catch (com.fasterxml.jackson.core.JsonProcessingException e) {
+            throw new IllegalStateException("run.json does not read back: " + e.getMessage(), e);
+        }
+    }
+
     /** Writes the manifest, every measured row and the analysis as one JSON document to {@code file}. */
     public static void json(RunData run, AnalysisResult analysis, Path file) {
         ObjectNode root = JSON.createObjectNode();
         root.put("format", "zweep-export/1");
-        root.set("run", JSON.valueToTree(run.manifest()));
+        root.set("run", manifestTree(run)); // run.json's own snake_case keys
         ArrayNode points = root.putArray("points");
         for (PointRow r : run.rows()) {
             if (!"ok".equals(r.status())) {

@@ -5,10 +5,10 @@ import java.awt.Color;
 import java.awt.Font;
 import java.awt.geom.Ellipse2D;
 import java.awt.geom.Rectangle2D;
+import java.util.ArrayList;
 import java.util.List;
 import org.apache.commons.math3.complex.Complex;
 import org.jfree.chart.JFreeChart;
-import org.jfree.chart.axis.LogAxis;
 import org.jfree.chart.axis.NumberAxis;
 import org.jfree.chart.axis.NumberTickUnit;
 import org.jfree.chart.axis.ValueAxis;
@@ -24,6 +24,7 @@ import org.zweep.driver.impedance.Impedance;
 import org.zweep.driver.impedance.Unit;
 import org.zweep.runner.analysis.CircuitFit;
 import org.zweep.runner.analysis.Derating;
+import org.zweep.runner.analysis.Resonance;
 import org.zweep.runner.analysis.Si;
 
 /**
@@ -84,7 +85,7 @@ public final class Charts {
             mags.addSeries(mag);
             phases.addSeries(phase);
         }
-        XYPlot plot = plot(frequencyAxis(traces), axis("|Z| (Ω)", all), mags, lines(traces.size(), 0, true));
+        XYPlot plot = plot(frequencyAxis(traces), axis("|Z|", "Ω", all), mags, lines(traces.size(), 0, true));
         NumberAxis deg = new NumberAxis("θ (°)");
         deg.setRange(-95, 95);
         deg.setTickUnit(new NumberTickUnit(30));
@@ -96,17 +97,27 @@ public final class Charts {
         return chart(title, plot);
     }
 
-    /** R (solid) and X (dashed) versus frequency, one colour per trace. */
+    /**
+     * |R| (solid) and |X| (dashed) versus frequency on a log axis when they span a decade or more,
+     * one colour per trace; a single sweep whose X changes sign gets the crossing marked.
+     */
     public static JFreeChart resistanceReactance(String title, List<Trace> traces) {
         XYSeriesCollection data = new XYSeriesCollection();
+        XYSeries all = new XYSeries("all");
         for (Trace t : traces) {
-            XYSeries r = new XYSeries(t.name("R"));
-            t.points().forEach(z -> r.add(z.frequencyHz(), z.resistanceOhm()));
+            XYSeries r = new XYSeries(t.name("|R|"));
+            for (Impedance z : t.points()) {
+                add(r, z.frequencyHz(), Math.abs(z.resistanceOhm()));
+                add(all, z.frequencyHz(), Math.abs(z.resistanceOhm()));
+            }
             data.addSeries(r);
         }
         for (Trace t : traces) {
-            XYSeries x = new XYSeries(t.name("X"));
-            t.points().forEach(z -> x.add(z.frequencyHz(), z.reactanceOhm()));
+            XYSeries x = new XYSeries(t.name("|X|"));
+            for (Impedance z : t.points()) {
+                add(x, z.frequencyHz(), Math.abs(z.reactanceOhm()));
+                add(all, z.frequencyHz(), Math.abs(z.reactanceOhm()));
+            }
             data.addSeries(x);
         }
         int n = traces.size();
@@ -117,35 +128,64 @@ public final class Charts {
             style(renderer, i, c, SOLID, new Ellipse2D.Double(-3, -3, 6, 6));
             style(renderer, n + i, cx, n == 1 ? SOLID : DASHED, new Rectangle2D.Double(-3, -3, 6, 6));
         }
-        NumberAxis y = new NumberAxis("R, X (Ω)");
-        style(y);
-        y.setNumberFormatOverride(new SiTickFormat());
-        return chart(title, plot(frequencyAxis(traces), y, data, renderer));
+        XYPlot plot = plot(frequencyAxis(traces), axis("|R|, |X|", "Ω", all), data, renderer);
+        markResonance(plot, traces);
+        return chart(title, plot);
     }
 
     /**
      * The series value ({@code parameter}: Cs, Ls or Rs) from the data as points and from each
-     * trace's fitted model as a line of the same colour, versus frequency; only positive values are
-     * drawn (log axis). Values come from the impedance core's {@link DerivedParameter}.
+     * trace's fitted model as a line of the same colour, versus frequency. Cs and Ls mean the part's
+     * value only well below the self-resonance: points from a third of the first reactance sign
+     * change up are drawn apart (hollow, "near or above SRF"), the ones beyond the axis as triangles
+     * at its top, and the axis is scaled to the points below. Only positive values are drawn.
+     * Values come from the impedance core's {@link DerivedParameter}.
      */
     public static JFreeChart seriesValue(String title, DerivedParameter parameter, List<Trace> traces) {
         String symbol = symbol(parameter);
+        boolean reactive = parameter != DerivedParameter.RS;
         XYSeriesCollection data = new XYSeriesCollection();
-        XYSeries all = new XYSeries("all");
-        XYLineAndShapeRenderer renderer = new XYLineAndShapeRenderer();
+        XYSeries matter = new XYSeries("matter");
+        XYSeries near = new XYSeries(symbol + " near or above SRF (not the part's value)");
         int n = traces.size();
+        List<Double> limits = new ArrayList<>();
+        for (Trace t : traces) {
+            double srf = reactive ? Resonance.fromData(t.points()) : Double.NaN;
+            double limit = Double.isFinite(srf) ? srf / NEAR_SRF_FACTOR : Double.POSITIVE_INFINITY;
+            limits.add(limit);
+            for (Impedance z : t.points()) {
+                if (z.frequencyHz() < limit) {
+                    add(matter, z.frequencyHz(), parameter.of(z));
+                }
+            }
+        }
+        if (matter.getItemCount() == 0) { // no point well below resonance: show them all
+            traces.forEach(t -> t.points().forEach(z -> add(matter, z.frequencyHz(), parameter.of(z))));
+            limits.replaceAll(l -> Double.POSITIVE_INFINITY);
+        }
+        double lo = Double.POSITIVE_INFINITY;
+        double hi = 0;
+        for (int i = 0; i < matter.getItemCount(); i++) {
+            lo = Math.min(lo, matter.getY(i).doubleValue());
+            hi = Math.max(hi, matter.getY(i).doubleValue());
+        }
+        XYLineAndShapeRenderer renderer = new XYLineAndShapeRenderer();
         for (int i = 0; i < n; i++) {
             Trace t = traces.get(i);
+            double limit = limits.get(i);
             XYSeries measured = new XYSeries(t.name(symbol + " measured"));
             for (Impedance z : t.points()) {
-                add(measured, z.frequencyHz(), parameter.of(z));
-                add(all, z.frequencyHz(), parameter.of(z));
+                if (z.frequencyHz() < limit) {
+                    add(measured, z.frequencyHz(), parameter.of(z));
+                } else {
+                    add(near, z.frequencyHz(), parameter.of(z));
+                }
             }
             XYSeries model = new XYSeries(t.name(symbol + " fitted " + (t.fit() == null ? "" : t.fit().model().id())));
             if (t.fit() != null && !t.points().isEmpty()) {
                 double f0 = t.points().get(0).frequencyHz();
-                double f1 = t.points().get(t.points().size() - 1).frequencyHz();
-                for (int k = 0; k <= 400; k++) {
+                double f1 = Math.min(limit, t.points().get(t.points().size() - 1).frequencyHz());
+                for (int k = 0; k <= 400 && f1 > f0; k++) {
                     double f = f0 * Math.pow(f1 / f0, k / 400.0);
                     Complex z = t.fit().impedanceAt(f);
                     add(model, f, parameter.of(new Impedance(f, z.getReal(), z.getImaginary())));
@@ -165,10 +205,78 @@ public final class Charts {
             renderer.setSeriesStroke(2 * i + 1, SOLID);
         }
         String unit = parameter.unit().symbol();
-        return chart(title, plot(frequencyAxis(traces), axis(symbol + " (" + unit + ")", all), data, renderer));
+        boolean log = hi / lo >= 10;
+        double pad = log ? 0 : Math.max((hi - lo) * 0.08, hi * 0.002);
+        double top = log ? hi * 1.25 : hi + pad;
+        ValueAxis y = log ? ReadableTicks.log(symbol, unit) : ReadableTicks.linear(symbol, unit, top, true);
+        if (Double.isFinite(lo) && hi > 0) {
+            y.setRange(log ? lo / 1.25 : lo - pad, top);
+        }
+        style(y);
+        if (near.getItemCount() > 0) {
+            XYSeries inRange = new XYSeries(near.getKey());
+            XYSeries above = new XYSeries(symbol + " above the axis");
+            for (int i = 0; i < near.getItemCount(); i++) {
+                double v = near.getY(i).doubleValue();
+                if (v <= top) {
+                    inRange.add(near.getX(i), v);
+                } else {
+                    above.add(near.getX(i).doubleValue(), top);
+                }
+            }
+            int s = data.getSeriesCount();
+            for (XYSeries extra : List.of(inRange, above)) {
+                if (extra.getItemCount() == 0) {
+                    continue;
+                }
+                data.addSeries(extra);
+                renderer.setSeriesLinesVisible(s, false);
+                renderer.setSeriesShapesVisible(s, true);
+                renderer.setSeriesShapesFilled(s, false);
+                renderer.setSeriesPaint(s, Color.GRAY);
+                renderer.setSeriesShape(s, extra == above ? upTriangle() : new Ellipse2D.Double(-3.5, -3.5, 7, 7));
+                s++;
+            }
+        }
+        XYPlot plot = plot(frequencyAxis(traces), y, data, renderer);
+        if (reactive) {
+            markResonance(plot, traces);
+        }
+        return chart(title, plot);
     }
 
-    /** D (for a capacitor) or Q versus frequency, on log axes, one colour per trace. */
+    /** Points from SRF / this factor up are near enough to resonance that Cs or Ls is not the part's value. */
+    static final double NEAR_SRF_FACTOR = 3;
+
+    private static java.awt.Shape upTriangle() {
+        java.awt.geom.Path2D.Double p = new java.awt.geom.Path2D.Double();
+        p.moveTo(0, -5);
+        p.lineTo(5, 4);
+        p.lineTo(-5, 4);
+        p.closePath();
+        return p;
+    }
+
+    /** A vertical line at the first reactance sign change of a single sweep, labelled with its frequency. */
+    private static void markResonance(XYPlot plot, List<Trace> traces) {
+        if (traces.size() != 1) {
+            return;
+        }
+        double srf = Resonance.fromData(traces.get(0).points());
+        if (!Double.isFinite(srf)) {
+            return;
+        }
+        ValueMarker m = new ValueMarker(srf, Color.GRAY, new BasicStroke(1f, BasicStroke.CAP_BUTT,
+                BasicStroke.JOIN_MITER, 1f, new float[] {4f, 4f}, 0f));
+        m.setLabel("SRF " + Si.format(srf, Unit.HERTZ, 3));
+        m.setLabelFont(TICK);
+        m.setLabelBackgroundColor(Color.WHITE);
+        m.setLabelAnchor(org.jfree.chart.ui.RectangleAnchor.BOTTOM_LEFT);
+        m.setLabelTextAnchor(org.jfree.chart.ui.TextAnchor.BOTTOM_RIGHT);
+        plot.addDomainMarker(m);
+    }
+
+    /** D (for a capacitor) or Q versus frequency, on a log axis when it spans a decade, one colour per trace. */
     public static JFreeChart loss(String title, boolean dissipation, List<Trace> traces) {
         DerivedParameter p = dissipation ? DerivedParameter.D : DerivedParameter.Q;
         XYSeriesCollection data = new XYSeriesCollection();
@@ -182,7 +290,7 @@ public final class Charts {
             data.addSeries(s);
         }
         XYLineAndShapeRenderer renderer = lines(traces.size(), 2, true);
-        return chart(title, plot(frequencyAxis(traces), axis(dissipation ? "D = R/|X|" : "Q = |X|/R", all), data,
+        return chart(title, plot(frequencyAxis(traces), axis(dissipation ? "D = R/|X|" : "Q = |X|/R", "", all), data,
                 renderer));
     }
 
@@ -201,10 +309,11 @@ public final class Charts {
         });
         XYSeriesCollection data = new XYSeriesCollection(s);
         data.addSeries(marks);
-        NumberAxis x = new NumberAxis("DC bias (" + d.biasMode() + ")");
+        double maxBias = d.points().stream().mapToDouble(p -> Math.abs(p.bias())).max().orElse(1);
+        NumberAxis x = ReadableTicks.linear("DC bias", d.biasMode(), maxBias, true);
         style(x);
-        x.setNumberFormatOverride(new SiTickFormat());
-        NumberAxis y = new NumberAxis("% of value at " + Si.format(d.referenceBias(), Si.unitOfSymbol(d.biasMode())));
+        NumberAxis y = ReadableTicks.linear(("cs_f".equals(d.quantity()) ? "C" : "L") + " (% of value at "
+                + Si.format(d.referenceBias(), Si.unitOfSymbol(d.biasMode())) + ")", "", 100, false);
         style(y);
         y.setAutoRangeIncludesZero(false);
         XYLineAndShapeRenderer renderer = line(BLUE, true);
@@ -241,15 +350,14 @@ public final class Charts {
     private static ValueAxis frequencyAxis(List<Trace> traces) {
         XYSeries f = new XYSeries("f");
         traces.forEach(t -> t.points().forEach(z -> f.add(z.frequencyHz(), z.frequencyHz())));
-        return axis("Frequency (Hz)", f);
+        return axis("Frequency", "Hz", f);
     }
 
     /**
-     * A log axis with ticks at whole decades (1, 2, 5 decades apart) when the positive y values of
-     * {@code data} span at least a decade; a linear axis otherwise (fractional-decade log ticks
-     * read badly).
+     * A log axis when the positive y values of {@code data} span at least a decade, a linear one
+     * with one SI prefix for the axis otherwise; {@code quantity (unit)} as its label.
      */
-    private static ValueAxis axis(String label, XYSeries data) {
+    private static ValueAxis axis(String quantity, String unit, XYSeries data) {
         double min = Double.POSITIVE_INFINITY;
         double max = 0;
         for (int i = 0; i < data.getItemCount(); i++) {
@@ -259,24 +367,14 @@ public final class Charts {
                 max = Math.max(max, v);
             }
         }
+        ValueAxis a;
         if (!(max / min >= 10)) {
-            NumberAxis a = new NumberAxis(label);
-            a.setAutoRangeIncludesZero(false);
-            a.setNumberFormatOverride(new SiTickFormat());
-            style(a);
-            return a;
+            NumberAxis lin = ReadableTicks.linear(quantity, unit, max, true);
+            lin.setAutoRangeIncludesZero(false);
+            a = lin;
+        } else {
+            a = ReadableTicks.log(quantity, unit);
         }
-        LogAxis a = new LogAxis(label);
-        a.setBase(10);
-        a.setSmallestValue(1e-18);
-        a.setNumberFormatOverride(new SiTickFormat());
-        org.jfree.chart.axis.TickUnits decades = new org.jfree.chart.axis.TickUnits();
-        for (double d : new double[] {1, 2, 5, 10}) {
-            decades.add(new NumberTickUnit(d));
-        }
-        a.setStandardTickUnits(decades);
-        a.setMinorTickCount(9);
-        a.setMinorTickMarksVisible(true);
         style(a);
         return a;
     }

@@ -66,7 +66,7 @@ public final class Plots {
                 String t = s.name() + (single ? " (" + group.get(0).describe() + ")" : ", " + group.size() + " sweeps");
                 String part = from == 0 ? "" : "-" + (from / Charts.MAX_TRACES + 1);
                 out.add(new Named(stem + "-impedance" + part, Charts.impedance("|Z| and θ, " + t, traces)));
-                out.add(new Named(stem + "-rx" + part, Charts.resistanceReactance("R and X, " + t, traces)));
+                out.add(new Named(stem + "-rx" + part, Charts.resistanceReactance("|R| and |X|, " + t, traces)));
                 out.add(new Named(stem + "-value" + part, Charts.seriesValue(Charts.symbol(value)
                         + " with fitted model, " + t, value, traces)));
                 out.add(new Named(stem + "-" + (dissipation ? "d" : "q") + part,
@@ -105,9 +105,7 @@ public final class Plots {
             for (Named c : charts(a)) {
                 Path png = dir.resolve(c.name() + ".png");
                 ChartUtils.saveChartAsPNG(png.toFile(), c.chart(), WIDTH, HEIGHT);
-                SVGGraphics2D g = new SVGGraphics2D(WIDTH, HEIGHT);
-                g.setDefsKeyPrefix("z" + (n++) + "_");
-                c.chart().draw(g, new java.awt.geom.Rectangle2D.Double(0, 0, WIDTH, HEIGHT));
+                SVGGraphics2D g = draw(c.chart(), WIDTH, HEIGHT, "z" + (n++) + "_", null);
                 String svg = g.getSVGElement(null, true, new org.jfree.svg.ViewBox(0, 0, WIDTH, HEIGHT), null, null);
                 Files.writeString(dir.resolve(c.name() + ".svg"), g.getSVGDocument(), StandardCharsets.UTF_8);
                 out.add(new Rendered(c.name(), c.chart().getTitle().getText(), svg, png));
@@ -116,6 +114,26 @@ public final class Plots {
             throw new UncheckedIOException("cannot write plots under " + dir + ": " + e.getMessage(), e);
         }
         return out;
+    }
+
+    /**
+     * {@code chart} drawn as a standalone SVG document of {@code width} × {@code height} pixels, as
+     * the files under {@code plots/} are; {@code info}, when not null, receives the areas drawn
+     * (the data area among them).
+     */
+    public static String svg(JFreeChart chart, int width, int height, org.jfree.chart.ChartRenderingInfo info) {
+        if (System.getProperty("java.awt.headless") == null) {
+            System.setProperty("java.awt.headless", "true");
+        }
+        return draw(chart, width, height, "z_", info).getSVGDocument();
+    }
+
+    private static SVGGraphics2D draw(JFreeChart chart, int width, int height, String defsPrefix,
+            org.jfree.chart.ChartRenderingInfo info) {
+        SVGGraphics2D g = new SVGGraphics2D(width, height);
+        g.setDefsKeyPrefix(defsPrefix);
+        chart.draw(g, new java.awt.geom.Rectangle2D.Double(0, 0, width, height), info);
+        return g;
     }
 
     /**

@@ -77,12 +77,13 @@ public final class HtmlReport {
         String verdict = a.verdict();
         b.append("<p>Verdict: <span class=\"verdict ").append(verdict).append("\">").append(verdict.toUpperCase(Locale.ROOT))
                 .append("</span> &nbsp; sequence <b>").append(esc(m.sequence() == null ? "" : m.sequence().name()))
-                .append("</b>, run ").append(esc(m.outcome())).append(", ").append(esc(String.valueOf(m.started())))
-                .append(" to ").append(esc(String.valueOf(m.ended()))).append("</p>\n");
+                .append("</b>, run ").append(esc(m.outcome())).append(", ").append(esc(Si.time(m.started())))
+                .append(" to ").append(esc(Si.time(m.ended()))).append("</p>\n");
         if (part != null) {
             b.append("<p>Nominal ").append(esc(part.nominal() == null ? "—" : Si.format(part.nominal(), Si.unitOfSymbol(part.unit()))))
                     .append(part.tolerancePercent() == null ? "" : " ± " + esc(fmt(part.tolerancePercent())) + " %")
-                    .append(part.turnsRatio() == null ? "" : ", turns ratio " + esc(fmt(part.turnsRatio()))).append("</p>\n");
+                    .append(part.turnsRatio() == null ? "" : ", turns ratio N1:N2 "
+                            + esc(org.zweep.runner.analysis.TransformerResult.ratioText(part.turnsRatio()))).append("</p>\n");
         }
         summary(b, a);
         checks(b, a.checks());
@@ -139,15 +140,15 @@ public final class HtmlReport {
                         .append("parameter</th><th>value</th><th>uncertainty (1σ)</th></tr>");
                 for (Map.Entry<String, Double> e : f.parameters().entrySet()) {
                     Unit unit = Si.unitOf(e.getKey());
-                    b.append("<tr><td>").append(esc(e.getKey())).append("</td><td class=\"num\">")
+                    b.append("<tr><td>").append(esc(Si.label(e.getKey()))).append("</td><td class=\"num\">")
                             .append(e.getValue() == null ? "not resolved" : esc(Si.format(e.getValue(), unit, 6)))
                             .append("</td><td class=\"num\">")
                             .append(e.getValue() == null ? "—" : esc(Si.format(f.sigma().get(e.getKey()), unit, 2)))
                             .append("</td></tr>");
                 }
-                b.append("<tr><td>srf_hz (fit)</td><td class=\"num\">")
+                b.append("<tr><td>SRF (from the fitted model)</td><td class=\"num\">")
                         .append(f.srfHz() == null ? "not resolved" : esc(Si.format(f.srfHz(), Unit.HERTZ, 6)))
-                        .append("</td><td></td></tr><tr><td>srf_hz (data zero crossing)</td><td class=\"num\">")
+                        .append("</td><td></td></tr><tr><td>SRF (where the measured X changes sign)</td><td class=\"num\">")
                         .append(f.srfDataHz() == null ? "not in sweep" : esc(Si.format(f.srfDataHz(), Unit.HERTZ, 6)))
                         .append("</td><td></td></tr><tr><td>residual RMS (relative)</td><td class=\"num\">")
                         .append(esc(String.format(Locale.ROOT, "%.3g", f.residualRms())))
@@ -211,16 +212,17 @@ public final class HtmlReport {
         if (t == null) {
             return;
         }
-        b.append("<h2>Transformer</h2>\n<table>");
-        row(b, "turns ratio N1/N2", fmt(t.turnsRatio()));
-        row(b, "voltage ratio V1/V2 (secondary open)", fmt(t.voltageRatio()));
-        row(b, "coupling k = √(1 − Lsc/Loc)", fmt(t.k()));
-        row(b, "open-circuit inductance Loc", Si.format(t.openH(), Unit.HENRY, 6));
-        row(b, "short-circuit inductance Lsc", Si.format(t.shortH(), Unit.HENRY, 6));
-        row(b, "leakage inductance Loc·(1 − k)", Si.format(t.leakageH(), Unit.HENRY, 6));
-        row(b, "mutual inductance M", Si.format(t.mutualH(), Unit.HENRY, 6));
-        row(b, "magnetizing inductance k·Loc", Si.format(t.magnetizingH(), Unit.HENRY, 6));
-        row(b, "at", Si.format(t.frequencyHz(), Unit.HERTZ));
+        String at = Si.format(t.frequencyHz(), Unit.HERTZ);
+        b.append("<h2>Transformer</h2>\n<table><tr><th>figure</th><th>value</th><th>how it was obtained</th></tr>");
+        row3(b, "turns ratio N1:N2", t.turnsRatioText(), "derived: k × measured V1/V2 (symmetric-leakage model)");
+        row3(b, "voltage ratio V1:V2", t.voltageRatioText(), "measured: primary driven, secondary open, mean over"
+                + " the ratio step's frequencies");
+        row3(b, "primary inductance L_oc", Si.format(t.openH(), Unit.HENRY, 4), "measured: primary, secondary open, at " + at);
+        row3(b, "leakage inductance L_sc (referred to the primary)", Si.format(t.leakageH(), Unit.HENRY, 4),
+                "measured: primary, secondary shorted, at " + at);
+        row3(b, "coupling k", Si.format(t.k(), Unit.NONE, 4), "derived: √(1 − L_sc/L_oc)");
+        row3(b, "mutual inductance M", Si.format(t.mutualH(), Unit.HENRY, 4), "derived: k·L_oc·N2/N1");
+        row3(b, "magnetizing inductance", Si.format(t.magnetizingH(), Unit.HENRY, 4), "derived: k·L_oc");
         b.append("</table>\n");
         t.notes().forEach(n -> b.append("<p class=\"note\">").append(esc(n)).append("</p>\n"));
     }
@@ -250,7 +252,7 @@ public final class HtmlReport {
                 for (String k : r.mean().keySet()) {
                     b.append("<tr><td>").append(esc(s.name())).append("</td><td class=\"num\">")
                             .append(esc(Si.format(r.frequencyHz(), Unit.HERTZ))).append("</td><td class=\"num\">").append(r.count())
-                            .append("</td><td>").append(esc(k)).append("</td><td class=\"num\">")
+                            .append("</td><td>").append(esc(Si.label(k))).append("</td><td class=\"num\">")
                             .append(esc(Si.format(r.mean().get(k), Si.unitOf(k), 6))).append("</td><td class=\"num\">")
                             .append(esc(Si.format(r.std().get(k), Si.unitOf(k), 3))).append("</td><td class=\"num\">")
                             .append(esc(String.format(Locale.ROOT, "%.3g", r.relativeSpread().get(k)))).append("</td></tr>");
@@ -279,6 +281,11 @@ public final class HtmlReport {
     static String inlineSvg(String svg) {
         return svg.replaceAll("\\s+xmlns(:[A-Za-z]+)?=(\"[^\"]*\"|'[^']*')", "")
                 .replaceAll("\\s+jfreesvg:[A-Za-z]+=(\"[^\"]*\"|'[^']*')", "");
+    }
+
+    private static void row3(StringBuilder b, String k, String v, String how) {
+        b.append("<tr><th>").append(esc(k)).append("</th><td class=\"num\">").append(esc(v)).append("</td><td>")
+                .append(esc(how)).append("</td></tr>");
     }
 
     private static void row(StringBuilder b, String k, String v) {

@@ -65,8 +65,8 @@ public final class SafetyGuard {
         }
         double maxLevel = d.mode() == SourceMode.VOLTAGE ? limits.maxLevelVrms() : limits.maxLevelArms();
         if (d.levelRms() > maxLevel) {
-            return "drive level " + d.levelRms() + " " + d.mode().unit() + " rms exceeds the safety limit "
-                    + maxLevel + " " + d.mode().unit() + " rms";
+            return "drive level " + human(d.levelRms(), d.mode().unit() + " rms") + " exceeds the safety limit "
+                    + human(maxLevel, d.mode().unit() + " rms");
         }
         Bias b = s.bias();
         if (b.on()) {
@@ -76,8 +76,8 @@ public final class SafetyGuard {
                 return "DC bias " + b.value() + " is not a valid bias";
             }
             if (v > maxBias) {
-                return "DC bias " + b.value() + " " + b.mode().unit() + " exceeds the safety limit " + maxBias + " "
-                        + b.mode().unit();
+                return "DC bias " + human(b.value(), b.mode().unit()) + " exceeds the safety limit "
+                        + human(maxBias, b.mode().unit());
             }
         }
         return null;
@@ -111,8 +111,17 @@ public final class SafetyGuard {
 
     private static void within(String what, double v, Range r, String unit, String meterName) {
         if (!r.contains(v)) {
-            throw new InvalidInputException(what + " " + v + " " + unit + " is outside what the meter can do ("
-                    + r.min() + " .. " + r.max() + " " + unit + ", " + meterName + "); nothing was measured");
+            throw new InvalidInputException(what + " " + human(v, unit) + " is outside what the meter can do ("
+                    + human(r.min(), unit) + " to " + human(r.max(), unit) + ", " + meterName + "); nothing was measured");
         }
+    }
+
+    /** {@code v} with an SI prefix for people ({@code 25.12 MHz}, {@code 500 mV rms}); {@code unit} may carry a remark after a space. */
+    public static String human(double v, String unit) {
+        int space = unit.indexOf(' ');
+        String symbol = space < 0 ? unit : unit.substring(0, space);
+        String rest = space < 0 ? "" : unit.substring(space);
+        return org.zweep.driver.impedance.Unit.ofSymbol(symbol)
+                .map(u -> org.zweep.runner.analysis.Si.format(v, u, 6) + rest).orElse(v + " " + unit);
     }
 }

@@ -24,8 +24,11 @@ class TransformerAnalysisTest {
         assertEquals(4.0404, t.voltageRatio(), 1e-4); // check-values.md §7 X7, r_fwd = L1/M
         assertEquals(4.000, t.turnsRatio(), 1e-12); // check-values.md §7 X7, √(r_fwd·r_rev)
         assertEquals(2.475e-3, t.mutualH(), 1e-12); // check-values.md §7 X7, M
-        assertEquals(10e-3 * (1 - 0.99), t.leakageH(), 1e-15); // split-k, Wikipedia "Leakage inductance"
-        assertEquals(199.0e-6, t.shortH(), 1e-15); // check-values.md §7 X7, L_sc1
+        // L_sc1 = L1·(1 − k²) = 10 mH × (1 − 0.99²) = 199.0 µH; the one leakage figure is the measured L_sc
+        assertEquals(199.0e-6, t.shortH(), 1e-15); // L_sc = L1·(1 − k²), from memory
+        assertEquals(t.shortH(), t.leakageH(), 0.0);
+        assertEquals("4:1", t.turnsRatioText()); // N1:N2 stated one way
+        assertEquals("4.04:1", t.voltageRatioText()); // measured V1:V2 = L1/M = 4.0404, 4 significant digits
         List<CheckOutcome> checks = Analysis.evaluateChecks(RunData.read(dir));
         assertEquals("pass", checks.get(0).result()); // k = 0.99 against our own demo limit k >= 0.98
         assertTrue(AnalysisJson.tree(a).at("/transformer/turns_ratio").isNumber());

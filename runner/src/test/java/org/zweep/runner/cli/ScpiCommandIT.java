@@ -56,8 +56,26 @@ class ScpiCommandIT extends TinyMeterCliBase {
         int code = zweep("scpi", meter.address(), "--timeout", "200ms", "HANG?");
         assertEquals(3, code);
         String e = err.toString().strip();
-        assertTrue(e.startsWith("zweep: " + meter.address() + ": no reply to 'HANG?' within 200 ms"), e);
+        assertTrue(e.startsWith("zweep: command 1: no reply to 'HANG?' within 200 ms"), e);
         assertEquals(1, e.lines().count(), e);
+    }
+
+    @Test
+    void pipedCommandsGoOnPastAnUnansweredQueryAndReportTheMetersErrorQueue() {
+        // the simulator answers an unknown header with nothing and queues -113 (SCPI-1999 Vol. 2, 21.8.9)
+        CommandLine cl = new CommandLine(new ScpiCommand(new ByteArrayInputStream(
+                "*IDN?\nBOGUS:HEADer?\n*IDN?\n".getBytes(StandardCharsets.UTF_8))));
+        cl.setOut(new PrintWriter(out));
+        cl.setErr(new PrintWriter(err));
+        int code = cl.execute("--timeout", "300ms", "sim:");
+        assertEquals(3, code, "exit code says something failed; stderr: " + err);
+        List<String> replies = out.toString().lines().toList();
+        assertEquals(2, replies.size(), out.toString());
+        assertTrue(replies.get(0).contains("Korvane") && replies.get(0).equals(replies.get(1)), out.toString());
+        String e = err.toString().strip();
+        assertEquals(1, e.lines().count(), e);
+        assertTrue(e.startsWith("zweep: line 2: no reply to 'BOGUS:HEADer?' within 300 ms; the meter's error queue: -113"),
+                e);
     }
 
     @Test

@@ -32,7 +32,7 @@ class MeterStatedLimitsIT {
                 Sims.dialect(), "--out", out.toString(), "--trace", trace.toString(), "--quiet");
         assertEquals(2, r.code(), r.out() + r.err());
         assertEquals("zweep: step 'bias-derating', point 60: DC bias 12.5 V is outside what the meter can do"
-                + " (-10.0 .. 10.0 V, as the meter states its limits); nothing was measured", r.err().strip());
+                + " (-10 V to 10 V, as the meter states its limits); nothing was measured", r.err().strip());
         String sent = Files.readString(trace);
         assertTrue(sent.contains(":SOUR:VOLT:OFFS? MAX"), sent);
         assertFalse(sent.contains(":READ?"), "nothing measured");

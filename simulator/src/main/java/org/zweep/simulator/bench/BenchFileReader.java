@@ -140,7 +140,7 @@ final class BenchFileReader {
         s.allow("frequency_min_hz", "frequency_max_hz", "voltage_min_vrms", "voltage_max_vrms",
                 "current_min_arms", "current_max_arms", "bias_voltage_max_v", "bias_current_max_a",
                 "list_points_max", "ranges_ohm", "source_resistance_ohm", "noise", "timing",
-                "point_overhead_s", "bias_settling_s");
+                "point_overhead_s", "bias_settling_s", "accuracy");
         double fMin = s.positive("frequency_min_hz", l.minFrequencyHz());
         double fMax = s.above("frequency_max_hz", l.maxFrequencyHz(), fMin);
         double vMin = s.positive("voltage_min_vrms", l.minVoltageVrms());
@@ -163,7 +163,38 @@ final class BenchFileReader {
         return new MeterSpec(new MeterLimits(fMin, fMax, vMin, vMax, iMin, iMax, biasV, biasI,
                 (int) points, ranges, rs), noise, timing,
                 s.nonNegative("point_overhead_s", d.pointOverheadS()),
-                s.nonNegative("bias_settling_s", d.biasSettlingS()));
+                s.nonNegative("bias_settling_s", d.biasSettlingS()),
+                s.entries.containsKey("accuracy") ? accuracy(s.section("accuracy")) : null);
+    }
+
+    /** {@code meter.accuracy}: a distribution and a list of bands (format in README). */
+    private StatedAccuracy accuracy(Section s) {
+        s.allow("distribution", "bands");
+        boolean normal = s.choice("distribution", "rectangular", "rectangular", "normal-k2").equals("normal-k2");
+        if (!s.entries.containsKey("bands")) {
+            throw s.error("'" + s.path + "' needs 'bands', a list of accuracy bands");
+        }
+        Node list = s.entries.get("bands").getValueNode();
+        if (!(list instanceof SequenceNode) || ((SequenceNode) list).getValue().isEmpty()) {
+            throw at(list, "'" + s.name("bands") + "' must be a list of accuracy bands");
+        }
+        List<StatedAccuracy.Band> bands = new ArrayList<>();
+        int i = 0;
+        for (Node item : ((SequenceNode) list).getValue()) {
+            Section b = new Section(s.name("bands") + "[" + i++ + "]", item);
+            b.allow("frequency_hz", "level_vrms", "level_arms", "integration_min_s", "basic", "short_ohm", "open_s",
+                    "phase_rad");
+            double[] f = b.pair("frequency_hz");
+            boolean current = b.entries.containsKey("level_arms");
+            if (current == b.entries.containsKey("level_vrms")) {
+                throw b.error("'" + b.path + "' needs one of level_vrms, level_arms");
+            }
+            double[] level = b.pair(current ? "level_arms" : "level_vrms");
+            bands.add(new StatedAccuracy.Band(f[0], f[1], current, level[0], level[1],
+                    b.nonNegative("integration_min_s", 0), b.nonNegative("basic", 0), b.nonNegative("short_ohm", 0),
+                    b.nonNegative("open_s", 0), b.nonNegative("phase_rad", Double.NaN)));
+        }
+        return new StatedAccuracy(bands, normal);
     }
 
     private FixtureSpec fixture(Section s, Section load) {
@@ -451,6 +482,23 @@ final class BenchFileReader {
                 throw error(key, "must not be negative");
             }
             return v;
+        }
+
+        /** {@code [low, high]}: two numbers, not negative, low not above high. */
+        double[] pair(String key) {
+            if (!entries.containsKey(key)) {
+                throw error("'" + path + "' needs '" + key + "'");
+            }
+            Node v = entries.get(key).getValueNode();
+            if (!(v instanceof SequenceNode) || ((SequenceNode) v).getValue().size() != 2) {
+                throw at(v, "'" + name(key) + "' must be [low, high]");
+            }
+            double lo = number(((SequenceNode) v).getValue().get(0), key);
+            double hi = number(((SequenceNode) v).getValue().get(1), key);
+            if (!(lo >= 0) || !(hi >= lo)) {
+                throw at(v, "'" + name(key) + "' must be [low, high] with 0 <= low <= high");
+            }
+            return new double[] {lo, hi};
         }
 
         double[] ranges(String key, double[] fallback) {

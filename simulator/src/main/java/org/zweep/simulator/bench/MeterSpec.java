@@ -8,23 +8,24 @@ package org.zweep.simulator.bench;
  * @param timing the timing model
  * @param pointOverheadS time per point besides the integration, in s
  * @param biasSettlingS extra time for a point whose DC bias differs from the previous one, in s
+ * @param accuracy the accuracy the meter states, or null for none (then {@code noiseRel} applies)
  */
 record MeterSpec(MeterLimits limits, double noiseRel, Timing timing, double pointOverheadS,
-        double biasSettlingS) {
+        double biasSettlingS, StatedAccuracy accuracy) {
 
     static final double[] DEFAULT_RANGES_OHM =
             {0.1, 1, 10, 100, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8};
 
     static MeterSpec defaults() {
         return new MeterSpec(new MeterLimits(10, 20e6, 5e-3, 2, 50e-6, 20e-3, 40, 5, 201,
-                DEFAULT_RANGES_OHM, 100), 1e-4, Timing.REAL, 2e-3, 50e-3);
+                DEFAULT_RANGES_OHM, 100), 1e-4, Timing.REAL, 2e-3, 50e-3, null);
     }
 
     MeterSpec withNoiseRel(double noise) {
-        return new MeterSpec(limits, noise, timing, pointOverheadS, biasSettlingS);
+        return new MeterSpec(limits, noise, timing, pointOverheadS, biasSettlingS, accuracy);
     }
 
     MeterSpec withTiming(Timing t) {
-        return new MeterSpec(limits, noiseRel, t, pointOverheadS, biasSettlingS);
+        return new MeterSpec(limits, noiseRel, t, pointOverheadS, biasSettlingS, accuracy);
     }
 }

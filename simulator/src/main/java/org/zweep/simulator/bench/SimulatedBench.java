@@ -23,6 +23,9 @@ import org.apache.commons.math3.complex.Complex;
  *       √(10 ms / (aperture·averages)) and by 1 V over the source level. A held range overloads
  *       above 1.5·U and below U/10⁴ (except the lowest range); the top range, in automatic
  *       ranging, up to 1000·U.</li>
+ *   <li>A bench that states its accuracy ({@link StatedAccuracy}) replaces that noise, in every
+ *       band it covers, by an error drawn from the statement: |Z|·(1 + e·d₁) and θ + e_θ·d₂ with
+ *       d normal (σ = 1/2, limits stated at k = 2) or uniform on [−1, 1] (rectangular).</li>
  *   <li>Noise depends only on the seed, {@link PointRequest#noiseKey()} and the request, never on
  *       the order of calls or the thread.</li>
  *   <li>Timing (REAL): overhead + averages · max(aperture, 2/f), plus the bias settling time when
@@ -141,10 +144,27 @@ public final class SimulatedBench implements Bench {
             return new PointResult(Double.NaN, Double.NaN, true, duration,
                     front.op.acVoltageRms(), range);
         }
+        StatedAccuracy stated = spec.meter().accuracy();
+        StatedAccuracy.Band band = stated == null ? null
+                : stated.band(request.frequencyHz(), request.drive(), request.driveLevelRms(), request.apertureS());
+        if (band != null) {
+            // The reading's whole error is drawn from the stated accuracy, magnitude and phase apart.
+            double em = band.magnitudeLimit(magnitude) * draw(random, stated.normal());
+            double et = band.phaseLimitRad(magnitude) * draw(random, stated.normal());
+            double theta = front.measured.getArgument() + et;
+            double m = magnitude * (1 + em);
+            return new PointResult(m * Math.cos(theta), m * Math.sin(theta), false, duration,
+                    front.op.acVoltageRms(), range);
+        }
         double sigma = scale * (magnitude * (1 + magnitude / range) + range * 1e-3);
         return new PointResult(front.measured.getReal() + sigma * random.nextGaussian(),
                 front.measured.getImaginary() + sigma * random.nextGaussian(), false, duration,
                 front.op.acVoltageRms(), range);
+    }
+
+    /** A unit error: normal with σ = 1/2 (a limit stated at k = 2), or uniform on [−1, 1]. */
+    private static double draw(SplittableRandom random, boolean normal) {
+        return normal ? random.nextGaussian() / 2 : 2 * random.nextDouble() - 1;
     }
 
     private void check(PointRequest r) {

@@ -105,7 +105,7 @@ class BenchFileTest {
                 + " frequency_max_hz, voltage_min_vrms, voltage_max_vrms, current_min_arms,"
                 + " current_max_arms, bias_voltage_max_v, bias_current_max_a, list_points_max,"
                 + " ranges_ohm, source_resistance_ohm, noise, timing, point_overhead_s,"
-                + " bias_settling_s", error("seed: 1\nmeter:\n  nosie: 1e-4\n"));
+                + " bias_settling_s, accuracy", error("seed: 1\nmeter:\n  nosie: 1e-4\n"));
     }
 
     @Test

@@ -1,0 +1,100 @@
+package org.zweep.runner.live;
+
+import org.zweep.driver.impedance.DerivedParameter;
+import org.zweep.driver.impedance.Impedance;
+import org.zweep.runner.analysis.PointValues;
+import org.zweep.runner.engine.ProgressListener;
+import org.zweep.runner.results.PointRow;
+
+/**
+ * A {@link ProgressListener} that records the run in {@link EventLog} ({@code run_started},
+ * {@code step_started}, {@code point} with its values, {@code note}, {@code reconnect}) and passes
+ * every call on to the listener it wraps (the terminal's progress line).
+ */
+public final class EventRecorder implements ProgressListener {
+    private final EventLog log;
+    private final ProgressListener next;
+    private final DerivedParameter main;
+    private final String runName;
+    private int lastStep = -1;
+
+    /**
+     * @param log where the events go
+     * @param next the listener to pass calls on to
+     * @param main the part's main parameter (Cs, Ls or Rs), sent with every point
+     * @param runName the sequence's name
+     */
+    public EventRecorder(EventLog log, ProgressListener next, DerivedParameter main, String runName) {
+        this.log = log;
+        this.next = next;
+        this.main = main;
+        this.runName = runName;
+    }
+
+    @Override
+    public void started(int total, int done) {
+        lastStep = -1;
+        log.write("run_started", n -> {
+            n.put("name", runName);
+            n.put("total", total);
+            n.put("done", done);
+            n.put("main_parameter", main.key());
+            n.put("main_label", main.label());
+            n.put("main_unit", main.unit().symbol());
+        });
+        next.started(total, done);
+    }
+
+    @Override
+    public void measured(PointRow row, int done, int total) {
+        if (row.stepIndex() != lastStep) {
+            lastStep = row.stepIndex();
+            log.write("step_started", n -> {
+                n.put("step", row.step());
+                n.put("step_index", row.stepIndex());
+            });
+        }
+        boolean ok = "ok".equals(row.status()) && "impedance".equals(row.quantity());
+        Impedance z = ok ? PointValues.impedance(row) : null;
+        log.write("point", n -> {
+            n.put("point", row.point());
+            n.put("step", row.step());
+            n.put("step_index", row.stepIndex());
+            n.put("repeat", row.repeat());
+            n.put("quantity", row.quantity());
+            n.put("wiring", row.wiring());
+            n.put("frequency_hz", row.frequencyHz());
+            n.put("level", row.level());
+            n.put("drive", row.drive());
+            n.put("bias", row.bias());
+            n.put("bias_mode", row.biasMode());
+            n.put("status", row.status());
+            n.put("check", row.check());
+            n.put("measured_ms", row.time().toEpochMilli());
+            if (z != null) {
+                n.put("z_ohm", z.magnitudeOhm());
+                n.put("theta_deg", z.phaseDeg());
+                n.put("r_ohm", z.resistanceOhm());
+                n.put("x_ohm", z.reactanceOhm());
+                n.put(main.key(), main.of(z));
+            }
+            if (Double.isFinite(row.ratio())) {
+                n.put("ratio", row.ratio());
+            }
+            n.put("done", done);
+            n.put("total", total);
+        });
+        next.measured(row, done, total);
+    }
+
+    @Override
+    public void note(String line) {
+        log.write(line.contains("reconnect") ? "reconnect" : "note", n -> n.put("text", line));
+        next.note(line);
+    }
+
+    @Override
+    public void finished() {
+        next.finished();
+    }
+}

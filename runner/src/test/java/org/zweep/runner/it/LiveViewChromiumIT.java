@@ -1,0 +1,167 @@
+package org.zweep.runner.it;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.net.HttpURLConnection;
+import java.net.InetAddress;
+import java.net.ServerSocket;
+import java.net.URI;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.time.Duration;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+import java.util.concurrent.CompletableFuture;
+import java.util.concurrent.TimeUnit;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.openqa.selenium.By;
+import org.openqa.selenium.OutputType;
+import org.openqa.selenium.chrome.ChromeDriver;
+import org.openqa.selenium.support.ui.WebDriverWait;
+
+/**
+ * The live page in a real headless Chromium during a simulated run of the shipped incoming
+ * inspection at the simulator's real timing: the page shows the operator prompt and answers it,
+ * points arrive and the plot grows, a second viewer and a reloaded page catch up, the final verdict
+ * shows, and nothing is fetched from outside the loopback address. Prints the latency from a point
+ * measured to the point drawn.
+ */
+class LiveViewChromiumIT {
+    @TempDir
+    Path tmp;
+
+    /** How many points the page has drawn so far (grows as the plot grows). */
+    private static long plotted(ChromeDriver d) {
+        Object v = d.executeScript("return window.zweepLive ? (window.zweepLive.drawn || 0) : 0;");
+        return ((Number) v).longValue();
+    }
+
+    private static long received(ChromeDriver d) {
+        return ((Number) d.executeScript("return window.zweepLive ? window.zweepLive.points.length : 0;")).longValue();
+    }
+
+    @Test
+    void aBrowserFollowsTheRunAnswersItsPromptSeesThePlotGrowAndTheVerdict() throws Exception {
+        Path seq = Sims.sequences().resolve("incoming-kp-c0805-104.yaml");
+        Path out = tmp.resolve("run");
+        int port;
+        try (ServerSocket s = new ServerSocket(0, 1, InetAddress.getLoopbackAddress())) {
+            port = s.getLocalPort();
+        }
+        String url = "http://127.0.0.1:" + port + "/";
+        CompletableFuture<Sims.Result> run = CompletableFuture.supplyAsync(() -> Sims.zweep("run", seq.toString(),
+                "--meter", "sim:" + Sims.benchOf(seq) + "?timing=real", "--dialect", Sims.dialect(), "--out",
+                out.toString(), "--quiet", "--live=" + port));
+        awaitServing(url, run);
+        ChromeDriver first = Browser.open(tmp, 1200, 900);
+        ChromeDriver second = null;
+        try {
+            first.get(url);
+            WebDriverWait wait = new WebDriverWait(first, Duration.ofSeconds(60));
+            wait.until(d -> d.findElement(By.id("prompt")).isDisplayed());
+            assertEquals(0, received(first), "no point is measured before the operator answers");
+            // the compensation standards (open, short) and the part itself are prompted for: answer each on the page
+            List<String> prompts = new ArrayList<>();
+            while (prompts.size() < 10) {
+                wait.until(d -> d.findElement(By.id("prompt")).isDisplayed() || received(first) > 0);
+                if (!first.findElement(By.id("prompt")).isDisplayed()) {
+                    break;
+                }
+                String text = first.findElement(By.id("prompt-text")).getText();
+                prompts.add(text);
+                first.findElement(By.id("prompt-answer")).click();
+                wait.until(d -> !d.findElement(By.id("prompt")).isDisplayed()
+                        || !d.findElement(By.id("prompt-text")).getText().equals(text));
+            }
+            assertTrue(prompts.stream().anyMatch(t -> t.contains("Fit the KP-C0805-104")), prompts.toString());
+            // a second viewer joins mid-run and gets the whole run so far, then the rest as it comes
+            long openedAt = System.currentTimeMillis();
+            second = Browser.open(tmp, 1000, 800);
+            second.get(url);
+            long sofar = received(first);
+            ChromeDriver two = second;
+            new WebDriverWait(second, Duration.ofSeconds(30)).until(d -> received(two) >= sofar);
+
+            wait.until(d -> plotted(first) >= 5);
+            long a = plotted(first);
+            wait.until(d -> plotted(first) >= a + 5);
+            assertTrue(first.findElements(By.cssSelector("#plot-z canvas")).size() == 1, "|Z| plot drawn");
+            assertTrue(first.findElements(By.cssSelector("#plot-main canvas")).size() == 1, "Cs plot drawn");
+            assertTrue(first.findElement(By.id("eta")).getText().startsWith("ETA "), first.findElement(By.id("eta")).getText());
+            assertTrue(first.findElement(By.id("setting")).getText().matches("step [a-z-]+: .*Hz, .* rms, bias .*\\|Z\\| .*"),
+                    first.findElement(By.id("setting")).getText());
+
+            // the first viewer reloads (a browser reconnecting) and catches up again
+            long before = received(first);
+            first.navigate().refresh();
+            wait.until(d -> received(first) >= before);
+
+            new WebDriverWait(first, Duration.ofSeconds(180)).until(d -> d.findElement(By.id("verdict")).getText()
+                    .contains("PASS"));
+            new WebDriverWait(second, Duration.ofSeconds(30)).until(d -> d.findElement(By.id("verdict")).getText()
+                    .contains("PASS"));
+            Sims.Result r = run.get(60, TimeUnit.SECONDS);
+            assertEquals(0, r.code(), r.err());
+            assertTrue(Files.readString(out.resolve("events.jsonl")).contains("\"by\":\"page\""), "answered from the page");
+
+            Path shots = Path.of("target", "screenshots");
+            Files.createDirectories(shots);
+            Files.write(shots.resolve("live-final.png"), first.getScreenshotAs(OutputType.BYTES));
+
+            for (ChromeDriver d : List.of(first, second)) {
+                for (String u : Browser.requests(d)) {
+                    assertTrue(u.startsWith(url) || Browser.internal(u), "the page fetched " + u);
+                }
+            }
+
+            // latency: point measured (row time) to point drawn on the page, for points measured after the
+            // second viewer had opened (live points, not the catch-up)
+            List<Double> ms = new ArrayList<>();
+            for (Object o : (List<?>) second.executeScript("return window.zweepLive.latencies;")) {
+                Map<String, Object> m = Browser.map(o);
+                long measured = ((Number) m.get("measured_ms")).longValue();
+                if (measured > openedAt + 1000) {
+                    ms.add(((Number) m.get("drawn_ms")).doubleValue() - measured);
+                }
+            }
+            assertTrue(ms.size() >= 10, "live points seen by the second viewer: " + ms.size());
+            ms.sort(null);
+            String line = String.format(Locale.ROOT, "live page latency, point measured to point drawn: n=%d median %.0f ms,"
+                    + " p95 %.0f ms, max %.0f ms", ms.size(), ms.get(ms.size() / 2), ms.get((int) (ms.size() * 0.95)),
+                    ms.get(ms.size() - 1));
+            System.out.println(line);
+            Files.writeString(shots.resolve("live-latency.txt"), line + "\n");
+            assertTrue(ms.get(ms.size() / 2) < 1000, line);
+        } finally {
+            first.quit();
+            if (second != null) {
+                second.quit();
+            }
+            run.cancel(true);
+        }
+    }
+
+    private static void awaitServing(String url, CompletableFuture<Sims.Result> run) throws Exception {
+        long until = System.currentTimeMillis() + 60_000;
+        while (System.currentTimeMillis() < until) {
+            if (run.isDone()) {
+                throw new AssertionError("the run ended before serving: " + run.get().err() + run.get().out());
+            }
+            try {
+                HttpURLConnection c = (HttpURLConnection) URI.create(url).toURL().openConnection();
+                c.setConnectTimeout(500);
+                if (c.getResponseCode() == 200) {
+                    return;
+                }
+            } catch (java.io.IOException e) {
+                // not yet
+            }
+            Thread.sleep(100);
+        }
+        throw new AssertionError("the live view did not come up at " + url);
+    }
+}
