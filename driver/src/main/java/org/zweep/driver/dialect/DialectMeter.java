@@ -140,15 +140,23 @@ public final class DialectMeter implements Meter {
         return new Range(lo, hi);
     }
 
+    /** A query answering one number, read until two reads agree (at most four). */
     private double limit(Command c) {
-        String what = "asking the meter its limit (" + c.key() + ")";
-        String reply = session.query(render(c));
-        double[] v = parseNumbers(reply, what);
-        if (v.length != 1) {
-            throw new ScpiProtocolException(session.address() + ": expected one number but got '" + abbreviate(reply)
-                    + "' while " + what);
+        String what = "asking the meter " + c.key();
+        List<Double> seen = new ArrayList<>();
+        for (int i = 0; i < 4; i++) {
+            String reply = session.query(render(c));
+            double[] v = parseNumbers(reply, what);
+            if (v.length != 1) {
+                throw new ScpiProtocolException(session.address() + ": expected one number but got '"
+                        + abbreviate(reply) + "' while " + what);
+            }
+            if (seen.contains(v[0])) {
+                return v[0];
+            }
+            seen.add(v[0]);
         }
-        return v[0];
+        throw new ScpiProtocolException(session.address() + ": " + seen.size() + " different replies while " + what);
     }
 
     @Override
@@ -248,6 +256,51 @@ public final class DialectMeter implements Meter {
         }
         send(List.of(render(enabled ? Command.CORRECTION_ON : Command.CORRECTION_OFF)),
                 "switching correction " + (enabled ? "on" : "off"));
+    }
+
+    @Override
+    public Optional<Bias> readBias() {
+        requireOpen();
+        if (!dialect.has(Command.BIAS_VOLTAGE_QUERY) || !dialect.has(Command.BIAS_VOLTAGE_STATE_QUERY)
+                || !dialect.has(Command.BIAS_CURRENT_QUERY) || !dialect.has(Command.BIAS_CURRENT_STATE_QUERY)) {
+            return Optional.empty();
+        }
+        boolean voltageOn = state(Command.BIAS_VOLTAGE_STATE_QUERY);
+        boolean currentOn = state(Command.BIAS_CURRENT_STATE_QUERY);
+        double volts = limit(Command.BIAS_VOLTAGE_QUERY);
+        double amperes = limit(Command.BIAS_CURRENT_QUERY);
+        // what the meter holds is now known: the next setting sends only what differs from it (no
+        // off-and-on again of a bias that is to stay on)
+        known.biasOn.put(SourceMode.VOLTAGE, voltageOn);
+        known.biasOn.put(SourceMode.CURRENT, currentOn);
+        known.biasValue.put(SourceMode.VOLTAGE, volts);
+        known.biasValue.put(SourceMode.CURRENT, amperes);
+        if (voltageOn == currentOn) {
+            return Optional.of(voltageOn ? new Bias(SourceMode.VOLTAGE, volts, true) : Bias.OFF);
+        }
+        return Optional.of(voltageOn ? new Bias(SourceMode.VOLTAGE, volts, true)
+                : new Bias(SourceMode.CURRENT, amperes, true));
+    }
+
+    /** A state query's answer (IEEE 488.2 boolean: 1/0, ON/OFF), read until two reads agree. */
+    private boolean state(Command c) {
+        String what = "asking the meter " + c.key();
+        List<String> seen = new ArrayList<>();
+        for (int i = 0; i < 4; i++) {
+            String r = session.query(render(c)).strip().toUpperCase(java.util.Locale.ROOT);
+            if (seen.contains(r)) {
+                if (r.equals("1") || r.equals("ON")) {
+                    return true;
+                }
+                if (r.equals("0") || r.equals("OFF")) {
+                    return false;
+                }
+                throw new ScpiProtocolException(session.address() + ": '" + abbreviate(r) + "' is not 1 or 0 while "
+                        + what);
+            }
+            seen.add(r);
+        }
+        throw new ScpiProtocolException(session.address() + ": " + seen.size() + " different replies while " + what);
     }
 
     @Override

@@ -32,6 +32,14 @@ public interface Meter extends AutoCloseable {
     }
 
     /**
+     * The DC bias the meter says it applies now (after a reconnect: what the link's loss left on),
+     * or empty when the meter cannot be asked. Blocking. The default asks nothing.
+     */
+    default java.util.Optional<Bias> readBias() {
+        return java.util.Optional.empty();
+    }
+
+    /**
      * Makes {@code setting} the meter's current setting, sending only what differs from the
      * setting last applied through this object.
      */

@@ -279,6 +279,8 @@ class StandardDialectSimulatorIT {
 
             meter.apply(base.withBias(Bias.voltage(5)));
             assertEquals("1", sim.query(":SOUR:VOLT:OFFS:STAT?"));
+            assertEquals(java.util.Optional.of(Bias.voltage(5)), meter.readBias(), "the bias read back");
+            link.assertNoErrors("reading the bias back");
             assertTrue(meter.safeShutdown(), "bias confirmed off");
             assertEquals("0", sim.query(":SOUR:VOLT:OFFS:STAT?"), "bias after safeShutdown, seen by another client");
             assertEquals("0", sim.query(":SOUR:CURR:OFFS:STAT?"));

@@ -44,6 +44,8 @@ public final class Station {
     private MeterCapabilities statedLimits;
     private double topRangeOhm;
     private volatile Bias applied = Bias.OFF;
+    /** The bias of the setting being sent (it may or may not have reached the meter). */
+    private Bias sending;
     private boolean meterCorrection;
     private SimulatorControl.Slot slot;
     private Wiring wiring = Wiring.NONE;
@@ -345,8 +347,26 @@ public final class Station {
         }
     }
 
+    /**
+     * Whether {@code b}, read back after a reconnect, is where this station left the bias: on, in
+     * the same mode, at the last level the meter acknowledged or at the one being sent when the
+     * link broke (within 1e-6 of it, for the reply's rounding).
+     */
+    private boolean whereLeft(Bias b) {
+        if (!b.on() || b.mode() != applied.mode()) {
+            return false;
+        }
+        return near(b.value(), applied.value()) || (sending != null && sending.on() && sending.mode() == b.mode()
+                && near(b.value(), sending.value()));
+    }
+
+    private static boolean near(double a, double b) {
+        return Math.abs(a - b) <= 1e-6 * Math.max(1.0, Math.abs(b));
+    }
+
     private void apply(MeasurementSetting s) {
         guard.check(s, "setting at " + org.zweep.runner.safety.SafetyGuard.human(s.frequencyHz(), "Hz"));
+        sending = s.bias();
         link.meter().apply(s);
         lastSetting = s;
         applied = s.bias();
@@ -396,9 +416,16 @@ public final class Station {
             try {
                 Meter m = link.reconnect();
                 reconnects++;
-                m.biasOff();
-                applied = Bias.OFF;
-                lastSetting = null;
+                Bias held = applied.on() ? m.readBias().filter(this::whereLeft).orElse(null) : null;
+                if (held != null) {
+                    // the meter holds the bias where the ramp left it: keep it and go on from there,
+                    // rather than switching it off abruptly and ramping all the way up again
+                    applied = held;
+                } else {
+                    m.biasOff();
+                    applied = Bias.OFF;
+                    lastSetting = null;
+                }
                 if (meterCorrection) {
                     m.setCorrectionEnabled(true);
                 }
@@ -414,8 +441,9 @@ public final class Station {
                         sim.get().setWiring(wiring);
                     }
                 }
-                log.accept("reconnected to " + link.address() + " (attempt " + attempt + "); bias is off, repeating "
-                        + what);
+                log.accept("reconnected to " + link.address() + " (attempt " + attempt + "); "
+                        + (applied.on() ? "bias held at " + ConsoleProgress.num(applied.value()) + " "
+                                + applied.mode().unit() : "bias is off") + ", repeating " + what);
                 return;
             } catch (MeterException e) {
                 if (!link.isLinkFailure(e)) {

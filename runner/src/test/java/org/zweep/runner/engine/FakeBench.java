@@ -62,6 +62,8 @@ final class FakeBench {
     SimulatorControl.Slot slot = SimulatorControl.Slot.DEVICE;
     long noiseKey;
     boolean simulator = true;
+    /** Whether the meter can be asked what bias it holds (then a reconnect keeps the bias where it was). */
+    boolean readsBias;
 
     final Waiter waiter = s -> {
         if (s > 0) {
@@ -191,6 +193,13 @@ final class FakeBench {
         public void setCorrectionEnabled(boolean enabled) {
             live();
             trace.add("correction " + enabled);
+        }
+
+        @Override
+        public java.util.Optional<Bias> readBias() {
+            live();
+            trace.add("read bias");
+            return readsBias ? java.util.Optional.of(instrumentBias) : java.util.Optional.empty();
         }
 
         @Override

@@ -141,18 +141,39 @@ class RunEngineTest {
     }
 
     @Test
-    void droppedLinkIsReopenedBiasTurnedOffAgainAndTheInterruptedPointMeasuredAgain() {
+    void droppedLinkToAMeterThatCannotTellItsBiasIsReopenedBiasTurnedOffAndThePointMeasuredAgain() {
         bench.dropAtMeasure.add(8); // the 8th trigger is point 7: 2 V bias on, at 10 kHz
         RunResult r = run(TestPlans.capacitor(), new BitSet());
         assertEquals(RunResult.Outcome.COMPLETED, r.outcome());
         assertEquals(IntStream.range(0, 11).boxed().toList(), rows.stream().map(PointRow::point).toList());
         int reconnect = bench.trace.indexOf("reconnect");
         assertTrue(reconnect > 0, bench.trace.toString());
-        assertEquals("bias off", bench.trace.get(reconnect + 1), "bias off first after reconnecting");
+        assertEquals("read bias", bench.trace.get(reconnect + 1), "asked first (this meter cannot tell)");
+        assertEquals("bias off", bench.trace.get(reconnect + 2), "then bias off, before anything else");
         // the instrument kept 2 V while the link was down, then went off, then ramped up again
         assertTrue(bench.biasHistory.stream().anyMatch(e -> !e.on() && e.timeS() > 0), bench.biasHistory.toString());
         assertEquals(2.0, rows.get(7).bias()); // our own demo plan: point 7 is at 2 V
         assertEquals(1, notes.stream().filter(n -> n.startsWith("reconnected to fake:bench")).count(), notes.toString());
+    }
+
+    @Test
+    void droppedLinkDuringABiasStepKeepsTheBiasTheMeterHoldsAndGoesOnFromThere() {
+        bench.readsBias = true;
+        bench.dropAtMeasure.add(8); // the 8th trigger is point 7: 2 V bias on, at 10 kHz
+        RunResult r = run(TestPlans.capacitor(), new BitSet());
+        assertEquals(RunResult.Outcome.COMPLETED, r.outcome());
+        assertEquals(IntStream.range(0, 11).boxed().toList(), rows.stream().map(PointRow::point).toList());
+        int reconnect = bench.trace.indexOf("reconnect");
+        assertEquals("read bias", bench.trace.get(reconnect + 1), "the bias is read back first");
+        assertFalse(bench.trace.subList(reconnect, reconnect + 3).contains("bias off"), bench.trace.toString());
+        // between the first time 2 V was reached and the end of the step, the bias was never off
+        double firstAt2 = bench.biasHistory.stream().filter(e -> e.on() && e.value() == 2.0).findFirst()
+                .orElseThrow().timeS();
+        double leftAt2 = bench.biasHistory.stream().filter(e -> e.timeS() > firstAt2 && e.value() != 2.0).findFirst()
+                .map(FakeBench.BiasEvent::timeS).orElse(Double.MAX_VALUE);
+        assertTrue(bench.biasHistory.stream().noneMatch(e -> !e.on() && e.timeS() > firstAt2 && e.timeS() < leftAt2),
+                bench.biasHistory.toString());
+        assertTrue(notes.stream().anyMatch(n -> n.contains("bias held at 2 V")), notes.toString());
     }
 
     @Test
