@@ -180,8 +180,6 @@ public final class FaultSurvivalCheck {
     }
 
     private static PointRow timeless(PointRow r) {
-        return new PointRow(r.point(), r.step(), r.stepIndex(), r.repeat(), r.quantity(), r.wiring(), r.frequencyHz(),
-                r.drive(), r.level(), r.biasMode(), r.bias(), r.rOhm(), r.xOhm(), r.derived(), r.ratio(), r.status(),
-                r.check(), Instant.EPOCH);
+        return r.withTime(Instant.EPOCH);
     }
 }

@@ -20,7 +20,7 @@ import org.openjdk.jmh.annotations.State;
 import org.openjdk.jmh.annotations.TearDown;
 import org.zweep.driver.meter.MeasurementSetting;
 import org.zweep.runner.engine.Interruption;
-import org.zweep.runner.engine.PointChecks;
+import org.zweep.runner.verdict.CheckEvaluator;
 import org.zweep.runner.engine.ProgressListener;
 import org.zweep.runner.engine.ReadingCorrector;
 import org.zweep.runner.engine.ReconnectPolicy;
@@ -98,7 +98,7 @@ public class RunnerOverheadBenchmark {
         st.start(null);
         Path csv = dir.resolve("points-" + (run++) + ".csv");
         try (PointsCsvWriter w = PointsCsvWriter.open(csv, sync ? PointsCsvWriter.Sync.EACH_ROW : PointsCsvWriter.Sync.NONE)) {
-            return new RunEngine(plan, st, ReadingCorrector.NONE, new PointChecks(plan.checks()),
+            return new RunEngine(plan, st, ReadingCorrector.NONE, new CheckEvaluator(plan.checks()),
                     ProgressListener.QUIET, interruption).run(new BitSet(), w::append);
         } finally {
             csv.toFile().delete();

@@ -67,6 +67,45 @@ public final class Compensation {
     }
 
     /**
+     * As {@link #openShort}, from the open standard's reading as an admittance {@code yOpenS}
+     * (1/Zo), which may be zero: an open whose admittance lies below what the meter can see.
+     *
+     * @throws InvalidInputException if a value is not finite or the short's reading is the open's
+     */
+    public static Compensation openShortFromAdmittance(Complex yOpenS, Complex zShortOhm) {
+        requireFinite(yOpenS, "open admittance");
+        requireFinite(zShortOhm, "short");
+        Complex denominator = Complex.ONE.subtract(yOpenS.multiply(zShortOhm));
+        if (denominator.abs() == 0.0) {
+            throw new InvalidInputException("the open and short readings are equal: compensation data unusable");
+        }
+        return fromResiduals(zShortOhm, yOpenS.divide(denominator));
+    }
+
+    /**
+     * As {@link #openShortLoad}, from the open standard's reading as an admittance {@code yOpenS}
+     * (1/Zo), which may be zero; the same map with numerator and denominator divided by Zo.
+     *
+     * @throws InvalidInputException if a value is not finite, the load reads as the short or the
+     *         open, or the known load is zero
+     */
+    public static Compensation openShortLoadFromAdmittance(Complex yOpenS, Complex zShortOhm,
+            Complex zLoadMeasuredOhm, Complex zLoadKnownOhm) {
+        requireFinite(yOpenS, "open admittance");
+        requireFinite(zShortOhm, "short");
+        requireFinite(zLoadMeasuredOhm, "load");
+        requireFinite(zLoadKnownOhm, "known load");
+        Complex loadVsOpen = Complex.ONE.subtract(zLoadMeasuredOhm.multiply(yOpenS));
+        if (zLoadMeasuredOhm.subtract(zShortOhm).abs() == 0.0 || loadVsOpen.abs() == 0.0
+                || Complex.ONE.subtract(zShortOhm.multiply(yOpenS)).abs() == 0.0 || zLoadKnownOhm.abs() == 0.0) {
+            throw new InvalidInputException("the open, short (" + zShortOhm + " Ω) and load (" + zLoadMeasuredOhm
+                    + " Ω) readings must all differ and the known load must not be zero");
+        }
+        Complex k = zLoadKnownOhm.multiply(loadVsOpen).divide(zLoadMeasuredOhm.subtract(zShortOhm));
+        return new Compensation(k, k.multiply(zShortOhm).negate(), yOpenS.negate(), Complex.ONE);
+    }
+
+    /**
      * Open/short/load correction from the three standards' readings and the load's known value
      * {@code zLoadKnownOhm}; exact for any linear fixture.
      *

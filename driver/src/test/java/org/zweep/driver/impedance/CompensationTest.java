@@ -45,6 +45,31 @@ class CompensationTest {
     }
 
     @Test
+    void theAdmittanceFormsAreTheImpedanceFormsWhenTheOpenIsReadable() {
+        Complex open = new Complex(101, 1);
+        Complex shortReading = new Complex(1, 1);
+        Complex load = new Complex(1 + 100.0 / 3, 1);
+        Complex reading = new Complex(1 + 100.0 / 11, 1);
+        assertClose(Compensation.openShort(open, shortReading).correct(reading),
+                Compensation.openShortFromAdmittance(open.reciprocal(), shortReading).correct(reading), 1e-14);
+        assertClose(Compensation.openShortLoad(open, shortReading, load, new Complex(50, 0)).correct(reading),
+                Compensation.openShortLoadFromAdmittance(open.reciprocal(), shortReading, load, new Complex(50, 0))
+                        .correct(reading), 1e-13);
+    }
+
+    @Test
+    void anOpenBeyondTheMetersReachLeavesOnlyTheSeriesResidual() {
+        // Hand-derived: series residual Zs = 1 + j and no stray admittance, DUT 10 Ω reads 11 + j and a 50 Ω
+        // load reads 51 + j; with Y_open = 0 both forms give Z = Zm − Zs (OSL: 50·(Zm − Zs)/(Zl − Zs)).
+        // no outside source: arithmetic from the inputs above
+        Complex shortReading = new Complex(1, 1);
+        assertClose(new Complex(10, 0),
+                Compensation.openShortFromAdmittance(Complex.ZERO, shortReading).correct(new Complex(11, 1)), 1e-15);
+        assertClose(new Complex(10, 0), Compensation.openShortLoadFromAdmittance(Complex.ZERO, shortReading,
+                new Complex(51, 1), new Complex(50, 0)).correct(new Complex(11, 1)), 1e-14);
+    }
+
+    @Test
     void openShortLoadMatchesArbitraryFixtureVector() {
         Compensation c = Compensation.openShortLoad(new Complex(10500, -30500),
                 new Complex(0.264363030808, 2.04621149042), new Complex(104.197060198, 4.86376149172),

@@ -12,7 +12,11 @@ import org.zweep.driver.impedance.DerivedParameter;
 import org.zweep.driver.impedance.ToleranceCode;
 import org.zweep.driver.impedance.Unit;
 import org.zweep.runner.results.PointRow;
+import org.zweep.runner.plan.CheckLimit;
 import org.zweep.runner.results.RunManifest;
+import org.zweep.runner.verdict.CheckEvaluator;
+import org.zweep.runner.verdict.CheckOutcome;
+import org.zweep.runner.verdict.SweepFigures;
 
 /**
  * The analysis of a run folder: fits, derating, transformer parameters, repeats, checks and
@@ -47,16 +51,26 @@ public final class Analysis {
                 || run.rows().stream().anyMatch(r -> !"none".equals(r.wiring()) || "voltage_ratio".equals(r.quantity()))
                 ? TransformerResult.of(run.rows(), nominalTurns(run.manifest()))
                 : null;
-        List<CheckOutcome> checks = evaluate(run, steps, transformer);
-        return new AnalysisResult(run, steps, transformer, checks, bins(run, steps), run.notes());
+        List<CheckOutcome> checks = evaluate(run, figures(run, steps, transformer));
+        return new AnalysisResult(run, steps, transformer, checks, bins(run, steps, checks), run.notes());
     }
 
     /**
-     * Evaluates every check of the run's manifest, including whole-sweep figures such as
-     * {@code srf_hz} that need a fit; for the run engine to call at the end of a run.
+     * The whole-sweep figures of {@code run} ({@code srf_hz}, {@code saturation}, fitted and
+     * transformer figures), for the run engine to judge its whole-sweep checks at the end of a run
+     * exactly as {@code zweep analyze} does.
      */
-    public static List<CheckOutcome> evaluateChecks(RunData run) {
-        return analyze(run, null).checks();
+    public static SweepFigures sweepFigures(RunData run) {
+        AnalysisResult a = analyze(run, null);
+        return figures(run, a.steps(), a.transformer());
+    }
+
+    /** Judges every check of the run's manifest with the one evaluator. */
+    private static List<CheckOutcome> evaluate(RunData run, SweepFigures figures) {
+        List<RunManifest.CheckInfo> infos = run.manifest().checks() == null ? List.of() : run.manifest().checks();
+        CheckEvaluator evaluator = new CheckEvaluator(infos.stream().map(RunManifest.CheckInfo::toLimit).toList());
+        run.rows().forEach(evaluator::judge);
+        return evaluator.outcomes(figures);
     }
 
     /** The default model for a part kind: capacitor, inductor (also for a transformer) or resistor. */
@@ -102,11 +116,11 @@ public final class Analysis {
         if (!"rs_ohm".equals(column)) {
             Map<DeratingKey, Map<Double, double[]>> groups = new LinkedHashMap<>();
             for (PointRow r : rows) {
-                if ("ok".equals(r.status()) && "impedance".equals(r.quantity())) {
+                if (r.okImpedance()) {
                     DeratingKey key = new DeratingKey(r.frequencyHz(), r.level(), r.wiring(), r.biasMode());
                     double[] acc = groups.computeIfAbsent(key, k -> new TreeMap<>())
                             .computeIfAbsent(r.bias(), b -> new double[2]);
-                    acc[0] += PointValues.of(r, column);
+                    acc[0] += r.value(column);
                     acc[1]++;
                 }
             }
@@ -116,8 +130,8 @@ public final class Analysis {
                 }
                 double[] biases = g.getValue().keySet().stream().mapToDouble(Double::doubleValue).toArray();
                 double[] values = g.getValue().values().stream().mapToDouble(a -> a[0] / a[1]).toArray();
-                derating.add(Derating.of(column, g.getKey().frequencyHz(), g.getKey().biasMode(), biases, values,
-                        "cs_f".equals(column) ? Derating.CAPACITOR_DROPS : Derating.INDUCTOR_DROPS));
+                derating.add(Derating.of(column, g.getKey().frequencyHz(), g.getKey().level(), g.getKey().biasMode(),
+                        biases, values, dropsFor(run, first.step(), column)));
             }
         }
         List<RepeatStats> repeats = RepeatStats.of(rows, List.of("r_ohm", "x_ohm", column));
@@ -132,44 +146,46 @@ public final class Analysis {
         return m.part() == null || m.part().turnsRatio() == null ? Double.NaN : m.part().turnsRatio();
     }
 
-    private static List<CheckOutcome> evaluate(RunData run, List<StepResult> steps, TransformerResult transformer) {
-        List<CheckOutcome> out = new ArrayList<>();
-        List<RunManifest.CheckInfo> checks = run.manifest().checks() == null ? List.of() : run.manifest().checks();
-        for (RunManifest.CheckInfo c : checks) {
-            double min = c.min() == null ? Double.NaN : c.min();
-            double max = c.max() == null ? Double.NaN : c.max();
-            double f = c.frequencyHz() == null ? Double.NaN : c.frequencyHz();
-            List<Double> values = new ArrayList<>();
-            String note = "";
-            if (Double.isFinite(f)) {
-                for (PointRow r : run.rows()) {
-                    if (r.step().equals(c.step()) && "ok".equals(r.status()) && Math.abs(r.frequencyHz() - f) <= 1e-9 * f) {
-                        values.add(PointValues.of(r, c.parameter()));
-                    }
-                }
-                if (values.isEmpty()) {
-                    note = "no measured point at this frequency";
-                }
-            } else {
-                double v = wholeSweepFigure(c, steps, transformer);
-                if (Double.isFinite(v)) {
-                    values.add(v);
-                } else {
-                    note = c.parameter() + " not resolved by the data";
-                }
+    /** The whole-sweep figures of a run already analysed into {@code steps} and {@code transformer}. */
+    private static SweepFigures figures(RunData run, List<StepResult> steps, TransformerResult transformer) {
+        return c -> {
+            if (CheckLimit.SATURATION.equals(c.parameter())) {
+                return saturation(c, steps);
             }
-            boolean passed = !values.isEmpty() && values.stream().allMatch(v -> within(v, min, max));
-            out.add(new CheckOutcome(c.name(), c.parameter(), c.step(), f, min, max, values, passed, note));
+            double v = wholeSweepFigure(c, steps, transformer);
+            return new SweepFigures.Figure(v, Si.unitOf(c.parameter()), "");
+        };
+    }
+
+    /**
+     * The bias at which the step's value has fallen by the check's drop, at its frequency (and
+     * level, when it names one), from the derating of the bias sweep there.
+     */
+    private static SweepFigures.Figure saturation(CheckLimit c, List<StepResult> steps) {
+        StepResult step = steps.stream().filter(s -> s.name().equals(c.step())).findFirst().orElse(null);
+        CheckLimit.Selection sel = c.selection();
+        List<Derating> found = step == null ? List.of() : step.derating().stream()
+                .filter(d -> CheckEvaluator.sameValue(sel.frequencyHz(), d.frequencyHz())
+                        && CheckEvaluator.sameValue(sel.level(), d.level()))
+                .toList();
+        if (found.isEmpty()) {
+            return new SweepFigures.Figure(Double.NaN, Unit.NONE, "no bias sweep measured at the selected points");
         }
-        return out;
+        Derating d = found.get(0);
+        Unit unit = Si.unitOfSymbol(d.biasMode());
+        Double at = d.biasAtDrop(c.dropPercent());
+        String ref = "relative to " + Si.format(d.referenceValue(), mainParameterOf(d.quantity()).unit(), 6) + " at "
+                + Si.format(d.referenceBias(), unit);
+        if (at == null) {
+            double lowest = d.points().stream().mapToDouble(Derating.Point::percent).min().orElse(Double.NaN);
+            return new SweepFigures.Figure(Double.NaN, unit, String.format(Locale.ROOT,
+                    "never falls by %s %% up to %s (lowest %.1f %%, %s)", Si.format(c.dropPercent(), Unit.NONE),
+                    Si.format(d.points().get(d.points().size() - 1).bias(), unit), lowest, ref));
+        }
+        return new SweepFigures.Figure(at, unit, ref);
     }
 
-    private static boolean within(double v, double min, double max) {
-        return Double.isFinite(v) && (Double.isNaN(min) || v >= min) && (Double.isNaN(max) || v <= max);
-    }
-
-    private static double wholeSweepFigure(RunManifest.CheckInfo c, List<StepResult> steps,
-            TransformerResult transformer) {
+    private static double wholeSweepFigure(CheckLimit c, List<StepResult> steps, TransformerResult transformer) {
         if (transformer != null) {
             switch (c.parameter()) {
                 case "turns_ratio":
@@ -189,7 +205,7 @@ public final class Analysis {
         if (sf == null) {
             return Double.NaN;
         }
-        if ("srf_hz".equals(c.parameter())) {
+        if (CheckLimit.SRF.equals(c.parameter())) {
             if (sf.fit().srfHz() != null) {
                 return sf.fit().srfHz();
             }
@@ -198,7 +214,30 @@ public final class Analysis {
         return sf.fit().value(c.parameter());
     }
 
-    private static Bins bins(RunData run, List<StepResult> steps) {
+    private static DerivedParameter mainParameterOf(String column) {
+        return "cs_f".equals(column) ? DerivedParameter.CS : DerivedParameter.LS;
+    }
+
+    /**
+     * The drops to report for a step, ascending: the step's own ({@code derating} in the
+     * sequence), else the defaults for the part, and the drop of every saturation check on it.
+     */
+    private static List<Integer> dropsFor(RunData run, String step, String column) {
+        java.util.TreeSet<Integer> drops = new java.util.TreeSet<>();
+        List<RunManifest.StepInfo> steps = run.manifest().steps() == null ? List.of() : run.manifest().steps();
+        List<Integer> own = steps.stream().filter(s -> s.name().equals(step) && s.deratingDrops() != null)
+                .map(RunManifest.StepInfo::deratingDrops).findFirst().orElse(null);
+        drops.addAll(own != null ? own : "cs_f".equals(column) ? Derating.CAPACITOR_DROPS : Derating.INDUCTOR_DROPS);
+        List<RunManifest.CheckInfo> checks = run.manifest().checks() == null ? List.of() : run.manifest().checks();
+        for (RunManifest.CheckInfo c : checks) {
+            if (CheckLimit.SATURATION.equals(c.parameter()) && step.equals(c.step()) && c.dropPercent() != null) {
+                drops.add((int) Math.round(c.dropPercent()));
+            }
+        }
+        return List.copyOf(drops);
+    }
+
+    private static Bins bins(RunData run, List<StepResult> steps, List<CheckOutcome> checks) {
         RunManifest.PartInfo part = run.manifest().part();
         String kind = run.partKind();
         if (!List.of("capacitor", "inductor", "resistor").contains(kind)) {
@@ -217,8 +256,8 @@ public final class Analysis {
         if (!Double.isFinite(measured)) {
             String column = mainColumn(kind);
             for (PointRow r : run.rows()) {
-                double v = PointValues.of(r, column);
-                if ("ok".equals(r.status()) && "impedance".equals(r.quantity()) && Double.isFinite(v)) {
+                double v = r.value(column);
+                if (r.okImpedance() && Double.isFinite(v)) {
                     measured = v;
                     source = column + " of step " + r.step() + " at " + Si.format(r.frequencyHz(), Unit.HERTZ);
                     break;
@@ -242,6 +281,33 @@ public final class Analysis {
         for (PreferredValues e : PreferredValues.values()) {
             nearest.put(e.name(), e.nearest(measured));
         }
-        return new Bins(measured, source, nominal, unit, deviation, letter, within, nearest);
+        return new Bins(measured, source, nominal, unit, deviation, letter, within, nearest,
+                versusChecks(within, source, checks));
+    }
+
+    /**
+     * What a reader must know when the bin's "within stated tolerance" and a check on the part's
+     * value disagree: they judge different figures (a fitted element over the whole sweep, or one
+     * point, against the stated tolerance; a check, its own points against its own limits).
+     */
+    private static String versusChecks(Boolean within, String source, List<CheckOutcome> checks) {
+        if (within == null) {
+            return "";
+        }
+        List<String> disagree = new ArrayList<>();
+        for (CheckOutcome c : checks) {
+            boolean valueCheck = List.of("cs_f", "cp_f", "ls_h", "lp_h", "rs_ohm", "rp_ohm", "r_ohm", "z_ohm")
+                    .contains(c.parameter());
+            if (valueCheck && c.verdict() != CheckOutcome.Verdict.NOT_EVALUATED && c.passed() != within) {
+                disagree.add(c.name() + " (" + c.parameter() + ")");
+            }
+        }
+        if (disagree.isEmpty()) {
+            return "";
+        }
+        return "the check" + (disagree.size() > 1 ? "s " : " ") + String.join(", ", disagree) + " "
+                + (within ? "failed" : "passed") + " although the " + source + " is " + (within ? "" : "not ")
+                + "within the stated tolerance: the bin judges that one figure against the part's tolerance,"
+                + " the check judges its own selected points against its own limits (the verdict is the checks')";
     }
 }

@@ -9,6 +9,7 @@ import com.fasterxml.jackson.databind.node.ObjectNode;
 import java.io.IOException;
 import java.io.UncheckedIOException;
 import java.nio.charset.StandardCharsets;
+import org.zweep.runner.verdict.CheckOutcome;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.List;
@@ -53,6 +54,9 @@ public final class AnalysisJson {
             n.put("parameter", c.parameter());
             n.put("step", c.step());
             num(n, "frequency_hz", c.frequencyHz());
+            num(n, "bias", c.limit().selection().bias());
+            num(n, "level", c.limit().selection().level());
+            num(n, "drop_percent", c.limit().dropPercent());
             num(n, "min", c.min());
             num(n, "max", c.max());
             ArrayNode vs = n.putArray("values");
@@ -194,6 +198,9 @@ public final class AnalysisJson {
             n.put("within_tolerance", b.withinTolerance());
         }
         n.set("nearest", map(b.nearest()));
+        if (!b.versusChecks().isEmpty()) {
+            n.put("versus_checks", b.versusChecks());
+        }
         return n;
     }
 

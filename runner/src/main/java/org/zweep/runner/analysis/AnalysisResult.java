@@ -1,6 +1,7 @@
 package org.zweep.runner.analysis;
 
 import java.util.List;
+import org.zweep.runner.verdict.CheckOutcome;
 
 /**
  * Everything {@code zweep analyze} finds in a run folder.
@@ -25,7 +26,7 @@ public record AnalysisResult(RunData run, List<StepResult> steps, TransformerRes
         if (checks.isEmpty()) {
             return "none";
         }
-        return checks.stream().allMatch(CheckOutcome::passed) ? "pass" : "fail";
+        return CheckOutcome.verdictOf(checks);
     }
 
     /** The step named {@code name}, or null. */

@@ -15,9 +15,11 @@ import java.util.Map;
  * @param letter the tightest IEC 60062 letter holding the value, or null
  * @param withinTolerance whether it is within the part's stated tolerance; null when none is stated
  * @param nearest the nearest value in each of E6, E12, E24, E48, E96
+ * @param versusChecks why a check on the part's value disagrees with {@code withinTolerance}, or
+ *     empty when none does (the run's verdict is always the checks')
  */
 public record Bins(double measured, String source, double nominal, String unit, double deviationPercent,
-        String letter, Boolean withinTolerance, Map<String, Double> nearest) {
+        String letter, Boolean withinTolerance, Map<String, Double> nearest, String versusChecks) {
     public Bins {
         nearest = java.util.Collections.unmodifiableMap(new LinkedHashMap<>(nearest));
     }

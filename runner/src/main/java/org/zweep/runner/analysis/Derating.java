@@ -13,6 +13,7 @@ import java.util.Map;
  *
  * @param quantity the column derated, {@code cs_f} or {@code ls_h}
  * @param frequencyHz the test frequency
+ * @param level the drive level (V rms or A rms)
  * @param biasMode {@code V} or {@code A}
  * @param referenceBias the bias of the reference value (0, or the smallest bias swept)
  * @param referenceValue the value there, in F or H
@@ -21,11 +22,11 @@ import java.util.Map;
  *     when the sweep never falls that far
  * @param notes explanations for people
  */
-public record Derating(String quantity, double frequencyHz, String biasMode, double referenceBias,
+public record Derating(String quantity, double frequencyHz, double level, String biasMode, double referenceBias,
         double referenceValue, List<Point> points, Map<Integer, Double> drops, List<String> notes) {
-    /** Drop percentages reported for capacitors. */
+    /** Drop percentages reported for capacitors unless the step names its own. */
     public static final List<Integer> CAPACITOR_DROPS = List.of(20, 50);
-    /** Drop percentages reported for inductors (saturation current). */
+    /** Drop percentages reported for inductors (saturation current) unless the step names its own. */
     public static final List<Integer> INDUCTOR_DROPS = List.of(10, 20, 30);
 
     public Derating {
@@ -48,8 +49,8 @@ public record Derating(String quantity, double frequencyHz, String biasMode, dou
      * Derates {@code values} (one per bias, any order, biases distinct) at the given drops.
      * Negative biases are left out (the search goes up from zero).
      */
-    public static Derating of(String quantity, double frequencyHz, String biasMode, double[] biases, double[] values,
-            List<Integer> dropsPercent) {
+    public static Derating of(String quantity, double frequencyHz, double level, String biasMode, double[] biases,
+            double[] values, List<Integer> dropsPercent) {
         List<double[]> pts = new ArrayList<>();
         List<String> notes = new ArrayList<>();
         boolean negative = false;
@@ -79,15 +80,7 @@ public record Derating(String quantity, double frequencyHz, String biasMode, dou
         }
         Map<Integer, Double> drops = new LinkedHashMap<>();
         for (int drop : dropsPercent) {
-            double target = 100 - drop;
-            Double at = null;
-            for (int i = 1; i < points.size() && at == null; i++) {
-                Point a = points.get(i - 1);
-                Point b = points.get(i);
-                if (b.percent() <= target && a.percent() > target) {
-                    at = a.bias() + (b.bias() - a.bias()) * (a.percent() - target) / (a.percent() - b.percent());
-                }
-            }
+            Double at = biasAtDrop(points, drop);
             drops.put(drop, at);
             if (at == null) {
                 double min = points.stream().mapToDouble(Point::percent).min().orElseThrow();
@@ -96,6 +89,26 @@ public record Derating(String quantity, double frequencyHz, String biasMode, dou
                         Si.format(refBias, Si.unitOfSymbol(biasMode))));
             }
         }
-        return new Derating(quantity, frequencyHz, biasMode, refBias, ref, points, drops, notes);
+        return new Derating(quantity, frequencyHz, level, biasMode, refBias, ref, points, drops, notes);
+    }
+
+    /**
+     * The bias where the value has first fallen by {@code dropPercent} (linear interpolation
+     * between the two points around the crossing), or null when it never falls that far.
+     */
+    public Double biasAtDrop(double dropPercent) {
+        return biasAtDrop(points, dropPercent);
+    }
+
+    private static Double biasAtDrop(List<Point> points, double drop) {
+        double target = 100 - drop;
+        for (int i = 1; i < points.size(); i++) {
+            Point a = points.get(i - 1);
+            Point b = points.get(i);
+            if (b.percent() <= target && a.percent() > target) {
+                return a.bias() + (b.bias() - a.bias()) * (a.percent() - target) / (a.percent() - b.percent());
+            }
+        }
+        return null;
     }
 }

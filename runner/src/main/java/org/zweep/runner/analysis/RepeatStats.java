@@ -47,7 +47,7 @@ public record RepeatStats(double frequencyHz, double level, double bias, String 
             Map<String, Double> rel = new LinkedHashMap<>();
             for (String c : columns) {
                 SummaryStatistics s = new SummaryStatistics();
-                g.forEach(r -> s.addValue(PointValues.of(r, c)));
+                g.forEach(r -> s.addValue(r.value(c)));
                 mean.put(c, s.getMean());
                 std.put(c, s.getStandardDeviation());
                 rel.put(c, s.getStandardDeviation() / Math.abs(s.getMean()));

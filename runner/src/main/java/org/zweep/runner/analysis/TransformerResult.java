@@ -103,7 +103,7 @@ public record TransformerResult(double frequencyHz, double openH, double shortH,
         for (PointRow r : rows) {
             if ("ok".equals(r.status()) && "impedance".equals(r.quantity()) && wiring.equals(r.wiring())) {
                 double[] acc = out.computeIfAbsent(r.frequencyHz(), x -> new double[2]);
-                acc[0] += PointValues.impedance(r).seriesInductanceH();
+                acc[0] += r.value("ls_h");
                 acc[1]++;
             }
         }

@@ -11,7 +11,7 @@ import org.zweep.driver.impedance.Unit;
 import org.zweep.runner.analysis.Analysis;
 import org.zweep.runner.analysis.AnalysisJson;
 import org.zweep.runner.analysis.AnalysisResult;
-import org.zweep.runner.analysis.CheckOutcome;
+import org.zweep.runner.verdict.CheckOutcome;
 import org.zweep.runner.analysis.CircuitFit;
 import org.zweep.runner.analysis.CircuitModel;
 import org.zweep.runner.analysis.Derating;
@@ -96,13 +96,16 @@ public final class AnalyzeCommand implements Callable<Integer> {
                     Si.format(t.frequencyHz(), Unit.HERTZ), Si.format(t.mutualH(), Unit.HENRY));
         }
         for (CheckOutcome c : a.checks()) {
-            out.printf(Locale.ROOT, "check %s (%s): %s%s%n", c.name(), c.parameter(), c.result(),
-                    c.note().isEmpty() ? "" : " (" + c.note() + ")");
+            out.println(RunLauncher.checkLine(c));
         }
         if (a.bins() != null && a.bins().letter() != null) {
             out.printf(Locale.ROOT, "bin: %+.3f %% of nominal, tolerance letter %s%n", a.bins().deviationPercent(),
                     a.bins().letter());
         }
+        if (a.bins() != null && !a.bins().versusChecks().isEmpty()) {
+            out.println("bin versus checks: " + a.bins().versusChecks());
+        }
+
     }
 
 }

@@ -23,20 +23,17 @@ import org.zweep.driver.impedance.Quantities;
 import org.zweep.driver.impedance.Unit;
 import org.zweep.driver.scpi.ScpiSettings;
 import org.zweep.runner.analysis.Analysis;
-import org.zweep.runner.analysis.CheckOutcome;
+import org.zweep.runner.verdict.CheckOutcome;
 import org.zweep.runner.analysis.RunData;
-import org.zweep.runner.analysis.Si;
 import org.zweep.runner.compensation.CompensationWorkflow;
 import org.zweep.runner.engine.ConsoleProgress;
 import org.zweep.runner.engine.Interruption;
-import org.zweep.runner.engine.PointChecks;
 import org.zweep.runner.engine.ProgressListener;
 import org.zweep.runner.engine.Prompter;
 import org.zweep.runner.engine.ReconnectPolicy;
 import org.zweep.runner.engine.RunResult;
 import org.zweep.runner.engine.RunSession;
 import org.zweep.runner.engine.ScpiMeterLink;
-import org.zweep.runner.engine.SweepChecks;
 import org.zweep.runner.plan.CheckLimit;
 import org.zweep.runner.plan.MeterSpec;
 import org.zweep.runner.plan.Plan;
@@ -248,7 +245,7 @@ final class RunLauncher {
                     plan.meter().dialect(), seed, ReconnectPolicy.DEFAULT.withBudgetS(o.reconnectBudgetS()), prompter,
                     progress, interruption,
                     (station, res, log) -> CompensationWorkflow.prepare(plan, station, folder, res, clock, log),
-                    RunLauncher::sweepChecks, clock, VersionProvider.version()));
+                    f -> Analysis.sweepFigures(RunData.read(f.dir())), clock, VersionProvider.version()));
             RunSession.Summary s;
             BiasOffHook hook = BiasOffHook.install(interruption, session::biasOffNow, err, 10_000);
             try (hook) {
@@ -274,22 +271,14 @@ final class RunLauncher {
 
     /** The checks and the end of the run, for the live view. */
     private static void recordEnd(org.zweep.runner.live.EventLog events, RunSession.Summary s) {
-        for (PointChecks.Outcome c : s.pointChecks()) {
+        for (CheckOutcome c : s.checks()) {
             events.write("check", n -> {
                 n.put("name", c.limit().name());
                 n.put("parameter", c.limit().parameter());
                 n.put("value", c.lastValue());
-                n.put("value_text", value(c.limit().parameter(), c.lastValue()));
-                n.put("result", c.verdict());
-            });
-        }
-        for (SweepChecks.Outcome c : s.sweepChecks()) {
-            events.write("check", n -> {
-                n.put("name", c.limit().name());
-                n.put("parameter", c.limit().parameter());
-                n.put("value", c.value());
-                n.put("value_text", value(c.limit().parameter(), c.value()));
-                n.put("result", c.passed() ? "pass" : "fail");
+                n.put("value_text", Double.isNaN(c.lastValue()) ? "no value"
+                        : Quantities.formatShort(c.lastValue(), c.unit(), 4));
+                n.put("result", c.result());
             });
         }
         RunResult r = s.result();
@@ -311,20 +300,6 @@ final class RunLauncher {
         server.close();
     }
 
-    /** The whole-sweep checks (such as {@code srf_hz}) of a completed run, evaluated by the analysis. */
-    static List<SweepChecks.Outcome> sweepChecks(RunFolder folder, List<CheckLimit> whole) {
-        if (whole.isEmpty()) {
-            return List.of();
-        }
-        List<CheckOutcome> all = Analysis.evaluateChecks(RunData.read(folder.dir()));
-        List<SweepChecks.Outcome> out = new ArrayList<>();
-        for (CheckLimit l : whole) {
-            all.stream().filter(o -> o.name().equals(l.name())).findFirst().ifPresent(o -> out.add(
-                    new SweepChecks.Outcome(l, o.values().isEmpty() ? Double.NaN : o.values().get(0), o.passed())));
-        }
-        return out;
-    }
-
     static int exitCode(RunSession.Summary s) {
         return switch (s.result().outcome()) {
             case COMPLETED -> "fail".equals(s.verdict()) ? ExitCode.CHECK_FAILED : ExitCode.OK;
@@ -344,29 +319,50 @@ final class RunLauncher {
         if (r.outcome() != RunResult.Outcome.COMPLETED) {
             err.println("zweep: the run folder is resumable: zweep run --resume " + folder.dir());
         }
-        for (PointChecks.Outcome c : s.pointChecks()) {
-            CheckLimit l = c.limit();
-            out.printf(Locale.ROOT, "check %-22s %s at %s in %s = %s: %s%n", l.name(), l.parameter(),
-                    Quantities.format(l.frequencyHz(), Unit.HERTZ, 4), l.step(), value(l.parameter(), c.lastValue()),
-                    c.verdict());
-        }
-        for (SweepChecks.Outcome c : s.sweepChecks()) {
-            out.printf(Locale.ROOT, "check %-22s %s in %s = %s: %s%n", c.limit().name(), c.limit().parameter(),
-                    c.limit().step(), value(c.limit().parameter(), c.value()), c.passed() ? "pass" : "fail");
-        }
-        for (CheckLimit l : s.unevaluated()) {
-            out.printf(Locale.ROOT, "check %-22s %s in %s: not evaluated by the run (zweep analyze evaluates it)%n",
-                    l.name(), l.parameter(), l.step());
+        for (CheckOutcome c : s.checks()) {
+            out.println(checkLine(c));
         }
         out.println("verdict: " + s.verdict());
         out.flush();
     }
 
-    static String value(String parameter, double v) {
-        if (Double.isNaN(v)) {
-            return "no value";
+    /**
+     * One check's outcome for people, the same line in {@code zweep run} and {@code zweep analyze}:
+     * {@code check NAME PARAMETER at 1 kHz, bias 0 A in STEP = 10.02 µH: pass}.
+     */
+    static String checkLine(CheckOutcome c) {
+        CheckLimit l = c.limit();
+        StringBuilder where = new StringBuilder();
+        CheckLimit.Selection s = l.selection();
+        List<String> sel = new ArrayList<>();
+        if (!Double.isNaN(s.frequencyHz())) {
+            sel.add(Quantities.formatShort(s.frequencyHz(), Unit.HERTZ, 4));
         }
-        return Quantities.format(v, Si.unitOf(parameter), 4);
+        if (!Double.isNaN(s.bias())) {
+            sel.add("bias " + Quantities.formatShort(s.bias(), Unit.NONE, 4));
+        }
+        if (!Double.isNaN(s.level())) {
+            sel.add("level " + Quantities.formatShort(s.level(), Unit.NONE, 4));
+        }
+        if (!Double.isNaN(l.dropPercent())) {
+            sel.add(String.format(Locale.ROOT, "%s %% drop", Quantities.formatShort(l.dropPercent(), Unit.NONE, 4)));
+        }
+        if (!sel.isEmpty()) {
+            where.append(" at ").append(String.join(", ", sel));
+        }
+        String value;
+        if (c.values().isEmpty()) {
+            value = "no value";
+        } else if (c.values().size() == 1) {
+            value = Quantities.formatShort(c.values().get(0), c.unit(), 4);
+        } else {
+            double lo = c.values().stream().mapToDouble(Double::doubleValue).min().orElseThrow();
+            double hi = c.values().stream().mapToDouble(Double::doubleValue).max().orElseThrow();
+            value = Quantities.formatShort(lo, c.unit(), 4) + " … " + Quantities.formatShort(hi, c.unit(), 4) + " ("
+                    + c.values().size() + " points)";
+        }
+        return String.format(Locale.ROOT, "check %-22s %s%s in %s = %s: %s%s", l.name(), l.parameter(), where,
+                l.step(), value, c.result(), c.note().isEmpty() ? "" : " (" + c.note() + ")");
     }
 
     /** {@code plan} with its meter address and dialect replaced where {@code meter} or {@code dialect} is not null. */

@@ -19,14 +19,21 @@ import org.zweep.driver.meter.CorrectionStandard;
 /**
  * Host-side compensation data: each standard's reading at each frequency, with the time and the
  * settings it was measured at. Stored as {@code NAME.csv} (columns {@code standard,
- * frequency_hz, r_ohm, x_ohm, time}) with a sidecar {@code NAME.json} describing the settings.
+ * frequency_hz, r_ohm, x_ohm, time, status}; {@code status} is {@code ok}, or {@code over_range}
+ * for an OPEN the meter read as overload or beyond its range, with empty R and X) with a sidecar
+ * {@code NAME.json} describing the settings. Files without the {@code status} column (written
+ * before it existed) are read as all {@code ok}.
  *
  * @param info when, on which meter and how the standards were measured
  * @param entries the readings, grouped by standard, ascending in frequency within a standard
  */
 public record CompensationData(Info info, List<Entry> entries) {
     /** The CSV header. */
-    public static final String HEADER = "standard,frequency_hz,r_ohm,x_ohm,time";
+    public static final String HEADER = "standard,frequency_hz,r_ohm,x_ohm,time,status";
+    /** The header of files written before the status column. */
+    static final String HEADER_WITHOUT_STATUS = "standard,frequency_hz,r_ohm,x_ohm,time";
+    /** The status of an OPEN reading beyond the meter's range. */
+    public static final String OVER_RANGE = "over_range";
     /** The sidecar's format tag. */
     public static final String FORMAT = "zweep-compensation/1";
 
@@ -58,8 +65,28 @@ public record CompensationData(Info info, List<Entry> entries) {
             Double loadROhm, Double loadXOhm, String drive, double level, int averaging, double integrationS) {
     }
 
-    /** One standard's reading at one frequency. */
-    public record Entry(CorrectionStandard standard, double frequencyHz, double rOhm, double xOhm, Instant time) {
+    /**
+     * One standard's reading at one frequency.
+     *
+     * @param overRange whether the meter read it as overload or beyond its range (only ever an
+     *     OPEN: its admittance lies below what the meter can see, taken as 0); R and X are NaN then
+     */
+    public record Entry(CorrectionStandard standard, double frequencyHz, double rOhm, double xOhm, Instant time,
+            boolean overRange) {
+        /** A reading the meter gave. */
+        public Entry(CorrectionStandard standard, double frequencyHz, double rOhm, double xOhm, Instant time) {
+            this(standard, frequencyHz, rOhm, xOhm, time, false);
+        }
+
+        /** An OPEN the meter read as overload or beyond its range at {@code frequencyHz}. */
+        public static Entry openOverRange(double frequencyHz, Instant time) {
+            return new Entry(CorrectionStandard.OPEN, frequencyHz, Double.NaN, Double.NaN, time, true);
+        }
+    }
+
+    /** The frequencies at which the OPEN was beyond the meter's range, ascending. */
+    public List<Double> openOverRangeHz() {
+        return of(CorrectionStandard.OPEN).stream().filter(Entry::overRange).map(Entry::frequencyHz).toList();
     }
 
     /** When the data was measured. */
@@ -82,8 +109,10 @@ public record CompensationData(Info info, List<Entry> entries) {
     public void write(Path csv) {
         StringBuilder b = new StringBuilder(HEADER).append('\n');
         for (Entry e : entries) {
-            b.append(e.standard()).append(',').append(e.frequencyHz()).append(',').append(e.rOhm()).append(',')
-                    .append(e.xOhm()).append(',').append(e.time()).append('\n');
+            b.append(e.standard()).append(',').append(e.frequencyHz()).append(',')
+                    .append(e.overRange() ? "" : String.valueOf(e.rOhm())).append(',')
+                    .append(e.overRange() ? "" : String.valueOf(e.xOhm())).append(',').append(e.time()).append(',')
+                    .append(e.overRange() ? OVER_RANGE : "ok").append('\n');
         }
         try {
             Files.createDirectories(csv.toAbsolutePath().getParent());
@@ -144,18 +173,28 @@ public record CompensationData(Info info, List<Entry> entries) {
         if (!FORMAT.equals(info.format())) {
             throw new InvalidInputException(sidecar(csv) + ": format is " + info.format() + ", expected " + FORMAT);
         }
-        if (lines.isEmpty() || !lines.get(0).equals(HEADER)) {
+        if (lines.isEmpty() || !lines.get(0).equals(HEADER) && !lines.get(0).equals(HEADER_WITHOUT_STATUS)) {
             throw new InvalidInputException(csv + ":1: expected the header " + HEADER);
         }
+        int cells = lines.get(0).equals(HEADER) ? 6 : 5;
         List<Entry> entries = new ArrayList<>();
         for (int i = 1; i < lines.size(); i++) {
             String[] c = lines.get(i).split(",", -1);
             try {
-                if (c.length != 5) {
-                    throw new IllegalArgumentException("expected 5 cells, found " + c.length);
+                if (c.length != cells) {
+                    throw new IllegalArgumentException("expected " + cells + " cells, found " + c.length);
                 }
-                entries.add(new Entry(CorrectionStandard.valueOf(c[0]), Double.parseDouble(c[1]),
-                        Double.parseDouble(c[2]), Double.parseDouble(c[3]), Instant.parse(c[4])));
+                CorrectionStandard standard = CorrectionStandard.valueOf(c[0]);
+                boolean over = cells == 6 && c[5].equals(OVER_RANGE);
+                if (cells == 6 && !over && !c[5].equals("ok")) {
+                    throw new IllegalArgumentException("status '" + c[5] + "' is neither ok nor " + OVER_RANGE);
+                }
+                if (over && standard != CorrectionStandard.OPEN) {
+                    throw new IllegalArgumentException("only an OPEN may be " + OVER_RANGE);
+                }
+                entries.add(over ? Entry.openOverRange(Double.parseDouble(c[1]), Instant.parse(c[4]))
+                        : new Entry(standard, Double.parseDouble(c[1]), Double.parseDouble(c[2]),
+                                Double.parseDouble(c[3]), Instant.parse(c[4])));
             } catch (RuntimeException e) {
                 throw new InvalidInputException(csv + ":" + (i + 1) + ": malformed row: " + e.getMessage());
             }

@@ -18,6 +18,8 @@ import java.util.Optional;
 import java.util.function.Consumer;
 import java.util.stream.Stream;
 import org.zweep.driver.InvalidInputException;
+import org.zweep.driver.impedance.Quantities;
+import org.zweep.driver.impedance.Unit;
 import org.zweep.driver.meter.Bias;
 import org.zweep.driver.meter.CorrectionStandard;
 import org.zweep.driver.meter.MeasuredQuantity;
@@ -96,7 +98,20 @@ public final class CompensationWorkflow {
         }
         HostCorrector corrector = new HostCorrector(data, runData.toString(), fx.loadStandard());
         corrector.checkCovers(frequencies(plan));
-        return new FixtureCompensation.Prepared(corrector, new RunManifest.CompensationInfo("host", names, RUN_DATA));
+        List<Double> over = data.openOverRangeHz();
+        if (!over.isEmpty()) {
+            log.accept("compensation: the OPEN read beyond the meter's range at " + over.size() + " of "
+                    + data.of(CorrectionStandard.OPEN).size() + " frequencies (" + span(over)
+                    + "): its admittance is below what the meter can see, taken as 0 there (listed in "
+                    + RUN_DATA + " and run.json)");
+        }
+        return new FixtureCompensation.Prepared(corrector,
+                new RunManifest.CompensationInfo("host", names, RUN_DATA, over.isEmpty() ? null : over));
+    }
+
+    private static String span(List<Double> hz) {
+        String lo = Quantities.formatShort(hz.get(0), Unit.HERTZ, 4);
+        return hz.size() == 1 ? lo : lo + " … " + Quantities.formatShort(hz.get(hz.size() - 1), Unit.HERTZ, 4);
     }
 
     private static void meterSide(FixturePlan fx, Station station) {
@@ -124,9 +139,16 @@ public final class CompensationWorkflow {
             for (MeasurementSetting m : settings.values()) {
                 long key = -1L - (s.ordinal() * 1_000_000L + i++);
                 Reading r = station.measure(m, BiasControl.NONE, 0.0, key);
+                if (r.status() != ReadingStatus.OK && s == CorrectionStandard.OPEN) {
+                    // an open's admittance below what the meter can see: taken as 0 there
+                    entries.add(CompensationData.Entry.openOverRange(m.frequencyHz(), r.timestamp()));
+                    continue;
+                }
                 if (r.status() != ReadingStatus.OK) {
-                    throw new org.zweep.driver.MeterException("the meter gave no value for the " + s
-                            + " standard at " + m.frequencyHz() + " Hz (overload or out of range)");
+                    throw new org.zweep.driver.MeterException("the " + s + " standard overloaded the meter at "
+                            + Quantities.formatShort(m.frequencyHz(), Unit.HERTZ, 6) + " (no value): a "
+                            + s.name().toLowerCase(java.util.Locale.ROOT) + " that overloads is a wiring fault;"
+                            + " check the standard and the fixture's connections");
                 }
                 entries.add(new CompensationData.Entry(s, m.frequencyHz(), r.real(), r.imaginary(), r.timestamp()));
             }

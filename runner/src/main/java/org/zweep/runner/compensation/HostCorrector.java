@@ -17,7 +17,7 @@ import org.zweep.runner.engine.ReadingCorrector;
 
 /**
  * Corrects readings with stored standards: at a stored frequency the stored readings are used as
- * they are; between two stored frequencies each standard is interpolated linearly in frequency
+ * they are (an OPEN beyond the meter's range as admittance 0); between two stored frequencies each standard is interpolated linearly in frequency
  * (the open as an admittance G + jB, the short and load as impedances R + jX, the quantities
  * that the usual residual models make linear in frequency); outside the stored span it refuses.
  * Not thread-safe (caches one correction per frequency).
@@ -97,8 +97,8 @@ public final class HostCorrector implements ReadingCorrector {
                 .divide(hm.multiply(2));
         UncertainImpedance total = rawU.through(out, dm);
         for (int k = 0; k < std.length; k++) {
-            if (std[k] == null) {
-                continue;
+            if (std[k] == null || std[k].isInfinite()) {
+                continue; // an open beyond the meter's range: no reading, so no reading uncertainty to carry
             }
             UncertainImpedance uk = standardU.apply(new Impedance(f, std[k].getReal(), std[k].getImaginary()));
             if (uk == null) {
@@ -141,7 +141,7 @@ public final class HostCorrector implements ReadingCorrector {
     /** The open, short and load readings at {@code f} (null for a standard not stored). */
     private Complex[] standards(double f) {
         return new Complex[] {
-            has(CorrectionStandard.OPEN) ? at(CorrectionStandard.OPEN, f) : null,
+            has(CorrectionStandard.OPEN) ? openAt(f) : null,
             has(CorrectionStandard.SHORT) ? at(CorrectionStandard.SHORT, f) : null,
             has(CorrectionStandard.LOAD) ? at(CorrectionStandard.LOAD, f) : null};
     }
@@ -153,6 +153,7 @@ public final class HostCorrector implements ReadingCorrector {
     private Compensation build(Complex[] std) {
         Complex zo = std[0];
         Complex zs = std[1];
+        Complex yo = zo == null ? null : zo.isInfinite() ? Complex.ZERO : zo.reciprocal();
         boolean open = zo != null;
         boolean shrt = zs != null;
         boolean load = std[2] != null;
@@ -160,13 +161,13 @@ public final class HostCorrector implements ReadingCorrector {
             if (loadKnown == null) {
                 throw new InvalidInputException(source + ": load data but no known load value in the sequence");
             }
-            return Compensation.openShortLoad(zo, zs, std[2], loadKnown);
+            return Compensation.openShortLoadFromAdmittance(yo, zs, std[2], loadKnown);
         }
         if (open && shrt) {
-            return Compensation.openShort(zo, zs);
+            return Compensation.openShortFromAdmittance(yo, zs);
         }
         if (open) {
-            return Compensation.fromResiduals(Complex.ZERO, zo.reciprocal());
+            return Compensation.fromResiduals(Complex.ZERO, yo);
         }
         if (shrt) {
             return Compensation.fromResiduals(zs, Complex.ZERO);
@@ -174,12 +175,38 @@ public final class HostCorrector implements ReadingCorrector {
         throw new InvalidInputException(source + ": holds no OPEN or SHORT data");
     }
 
-    private boolean has(CorrectionStandard s) {
-        return data.entries().stream().anyMatch(e -> e.standard() == s);
+    /** The OPEN's impedance at {@code f}; {@link Complex#INF} where its admittance is taken as 0. */
+    private Complex openAt(double f) {
+        Complex y = openAdmittanceAt(f);
+        return y.equals(Complex.ZERO) ? Complex.INF : y.reciprocal();
     }
 
-    /** The standard's impedance at {@code f}, interpolated (open in admittance) between stored points. */
-    private Complex at(CorrectionStandard s, double f) {
+    /**
+     * The OPEN's admittance at {@code f}, interpolated linearly between stored points; 0 where the
+     * meter read the open as beyond its range (an admittance below what it can see).
+     */
+    private Complex openAdmittanceAt(double f) {
+        List<CompensationData.Entry> e = span(CorrectionStandard.OPEN, f);
+        for (int i = 0; i < e.size(); i++) {
+            CompensationData.Entry a = e.get(i);
+            if (Math.abs(a.frequencyHz() - f) <= SAME * f) {
+                return admittance(a);
+            }
+            if (i + 1 < e.size() && e.get(i + 1).frequencyHz() > f) {
+                CompensationData.Entry b = e.get(i + 1);
+                double t = (f - a.frequencyHz()) / (b.frequencyHz() - a.frequencyHz());
+                return admittance(a).multiply(1 - t).add(admittance(b).multiply(t));
+            }
+        }
+        return admittance(e.get(e.size() - 1));
+    }
+
+    private static Complex admittance(CompensationData.Entry e) {
+        return e.overRange() ? Complex.ZERO : new Complex(e.rOhm(), e.xOhm()).reciprocal();
+    }
+
+    /** The entries of {@code s}, once {@code f} is known to lie within their span. */
+    private List<CompensationData.Entry> span(CorrectionStandard s, double f) {
         List<CompensationData.Entry> e = data.of(s);
         double lo = e.get(0).frequencyHz();
         double hi = e.get(e.size() - 1).frequencyHz();
@@ -188,6 +215,16 @@ public final class HostCorrector implements ReadingCorrector {
                     + " Hz but the sweep needs " + f + " Hz; compensation is never extrapolated: measure the"
                     + " standards over the sweep's range (or lower the reuse age)");
         }
+        return e;
+    }
+
+    private boolean has(CorrectionStandard s) {
+        return data.entries().stream().anyMatch(e -> e.standard() == s);
+    }
+
+    /** The SHORT's or LOAD's impedance at {@code f}, interpolated linearly between stored points. */
+    private Complex at(CorrectionStandard s, double f) {
+        List<CompensationData.Entry> e = span(s, f);
         for (int i = 0; i < e.size(); i++) {
             CompensationData.Entry a = e.get(i);
             if (Math.abs(a.frequencyHz() - f) <= SAME * f) {
@@ -196,13 +233,7 @@ public final class HostCorrector implements ReadingCorrector {
             if (i + 1 < e.size() && e.get(i + 1).frequencyHz() > f) {
                 CompensationData.Entry b = e.get(i + 1);
                 double t = (f - a.frequencyHz()) / (b.frequencyHz() - a.frequencyHz());
-                Complex za = new Complex(a.rOhm(), a.xOhm());
-                Complex zb = new Complex(b.rOhm(), b.xOhm());
-                if (s == CorrectionStandard.OPEN) {
-                    Complex y = za.reciprocal().multiply(1 - t).add(zb.reciprocal().multiply(t));
-                    return y.reciprocal();
-                }
-                return za.multiply(1 - t).add(zb.multiply(t));
+                return new Complex(a.rOhm(), a.xOhm()).multiply(1 - t).add(new Complex(b.rOhm(), b.xOhm()).multiply(t));
             }
         }
         CompensationData.Entry last = e.get(e.size() - 1);

@@ -5,7 +5,6 @@ import java.util.BitSet;
 import java.util.List;
 import java.util.Locale;
 import org.zweep.driver.MeterException;
-import org.zweep.driver.impedance.Impedance;
 import org.zweep.driver.meter.MeasuredQuantity;
 import org.zweep.driver.meter.MeasurementSetting;
 import org.zweep.driver.meter.Reading;
@@ -13,8 +12,8 @@ import org.zweep.driver.meter.ReadingStatus;
 import org.zweep.runner.plan.Plan;
 import org.zweep.runner.plan.PlannedPoint;
 import org.zweep.runner.plan.PlannedStep;
-import org.zweep.runner.results.Derived;
 import org.zweep.runner.results.PointRow;
+import org.zweep.runner.verdict.CheckEvaluator;
 
 /**
  * Measures a plan's points in the plan's order, skipping those already on disk, and hands each
@@ -28,7 +27,7 @@ public final class RunEngine {
     private final Plan plan;
     private final Station station;
     private final ReadingCorrector corrector;
-    private final PointChecks checks;
+    private final CheckEvaluator checks;
     private final ProgressListener progress;
     private final Interruption interruption;
     private final Plausibility plausibility;
@@ -41,7 +40,7 @@ public final class RunEngine {
      * @param progress where progress goes
      * @param interruption stop requests
      */
-    public RunEngine(Plan plan, Station station, ReadingCorrector corrector, PointChecks checks,
+    public RunEngine(Plan plan, Station station, ReadingCorrector corrector, CheckEvaluator checks,
             ProgressListener progress, Interruption interruption) {
         this.plan = plan;
         this.station = station;
@@ -147,7 +146,7 @@ public final class RunEngine {
                             + " implausible");
                     row = row.withStatus(IMPLAUSIBLE);
                 }
-                row = row.withCheck(checks.evaluate(row));
+                row = row.withCheck(checks.judge(row));
                 sink.write(row, i == last);
                 done.set(p.index());
                 progress.measured(row, done.cardinality(), total);
@@ -216,13 +215,11 @@ public final class RunEngine {
     static PointRow row(PlannedPoint p, PlannedStep step, Reading r) {
         MeasurementSetting s = r.setting() != null ? r.setting() : p.setting();
         boolean ratio = s.quantity() == MeasuredQuantity.VOLTAGE_RATIO;
-        boolean ok = r.status() == ReadingStatus.OK;
-        double re = ok ? r.real() : Double.NaN;
-        double im = ok ? r.imaginary() : Double.NaN;
-        Derived derived = ok && !ratio ? Derived.of(new Impedance(s.frequencyHz(), re, im)) : Derived.NONE;
-        return new PointRow(p.index(), step.name(), p.stepIndex(), p.repeat(), ratio ? "voltage_ratio" : "impedance",
-                p.wiring().name().toLowerCase(Locale.ROOT), s.frequencyHz(), s.drive().mode().unit(),
-                s.drive().levelRms(), s.bias().mode().unit(), s.bias().appliedValue(), re, im, derived,
-                ratio && ok ? Math.hypot(re, im) : Double.NaN, ok ? "ok" : "no_value", "", r.timestamp());
+        PointRow.Conditions c = new PointRow.Conditions(ratio ? "voltage_ratio" : "impedance",
+                p.wiring().name().toLowerCase(Locale.ROOT), s.frequencyHz(),
+                new PointRow.Source(s.drive().mode().unit(), s.drive().levelRms()),
+                new PointRow.Source(s.bias().mode().unit(), s.bias().appliedValue()));
+        return PointRow.of(new PointRow.Key(p.index(), step.name(), p.stepIndex(), p.repeat()), c,
+                r.status() == ReadingStatus.OK, r.real(), r.imaginary(), "", r.timestamp());
     }
 }

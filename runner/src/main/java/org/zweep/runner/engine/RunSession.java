@@ -10,7 +10,6 @@ import java.util.Locale;
 import java.util.function.Consumer;
 import org.zweep.driver.InvalidInputException;
 import org.zweep.driver.MeterException;
-import org.zweep.runner.plan.CheckLimit;
 import org.zweep.runner.plan.Part;
 import org.zweep.runner.plan.Plan;
 import org.zweep.runner.plan.PlannedPoint;
@@ -18,6 +17,8 @@ import org.zweep.runner.results.PointsCsvReader;
 import org.zweep.runner.results.PointsCsvWriter;
 import org.zweep.runner.results.RunFolder;
 import org.zweep.runner.results.RunManifest;
+import org.zweep.runner.verdict.CheckEvaluator;
+import org.zweep.runner.verdict.CheckOutcome;
 import org.zweep.runner.safety.SafetyGuard;
 
 /**
@@ -66,13 +67,10 @@ public final class RunSession {
      * How the run ended.
      *
      * @param result the engine's result
-     * @param pointChecks the outcome of each point check
-     * @param sweepChecks the outcome of each whole-sweep check that was evaluated
-     * @param unevaluated whole-sweep checks nothing evaluated
+     * @param checks the outcome of every check, in sequence order (empty when the run did not complete)
      * @param manifest the final manifest
      */
-    public record Summary(RunResult result, List<PointChecks.Outcome> pointChecks,
-            List<SweepChecks.Outcome> sweepChecks, List<CheckLimit> unevaluated, RunManifest manifest) {
+    public record Summary(RunResult result, List<CheckOutcome> checks, RunManifest manifest) {
         /** {@code pass} when completed and every evaluated check passed, {@code fail}, or {@code none} when not completed. */
         public String verdict() {
             return manifest.verdict();
@@ -116,7 +114,7 @@ public final class RunSession {
         SafetyGuard guard = new SafetyGuard(plan.safety());
         guard.checkPlan(plan);
         List<PlannedPoint> points = plan.points();
-        PointChecks checks = new PointChecks(plan.checks());
+        CheckEvaluator checks = new CheckEvaluator(plan.checks());
         BitSet done = new BitSet(points.size());
         PointsCsvReader.Recovery rec = PointsCsvReader.recover(folder.points(), row -> {
             if (row.point() < 0 || row.point() >= points.size()
@@ -125,7 +123,7 @@ public final class RunSession {
                         + " does not belong to this sequence's plan");
             }
             done.set(row.point());
-            checks.evaluate(row);
+            checks.judge(row);
         });
         ProgressListener progress = setup.progress();
         if (rec.tornLineDropped()) {
@@ -158,20 +156,17 @@ public final class RunSession {
             }
             RunResult result = new RunEngine(plan, station, corrector, checks, progress, interruption)
                     .run(done, writer::append);
-            List<SweepChecks.Outcome> sweep = List.of();
-            List<CheckLimit> unevaluated = new ArrayList<>(checks.wholeSweep());
+            List<CheckOutcome> outcomes = List.of();
             String verdict = "none";
             if (result.outcome() == RunResult.Outcome.COMPLETED) {
                 writer.close();
-                sweep = setup.sweepChecks().evaluate(folder, checks.wholeSweep());
-                sweep.forEach(o -> unevaluated.remove(o.limit()));
-                boolean pass = checks.allPassed() && sweep.stream().allMatch(SweepChecks.Outcome::passed);
-                verdict = plan.checks().isEmpty() ? "none" : pass ? "pass" : "fail";
+                outcomes = checks.outcomes(setup.sweepChecks().figures(folder));
+                verdict = CheckOutcome.verdictOf(outcomes);
             }
             manifest = manifest.finished(result.outcome().word(), setup.clock().instant().toString(),
                     new RunManifest.Counts(points.size(), done.cardinality()), verdict);
             manifest.write(folder.manifest());
-            return new Summary(result, checks.outcomes(), sweep, unevaluated, manifest);
+            return new Summary(result, outcomes, manifest);
         } catch (RuntimeException e) {
             station.biasOffNow();
             if (manifest != null) {
@@ -214,10 +209,9 @@ public final class RunSession {
             RunManifest.MeterInfo meter, Long seed, Clock clock, String version) {
         Part p = plan.part();
         List<RunManifest.StepInfo> steps = plan.steps().stream()
-                .map(s -> new RunManifest.StepInfo(s.index(), s.name(), s.points().size())).toList();
-        List<RunManifest.CheckInfo> checks = plan.checks().stream()
-                .map(c -> new RunManifest.CheckInfo(c.name(), c.parameter(), c.step(), finite(c.frequencyHz()),
-                        finite(c.min()), finite(c.max()))).toList();
+                .map(s -> new RunManifest.StepInfo(s.index(), s.name(), s.points().size(),
+                        s.deratingDrops().isEmpty() ? null : s.deratingDrops())).toList();
+        List<RunManifest.CheckInfo> checks = plan.checks().stream().map(RunManifest.CheckInfo::of).toList();
         return new RunManifest(RunManifest.FORMAT,
                 new RunManifest.SequenceInfo(plan.name(), sequenceFile, RunFolder.sha256(folder.sequenceCopy()),
                         RunFolder.SEQUENCE_COPY),

@@ -13,7 +13,6 @@ import java.util.ArrayList;
 import java.util.List;
 import org.zweep.runner.analysis.AnalysisJson;
 import org.zweep.runner.analysis.AnalysisResult;
-import org.zweep.runner.analysis.PointValues;
 import org.zweep.runner.analysis.RunData;
 import org.zweep.runner.analysis.Sweep;
 import org.zweep.runner.results.Derived;
@@ -84,7 +83,7 @@ public final class Exports {
             cells.add(num(r.rOhm()));
             cells.add(num(r.xOhm()));
             for (String d : Derived.NAMES) {
-                cells.add(num(PointValues.of(r, d)));
+                cells.add(num(r.value(d)));
             }
             cells.add(num(r.ratio()));
             b.append(String.join(",", cells)).append('\n');
@@ -123,7 +122,7 @@ public final class Exports {
             put(p, "r_ohm", r.rOhm());
             put(p, "x_ohm", r.xOhm());
             for (String d : Derived.NAMES) {
-                put(p, d, PointValues.of(r, d));
+                put(p, d, r.value(d));
             }
             put(p, "ratio", r.ratio());
             p.put("time", r.time().toString());

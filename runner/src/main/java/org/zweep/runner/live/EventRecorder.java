@@ -2,7 +2,6 @@ package org.zweep.runner.live;
 
 import org.zweep.driver.impedance.DerivedParameter;
 import org.zweep.driver.impedance.Impedance;
-import org.zweep.runner.analysis.PointValues;
 import org.zweep.runner.engine.ProgressListener;
 import org.zweep.runner.results.PointRow;
 
@@ -54,8 +53,7 @@ public final class EventRecorder implements ProgressListener {
                 n.put("step_index", row.stepIndex());
             });
         }
-        boolean ok = "ok".equals(row.status()) && "impedance".equals(row.quantity());
-        Impedance z = ok ? PointValues.impedance(row) : null;
+        Impedance z = row.okImpedance() ? row.impedance() : null;
         log.write("point", n -> {
             n.put("point", row.point());
             n.put("step", row.step());
@@ -72,11 +70,11 @@ public final class EventRecorder implements ProgressListener {
             n.put("check", row.check());
             n.put("measured_ms", row.time().toEpochMilli());
             if (z != null) {
-                n.put("z_ohm", z.magnitudeOhm());
-                n.put("theta_deg", z.phaseDeg());
-                n.put("r_ohm", z.resistanceOhm());
-                n.put("x_ohm", z.reactanceOhm());
-                n.put(main.key(), main.of(z));
+                n.put("z_ohm", row.value("z_ohm"));
+                n.put("theta_deg", row.value("theta_deg"));
+                n.put("r_ohm", row.rOhm());
+                n.put("x_ohm", row.xOhm());
+                n.put(main.key(), row.value(main.key()));
             }
             if (Double.isFinite(row.ratio())) {
                 n.put("ratio", row.ratio());

@@ -11,11 +11,12 @@ import java.util.Map;
 import org.zweep.driver.impedance.Unit;
 import org.zweep.runner.analysis.AnalysisResult;
 import org.zweep.runner.analysis.Bins;
-import org.zweep.runner.analysis.CheckOutcome;
+import org.zweep.runner.verdict.CheckOutcome;
 import org.zweep.runner.analysis.CircuitFit;
 import org.zweep.runner.analysis.Derating;
 import org.zweep.runner.analysis.RepeatStats;
 import org.zweep.runner.analysis.Si;
+import org.zweep.runner.plan.CheckLimit;
 import org.zweep.runner.analysis.StepResult;
 import org.zweep.runner.analysis.Sweep;
 import org.zweep.runner.analysis.TransformerResult;
@@ -174,22 +175,42 @@ public final class HtmlReport {
         b.append("<table><tr><th>check</th><th>parameter</th><th>step</th><th>at</th><th>min</th><th>max</th>")
                 .append("<th>measured</th><th>result</th></tr>");
         for (CheckOutcome c : checks) {
-            Unit unit = Si.unitOf(c.parameter());
+            Unit unit = c.unit();
             b.append("<tr><td>").append(esc(c.name())).append("</td><td>").append(esc(c.parameter())).append("</td><td>")
                     .append(esc(c.step())).append("</td><td class=\"num\">")
-                    .append(Double.isNaN(c.frequencyHz()) ? "sweep" : esc(Si.format(c.frequencyHz(), Unit.HERTZ)))
+                    .append(esc(selection(c)))
                     .append("</td><td class=\"num\">").append(esc(Double.isNaN(c.min()) ? "—" : Si.format(c.min(), unit, 6)))
                     .append("</td><td class=\"num\">").append(esc(Double.isNaN(c.max()) ? "—" : Si.format(c.max(), unit, 6)))
                     .append("</td><td class=\"num\">");
-            if (c.values().isEmpty()) {
-                b.append(esc(c.note()));
-            } else {
+            if (!c.values().isEmpty()) {
                 b.append(esc(String.join(", ", c.values().stream().map(v -> Si.format(v, unit, 6)).toList())));
+            }
+            if (!c.note().isEmpty()) {
+                b.append(c.values().isEmpty() ? "" : " — ").append(esc(c.note()));
             }
             b.append("</td><td><span class=\"verdict ").append(c.result()).append("\">").append(c.result())
                     .append("</span></td></tr>");
         }
         b.append("</table>\n");
+    }
+
+    /** Which points a check judges, for people: {@code 100 kHz, bias 0 A} or {@code sweep}. */
+    private static String selection(CheckOutcome c) {
+        CheckLimit.Selection s = c.limit().selection();
+        List<String> parts = new java.util.ArrayList<>();
+        if (!Double.isNaN(s.frequencyHz())) {
+            parts.add(Si.format(s.frequencyHz(), Unit.HERTZ));
+        }
+        if (!Double.isNaN(s.bias())) {
+            parts.add("bias " + Si.format(s.bias(), Unit.NONE));
+        }
+        if (!Double.isNaN(s.level())) {
+            parts.add("level " + Si.format(s.level(), Unit.NONE));
+        }
+        if (!Double.isNaN(c.limit().dropPercent())) {
+            parts.add(Si.format(c.limit().dropPercent(), Unit.NONE) + " % drop");
+        }
+        return parts.isEmpty() ? "sweep" : String.join(", ", parts);
     }
 
     private static void bins(StringBuilder b, Bins bins) {
@@ -202,8 +223,11 @@ public final class HtmlReport {
         row(b, "deviation", Double.isFinite(bins.deviationPercent())
                 ? String.format(Locale.ROOT, "%+.3f %%", bins.deviationPercent()) : "—");
         row(b, "IEC 60062 tolerance letter", bins.letter() == null ? "none" : bins.letter());
-        row(b, "within stated tolerance", bins.withinTolerance() == null ? "no tolerance stated"
-                : bins.withinTolerance() ? "yes" : "no");
+        row(b, "measured value within stated tolerance (a bin, not a check)", bins.withinTolerance() == null
+                ? "no tolerance stated" : bins.withinTolerance() ? "yes" : "no");
+        if (!bins.versusChecks().isEmpty()) {
+            row(b, "versus the checks", bins.versusChecks());
+        }
         bins.nearest().forEach((k, v) -> row(b, "nearest " + k + " (IEC 60063)", Si.format(v, Si.unitOfSymbol(bins.unit()), 3)));
         b.append("</table>\n");
     }

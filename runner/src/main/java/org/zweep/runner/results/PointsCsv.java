@@ -41,7 +41,7 @@ public final class PointsCsv {
         num(b, row.bias()).append(',');
         num(b, row.rOhm()).append(',');
         num(b, row.xOhm()).append(',');
-        for (double v : row.derived().values()) {
+        for (double v : row.derived().columns()) {
             num(b, v).append(',');
         }
         num(b, row.ratio()).append(',');
@@ -62,16 +62,16 @@ public final class PointsCsv {
             throw new IllegalArgumentException("expected " + COLUMNS.size() + " cells, found " + c.size());
         }
         try {
-            double[] derived = new double[Derived.NAMES.size()];
-            for (int i = 0; i < derived.length; i++) {
-                derived[i] = parseNum(c.get(13 + i));
-            }
-            int after = 13 + derived.length;
-            return new PointRow(Integer.parseInt(c.get(0)), c.get(1), Integer.parseInt(c.get(2)),
-                    Integer.parseInt(c.get(3)), c.get(4), c.get(5), parseNum(c.get(6)), c.get(7), parseNum(c.get(8)),
-                    c.get(9), parseNum(c.get(10)), parseNum(c.get(11)), parseNum(c.get(12)),
-                    Derived.fromValues(derived), parseNum(c.get(after)), c.get(after + 1), c.get(after + 2),
-                    Instant.parse(c.get(after + 3)));
+            int after = 13 + Derived.NAMES.size();
+            PointRow.Conditions conditions = new PointRow.Conditions(c.get(4), c.get(5), parseNum(c.get(6)),
+                    new PointRow.Source(c.get(7), parseNum(c.get(8))),
+                    new PointRow.Source(c.get(9), parseNum(c.get(10))));
+            // the derived cells are not read back: every derived value is computed from R and X, once
+            String status = c.get(after + 1);
+            PointRow row = PointRow.of(new PointRow.Key(Integer.parseInt(c.get(0)), c.get(1),
+                    Integer.parseInt(c.get(2)), Integer.parseInt(c.get(3))), conditions, !"no_value".equals(status),
+                    parseNum(c.get(11)), parseNum(c.get(12)), c.get(after + 2), Instant.parse(c.get(after + 3)));
+            return "ok".equals(status) || "no_value".equals(status) ? row : row.withStatus(status);
         } catch (NumberFormatException | DateTimeParseException e) {
             throw new IllegalArgumentException(e.getMessage(), e);
         }

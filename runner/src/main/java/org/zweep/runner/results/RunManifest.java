@@ -21,6 +21,7 @@ import java.nio.file.StandardCopyOption;
 import java.nio.file.StandardOpenOption;
 import java.util.List;
 import org.zweep.driver.InvalidInputException;
+import org.zweep.runner.plan.CheckLimit;
 
 /**
  * The {@code run.json} manifest of a run folder (format {@code zweep-run/1}): what was run, on
@@ -85,15 +86,53 @@ public record RunManifest(String format, SequenceInfo sequence, PartInfo part, L
             Double turnsRatio) {
     }
 
-    /** One step: its index, name and number of planned points. */
-    public record StepInfo(int index, String name, int points) {
+    /**
+     * One step: its index, name and number of planned points, and the derating drops (whole
+     * percentages) it asks for; {@code null} for the defaults.
+     */
+    public record StepInfo(int index, String name, int points, List<Integer> deratingDrops) {
+        /** A step with the default derating drops. */
+        public StepInfo(int index, String name, int points) {
+            this(index, name, points, null);
+        }
     }
 
     /**
      * One check; {@code min}/{@code max} {@code null} when unbounded, {@code frequencyHz}
-     * {@code null} for whole-sweep figures such as {@code srf_hz}.
+     * {@code null} for whole-sweep figures such as {@code srf_hz}; {@code bias}/{@code level}
+     * {@code null} when the check selects any; {@code dropPercent} only for {@code saturation}.
      */
-    public record CheckInfo(String name, String parameter, String step, Double frequencyHz, Double min, Double max) {
+    public record CheckInfo(String name, String parameter, String step, Double frequencyHz, Double min, Double max,
+            Double bias, Double level, Double dropPercent) {
+
+        /** A check at one frequency (or a whole-sweep one), any bias and level. */
+        public CheckInfo(String name, String parameter, String step, Double frequencyHz, Double min, Double max) {
+            this(name, parameter, step, frequencyHz, min, max, null, null, null);
+        }
+
+        /** The record of {@code c}. */
+        public static CheckInfo of(CheckLimit c) {
+            return new CheckInfo(c.name(), c.parameter(), c.step(), finite(c.frequencyHz()), finite(c.min()),
+                    finite(c.max()), finite(c.selection().bias()), finite(c.selection().level()),
+                    finite(c.dropPercent()));
+        }
+
+        /** The check this records. */
+        public CheckLimit toLimit() {
+            return new CheckLimit(name, parameter, step,
+                    new CheckLimit.Selection(nan(frequencyHz), nan(bias), nan(level)),
+                    new CheckLimit.Bounds(min == null ? Double.NEGATIVE_INFINITY : min,
+                            max == null ? Double.POSITIVE_INFINITY : max),
+                    nan(dropPercent));
+        }
+
+        private static Double finite(double v) {
+            return Double.isFinite(v) ? v : null;
+        }
+
+        private static double nan(Double v) {
+            return v == null ? Double.NaN : v;
+        }
     }
 
     /** The meter: address, dialect and its {@code *IDN?} identity. */
@@ -106,8 +145,14 @@ public record RunManifest(String format, SequenceInfo sequence, PartInfo part, L
      * @param mode {@code none}, {@code meter} or {@code host}
      * @param standards the standards, e.g. {@code ["OPEN","SHORT"]}
      * @param data the host-side data file, relative to the folder when inside it; {@code null} otherwise
+     * @param openOverRangeHz the frequencies where the OPEN read beyond the meter's range (its
+     *     admittance taken as 0); {@code null} when none
      */
-    public record CompensationInfo(String mode, List<String> standards, String data) {
+    public record CompensationInfo(String mode, List<String> standards, String data, List<Double> openOverRangeHz) {
+        /** A compensation record with the OPEN readable everywhere. */
+        public CompensationInfo(String mode, List<String> standards, String data) {
+            this(mode, standards, data, null);
+        }
     }
 
     /** The program that wrote the folder. */

@@ -55,7 +55,8 @@ final class PlanExpander {
                 at[k] = 0;
             }
         }
-        return new PlannedStep(stepIndex, spec.name(), spec.prompt(), spec.biasControl(), points);
+        return new PlannedStep(stepIndex, spec.name(), spec.prompt(), spec.biasControl(), points,
+                spec.deratingDrops());
     }
 
     private static MeasurementSetting setting(StepSpec spec, int bias, int level, int frequency) {

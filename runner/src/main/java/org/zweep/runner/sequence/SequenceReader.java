@@ -52,10 +52,11 @@ final class SequenceReader {
     static final List<String> LOAD_KEYS = List.of("r", "x");
     static final List<String> PART_KEYS = List.of("kind", "name", "nominal", "tolerance", "turns_ratio");
     static final List<String> STEP_KEYS = List.of("name", "prompt", "quantity", "wiring", "frequency", "level", "bias",
-            "order", "averaging", "integration", "repeats", "delay", "range");
+            "order", "averaging", "integration", "repeats", "delay", "range", "derating");
     static final List<String> BIAS_KEYS =
             List.of("values", "start", "stop", "points", "per_decade", "spacing", "ramp", "settle");
-    static final List<String> CHECK_KEYS = List.of("name", "step", "parameter", "at", "min", "max", "within");
+    static final List<String> CHECK_KEYS =
+            List.of("name", "step", "parameter", "at", "bias", "level", "drop", "min", "max", "within");
 
     /**
      * Check parameters measured at one point, with the unit of their limits: the impedance core's
@@ -79,7 +80,8 @@ final class SequenceReader {
             PartKind.TRANSFORMER, List.of("ls_h", "lp_h", "ratio"),
             PartKind.RESISTOR, List.of("rs_ohm", "rp_ohm", "r_ohm", "z_ohm"));
 
-    static final String SRF = "srf_hz";
+    static final String SRF = CheckLimit.SRF;
+    static final String SATURATION = CheckLimit.SATURATION;
     private static final Pattern NAME = Pattern.compile("[A-Za-z0-9._-]+");
 
     private final Path source;
@@ -433,8 +435,10 @@ final class SequenceReader {
         int repeats = m.optional("repeats").map(r -> Units.integer(r, "a repeat count", 1)).orElse(1);
         double delay = m.optional("delay").map(d -> Units.parse(d, Unit.SECOND)).orElse(0.0);
         ImpedanceRange range = m.optional("range").map(SequenceReader::range).orElse(ImpedanceRange.AUTO);
+        Sweep biasAxis = bias;
+        List<Integer> derating = m.optional("derating").map(d -> deratingDrops(d, biasAxis, step)).orElse(List.of());
         StepSpec spec = new StepSpec(name, prompt, quantity, wiring, frequencies, levels, bias, control, order,
-                averaging, integration, repeats, delay, range, node);
+                averaging, integration, repeats, delay, range, derating, node);
         if (spec.pointCount() > MAX_POINTS) {
             throw node.error("too many points: " + step + " has " + spec.pointCount() + " (at most " + MAX_POINTS
                     + ")");
@@ -521,6 +525,7 @@ final class SequenceReader {
         String parameter = pn.text("a parameter");
         List<String> known = new ArrayList<>(POINT_PARAMETERS.keySet());
         known.add(SRF);
+        known.add(SATURATION);
         if (!known.contains(parameter)) {
             throw pn.error("unknown parameter '" + parameter + "'" + Suggest.didYouMean(parameter, known)
                     + "; expected one of: " + String.join(", ", known));
@@ -532,19 +537,55 @@ final class SequenceReader {
                     + " step; step '" + stepName + "' measures " + step.quantity().name().toLowerCase(Locale.ROOT));
         }
         double frequencyHz = Double.NaN;
+        double dropPercent = Double.NaN;
         Unit unit;
         if (parameter.equals(SRF)) {
             unit = Unit.HERTZ;
             if (m.has("at")) {
                 throw m.values().get("at").error("srf_hz is a whole-sweep figure: remove 'at'");
             }
+            for (String k : List.of("bias", "level")) {
+                if (m.has(k)) {
+                    throw m.values().get(k).error("srf_hz is found on the step's first fitted sweep: remove '" + k
+                            + "'");
+                }
+            }
             if (step.frequencies().values().size() < 2) {
                 throw pn.error("srf_hz needs a frequency sweep; step '" + stepName + "' has one frequency");
             }
+        } else if (parameter.equals(SATURATION)) {
+            if (step.bias() == null || step.bias().values().size() < 2) {
+                throw pn.error("saturation needs a bias sweep; step '" + stepName + "' has "
+                        + (step.bias() == null ? "no bias" : "one bias value"));
+            }
+            unit = step.bias().unit();
+            if (m.has("bias")) {
+                throw m.values().get("bias").error("saturation finds the bias itself: remove 'bias'");
+            }
+            frequencyHz = !m.has("at") && step.frequencies().values().size() == 1
+                    ? step.frequencies().values().get(0) : frequencyOf(m, node, step, check);
+            if (!m.has("drop")) {
+                throw node.error("missing key 'drop' in " + check + " (the fall in value, such as 30 %, at which"
+                        + " the bias is read)");
+            }
+            dropPercent = wholePercent(m.required("drop"), "a drop");
         } else {
             unit = POINT_PARAMETERS.get(parameter);
             frequencyHz = frequencyOf(m, node, step, check);
         }
+        if (m.has("drop") && !parameter.equals(SATURATION)) {
+            throw m.values().get("drop").error("drop is only for parameter saturation");
+        }
+        double bias = Double.NaN;
+        if (m.has("bias")) {
+            YamlNode bn = m.required("bias");
+            if (step.bias() == null) {
+                throw bn.error("step '" + stepName + "' applies no bias: remove 'bias'");
+            }
+            bias = valueOf(bn, step.bias(), "bias value", step);
+        }
+        double level = m.optional("level").map(ln -> valueOf(ln, step.levels(), "drive level", step))
+                .orElse(Double.NaN);
         double min = Double.NEGATIVE_INFINITY;
         double max = Double.POSITIVE_INFINITY;
         if (m.has("within")) {
@@ -581,7 +622,8 @@ final class SequenceReader {
                 }
             }
         }
-        return new CheckLimit(name, parameter, stepName, frequencyHz, min, max);
+        return new CheckLimit(name, parameter, stepName, new CheckLimit.Selection(frequencyHz, bias, level),
+                new CheckLimit.Bounds(min, max), dropPercent);
     }
 
     private static double frequencyOf(YamlNode.YamlMap m, YamlNode node, StepSpec step, String check) {
@@ -601,6 +643,51 @@ final class SequenceReader {
         }
         throw at.error(Units.format(f, Unit.HERTZ) + " is not a frequency of step '" + step.name() + "' (nearest: "
                 + Units.format(nearest, Unit.HERTZ) + ")");
+    }
+
+    /** The value of {@code node} in {@code sweep}'s unit, which must be one of the step's values of that axis. */
+    private static double valueOf(YamlNode node, Sweep sweep, String what, StepSpec step) {
+        double v = Units.parse(node, sweep.unit(), Unit.Bound.ANY);
+        double nearest = Double.NaN;
+        for (double x : sweep.values()) {
+            if (Math.abs(x - v) <= 1e-9 * Math.max(Math.abs(x), Math.abs(v))) {
+                return x;
+            }
+            if (Double.isNaN(nearest) || Math.abs(x - v) < Math.abs(nearest - v)) {
+                nearest = x;
+            }
+        }
+        throw node.error(Units.format(v, sweep.unit()) + " is not a " + what + " of step '" + step.name()
+                + "' (nearest: " + Units.format(nearest, sweep.unit()) + ")");
+    }
+
+    /** A percentage between 0 % and 100 % that is a whole number, such as {@code 30 %}. */
+    private static int wholePercent(YamlNode node, String what) {
+        double p = Units.percent(node, what);
+        long rounded = Math.round(p);
+        if (Math.abs(p - rounded) > 1e-9) {
+            throw node.error("expected " + what + " as a whole percentage such as 30 %, got '" + node.text("") + "'");
+        }
+        return (int) rounded;
+    }
+
+    /** A step's {@code derating} list: whole percentages, each once, returned ascending. */
+    private static List<Integer> deratingDrops(YamlNode node, Sweep bias, String step) {
+        if (bias == null || bias.values().size() < 2) {
+            throw node.error("derating needs a bias sweep; " + step + " has " + (bias == null ? "no bias"
+                    : "one bias value"));
+        }
+        List<YamlNode> items = node.items("a list of percentages");
+        if (items.isEmpty()) {
+            throw node.error("empty list: expected drops such as [10 %, 20 %, 30 %]");
+        }
+        java.util.TreeSet<Integer> drops = new java.util.TreeSet<>();
+        for (YamlNode i : items) {
+            if (!drops.add(wholePercent(i, "a drop"))) {
+                throw i.error("drop '" + i.text("") + "' given twice");
+            }
+        }
+        return List.copyOf(drops);
     }
 
     private static double nominalFor(YamlNode within, String parameter, Part part) {

@@ -23,11 +23,12 @@ import org.zweep.runner.plan.Wiring;
  * @param repeats how many times the step's sweep is measured
  * @param delayS extra wait before each point in s
  * @param range impedance range
+ * @param deratingDrops the drops (whole percentages) the analysis reports for the bias sweep; empty for the defaults
  * @param node the step's mapping, for complaints
  */
 record StepSpec(String name, String prompt, MeasuredQuantity quantity, Wiring wiring, Sweep frequencies,
         Sweep levels, Sweep bias, BiasControl biasControl, List<Axis> order, int averaging, double integrationTimeS,
-        int repeats, double delayS, ImpedanceRange range, YamlNode node) {
+        int repeats, double delayS, ImpedanceRange range, List<Integer> deratingDrops, YamlNode node) {
 
     /** The nested axes of a step. */
     enum Axis {

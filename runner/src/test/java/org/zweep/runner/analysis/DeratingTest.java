@@ -17,7 +17,7 @@ class DeratingTest {
             i[k] = k * 0.025;
             l[k] = 10e-6 / (1 + Math.pow(i[k] / 5, 2));
         }
-        Derating d = Derating.of("ls_h", 100e3, "A", i, l, Derating.INDUCTOR_DROPS);
+        Derating d = Derating.of("ls_h", 100e3, 0.1, "A", i, l, Derating.INDUCTOR_DROPS);
         // exact: 1.6667 A, 2.5000 A, 3.2733 A (check-values.md §6); linear interpolation on a 25 mA grid errs by
         // at most h²/8·|I''(L)|/|I'(L)|-order terms, well below 0.5 mA here
         assertEquals(5 * Math.sqrt(1 / 0.9 - 1), d.drops().get(10), 5e-4);
@@ -30,7 +30,7 @@ class DeratingTest {
     void dropIsInterpolatedLinearlyBetweenTheTwoPointsAroundIt() {
         // C falls from 100 % at 0 V to 90 % at 10 V and 60 % at 20 V: 80 % lies a third of the way from 10 to 20 V
         // (plain linear interpolation, common practice, no source)
-        Derating d = Derating.of("cs_f", 1e3, "V", new double[] {20, 0, 10}, new double[] {60e-9, 100e-9, 90e-9},
+        Derating d = Derating.of("cs_f", 1e3, 1.0, "V", new double[] {20, 0, 10}, new double[] {60e-9, 100e-9, 90e-9},
                 Derating.CAPACITOR_DROPS);
         assertEquals(10 + 10.0 / 3, d.drops().get(20), 1e-12);
         assertNull(d.drops().get(50));
@@ -40,7 +40,7 @@ class DeratingTest {
 
     @Test
     void sweepWithoutAZeroBiasPointIsRelativeToItsLowestBiasAndSaysSo() {
-        Derating d = Derating.of("cs_f", 1e3, "V", new double[] {1, 2}, new double[] {1e-9, 0.4e-9},
+        Derating d = Derating.of("cs_f", 1e3, 1.0, "V", new double[] {1, 2}, new double[] {1e-9, 0.4e-9},
                 Derating.CAPACITOR_DROPS);
         assertEquals(1.0, d.referenceBias());
         assertTrue(d.notes().get(0).startsWith("no 0 V point"), d.notes().toString());

@@ -8,7 +8,6 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 import org.zweep.driver.impedance.Impedance;
-import org.zweep.runner.results.Derived;
 import org.zweep.runner.results.PointRow;
 import org.zweep.runner.results.PointsCsvWriter;
 import org.zweep.runner.results.RunManifest;
@@ -37,8 +36,9 @@ public final class TestRunFolders {
         int index = steps.computeIfAbsent(step, s -> steps.size());
         for (Impedance z : sweep) {
             time = time.plusMillis(100);
-            rows.add(new PointRow(rows.size(), step, index, repeat, "impedance", wiring, z.frequencyHz(), drive, level,
-                    biasMode, bias, z.resistanceOhm(), z.reactanceOhm(), Derived.of(z), Double.NaN, "ok", "", time));
+            rows.add(PointRow.of(new PointRow.Key(rows.size(), step, index, repeat), new PointRow.Conditions("impedance",
+                    wiring, z.frequencyHz(), new PointRow.Source(drive, level), new PointRow.Source(biasMode, bias)),
+                    true, z.resistanceOhm(), z.reactanceOhm(), "", time));
         }
         return this;
     }
@@ -47,8 +47,9 @@ public final class TestRunFolders {
     public TestRunFolders ratio(String step, double frequencyHz, double ratio) {
         int index = steps.computeIfAbsent(step, s -> steps.size());
         time = time.plusMillis(100);
-        rows.add(new PointRow(rows.size(), step, index, 0, "voltage_ratio", "secondary_open", frequencyHz, "V", 1.0, "V",
-                0.0, ratio, 0.0, Derived.NONE, ratio, "ok", "", time));
+        rows.add(PointRow.of(new PointRow.Key(rows.size(), step, index, 0), new PointRow.Conditions("voltage_ratio",
+                "secondary_open", frequencyHz, new PointRow.Source("V", 1.0), new PointRow.Source("V", 0.0)), true,
+                ratio, 0.0, "", time));
         return this;
     }
 
@@ -56,8 +57,9 @@ public final class TestRunFolders {
     public TestRunFolders noValue(String step, double frequencyHz) {
         int index = steps.computeIfAbsent(step, s -> steps.size());
         time = time.plusMillis(100);
-        rows.add(new PointRow(rows.size(), step, index, 0, "impedance", "none", frequencyHz, "V", 1.0, "V", 0.0,
-                Double.NaN, Double.NaN, Derived.NONE, Double.NaN, "no_value", "", time));
+        rows.add(PointRow.of(new PointRow.Key(rows.size(), step, index, 0), new PointRow.Conditions("impedance", "none",
+                frequencyHz, new PointRow.Source("V", 1.0), new PointRow.Source("V", 0.0)), false, Double.NaN,
+                Double.NaN, "", time));
         return this;
     }
 

@@ -48,7 +48,7 @@ class CheckCommandTest {
         assertEquals("", out.toString());
         assertEquals("zweep: " + file + ":5:37: unknown key 'levl' in step 's' (did you mean 'level'?); expected one of: "
                 + "name, prompt, quantity, wiring, frequency, level, bias, order, averaging, integration, repeats, "
-                + "delay, range\n", err.toString().replace(System.lineSeparator(), "\n"));
+                + "delay, range, derating\n", err.toString().replace(System.lineSeparator(), "\n"));
     }
 
     @Test

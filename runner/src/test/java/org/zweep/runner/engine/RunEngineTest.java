@@ -10,6 +10,7 @@ import java.util.BitSet;
 import java.util.List;
 import java.util.stream.IntStream;
 import org.junit.jupiter.api.Test;
+import org.zweep.runner.verdict.CheckEvaluator;
 import org.zweep.driver.InvalidInputException;
 import org.zweep.driver.meter.Bias;
 import org.zweep.driver.meter.MeasurementSetting;
@@ -44,7 +45,7 @@ class RunEngineTest {
 
     RunResult run(Plan plan, BitSet done) {
         Station st = station();
-        return new RunEngine(plan, st, ReadingCorrector.NONE, new PointChecks(plan.checks()), progress, interruption)
+        return new RunEngine(plan, st, ReadingCorrector.NONE, new CheckEvaluator(plan.checks()), progress, interruption)
                 .run(done, (row, last) -> rows.add(row));
     }
 

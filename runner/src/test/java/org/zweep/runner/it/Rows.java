@@ -23,8 +23,6 @@ final class Rows {
 
     /** The row without its arrival time (what must be identical between two runs with one seed). */
     static PointRow timeless(PointRow r) {
-        return new PointRow(r.point(), r.step(), r.stepIndex(), r.repeat(), r.quantity(), r.wiring(), r.frequencyHz(),
-                r.drive(), r.level(), r.biasMode(), r.bias(), r.rOhm(), r.xOhm(), r.derived(), r.ratio(), r.status(),
-                r.check(), java.time.Instant.EPOCH);
+        return r.withTime(java.time.Instant.EPOCH);
     }
 }

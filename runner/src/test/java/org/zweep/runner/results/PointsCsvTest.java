@@ -12,8 +12,9 @@ class PointsCsvTest {
 
     static PointRow row(int point, String step, double r, double x) {
         Impedance z = new Impedance(1000.0, r, x);
-        return new PointRow(point, step, 0, 0, "impedance", "none", 1000.0, "V", 1.0, "V", 0.0, r, x, Derived.of(z),
-                Double.NaN, "ok", "", Instant.parse("2024-05-01T10:00:00.123456Z"));
+        return PointRow.of(new PointRow.Key(point, step, 0, 0), new PointRow.Conditions("impedance", "none",
+                z.frequencyHz(), new PointRow.Source("V", 1.0), new PointRow.Source("V", 0.0)), true, r, x, "",
+                Instant.parse("2024-05-01T10:00:00.123456Z"));
     }
 
     @Test

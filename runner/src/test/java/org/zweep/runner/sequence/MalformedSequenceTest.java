@@ -44,6 +44,9 @@ class MalformedSequenceTest {
                 level: 1 V
             """;
 
+    /** Lines 5–9: one valid step that sweeps bias. */
+    static final String BIAS_STEP = STEP + "    bias: [0 V, 5 V]\n";
+
     static Stream<Arguments> cases() {
         return Stream.of(
                 Arguments.of("unknown top-level key with a suggestion", HEAD + STEP + "chekcs: []\n",
@@ -118,7 +121,7 @@ class MalformedSequenceTest {
                             level: 1 V
                         """, "7:5: unknown key 'frequncy' in step 'sweep' (did you mean 'frequency'?); expected one "
                                 + "of: name, prompt, quantity, wiring, frequency, level, bias, order, averaging, "
-                                + "integration, repeats, delay, range"),
+                                + "integration, repeats, delay, range, derating"),
                 Arguments.of("frequency in volts", HEAD + """
                         steps:
                           - name: sweep
@@ -242,7 +245,7 @@ class MalformedSequenceTest {
                           - {name: c, step: sweep, parameter: ls_hh, at: 1 kHz, max: 1 H}
                         """, "10:39: unknown parameter 'ls_hh' (did you mean 'ls_h'?); expected one of: r_ohm, x_ohm, "
                                 + "z_ohm, theta_deg, delta_deg, q, d, g_s, b_s, cs_f, cp_f, ls_h, lp_h, rs_ohm, rp_ohm, "
-                                + "ratio, srf_hz"),
+                                + "ratio, srf_hz, saturation"),
                 Arguments.of("check at a frequency not in the sweep", HEAD + STEP + """
                         checks:
                           - {name: c, step: sweep, parameter: d, at: 1.5 kHz, max: 0.025}
@@ -267,6 +270,49 @@ class MalformedSequenceTest {
                         checks:
                           - {name: c, step: sweep, parameter: srf_hz, at: 1 kHz, min: 10 MHz}
                         """, "10:51: srf_hz is a whole-sweep figure: remove 'at'"),
+                Arguments.of("check bias not among the step's bias values", HEAD + BIAS_STEP + """
+                        checks:
+                          - {name: c, step: sweep, parameter: cs_f, at: 1 kHz, bias: 3 V, min: 1 nF}
+                        """, "11:62: 3 V is not a bias value of step 'sweep' (nearest: 5 V)"),
+                Arguments.of("check bias on a step without bias", HEAD + STEP + """
+                        checks:
+                          - {name: c, step: sweep, parameter: cs_f, at: 1 kHz, bias: 0 V, min: 1 nF}
+                        """, "10:62: step 'sweep' applies no bias: remove 'bias'"),
+                Arguments.of("check level not among the step's levels", HEAD + STEP + """
+                        checks:
+                          - {name: c, step: sweep, parameter: cs_f, at: 1 kHz, level: 2 V, min: 1 nF}
+                        """, "10:63: 2 V is not a drive level of step 'sweep' (nearest: 1 V)"),
+                Arguments.of("saturation on a step without a bias sweep", HEAD + STEP + """
+                        checks:
+                          - {name: s, step: sweep, parameter: saturation, at: 1 kHz, drop: 20 %, min: 1 V}
+                        """, "10:39: saturation needs a bias sweep; step 'sweep' has no bias"),
+                Arguments.of("saturation without drop", HEAD + BIAS_STEP + """
+                        checks:
+                          - {name: s, step: sweep, parameter: saturation, at: 1 kHz, min: 1 V}
+                        """, "11:5: missing key 'drop' in check 's' (the fall in value, such as 30 %, at which the bias is read)"),
+                Arguments.of("saturation drop that is not a whole percentage", HEAD + BIAS_STEP + """
+                        checks:
+                          - {name: s, step: sweep, parameter: saturation, at: 1 kHz, drop: 12.5 %, min: 1 V}
+                        """, "11:68: expected a drop as a whole percentage such as 30 %, got '12.5 %'"),
+                Arguments.of("saturation with a bias selection", HEAD + BIAS_STEP + """
+                        checks:
+                          - {name: s, step: sweep, parameter: saturation, at: 1 kHz, bias: 0 V, drop: 20 %, min: 1 V}
+                        """, "11:68: saturation finds the bias itself: remove 'bias'"),
+                Arguments.of("drop on a point check", HEAD + BIAS_STEP + """
+                        checks:
+                          - {name: c, step: sweep, parameter: cs_f, at: 1 kHz, drop: 20 %, min: 1 nF}
+                        """, "11:62: drop is only for parameter saturation"),
+                Arguments.of("srf_hz with a bias selection", HEAD + BIAS_STEP + """
+                        checks:
+                          - {name: c, step: sweep, parameter: srf_hz, bias: 0 V, min: 10 MHz}
+                        """, "11:53: srf_hz is found on the step's first fitted sweep: remove 'bias'"),
+                Arguments.of("derating on a step without a bias sweep", HEAD + STEP + """
+                            derating: [10 %]
+                        """, "9:15: derating needs a bias sweep; step 'sweep' has no bias"),
+                Arguments.of("derating drop given twice", HEAD + BIAS_STEP + """
+                            derating: [10 %, 20 %, 10 %]
+                        """, "10:28: drop '10 %' given twice"),
+
                 Arguments.of("within tolerance of a part without tolerance", """
                         format: zweep-sequence/1
                         meter: {bench: b.bench.yaml}

@@ -120,8 +120,35 @@ class ShippedSequencesOnBenchTest {
             }
             return out;
         }
+        if (c.parameter().equals(CheckLimit.SATURATION)) {
+            // the bias where Ls (Cs for a capacitor) has first fallen by the drop from its value at the lowest
+            // bias, linearly interpolated between the two bias points around the crossing
+            String key = plan.part().kind() == org.zweep.runner.plan.PartKind.CAPACITOR ? "cs_f" : "ls_h";
+            double ref = Double.NaN;
+            double lastBias = Double.NaN;
+            double lastValue = Double.NaN;
+            for (PlannedPoint p : points) {
+                double[] rx = measured.get(p.index());
+                double v = DerivedParameter.contractValues(Impedance.fromRX(p.setting().frequencyHz(), rx[0], rx[1]))
+                        .get(key);
+                double b = p.setting().bias().appliedValue();
+                if (Double.isNaN(ref)) {
+                    ref = v;
+                }
+                double target = ref * (1 - c.dropPercent() / 100);
+                if (v <= target && !Double.isNaN(lastValue)) {
+                    out.add(lastBias + (b - lastBias) * (lastValue - target) / (lastValue - v));
+                    break;
+                }
+                lastBias = b;
+                lastValue = v;
+            }
+            return out;
+        }
         for (PlannedPoint p : points) {
-            if (p.setting().frequencyHz() == c.frequencyHz()) {
+            boolean bias = Double.isNaN(c.selection().bias()) || p.setting().bias().appliedValue() == c.selection().bias();
+            boolean level = Double.isNaN(c.selection().level()) || p.setting().drive().levelRms() == c.selection().level();
+            if (p.setting().frequencyHz() == c.frequencyHz() && bias && level) {
                 double[] rx = measured.get(p.index());
                 if (c.parameter().equals("ratio")) {
                     out.add(Math.hypot(rx[0], rx[1]));
