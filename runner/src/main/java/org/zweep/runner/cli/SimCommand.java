@@ -107,6 +107,14 @@ public final class SimCommand implements Callable<Integer> {
             description = "Longest program message accepted; longer gives -363 (default ${DEFAULT-VALUE}).")
     int maxMessageBytes;
 
+    @Option(names = "--max-connections", paramLabel = "N", defaultValue = "256",
+            description = "Most TCP connections open at once; one more is told why and closed (default ${DEFAULT-VALUE}).")
+    int maxConnections;
+
+    @Option(names = "--bench-dir", paramLabel = "DIR",
+            description = "A folder SIMulate:BENCh may load bench files from (repeatable; none: SIMulate:BENCh is refused).")
+    List<Path> benchDirs = new ArrayList<>();
+
     @Option(names = "--fault", paramLabel = "SPEC", description = "Inject a fault on every connection (see below).")
     List<String> faults = new ArrayList<>();
 
@@ -153,12 +161,20 @@ public final class SimCommand implements Callable<Integer> {
         if (errorQueueDepth < 2) {
             throw new InvalidInputException("--error-queue: must be at least 2, got " + errorQueueDepth);
         }
+        if (maxConnections < 1) {
+            throw new InvalidInputException("--max-connections: must be at least 1, got " + maxConnections);
+        }
+        for (Path d : benchDirs) {
+            if (!Files.isDirectory(d)) {
+                throw new InvalidInputException("--bench-dir: " + d + " is not a folder");
+            }
+        }
         ServerOptions options;
         try {
             options = ServerOptions.defaults().withBindAddress(address).withPort(port).withMaxMessageBytes(maxMessageBytes)
-                    .withFaults(plan)
+                    .withMaxConnections(maxConnections).withFaults(plan)
                     .withInstrument(InstrumentOptions.defaults().withTiming(timingModel).withStrict(strict)
-                            .withErrorQueueDepth(errorQueueDepth).withBenchLoader(BenchLoader.simulated(ideal, timingModel)))
+                            .withErrorQueueDepth(errorQueueDepth).withBenchLoader(BenchLoader.simulated(ideal, timingModel, benchDirs)))
                     .withLog(line -> {
                         synchronized (out) {
                             out.println(line);

@@ -32,8 +32,11 @@ import org.zweep.driver.InvalidInputException;
  * long lines). Limits in README, section "Limits on input files".
  */
 final class BoundedYaml {
-    /** The largest file read, in bytes. */
-    static final int MAX_FILE_BYTES = 1 << 20;
+    /**
+     * The largest file read, in bytes: a hundred times a long sequence file, and small enough
+     * that the two passes over it (limits, then nodes) stay well under a second on a cold JVM.
+     */
+    static final int MAX_FILE_BYTES = 256 << 10;
     /** The deepest nesting of mappings and lists. */
     static final int MAX_DEPTH = 64;
     /** The most aliases ({@code *name}) in one file. */
@@ -101,11 +104,33 @@ final class BoundedYaml {
                     ? " (" + e.getContext() + " at line " + (e.getContextMark().get().getLine() + 1) + ", column "
                             + (e.getContextMark().get().getColumn() + 1) + ")"
                     : "";
-            throw new InvalidInputException(where + ": YAML syntax: " + e.getProblem() + context, e);
+            throw new InvalidInputException(oneLine(where + ": YAML syntax: " + e.getProblem() + context), e);
         } catch (YamlEngineException e) {
-            throw new InvalidInputException(file + ": YAML syntax: " + e.getMessage(), e);
+            throw new InvalidInputException(oneLine(file + ": YAML syntax: " + e.getMessage()), e);
         }
         return documents;
+    }
+
+    /**
+     * The parser quotes the character it did not expect as it is ("found \n(10)"), so a line end
+     * or another control character would break the one-line message: each is written as an escape.
+     */
+    static String oneLine(String message) {
+        StringBuilder b = new StringBuilder(message.length());
+        message.codePoints().forEach(c -> {
+            if (c == '\n') {
+                b.append("\\n");
+            } else if (c == '\r') {
+                b.append("\\r");
+            } else if (c == '\t') {
+                b.append("\\t");
+            } else if (c < 0x20 || c == 0x7F || (c >= 0x80 && c < 0xA0) || c == 0x2028 || c == 0x2029) {
+                b.append(String.format("\\u%04x", c));
+            } else {
+                b.appendCodePoint(c);
+            }
+        });
+        return b.toString();
     }
 
     /** Walks the events (the parser keeps its own stack, so any depth is safe here). */

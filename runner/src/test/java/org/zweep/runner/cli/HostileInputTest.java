@@ -58,17 +58,17 @@ class HostileInputTest {
     }
 
     @Test
-    void aSequenceFileLargerThanOneMebibyteIsRefusedNamingTheLimit() throws IOException {
+    void aSequenceFileLargerThanTheLimitIsRefusedNamingIt() throws IOException {
         Path file = dir.resolve("long.yaml");
         Files.writeString(file, "format: zweep-sequence/1\ndescription: " + "x".repeat(8 << 20) + "\n");
         assertEquals(ExitCode.USAGE, zweep("check", file.toString()));
-        assertEquals("zweep: " + file + ": larger than 1048576 bytes, the limit for a sequence file", oneLine());
+        assertEquals("zweep: " + file + ": larger than 262144 bytes, the limit for a sequence file", oneLine());
     }
 
     @Test
     void devZeroAsASequenceFileIsRefusedAfterReadingTheLimitOnly() {
         assertEquals(ExitCode.USAGE, zweep("check", "/dev/zero"));
-        assertEquals("zweep: /dev/zero: larger than 1048576 bytes, the limit for a sequence file", oneLine());
+        assertEquals("zweep: /dev/zero: larger than 262144 bytes, the limit for a sequence file", oneLine());
     }
 
     @Test
@@ -143,5 +143,22 @@ class HostileInputTest {
         Files.writeString(file, chain(200)); // 200 elements, 201 nodes: hi, n1..n199, lo
         assertEquals(ExitCode.USAGE, zweep("sim", "--port", "0", "--device", file.toString()));
         assertEquals("zweep: " + file + ":200:11: more than 200 nodes (the limit)", oneLine());
+    }
+
+    @Test
+    void aYamlErrorThatQuotesALineEndStaysOnOneLine() throws IOException {
+        // found by InputFuzzIT: the parser quotes the unexpected character as it is, here a line end
+        Path file = dir.resolve("directive.yaml");
+        Files.writeString(file, "%\nformat: zweep-sequence/1\n");
+        assertEquals(ExitCode.USAGE, zweep("check", file.toString()));
+        assertTrue(oneLine().startsWith("zweep: " + file + ":1:2: YAML syntax: expected alphabetic or numeric character, "
+                + "but found \\n(10)"), err.toString());
+    }
+
+    @Test
+    void aBenchDirThatIsNotAFolderIsRefusedBeforeTheServerStarts() throws IOException {
+        Path file = Files.writeString(dir.resolve("not-a-folder"), "x");
+        assertEquals(ExitCode.USAGE, zweep("sim", "--port", "0", "--bench-dir", file.toString()));
+        assertEquals("zweep: --bench-dir: " + file + " is not a folder", oneLine());
     }
 }

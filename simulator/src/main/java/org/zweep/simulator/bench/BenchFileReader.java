@@ -54,21 +54,25 @@ final class BenchFileReader {
     private final Path baseDir;
     private String[] rawLines = new String[0];
 
-    BenchFileReader(String source, Path baseDir) {
+    /** The folders a netlist file must lie in, or null for anywhere. */
+    private final List<Path> folders;
+
+    BenchFileReader(String source, Path baseDir, List<Path> folders) {
         this.source = source;
         this.baseDir = baseDir;
+        this.folders = folders;
     }
 
     BenchSpec read(String yaml) {
-        if (yaml.length() > InputFiles.MAX_FILE_BYTES) {
-            throw new SimulatorInputException(source + ": larger than " + InputFiles.MAX_FILE_BYTES
+        if (yaml.length() > InputFiles.MAX_BENCH_BYTES) {
+            throw new SimulatorInputException(source + ": larger than " + InputFiles.MAX_BENCH_BYTES
                     + " characters, the limit for a bench file");
         }
         rawLines = yaml.split("\r?\n|\r", -1);
         Node root;
         try {
             LoadSettings settings = LoadSettings.builder().setLabel(source).setBufferSize(READ_BUFFER)
-                    .setCodePointLimit(InputFiles.MAX_FILE_BYTES).setMaxAliasesForCollections(MAX_ALIASES).build();
+                    .setCodePointLimit(InputFiles.MAX_BENCH_BYTES).setMaxAliasesForCollections(MAX_ALIASES).build();
             checkLimits(new Parse(settings).parseString(yaml));
             root = new Compose(settings).composeString(yaml).orElse(null);
         } catch (MarkedYamlEngineException e) {
@@ -76,9 +80,10 @@ final class BenchFileReader {
             int line = m.map(x -> x.getLine() + 1).orElse(1);
             int column = m.map(x -> x.getColumn() + 1).orElse(0);
             throw SimulatorInputException.at(source, line, column,
-                    "not valid YAML: " + e.getProblem());
+                    "not valid YAML: " + SimulatorInputException.oneLine(e.getProblem()));
         } catch (YamlEngineException e) {
-            throw new SimulatorInputException(source + ": not valid YAML: " + e.getMessage(), e);
+            throw new SimulatorInputException(source + ": not valid YAML: "
+                    + SimulatorInputException.oneLine(e.getMessage()), e);
         }
         if (root == null) {
             throw SimulatorInputException.at(source, 1, 0, "the bench file is empty");
@@ -313,9 +318,15 @@ final class BenchFileReader {
 
     private Device netlistFile(ScalarNode node) {
         Path file = baseDir == null ? Path.of(node.getValue()) : baseDir.resolve(node.getValue());
+        if (folders != null) {
+            file = InputFiles.inside(file.toString(), folders);
+            if (file == null) {
+                throw at(node, "netlist file '" + node.getValue() + "' not found in the bench folders");
+            }
+        }
         String text;
         try {
-            text = InputFiles.read(file, "netlist file");
+            text = InputFiles.read(file, "netlist file", InputFiles.MAX_NETLIST_BYTES);
         } catch (SimulatorInputException e) {
             throw at(node, e.getMessage());
         }

@@ -1,6 +1,7 @@
 package org.zweep.simulator.bench;
 
 import java.nio.file.Path;
+import java.util.List;
 import org.zweep.simulator.InputFiles;
 import org.zweep.simulator.SimulatorInputException;
 import org.zweep.simulator.netlist.Netlist;
@@ -33,9 +34,21 @@ public final class BenchSpec {
      *     or is not a valid bench description
      */
     public static BenchSpec load(Path file) {
-        String text = InputFiles.read(file, "bench file");
+        String text = InputFiles.read(file, "bench file", InputFiles.MAX_BENCH_BYTES);
         Path parent = file.toAbsolutePath().getParent();
-        return parse(text, file.toString(), parent);
+        return new BenchFileReader(file.toString(), parent, null).read(text);
+    }
+
+    /**
+     * Reads a bench file whose {@code netlist_file}, if any, must lie inside {@code folders} too
+     * (what {@code SIMulate:BENCh} loads: a client must not reach other files through it).
+     *
+     * @throws SimulatorInputException as {@link #load(Path)}, and for a netlist file outside the folders
+     */
+    public static BenchSpec load(Path file, List<Path> folders) {
+        String text = InputFiles.read(file, "bench file", InputFiles.MAX_BENCH_BYTES);
+        Path parent = file.toAbsolutePath().getParent();
+        return new BenchFileReader(file.toString(), parent, List.copyOf(folders)).read(text);
     }
 
     /**
@@ -47,7 +60,7 @@ public final class BenchSpec {
      * @throws SimulatorInputException with {@code source:line:column} for invalid content
      */
     public static BenchSpec parse(String yaml, String sourceName, Path baseDir) {
-        return new BenchFileReader(sourceName, baseDir).read(yaml);
+        return new BenchFileReader(sourceName, baseDir, null).read(yaml);
     }
 
     /**
@@ -69,7 +82,7 @@ public final class BenchSpec {
      *     naming the file when it cannot be read or is too large
      */
     public static BenchSpec ofNetlistFile(Path file) {
-        return ofNetlist(InputFiles.read(file, "netlist file"), file.toString());
+        return ofNetlist(InputFiles.read(file, "netlist file", InputFiles.MAX_NETLIST_BYTES), file.toString());
     }
 
     /**

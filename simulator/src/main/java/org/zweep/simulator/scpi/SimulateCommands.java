@@ -1,7 +1,5 @@
 package org.zweep.simulator.scpi;
 
-import java.nio.file.Files;
-import java.nio.file.Path;
 import org.zweep.simulator.SimulatorInputException;
 import org.zweep.simulator.bench.Bench;
 import org.zweep.simulator.bench.FixtureSlot;
@@ -107,12 +105,9 @@ final class SimulateCommands {
         });
         b.on("SIMulate:BENCh", c -> {
             c.count(1, 1);
-            Path file = Path.of(c.string(0));
-            if (!Files.isRegularFile(file)) {
-                throw new ScpiException(StandardError.FILE_NAME_NOT_FOUND, file.toString());
-            }
+            String name = c.string(0);
             BenchLoader loader = loader(in);
-            in.setBench(load(() -> loader.load(file)));
+            in.setBench(load(() -> loader.load(name)));
             return null;
         });
     }

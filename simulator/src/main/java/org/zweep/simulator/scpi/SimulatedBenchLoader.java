@@ -1,6 +1,8 @@
 package org.zweep.simulator.scpi;
 
 import java.nio.file.Path;
+import java.util.List;
+import org.zweep.simulator.InputFiles;
 import org.zweep.simulator.bench.Bench;
 import org.zweep.simulator.bench.BenchSpec;
 import org.zweep.simulator.bench.SimulatedBench;
@@ -10,10 +12,12 @@ import org.zweep.simulator.bench.Timing;
 final class SimulatedBenchLoader implements BenchLoader {
     private final boolean ideal;
     private final TimingModel timing;
+    private final List<Path> folders;
 
-    SimulatedBenchLoader(boolean ideal, TimingModel timing) {
+    SimulatedBenchLoader(boolean ideal, TimingModel timing, List<Path> folders) {
         this.ideal = ideal;
         this.timing = timing;
+        this.folders = folders;
     }
 
     private SimulatedBench make(BenchSpec spec) {
@@ -22,8 +26,17 @@ final class SimulatedBenchLoader implements BenchLoader {
     }
 
     @Override
-    public Bench load(Path benchFile) {
-        return make(BenchSpec.load(benchFile));
+    public Bench load(String name) {
+        if (folders.isEmpty()) {
+            throw new ScpiException(StandardError.EXECUTION_ERROR,
+                    "bench files are read only from the folders given with --bench-dir, and none was given");
+        }
+        Path file = InputFiles.inside(name, folders);
+        if (file == null) {
+            String shown = name.length() > 80 ? name.substring(0, 80) + "..." : name;
+            throw new ScpiException(StandardError.FILE_NAME_NOT_FOUND, shown + " is not a file in the bench folders");
+        }
+        return make(BenchSpec.load(file, folders));
     }
 
     @Override

@@ -8,17 +8,17 @@ import java.time.Duration;
 import java.util.ArrayDeque;
 import java.util.Deque;
 import java.util.Random;
-import java.util.concurrent.ExecutorService;
-import java.util.concurrent.Executors;
-import java.util.concurrent.Future;
 import org.zweep.simulator.scpi.MessageFramer;
 import org.zweep.simulator.scpi.Session;
 import org.zweep.simulator.scpi.StandardError;
 
 /**
- * One client connection: a reader thread that frames, executes and answers messages in order,
- * and (only once a reply is delayed or fragmented) a writer thread that sends replies late, so
- * that the reader can see a new message arrive before an old reply is out (-410 in strict mode).
+ * One client connection: a reader thread that frames and executes messages in order, and a writer
+ * thread that sends the replies from the connection's output queue (IEEE 488.2 §6.1.10), so the
+ * reader never blocks on a client that does not read. The queue is bounded per connection and
+ * across the server; a reply that does not fit is a deadlock in IEEE 488.2's sense (§6.3.1.7):
+ * the queue is cleared, the reply discarded and {@code -430 Query DEADLOCKED} reported, and the
+ * connection reads on. A reply always fits an empty queue, whatever its size.
  */
 final class Connection implements Session.Hooks {
     private final SimulatorServer server;
@@ -26,9 +26,13 @@ final class Connection implements Session.Hooks {
     private final Link link;
     private final ConnectionFaults faults;
     private final Session session;
-    private final Object writeLock = new Object();
-    private final Deque<Future<?>> inflight = new ArrayDeque<>();
-    private ExecutorService writer;
+    /** The output queue; guarded by {@code this}. */
+    private final Deque<Pending> queue = new ArrayDeque<>();
+    /** The entry the writer is sending now, or null; guarded by {@code this}. */
+    private Pending writing;
+    /** Bytes in the queue and in {@link #writing}; guarded by {@code this}. */
+    private long queuedBytes;
+    private Thread writer;
     private volatile Thread readerThread;
     private volatile boolean stalled;
     private volatile boolean closed;
@@ -110,6 +114,9 @@ final class Connection implements Session.Hooks {
             if (!closed) {
                 closeReason = "connection lost: " + e.getMessage();
             }
+        } catch (RuntimeException e) {
+            // a bug of ours: one log line and this connection closed, never a stack trace or the server
+            closeReason = "internal error: " + e;
         } finally {
             close(closeReason);
         }
@@ -117,7 +124,7 @@ final class Connection implements Session.Hooks {
 
     private void exchange(byte[] message) throws IOException {
         messages++;
-        if (session.strict() && outputPending()) {
+        if (session.strict() && outputPendingAfterPlainWrites()) {
             clearOutput();
             session.report(StandardError.QUERY_INTERRUPTED, "a new message arrived before the reply was sent");
         }
@@ -164,11 +171,7 @@ final class Connection implements Session.Hooks {
         for (Fault f : faults.at(Phase.COMPLETE, messages)) {
             if (f instanceof Fault.Drop) {
                 String why = "fault: drop after message " + messages;
-                if (hasWriter()) {
-                    submit(() -> drop(why));
-                } else {
-                    drop(why);
-                }
+                enqueue(new Pending(null, Duration.ZERO, null, () -> drop(why)));
                 return;
             }
         }
@@ -191,73 +194,191 @@ final class Connection implements Session.Hooks {
         }
     }
 
-    private void send(byte[] bytes, Duration delay, Fault.Fragment fragment) throws IOException {
-        if (delay.isZero() && fragment == null && !hasWriter()) {
-            synchronized (writeLock) {
-                OutputStream o = link.output();
-                o.write(bytes);
-                o.flush();
-            }
-            return;
+    /** One entry of the output queue: a reply (with its faults) or an action such as a drop. */
+    private static final class Pending {
+        final byte[] bytes;
+        final Duration delay;
+        final Fault.Fragment fragment;
+        final Runnable action;
+        boolean cancelled; // guarded by the connection
+
+        Pending(byte[] bytes, Duration delay, Fault.Fragment fragment, Runnable action) {
+            this.bytes = bytes;
+            this.delay = delay;
+            this.fragment = fragment;
+            this.action = action;
         }
-        submit(() -> {
-            try {
-                if (!delay.isZero()) {
-                    Thread.sleep(delay.toMillis(), delay.toNanosPart() % 1_000_000);
+
+        long size() {
+            return bytes == null ? 0 : bytes.length;
+        }
+
+        /** Sent at once, in one write: gone as soon as the link takes it. */
+        boolean plain() {
+            return action == null && delay.isZero() && fragment == null;
+        }
+    }
+
+    private void send(byte[] bytes, Duration delay, Fault.Fragment fragment) {
+        enqueue(new Pending(bytes, delay, fragment, null));
+    }
+
+    private void enqueue(Pending p) {
+        boolean deadlocked = false;
+        synchronized (this) {
+            if (closed) {
+                return;
+            }
+            long n = p.size();
+            boolean empty = queue.isEmpty() && writing == null;
+            if (empty) {
+                server.takeOutput(n);
+            } else if (queuedBytes + n > server.options().maxOutputBytes() || !server.tryTakeOutput(n)) {
+                deadlocked = true;
+            }
+            if (!deadlocked) {
+                queue.addLast(p);
+                queuedBytes += n;
+                if (writer == null) {
+                    writer = new Thread(this::writeLoop, "zweep-sim-writer-" + id);
+                    writer.setDaemon(true);
+                    writer.start();
                 }
-                synchronized (writeLock) {
-                    OutputStream o = link.output();
-                    if (fragment == null) {
-                        o.write(bytes);
-                        o.flush();
-                    } else {
-                        for (int i = 0; i < bytes.length; i += fragment.bytes()) {
-                            if (i > 0) {
-                                Thread.sleep(fragment.gap().toMillis(), fragment.gap().toNanosPart() % 1_000_000);
-                            }
-                            o.write(bytes, i, Math.min(fragment.bytes(), bytes.length - i));
-                            o.flush();
-                        }
+                notifyAll();
+            }
+        }
+        if (deadlocked) {
+            clearOutput();
+            session.report(StandardError.QUERY_DEADLOCKED, "output queue full ("
+                    + server.options().maxOutputBytes() + " bytes per connection, "
+                    + server.options().maxTotalOutputBytes() + " in all); the client does not read its replies");
+        }
+    }
+
+    /** The writer thread: sends the queue's entries in order until the connection closes. */
+    private void writeLoop() {
+        while (true) {
+            Pending p;
+            synchronized (this) {
+                while (queue.isEmpty() && !closed) {
+                    if (!waitQuietly(0)) {
+                        return;
                     }
                 }
-            } catch (InterruptedException e) {
-                Thread.currentThread().interrupt();
+                if (closed) {
+                    return;
+                }
+                p = queue.pollFirst();
+                writing = p;
+            }
+            try {
+                if (p.action != null) {
+                    p.action.run();
+                } else if (pause(p, p.delay)) {
+                    write(p);
+                }
             } catch (IOException e) {
                 drop("connection lost: " + e.getMessage());
+            } finally {
+                synchronized (this) {
+                    if (writing == p) {
+                        writing = null;
+                        queuedBytes -= p.size();
+                        server.giveOutput(p.size());
+                    }
+                    notifyAll();
+                }
             }
-        });
+        }
     }
 
-    private synchronized boolean hasWriter() {
-        return writer != null;
-    }
-
-    private synchronized void submit(Runnable task) {
-        if (closed) {
+    private void write(Pending p) throws IOException {
+        OutputStream o = link.output();
+        if (p.fragment == null) {
+            o.write(p.bytes);
+            o.flush();
             return;
         }
-        if (writer == null) {
-            writer = Executors.newSingleThreadExecutor(r -> {
-                Thread t = new Thread(r, "zweep-sim-writer-" + id);
-                t.setDaemon(true);
-                return t;
-            });
+        for (int i = 0; i < p.bytes.length; i += p.fragment.bytes()) {
+            if (i > 0 && !pause(p, p.fragment.gap())) {
+                return;
+            }
+            o.write(p.bytes, i, Math.min(p.fragment.bytes(), p.bytes.length - i));
+            o.flush();
         }
-        inflight.addLast(writer.submit(task));
+    }
+
+    /** Waits {@code d} unless the entry is cancelled or the connection closes; whether to go on. */
+    private synchronized boolean pause(Pending p, Duration d) {
+        long end = System.nanoTime() + d.toNanos();
+        long left;
+        while (!p.cancelled && !closed && (left = end - System.nanoTime()) > 0) {
+            if (!waitQuietly(Math.max(1, left / 1_000_000))) {
+                return false;
+            }
+        }
+        return !p.cancelled && !closed;
+    }
+
+    /** Waits on this connection's monitor; false when interrupted (only closing interrupts). */
+    private boolean waitQuietly(long ms) {
+        try {
+            wait(ms);
+            return true;
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+            return false;
+        }
     }
 
     @Override
     public synchronized boolean outputPending() {
-        inflight.removeIf(Future::isDone);
-        return !inflight.isEmpty();
+        return !queue.isEmpty() || (writing != null && !writing.cancelled && writing.action == null);
     }
 
+    /**
+     * Whether output is still pending once replies that go out in one write have had a moment
+     * (50 ms) to be taken by the link: a reply the client has read may still be on its way out
+     * of the writer thread when the client's next message arrives.
+     */
+    private synchronized boolean outputPendingAfterPlainWrites() {
+        long end = System.nanoTime() + 50_000_000L;
+        long left;
+        while (!closed && outputPending() && onlyPlain() && (left = end - System.nanoTime()) > 0) {
+            if (!waitQuietly(Math.max(1, left / 1_000_000))) {
+                break;
+            }
+        }
+        return outputPending();
+    }
+
+    private boolean onlyPlain() {
+        if (writing != null && !writing.plain()) {
+            return false;
+        }
+        for (Pending p : queue) {
+            if (!p.plain()) {
+                return false;
+            }
+        }
+        return true;
+    }
+
+    /** Discards the replies not yet sent (the one being written finishes); keeps queued actions. */
     @Override
     public synchronized void clearOutput() {
-        for (Future<?> f : inflight) {
-            f.cancel(true);
+        for (java.util.Iterator<Pending> it = queue.iterator(); it.hasNext();) {
+            Pending p = it.next();
+            if (p.action == null) {
+                it.remove();
+                queuedBytes -= p.size();
+                server.giveOutput(p.size());
+            }
         }
-        inflight.clear();
+        if (writing != null && writing.action == null) {
+            writing.cancelled = true;
+        }
+        notifyAll();
     }
 
     /**
@@ -292,13 +413,12 @@ final class Connection implements Session.Hooks {
                 return;
             }
             closed = true;
-            for (Future<?> f : inflight) {
-                f.cancel(true);
+            for (Pending p : queue) {
+                queuedBytes -= p.size();
+                server.giveOutput(p.size());
             }
-            inflight.clear();
-            if (writer != null) {
-                writer.shutdownNow();
-            }
+            queue.clear();
+            notifyAll();
         }
         link.close();
         Thread t = readerThread;

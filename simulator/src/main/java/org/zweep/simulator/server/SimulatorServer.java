@@ -7,7 +7,12 @@ import java.net.InetSocketAddress;
 import java.net.ServerSocket;
 import java.net.Socket;
 import java.util.Set;
+import java.nio.charset.StandardCharsets;
+import java.util.concurrent.ArrayBlockingQueue;
 import java.util.concurrent.ConcurrentHashMap;
+import java.util.concurrent.ExecutorService;
+import java.util.concurrent.ThreadPoolExecutor;
+import java.util.concurrent.TimeUnit;
 import java.util.concurrent.atomic.AtomicLong;
 import org.zweep.simulator.bench.Bench;
 import org.zweep.simulator.scpi.Instrument;
@@ -19,8 +24,9 @@ import org.zweep.simulator.scpi.Instrument;
  * <p>State model: one {@link Instrument} (settings, measurement data, status registers, error
  * queue) is shared by every connection, as on a real meter with several remote clients; each
  * connection has its own parser and header path, output queue, noise-key counter, strictness
- * and faults. Each connection is served by its own thread, so a slow or silent client never
- * blocks another.
+ * and faults. Each connection is served by its own reader and writer threads, so a slow, silent
+ * or non-reading client never blocks another. TCP connections are capped
+ * ({@link ServerOptions#maxConnections()}): one more is told why in one line and closed.
  *
  * <p>Thread-safe. {@link #close()} stops accepting, closes every connection and stops the meter.
  */
@@ -32,6 +38,9 @@ public final class SimulatorServer implements AutoCloseable {
     private final ServerSocket listener;
     private final Set<Connection> connections = ConcurrentHashMap.newKeySet();
     private final AtomicLong ids = new AtomicLong();
+    /** Bytes in all connections' output queues. */
+    private final AtomicLong outputBytes = new AtomicLong();
+    private final ExecutorService refusals;
     private volatile boolean closed;
 
     private SimulatorServer(Bench bench, ServerOptions options) throws IOException {
@@ -41,7 +50,8 @@ public final class SimulatorServer implements AutoCloseable {
             ServerSocket s = new ServerSocket();
             try {
                 s.setReuseAddress(true);
-                s.bind(new InetSocketAddress(options.bindAddress(), options.port()), 50);
+                // a burst of up to the cap waits in the kernel; a full backlog drops SYNs and costs a client 1 s
+                s.bind(new InetSocketAddress(options.bindAddress(), options.port()), Math.max(50, options.maxConnections() + 16));
             } catch (IOException e) {
                 s.close();
                 instrument.close();
@@ -49,11 +59,18 @@ public final class SimulatorServer implements AutoCloseable {
                         + ": " + e.getMessage(), e);
             }
             this.listener = s;
+            this.refusals = new ThreadPoolExecutor(1, 1, 1, TimeUnit.SECONDS, new ArrayBlockingQueue<>(64), r -> {
+                Thread t = new Thread(r, "zweep-sim-refuse-" + s.getLocalPort());
+                t.setDaemon(true);
+                return t;
+            }, (r, pool) -> ((Refusal) r).close());
+            ((ThreadPoolExecutor) refusals).allowCoreThreadTimeOut(true);
             Thread t = new Thread(this::acceptLoop, "zweep-sim-accept-" + s.getLocalPort());
             t.setDaemon(true);
             t.start();
         } else {
             this.listener = null;
+            this.refusals = null;
         }
     }
 
@@ -145,6 +162,10 @@ public final class SimulatorServer implements AutoCloseable {
                 }
                 continue;
             }
+            if (connections.size() >= options.maxConnections()) {
+                refuse(s);
+                continue;
+            }
             try {
                 s.setTcpNoDelay(true);
                 serve(new Connection(this, ids.incrementAndGet(), socketLink(s), options.faults()));
@@ -153,6 +174,63 @@ public final class SimulatorServer implements AutoCloseable {
                 closeQuietly(s);
             }
         }
+    }
+
+    /** Says why on the refused socket, then closes it once the client has had time to read that. */
+    private record Refusal(Socket socket, String line) implements Runnable {
+        @Override
+        public void run() {
+            try (Socket s = socket) {
+                s.setSoTimeout(200);
+                s.getOutputStream().write(line.getBytes(StandardCharsets.US_ASCII));
+                s.shutdownOutput();
+                InputStream in = s.getInputStream();
+                byte[] sink = new byte[4096];
+                long end = System.nanoTime() + 200_000_000L;
+                while (System.nanoTime() < end && in.read(sink) >= 0) {
+                    // drain what the client sent, so closing does not reset the line away
+                }
+            } catch (IOException e) {
+                // the client went away first: nothing to tell
+            }
+        }
+
+        void close() {
+            closeQuietly(socket);
+        }
+    }
+
+    private void refuse(Socket s) {
+        String why = "connection refused: " + options.maxConnections() + " connections are open, the simulator's limit";
+        log(why + " (from " + s.getInetAddress().getHostAddress() + ":" + s.getPort() + ")");
+        refusals.execute(new Refusal(s, "zweep sim: " + why + "\n"));
+    }
+
+    /** Counts {@code n} bytes into the output total unconditionally (a reply into an empty queue). */
+    void takeOutput(long n) {
+        outputBytes.addAndGet(n);
+    }
+
+    /** Counts {@code n} bytes into the output total if the total stays within its limit. */
+    boolean tryTakeOutput(long n) {
+        long now;
+        do {
+            now = outputBytes.get();
+            if (now + n > options.maxTotalOutputBytes()) {
+                return false;
+            }
+        } while (!outputBytes.compareAndSet(now, now + n));
+        return true;
+    }
+
+    /** Returns {@code n} bytes to the output total. */
+    void giveOutput(long n) {
+        outputBytes.addAndGet(-n);
+    }
+
+    /** Bytes held in all connections' output queues now. */
+    public long outputQueueBytes() {
+        return outputBytes.get();
     }
 
     private static Link socketLink(Socket s) throws IOException {
@@ -230,6 +308,9 @@ public final class SimulatorServer implements AutoCloseable {
         }
         for (Connection c : connections) {
             c.close("server stopped");
+        }
+        if (refusals != null) {
+            refusals.shutdownNow();
         }
         instrument.close();
     }

@@ -3,7 +3,12 @@ package org.zweep.simulator.scpi;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
+import java.io.IOException;
 import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.List;
+import org.junit.jupiter.api.io.TempDir;
 import java.util.Arrays;
 import org.junit.jupiter.api.AfterEach;
 import org.junit.jupiter.api.Test;
@@ -15,10 +20,11 @@ import org.zweep.simulator.bench.Wiring;
 
 /** The SIMulate subsystem on the physics bench: slot, wiring, seed, devices and bench files. */
 class SimulateCommandsTest {
+    private static final Path BENCHES = Path.of("../sequences/benches");
     private final SimulatedBench bench = new SimulatedBench(
             BenchSpec.ofNetlist("R1 hi lo 100", "test").ideal().withTiming(Timing.NONE));
     private final Instrument in = new Instrument(bench, InstrumentOptions.defaults().withTiming(TimingModel.NONE)
-            .withBenchLoader(BenchLoader.simulated(true, TimingModel.NONE)));
+            .withBenchLoader(BenchLoader.simulated(true, TimingModel.NONE, List.of(BENCHES))));
     private final Session s = in.openSession(Session.Hooks.NONE);
 
     @AfterEach
@@ -80,12 +86,67 @@ class SimulateCommandsTest {
 
     @Test
     void aBenchFileLoadsItsDevice() {
-        send("SIM:BENC \"../sequences/benches/kp-c0805-104.bench.yaml\"");
+        send("SIM:BENC \"kp-c0805-104.bench.yaml\"");
         assertEquals(0, nextError());
         double[] z = read();
         assertTrue(z[1] < 0, "a capacitor reads a negative reactance (DESIGN.md convention): " + z[1]);
         // 100 nF at 1 kHz: |X| ≈ 1/(2π·1e3·1e-7) ≈ 1592 Ω before derating, common practice
         assertTrue(Math.abs(z[1]) > 1000 && Math.abs(z[1]) < 3000, Double.toString(z[1]));
+    }
+
+    @Test
+    void aBenchFileOutsideTheBenchFoldersIsNotFoundWhetherItExistsOrNot(@TempDir Path dir) throws IOException {
+        // issue 17, item 7: SIMulate:BENCh read any file on the simulator's machine
+        Path benches = Files.createDirectory(dir.resolve("benches"));
+        Path outside = Files.createDirectory(dir.resolve("outside"));
+        Files.writeString(outside.resolve("secret.bench.yaml"), "device: {resistor_ohm: 1}\n");
+        Files.createSymbolicLink(benches.resolve("link.bench.yaml"), outside.resolve("secret.bench.yaml"));
+        Instrument other = new Instrument(bench, InstrumentOptions.defaults().withTiming(TimingModel.NONE)
+                .withBenchLoader(BenchLoader.simulated(true, TimingModel.NONE, List.of(benches))));
+        try {
+            Session o = other.openSession(Session.Hooks.NONE);
+            for (String name : new String[] {"/etc/hostname", "/etc/no-such-file", "../outside/secret.bench.yaml",
+                    outside.resolve("secret.bench.yaml").toString(), "link.bench.yaml"}) {
+                o.execute(("SIM:BENC \"" + name + "\"").getBytes(StandardCharsets.US_ASCII));
+                String text = new String(o.execute("SYST:ERR?".getBytes(StandardCharsets.US_ASCII)),
+                        StandardCharsets.US_ASCII).strip();
+                assertEquals("-256,\"File name not found;" + name + " is not a file in the bench folders\"", text, name);
+            }
+        } finally {
+            other.close();
+        }
+        assertEquals(100, read()[0], 1e-6); // the bench is unchanged
+    }
+
+    @Test
+    void aBenchWhoseNetlistFileLiesOutsideTheBenchFoldersIsRefused(@TempDir Path dir) throws IOException {
+        Files.writeString(dir.resolve("evil.bench.yaml"), "device:\n  netlist_file: /etc/hostname\n");
+        Instrument other = new Instrument(bench, InstrumentOptions.defaults().withTiming(TimingModel.NONE)
+                .withBenchLoader(BenchLoader.simulated(true, TimingModel.NONE, List.of(dir))));
+        try {
+            Session o = other.openSession(Session.Hooks.NONE);
+            o.execute("SIM:BENC \"evil.bench.yaml\"".getBytes(StandardCharsets.US_ASCII));
+            byte[] e = o.execute("SYST:ERR?".getBytes(StandardCharsets.US_ASCII));
+            String text = new String(e, StandardCharsets.US_ASCII);
+            assertTrue(text.startsWith("-200,") && text.contains("netlist file '/etc/hostname' not found in the bench folders"),
+                    text);
+        } finally {
+            other.close();
+        }
+    }
+
+    @Test
+    void withoutBenchFoldersSimulateBenchIsRefused() {
+        Instrument other = new Instrument(bench, InstrumentOptions.defaults().withTiming(TimingModel.NONE)
+                .withBenchLoader(BenchLoader.simulated(true, TimingModel.NONE)));
+        try {
+            Session o = other.openSession(Session.Hooks.NONE);
+            o.execute("SIM:BENC \"kp-c0805-104.bench.yaml\"".getBytes(StandardCharsets.US_ASCII));
+            String text = new String(o.execute("SYST:ERR?".getBytes(StandardCharsets.US_ASCII)), StandardCharsets.US_ASCII);
+            assertTrue(text.startsWith("-200,") && text.contains("--bench-dir"), text);
+        } finally {
+            other.close();
+        }
     }
 
     @Test

@@ -129,22 +129,28 @@ class FaultIT {
     @Test
     void aFragmentedReplyComesInSmallPieces() throws IOException {
         start(FaultPlan.none());
+        int pieces = (IDN.length() + 1 + 4) / 5;
+        int firstPieceMin = Integer.MAX_VALUE;
         try (RawClient c = new RawClient(server)) {
-            c.send("SIM:FAUL:FRAG 5");
-            long t0 = System.nanoTime();
-            c.send("*IDN?");
-            byte[] first = c.readSome();
-            ByteArrayOutputStream all = new ByteArrayOutputStream();
-            all.writeBytes(first);
-            String rest = c.readLine();
-            double tookMs = (System.nanoTime() - t0) / 1e6;
-            all.writeBytes(rest.getBytes(StandardCharsets.US_ASCII));
-            assertEquals(IDN, all.toString(StandardCharsets.US_ASCII));
-            // pieces of 5 bytes, FRAGMENT_GAP apart: the whole reply cannot arrive sooner than its gaps add up
-            // (a lower bound, so a loaded machine that reads several pieces at once still passes)
-            int pieces = (IDN.length() + 1 + 4) / 5;
-            assertTrue(tookMs >= (pieces - 1) * FaultPlan.FRAGMENT_GAP.toNanos() / 1e6, "took " + tookMs + " ms");
+            for (int attempt = 0; attempt < 3; attempt++) {
+                c.send("SIM:FAUL:FRAG 5");
+                long t0 = System.nanoTime();
+                c.send("*IDN?");
+                byte[] first = c.readSome();
+                firstPieceMin = Math.min(firstPieceMin, first.length);
+                ByteArrayOutputStream all = new ByteArrayOutputStream();
+                all.writeBytes(first);
+                if (first[first.length - 1] != '\n') {
+                    all.writeBytes(c.readLine().getBytes(StandardCharsets.US_ASCII));
+                }
+                double tookMs = (System.nanoTime() - t0) / 1e6;
+                // pieces FRAGMENT_GAP apart: a load on the machine can only make this longer
+                assertTrue(tookMs >= (pieces - 1) * FaultPlan.FRAGMENT_GAP.toNanos() / 1e6, "took " + tookMs + " ms");
+                assertEquals(IDN, all.toString(StandardCharsets.US_ASCII).strip());
+            }
         }
+        // a read that comes in time sees one piece; of three, at least one does even on a busy machine
+        assertTrue(firstPieceMin <= 5, "smallest first piece " + firstPieceMin + " bytes");
     }
 
     @Test
