@@ -418,6 +418,9 @@ public final class ScpiClient implements ScpiSession {
      * When a reply must be complete: {@code expectedMillis} of the meter's work plus
      * {@code slackMillis}, counted from when the query was sent.
      */
+    /** How early a transport's timed-out read may come back (its millisecond rounding) and still be read again. */
+    private static final long EARLY_MILLIS = 2;
+
     private record Deadline(long atNanos, long expectedMillis, long slackMillis) {
         long totalMillis() {
             return expectedMillis + slackMillis;
@@ -602,6 +605,10 @@ public final class ScpiClient implements ScpiSession {
         while (got < length) {
             long left = d.remainingMillis();
             int n = left == 0 ? 0 : read(data, header + got, (int) length - got, left, message, got);
+            // a transport counting whole milliseconds may give up a fraction of one early: wait out the rest
+            while (n == 0 && (left = d.remainingMillis()) > 0 && left <= EARLY_MILLIS) {
+                n = read(data, header + got, (int) length - got, left, message, got);
+            }
             if (n == 0) {
                 outOfStep = true;
                 event("deadline passed after " + d.totalMillis() + " ms in the block replying to '" + message + "'");
@@ -631,6 +638,10 @@ public final class ScpiClient implements ScpiSession {
     private void fill(String message, Deadline d, int receivedSoFar) {
         long left = d.remainingMillis();
         int n = left == 0 ? 0 : read(buf, 0, buf.length, left, message, receivedSoFar);
+        // a transport counting whole milliseconds may give up a fraction of one early: wait out the rest
+        while (n == 0 && (left = d.remainingMillis()) > 0 && left <= EARLY_MILLIS) {
+            n = read(buf, 0, buf.length, left, message, receivedSoFar);
+        }
         if (n == 0) {
             outOfStep = true;
             byte[] got = Arrays.copyOf(line, receivedSoFar);

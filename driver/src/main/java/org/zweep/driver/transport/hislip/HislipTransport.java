@@ -223,7 +223,7 @@ public final class HislipTransport implements Transport {
         long deadline = System.nanoTime() + Math.max(1, timeoutMillis) * 1_000_000L;
         try {
             while (true) {
-                long left = Math.max(1, (deadline - System.nanoTime()) / 1_000_000L);
+                long left = Math.max(1, (deadline - System.nanoTime() + 999_999L) / 1_000_000L);
                 if (payloadLeft > 0) {
                     byte[] into = delivering ? buffer : new byte[(int) Math.min(payloadLeft, 8192)];
                     int off = delivering ? offset : 0;

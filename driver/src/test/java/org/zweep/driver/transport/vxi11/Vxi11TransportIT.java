@@ -161,8 +161,14 @@ class Vxi11TransportIT {
         try (Vxi11Transport t = Vxi11Transport.connect(a, OPTIONS)) {
             assertEquals(0, t.readStatusByte() & 0x10, "MAV with nothing to read");
             send(t, "*IDN?\n");
-            // IEEE 488.2 §11.2: bit 4 (16), MAV, is set while the output queue holds a message
-            assertEquals(0x10, t.readStatusByte() & 0x10, "MAV with the reply unread");
+            // IEEE 488.2 §11.2: bit 4 (16), MAV, is set while the output queue holds a message (once the
+            // device has executed the query, which it does after device_write has returned)
+            long until = System.nanoTime() + 2_000_000_000L;
+            int stb = t.readStatusByte();
+            while ((stb & 0x10) == 0 && System.nanoTime() < until) {
+                stb = t.readStatusByte();
+            }
+            assertEquals(0x10, stb & 0x10, "MAV with the reply unread");
             t.clear();
             assertEquals(0, t.readStatusByte() & 0x10, "MAV after device clear");
             send(t, "*OPC?\n");
