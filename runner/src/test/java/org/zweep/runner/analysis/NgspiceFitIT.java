@@ -1,17 +1,15 @@
 package org.zweep.runner.analysis;
 
+import org.zweep.runner.testsupport.Ngspice;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertNull;
 import static org.junit.jupiter.api.Assertions.assertTrue;
-import static org.junit.jupiter.api.Assertions.fail;
 
-import java.io.File;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.concurrent.TimeUnit;
-import org.junit.jupiter.api.Assumptions;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.zweep.driver.impedance.Impedance;
@@ -24,18 +22,6 @@ class NgspiceFitIT {
     @TempDir
     Path tmp;
 
-    private static String ngspice() {
-        for (String dir : System.getenv().getOrDefault("PATH", "").split(File.pathSeparator)) {
-            if (Files.isExecutable(Path.of(dir, "ngspice"))) {
-                return Path.of(dir, "ngspice").toString();
-            }
-        }
-        if ("true".equals(System.getenv("CI"))) {
-            fail("ngspice is not installed (apt-get install -y ngspice); CI must run the circuit reference");
-        }
-        Assumptions.abort("ngspice not installed");
-        return null;
-    }
 
     /** Runs {@code elements} (between nodes {@code in} and 0) through an AC sweep and returns Z per frequency. */
     private List<Impedance> sweep(String title, String elements, String ac) throws Exception {
@@ -45,7 +31,7 @@ class NgspiceFitIT {
                 + ".endc\n.end\n";
         Path cir = tmp.resolve("deck-" + System.nanoTime() + ".cir");
         Files.writeString(cir, deck);
-        Process p = new ProcessBuilder(ngspice(), "-b", cir.toString()).redirectErrorStream(true)
+        Process p = new ProcessBuilder(Ngspice.executable(), "-b", cir.toString()).redirectErrorStream(true)
                 .redirectOutput(tmp.resolve("ngspice.log").toFile()).start();
         assertTrue(p.waitFor(60, TimeUnit.SECONDS), "ngspice finished");
         assertEquals(0, p.exitValue(), Files.readString(tmp.resolve("ngspice.log")));

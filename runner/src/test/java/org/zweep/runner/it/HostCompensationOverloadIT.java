@@ -1,21 +1,19 @@
 package org.zweep.runner.it;
 
+import org.zweep.runner.testsupport.Ngspice;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertNotNull;
 import static org.junit.jupiter.api.Assertions.assertTrue;
-import static org.junit.jupiter.api.Assertions.fail;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
-import java.io.File;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
 import java.util.concurrent.TimeUnit;
-import org.junit.jupiter.api.Assumptions;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.zweep.driver.impedance.Impedance;
@@ -41,18 +39,6 @@ class HostCompensationOverloadIT {
     @TempDir
     Path dir;
 
-    private static String ngspice() {
-        for (String d : System.getenv().getOrDefault("PATH", "").split(File.pathSeparator)) {
-            if (Files.isExecutable(Path.of(d, "ngspice"))) {
-                return Path.of(d, "ngspice").toString();
-            }
-        }
-        if ("true".equals(System.getenv("CI"))) {
-            fail("ngspice is not installed (apt-get install -y ngspice); CI must run the circuit reference");
-        }
-        Assumptions.abort("ngspice not installed");
-        return null;
-    }
 
     /** The device's impedance by ngspice at {@code ac} (e.g. {@code dec 5 100 1meg}). */
     private List<Impedance> ngspiceSweep(String ac) throws Exception {
@@ -62,7 +48,7 @@ class HostCompensationOverloadIT {
                 + "\nlet z = v(in)/(-i(V1))\nwrdata " + out + " real(z) imag(z)\nquit\n.endc\n.end\n";
         Path cir = dir.resolve("deck.cir");
         Files.writeString(cir, deck);
-        Process p = new ProcessBuilder(ngspice(), "-b", cir.toString()).redirectErrorStream(true)
+        Process p = new ProcessBuilder(Ngspice.executable(), "-b", cir.toString()).redirectErrorStream(true)
                 .redirectOutput(dir.resolve("ngspice.log").toFile()).start();
         assertTrue(p.waitFor(60, TimeUnit.SECONDS), "ngspice finished");
         assertEquals(0, p.exitValue(), Files.readString(dir.resolve("ngspice.log")));

@@ -1,10 +1,9 @@
 package org.zweep.runner.it;
 
+import org.zweep.runner.testsupport.Ngspice;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
-import static org.junit.jupiter.api.Assertions.fail;
 
-import java.io.File;
 import java.io.InputStream;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
@@ -16,7 +15,6 @@ import java.util.Locale;
 import java.util.Map;
 import java.util.TreeMap;
 import java.util.concurrent.TimeUnit;
-import org.junit.jupiter.api.Assumptions;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.zweep.driver.dialect.Dialect;
@@ -72,18 +70,6 @@ class UncertaintyCoverageIT {
             new Device("leaky", "capacitor", "10 nF", "R1 hi a 0.2\nL1 a b 2n\nC1 b lo 10n\nR2 b lo 200k",
                     "{start: 100 Hz, stop: 10 MHz, points: 25, spacing: log}"));
 
-    private static String ngspice() {
-        for (String d : System.getenv().getOrDefault("PATH", "").split(File.pathSeparator)) {
-            if (Files.isExecutable(Path.of(d, "ngspice"))) {
-                return Path.of(d, "ngspice").toString();
-            }
-        }
-        if ("true".equals(System.getenv("CI"))) {
-            fail("ngspice is not installed (apt-get install -y ngspice); CI must run the circuit reference");
-        }
-        Assumptions.abort("ngspice not installed");
-        return null;
-    }
 
     /** The netlist's impedance at each frequency, by ngspice (AC analysis, 1 V source, Z = V/I). */
     private Map<Double, Impedance> truth(Device d, List<Double> frequencies) throws Exception {
@@ -98,7 +84,7 @@ class UncertaintyCoverageIT {
                 + "set wr_singlescale\nset appendwrite\noption numdgt=15\n" + control + "quit\n.endc\n.end\n";
         Path cir = dir.resolve(d.name() + ".cir");
         Files.writeString(cir, deck);
-        Process p = new ProcessBuilder(ngspice(), "-b", cir.toString()).redirectErrorStream(true)
+        Process p = new ProcessBuilder(Ngspice.executable(), "-b", cir.toString()).redirectErrorStream(true)
                 .redirectOutput(dir.resolve(d.name() + "-ngspice.log").toFile()).start();
         assertTrue(p.waitFor(60, TimeUnit.SECONDS), "ngspice finished");
         assertEquals(0, p.exitValue(), Files.readString(dir.resolve(d.name() + "-ngspice.log")));

@@ -1,0 +1,2 @@
+/** Helpers shared by the runner tests. */
+package org.zweep.runner.testsupport;
