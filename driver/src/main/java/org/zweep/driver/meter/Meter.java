@@ -64,6 +64,14 @@ public interface Meter extends AutoCloseable {
     /** Switches the meter's own fixture correction on or off. */
     void setCorrectionEnabled(boolean enabled);
 
+    /**
+     * What the meter itself can switch in its fixture (a motorised fixture or a handler the
+     * meter's dialect declares), or empty when an operator or a hook must do it. The default is empty.
+     */
+    default java.util.Optional<FixtureControl> fixture() {
+        return java.util.Optional.empty();
+    }
+
     /** Switches DC bias off now. Safe to call at any time, also when bias is already off. */
     void biasOff();
 
