@@ -138,7 +138,7 @@ public final class DialectMeter implements Meter {
                 stated(c.currentLevelArms(), Command.LIMIT_CURRENT_LEVEL_MIN, Command.LIMIT_CURRENT_LEVEL_MAX),
                 stated(c.biasVoltageV(), Command.LIMIT_BIAS_VOLTAGE_MIN, Command.LIMIT_BIAS_VOLTAGE_MAX),
                 stated(c.biasCurrentA(), Command.LIMIT_BIAS_CURRENT_MIN, Command.LIMIT_BIAS_CURRENT_MAX),
-                c.maxListPoints(), c.corrections(), c.voltageRatio());
+                c.maxListPoints(), c.corrections(), c.voltageRatio(), c.correctionStyle());
     }
 
     /** {@code declared} with each end the meter answers for in its place. */

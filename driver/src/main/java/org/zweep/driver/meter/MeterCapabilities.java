@@ -13,6 +13,7 @@ import java.util.Set;
  * @param maxListPoints the most points one list sweep may hold; 0 when the meter cannot sweep a list
  * @param corrections the fixture corrections the meter can acquire itself (may be empty)
  * @param voltageRatio whether the meter can measure a voltage ratio (for transformer turns ratio)
+ * @param correctionStyle how the meter's own correction applies what it acquired
  */
 public record MeterCapabilities(
         Range frequencyHz,
@@ -22,10 +23,19 @@ public record MeterCapabilities(
         Range biasCurrentA,
         int maxListPoints,
         Set<CorrectionStandard> corrections,
-        boolean voltageRatio) {
+        boolean voltageRatio,
+        CorrectionStyle correctionStyle) {
 
     public MeterCapabilities {
         corrections = Set.copyOf(corrections);
+        java.util.Objects.requireNonNull(correctionStyle, "correctionStyle");
+    }
+
+    /** Capabilities of a meter whose correction covers its whole range ({@link CorrectionStyle#WHOLE_RANGE}). */
+    public MeterCapabilities(Range frequencyHz, Range voltageLevelVrms, Range currentLevelArms, Range biasVoltageV,
+            Range biasCurrentA, int maxListPoints, Set<CorrectionStandard> corrections, boolean voltageRatio) {
+        this(frequencyHz, voltageLevelVrms, currentLevelArms, biasVoltageV, biasCurrentA, maxListPoints, corrections,
+                voltageRatio, CorrectionStyle.WHOLE_RANGE);
     }
 
     /** Whether a whole list of points can be measured with one trigger. */
