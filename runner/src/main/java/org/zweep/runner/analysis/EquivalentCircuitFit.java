@@ -14,7 +14,7 @@ import org.zweep.driver.uncertainty.UncertainImpedance;
 
 /**
  * Fits a {@link CircuitModel} to an impedance sweep by complex nonlinear least squares
- * (check-values.md §10): parameters in log space (positive, comparable scales), residuals
+ * (CNLS, J. R. Macdonald and L. D. Potter, Solid State Ionics 23 (1987) 61–79): parameters in log space (positive, comparable scales), residuals
  * (Z_model − Z)/|Z| with real and imaginary parts stacked (modulus weighting), Levenberg–Marquardt
  * from starting values computed from the data, uncertainties from the covariance at the solution.
  *

@@ -12,7 +12,7 @@ public final class Resonance {
 
     /**
      * The first frequency where the measured reactance changes sign, by linear interpolation of X
-     * in log f between the two points around it (check-values.md §10); {@code NaN} when X keeps
+     * in log f between the two points around it; {@code NaN} when X keeps
      * its sign over the whole sweep.
      *
      * @param ascending the sweep sorted by increasing frequency

@@ -88,7 +88,7 @@ public final class TestRunFolders {
     }
 
     /**
-     * A transformer run of check-values.md §7 X7 [calc]: L1 = 10 mH, n = 4, k = 0.99, so Lsc1 = 199.0 µH and
+     * A transformer run, all figures computed: L1 = 10 mH, n = 4, k = 0.99, so Lsc1 = L1(1 − k²) = 199.0 µH and
      * V1/V2 = L1/M = 4.0404; steps {@code open}, {@code short} and {@code ratio}, at 1 kHz.
      */
     public static TestRunFolders x7Transformer(Path dir) {

@@ -56,7 +56,7 @@ class WeightedFitTest {
                 }
             }
         }
-        // χ²/ν has mean 1 for a right model with right uncertainties (common practice, no source)
+        // χ²/ν has mean 1 for a right model with right uncertainties (the χ² distribution's mean is ν)
         assertEquals(1.0, chi, 0.03);
         for (int k = 0; k < 3; k++) {
             // ±2σ of a normal estimate covers 95.45 % (Abramowitz and Stegun, Table 26.1); 300 runs: ±3.6 % at 3σ
