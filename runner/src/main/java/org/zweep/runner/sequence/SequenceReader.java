@@ -1,5 +1,7 @@
 package org.zweep.runner.sequence;
 
+import org.zweep.config.Suggest;
+import org.zweep.config.YamlNode;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Duration;
