@@ -455,10 +455,8 @@ final class RunLauncher {
         }
         String rule = "";
         if (l.rule() != org.zweep.runner.conformance.DecisionRule.SIMPLE || !Double.isNaN(c.expandedU())) {
-            rule = " [" + l.rule().text()
-                    + (Double.isNaN(c.expandedU()) ? ", U unknown" : ", U = " + Quantities.format(c.expandedU(), c.unit(), 2))
-                    + (Double.isNaN(c.probability()) ? "" : String.format(Locale.ROOT, ", p = %.3f", c.probability()))
-                    + "]";
+            rule = " " + org.zweep.runner.conformance.Conformance.how(l.rule().text(), c.expandedU(), c.probability(),
+                    c.unit());
         }
         return String.format(Locale.ROOT, "check %-22s %s%s in %s = %s: %s%s%s", l.name(), l.parameter(), where,
                 l.step(), value, c.result(), rule, c.note().isEmpty() ? "" : " (" + c.note() + ")");

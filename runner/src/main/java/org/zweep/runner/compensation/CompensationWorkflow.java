@@ -74,7 +74,9 @@ public final class CompensationWorkflow {
         }
         if (fx.compensation() == CompensationMode.METER) {
             meterSide(plan, fx, station);
-            return new FixtureCompensation.Prepared(ReadingCorrector.NONE, new RunManifest.CompensationInfo("meter", names, null));
+            ReadingCorrector loadU = fx.standards().contains(CorrectionStandard.LOAD)
+                    ? new MeterLoadUncertainty(fx.loadStandardU()) : ReadingCorrector.NONE;
+            return new FixtureCompensation.Prepared(loadU, new RunManifest.CompensationInfo("meter", names, null));
         }
         Path runData = folder.dir().resolve(RUN_DATA);
         CompensationData data;
@@ -96,7 +98,7 @@ public final class CompensationWorkflow {
             }
             data.write(runData);
         }
-        HostCorrector corrector = new HostCorrector(data, runData.toString(), fx.loadStandard());
+        HostCorrector corrector = HostCorrector.withStatedLoad(data, runData.toString(), fx.loadStandardU());
         corrector.checkCovers(frequencies(plan));
         List<Double> over = data.openOverRangeHz();
         if (!over.isEmpty()) {
