@@ -84,7 +84,7 @@ class ExportsTest {
         List<String> header = fields(lines.get(0));
         assertEquals(List.of("step", "repeat", "quantity", "wiring", "frequency_hz", "drive", "level", "bias_mode",
                 "bias", "r_ohm", "x_ohm", "z_ohm", "theta_deg", "cs_f", "cp_f", "ls_h", "lp_h", "rs_ohm", "rp_ohm", "d",
-                "q", "ratio"), header);
+                "q", "ratio", "run_id", "serial", "lot", "verdict"), header);
         // three impedance points and the ratio row; the point without a value is left out
         assertEquals(5, lines.size());
         List<String> first = fields(lines.get(1));
