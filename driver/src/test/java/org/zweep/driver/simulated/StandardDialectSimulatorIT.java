@@ -361,9 +361,9 @@ class StandardDialectSimulatorIT {
     @EnumSource(SimulatorLink.Kind.class)
     void real64ReadingsEqualAsciiReadings(SimulatorLink.Kind kind) throws IOException {
         String text = standardDialectText()
-                .replace("encoding = ascii", "encoding = real64-big")
+                .replace("encoding: ascii", "encoding: real64-big")
                 .replace(":FORM ASC;", ":FORM REAL,64;:FORM:BORD NORM;")
-                .replaceFirst("(?m)^name(\\s*)= standard$", "name$1= standard-real64");
+                .replaceFirst("(?m)^  name: standard$", "  name: standard-real64");
         assertTrue(text.contains("real64-big") && text.contains(":FORM REAL,64"), "the dialect text changed shape");
         Dialect binary = Dialect.parse("standard-real64 (test)", text);
         try (SimulatorLink link = SimulatorLink.open(kind, RC)) {
