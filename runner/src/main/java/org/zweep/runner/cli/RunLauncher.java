@@ -74,6 +74,13 @@ final class RunLauncher {
     private Path finishedFolder;
     private java.net.InetSocketAddress live;
 
+    private RunManifest.Identity identity;
+
+    /** Records {@code id} (serial, lot, operator, station) in the runs this launcher starts. */
+    void identity(RunManifest.Identity id) {
+        this.identity = id;
+    }
+
     /** Serves the live page of the runs this launcher starts on {@code bind}. */
     void live(java.net.InetSocketAddress bind) {
         this.live = bind;
@@ -123,9 +130,10 @@ final class RunLauncher {
                 copyDialect(plan, sequenceFile, folder);
                 // written before the meter is reached, so that a run stopped before its first point
                 // (SIGTERM while connecting) leaves a folder that --resume completes
-                RunSession.freshManifest(plan, folder, sequenceFile.toAbsolutePath().toString(),
+                RunManifest first = RunSession.freshManifest(plan, folder, sequenceFile.toAbsolutePath().toString(),
                         new RunManifest.MeterInfo(plan.meter().address(), plan.meter().dialect(), null), o.seed(),
-                        clock, VersionProvider.version()).write(folder.manifest());
+                        clock, VersionProvider.version());
+                first.identified(first.id(), identity).write(folder.manifest());
             } catch (UncheckedIOException e) {
                 // nothing measured yet: the folder is refused (a full disk, permissions)
                 throw new InvalidInputException(e.getMessage(), e);
@@ -455,10 +463,8 @@ final class RunLauncher {
         }
         String rule = "";
         if (l.rule() != org.zweep.runner.conformance.DecisionRule.SIMPLE || !Double.isNaN(c.expandedU())) {
-            rule = " [" + l.rule().text()
-                    + (Double.isNaN(c.expandedU()) ? ", U unknown" : ", U = " + Quantities.format(c.expandedU(), c.unit(), 2))
-                    + (Double.isNaN(c.probability()) ? "" : String.format(Locale.ROOT, ", p = %.3f", c.probability()))
-                    + "]";
+            rule = " " + org.zweep.runner.conformance.Conformance.how(l.rule().text(), c.expandedU(), c.probability(),
+                    c.unit());
         }
         return String.format(Locale.ROOT, "check %-22s %s%s in %s = %s: %s%s%s", l.name(), l.parameter(), where,
                 l.step(), value, c.result(), rule, c.note().isEmpty() ? "" : " (" + c.note() + ")");

@@ -75,18 +75,30 @@ public final class CompensationWorkflow {
         }
         if (fx.compensation() == CompensationMode.METER) {
             meterSide(plan, fx, station);
-            return new FixtureCompensation.Prepared(ReadingCorrector.NONE, new RunManifest.CompensationInfo("meter", names, null));
+            ReadingCorrector loadU = fx.standards().contains(CorrectionStandard.LOAD)
+                    ? new MeterLoadUncertainty(fx.loadStandardU()) : ReadingCorrector.NONE;
+            return new FixtureCompensation.Prepared(loadU, new RunManifest.CompensationInfo("meter", names, null)
+                    .from("measured", null, clock.instant().toString()));
         }
         Path runData = folder.dir().resolve(RUN_DATA);
         CompensationData data;
+        String source = "measured";
+        String reusedFrom = null;
         if (resuming && Files.isRegularFile(runData)) {
             data = CompensationData.read(runData);
+            RunManifest.CompensationInfo before = previous(folder);
+            if (before != null && before.source() != null) {
+                source = before.source();
+                reusedFrom = before.reusedFrom();
+            }
             log.accept("compensation: using the data already in the run folder (measured "
                     + org.zweep.runner.analysis.Si.time(data.info().time()) + ")");
         } else {
             Optional<Path> reusable = findReusable(plan, station, folder, clock.instant());
             if (reusable.isPresent()) {
                 data = CompensationData.read(reusable.get());
+                source = "reused";
+                reusedFrom = reusable.get().toAbsolutePath().normalize().toString();
                 log.accept("compensation: reusing " + reusable.get() + " measured "
                         + org.zweep.runner.analysis.Si.time(data.info().time()));
             } else {
@@ -97,7 +109,7 @@ public final class CompensationWorkflow {
             }
             data.write(runData);
         }
-        HostCorrector corrector = new HostCorrector(data, runData.toString(), fx.loadStandard());
+        HostCorrector corrector = HostCorrector.withStatedLoad(data, runData.toString(), fx.loadStandardU());
         corrector.checkCovers(frequencies(plan));
         List<Double> over = data.openOverRangeHz();
         if (!over.isEmpty()) {
@@ -107,7 +119,17 @@ public final class CompensationWorkflow {
                     + RUN_DATA + " and run.json)");
         }
         return new FixtureCompensation.Prepared(corrector,
-                new RunManifest.CompensationInfo("host", names, RUN_DATA, over.isEmpty() ? null : over));
+                new RunManifest.CompensationInfo("host", names, RUN_DATA, over.isEmpty() ? null : over)
+                        .from(source, reusedFrom, data.time().toString()));
+    }
+
+    /** The compensation record of the run in {@code folder} before it was resumed, or null. */
+    private static RunManifest.CompensationInfo previous(RunFolder folder) {
+        try {
+            return Files.isRegularFile(folder.manifest()) ? RunManifest.read(folder.manifest()).compensation() : null;
+        } catch (InvalidInputException e) {
+            return null;
+        }
     }
 
     private static String span(List<Double> hz) {

@@ -16,6 +16,7 @@ import org.zweep.runner.plan.PlannedPoint;
 import org.zweep.runner.results.PointsCsvReader;
 import org.zweep.runner.results.PointsCsvWriter;
 import org.zweep.runner.results.RunFolder;
+import org.zweep.runner.results.RunId;
 import org.zweep.runner.results.RunManifest;
 import org.zweep.runner.verdict.CheckEvaluator;
 import org.zweep.runner.verdict.CheckOutcome;
@@ -222,9 +223,19 @@ public final class RunSession {
             RunManifest old = RunManifest.read(folder.manifest());
             return new RunManifest(old.format(), old.sequence(), old.part(), old.steps(), old.checks(), meter,
                     old.compensation(), old.software(), old.host(), seed, old.started(), null, old.counts(),
-                    "running", "none");
+                    "running", "none", old.id() != null ? old.id() : RunId.next(setup.clock().instant()),
+                    old.identity());
         }
-        return freshManifest(plan, folder, setup.sequenceFile(), meter, seed, setup.clock(), setup.version());
+        RunManifest fresh = freshManifest(plan, folder, setup.sequenceFile(), meter, seed, setup.clock(),
+                setup.version());
+        if (java.nio.file.Files.isRegularFile(folder.manifest())) {
+            // the launcher wrote the first manifest: keep its id and the part's identity
+            RunManifest first = RunManifest.read(folder.manifest());
+            if (first.id() != null) {
+                fresh = fresh.identified(first.id(), first.identity());
+            }
+        }
+        return fresh;
     }
 
     /**
@@ -249,7 +260,7 @@ public final class RunSession {
                 steps, checks, meter, new RunManifest.CompensationInfo("none", List.of(), null),
                 new RunManifest.SoftwareInfo("zweep", version), host(), seed,
                 clock.instant().toString(), null, new RunManifest.Counts(plan.points().size(), 0), "running",
-                "none");
+                "none", RunId.next(clock.instant()), null);
     }
 
     private static Double finite(double v) {

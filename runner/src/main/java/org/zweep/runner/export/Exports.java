@@ -20,6 +20,7 @@ import org.zweep.runner.analysis.Sweep;
 import org.zweep.runner.results.Csv;
 import org.zweep.runner.results.Derived;
 import org.zweep.runner.results.PointRow;
+import org.zweep.runner.results.RunManifest;
 
 /**
  * Writes a run folder's data as CSV, JSON or Touchstone files. Blocking file I/O; stateless.
@@ -28,7 +29,7 @@ public final class Exports {
     /** The columns of the CSV export, in order. */
     public static final List<String> CSV_COLUMNS = List.of("step", "repeat", "quantity", "wiring", "frequency_hz",
             "drive", "level", "bias_mode", "bias", "r_ohm", "x_ohm", "z_ohm", "theta_deg", "cs_f", "cp_f", "ls_h",
-            "lp_h", "rs_ohm", "rp_ohm", "d", "q", "ratio");
+            "lp_h", "rs_ohm", "rp_ohm", "d", "q", "ratio", "run_id", "serial", "lot", "verdict");
 
     private static final ObjectMapper JSON = new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT);
 
@@ -68,6 +69,10 @@ public final class Exports {
 
     /** Writes every measured row (points with a value) as CSV to {@code file}, streamed from {@code points.csv}. */
     public static void csv(RunData run, Path file) {
+        RunManifest m = run.manifest();
+        RunManifest.Identity id = m.identityOrNone();
+        // the same for every row: which run and part, and the run's verdict (empty when unknown)
+        List<String> whose = List.of(orEmpty(m.id()), orEmpty(id.serial()), orEmpty(id.lot()), orEmpty(m.verdict()));
         try (Writer w = open(file)) {
             w.write(Csv.record(CSV_COLUMNS));
             w.write('\n');
@@ -93,6 +98,7 @@ public final class Exports {
                     cells.add(Csv.number(r.value(d)));
                 }
                 cells.add(Csv.number(r.ratio()));
+                cells.addAll(whose);
                 line.setLength(0);
                 Csv.append(line, cells).append('\n');
                 try {
@@ -169,6 +175,10 @@ public final class Exports {
         } else {
             n.putNull(key);
         }
+    }
+
+    private static String orEmpty(String s) {
+        return s == null ? "" : s;
     }
 
     private static Writer open(Path file) throws IOException {

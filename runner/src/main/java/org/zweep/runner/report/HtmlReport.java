@@ -230,8 +230,9 @@ public final class HtmlReport {
         row(b, "deviation", Double.isFinite(bins.deviationPercent())
                 ? String.format(Locale.ROOT, "%+.3f %%", bins.deviationPercent()) : "—");
         row(b, "IEC 60062 tolerance letter", bins.letter() == null ? "none" : bins.letter());
-        row(b, "measured value within stated tolerance (a bin, not a check)", bins.withinTolerance() == null
-                ? "no tolerance stated" : bins.withinTolerance() ? "yes" : "no");
+        row(b, "measured value against the stated tolerance (a bin, not a check)", bins.tolerance() == null
+                ? "no tolerance stated" : bins.tolerance().decision().word() + " "
+                        + bins.tolerance().how(Si.unitOfSymbol(bins.unit())));
         if (!bins.versusChecks().isEmpty()) {
             row(b, "versus the checks", bins.versusChecks());
         }
