@@ -299,7 +299,7 @@ public final class HtmlReport {
     private static void settings(StringBuilder b, AnalysisResult a) {
         b.append("<h2>Settings</h2>\n<table><tr><th>step</th><th>conditions</th><th>frequencies</th><th>range</th>")
                 .append("<th>repeats</th></tr>");
-        for (Sweep s : Sweep.of(a.run().rows())) {
+        for (Sweep s : a.sweeps()) {
             List<org.zweep.driver.impedance.Impedance> p = s.points();
             b.append("<tr><td>").append(esc(s.step())).append("</td><td>").append(esc(s.describe())).append("</td><td class=\"num\">")
                     .append(p.size()).append("</td><td class=\"num\">")
