@@ -16,7 +16,6 @@ import org.zweep.runner.analysis.CircuitFit;
 import org.zweep.runner.analysis.CircuitModel;
 import org.zweep.runner.analysis.Derating;
 import org.zweep.runner.analysis.RunData;
-import org.zweep.runner.analysis.Si;
 import org.zweep.runner.analysis.StepResult;
 import org.zweep.runner.analysis.TransformerResult;
 import picocli.CommandLine.Command;
@@ -24,6 +23,9 @@ import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
+import org.zweep.runner.text.Figures;
+import org.zweep.runner.verdict.CheckText;
+import org.zweep.runner.text.ParameterTable;
 
 /** {@code zweep analyze DIR}: fits, derating, transformer figures, checks; writes {@code DIR/analysis.json}. */
 @Command(name = "analyze", mixinStandardHelpOptions = true,
@@ -72,12 +74,12 @@ public final class AnalyzeCommand implements Callable<Integer> {
                 CircuitFit f = sf.fit();
                 StringBuilder b = new StringBuilder("  " + f.model().id() + " fit, " + sf.sweep().describe() + ":");
                 for (Map.Entry<String, Double> e : f.parameters().entrySet()) {
-                    Unit unit = Si.unitOf(e.getKey());
-                    b.append(' ').append(Si.label(e.getKey())).append(' ');
+                    Unit unit = ParameterTable.unit(e.getKey());
+                    b.append(' ').append(ParameterTable.label(e.getKey())).append(' ');
                     b.append(e.getValue() == null ? "not resolved"
-                            : Si.format(e.getValue(), unit) + " ± " + Si.format(f.sigma().get(e.getKey()), unit, 2));
+                            : Figures.format(e.getValue(), unit) + " ± " + Figures.format(f.sigma().get(e.getKey()), unit, 2));
                 }
-                b.append(", SRF ").append(f.srfHz() == null ? "not resolved" : Si.format(f.srfHz(), Unit.HERTZ));
+                b.append(", SRF ").append(f.srfHz() == null ? "not resolved" : Figures.format(f.srfHz(), Unit.HERTZ));
                 b.append(String.format(Locale.ROOT, ", residual %.2g", f.residualRms()));
                 if (f.weighted()) {
                     b.append(String.format(Locale.ROOT, ", weighted by u, reduced chi-squared %.3g", f.reducedChiSquared()));
@@ -88,19 +90,20 @@ public final class AnalyzeCommand implements Callable<Integer> {
             for (Derating d : s.derating()) {
                 List<String> drops = new ArrayList<>();
                 d.drops().forEach((pct, at) -> drops.add(at == null ? "never falls by " + pct + " %"
-                        : pct + " % drop at " + Si.format(at, Si.unitOfSymbol(d.biasMode()))));
-                out.println("  derating at " + Si.format(d.frequencyHz(), Unit.HERTZ) + ": " + String.join(", ", drops));
+                        : pct + " % drop at " + Figures.format(at, Figures.unit(d.biasMode()))));
+                out.println("  derating at " + Figures.format(d.frequencyHz(), Unit.HERTZ) + ": " + String.join(", ", drops));
             }
         }
         TransformerResult t = a.transformer();
         if (t != null) {
             out.printf(Locale.ROOT, "transformer: turns ratio N1:N2 %s (k × measured V1:V2 %s), k %s, leakage L_sc %s"
                     + " (secondary shorted, at %s), mutual %s%n", t.turnsRatioText(), t.voltageRatioText(),
-                    Si.format(t.k(), Unit.NONE, 4), Si.format(t.leakageH(), Unit.HENRY),
-                    Si.format(t.frequencyHz(), Unit.HERTZ), Si.format(t.mutualH(), Unit.HENRY));
+                    Figures.format(t.k(), Unit.NONE, 4), Figures.format(t.leakageH(), Unit.HENRY),
+                    Figures.format(t.frequencyHz(), Unit.HERTZ), Figures.format(t.mutualH(), Unit.HENRY));
         }
+        var units = CheckText.unitsFrom(a.run().rows());
         for (CheckOutcome c : a.checks()) {
-            out.println(RunLauncher.checkLine(c));
+            out.println(CheckText.line(c, units.apply(c.step())));
         }
         if (a.bins() != null && a.bins().letter() != null) {
             out.printf(Locale.ROOT, "bin: %+.3f %% of nominal, tolerance letter %s%n", a.bins().deviationPercent(),

@@ -82,13 +82,13 @@ public final class CompensationWorkflow {
         if (resuming && Files.isRegularFile(runData)) {
             data = CompensationData.read(runData);
             log.accept("compensation: using the data already in the run folder (measured "
-                    + org.zweep.runner.analysis.Si.time(data.info().time()) + ")");
+                    + org.zweep.runner.text.Figures.time(data.info().time()) + ")");
         } else {
             Optional<Path> reusable = findReusable(plan, station, folder, clock.instant());
             if (reusable.isPresent()) {
                 data = CompensationData.read(reusable.get());
                 log.accept("compensation: reusing " + reusable.get() + " measured "
-                        + org.zweep.runner.analysis.Si.time(data.info().time()));
+                        + org.zweep.runner.text.Figures.time(data.info().time()));
             } else {
                 data = measure(plan, station, clock);
                 if (fx.store() != null) {
