@@ -21,7 +21,7 @@ public final class InputFiles {
      * The largest bench file (YAML) read, in bytes: small enough that the two passes over it
      * (limits, then nodes) stay well under a second on a cold JVM.
      */
-    public static final int MAX_BENCH_BYTES = 256 << 10;
+    public static final int MAX_BENCH_BYTES = org.zweep.config.BoundedYaml.MAX_FILE_BYTES;
 
     private InputFiles() {
     }

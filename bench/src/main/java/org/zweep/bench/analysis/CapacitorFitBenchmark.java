@@ -18,7 +18,7 @@ import org.zweep.runner.analysis.EquivalentCircuitFit;
 
 /**
  * Fitting a 1,000-point sweep with the capacitor model (target: under 50 ms after warm-up).
- * The sweep: check-values.md §10's part (100 nF, 20 mΩ, 1 nH), 100 Hz to 100 MHz log-spaced,
+ * The sweep: a 100 nF, 20 mΩ, 1 nH capacitor, 100 Hz to 100 MHz log-spaced,
  * with 0.1 % relative noise.
  */
 @State(Scope.Benchmark)

@@ -18,7 +18,7 @@ class AddressTest {
     void tcpWithoutPortUsesTheRawScpiPort() {
         TcpAddress a = assertInstanceOf(TcpAddress.class, Address.parse("tcp://192.168.1.50"));
         assertEquals("192.168.1.50", a.host());
-        assertEquals(5025, a.port()); // standards.md §3.3: IANA scpi-raw is 5025
+        assertEquals(5025, a.port()); // IANA Service Name and Port Number Registry: scpi-raw is 5025/tcp
         assertEquals("tcp", a.scheme());
     }
 
@@ -40,7 +40,7 @@ class AddressTest {
     @Test
     void visaSocketStringMapsToTcp() {
         TcpAddress a = assertInstanceOf(TcpAddress.class, Address.parse("TCPIP0::192.168.1.50::5025::SOCKET"));
-        assertEquals("192.168.1.50", a.host()); // standards.md §3.1 example
+        assertEquals("192.168.1.50", a.host()); // IVI VPP-4.3 (VISA) resource string TCPIP[board]::host::port::SOCKET
         assertEquals(5025, a.port());
         TcpAddress b = assertInstanceOf(TcpAddress.class, Address.parse("tcpip::meter::5026::socket"));
         assertEquals("meter", b.host());

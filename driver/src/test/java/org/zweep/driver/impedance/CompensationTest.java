@@ -21,17 +21,19 @@ class CompensationTest {
         // Hand-derived: Zs = 1 + j, Yo = 0.01 S, DUT 10 Ω, so Zm = Zs + 1/(Yo + 1/10) = 1 + 100/11 + j
         // and the open reads Zs + 1/Yo = 101 + j.
         Compensation c = Compensation.openShort(new Complex(101, 1), new Complex(1, 1));
-        // no outside source: arithmetic from the inputs above (topology A, check-values.md §3.1)
         assertClose(new Complex(10, 0), c.correct(new Complex(1 + 100.0 / 11, 1)), 1e-14);
     }
 
     @Test
     void openShortMatchesTopologyAVectorExactly() {
+        // Series residual Zs = 0.05 Ω + 20 nH at the meter, stray Yo = 1 nS + 5 pF across a 0.5 Ω + 1 µH DUT,
+        // f = 1 MHz; readings computed from Zm = Zs + 1/(Yo + 1/Zdut) (the "ShortOpen" order of scikit-rf's
+        // skrf.calibration.deembedding), so the exact correction must give the DUT back.
         Complex open = new Complex(1.0632118354, -31830.8629224);
         Complex shortReading = new Complex(0.05, 0.125663706144);
         Complex dut = new Complex(0.550197489669, 6.41008164433);
         Complex corrected = Compensation.openShort(open, shortReading).correct(dut);
-        assertClose(new Complex(0.5, 6.28318530718), corrected, 1e-10); // check-values.md §3.4 T-A, exact formula
+        assertClose(new Complex(0.5, 6.28318530718), corrected, 1e-10); // Zdut = (Zm − Zs)/(1 − (Zm − Zs)·Yo), Yo = 1/(Zo − Zs)
     }
 
     @Test
@@ -40,7 +42,7 @@ class CompensationTest {
         Complex shortReading = new Complex(0.05, 0.125663706144);
         Complex dut = new Complex(0.550197489669, 6.41008164433);
         Complex corrected = Compensation.fromResiduals(shortReading, open.reciprocal()).correct(dut);
-        // check-values.md §3.4 T-A, "with Yo ≈ 1/Zo,meas"
+        // the same vector with Yo ≈ 1/Zo,meas (valid when |Zo| ≫ |Zs|): 0.499999997285 + j6.28318530262, computed
         assertClose(new Complex(0.499999997285, 6.28318530262), corrected, 1e-11);
     }
 
@@ -61,7 +63,6 @@ class CompensationTest {
     void anOpenBeyondTheMetersReachLeavesOnlyTheSeriesResidual() {
         // Hand-derived: series residual Zs = 1 + j and no stray admittance, DUT 10 Ω reads 11 + j and a 50 Ω
         // load reads 51 + j; with Y_open = 0 both forms give Z = Zm − Zs (OSL: 50·(Zm − Zs)/(Zl − Zs)).
-        // no outside source: arithmetic from the inputs above
         Complex shortReading = new Complex(1, 1);
         assertClose(new Complex(10, 0),
                 Compensation.openShortFromAdmittance(Complex.ZERO, shortReading).correct(new Complex(11, 1)), 1e-15);
@@ -71,11 +72,15 @@ class CompensationTest {
 
     @Test
     void openShortLoadMatchesArbitraryFixtureVector() {
+        // A non-symmetric fixture with ABCD A = 1.02 + j0.01, B = 0.3 + j2, C = 1e-5 + j3e-5, D = 0.98 − j0.02 maps
+        // Z to (A·Z + B)/(C·Z + D) (D. M. Pozar, Microwave Engineering, §4.4, from memory); open, short, a 100 Ω
+        // load and a 0.5 Ω + 1 µH DUT at 1 MHz read as below (computed). A bilinear map is fixed by three points
+        // (L. V. Ahlfors, Complex Analysis, ch. 3, cross-ratio, from memory), so OSL gives the DUT back exactly.
         Compensation c = Compensation.openShortLoad(new Complex(10500, -30500),
                 new Complex(0.264363030808, 2.04621149042), new Complex(104.197060198, 4.86376149172),
                 new Complex(100, 0));
         Complex corrected = c.correct(new Complex(0.587717263528, 8.59911787287));
-        assertClose(new Complex(0.5, 6.28318530718), corrected, 1e-9); // check-values.md §3.4 T-OSL
+        assertClose(new Complex(0.5, 6.28318530718), corrected, 1e-9); // the DUT: 0.5 Ω + j2π·1 MHz·1 µH
     }
 
     @Test
@@ -83,14 +88,13 @@ class CompensationTest {
         // Same hand-derived fixture as above; a 50 Ω load reads 1 + j + 1/(0.01 + 0.02) = 34.333… + j.
         Compensation c = Compensation.openShortLoad(new Complex(101, 1), new Complex(1, 1),
                 new Complex(1 + 100.0 / 3, 1), new Complex(50, 0));
-        // no outside source: arithmetic from the inputs above (cross-ratio form, check-values.md §3.2)
         assertClose(new Complex(10, 0), c.correct(new Complex(1 + 100.0 / 11, 1)), 1e-13);
     }
 
     @Test
     void openShortLoadOnSymmetricFixtureIgnoresTheLoadValue() {
-        // check-values.md §3.2 consistency test: with A = D the open/short form Zo(Zm − Zs)/(Zo − Zm)
-        // is exact, so OSL returns the true value whatever the load standard is.
+        // With A = D the open/short form Zo(Zm − Zs)/(Zo − Zm) is already exact for the bilinear map
+        // (A·Z + B)/(C·Z + D), so OSL must return the true value whatever the load standard is.
         Complex a = new Complex(1.01, 0.02);
         Complex b = new Complex(0.2, 1.0);
         Complex cc = new Complex(2e-5, 4e-5);
@@ -99,7 +103,7 @@ class CompensationTest {
             Complex load = new Complex(random.nextDouble(1, 1000), random.nextDouble(-500, 500));
             Complex dut = new Complex(random.nextDouble(0.1, 100), random.nextDouble(-100, 100));
             Compensation c = Compensation.openShortLoad(a.divide(cc), b.divide(a), abcd(a, b, cc, a, load), load);
-            assertClose(dut, c.correct(abcd(a, b, cc, a, dut)), 1e-9); // source: check-values.md §3.2 consistency test
+            assertClose(dut, c.correct(abcd(a, b, cc, a, dut)), 1e-9);
         }
     }
 
@@ -110,14 +114,13 @@ class CompensationTest {
     @Test
     void noCompensationReturnsTheReading() {
         Impedance z = new Impedance(1e3, 3, -4);
-        assertEquals(z, Compensation.none().correct(z)); // the input back, no outside value
+        assertEquals(z, Compensation.none().correct(z));
     }
 
     @Test
     void equalOpenAndShortReadingsAreRejected() {
         InvalidInputException e = assertThrows(InvalidInputException.class,
                 () -> Compensation.openShort(new Complex(1, 1), new Complex(1, 1)));
-        // our own message text; the numbers are the inputs above, no outside source
         assertEquals("the open and short readings are equal ((1.0, 1.0) Ω): compensation data unusable",
                 e.getMessage());
     }

@@ -22,9 +22,9 @@ class DerivedParameterTest {
     void contractValuesAreTheImpedancesOwnParameters() {
         Impedance z = Impedance.fromCsEsr(1e3, 1e-6, 1.0);
         Map<String, Double> values = DerivedParameter.contractValues(z);
-        assertEquals(-159.15494, values.get("x_ohm"), 1e-5); // check-values.md §1.2 further values
-        assertEquals(1e-6, values.get("cs_f"), 1e-18); // the input above, no outside source
-        assertEquals(1.0, values.get("rs_ohm"), 1e-15); // the input above, no outside source
-        assertEquals(25_331.296, values.get("rp_ohm"), 1e-3); // check-values.md §2.2 P1
+        assertEquals(-159.15494, values.get("x_ohm"), 1e-5); // 1 µF at 1 kHz: X_C = −1/(2πfC), computed
+        assertEquals(1e-6, values.get("cs_f"), 1e-18);
+        assertEquals(1.0, values.get("rs_ohm"), 1e-15);
+        assertEquals(25_331.296, values.get("rp_ohm"), 1e-3); // Rp = Rs(1 + Q²), Q = 1/(ωCs·Rs), computed
     }
 }

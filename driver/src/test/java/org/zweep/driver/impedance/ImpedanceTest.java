@@ -8,33 +8,38 @@ import static org.junit.jupiter.api.Assertions.assertThrows;
 import org.junit.jupiter.api.Test;
 import org.zweep.driver.InvalidInputException;
 
+/**
+ * Figures marked "computed" are the textbook formulas Z_C = 1/(jωC), Z_L = jωL, |Z| = √(R² + X²),
+ * θ = atan2(X, R), Q = |X|/R, D = R/|X| = tan δ (C. K. Alexander, M. N. O. Sadiku, Fundamentals of
+ * Electric Circuits, §9.5 "Impedance and Admittance", from memory) evaluated independently of this code.
+ */
 class ImpedanceTest {
 
     @Test
     void reactanceOfOneMicrofaradAtOneKilohertzIsMinus159Ohms() {
         Impedance z = Impedance.fromCsEsr(1e3, 1e-6, 0.0);
-        assertRel(-159.15494, z.reactanceOhm(), 1e-7); // check-values.md §1.2 further values, [calc]
-        assertEquals(-90.0, z.phaseDeg(), 1e-12); // common practice, no source: ideal capacitor
+        assertRel(-159.15494, z.reactanceOhm(), 1e-7); // X_C = −1/(2πfC), computed
+        assertEquals(-90.0, z.phaseDeg(), 1e-12); // ideal capacitor: Z_C = 1/(jωC), computed
     }
 
     @Test
     void reactanceOfTenMillihenriesAtOneKilohertzIs62Ohms() {
         Impedance z = Impedance.fromLsRs(1e3, 10e-3, 0.0);
-        assertRel(62.831853, z.reactanceOhm(), 1e-8); // check-values.md §1.2 further values, [calc]
+        assertRel(62.831853, z.reactanceOhm(), 1e-8); // X_L = 2πfL, computed
     }
 
     @Test
     void inductiveReactanceMatchesPublishedWorkedExample() {
         Impedance z = Impedance.fromLsRs(2e3, 1e-3, 0.0);
-        assertEquals(12.57, z.reactanceOhm(), 0.005); // check-values.md §1.2 E1, Box Hill Institute course sample
+        assertEquals(12.57, z.reactanceOhm(), 0.005); // Box Hill Institute (TAFE), ElecNE161 course sample, "Inductive reactance": 1 mH at 2 kHz is 12.57 Ω
     }
 
     @Test
     void capacitiveReactanceMatchesPublishedWorkedExample() {
         Impedance z = Impedance.fromCsEsr(60, 1e-6, 0.0);
-        assertEquals(-2653, z.reactanceOhm(), 0.5); // check-values.md §1.2 E5 (Q&A page, weak)
+        assertEquals(-2653, z.reactanceOhm(), 0.5); // X_C = −1/(2πfC) = −2652.58 Ω, computed
         Impedance roundingTrap = Impedance.fromCsEsr(100, 0.5e-6, 0.0);
-        assertRel(-3183.10, roundingTrap.reactanceOhm(), 1e-6); // check-values.md §1.2 E6, full-precision π
+        assertRel(-3183.10, roundingTrap.reactanceOhm(), 1e-6); // computed with full-precision π (π = 3.142 would give −3184.7 Ω)
     }
 
     @Test
@@ -50,41 +55,41 @@ class ImpedanceTest {
         for (double theta : new double[] {5, 30, 45, 80, 89.9, -10, -60, -89.99}) {
             Impedance z = Impedance.fromPolar(1e4, 47.0, theta);
             double q = Math.tan(Math.toRadians(Math.abs(theta)));
-            assertRel(q, z.qualityFactor(), 1e-12); // check-values.md §1.1: Q = tan|θ|
-            assertRel(1.0 / q, z.dissipationFactor(), 1e-12); // check-values.md §1.1: D = 1/Q
-            assertRel(Math.tan(Math.toRadians(z.lossAngleDeg())), z.dissipationFactor(), 1e-9); // §1.1: D = tan δ
+            assertRel(q, z.qualityFactor(), 1e-12); // Q = |X|/R = tan|θ|, computed
+            assertRel(1.0 / q, z.dissipationFactor(), 1e-12); // D = 1/Q, computed
+            assertRel(Math.tan(Math.toRadians(z.lossAngleDeg())), z.dissipationFactor(), 1e-9); // D = tan δ, δ = 90° − |θ|
         }
     }
 
     @Test
     void seriesRlMatchesTextbookValues() {
         Impedance z = Impedance.fromLsRs(60, 10e-3, 5.0);
-        assertRel(3.76991, z.reactanceOhm(), 1e-5); // check-values.md §1.2 E12 (c), Kuphaldt vol. II
-        assertRel(6.26197, z.magnitudeOhm(), 1e-5); // check-values.md §1.2 E12 (c)
-        assertRel(37.0156, z.phaseDeg(), 1e-5); // check-values.md §1.2 E12 (c)
-        assertRel(0.75398, z.qualityFactor(), 1e-5); // check-values.md §1.2 E12 (c)
+        assertRel(3.76991, z.reactanceOhm(), 1e-5); // 5 Ω + 10 mH at 60 Hz: T. R. Kuphaldt, Lessons in Electric Circuits, Vol. II (AC), series R-L example, from memory; computed
+        assertRel(6.26197, z.magnitudeOhm(), 1e-5); // same
+        assertRel(37.0156, z.phaseDeg(), 1e-5); // same
+        assertRel(0.75398, z.qualityFactor(), 1e-5); // same
     }
 
     @Test
     void seriesRcMatchesTextbookValues() {
         Impedance z = Impedance.fromCsEsr(60, 100e-6, 5.0);
-        assertRel(-26.5258, z.reactanceOhm(), 1e-5); // check-values.md §1.2 E13 (c)
-        assertRel(26.9929, z.magnitudeOhm(), 1e-5); // check-values.md §1.2 E13 (c)
-        assertRel(-79.3253, z.phaseDeg(), 1e-6); // check-values.md §1.2 E13 (c)
-        assertRel(0.188496, z.dissipationFactor(), 1e-5); // check-values.md §1.2 E13 (c)
-        assertRel(10.6747, z.lossAngleDeg(), 1e-5); // check-values.md §1.2 E13 (c)
+        assertRel(-26.5258, z.reactanceOhm(), 1e-5); // 5 Ω + 100 µF at 60 Hz: Kuphaldt, Vol. II, series R-C example, from memory; computed
+        assertRel(26.9929, z.magnitudeOhm(), 1e-5); // same
+        assertRel(-79.3253, z.phaseDeg(), 1e-6); // same
+        assertRel(0.188496, z.dissipationFactor(), 1e-5); // same
+        assertRel(10.6747, z.lossAngleDeg(), 1e-5); // same
     }
 
     @Test
     void lossyInductorAndCapacitorMatchCalculatedValues() {
         Impedance l = Impedance.fromLsRs(1e3, 10e-3, 10.0);
-        assertRel(63.6227, l.magnitudeOhm(), 1e-5); // check-values.md §1.2 further values [calc]
+        assertRel(63.6227, l.magnitudeOhm(), 1e-5); // 10 mH + 10 Ω at 1 kHz, computed
         assertRel(80.9569, l.phaseDeg(), 1e-6); // same
         assertRel(6.28319, l.qualityFactor(), 1e-5); // same
         assertRel(0.159155, l.dissipationFactor(), 1e-5); // same
         assertRel(9.0431, l.lossAngleDeg(), 1e-5); // same
         Impedance c = Impedance.fromCsEsr(1e3, 1e-6, 1.0);
-        assertRel(159.158, c.magnitudeOhm(), 1e-5); // check-values.md §1.2 further values [calc]
+        assertRel(159.158, c.magnitudeOhm(), 1e-5); // 1 µF + 1 Ω at 1 kHz, computed
         assertRel(-89.6400, c.phaseDeg(), 1e-6); // same
         assertRel(6.28319e-3, c.dissipationFactor(), 1e-5); // same
         assertRel(0.3600, c.lossAngleDeg(), 1e-4); // same
@@ -93,7 +98,7 @@ class ImpedanceTest {
     @Test
     void threePlusFourJHasMagnitudeFive() {
         Impedance z = new Impedance(1e3, 3, 4);
-        assertEquals(5.0, z.magnitudeOhm(), 1e-15); // check-values.md §1.2 further values
+        assertEquals(5.0, z.magnitudeOhm(), 1e-15); // 3 + j4 Ω: |Z| = 5, θ = atan(4/3), computed
         assertRel(53.1301, z.phaseDeg(), 1e-6); // same
         assertRel(1.33333, z.qualityFactor(), 1e-5); // same
         assertEquals(0.75, z.dissipationFactor(), 1e-15); // same
@@ -154,7 +159,7 @@ class ImpedanceTest {
 
     @Test
     void phaseStaysInMinus180Exclusive180Inclusive() {
-        assertEquals(180.0, new Impedance(1e3, -5.0, -0.0).phaseDeg()); // (−180°, 180°], DESIGN.md
+        assertEquals(180.0, new Impedance(1e3, -5.0, -0.0).phaseDeg()); // the principal value of atan2, (−180°, 180°]
         assertEquals(180.0, new Impedance(1e3, -5.0, 0.0).phaseDeg()); // same
         assertEquals(-90.0, new Impedance(1e3, 0.0, -1.0).phaseDeg()); // same
     }

@@ -51,8 +51,8 @@ class QuantitiesTest {
 
     @ParameterizedTest(name = "RKM {0} as {1} is {2}")
     @CsvSource(delimiter = '|', value = {
-        // IEC 60062 letter-and-numeral code, as described in Wikipedia "RKM code" (check-values.md
-        // Appendix B lists it as consulted; the individual examples are from memory)
+        // IEC 60062:2016 letter-and-numeral code (the letter marks the decimal point and the multiplier),
+        // as Wikipedia's "RKM code" article describes it; the individual examples are from memory
         "4k7   | OHM   | 4700",
         "4K7   | OHM   | 4700",
         "R47   | OHM   | 0.47",

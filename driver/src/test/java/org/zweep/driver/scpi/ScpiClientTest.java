@@ -130,7 +130,7 @@ class ScpiClientTest {
 
     @Test
     void definiteBlockFromTheStandardsExample() {
-        meter.send("#210ABCDEFGHIJ\n").send("#800000010ABCDEFGHIJ\n"); // IEEE 488.2 §8.7.9, standards.md §1.7
+        meter.send("#210ABCDEFGHIJ\n").send("#800000010ABCDEFGHIJ\n"); // IEEE 488.2-1992 §8.7.9: #<n><n digits of length><bytes>
         ScpiClient c = client();
         assertArrayEquals(ascii("ABCDEFGHIJ"), c.queryBlock("DATA?"));
         assertArrayEquals(ascii("ABCDEFGHIJ"), c.queryBlock("DATA?"));

@@ -123,7 +123,7 @@ class StandardDialectSimulatorIT {
             meter.apply(MeasurementSetting.at(1000));
             Reading r = meter.measure();
             assertEquals(R_OHM, r.real(), 1e-9);
-            assertEquals(-1591.5494, r.imaginary(), 1e-4); // check-values.md §1.2: 100 nF at 1 kHz
+            assertEquals(-1591.5494, r.imaginary(), 1e-4); // 100 nF at 1 kHz: X_C = −1/(2πfC), computed
             assertEquals(1000, r.setting().frequencyHz());
             link.assertNoErrors("one point");
         }
@@ -144,7 +144,7 @@ class StandardDialectSimulatorIT {
                 assertZ(rc(f[i]), readings.get(i), 1e-9, f[i] + " Hz");
                 assertEquals(f[i], readings.get(i).setting().frequencyHz());
             }
-            assertEquals(-1.5915494, readings.get(4).imaginary(), 1e-7); // check-values.md §1.2: X_C = −1/(2πfC), 100 nF at 1 MHz
+            assertEquals(-1.5915494, readings.get(4).imaginary(), 1e-7); // X_C = −1/(2πfC), 100 nF at 1 MHz, computed
             assertEquals(1, reads(link), "READ? messages for a 5-point list: " + link.session.sent());
             link.assertNoErrors("a list sweep");
         }
@@ -347,10 +347,10 @@ class StandardDialectSimulatorIT {
             meter.apply(MeasurementSetting.at(100e3).withQuantity(MeasuredQuantity.VOLTAGE_RATIO));
             Reading r = meter.measure();
             double ratio = new Complex(r.real(), r.imaginary()).abs();
-            assertEquals(4.0404, 1 / ratio, 1e-3); // check-values.md §7, X7: r_fwd = V1/V2 = 4.0404
+            assertEquals(4.0404, 1 / ratio, 1e-3); // L1 = 10 mH, n = 4, k = 0.99: V1/V2 = L1/M = n/k = 4.0404 (M = k√(L1·L2), Alexander & Sadiku, Fundamentals of Electric Circuits, ch. 13, from memory), computed
             meter.apply(MeasurementSetting.at(100e3));
             Reading z = meter.measure();
-            // secondary open: Z = R1 + jωL1, L1 = 10 mH, R1 = 1.5 Ω (bench file); common practice, no source
+            // secondary open: Z = R1 + jωL1, L1 = 10 mH, R1 = 1.5 Ω (bench file)
             assertZ(new Complex(1.5, 2 * Math.PI * 100e3 * 10e-3), z, 1e-9, "primary, secondary open");
             assertTrue(link.session.sent().stream().anyMatch(m -> m.contains(":SENS:FUNC \"VOLTage:RATio\"")));
             link.assertNoErrors("a voltage ratio and an impedance");

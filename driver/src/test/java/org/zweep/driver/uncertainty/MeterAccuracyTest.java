@@ -21,7 +21,7 @@ class MeterAccuracyTest {
     @Test
     void theLimitHasItsMinimumAtTheGeometricMeanOfTheResiduals() {
         // e = A + Zs/|Z| + Yo·|Z| with A = 0.1 %, Zs = 10 mΩ, Yo = 10 nS: the two residual terms are equal at
-        // |Z| = √(Zs/Yo) = 1 kΩ, e = A + 2√(Zs·Yo) = 0.102 %; 1.1 % at 1 Ω and at 1 MΩ (arithmetic, no source)
+        // |Z| = √(Zs/Yo) = 1 kΩ, e = A + 2√(Zs·Yo) = 0.102 %; 1.1 % at 1 Ω and at 1 MΩ
         assertEquals(0.00102, MID.magnitudeLimit(1e3), 1e-12);
         assertEquals(0.011, MID.magnitudeLimit(1.0), 1e-7);
         assertEquals(0.011, MID.magnitudeLimit(1e6), 1e-7);

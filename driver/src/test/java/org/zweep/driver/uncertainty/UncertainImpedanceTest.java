@@ -39,7 +39,7 @@ class UncertainImpedanceTest {
         // |Z| = 100 Ω at θ = −90°: u(|Z|) is all along X, u(θ) all along R (arc length |Z|·u(θ) in rad)
         Impedance v = new Impedance(1e3, 0, -100);
         UncertainImpedance z = UncertainImpedance.fromPolar(v, 0.5, Math.toDegrees(0.01), 0);
-        assertEquals(1.0, z.uROhm(), 1e-9); // 100 Ω · 0.01 rad, common practice, no source
+        assertEquals(1.0, z.uROhm(), 1e-9); // 100 Ω · 0.01 rad
         assertEquals(0.5, z.uXOhm(), 1e-9);
         assertEquals(0.0, z.correlation(), 1e-9);
         // and back: u(|Z|), u(θ) recovered

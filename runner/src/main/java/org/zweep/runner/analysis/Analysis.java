@@ -14,6 +14,8 @@ import org.zweep.driver.impedance.Unit;
 import org.zweep.runner.results.PointRow;
 import org.zweep.runner.plan.CheckLimit;
 import org.zweep.runner.results.RunManifest;
+import org.zweep.runner.conformance.Conformance;
+import org.zweep.runner.conformance.DecisionRule;
 import org.zweep.runner.verdict.CheckEvaluator;
 import org.zweep.runner.verdict.CheckOutcome;
 import org.zweep.runner.verdict.SweepFigures;
@@ -156,8 +158,8 @@ public final class Analysis {
             if (CheckLimit.SATURATION.equals(c.parameter())) {
                 return saturation(c, steps);
             }
-            double v = wholeSweepFigure(c, steps, transformer);
-            return new SweepFigures.Figure(v, ParameterTable.unit(c.parameter()), "");
+            double[] v = wholeSweepFigure(c, steps, transformer);
+            return new SweepFigures.Figure(v[0], ParameterTable.unit(c.parameter()), "", v[1]);
         };
     }
 
@@ -189,17 +191,22 @@ public final class Analysis {
         return new SweepFigures.Figure(at, unit, ref);
     }
 
-    private static double wholeSweepFigure(CheckLimit c, List<StepResult> steps, TransformerResult transformer) {
+    /**
+     * The figure a whole-sweep check judges and its standard uncertainty: {value, u}, either NaN
+     * when unknown. Fitted values carry the weighted fit's sigma, the self-resonance its
+     * propagated u, transformer figures theirs ({@link TransformerResult}).
+     */
+    private static double[] wholeSweepFigure(CheckLimit c, List<StepResult> steps, TransformerResult transformer) {
         if (transformer != null) {
             switch (c.parameter()) {
                 case "turns_ratio":
-                    return transformer.turnsRatio();
+                    return new double[] {transformer.turnsRatio(), transformer.uTurnsRatio()};
                 case "k":
-                    return transformer.k();
+                    return new double[] {transformer.k(), transformer.uK()};
                 case "leakage_h":
-                    return transformer.leakageH();
+                    return new double[] {transformer.leakageH(), transformer.uLeakageH()};
                 case "mutual_h":
-                    return transformer.mutualH();
+                    return new double[] {transformer.mutualH(), transformer.uMutualH()};
                 default:
                     break;
             }
@@ -207,15 +214,17 @@ public final class Analysis {
         StepResult step = steps.stream().filter(s -> s.name().equals(c.step())).findFirst().orElse(null);
         StepResult.SweepFit sf = step == null ? null : step.primaryFit();
         if (sf == null) {
-            return Double.NaN;
+            return new double[] {Double.NaN, Double.NaN};
         }
+        CircuitFit fit = sf.fit();
         if (CheckLimit.SRF.equals(c.parameter())) {
-            if (sf.fit().srfHz() != null) {
-                return sf.fit().srfHz();
+            if (fit.srfHz() != null) {
+                return new double[] {fit.srfHz(), fit.weighted() ? fit.srfU() : Double.NaN};
             }
-            return sf.fit().srfDataHz() == null ? Double.NaN : sf.fit().srfDataHz();
+            return fit.srfDataHz() == null ? new double[] {Double.NaN, Double.NaN}
+                    : new double[] {fit.srfDataHz(), fit.srfDataU()};
         }
-        return sf.fit().value(c.parameter());
+        return new double[] {fit.value(c.parameter()), fit.standardUncertainty(c.parameter())};
     }
 
     private static DerivedParameter mainParameterOf(String column) {
@@ -241,6 +250,10 @@ public final class Analysis {
         return List.copyOf(drops);
     }
 
+    /** The parameters whose checks judge the part's value itself (compared with the bin). */
+    private static final List<String> VALUE_PARAMETERS = List.of("cs_f", "cp_f", "ls_h", "lp_h", "rs_ohm", "rp_ohm",
+            "r_ohm", "z_ohm", "c_f", "l_h");
+
     private static Bins bins(RunData run, List<StepResult> steps, List<CheckOutcome> checks) {
         RunManifest.PartInfo part = run.manifest().part();
         String kind = run.partKind();
@@ -248,11 +261,14 @@ public final class Analysis {
             return null;
         }
         double measured = Double.NaN;
+        double measuredU = Double.NaN;
         String source = "";
         for (StepResult s : steps) {
             StepResult.SweepFit sf = s.primaryFit();
             if (sf != null) {
-                measured = sf.fit().value(sf.fit().model().keys().get(0));
+                String key = sf.fit().model().keys().get(0);
+                measured = sf.fit().value(key);
+                measuredU = sf.fit().standardUncertainty(key);
                 source = "fit of step " + s.name() + " (" + sf.sweep().describe() + ")";
                 break;
             }
@@ -263,7 +279,8 @@ public final class Analysis {
                 double v = r.value(column);
                 if (r.okImpedance() && Double.isFinite(v)) {
                     measured = v;
-                    source = column + " of step " + r.step() + " at " + Figures.format(r.frequencyHz(), Unit.HERTZ);
+                    measuredU = r.uncertainty().of(column);
+                    source = ParameterTable.label(column) + " of step " + r.step() + " at " + Figures.format(r.frequencyHz(), Unit.HERTZ);
                     break;
                 }
             }
@@ -278,40 +295,60 @@ public final class Analysis {
                 ? ToleranceCode.classOf(measured, nominal, unit).map(c -> String.valueOf(c.letter())).orElse(null)
                 : null;
         Boolean within = null;
+        Conformance tolerance = null;
         if (part != null && part.tolerancePercent() != null && Double.isFinite(nominal)) {
             within = Math.abs(deviation) <= part.tolerancePercent();
+            double t = part.tolerancePercent() / 100 * nominal;
+            tolerance = binRule(checks).decide(measured, measuredU, nominal - t, nominal + t);
         }
         Map<String, Double> nearest = new LinkedHashMap<>();
         for (PreferredValues e : PreferredValues.values()) {
             nearest.put(e.name(), e.nearest(measured));
         }
         return new Bins(measured, source, nominal, unit, deviation, letter, within, nearest,
-                versusChecks(within, source, checks));
+                versusChecks(tolerance, source, checks), measuredU, tolerance);
+    }
+
+    /** The rule of the first check on the part's value, else of the first check, else simple. */
+    private static DecisionRule binRule(List<CheckOutcome> checks) {
+        return checks.stream().filter(c -> VALUE_PARAMETERS.contains(c.parameter())).findFirst()
+                .or(() -> checks.stream().findFirst()).map(c -> c.limit().rule()).orElse(DecisionRule.SIMPLE);
     }
 
     /**
-     * What a reader must know when the bin's "within stated tolerance" and a check on the part's
-     * value disagree: they judge different figures (a fitted element over the whole sweep, or one
-     * point, against the stated tolerance; a check, its own points against its own limits).
+     * What a reader must know when the bin's decision against the stated tolerance and a check on
+     * the part's value differ: they judge different figures (a fitted element over the whole sweep,
+     * or one point, against the stated tolerance; a check, its own points against its own limits).
+     * Each side is named by its own decision word (a conditional pass is not a failure: the value
+     * lies inside the limits, but within U of one, so conformance is not proven).
      */
-    private static String versusChecks(Boolean within, String source, List<CheckOutcome> checks) {
-        if (within == null) {
+    private static String versusChecks(Conformance tolerance, String source, List<CheckOutcome> checks) {
+        if (tolerance == null) {
             return "";
         }
         List<String> disagree = new ArrayList<>();
         for (CheckOutcome c : checks) {
-            boolean valueCheck = List.of("cs_f", "cp_f", "ls_h", "lp_h", "rs_ohm", "rp_ohm", "r_ohm", "z_ohm")
-                    .contains(c.parameter());
-            if (valueCheck && c.verdict() != CheckOutcome.Verdict.NOT_EVALUATED && c.passed() != within) {
-                disagree.add(c.name() + " (" + c.parameter() + ")");
+            if (VALUE_PARAMETERS.contains(c.parameter()) && c.verdict() != CheckOutcome.Verdict.NOT_EVALUATED
+                    && !c.result().equals(tolerance.decision().word())) {
+                disagree.add(c.name() + " (" + c.parameter() + "): " + c.result() + meaning(c.verdict()));
             }
         }
         if (disagree.isEmpty()) {
             return "";
         }
-        return "the check" + (disagree.size() > 1 ? "s " : " ") + String.join(", ", disagree) + " "
-                + (within ? "failed" : "passed") + " although the " + source + " is " + (within ? "" : "not ")
-                + "within the stated tolerance: the bin judges that one figure against the part's tolerance,"
+        return "check" + (disagree.size() > 1 ? "s " : " ") + String.join("; ", disagree) + "; but the " + source
+                + " against the stated tolerance: " + tolerance.decision().word() + " [" + tolerance.rule()
+                + (Double.isNaN(tolerance.expandedU()) ? ", U unknown" : "") + "]"
+                + ": the bin judges that one figure against the part's tolerance,"
                 + " the check judges its own selected points against its own limits (the verdict is the checks')";
+    }
+
+    /** What a decision word means, for the few that need it. */
+    private static String meaning(CheckOutcome.Verdict v) {
+        return switch (v) {
+            case CONDITIONAL_PASS -> " (inside its limits, but within U of one: not a proven pass)";
+            case CONDITIONAL_FAIL -> " (outside its limits, but within U of one: not a proven fail)";
+            default -> "";
+        };
     }
 }

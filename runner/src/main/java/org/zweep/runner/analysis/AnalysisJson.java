@@ -139,6 +139,8 @@ public final class AnalysisJson {
         n.set("sigma", map(f.sigma()));
         num(n, "srf_hz", f.srfHz() == null ? Double.NaN : f.srfHz());
         num(n, "srf_data_hz", f.srfDataHz() == null ? Double.NaN : f.srfDataHz());
+        num(n, "u_srf_hz", f.srfHz() == null ? Double.NaN : f.srfU());
+        num(n, "u_srf_data_hz", f.srfDataHz() == null ? Double.NaN : f.srfDataU());
         num(n, "residual_rms", f.residualRms());
         n.put("weighted", f.weighted());
         num(n, "reduced_chi_squared", f.reducedChiSquared());
@@ -185,6 +187,11 @@ public final class AnalysisJson {
         num(n, "short_circuit_h", t.shortH());
         num(n, "voltage_ratio", t.voltageRatio());
         num(n, "frequency_hz", t.frequencyHz());
+        num(n, "u_turns_ratio", t.uTurnsRatio());
+        num(n, "u_k", t.uK());
+        num(n, "u_leakage_h", t.uLeakageH());
+        num(n, "u_mutual_h", t.uMutualH());
+        num(n, "u_open_circuit_h", t.uOpenH());
         notes(n, t.notes());
         return n;
     }
@@ -201,6 +208,13 @@ public final class AnalysisJson {
             n.putNull("within_tolerance");
         } else {
             n.put("within_tolerance", b.withinTolerance());
+        }
+        num(n, "u_measured", b.measuredU());
+        if (b.tolerance() != null) {
+            n.put("tolerance_decision", b.tolerance().decision().word());
+            n.put("tolerance_rule", b.tolerance().rule());
+            num(n, "tolerance_expanded_u", b.tolerance().expandedU());
+            num(n, "tolerance_probability", b.tolerance().probability());
         }
         n.set("nearest", map(b.nearest()));
         if (!b.versusChecks().isEmpty()) {

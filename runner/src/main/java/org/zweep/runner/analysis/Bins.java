@@ -13,13 +13,20 @@ import java.util.Map;
  * @param unit {@code F}, {@code H} or {@code Ω}
  * @param deviationPercent (measured − nominal)/nominal in %; NaN without a nominal
  * @param letter the tightest IEC 60062 letter holding the value, or null
- * @param withinTolerance whether it is within the part's stated tolerance; null when none is stated
+ * @param withinTolerance whether the measured value lies within the part's stated tolerance (the
+ *     value alone, without its uncertainty); null when none is stated
  * @param nearest the nearest value in each of E6, E12, E24, E48, E96
- * @param versusChecks why a check on the part's value disagrees with {@code withinTolerance}, or
- *     empty when none does (the run's verdict is always the checks')
+ * @param versusChecks why a check on the part's value comes to another decision than
+ *     {@code tolerance}, or empty when none does (the run's verdict is always the checks')
+ * @param measuredU the standard uncertainty of {@code measured} (a weighted fit's sigma, or the
+ *     point's u); NaN when unknown
+ * @param tolerance the decision on the measured value against the stated tolerance, by the rule
+ *     the checks on the part's value use (the sequence's rule; simple without checks); null
+ *     when no tolerance is stated
  */
 public record Bins(double measured, String source, double nominal, String unit, double deviationPercent,
-        String letter, Boolean withinTolerance, Map<String, Double> nearest, String versusChecks) {
+        String letter, Boolean withinTolerance, Map<String, Double> nearest, String versusChecks, double measuredU,
+        org.zweep.runner.conformance.Conformance tolerance) {
     public Bins {
         nearest = java.util.Collections.unmodifiableMap(new LinkedHashMap<>(nearest));
     }

@@ -27,10 +27,14 @@ import org.apache.commons.math3.complex.Complex;
  * @param reducedChiSquared χ²/ν of a fit weighted by the points' standard uncertainties (about 1
  *     when the model and the uncertainties are right); NaN for an unweighted fit, whose sigmas
  *     come from the scatter about the fit instead
+ * @param srfU the standard uncertainty of {@code srfHz}, in Hz, propagated from the fitted
+ *     parameters' covariance; NaN when unknown
+ * @param srfDataU the standard uncertainty of {@code srfDataHz}, in Hz, propagated from the two
+ *     points' u(X) around the crossing (weighted fits only); NaN when unknown
  */
 public record CircuitFit(CircuitModel model, Map<String, Double> parameters, Map<String, Double> sigma, Double srfHz,
         Double srfDataHz, double residualRms, int iterations, boolean converged, int points, List<String> notes,
-        double reducedChiSquared) {
+        double reducedChiSquared, double srfU, double srfDataU) {
     public CircuitFit {
         parameters = Collections.unmodifiableMap(new LinkedHashMap<>(parameters));
         sigma = Collections.unmodifiableMap(new LinkedHashMap<>(sigma));
@@ -45,6 +49,16 @@ public record CircuitFit(CircuitModel model, Map<String, Double> parameters, Map
     /** Whether the fit was weighted by the points' standard uncertainties. */
     public boolean weighted() {
         return !Double.isNaN(reducedChiSquared);
+    }
+
+    /**
+     * The standard uncertainty of parameter {@code key} for a decision: its sigma from the
+     * weighted covariance; NaN when not resolved or when the fit was not weighted (its sigma then
+     * reflects only the scatter about the fit, not the meter's stated accuracy).
+     */
+    public double standardUncertainty(String key) {
+        Double u = sigma.get(key);
+        return u == null || !weighted() ? Double.NaN : u;
     }
 
     /** The value of parameter {@code key}, or {@code NaN} when not resolved. */

@@ -14,7 +14,7 @@ import org.zweep.driver.uncertainty.UncertainImpedance;
 
 /**
  * Fits a {@link CircuitModel} to an impedance sweep by complex nonlinear least squares
- * (check-values.md §10): parameters in log space (positive, comparable scales), residuals
+ * (CNLS, J. R. Macdonald and L. D. Potter, Solid State Ionics 23 (1987) 61–79): parameters in log space (positive, comparable scales), residuals
  * (Z_model − Z)/|Z| with real and imaginary parts stacked (modulus weighting), Levenberg–Marquardt
  * from starting values computed from the data, uncertainties from the covariance at the solution.
  *
@@ -137,6 +137,9 @@ public final class EquivalentCircuitFit {
         }
         double[] finalP = pass.physical;
         Double srfFit = srfOfFit(model, finalP, present);
+        double srfFitU = srfFit == null ? Double.NaN : srfUncertainty(model, pass, present, srfFit);
+        double srfDataU = weighted && Double.isFinite(srfData) ? Resonance.fromDataUncertainty(data,
+                points.stream().mapToDouble(p -> Math.hypot(p.l21, p.l22)).toArray()) : Double.NaN;
         if (!pass.result.converged()) {
             notes.add("the fit did not converge: " + pass.result.message());
         }
@@ -158,7 +161,43 @@ public final class EquivalentCircuitFit {
         }
         return new CircuitFit(model, values, sigmas, srfFit, Double.isFinite(srfData) ? srfData : null,
                 relativeRms(model, data, finalP), pass.result.iterations(), pass.result.converged(), data.size(),
-                notes, reducedChiSquared);
+                notes, reducedChiSquared, srfFitU, srfDataU);
+    }
+
+    /**
+     * The standard uncertainty of the fitted circuit's self-resonance, by the law of propagation
+     * from the fitted parameters' covariance (JCGM 100:2008, 5.2.2): u² = g Σ gᵀ with g the
+     * sensitivities of the resonance to the log-parameters (central differences of the
+     * resonance itself); NaN when a sensitivity or the covariance cannot be computed.
+     */
+    private static double srfUncertainty(CircuitModel model, Pass pass, boolean[] present, double srfHz) {
+        int n = present.length;
+        double[] g = new double[n];
+        double h = 1e-5;
+        for (int k = 0; k < n; k++) {
+            if (!present[k]) {
+                continue;
+            }
+            double[] plus = pass.physical.clone();
+            double[] minus = pass.physical.clone();
+            plus[k] *= Math.exp(h);
+            minus[k] *= Math.exp(-h);
+            Double fp = srfOfFit(model, plus, present);
+            Double fm = srfOfFit(model, minus, present);
+            if (fp == null || fm == null) {
+                return Double.NaN;
+            }
+            g[k] = (fp - fm) / (2 * h);
+        }
+        double var = 0;
+        for (int a = 0; a < n; a++) {
+            for (int b = 0; b < n; b++) {
+                if (present[a] && present[b]) {
+                    var += g[a] * g[b] * pass.logCovariance[a][b];
+                }
+            }
+        }
+        return var >= 0 && Double.isFinite(var) ? Math.sqrt(var) : Double.NaN;
     }
 
     /** RMS of (Z_model − Z)/|Z|, real and imaginary parts stacked. */
@@ -299,13 +338,17 @@ public final class EquivalentCircuitFit {
         double[] lp = result.parameters().stream().mapToDouble(Double::doubleValue).toArray();
         double[] p = expand(physical, active, lp);
         double[] logSigma = new double[n];
+        double[][] logCovariance = new double[n][n];
         boolean[] atBound = new boolean[n];
         for (int a = 0; a < active.length; a++) {
             int k = active[a];
             logSigma[k] = result.sigma(a);
             atBound[k] = lp[a] - lo[a] < 1e-6 || hi[a] - lp[a] < 1e-6;
+            for (int b = 0; b < active.length; b++) {
+                logCovariance[k][active[b]] = result.covariance(a, b);
+            }
         }
-        return new Pass(result, p, logSigma, atBound);
+        return new Pass(result, p, logSigma, atBound, logCovariance);
     }
 
     private static double[] expand(double[] base, int[] active, double[] logValues) {
@@ -317,7 +360,8 @@ public final class EquivalentCircuitFit {
     }
 
     /** One least-squares pass over the present parameters. */
-    private record Pass(FitResult result, double[] physical, double[] logSigma, boolean[] atBound) {
+    private record Pass(FitResult result, double[] physical, double[] logSigma, boolean[] atBound,
+            double[][] logCovariance) {
         String reason(int k) {
             if (atBound[k]) {
                 return "it ran to the limit of its range";

@@ -17,12 +17,24 @@ import java.util.List;
  *     shrank by 10 orders of magnitude from the start: a zero-residual problem solved to rounding);
  *     false means the parameters must not be trusted
  * @param message why it stopped, for people
+ * @param covariance the parameters' covariance matrix (n × n, same scaling as {@code sigma}, whose
+ *     squares are its diagonal); NaN entries where it cannot be computed
  */
 public record FitResult(List<Double> parameters, List<Double> sigma, double residualSumOfSquares, double residualRms,
-        int iterations, boolean converged, String message) {
+        int iterations, boolean converged, String message, double[][] covariance) {
     public FitResult {
         parameters = List.copyOf(parameters);
         sigma = List.copyOf(sigma);
+        double[][] copy = new double[covariance.length][];
+        for (int i = 0; i < copy.length; i++) {
+            copy[i] = covariance[i].clone();
+        }
+        covariance = copy;
+    }
+
+    /** The covariance of parameters {@code a} and {@code b}. */
+    public double covariance(int a, int b) {
+        return covariance[a][b];
     }
 
     /** Parameter {@code i}. */

@@ -141,7 +141,12 @@ public final class LeastSquaresFit {
         double rms = Math.sqrt(rss / m);
         double cosineLimit = Math.max(STATIONARY_COSINE, 1e3 * Math.ulp(1.0) * valueScale / rms);
         boolean stationary = finite && (stationary(j, r, rss, cosineLimit) || rss <= ZERO_RESIDUAL * startCost(problem));
-        List<Double> sigma = sigma(j, rss, m, n, residualFloor, knownWeights);
+        double[][] covariance = covariance(j, rss, m, n, residualFloor, knownWeights);
+        List<Double> sigma = new ArrayList<>(n);
+        for (int i = 0; i < n; i++) {
+            double var = covariance[i][i];
+            sigma.add(var >= 0 && Double.isFinite(var) ? Math.sqrt(var) : Double.NaN);
+        }
         List<Double> params = new ArrayList<>(n);
         for (double v : p) {
             params.add(v);
@@ -150,7 +155,7 @@ public final class LeastSquaresFit {
         if (libraryConverged && !stationary) {
             message = "stopped at a point that is not a minimum";
         }
-        return new FitResult(params, sigma, rss, rms, iterations, converged, message);
+        return new FitResult(params, sigma, rss, rms, iterations, converged, message, covariance);
     }
 
     private static double startCost(FitProblem problem) {
@@ -184,28 +189,33 @@ public final class LeastSquaresFit {
         return true;
     }
 
-    private static List<Double> sigma(double[][] j, double rss, int m, int n, double floor, boolean knownWeights) {
-        List<Double> out = new ArrayList<>(n);
+    /**
+     * The parameters' covariance (JᵀJ)⁻¹·s², s² = 1 for known weights, else the residual variance
+     * (floored); NaN entries where it is singular or m ≤ n.
+     */
+    private static double[][] covariance(double[][] j, double rss, int m, int n, double floor, boolean knownWeights) {
+        double[][] cov = new double[n][n];
         if (m <= n) {
-            for (int i = 0; i < n; i++) {
-                out.add(Double.NaN);
+            for (double[] row : cov) {
+                java.util.Arrays.fill(row, Double.NaN);
             }
-            return out;
+            return cov;
         }
         // covariance (JᵀJ)⁻¹ = V·Σ⁻²·Vᵀ from the SVD of J itself: forming JᵀJ would square its condition number
         SingularValueDecomposition svd = new SingularValueDecomposition(new Array2DRowRealMatrix(j, false));
         double[] sv = svd.getSingularValues();
         RealMatrix v = svd.getV();
         double s2 = knownWeights ? 1.0 : Math.max(rss / (m - n), floor * floor);
-        for (int i = 0; i < n; i++) {
-            double var = 0;
-            for (int k = 0; k < sv.length; k++) {
-                double t = v.getEntry(i, k) / sv[k];
-                var += t * t;
+        for (int a = 0; a < n; a++) {
+            for (int b = 0; b < n; b++) {
+                double c = 0;
+                for (int k = 0; k < sv.length; k++) {
+                    c += v.getEntry(a, k) * v.getEntry(b, k) / (sv[k] * sv[k]);
+                }
+                cov[a][b] = Double.isFinite(c) ? c * s2 : Double.NaN;
             }
-            out.add(Double.isFinite(var) ? Math.sqrt(var * s2) : Double.NaN);
         }
-        return out;
+        return cov;
     }
 
     static double[][] jacobian(FitProblem problem, double[] p) {

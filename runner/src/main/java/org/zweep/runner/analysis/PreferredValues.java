@@ -8,7 +8,7 @@ import org.zweep.driver.InvalidInputException;
 /**
  * IEC 60063 preferred-number series E6, E12, E24 (stored tables: they do not follow the rounding
  * formula) and E48, E96 (10^(i/N) rounded to three significant figures), and the nearest value in
- * a series, across decade edges (check-values.md §4.2).
+ * a series, across decade edges.
  */
 public enum PreferredValues {
     /** 20 %. */

@@ -12,7 +12,7 @@ public final class Resonance {
 
     /**
      * The first frequency where the measured reactance changes sign, by linear interpolation of X
-     * in log f between the two points around it (check-values.md §10); {@code NaN} when X keeps
+     * in log f between the two points around it; {@code NaN} when X keeps
      * its sign over the whole sweep.
      *
      * @param ascending the sweep sorted by increasing frequency
@@ -32,6 +32,34 @@ public final class Resonance {
             }
             if (xb == 0 && i == ascending.size() - 1) {
                 return b.frequencyHz();
+            }
+        }
+        return Double.NaN;
+    }
+
+    /**
+     * The standard uncertainty of {@link #fromData}: the crossing f = exp(ln f_a + t·(ln f_b − ln f_a)),
+     * t = X_a/(X_a − X_b), propagated from the two points' independent u(X) (JCGM 100:2008,
+     * 5.1.2); the interpolation's own error (X not linear in log f) is not included. NaN when X
+     * keeps its sign or a u is unknown.
+     *
+     * @param ascending the sweep sorted by increasing frequency
+     * @param uXOhm the standard uncertainty of each point's X, same order
+     */
+    public static double fromDataUncertainty(List<Impedance> ascending, double[] uXOhm) {
+        for (int i = 1; i < ascending.size(); i++) {
+            Impedance a = ascending.get(i - 1);
+            Impedance b = ascending.get(i);
+            double xa = a.reactanceOhm();
+            double xb = b.reactanceOhm();
+            if (xa == 0 || Math.signum(xa) != Math.signum(xb)) {
+                double f = fromData(ascending);
+                double span = Math.log(b.frequencyHz()) - Math.log(a.frequencyHz());
+                double d2 = (xa - xb) * (xa - xb);
+                double dtA = -xb / d2;
+                double dtB = xa / d2;
+                double uT = Math.hypot(dtA * uXOhm[i - 1], dtB * uXOhm[i]);
+                return f * span * uT;
             }
         }
         return Double.NaN;

@@ -4,7 +4,7 @@ import java.util.List;
 import org.zweep.driver.impedance.Impedance;
 
 /**
- * Closed-form first guesses of a circuit's parameters from the data (check-values.md §10), so no
+ * Closed-form first guesses of a circuit's parameters from the data, so no
  * user guess is needed. Every value returned is positive and finite.
  */
 final class StartValues {

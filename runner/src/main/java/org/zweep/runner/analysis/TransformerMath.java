@@ -1,7 +1,7 @@
 package org.zweep.runner.analysis;
 
 /**
- * Two-winding transformer formulas (check-values.md §7). Inductances in H, ratios dimensionless.
+ * Two-winding transformer formulas (coupled coils; k from open/short inductance as in JIS C 5602-1986). Inductances in H, ratios dimensionless.
  * Pure functions.
  */
 public final class TransformerMath {

@@ -24,11 +24,26 @@ import org.zweep.runner.text.Figures;
  * @param mutualH mutual inductance k·L_oc/n (= k√(L1·L2) with L2 = L1/n²)
  * @param magnetizingH k·L_oc
  * @param notes explanations for people
+ * @param uOpenH the standard uncertainty of L_oc: the mean of its rows' u (the meter's stated
+ *     accuracy does not average away) combined with the standard deviation of the mean of repeats;
+ *     NaN when a row's u is unknown
+ * @param uShortH the same for L_sc (and so for the leakage inductance)
+ * @param uK the standard uncertainty of k, propagated from u(L_oc) and u(L_sc) taken as
+ *     independent (JCGM 100:2008, 5.1.2)
+ * @param uTurnsRatio the standard uncertainty of the turns ratio; NaN while the voltage ratio's is
+ *     unknown (no accuracy is stated for a ratio) or when the nominal is used
+ * @param uMutualH the standard uncertainty of M; NaN when the turns ratio's is unknown
  */
 public record TransformerResult(double frequencyHz, double openH, double shortH, double voltageRatio,
-        double turnsRatio, double k, double leakageH, double mutualH, double magnetizingH, List<String> notes) {
+        double turnsRatio, double k, double leakageH, double mutualH, double magnetizingH, List<String> notes,
+        double uOpenH, double uShortH, double uK, double uTurnsRatio, double uMutualH) {
     public TransformerResult {
         notes = List.copyOf(notes);
+    }
+
+    /** The standard uncertainty of the leakage inductance (that of L_sc, which it is). */
+    public double uLeakageH() {
+        return uShortH;
     }
 
     /** N1:N2 for people: {@code 3.995:1} (or {@code 1:4.1} for a step-up winding); "—" when unknown. */
@@ -67,16 +82,20 @@ public record TransformerResult(double frequencyHz, double openH, double shortH,
         }
         List<String> notes = new ArrayList<>();
         double f = Double.NaN;
-        double loc = open.isEmpty() ? Double.NaN : mean(open.firstEntry().getValue());
-        double lsc = shorted.isEmpty() ? Double.NaN : mean(shorted.firstEntry().getValue());
+        double[] locAcc = open.isEmpty() ? null : open.firstEntry().getValue();
+        double[] lscAcc = shorted.isEmpty() ? null : shorted.firstEntry().getValue();
         for (Double freq : open.keySet()) {
             if (shorted.containsKey(freq)) {
                 f = freq;
-                loc = mean(open.get(freq));
-                lsc = mean(shorted.get(freq));
+                locAcc = open.get(freq);
+                lscAcc = shorted.get(freq);
                 break;
             }
         }
+        double loc = mean(locAcc);
+        double lsc = mean(lscAcc);
+        double uLoc = uncertaintyOfMean(locAcc);
+        double uLsc = uncertaintyOfMean(lscAcc);
         if (Double.isNaN(f) && !open.isEmpty() && !shorted.isEmpty()) {
             notes.add("open- and short-circuit inductances were measured at different frequencies");
         }
@@ -95,23 +114,50 @@ public record TransformerResult(double frequencyHz, double openH, double shortH,
                         n));
             }
         }
+        // k = √(1 − Lsc/Loc): ∂k/∂Loc = Lsc/(2k·Loc²), ∂k/∂Lsc = −1/(2k·Loc)
+        double uK = Math.hypot(lsc / (2 * k * loc * loc) * uLoc, uLsc / (2 * k * loc));
+        double uFwd = Double.NaN; // no accuracy is stated for a voltage ratio
+        double uN = Double.isFinite(fwd) && Double.isFinite(k) ? Math.hypot(fwd * uK, k * uFwd) : Double.NaN;
+        // M = k·Loc/n = Loc/(V1/V2) when n = k·V1/V2
+        double uM = Double.isFinite(uN) ? Math.hypot(uLoc / fwd, loc * uFwd / (fwd * fwd)) : Double.NaN;
         return new TransformerResult(f, loc, lsc, fwd, n, k, lsc, k * loc / n, k * loc,
-                notes);
+                notes, uLoc, uLsc, uK, uN, uM);
+    }
+
+    /**
+     * u of a mean of rows: the mean of their stated u (systematic: not divided by √n) combined
+     * with the standard deviation of the mean of the values; NaN when a row's u is unknown.
+     */
+    private static double uncertaintyOfMean(double[] acc) {
+        if (acc == null) {
+            return Double.NaN;
+        }
+        double n = acc[1];
+        double stated = acc[2] / n;
+        double typeA = 0;
+        if (n > 1) {
+            double var = Math.max(0, (acc[3] - acc[0] * acc[0] / n) / (n - 1));
+            typeA = var / n;
+        }
+        return Math.sqrt(stated * stated + typeA);
     }
 
     private static TreeMap<Double, double[]> inductance(List<PointRow> rows, String wiring) {
         TreeMap<Double, double[]> out = new TreeMap<>();
         for (PointRow r : rows) {
             if ("ok".equals(r.status()) && "impedance".equals(r.quantity()) && wiring.equals(r.wiring())) {
-                double[] acc = out.computeIfAbsent(r.frequencyHz(), x -> new double[2]);
-                acc[0] += r.value("ls_h");
+                double[] acc = out.computeIfAbsent(r.frequencyHz(), x -> new double[4]);
+                double v = r.value("ls_h");
+                acc[0] += v;
                 acc[1]++;
+                acc[2] += r.uncertainty().of("ls_h");
+                acc[3] += v * v;
             }
         }
         return out;
     }
 
     private static double mean(double[] acc) {
-        return acc[0] / acc[1];
+        return acc == null ? Double.NaN : acc[0] / acc[1];
     }
 }

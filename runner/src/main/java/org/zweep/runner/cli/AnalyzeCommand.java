@@ -63,6 +63,11 @@ public final class AnalyzeCommand implements Callable<Integer> {
         return CheckOutcome.failed(a.verdict()) ? ExitCode.CHECK_FAILED : ExitCode.OK;
     }
 
+    /** {@code " ± u"}, or nothing when u is unknown. */
+    private static String plusMinus(double u, Unit unit) {
+        return Double.isFinite(u) ? " ± " + Figures.format(u, unit, 2) : "";
+    }
+
     static void summary(PrintWriter out, AnalysisResult a) {
         var part = a.run().manifest().part();
         if (part != null) {
@@ -79,7 +84,8 @@ public final class AnalyzeCommand implements Callable<Integer> {
                     b.append(e.getValue() == null ? "not resolved"
                             : Figures.format(e.getValue(), unit) + " ± " + Figures.format(f.sigma().get(e.getKey()), unit, 2));
                 }
-                b.append(", SRF ").append(f.srfHz() == null ? "not resolved" : Figures.format(f.srfHz(), Unit.HERTZ));
+                b.append(", SRF ").append(f.srfHz() == null ? "not resolved" : Figures.format(f.srfHz(), Unit.HERTZ)
+                        + (f.weighted() && Double.isFinite(f.srfU()) ? " ± " + Figures.format(f.srfU(), Unit.HERTZ, 2) : ""));
                 b.append(String.format(Locale.ROOT, ", residual %.2g", f.residualRms()));
                 if (f.weighted()) {
                     b.append(String.format(Locale.ROOT, ", weighted by u, reduced chi-squared %.3g", f.reducedChiSquared()));
@@ -98,7 +104,8 @@ public final class AnalyzeCommand implements Callable<Integer> {
         if (t != null) {
             out.printf(Locale.ROOT, "transformer: turns ratio N1:N2 %s (k × measured V1:V2 %s), k %s, leakage L_sc %s"
                     + " (secondary shorted, at %s), mutual %s%n", t.turnsRatioText(), t.voltageRatioText(),
-                    Figures.format(t.k(), Unit.NONE, 4), Figures.format(t.leakageH(), Unit.HENRY),
+                    Figures.format(t.k(), Unit.NONE, 4) + plusMinus(t.uK(), Unit.NONE),
+                    Figures.format(t.leakageH(), Unit.HENRY) + plusMinus(t.uLeakageH(), Unit.HENRY),
                     Figures.format(t.frequencyHz(), Unit.HERTZ), Figures.format(t.mutualH(), Unit.HENRY));
         }
         var units = CheckText.unitsFrom(a.run().rows());
@@ -106,8 +113,10 @@ public final class AnalyzeCommand implements Callable<Integer> {
             out.println(CheckText.line(c, units.apply(c.step())));
         }
         if (a.bins() != null && a.bins().letter() != null) {
-            out.printf(Locale.ROOT, "bin: %+.3f %% of nominal, tolerance letter %s%n", a.bins().deviationPercent(),
-                    a.bins().letter());
+            var tol = a.bins().tolerance();
+            out.printf(Locale.ROOT, "bin: %+.3f %% of nominal, tolerance letter %s%s%n", a.bins().deviationPercent(),
+                    a.bins().letter(), tol == null ? "" : ", against the stated tolerance: " + tol.decision().word()
+                            + " " + tol.how(Figures.unit(a.bins().unit())));
         }
         if (a.bins() != null && !a.bins().versusChecks().isEmpty()) {
             out.println("bin versus checks: " + a.bins().versusChecks());

@@ -19,7 +19,7 @@ import picocli.CommandLine.Spec;
                 + "progress, turns DC bias off and leaves a resumable folder; a second Ctrl-C stops at once "
                 + "(bias off first). A lost link is reconnected with back-off and the point measured again."
         },
-        footer = ExitCode.HELP_LIST + "  130 stopped by Ctrl-C (resumable)%n")
+        footer = ExitCode.HELP_LIST + "  130 stopped by Ctrl-C, a signal or at the fixture (resumable)%n")
 public final class RunCommand implements Callable<Integer> {
 
     @Spec
@@ -41,8 +41,8 @@ public final class RunCommand implements Callable<Integer> {
     @Option(names = "--resume", paramLabel = "DIR", description = "continue the run in this folder (needs only the folder)")
     Path resume;
 
-    @Option(names = "--yes", description = "answer operator prompts on a real meter without waiting")
-    boolean yes;
+    @picocli.CommandLine.Mixin
+    FixtureOptions fixture;
 
     @Option(names = "--seed", paramLabel = "N", description = "the simulator's noise seed (default: the bench's; on resume: the run's)")
     Long seed;
@@ -70,6 +70,19 @@ public final class RunCommand implements Callable<Integer> {
             description = "the address the live page is served on (default: ${DEFAULT-VALUE})")
     String liveBind;
 
+    @Option(names = "--serial", paramLabel = "SERIAL", description = "the part's serial number (recorded in run.json)")
+    String serial;
+
+    @Option(names = "--lot", paramLabel = "LOT", description = "the lot the part belongs to (recorded in run.json)")
+    String lot;
+
+    @Option(names = "--operator", paramLabel = "NAME", description = "who measures (recorded in run.json)")
+    String operator;
+
+    @Option(names = "--station", paramLabel = "NAME",
+            description = "this test station's name (default: station: in the station file, ~/.zweep/station.yaml)")
+    String station;
+
     @Override
     public Integer call() {
         if ((file == null) == (resume == null)) {
@@ -81,12 +94,32 @@ public final class RunCommand implements Callable<Integer> {
         if (!(timeoutS > 0) || !(reconnectBudgetS >= 0)) {
             throw new InvalidInputException("--timeout must be positive and --reconnect-budget not negative");
         }
-        RunLauncher.Options o = new RunLauncher.Options(meter, dialect, out, Path.of("results"), yes, seed, quiet,
+        RunLauncher.Options o = new RunLauncher.Options(meter, dialect, out, Path.of("results"), fixture, seed, quiet,
                 trace, timeoutS, reconnectBudgetS);
         RunLauncher l = new RunLauncher(spec.commandLine().getOut(), spec.commandLine().getErr());
+        if (resume != null && (serial != null || lot != null || operator != null || station != null)) {
+            throw new InvalidInputException("--serial, --lot, --operator and --station cannot be used with --resume"
+                    + " (the run keeps the identity it started with)");
+        }
+        if (resume == null) {
+            org.zweep.runner.store.StationFile sf = org.zweep.runner.store.StationFile.load();
+            l.identity(new org.zweep.runner.results.RunManifest.Identity(text(serial, "--serial"),
+                    text(lot, "--lot"), text(operator, "--operator"),
+                    station != null ? text(station, "--station") : sf.station()));
+        }
         if (live != null) {
             l.live(new java.net.InetSocketAddress(liveBind, live));
         }
         return resume != null ? l.resume(resume, o) : l.start(file, o);
+    }
+
+    private static String text(String v, String option) {
+        if (v == null) {
+            return null;
+        }
+        if (v.isBlank() || v.chars().anyMatch(Character::isISOControl)) {
+            throw new InvalidInputException(option + " must be a non-empty text on one line");
+        }
+        return v.strip();
     }
 }

@@ -22,6 +22,7 @@ import org.zweep.driver.impedance.Quantities;
 import org.zweep.driver.impedance.Unit;
 import org.zweep.driver.meter.Bias;
 import org.zweep.driver.meter.CorrectionStandard;
+import org.zweep.driver.meter.FixtureState;
 import org.zweep.driver.meter.MeasuredQuantity;
 import org.zweep.driver.meter.MeasurementSetting;
 import org.zweep.driver.meter.Reading;
@@ -29,14 +30,12 @@ import org.zweep.driver.meter.ReadingStatus;
 import org.zweep.runner.engine.FixtureCompensation;
 import org.zweep.runner.engine.ReadingCorrector;
 import org.zweep.runner.engine.RunEstimate;
-import org.zweep.runner.engine.SimulatorControl;
 import org.zweep.runner.engine.Station;
 import org.zweep.runner.plan.BiasControl;
 import org.zweep.runner.plan.CompensationMode;
 import org.zweep.runner.plan.FixturePlan;
 import org.zweep.runner.plan.Plan;
 import org.zweep.runner.plan.PlannedPoint;
-import org.zweep.runner.plan.Wiring;
 import org.zweep.runner.results.RunFolder;
 import org.zweep.runner.results.RunManifest;
 
@@ -75,18 +74,30 @@ public final class CompensationWorkflow {
         }
         if (fx.compensation() == CompensationMode.METER) {
             meterSide(plan, fx, station);
-            return new FixtureCompensation.Prepared(ReadingCorrector.NONE, new RunManifest.CompensationInfo("meter", names, null));
+            ReadingCorrector loadU = fx.standards().contains(CorrectionStandard.LOAD)
+                    ? new MeterLoadUncertainty(fx.loadStandardU()) : ReadingCorrector.NONE;
+            return new FixtureCompensation.Prepared(loadU, new RunManifest.CompensationInfo("meter", names, null)
+                    .from("measured", null, clock.instant().toString()));
         }
         Path runData = folder.dir().resolve(RUN_DATA);
         CompensationData data;
+        String source = "measured";
+        String reusedFrom = null;
         if (resuming && Files.isRegularFile(runData)) {
             data = CompensationData.read(runData);
+            RunManifest.CompensationInfo before = previous(folder);
+            if (before != null && before.source() != null) {
+                source = before.source();
+                reusedFrom = before.reusedFrom();
+            }
             log.accept("compensation: using the data already in the run folder (measured "
                     + org.zweep.runner.text.Figures.time(data.info().time()) + ")");
         } else {
             Optional<Path> reusable = findReusable(plan, station, folder, clock.instant());
             if (reusable.isPresent()) {
                 data = CompensationData.read(reusable.get());
+                source = "reused";
+                reusedFrom = reusable.get().toAbsolutePath().normalize().toString();
                 log.accept("compensation: reusing " + reusable.get() + " measured "
                         + org.zweep.runner.text.Figures.time(data.info().time()));
             } else {
@@ -97,7 +108,7 @@ public final class CompensationWorkflow {
             }
             data.write(runData);
         }
-        HostCorrector corrector = new HostCorrector(data, runData.toString(), fx.loadStandard());
+        HostCorrector corrector = HostCorrector.withStatedLoad(data, runData.toString(), fx.loadStandardU());
         corrector.checkCovers(frequencies(plan));
         List<Double> over = data.openOverRangeHz();
         if (!over.isEmpty()) {
@@ -107,7 +118,17 @@ public final class CompensationWorkflow {
                     + RUN_DATA + " and run.json)");
         }
         return new FixtureCompensation.Prepared(corrector,
-                new RunManifest.CompensationInfo("host", names, RUN_DATA, over.isEmpty() ? null : over));
+                new RunManifest.CompensationInfo("host", names, RUN_DATA, over.isEmpty() ? null : over)
+                        .from(source, reusedFrom, data.time().toString()));
+    }
+
+    /** The compensation record of the run in {@code folder} before it was resumed, or null. */
+    private static RunManifest.CompensationInfo previous(RunFolder folder) {
+        try {
+            return Files.isRegularFile(folder.manifest()) ? RunManifest.read(folder.manifest()).compensation() : null;
+        } catch (InvalidInputException e) {
+            return null;
+        }
     }
 
     private static String span(List<Double> hz) {
@@ -125,7 +146,7 @@ public final class CompensationWorkflow {
                 .filter(x -> x.quantity() == MeasuredQuantity.IMPEDANCE).findFirst()
                 .orElse(plan.points().get(0).setting()).withBias(Bias.OFF);
         for (CorrectionStandard s : fx.standards()) {
-            station.fit(slot(s), instruction(s), BiasControl.NONE, Wiring.NONE);
+            station.insert(state(s), instruction(s), BiasControl.NONE);
             station.applySetting(at);
             if (s == CorrectionStandard.LOAD) {
                 if (fx.loadStandard() == null) {
@@ -147,7 +168,7 @@ public final class CompensationWorkflow {
         RunEstimate estimate = RunEstimate.of(plan);
         int k = 0;
         for (CorrectionStandard s : fx.standards()) {
-            station.fit(slot(s), instruction(s), BiasControl.NONE, Wiring.NONE);
+            station.insert(state(s), instruction(s), BiasControl.NONE);
             station.announce("compensation: measuring the " + s + " standard at " + settings.size() + " frequencies",
                     estimate.compensationStandardS().get(k++));
             int i = 0;
@@ -249,11 +270,11 @@ public final class CompensationWorkflow {
                 && i.standards().equals(fx.standards().stream().map(Enum::name).toList()) && sameLoad && covers;
     }
 
-    private static SimulatorControl.Slot slot(CorrectionStandard s) {
+    private static FixtureState state(CorrectionStandard s) {
         return switch (s) {
-            case OPEN -> SimulatorControl.Slot.OPEN;
-            case SHORT -> SimulatorControl.Slot.SHORT;
-            case LOAD -> SimulatorControl.Slot.LOAD;
+            case OPEN -> FixtureState.OPEN;
+            case SHORT -> FixtureState.SHORT;
+            case LOAD -> FixtureState.LOAD;
         };
     }
 

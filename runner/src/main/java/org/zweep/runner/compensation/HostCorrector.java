@@ -28,17 +28,36 @@ public final class HostCorrector implements ReadingCorrector {
     private final CompensationData data;
     private final String source;
     private final Complex loadKnown;
+    private final UncertainImpedance loadStated;
     private final Map<Double, Compensation> cache = new HashMap<>();
 
     /**
+     * With the load standard's value taken as exact.
+     *
      * @param data the standards' readings (OPEN, SHORT, or both, optionally with LOAD)
      * @param source where the data came from (for messages)
      * @param loadKnownOhm the load standard's known impedance; {@code null} without LOAD
      */
     public HostCorrector(CompensationData data, String source, Impedance loadKnownOhm) {
+        this(data, source, loadKnownOhm == null ? null : UncertainImpedance.exact(loadKnownOhm), true);
+    }
+
+    /**
+     * A corrector whose uncertainty includes the load standard's stated uncertainty.
+     *
+     * @param data the standards' readings (OPEN, SHORT, or both, optionally with LOAD)
+     * @param source where the data came from (for messages)
+     * @param loadStated the load standard's stated value with its standard uncertainty; {@code null} without LOAD
+     */
+    public static HostCorrector withStatedLoad(CompensationData data, String source, UncertainImpedance loadStated) {
+        return new HostCorrector(data, source, loadStated, true);
+    }
+
+    private HostCorrector(CompensationData data, String source, UncertainImpedance loadStated, boolean stated) {
         this.data = data;
         this.source = source;
-        this.loadKnown = loadKnownOhm == null ? null : loadKnownOhm.toComplex();
+        this.loadStated = loadStated;
+        this.loadKnown = loadStated == null ? null : loadStated.value().toComplex();
     }
 
     /**
@@ -75,8 +94,9 @@ public final class HostCorrector implements ReadingCorrector {
      * The standard uncertainty of the corrected value of {@code raw}: the raw reading's own,
      * {@code rawU}, through ∂Z/∂Zm, plus the uncertainty of each standard's reading at that
      * frequency ({@code standardU} of the stored or interpolated reading) through ∂Z/∂Z_standard,
-     * all taken as independent (JCGM 100:2008, 5.1.2). The derivatives are central differences
-     * of the correction itself. The load standard's stated value is taken as exact.
+     * and, with open/short/load, the stated uncertainty of the load standard's value through
+     * ∂Z/∂Z_std = Z/Z_std (see {@link #loadValueContribution}), all taken as independent (JCGM
+     * 100:2008, 5.1.2). The other derivatives are central differences of the correction itself.
      *
      * @param standardU the standard uncertainty of a standard's reading; null when unknown
      * @return the corrected value's uncertainty; null when {@code rawU} or a standard's is unknown
@@ -112,7 +132,25 @@ public final class HostCorrector implements ReadingCorrector {
             Complex dk = build(plus).correct(zm).subtract(build(minus).correct(zm)).divide(h.multiply(2));
             total = total.plus(uk.through(out, dk));
         }
+        if (std[0] != null && std[1] != null && std[2] != null) {
+            total = total.plus(loadValueContribution(out, loadStated));
+        }
         return total;
+    }
+
+    /**
+     * The contribution of the load standard's stated uncertainty to a value {@code corrected}
+     * by open/short/load: the corrected value is proportional to the load standard's value
+     * Z_std (the correction is Z = Z_std·F(Zm, Zo, Zs, Zl)), so ∂Z/∂Z_std = Z/Z_std exactly, and
+     * the load's relative uncertainty passes one to one to every corrected value. Zero for an
+     * exact load; also right for a meter that corrects itself with the same formula.
+     */
+    public static UncertainImpedance loadValueContribution(Impedance corrected, UncertainImpedance loadStated) {
+        if (loadStated == null) {
+            return UncertainImpedance.exact(corrected);
+        }
+        Complex z = corrected.toComplex();
+        return loadStated.through(corrected, z.divide(loadStated.value().toComplex()));
     }
 
     /**

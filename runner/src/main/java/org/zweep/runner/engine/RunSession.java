@@ -16,6 +16,7 @@ import org.zweep.runner.plan.PlannedPoint;
 import org.zweep.runner.results.PointsCsvReader;
 import org.zweep.runner.results.PointsCsvWriter;
 import org.zweep.runner.results.RunFolder;
+import org.zweep.runner.results.RunId;
 import org.zweep.runner.results.RunManifest;
 import org.zweep.runner.verdict.CheckEvaluator;
 import org.zweep.runner.verdict.CheckOutcome;
@@ -38,7 +39,7 @@ public final class RunSession {
      * @param dialect the dialect name or file in use
      * @param seed the simulator's seed to use; {@code null} keeps (and records) the simulator's own
      * @param reconnect how to reconnect after a lost link
-     * @param prompter asks the operator (not used on the simulator)
+     * @param fixture changes what is in the fixture
      * @param progress where progress goes
      * @param interruption stop requests (Ctrl-C, shutdown)
      * @param compensation prepares fixture compensation
@@ -50,15 +51,15 @@ public final class RunSession {
      *     {@link PointsCsvWriter.Sync#BEHIND} while the next point is measured
      */
     public record Setup(RunFolder folder, boolean resuming, String sequenceFile, String dialect, Long seed,
-            ReconnectPolicy reconnect, Prompter prompter, ProgressListener progress, Interruption interruption,
+            ReconnectPolicy reconnect, FixturePort fixture, ProgressListener progress, Interruption interruption,
             FixtureCompensation compensation, SweepChecks sweepChecks, Clock clock, String version,
             PointsCsvWriter.Sync rowSync) {
 
         /** A setup whose rows are synced before the next point starts ({@link PointsCsvWriter.Sync#EACH_ROW}). */
         public Setup(RunFolder folder, boolean resuming, String sequenceFile, String dialect, Long seed,
-                ReconnectPolicy reconnect, Prompter prompter, ProgressListener progress, Interruption interruption,
+                ReconnectPolicy reconnect, FixturePort fixture, ProgressListener progress, Interruption interruption,
                 FixtureCompensation compensation, SweepChecks sweepChecks, Clock clock, String version) {
-            this(folder, resuming, sequenceFile, dialect, seed, reconnect, prompter, progress, interruption,
+            this(folder, resuming, sequenceFile, dialect, seed, reconnect, fixture, progress, interruption,
                     compensation, sweepChecks, clock, version, PointsCsvWriter.Sync.EACH_ROW);
         }
     }
@@ -141,7 +142,7 @@ public final class RunSession {
         boolean sim = link.simulator().isPresent();
         boolean waits = !sim || link.simulator().get().realTiming();
         Waiter waiter = waits ? Waiter.sleeping(interruption) : Waiter.none(interruption);
-        station = new Station(link, guard, setup.prompter(), waiter, setup.reconnect(), log);
+        station = new Station(link, guard, setup.fixture(), waiter, setup.reconnect(), log);
         station.watchBias(biasWatcher);
         station.reportWorkTo(progress::work);
         RunManifest manifest = null;
@@ -222,9 +223,19 @@ public final class RunSession {
             RunManifest old = RunManifest.read(folder.manifest());
             return new RunManifest(old.format(), old.sequence(), old.part(), old.steps(), old.checks(), meter,
                     old.compensation(), old.software(), old.host(), seed, old.started(), null, old.counts(),
-                    "running", "none");
+                    "running", "none", old.id() != null ? old.id() : RunId.next(setup.clock().instant()),
+                    old.identity());
         }
-        return freshManifest(plan, folder, setup.sequenceFile(), meter, seed, setup.clock(), setup.version());
+        RunManifest fresh = freshManifest(plan, folder, setup.sequenceFile(), meter, seed, setup.clock(),
+                setup.version());
+        if (java.nio.file.Files.isRegularFile(folder.manifest())) {
+            // the launcher wrote the first manifest: keep its id and the part's identity
+            RunManifest first = RunManifest.read(folder.manifest());
+            if (first.id() != null) {
+                fresh = fresh.identified(first.id(), first.identity());
+            }
+        }
+        return fresh;
     }
 
     /**
@@ -249,7 +260,7 @@ public final class RunSession {
                 steps, checks, meter, new RunManifest.CompensationInfo("none", List.of(), null),
                 new RunManifest.SoftwareInfo("zweep", version), host(), seed,
                 clock.instant().toString(), null, new RunManifest.Counts(plan.points().size(), 0), "running",
-                "none");
+                "none", RunId.next(clock.instant()), null);
     }
 
     private static Double finite(double v) {

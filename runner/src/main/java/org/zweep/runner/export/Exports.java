@@ -17,6 +17,7 @@ import org.zweep.runner.analysis.RunData;
 import org.zweep.runner.analysis.Sweep;
 import org.zweep.runner.results.Derived;
 import org.zweep.runner.results.PointRow;
+import org.zweep.runner.results.RunManifest;
 
 /**
  * Writes a run folder's data as CSV, JSON or Touchstone files. Blocking file I/O; stateless.
@@ -25,7 +26,7 @@ public final class Exports {
     /** The columns of the CSV export, in order. */
     public static final List<String> CSV_COLUMNS = List.of("step", "repeat", "quantity", "wiring", "frequency_hz",
             "drive", "level", "bias_mode", "bias", "r_ohm", "x_ohm", "z_ohm", "theta_deg", "cs_f", "cp_f", "ls_h",
-            "lp_h", "rs_ohm", "rp_ohm", "d", "q", "ratio");
+            "lp_h", "rs_ohm", "rp_ohm", "d", "q", "ratio", "run_id", "serial", "lot", "verdict");
 
     private static final ObjectMapper JSON = new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT);
 
@@ -66,6 +67,11 @@ public final class Exports {
     /** Writes every measured row (points with a value) as CSV to {@code file}. */
     public static void csv(RunData run, Path file) {
         StringBuilder b = new StringBuilder(String.join(",", CSV_COLUMNS)).append('\n');
+        RunManifest m = run.manifest();
+        RunManifest.Identity id = m.identityOrNone();
+        // the same for every row: which run and part, and the run's verdict (empty when unknown)
+        String whose = "," + quote(orEmpty(m.id())) + "," + quote(orEmpty(id.serial())) + ","
+                + quote(orEmpty(id.lot())) + "," + quote(orEmpty(m.verdict()));
         for (PointRow r : run.rows()) {
             if (!"ok".equals(r.status())) {
                 continue;
@@ -86,7 +92,7 @@ public final class Exports {
                 cells.add(num(r.value(d)));
             }
             cells.add(num(r.ratio()));
-            b.append(String.join(",", cells)).append('\n');
+            b.append(String.join(",", cells)).append(whose).append('\n');
         }
         write(file, b.toString());
     }
@@ -141,6 +147,10 @@ public final class Exports {
         } else {
             n.putNull(key);
         }
+    }
+
+    private static String orEmpty(String s) {
+        return s == null ? "" : s;
     }
 
     private static String num(double v) {

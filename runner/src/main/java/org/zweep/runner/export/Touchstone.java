@@ -6,7 +6,7 @@ import org.zweep.driver.impedance.Impedance;
 
 /**
  * Writes one-port Z-parameter Touchstone files (IBIS Open Forum Touchstone v1.1 and v2.0;
- * standards.md §6). Frequencies in Hz, real-imaginary pairs. In v2.0 Z is in ohms (not
+ * Touchstone File Format Specification). Frequencies in Hz, real-imaginary pairs. In v2.0 Z is in ohms (not
  * normalised) and the file carries {@code [Version]}, {@code [Number of Ports]},
  * {@code [Number of Frequencies]}, {@code [Network Data]} and {@code [End]}; in v1.1 Z is
  * normalised to the option line's R. Pure functions.

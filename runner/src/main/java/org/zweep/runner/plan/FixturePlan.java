@@ -4,6 +4,7 @@ import java.time.Duration;
 import java.util.List;
 import org.zweep.driver.impedance.Impedance;
 import org.zweep.driver.meter.CorrectionStandard;
+import org.zweep.driver.uncertainty.UncertainImpedance;
 
 /**
  * How the fixture is connected and compensated.
@@ -16,6 +17,8 @@ import org.zweep.driver.meter.CorrectionStandard;
  * @param reuseYoungerThan stored compensation data younger than this is reused instead of measured
  *     again; {@link Duration#ZERO} means always measure
  * @param store a folder to keep host-side compensation data in for reuse; {@code null} means the run folder
+ * @param loadStandardU the load standard's stated value with its standard uncertainty (the value is
+ *     {@code loadStandard}'s); exact when none is stated; {@code null} when no LOAD is used
  */
 public record FixturePlan(
         Connection connection,
@@ -23,9 +26,19 @@ public record FixturePlan(
         List<CorrectionStandard> standards,
         Impedance loadStandard,
         Duration reuseYoungerThan,
-        java.nio.file.Path store) {
+        java.nio.file.Path store,
+        UncertainImpedance loadStandardU) {
 
     public FixturePlan {
         standards = List.copyOf(standards);
+        if (loadStandardU == null && loadStandard != null) {
+            loadStandardU = UncertainImpedance.exact(loadStandard);
+        }
+    }
+
+    /** With the load standard's value taken as exact. */
+    public FixturePlan(Connection connection, CompensationMode compensation, List<CorrectionStandard> standards,
+            Impedance loadStandard, Duration reuseYoungerThan, java.nio.file.Path store) {
+        this(connection, compensation, standards, loadStandard, reuseYoungerThan, store, null);
     }
 }

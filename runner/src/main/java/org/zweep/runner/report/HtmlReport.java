@@ -208,8 +208,8 @@ public final class HtmlReport {
         rows.add(new Row("deviation", Double.isFinite(bins.deviationPercent())
                 ? String.format(Locale.ROOT, "%+.3f %%", bins.deviationPercent()) : "—"));
         rows.add(new Row("IEC 60062 tolerance letter", bins.letter() == null ? "none" : bins.letter()));
-        rows.add(new Row("measured value within stated tolerance (a bin, not a check)", bins.withinTolerance() == null
-                ? "no tolerance stated" : bins.withinTolerance() ? "yes" : "no"));
+        rows.add(new Row("measured value against the stated tolerance (a bin, not a check)", bins.tolerance() == null
+                ? "no tolerance stated" : bins.tolerance().decision().word() + " " + bins.tolerance().how(unit)));
         if (!bins.versusChecks().isEmpty()) {
             rows.add(new Row("versus the checks", bins.versusChecks()));
         }

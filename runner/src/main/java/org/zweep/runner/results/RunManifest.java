@@ -43,12 +43,37 @@ import org.zweep.runner.plan.CheckLimit;
  * @param counts planned and measured points
  * @param outcome {@code running}, {@code completed}, {@code aborted} or {@code failed}
  * @param verdict {@code pass}, {@code fail} or {@code none}
+ * @param id the run's globally unique, time-sortable id ({@link RunId}); {@code null} in folders
+ *     written before ids existed (unknown)
+ * @param identity which part was measured, where and by whom; {@code null} when unknown
  */
-@JsonPropertyOrder({"format", "sequence", "part", "steps", "checks", "meter", "compensation", "software", "host",
-        "seed", "started", "ended", "counts", "outcome", "verdict"})
+@JsonPropertyOrder({"format", "id", "sequence", "part", "identity", "steps", "checks", "meter", "compensation",
+        "software", "host", "seed", "started", "ended", "counts", "outcome", "verdict"})
 public record RunManifest(String format, SequenceInfo sequence, PartInfo part, List<StepInfo> steps,
         List<CheckInfo> checks, MeterInfo meter, CompensationInfo compensation, SoftwareInfo software, String host,
-        Long seed, String started, String ended, Counts counts, String outcome, String verdict) {
+        Long seed, String started, String ended, Counts counts, String outcome, String verdict, String id,
+        Identity identity) {
+
+    /** A manifest without id and identity (both unknown). */
+    public RunManifest(String format, SequenceInfo sequence, PartInfo part, List<StepInfo> steps,
+            List<CheckInfo> checks, MeterInfo meter, CompensationInfo compensation, SoftwareInfo software, String host,
+            Long seed, String started, String ended, Counts counts, String outcome, String verdict) {
+        this(format, sequence, part, steps, checks, meter, compensation, software, host, seed, started, ended, counts,
+                outcome, verdict, null, null);
+    }
+
+    /**
+     * Which part was measured, where and by whom; each field {@code null} when not given.
+     *
+     * @param serial the part's serial number
+     * @param lot the lot (batch) it belongs to
+     * @param operator who measured it
+     * @param station the test station's name
+     */
+    public record Identity(String serial, String lot, String operator, String station) {
+        /** Nothing known. */
+        public static final Identity NONE = new Identity(null, null, null, null);
+    }
 
     /** The format tag this class reads and writes. */
     public static final String FORMAT = "zweep-run/1";
@@ -171,11 +196,27 @@ public record RunManifest(String format, SequenceInfo sequence, PartInfo part, L
      * @param data the host-side data file, relative to the folder when inside it; {@code null} otherwise
      * @param openOverRangeHz the frequencies where the OPEN read beyond the meter's range (its
      *     admittance taken as 0); {@code null} when none
+     * @param source {@code measured} (for this run) or {@code reused} (stored data of an earlier
+     *     run); {@code null} without compensation or when unknown (older folders)
+     * @param reusedFrom the file the reused data was copied from (absolute); {@code null} unless reused
+     * @param measuredAt when the standards were measured (ISO-8601); {@code null} when unknown
      */
-    public record CompensationInfo(String mode, List<String> standards, String data, List<Double> openOverRangeHz) {
+    public record CompensationInfo(String mode, List<String> standards, String data, List<Double> openOverRangeHz,
+            String source, String reusedFrom, String measuredAt) {
         /** A compensation record with the OPEN readable everywhere. */
         public CompensationInfo(String mode, List<String> standards, String data) {
             this(mode, standards, data, null);
+        }
+
+        /** A compensation record whose origin is unknown. */
+        public CompensationInfo(String mode, List<String> standards, String data, List<Double> openOverRangeHz) {
+            this(mode, standards, data, openOverRangeHz, null, null, null);
+        }
+
+        /** This record saying where the data came from. */
+        public CompensationInfo from(String newSource, String newReusedFrom, String newMeasuredAt) {
+            return new CompensationInfo(mode, standards, data, openOverRangeHz, newSource, newReusedFrom,
+                    newMeasuredAt);
         }
     }
 
@@ -190,25 +231,36 @@ public record RunManifest(String format, SequenceInfo sequence, PartInfo part, L
     /** This manifest with a new outcome, end time, counts and verdict. */
     public RunManifest finished(String newOutcome, String newEnded, Counts newCounts, String newVerdict) {
         return new RunManifest(format, sequence, part, steps, checks, meter, compensation, software, host, seed,
-                started, newEnded, newCounts, newOutcome, newVerdict);
+                started, newEnded, newCounts, newOutcome, newVerdict, id, identity);
     }
 
     /** This manifest with each check's outcome (same order as {@link #checks()}). */
     public RunManifest withChecks(List<CheckInfo> judged) {
         return new RunManifest(format, sequence, part, steps, List.copyOf(judged), meter, compensation, software, host,
-                seed, started, ended, counts, outcome, verdict);
+                seed, started, ended, counts, outcome, verdict, id, identity);
     }
 
     /** This manifest with another meter and compensation record (after a resume reconnects). */
     public RunManifest withMeter(MeterInfo newMeter) {
         return new RunManifest(format, sequence, part, steps, checks, newMeter, compensation, software, host, seed,
-                started, ended, counts, outcome, verdict);
+                started, ended, counts, outcome, verdict, id, identity);
     }
 
     /** This manifest with another compensation record. */
     public RunManifest withCompensation(CompensationInfo newCompensation) {
         return new RunManifest(format, sequence, part, steps, checks, meter, newCompensation, software, host, seed,
-                started, ended, counts, outcome, verdict);
+                started, ended, counts, outcome, verdict, id, identity);
+    }
+
+    /** This manifest with another run id and identity. */
+    public RunManifest identified(String newId, Identity newIdentity) {
+        return new RunManifest(format, sequence, part, steps, checks, meter, compensation, software, host, seed,
+                started, ended, counts, outcome, verdict, newId, newIdentity);
+    }
+
+    /** The identity, {@link Identity#NONE} when unknown. */
+    public Identity identityOrNone() {
+        return identity == null ? Identity.NONE : identity;
     }
 
     /**

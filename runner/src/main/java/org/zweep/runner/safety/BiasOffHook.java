@@ -13,7 +13,9 @@ import org.zweep.runner.engine.Interruption;
  * <ul>
  *   <li>the first Ctrl-C (SIGINT) asks the run to stop after the point in progress; the run then
  *       brings bias down at the step's ramp rate, writes everything and leaves a resumable folder;</li>
- *   <li>a second Ctrl-C cuts bias at once (no ramp), says so and exits with code 130;</li>
+ *   <li>a second Ctrl-C cuts bias at once (no ramp), says so and exits with code 130 within
+ *       {@link #SECOND_STOP_MILLIS} ms, whatever the link does: when the meter has not confirmed
+ *       bias off by then (a stalled link), it says that it could not confirm and exits anyway;</li>
  *   <li>JVM shutdown (SIGTERM, {@code System.exit}) asks the run to stop the same way, waits up to
  *       {@code graceMillis} for it (the ramp down included), and cuts bias itself, saying so, if
  *       the run did not stop in time.</li>
@@ -24,6 +26,8 @@ import org.zweep.runner.engine.Interruption;
 public final class BiasOffHook implements AutoCloseable {
     /** Exit code after a second Ctrl-C (128 + SIGINT). */
     public static final int EXIT_INTERRUPTED = 130;
+    /** How long a second Ctrl-C waits for the meter to confirm bias off before the process ends. */
+    static final long SECOND_STOP_MILLIS = 500;
 
     private final Interruption interruption;
     private final BooleanSupplier biasOff;
@@ -66,11 +70,30 @@ public final class BiasOffHook implements AutoCloseable {
             err.flush();
             interruption.request("Ctrl-C");
         } else {
-            boolean off = biasOff.getAsBoolean();
+            boolean off = biasOffWithin(SECOND_STOP_MILLIS);
             err.println(off ? "zweep: stopped at once; DC bias was cut without a ramp" : "zweep: stopped at once;"
                     + " could NOT confirm that DC bias is off - check the meter before touching the part");
             err.flush();
             Runtime.getRuntime().halt(EXIT_INTERRUPTED);
+        }
+    }
+
+    /**
+     * Asks for bias off on a thread of its own and waits at most {@code millis} for the answer: a
+     * stalled link must not hold the second Ctrl-C (the guard process is still there for bias).
+     */
+    private boolean biasOffWithin(long millis) {
+        java.util.concurrent.CompletableFuture<Boolean> f = new java.util.concurrent.CompletableFuture<>();
+        Thread t = new Thread(() -> f.complete(biasOff.getAsBoolean()), "zweep-bias-cut");
+        t.setDaemon(true);
+        t.start();
+        try {
+            return f.get(millis, java.util.concurrent.TimeUnit.MILLISECONDS);
+        } catch (java.util.concurrent.TimeoutException | java.util.concurrent.ExecutionException e) {
+            return false;
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+            return false;
         }
     }
 

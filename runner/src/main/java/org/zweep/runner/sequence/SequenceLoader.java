@@ -1,8 +1,9 @@
 package org.zweep.runner.sequence;
 
 import java.nio.file.Path;
-import java.util.List;
-import org.snakeyaml.engine.v2.nodes.Node;
+import org.zweep.config.BoundedYaml;
+import org.zweep.config.ConfigException;
+import org.zweep.config.YamlNode;
 import org.zweep.driver.InvalidInputException;
 import org.zweep.runner.plan.Plan;
 
@@ -25,7 +26,7 @@ public final class SequenceLoader {
      * @throws InvalidInputException when the file cannot be read or does not validate
      */
     public static Plan load(Path file) {
-        return parse(BoundedYaml.read(file, "sequence file"), file);
+        return parse(read(file), file);
     }
 
     /**
@@ -44,16 +45,30 @@ public final class SequenceLoader {
      * point the meter cannot do is refused at the step key that asks for it ({@code file:line:column}).
      */
     public static Plan loadForMeter(Path file, String dialect) {
-        return parse(BoundedYaml.read(file, "sequence file"), file, dialect == null ? "" : dialect);
+        return parse(read(file), file, dialect == null ? "" : dialect);
+    }
+
+    private static String read(Path file) {
+        try {
+            return BoundedYaml.read(file, "sequence file");
+        } catch (InvalidInputException e) {
+            throw e;
+        } catch (ConfigException e) {
+            throw new InvalidInputException(e.getMessage(), e);
+        }
     }
 
     private static Plan parse(String text, Path source, String meterCheck) {
         String file = source.toString();
-        List<Node> documents = BoundedYaml.compose(text, file, "sequence file");
-        if (documents.isEmpty()) {
-            throw new InvalidInputException(file + ":1:1: empty file: expected a sequence (a mapping with "
-                    + "format, meter, safety, part and steps)");
+        try {
+            YamlNode root = BoundedYaml.composeOne(text, file, "sequence file").orElseThrow(() ->
+                    new InvalidInputException(file + ":1:1: empty file: expected a sequence (a mapping with "
+                            + "format, meter, safety, part and steps)"));
+            return new SequenceReader(source, meterCheck).read(root);
+        } catch (InvalidInputException e) {
+            throw e;
+        } catch (ConfigException e) {
+            throw new InvalidInputException(e.getMessage(), e);
         }
-        return new SequenceReader(source, meterCheck).read(new YamlNode(documents.get(0), file));
     }
 }

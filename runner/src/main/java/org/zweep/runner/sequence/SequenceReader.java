@@ -1,5 +1,7 @@
 package org.zweep.runner.sequence;
 
+import org.zweep.config.Suggest;
+import org.zweep.config.YamlNode;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Duration;
@@ -20,6 +22,7 @@ import org.zweep.driver.impedance.DerivedParameter;
 import org.zweep.driver.impedance.Impedance;
 import org.zweep.driver.impedance.ToleranceCode;
 import org.zweep.driver.impedance.Unit;
+import org.zweep.driver.uncertainty.UncertainImpedance;
 import org.zweep.driver.meter.CorrectionStandard;
 import org.zweep.driver.meter.ImpedanceRange;
 import org.zweep.driver.meter.MeasuredQuantity;
@@ -51,7 +54,7 @@ final class SequenceReader {
     static final List<String> SAFETY_KEYS =
             List.of("max_bias_voltage", "max_bias_current", "max_level_voltage", "max_level_current");
     static final List<String> FIXTURE_KEYS = List.of("terminals", "compensation", "standards", "load", "reuse", "store");
-    static final List<String> LOAD_KEYS = List.of("r", "x");
+    static final List<String> LOAD_KEYS = List.of("r", "x", "u_r", "u_x", "k");
     static final List<String> PART_KEYS = List.of("kind", "name", "nominal", "tolerance", "turns_ratio");
     static final List<String> STEP_KEYS = List.of("name", "prompt", "quantity", "wiring", "frequency", "level", "bias",
             "order", "averaging", "integration", "repeats", "delay", "range", "derating");
@@ -288,7 +291,7 @@ final class SequenceReader {
         } else if (mode != CompensationMode.NONE) {
             standards.addAll(List.of(CorrectionStandard.OPEN, CorrectionStandard.SHORT));
         }
-        Impedance load = null;
+        UncertainImpedance load = null;
         if (m.has("load")) {
             YamlNode ln = m.required("load");
             if (!standards.contains(CorrectionStandard.LOAD)) {
@@ -314,17 +317,32 @@ final class SequenceReader {
             }
             store = source.toAbsolutePath().getParent().resolve(st.text("a folder")).normalize();
         }
-        return new FixturePlan(connection, mode, standards, load, reuse, store);
+        return new FixturePlan(connection, mode, standards, load == null ? null : load.value(), reuse, store, load);
     }
 
-    private static Impedance load(YamlNode node) {
+    /**
+     * The load standard's stated value, {@code 100 ohm} or {@code {r, x, u_r, u_x, k}}: u_r and u_x
+     * as stated (standard uncertainties, or expanded ones with their coverage factor k), 0 when
+     * not stated.
+     */
+    private static UncertainImpedance load(YamlNode node) {
         if (node.isMap()) {
             YamlNode.YamlMap lm = node.map("load", LOAD_KEYS);
             double r = Units.parse(lm.required("r"), Unit.OHM);
             double x = lm.optional("x").map(n -> Units.parse(n, Unit.OHM)).orElse(0.0);
-            return new Impedance(Double.NaN, r, x);
+            double ur = lm.optional("u_r").map(n -> Units.parse(n, Unit.OHM, Unit.Bound.NON_NEGATIVE)).orElse(0.0);
+            double ux = lm.optional("u_x").map(n -> Units.parse(n, Unit.OHM, Unit.Bound.NON_NEGATIVE)).orElse(0.0);
+            double k = 1;
+            if (lm.has("k")) {
+                YamlNode kn = lm.required("k");
+                if (!lm.has("u_r") && !lm.has("u_x")) {
+                    throw kn.error("k given but no u_r or u_x to divide by it");
+                }
+                k = Units.parse(kn, Unit.NONE, Unit.Bound.POSITIVE);
+            }
+            return new UncertainImpedance(new Impedance(Double.NaN, r, x), ur / k, ux / k, 0);
         }
-        return new Impedance(Double.NaN, Units.parse(node, Unit.OHM), 0.0);
+        return UncertainImpedance.exact(new Impedance(Double.NaN, Units.parse(node, Unit.OHM), 0.0));
     }
 
     // ---- part ----

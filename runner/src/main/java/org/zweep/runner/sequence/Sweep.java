@@ -1,5 +1,6 @@
 package org.zweep.runner.sequence;
 
+import org.zweep.config.YamlNode;
 import java.util.ArrayList;
 import java.util.List;
 import org.zweep.driver.impedance.Unit;

@@ -1,5 +1,6 @@
 package org.zweep.runner.sequence;
 
+import org.zweep.config.YamlNode;
 import java.math.BigDecimal;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;

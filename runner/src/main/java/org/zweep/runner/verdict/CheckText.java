@@ -85,10 +85,8 @@ public final class CheckText {
         String where = selection(c, units);
         String rule = "";
         if (l.rule() != DecisionRule.SIMPLE || !Double.isNaN(c.expandedU())) {
-            rule = " [" + l.rule().text()
-                    + (Double.isNaN(c.expandedU()) ? ", U unknown" : ", U = " + Figures.format(c.expandedU(), c.unit(), 2))
-                    + (Double.isNaN(c.probability()) ? "" : String.format(java.util.Locale.ROOT, ", p = %.3f", c.probability()))
-                    + "]";
+            rule = " " + org.zweep.runner.conformance.Conformance.how(l.rule().text(), c.expandedU(), c.probability(),
+                    c.unit());
         }
         return String.format(java.util.Locale.ROOT, "check %-22s %s%s in %s = %s: %s%s%s", l.name(), label(c),
                 where.isEmpty() ? "" : " at " + where, l.step(), value(c), c.result(), rule,

@@ -18,7 +18,7 @@ class BinsVersusChecksTest {
     @Test
     void aFailedPointCheckNextToAFittedValueWithinToleranceIsExplained() throws Exception {
         // 100 nF + 20 mΩ + 1 nH: near 10 MHz the apparent Cs = C/(1 − ω²LC) is 165 nF, far outside ±10 %,
-        // while the fitted C stays 100 nF; series RLC, common practice, no source
+        // while the fitted C stays 100 nF (series RLC)
         List<Impedance> sweep = new ArrayList<>();
         for (int i = 0; i < 21; i++) {
             double f = 100e3 * Math.pow(10, i / 10.0);

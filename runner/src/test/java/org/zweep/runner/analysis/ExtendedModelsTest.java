@@ -20,11 +20,11 @@ class ExtendedModelsTest {
 
     @Test
     void leakageModelRecoversTheParallelResistanceOfALeakyCapacitor() {
-        // 1 µF, ESR 0.2 Ω, ESL 2 nH, 200 kΩ leakage: at 1 Hz 1/(ωC) = 159 kΩ, comparable with Rp [calc]
+        // 1 µF, ESR 0.2 Ω, ESL 2 nH, 200 kΩ leakage: at 1 Hz 1/(ωC) = 159 kΩ, comparable with Rp
         List<Impedance> data = Sweeps.sweep(WIDE, Sweeps.leakyCapacitor(0.2, 2e-9, 1e-6, 200e3));
         CircuitFit fit = EquivalentCircuitFit.fit(CircuitModel.CAPACITOR_LEAKAGE, data);
         assertTrue(fit.converged(), fit.notes().toString());
-        // noiseless data: recovered to 1e-6 relative, as the §10 set (check-values.md §10 criterion)
+        // noiseless data: recovered to 1e-6 relative
         assertEquals(1e-6, fit.value("c_f"), 1e-6 * 1e-6);
         assertEquals(0.2, fit.value("esr_ohm"), 0.2 * 1e-6);
         assertEquals(2e-9, fit.value("esl_h"), 2e-9 * 1e-6);
@@ -38,12 +38,12 @@ class ExtendedModelsTest {
                 Sweeps.lossyCapacitor(0.025, 0.8e-9, 100e-9, 0.012));
         CircuitFit fit = EquivalentCircuitFit.fit(CircuitModel.CAPACITOR_TAN_DELTA, data);
         assertTrue(fit.converged(), fit.notes().toString());
-        // check-values.md §10 criterion: 1e-6 relative on noiseless data
+        // noiseless data: recovered to 1e-6 relative
         assertEquals(100e-9, fit.value("c_f"), 100e-9 * 1e-6);
         assertEquals(0.025, fit.value("esr_ohm"), 0.025 * 1e-6);
         assertEquals(0.8e-9, fit.value("esl_h"), 0.8e-9 * 1e-6);
         assertEquals(0.012, fit.value("tan_delta"), 0.012 * 1e-6);
-        // D of a lossy C in series with ESR: D = tan δ + ESR·ωC(1 + tan²δ) at low frequency [calc]; 1e-3 at 10 Hz
+        // D of a lossy C in series with ESR: D = tan δ + ESR·ωC(1 + tan²δ) at low frequency; 1e-3 at 10 Hz
         Impedance low = data.get(0);
         double w = low.omega();
         assertEquals(0.012 + 0.025 * w * 100e-9 * (1 + 0.012 * 0.012), low.dissipationFactor(), 1e-12);
@@ -56,7 +56,7 @@ class ExtendedModelsTest {
                 Sweeps.inductorWithCoreLoss(0.08, 10e-6, 2.8e-12, 3000));
         CircuitFit fit = EquivalentCircuitFit.fit(CircuitModel.INDUCTOR_CORE_LOSS, data);
         assertTrue(fit.converged(), fit.notes().toString());
-        // check-values.md §10 criterion: 1e-6 relative on noiseless data
+        // noiseless data: recovered to 1e-6 relative
         assertEquals(10e-6, fit.value("l_h"), 10e-6 * 1e-6);
         assertEquals(0.08, fit.value("r_ohm"), 0.08 * 1e-6);
         assertEquals(2.8e-12, fit.value("cp_f"), 2.8e-12 * 1e-6);

@@ -7,14 +7,18 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.ValueSource;
 
-/** The Levenberg–Marquardt wrapper against NIST StRD certified results (check-values.md §9.3). */
+/**
+ * The Levenberg–Marquardt wrapper against NIST StRD certified results (NIST Statistical Reference Datasets,
+ * nonlinear regression, https://www.itl.nist.gov/div898/strd/nls/nls_main.shtml: Misra1a, lower difficulty; MGH10,
+ * higher difficulty).
+ */
 class LeastSquaresFitTest {
-    // NIST StRD Misra1a data, check-values.md §9.3
+    // NIST StRD Misra1a data, y = b1(1 − exp(−b2·x)), 14 observations; starts (500, 1e-4) and (250, 5e-4)
     static final double[] MISRA_X = {77.6, 114.9, 141.1, 190.8, 239.9, 289.0, 332.8, 378.4, 434.8, 477.3, 536.8,
         593.1, 689.1, 760.0};
     static final double[] MISRA_Y = {10.07, 14.73, 17.94, 23.93, 29.61, 35.18, 40.02, 44.82, 50.76, 55.05, 61.01,
         66.40, 75.47, 81.78};
-    // NIST StRD MGH10 data, check-values.md §9.3
+    // NIST StRD MGH10 data (Meyer 1970), y = b1·exp(b2/(x + b3)), x = 50, 55, …, 125
     static final double[] MGH_Y = {34780, 28610, 23650, 19630, 16370, 13720, 11540, 9744, 8261, 7030, 6005, 5147,
         4427, 3820, 3307, 2872};
 
@@ -62,7 +66,7 @@ class LeastSquaresFitTest {
     void misra1aReachesTheCertifiedValuesAndUncertaintiesFromBothStarts(int start) {
         FitResult fit = LeastSquaresFit.defaults().solve(start == 1 ? misra(500, 1e-4) : misra(250, 5e-4));
         assertTrue(fit.converged(), fit.message());
-        // NIST StRD Misra1a certified values, check-values.md §9.3
+        // NIST StRD Misra1a certified values and standard deviations, residual sum of squares
         assertEquals(2.3894212918E+02, fit.parameter(0), 2.3894212918E+02 * 1e-7);
         assertEquals(5.5015643181E-04, fit.parameter(1), 5.5015643181E-04 * 1e-7);
         assertEquals(1.2455138894E-01, fit.residualSumOfSquares(), 1.2455138894E-01 * 1e-8);
@@ -93,7 +97,7 @@ class LeastSquaresFitTest {
     }
 
     private static void assertCertifiedMgh10(FitResult fit) {
-        // NIST StRD MGH10 certified values, check-values.md §9.3
+        // NIST StRD MGH10 certified values, residual sum of squares
         assertEquals(5.6096364710E-03, fit.parameter(0), 5.6096364710E-03 * 1e-6);
         assertEquals(6.1813463463E+03, fit.parameter(1), 6.1813463463E+03 * 1e-6);
         assertEquals(3.4522363462E+02, fit.parameter(2), 3.4522363462E+02 * 1e-6);

@@ -16,7 +16,7 @@ import org.zweep.driver.impedance.Impedance;
 
 /**
  * Fits recover the element values of netlists of real-looking parts, with the sweep computed by
- * ngspice (AC analysis, 1 V source, Z = V/I; standards.md §7.1), and written through a run folder.
+ * ngspice (AC analysis, 1 V source, Z = V/I; ngspice User's Manual, .ac), and written through a run folder.
  */
 class NgspiceFitIT {
     @TempDir
@@ -70,7 +70,7 @@ class NgspiceFitIT {
         assertEquals(100e-9, f.value("c_f"), 100e-9 * 1e-7);
         assertEquals(0.015, f.value("esr_ohm"), 0.015 * 1e-5);
         assertEquals(0.7e-9, f.value("esl_h"), 0.7e-9 * 1e-6);
-        // series resonance 1/(2π√(LC)) = 19.0228 MHz [calc]
+        // series resonance 1/(2π√(LC)) = 19.0228 MHz, computed
         assertEquals(1 / (2 * Math.PI * Math.sqrt(0.7e-9 * 100e-9)), f.srfHz(), 1.0);
     }
 
@@ -83,7 +83,7 @@ class NgspiceFitIT {
         assertEquals(100e-6, f.value("l_h"), 100e-6 * 1e-6);
         assertEquals(0.5, f.value("r_ohm"), 0.5 * 1e-5);
         assertEquals(3e-12, f.value("cp_f"), 3e-12 * 1e-6);
-        // zero-phase frequency f0·√(1 − R²C/L) (check-values.md §6 formula) = 9.18881 MHz [calc]
+        // zero-phase frequency of R + L with C across, f0·√(1 − R²C/L) = 9.18881 MHz (parallel-resonance algebra), computed
         double f0 = 1 / (2 * Math.PI * Math.sqrt(100e-6 * 3e-12));
         assertEquals(f0 * Math.sqrt(1 - 0.25 * 3e-12 / 100e-6), f.srfHz(), 1.0);
         // the data's zero crossing, interpolated linearly in log f, lies within the grid step around the true one

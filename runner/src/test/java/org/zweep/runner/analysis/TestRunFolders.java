@@ -20,6 +20,7 @@ public final class TestRunFolders {
     private final List<RunManifest.CheckInfo> checks = new ArrayList<>();
     private RunManifest.PartInfo part = new RunManifest.PartInfo("capacitor", "KP-C0805-104", 100e-9, "F", 10.0, null);
     private Instant time = Instant.parse("2024-05-01T10:00:00Z");
+    private double relativeU = Double.NaN;
 
     public TestRunFolders(Path dir) {
         this.dir = dir;
@@ -27,6 +28,15 @@ public final class TestRunFolders {
 
     public TestRunFolders part(String kind, String name, double nominal, String unit, Double tolerance, Double turns) {
         part = new RunManifest.PartInfo(kind, name, nominal, unit, tolerance, turns);
+        return this;
+    }
+
+    /**
+     * Impedance rows added from now on carry u(R) = u(X) = {@code relative}·|Z|, r = 0 (as if the
+     * meter stated that accuracy); NaN for none.
+     */
+    public TestRunFolders uncertainty(double relative) {
+        relativeU = relative;
         return this;
     }
 
@@ -38,7 +48,9 @@ public final class TestRunFolders {
             time = time.plusMillis(100);
             rows.add(PointRow.of(new PointRow.Key(rows.size(), step, index, repeat), new PointRow.Conditions("impedance",
                     wiring, z.frequencyHz(), new PointRow.Source(drive, level), new PointRow.Source(biasMode, bias)),
-                    true, z.resistanceOhm(), z.reactanceOhm(), "", time));
+                    true, z.resistanceOhm(), z.reactanceOhm(), Double.isNaN(relativeU) ? null
+                            : new org.zweep.driver.uncertainty.UncertainImpedance(z, relativeU * z.magnitudeOhm(),
+                                    relativeU * z.magnitudeOhm(), 0), "", time));
         }
         return this;
     }
@@ -68,8 +80,15 @@ public final class TestRunFolders {
         return this;
     }
 
+    /** A check under decision rule {@code rule} ({@code simple}, {@code guarded}, {@code probability 0.95}). */
+    public TestRunFolders check(String name, String parameter, String step, Double frequencyHz, Double min, Double max,
+            String rule) {
+        checks.add(new RunManifest.CheckInfo(name, parameter, step, frequencyHz, min, max, null, null, null, rule));
+        return this;
+    }
+
     /**
-     * A transformer run of check-values.md §7 X7 [calc]: L1 = 10 mH, n = 4, k = 0.99, so Lsc1 = 199.0 µH and
+     * A transformer run, all figures computed: L1 = 10 mH, n = 4, k = 0.99, so Lsc1 = L1(1 − k²) = 199.0 µH and
      * V1/V2 = L1/M = 4.0404; steps {@code open}, {@code short} and {@code ratio}, at 1 kHz.
      */
     public static TestRunFolders x7Transformer(Path dir) {

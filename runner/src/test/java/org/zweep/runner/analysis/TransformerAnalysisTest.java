@@ -15,16 +15,16 @@ class TransformerAnalysisTest {
 
     @Test
     void x7TransformerFiguresComeOutOfARunFolder() throws Exception {
-        // source: check-values.md §7 X7 [calc]: L1 = 10 mH, n = 4, k = 0.99 → Lsc1 = 199.0 µH,
-        // V1/V2 = 4.0404 (= L1/M)
+        // L1 = 10 mH, n = 4, k = 0.99 (TestRunFolders.x7Transformer), computed: M = k√(L1·L2) = 2.475 mH,
+        // Lsc1 = L1(1 − k²) = 199.0 µH, V1/V2 = L1/M = n/k = 4.0404
         Path dir = TestRunFolders.x7Transformer(tmp.resolve("run")).check("coupling", "k", "open", null, 0.98, null)
                 .write();
         AnalysisResult a = Analysis.analyze(RunData.read(dir), null);
         TransformerResult t = a.transformer();
-        assertEquals(0.99, t.k(), 1e-12); // check-values.md §7 X7, k (also the model's input)
-        assertEquals(4.0404, t.voltageRatio(), 1e-4); // check-values.md §7 X7, r_fwd = L1/M
-        assertEquals(4.000, t.turnsRatio(), 1e-12); // check-values.md §7 X7, √(r_fwd·r_rev)
-        assertEquals(2.475e-3, t.mutualH(), 1e-12); // check-values.md §7 X7, M
+        assertEquals(0.99, t.k(), 1e-12); // k = √(1 − Lsc/Loc) (JIS C 5602-1986, as Wikipedia "Short-circuit inductance" cites it)
+        assertEquals(4.0404, t.voltageRatio(), 1e-4); // the measured V1/V2
+        assertEquals(4.000, t.turnsRatio(), 1e-12); // n = k·V1/V2
+        assertEquals(2.475e-3, t.mutualH(), 1e-12); // M = k√(L1·L2)
         // L_sc1 = L1·(1 − k²) = 10 mH × (1 − 0.99²) = 199.0 µH; the one leakage figure is the measured L_sc
         assertEquals(199.0e-6, t.shortH(), 1e-15); // L_sc = L1·(1 − k²), from memory
         assertEquals(t.shortH(), t.leakageH(), 0.0);

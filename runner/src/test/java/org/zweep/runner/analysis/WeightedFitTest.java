@@ -56,12 +56,51 @@ class WeightedFitTest {
                 }
             }
         }
-        // χ²/ν has mean 1 for a right model with right uncertainties (common practice, no source)
+        // χ²/ν has mean 1 for a right model with right uncertainties (the χ² distribution's mean is ν)
         assertEquals(1.0, chi, 0.03);
         for (int k = 0; k < 3; k++) {
             // ±2σ of a normal estimate covers 95.45 % (Abramowitz and Stegun, Table 26.1); 300 runs: ±3.6 % at 3σ
             assertEquals(0.9545, inside[k] / (double) runs, 0.036, keys[k]);
         }
+    }
+
+    @Test
+    void theSelfResonancesUncertaintyMatchesItsScatterOverRepeatedSweeps() {
+        // the fitted SRF's u (propagated from the weighted covariance) and the data crossing's u
+        // (propagated from u(X) of the two points around it) against the spread of 300 seeded
+        // repeats: a Monte Carlo check of the law of propagation (JCGM 101:2008, 7.6)
+        double[] f = Sweeps.logSpaced(10e3, 100e6, 41);
+        double l = 0.8e-9;
+        double c = 220e-9;
+        double truthHz = 1 / (2 * Math.PI * Math.sqrt(l * c)); // where X of the series RLC crosses zero
+        Random random = new Random(29);
+        int runs = 300;
+        double[] fit = new double[runs];
+        double[] data = new double[runs];
+        double uFit = 0;
+        double uData = 0;
+        int inside = 0;
+        for (int run = 0; run < runs; run++) {
+            CircuitFit cf = EquivalentCircuitFit.fitWeighted(CircuitModel.CAPACITOR,
+                    sweep(Sweeps.seriesRlc(0.05, l, c), f, 1e-3, random));
+            fit[run] = cf.srfHz();
+            data[run] = cf.srfDataHz();
+            uFit += cf.srfU() / runs;
+            uData += cf.srfDataU() / runs;
+            if (Math.abs(cf.srfHz() - truthHz) <= 2 * cf.srfU()) {
+                inside++;
+            }
+        }
+        // 300 draws estimate a standard deviation to about ±4 % (1σ); allow 15 %
+        assertEquals(sd(fit), uFit, 0.15 * uFit, "fitted SRF");
+        assertEquals(sd(data), uData, 0.15 * uData, "SRF from the data's zero crossing");
+        // ±2σ of a normal estimate covers 95.45 % (Abramowitz and Stegun, Table 26.1); 300 runs: ±3.6 % at 3σ
+        assertEquals(0.9545, inside / (double) runs, 0.036);
+    }
+
+    private static double sd(double[] v) {
+        double m = java.util.Arrays.stream(v).average().orElseThrow();
+        return Math.sqrt(java.util.Arrays.stream(v).map(x -> (x - m) * (x - m)).sum() / (v.length - 1));
     }
 
     @Test

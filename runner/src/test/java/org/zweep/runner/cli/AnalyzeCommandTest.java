@@ -51,7 +51,7 @@ class AnalyzeCommandTest {
         JsonNode sweep = root.at("/steps/0");
         assertEquals("sweep", sweep.get("name").asText());
         assertEquals("capacitor", sweep.get("model").asText());
-        // check-values.md §10: C = 100 nF, ESR = 20 mΩ, ESL = 1 nH; the two repeats average to R·1.0005, X·0.9995
+        // the run's part: C = 100 nF, ESR = 20 mΩ, ESL = 1 nH; the two repeats average to R·1.0005, X·0.9995
         assertEquals(100e-9 / 0.9995, sweep.at("/parameters/c_f").asDouble(), 1e-15);
         assertEquals(0.02 * 1.0005, sweep.at("/parameters/esr_ohm").asDouble(), 1e-9);
         assertEquals(1e-9 * 0.9995, sweep.at("/parameters/esl_h").asDouble(), 1e-15);
@@ -72,14 +72,14 @@ class AnalyzeCommandTest {
         assertEquals("pass", root.at("/checks/0/result").asText());
         assertEquals("pass", root.at("/checks/1/result").asText());
         assertEquals("pass", root.get("verdict").asText());
-        // IEC 60063 E12 nearest to ~100 nF is 100 nF (check-values.md §4.2)
+        // IEC 60063:2015, E12 series (1.0 1.2 1.5 1.8 2.2 2.7 3.3 3.9 4.7 5.6 6.8 8.2): nearest to ~100 nF is 100 nF
         assertEquals(100e-9, root.at("/bins/nearest/E12").asDouble(), 1e-20);
-        assertEquals("B", root.at("/bins/tolerance_letter").asText()); // +0.05 %: within B ±0.1 %, outside W ±0.05 %
+        assertEquals("B", root.at("/bins/tolerance_letter").asText()); // IEC 60062:2016 letter code: +0.05 % is within B ±0.1 %, outside W ±0.05 %
     }
 
     @Test
     void failedSrfCheckGivesExitCodeOne() throws Exception {
-        Path dir = CliTestRuns.capacitorRun(tmp.resolve("run"), 20e6); // SRF is 15.9 MHz (check-values.md §10)
+        Path dir = CliTestRuns.capacitorRun(tmp.resolve("run"), 20e6); // SRF = 1/(2π√(ESL·C)) = 15.9 MHz
         StringWriter out = new StringWriter();
         StringWriter err = new StringWriter();
         assertEquals(1, run(out, err, "analyze", dir.toString()));

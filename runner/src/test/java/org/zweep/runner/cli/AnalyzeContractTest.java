@@ -99,7 +99,7 @@ class AnalyzeContractTest {
     void modelOptionSelectsTheTanDeltaModelAndItRecoversTheLoss() throws Exception {
         JsonNode step = analyzeJson(capacitorRun("c"), "--model", "capacitor-tan-delta").at("/steps/0");
         assertStepContract(step, "capacitor-tan-delta", List.of("c_f", "esr_ohm", "esl_h", "tan_delta"));
-        // noiseless data: check-values.md §10 criterion of 1e-6 relative
+        // noiseless synthetic data: the fit must recover the model's own parameters to 1e-6 relative
         assertEquals(0.012, step.at("/parameters/tan_delta").asDouble(), 0.012 * 1e-6);
         assertEquals(100e-9, step.at("/parameters/c_f").asDouble(), 100e-9 * 1e-6);
         assertEquals(0.025, step.at("/parameters/esr_ohm").asDouble(), 0.025 * 1e-6);
@@ -113,7 +113,7 @@ class AnalyzeContractTest {
                 .impedance("sweep", sweep(1, 100e6, 81, leaky), "V", 0.5, "V", 0, "none", 0).write();
         JsonNode step = analyzeJson(dir, "--model", "capacitor-leakage").at("/steps/0");
         assertStepContract(step, "capacitor-leakage", List.of("c_f", "esr_ohm", "esl_h", "rp_ohm"));
-        assertEquals(200e3, step.at("/parameters/rp_ohm").asDouble(), 200e3 * 1e-6); // check-values.md §10 criterion
+        assertEquals(200e3, step.at("/parameters/rp_ohm").asDouble(), 200e3 * 1e-6);
     }
 
     @Test
@@ -145,7 +145,7 @@ class AnalyzeContractTest {
                 .write();
         JsonNode step = analyzeJson(dir, "--model", "inductor-core-loss").at("/steps/0");
         assertStepContract(step, "inductor-core-loss", List.of("l_h", "r_ohm", "cp_f", "rcore_ohm"));
-        assertEquals(3000, step.at("/parameters/rcore_ohm").asDouble(), 3000 * 1e-6); // check-values.md §10 criterion
+        assertEquals(3000, step.at("/parameters/rcore_ohm").asDouble(), 3000 * 1e-6);
     }
 
     @Test
@@ -162,8 +162,8 @@ class AnalyzeContractTest {
 
     @Test
     void biasStepCarriesTheDeratingFiguresOfItsKind() throws Exception {
-        // synthetic curves (check-values.md §5.4: synthetic only): C0/(1 + (V/10 V)²) falls by 20 % at 5 V, by 50 %
-        // at 10 V; L0/(1 + (I/2 A)²) falls by 10 % at 2/3 A, 20 % at 1 A, 30 % at 2·√(3/7) = 1.309 A [calc]
+        // synthetic curves: C0/(1 + (V/10 V)²) falls by 20 % at 5 V, by 50 %
+        // at 10 V; L0/(1 + (I/2 A)²) falls by 10 % at 2/3 A, 20 % at 1 A, 30 % at 2·√(3/7) = 1.309 A
         TestRunFolders c = new TestRunFolders(tmp.resolve("cb"));
         TestRunFolders l = new TestRunFolders(tmp.resolve("lb")).part("inductor", "KP-L", 10e-6, "H", 20.0, null);
         double w = 2 * Math.PI * 1000;
@@ -190,7 +190,7 @@ class AnalyzeContractTest {
 
     @Test
     void transformerObjectHasTheContractKeys() throws Exception {
-        // check-values.md §7 X7 [calc]: L1 = 10 mH, n = 4, k = 0.99, Lsc1 = 199.0 µH
+        // L1 = 10 mH, n = 4, k = 0.99, so Lsc1 = L1(1 − k²) = 199.0 µH (TestRunFolders.x7Transformer)
         Path dir = TestRunFolders.x7Transformer(tmp.resolve("t")).write();
         JsonNode t = analyzeJson(dir).get("transformer");
         for (String k : List.of("turns_ratio", "k", "leakage_h", "mutual_h")) {

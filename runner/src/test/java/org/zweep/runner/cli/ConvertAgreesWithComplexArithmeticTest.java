@@ -19,7 +19,8 @@ import org.zweep.driver.impedance.Impedance;
  * {@code zweep convert} against an independent calculation: for random inputs of every pair, the
  * impedance is built with Commons Math complex arithmetic straight from the circuit (R in series
  * with 1/(jωC), 1/Rp in parallel with jωC, …) and every contract field is derived from that complex
- * Z and Y = 1/Z by its textbook definition (check-values.md §1.1, §2.1). Agreement must be 1e-9
+ * Z and Y = 1/Z by its textbook definition (Alexander & Sadiku, Fundamentals of Electric Circuits, §9.5,
+ * from memory). Agreement must be 1e-9
  * relative (issue 2, "Done when"). Most cases call the factory in process; every
  * {@value #CLI_EVERY}th runs the whole command, whose parsing of an exact decimal and whose JSON
  * (shortest round-trip decimal) add no error.
@@ -156,7 +157,7 @@ class ConvertAgreesWithComplexArithmeticTest {
         }
     }
 
-    /** Every contract field from the complex Z by its definition (check-values.md §1.1, §2.1). */
+    /** Every contract field from the complex Z by its definition (Q = |X|/R, D = R/|X|, Y = 1/Z, Cs = −1/(ωX), …). */
     private static Map<String, Double> expectedFields(double f, Complex z) {
         double w = 2 * Math.PI * f;
         Complex y = z.reciprocal();
@@ -168,7 +169,7 @@ class ConvertAgreesWithComplexArithmeticTest {
         m.put("x_ohm", z.getImaginary());
         m.put("z_ohm", z.abs());
         m.put("theta_deg", theta);
-        // δ from tan δ = D (check-values.md §1.1); 90° − |θ| itself would cancel to no digits near |θ| = 90°
+        // δ from tan δ = D; 90° − |θ| itself would cancel to no digits near |θ| = 90°
         m.put("delta_deg", Math.toDegrees(Math.atan(z.getReal() / Math.abs(z.getImaginary()))));
         m.put("q", Math.abs(z.getImaginary()) / z.getReal());
         m.put("d", z.getReal() / Math.abs(z.getImaginary()));

@@ -14,6 +14,13 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.CsvSource;
 
+/**
+ * Figures marked "computed" are the textbook formulas evaluated independently of this code: Z_C = 1/(jωC),
+ * |Z| = √(R² + X²), D = R/|X| = tan δ (C. K. Alexander, M. N. O. Sadiku, Fundamentals of Electric Circuits,
+ * §9.5, from memory) and the series ↔ parallel equivalents Rp = Rs(1 + Q²), Cp = Cs/(1 + D²),
+ * Lp = Ls(1 + 1/Q²) (T. H. Lee, The Design of CMOS Radio-Frequency Integrated Circuits, 2nd ed., ch. 3,
+ * from memory).
+ */
 class ConvertCommandTest {
 
     private static final ObjectMapper MAPPER = new ObjectMapper();
@@ -49,16 +56,16 @@ class ConvertCommandTest {
         Run run = zweep("convert", "--frequency", "1kHz", "--cs", "1uF", "--esr", "1");
         assertEquals(ExitCode.OK, run.exitCode());
         assertEquals("", run.err());
-        assertLine(run.out(), "X", "-159.155 Ω"); // check-values.md §1.2 further values: X_C = −159.15494 Ω
-        assertLine(run.out(), "|Z|", "159.158 Ω"); // check-values.md §1.2, 1 µF + 1 Ω ESR at 1 kHz
+        assertLine(run.out(), "X", "-159.155 Ω"); // 1 µF + 1 Ω at 1 kHz, computed: X_C = −159.15494 Ω
+        assertLine(run.out(), "|Z|", "159.158 Ω"); // computed: |Z| = 159.158 Ω
         assertLine(run.out(), "θ", "-89.6400°"); // same
         assertLine(run.out(), "δ", "0.359995°"); // same: δ = 0.3600°
         assertLine(run.out(), "D", "0.00628319"); // same: D = 6.28319e-3
-        assertLine(run.out(), "Q", "159.155"); // check-values.md §2.2 P1: Q = 159.15494
-        assertLine(run.out(), "Rp", "25.3313 kΩ"); // check-values.md §2.2 P1: Rp = 25 331.296 Ω
-        assertLine(run.out(), "Cp", "999.961 nF"); // check-values.md §2.2 P1: Cp = 0.9999605231 µF
-        assertLine(run.out(), "Cs", "1.00000 µF"); // the input
-        assertLine(run.out(), "Rs (ESR)", "1.00000 Ω"); // the input
+        assertLine(run.out(), "Q", "159.155"); // computed: Q = 159.15494
+        assertLine(run.out(), "Rp", "25.3313 kΩ"); // computed: Rp = Rs(1 + Q²) = 25 331.296 Ω
+        assertLine(run.out(), "Cp", "999.961 nF"); // computed: Cp = Cs/(1 + D²) = 0.9999605231 µF
+        assertLine(run.out(), "Cs", "1.00000 µF");
+        assertLine(run.out(), "Rs (ESR)", "1.00000 Ω");
         for (String label : List.of("f", "R", "G", "B", "|Y|", "Ls", "Lp")) {
             assertTrue(Pattern.compile("(?m)^" + Pattern.quote(label) + " ").matcher(run.out()).find(), label);
         }
@@ -81,25 +88,25 @@ class ConvertCommandTest {
         JsonNode node = json("convert", "-f", "1kHz", "--cs", "1uF", "--esr", "1");
         assertEquals(1000.0, node.get("frequency_hz").asDouble(), 0.0); // the input, in Hz
         assertEquals(1e-6, node.get("cs_f").asDouble(), 1e-21); // the input, in F
-        assertEquals(-159.15494, node.get("x_ohm").asDouble(), 1e-5); // check-values.md §1.2 further values
-        assertEquals(25_331.296, node.get("rp_ohm").asDouble(), 1e-3); // check-values.md §2.2 P1
-        assertEquals(0.9999605231e-6, node.get("cp_f").asDouble(), 1e-16); // check-values.md §2.2 P1
-        assertEquals(-89.6400, node.get("theta_deg").asDouble(), 1e-4); // check-values.md §1.2
+        assertEquals(-159.15494, node.get("x_ohm").asDouble(), 1e-5); // computed, as above
+        assertEquals(25_331.296, node.get("rp_ohm").asDouble(), 1e-3); // same
+        assertEquals(0.9999605231e-6, node.get("cp_f").asDouble(), 1e-16); // same
+        assertEquals(-89.6400, node.get("theta_deg").asDouble(), 1e-4); // same
     }
 
     @ParameterizedTest(name = "{0} gives {1} = {2}")
     @CsvSource(delimiter = '|', value = {
-        // args | field | expected | relative tolerance | source
-        "--r 3 --x 4                 | z_ohm     | 5           | 1e-15 | check-values.md §1.2: 3 + j4 Ω",
-        "--z 5 --theta 53.130102354  | r_ohm     | 3           | 1e-9  | check-values.md §1.2: 3 + j4 Ω",
-        "--cs 1u --d 0.0062831853    | rp_ohm    | 25331.296   | 1e-7  | check-values.md §2.2 P1",
-        "--cp 0.9999605231u --d 0.0062831853 | cs_f | 1e-6     | 1e-9  | check-values.md §2.2 P1, backwards",
-        "--ls 10mH --q 6.2831853     | rp_ohm    | 404.78418   | 1e-7  | check-values.md §2.2 P2",
-        "--lp 10.25330296mH --q 6.2831853 | ls_h | 10e-3       | 1e-8  | check-values.md §2.2 P2, backwards",
-        "--cs 100u --esr 5           | theta_deg | -79.3253    | 1e-6  | check-values.md §1.2 E13 (c), at 60 Hz",
-        "--cp 10nF --rp 1Meg         | rs_ohm    | 253.23881   | 1e-7  | check-values.md §2.2 P3",
-        "--ls 10m --rs 10            | z_ohm     | 63.6227     | 1e-5  | check-values.md §1.2 further values",
-        "--lp 10.25330296m --rp 404.78418 | rs_ohm | 10        | 1e-7  | check-values.md §2.2 P2, backwards",
+        // args | field | expected | relative tolerance | where the figure comes from (see the class comment)
+        "--r 3 --x 4                 | z_ohm     | 5           | 1e-15 | 3 + j4 Ω, computed",
+        "--z 5 --theta 53.130102354  | r_ohm     | 3           | 1e-9  | 3 + j4 Ω, computed",
+        "--cs 1u --d 0.0062831853    | rp_ohm    | 25331.296   | 1e-7  | Cs = 1 µF and Rs = 1 Ω at 1 kHz, computed",
+        "--cp 0.9999605231u --d 0.0062831853 | cs_f | 1e-6     | 1e-9  | the same capacitor, backwards",
+        "--ls 10mH --q 6.2831853     | rp_ohm    | 404.78418   | 1e-7  | Ls = 10 mH and Rs = 10 Ω at 1 kHz, computed",
+        "--lp 10.25330296mH --q 6.2831853 | ls_h | 10e-3       | 1e-8  | the same inductor, backwards",
+        "--cs 100u --esr 5           | theta_deg | -79.3253    | 1e-6  | 5 Ω + 100 µF at 60 Hz: Kuphaldt, Lessons in Electric Circuits, Vol. II, series R-C example, from memory; computed",
+        "--cp 10nF --rp 1Meg         | rs_ohm    | 253.23881   | 1e-7  | Cp = 10 nF and Rp = 1 MΩ at 1 kHz, computed",
+        "--ls 10m --rs 10            | z_ohm     | 63.6227     | 1e-5  | 10 mH + 10 Ω at 1 kHz, computed",
+        "--lp 10.25330296m --rp 404.78418 | rs_ohm | 10        | 1e-7  | the same inductor, parallel to series",
     })
     void everyPairIsAccepted(String args, String field, double expected, double relative, String source)
             throws Exception {

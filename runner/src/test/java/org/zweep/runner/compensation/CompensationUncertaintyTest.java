@@ -31,9 +31,14 @@ class CompensationUncertaintyTest {
     }
 
     private static void agreesWithMonteCarlo(List<CompensationData.Entry> standards, Impedance load, Reading raw) {
+        agreesWithMonteCarloStated(standards, load == null ? null : UncertainImpedance.exact(load), raw);
+    }
+
+    private static void agreesWithMonteCarloStated(List<CompensationData.Entry> standards, UncertainImpedance load,
+            Reading raw) {
         CompensationData d = new CompensationData(HostCorrectorTest.info(standards.stream()
                 .map(e -> e.standard().name()).toList()), standards);
-        HostCorrector c = new HostCorrector(d, "test", load);
+        HostCorrector c = HostCorrector.withStatedLoad(d, "test", load);
         Impedance rawZ = new Impedance(F, raw.real(), raw.imaginary());
         UncertainImpedance linear = c.uncertainty(raw, u(rawZ), CompensationUncertaintyTest::u);
 
@@ -50,7 +55,12 @@ class CompensationUncertaintyTest {
                 return HostCorrectorTest.e(e.standard(), F, v[0], v[1]);
             }).toList();
             double[] m = draw(u(rawZ), random);
-            Reading out = new HostCorrector(new CompensationData(d.info(), drawn), "mc", load)
+            UncertainImpedance drawnLoad = null;
+            if (load != null) {
+                double[] l = draw(load, random);
+                drawnLoad = UncertainImpedance.exact(new Impedance(F, l[0], l[1]));
+            }
+            Reading out = HostCorrector.withStatedLoad(new CompensationData(d.info(), drawn), "mc", drawnLoad)
                     .correct(HostCorrectorTest.reading(F, m[0], m[1]));
             sr += out.real();
             sx += out.imaginary();
@@ -85,5 +95,42 @@ class CompensationUncertaintyTest {
                 HostCorrectorTest.e(CorrectionStandard.SHORT, F, 0.264363030808, 2.04621149042),
                 HostCorrectorTest.e(CorrectionStandard.LOAD, F, 104.197060198, 4.86376149172)),
                 new Impedance(F, 100, 0), HostCorrectorTest.reading(F, 0.587717263528, 8.59911787287));
+    }
+
+    @Test
+    void openShortLoadCorrectionPropagatesTheLoadStandardsStatedUncertainty() {
+        // the load standard stated as 100 Ω ± 0.1 Ω, −0 ± 0.05 Ω (standard uncertainties): enough to
+        // dominate the readings' 1e-3 relative; the Monte Carlo draws the load's value as well
+        agreesWithMonteCarloStated(List.of(
+                HostCorrectorTest.e(CorrectionStandard.OPEN, F, 10500, -30500),
+                HostCorrectorTest.e(CorrectionStandard.SHORT, F, 0.264363030808, 2.04621149042),
+                HostCorrectorTest.e(CorrectionStandard.LOAD, F, 104.197060198, 4.86376149172)),
+                new UncertainImpedance(new Impedance(F, 100, 0), 0.1, 0.05, 0),
+                HostCorrectorTest.reading(F, 0.587717263528, 8.59911787287));
+    }
+
+    @Test
+    void theLoadStandardsRelativeUncertaintyPassesOneToOneToTheCorrectedValue() {
+        // Z = Z_std·F(readings), so with exact readings u(Z)/|Z| = u(Z_std)/|Z_std| for a load whose
+        // u is the same fraction on both parts (follows from the open/short/load formula, no source)
+        CompensationData d = new CompensationData(HostCorrectorTest.info(List.of("OPEN", "SHORT", "LOAD")), List.of(
+                HostCorrectorTest.e(CorrectionStandard.OPEN, F, 10500, -30500),
+                HostCorrectorTest.e(CorrectionStandard.SHORT, F, 0.264363030808, 2.04621149042),
+                HostCorrectorTest.e(CorrectionStandard.LOAD, F, 104.197060198, 4.86376149172)));
+        HostCorrector exact = new HostCorrector(d, "test", new Impedance(F, 100, 0));
+        HostCorrector stated = HostCorrector.withStatedLoad(d, "test", new UncertainImpedance(new Impedance(F, 100, 0),
+                0.05, 0.05, 0)); // 0.05 % of 100 Ω on R and on X
+        Reading raw = HostCorrectorTest.reading(F, 0.587717263528, 8.59911787287);
+        Impedance rawZ = new Impedance(F, raw.real(), raw.imaginary());
+        UncertainImpedance none = exact.uncertainty(raw, UncertainImpedance.exact(rawZ),
+                z -> UncertainImpedance.exact(z));
+        UncertainImpedance withLoad = stated.uncertainty(raw, UncertainImpedance.exact(rawZ),
+                z -> UncertainImpedance.exact(z));
+        assertEquals(0.0, none.uROhm(), 0.0);
+        double magnitude = withLoad.value().magnitudeOhm();
+        assertEquals(5e-4 * magnitude, withLoad.uROhm(), 1e-9 * magnitude);
+        assertEquals(5e-4 * magnitude, withLoad.uXOhm(), 1e-9 * magnitude);
+        assertEquals(5e-4 * magnitude, withLoad.standardUncertainty(org.zweep.driver.impedance.DerivedParameter.Z),
+                1e-9 * magnitude);
     }
 }

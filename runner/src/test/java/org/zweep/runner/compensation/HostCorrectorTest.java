@@ -36,29 +36,32 @@ class HostCorrectorTest {
 
     @Test
     void openShortAtAStoredFrequencyRecoversTheDut() {
-        // check-values.md §3.4 vector T-A (f = 1 MHz): exact open/short gives 0.5 + j6.28318530718
+        // Zs = 0.05 Ω + 20 nH at the meter, Yo = 1 nS + 5 pF across a 0.5 Ω + 1 µH DUT, f = 1 MHz; readings computed from Zm = Zs + 1/(Yo + 1/Zdut), so the exact
+        // open/short correction must give the DUT 0.5 + j6.28318530718 back
         CompensationData d = new CompensationData(info(List.of("OPEN", "SHORT")), List.of(
                 e(CorrectionStandard.OPEN, 1e6, 1.0632118354, -31830.8629224),
                 e(CorrectionStandard.SHORT, 1e6, 0.05, 0.125663706144)));
         Reading out = new HostCorrector(d, "test", null).correct(reading(1e6, 0.550197489669, 6.41008164433));
-        assertEquals(0.5, out.real(), 1e-8); // source: check-values.md §3.4 T-A
-        assertEquals(6.28318530718, out.imaginary(), 1e-8); // source: check-values.md §3.4 T-A
+        assertEquals(0.5, out.real(), 1e-8);
+        assertEquals(6.28318530718, out.imaginary(), 1e-8); // ωL = 2π·1 MHz·1 µH
     }
 
     @Test
     void openShortLoadRecoversTheDutThroughAnArbitraryFixture() {
-        // check-values.md §3.4 vector T-OSL (Z_std = 100 ohm): 0.5 + j6.28318530718
+        // a non-symmetric fixture, ABCD A = 1.02 + j0.01, B = 0.3 + j2, C = 1e-5 + j3e-5, D = 0.98 − j0.02, maps Z to
+        // (A·Z + B)/(C·Z + D) (Pozar, Microwave Engineering, §4.4, from memory); the readings of open, short, a 100 Ω
+        // load and the 0.5 Ω + 1 µH DUT at 1 MHz are computed, and OSL must give 0.5 + j6.28318530718 back
         CompensationData d = new CompensationData(info(List.of("OPEN", "SHORT", "LOAD")), List.of(
                 e(CorrectionStandard.OPEN, 1e6, 10500, -30500),
                 e(CorrectionStandard.SHORT, 1e6, 0.264363030808, 2.04621149042),
                 e(CorrectionStandard.LOAD, 1e6, 104.197060198, 4.86376149172)));
         Reading out = new HostCorrector(d, "test", new Impedance(1e6, 100, 0))
                 .correct(reading(1e6, 0.587717263528, 8.59911787287));
-        assertEquals(0.5, out.real(), 1e-9); // source: check-values.md §3.4 T-OSL
-        assertEquals(6.28318530718, out.imaginary(), 1e-9); // source: check-values.md §3.4 T-OSL
+        assertEquals(0.5, out.real(), 1e-9);
+        assertEquals(6.28318530718, out.imaginary(), 1e-9);
     }
 
-    /** Residuals of check-values.md §3.4: Zs = 0.05 ohm + 20 nH, Yo = 1 nS + 5 pF (topology A). */
+    /** Residuals: Zs = 0.05 ohm + 20 nH at the meter, Yo = 1 nS + 5 pF across the DUT. */
     static Complex zs(double f) {
         return new Complex(0.05, 2 * Math.PI * f * 20e-9);
     }
@@ -76,10 +79,10 @@ class HostCorrectorTest {
             entries.add(e(CorrectionStandard.SHORT, f, zs(f).getReal(), zs(f).getImaginary()));
         }
         CompensationData d = new CompensationData(info(List.of("OPEN", "SHORT")), entries);
-        // T-A's DUT reading at 1 MHz (check-values.md §3.4): residuals linear in f, so interpolation is exact
+        // the 1 MHz DUT reading above: residuals linear in f, so interpolation is exact
         Reading out = new HostCorrector(d, "test", null).correct(reading(1e6, 0.550197489669, 6.41008164433));
-        assertEquals(0.5, out.real(), 1e-6); // source: check-values.md §3.4 T-A
-        assertEquals(6.28318530718, out.imaginary(), 1e-6); // source: check-values.md §3.4 T-A
+        assertEquals(0.5, out.real(), 1e-6);
+        assertEquals(6.28318530718, out.imaginary(), 1e-6);
     }
 
     @Test
@@ -88,7 +91,6 @@ class HostCorrectorTest {
                 e(CorrectionStandard.SHORT, 100, 0.05, 0.0), e(CorrectionStandard.SHORT, 1e5, 0.05, 0.01)));
         HostCorrector c = new HostCorrector(d, "comp.csv", null);
         InvalidInputException ex = assertThrows(InvalidInputException.class, () -> c.checkCovers(List.of(1e3, 1e6)));
-        // our own message text; the frequencies are the inputs above, no outside source
         assertTrue(ex.getMessage().startsWith("comp.csv: the SHORT data covers 100.0 Hz to 100000.0 Hz but the sweep"
                 + " needs 1000000.0 Hz; compensation is never extrapolated"), ex.getMessage());
     }
@@ -99,6 +101,6 @@ class HostCorrectorTest {
                 e(CorrectionStandard.OPEN, 1e3, 1e-3, -1.0e7), e(CorrectionStandard.SHORT, 1e3, 0.004, 1.2566e-5)));
         Path f = dir.resolve("c/host.csv");
         d.write(f);
-        assertEquals(d, CompensationData.read(f)); // round trip of our own demo data, not an outside value
+        assertEquals(d, CompensationData.read(f));
     }
 }

@@ -37,10 +37,15 @@ class RunEngineTest {
     }
 
     Station station() {
-        Station s = new Station(link, new SafetyGuard(TestPlans.LIMITS), prompts::add, bench.waiter(interruption),
+        Station s = new Station(link, new SafetyGuard(TestPlans.LIMITS), port(), bench.waiter(interruption),
                 policy, notes::add);
         s.start(42L);
         return s;
+    }
+
+    /** The meter's own fixture when it has one, else the operator (prompts recorded). */
+    FixturePort port() {
+        return FixturePort.meter(link, FixturePort.operator(prompts::add), notes::add);
     }
 
     RunResult run(Plan plan, BitSet done) {
@@ -56,13 +61,13 @@ class RunEngineTest {
         // our own demo plan (TestPlans.capacitor): 5 sweep points + 3 bias values × 2 frequencies = 11 points
         assertEquals(IntStream.range(0, 11).boxed().toList(), rows.stream().map(PointRow::point).toList());
         PointRow oneK = rows.get(1);
-        assertEquals(1000.0, oneK.frequencyHz()); // our own demo plan's second frequency
-        // 100 nF at 1 kHz: X_C = -1591.5494 ohm (check-values.md §1.2) -> Cs = 100 nF, D = 0.010/1591.5 = 6.3e-6
+        assertEquals(1000.0, oneK.frequencyHz());
+        // 100 nF at 1 kHz: X_C = −1/(2πfC) = -1591.5494 ohm, computed -> Cs = 100 nF, D = 0.010/1591.5 = 6.3e-6
         assertEquals(-1591.5494, oneK.xOhm(), 1e-4);
-        assertEquals(100e-9, oneK.derived().csF(), 1e-15); // our own demo data: FakeBench's 100 nF part
-        assertEquals("pass", oneK.check()); // against the plan's limits (TestPlans, check-values.md §5.3)
+        assertEquals(100e-9, oneK.derived().csF(), 1e-15); // FakeBench's 100 nF part
+        assertEquals("pass", oneK.check()); // against the plan's limits (TestPlans)
         assertEquals("", rows.get(0).check());
-        assertEquals(5.0, rows.get(10).bias()); // our own demo plan's last bias value, not an outside value
+        assertEquals(5.0, rows.get(10).bias());
         assertEquals("V", rows.get(10).biasMode());
     }
 
@@ -133,10 +138,10 @@ class RunEngineTest {
         RunResult r = run(TestPlans.capacitor(), new BitSet());
         assertEquals(RunResult.Outcome.FAILED, r.outcome());
         assertEquals(1, r.problems().size());
-        // -222 "Data out of range": SCPI-99 Vol 2 §21.8 (standards.md §2.3)
+        // -222 "Data out of range": SCPI-1999 Vol 2 §21.8.10
         assertTrue(r.problems().get(0).startsWith("step 'sweep' stopped: meter reported -222,\"Data out of range\""),
                 r.problems().get(0));
-        // arithmetic from the plan: the error at point 1 ends step 'sweep' (points 1-4), step 'bias' is 5-10
+        // the error at point 1 ends step 'sweep' (points 1-4), step 'bias' is 5-10
         assertEquals(List.of(0, 5, 6, 7, 8, 9, 10), rows.stream().map(PointRow::point).toList());
         assertEquals(Bias.OFF, bench.instrumentBias);
     }
@@ -258,12 +263,13 @@ class RunEngineTest {
     }
 
     @Test
-    void onTheSimulatorPromptsPassAndTheFixtureSlotIsSwitched() {
-        bench.slot = SimulatorControl.Slot.OPEN;
+    void aMeterWithItsOwnFixtureIsSwitchedInsteadOfPromptingTheOperator() {
+        bench.slot = org.zweep.driver.meter.FixtureState.OPEN;
         run(TestPlans.capacitor(), new BitSet());
         assertTrue(prompts.isEmpty());
-        assertEquals(SimulatorControl.Slot.DEVICE, bench.slot);
-        assertTrue(notes.stream().anyMatch(n -> n.startsWith(">> fit the part (simulator")), notes.toString());
+        assertEquals(org.zweep.driver.meter.FixtureState.PART, bench.slot);
+        assertTrue(notes.stream().anyMatch(n -> n.equals(">> fit the part (the meter's fixture holds part)")),
+                notes.toString());
     }
 
     @Test
@@ -332,7 +338,7 @@ class RunEngineTest {
                 inner.waitThroughStopS(seconds);
             }
         };
-        Station st = new Station(link, new SafetyGuard(TestPlans.LIMITS), prompts::add, stopAt4V, policy, notes::add);
+        Station st = new Station(link, new SafetyGuard(TestPlans.LIMITS), port(), stopAt4V, policy, notes::add);
         st.start(42L);
         Plan plan = TestPlans.capacitor();
         RunResult r = new RunEngine(plan, st, ReadingCorrector.NONE, new CheckEvaluator(plan.checks()), progress,

@@ -53,7 +53,7 @@ final class TestPlans {
                 100, 1000, 10_000, 100_000, 1e6);
         PlannedStep bias = step(1, 5, "bias", "", new BiasControl(1.0, 0.5), new double[] {0, 2, 5}, 1000, 10_000);
         return plan(List.of(sweep, bias), List.of(
-                // Cs within 10 % of 100 nF at 1 kHz; D <= 0.025 at 1 kHz (check-values.md §5.3 typical tan delta)
+                // Cs within 10 % of 100 nF at 1 kHz; D <= 0.025 at 1 kHz (a usual class-2 ceramic tan δ limit; common practice, no source)
                 new CheckLimit("cs", "cs_f", "sweep", 1000, 90e-9, 110e-9),
                 new CheckLimit("d", "d", "sweep", 1000, Double.NEGATIVE_INFINITY, 0.025),
                 new CheckLimit("srf", "srf_hz", "sweep", Double.NaN, 10e6, Double.POSITIVE_INFINITY)));

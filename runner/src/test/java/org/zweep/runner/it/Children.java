@@ -18,11 +18,17 @@ final class Children {
 
     /** Starts {@code zweep args} with its output (both streams) going to {@code log}. */
     static Process zweep(Path log, String... args) {
+        return zweep(log, java.util.Map.of(), args);
+    }
+
+    /** Starts {@code zweep args} with {@code env} added to its environment, its output going to {@code log}. */
+    static Process zweep(Path log, java.util.Map<String, String> env, String... args) {
         String java = Path.of(System.getProperty("java.home"), "bin", "java").toString();
         List<String> cmd = new ArrayList<>(List.of("env", "--default-signal=INT,TERM", java, "-cp",
                 System.getProperty("java.class.path"), "org.zweep.runner.cli.Main"));
         cmd.addAll(List.of(args));
         ProcessBuilder pb = new ProcessBuilder(cmd);
+        pb.environment().putAll(env);
         pb.redirectErrorStream(true);
         pb.redirectOutput(log.toFile());
         try {

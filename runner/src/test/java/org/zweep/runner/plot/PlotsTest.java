@@ -20,7 +20,7 @@ class PlotsTest {
     @TempDir
     Path tmp;
 
-    /** A 100 nF, 20 mΩ, 1 nH capacitor (check-values.md §10 set) swept at {@code levels.length} drive levels. */
+    /** A 100 nF, 20 mΩ, 1 nH capacitor swept at {@code levels.length} drive levels. */
     private AnalysisResult run(double... levels) throws Exception {
         TestRunFolders run = new TestRunFolders(tmp.resolve("run" + levels.length));
         for (double level : levels) {

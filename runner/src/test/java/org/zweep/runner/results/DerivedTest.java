@@ -12,7 +12,7 @@ import org.zweep.driver.impedance.Impedance;
 class DerivedTest {
     @Test
     void everyColumnIsTheDerivedParameterWithThatKey() {
-        // 1 uF + 1 ohm ESR at 1 kHz; check-values.md §1.2
+        // 1 uF + 1 ohm ESR at 1 kHz: X_C = −1/(2πfC), computed
         Impedance z = new Impedance(1000.0, 1.0, -159.15494309189535);
         Derived d = Derived.of(z);
         for (String name : Derived.NAMES) {

@@ -44,7 +44,7 @@ class PointsCsvTest {
 
     @Test
     void rowRoundTripsEveryDoubleExactly() {
-        // 100 nF at 1 kHz: X_C = -1591.5494 ohm; check-values.md §1.2 (further values)
+        // 100 nF at 1 kHz: X_C = −1/(2πfC) = -1591.5494 ohm, computed
         PointRow r = row(7, "sweep", 0.1234567890123, -1591.5494309189535);
         PointRow back = PointsCsv.parse(PointsCsv.format(r));
         assertEquals(r, back);
@@ -75,13 +75,13 @@ class PointsCsvTest {
 
     @Test
     void derivedParametersOfACapacitorFollowTheTextbookFormulas() {
-        // 1 uF + 1 ohm ESR at 1 kHz: |Z| = 159.158 ohm, theta = -89.6400 deg, D = 6.28319e-3; check-values.md §1.2
+        // 1 uF + 1 ohm ESR at 1 kHz: |Z| = 159.158 ohm, theta = -89.6400 deg, D = 6.28319e-3, computed
         Derived d = Derived.of(new Impedance(1000.0, 1.0, -159.15494309189535));
         assertEquals(159.158, d.zOhm(), 5e-4);
         assertEquals(-89.6400, d.thetaDeg(), 5e-5);
         assertEquals(6.28319e-3, d.d(), 5e-9);
         assertEquals(1e-6, d.csF(), 1e-15);
-        // P1: Cs = 1 uF, Rs = 1 ohm -> Rp = 25331.296 ohm, Cp = 0.9999605231 uF; check-values.md §2.2
+        // Cs = 1 uF, Rs = 1 ohm -> Rp = Rs(1 + Q²) = 25331.296 ohm, Cp = Cs/(1 + D²) = 0.9999605231 uF, computed
         assertEquals(25331.296, d.rpOhm(), 1e-3);
         assertEquals(0.9999605231e-6, d.cpF(), 1e-16);
     }

@@ -45,8 +45,8 @@ class RunManifestTest {
         assertEquals(31, n.at("/counts/planned").asInt());
         assertTrue(n.get("ended").isNull());
         assertEquals(1234, n.get("seed").asLong());
-        assertEquals(List.of("format", "sequence", "part", "steps", "checks", "meter", "compensation", "software",
-                "host", "seed", "started", "ended", "counts", "outcome", "verdict"), iterable(n));
+        assertEquals(List.of("format", "id", "sequence", "part", "identity", "steps", "checks", "meter", "compensation",
+                "software", "host", "seed", "started", "ended", "counts", "outcome", "verdict"), iterable(n));
     }
 
     private static List<String> iterable(JsonNode n) {

@@ -350,6 +350,18 @@ class MalformedSequenceTest {
                         safety: {}
                         fixture: {terminals: 4, compensation: host, standards: [open, short, load]}
                         """, "4:10: missing key 'load' in fixture (the load standard's known value)"),
+                Arguments.of("load standard's coverage factor without an uncertainty", """
+                        format: zweep-sequence/1
+                        meter: {bench: b.bench.yaml}
+                        safety: {}
+                        fixture: {terminals: 4, compensation: host, standards: [open, short, load], load: {r: 100 ohm, k: 2}}
+                        """, "4:99: k given but no u_r or u_x to divide by it"),
+                Arguments.of("negative load standard uncertainty", """
+                        format: zweep-sequence/1
+                        meter: {bench: b.bench.yaml}
+                        safety: {}
+                        fixture: {terminals: 4, compensation: host, standards: [open, short, load], load: {r: 100 ohm, u_r: -1 ohm}}
+                        """, "4:101: \"-1 ohm\" is not a valid impedance: it must not be negative"),
                 Arguments.of("three terminals", """
                         format: zweep-sequence/1
                         meter: {bench: b.bench.yaml}

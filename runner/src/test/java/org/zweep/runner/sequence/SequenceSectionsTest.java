@@ -113,8 +113,24 @@ class SequenceSectionsTest {
         assertEquals(List.of(CorrectionStandard.OPEN, CorrectionStandard.SHORT, CorrectionStandard.LOAD), f.standards());
         assertEquals(100.0, f.loadStandard().resistanceOhm(), 0.0);
         assertEquals(-2.0, f.loadStandard().reactanceOhm(), 0.0);
+        assertEquals(0.0, f.loadStandardU().uROhm(), 0.0, "no uncertainty stated: exact");
         assertEquals(Duration.ofHours(2), f.reuseYoungerThan());
         assertEquals(dir.resolve("comp").toAbsolutePath().normalize(), f.store());
+    }
+
+    @Test
+    void theLoadStandardsStatedUncertaintyIsReadAsStandardOrExpandedWithItsK() {
+        FixturePlan f = load("""
+                meter: {bench: b.bench.yaml}
+                fixture:
+                  terminals: 4
+                  compensation: host
+                  standards: [open, short, load]
+                  load: {r: 100 ohm, u_r: 20 mohm, u_x: 40 mohm, k: 2}
+                """, "{name: s, frequency: 1 kHz, level: 1 V}").fixture();
+        assertEquals(100.0, f.loadStandardU().value().resistanceOhm(), 0.0);
+        assertEquals(0.010, f.loadStandardU().uROhm(), 1e-15);
+        assertEquals(0.020, f.loadStandardU().uXOhm(), 1e-15);
     }
 
     @Test

@@ -55,7 +55,7 @@ class ShippedSequencesTest {
     @Test
     void capacitorInspectionChecksToleranceLossAndSelfResonance() {
         Plan plan = SequenceLoader.load(SEQUENCES.resolve("incoming-kp-c0805-104.yaml"));
-        assertEquals(10.0, plan.part().tolerancePercent(), 0.0); // IEC 60062 K = ±10 %, check-values.md §4.1
+        assertEquals(10.0, plan.part().tolerancePercent(), 0.0); // IEC 60062:2016 letter code: K = ±10 %
         CheckLimit cs = plan.checks().get(0);
         assertEquals("cs_f", cs.parameter());
         assertEquals(1000.0, cs.frequencyHz(), 0.0);

@@ -8,7 +8,8 @@ import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.CsvSource;
 import org.snakeyaml.engine.v2.api.LoadSettings;
 import org.snakeyaml.engine.v2.api.lowlevel.Compose;
-import org.zweep.driver.InvalidInputException;
+import org.zweep.config.ConfigException;
+import org.zweep.config.YamlNode;
 import org.zweep.driver.impedance.Unit;
 
 class UnitsTest {
@@ -25,7 +26,7 @@ class UnitsTest {
 
     @Test
     void percentageWithoutPercentSignIsRefused() {
-        InvalidInputException e = assertThrows(InvalidInputException.class, () -> Units.percent(scalar("10"), "a tolerance"));
+        ConfigException e = assertThrows(ConfigException.class, () -> Units.percent(scalar("10"), "a tolerance"));
         assertEquals("t.yaml:1:1: expected a tolerance as a percentage between 0 % and 100 % such as ±10 %, got '10'",
                 e.getMessage());
     }
@@ -43,7 +44,7 @@ class UnitsTest {
         // SI Brochure prefix m = 10⁻³, from memory
         assertEquals(0.5, Units.ratePerS(scalar("500 mA/s"), Unit.AMPERE), 1e-15);
         assertEquals(2.0, Units.ratePerS(scalar("2 V/s"), Unit.VOLT), 0.0);
-        InvalidInputException e = assertThrows(InvalidInputException.class,
+        ConfigException e = assertThrows(ConfigException.class,
                 () -> Units.ratePerS(scalar("0 V/s"), Unit.VOLT));
         assertEquals("t.yaml:1:1: expected a ramp rate above zero in V/s, got '0 V/s'", e.getMessage());
     }

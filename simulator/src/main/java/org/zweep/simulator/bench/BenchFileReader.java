@@ -8,23 +8,17 @@ import java.util.Map;
 import java.util.Optional;
 import java.util.Set;
 import java.util.regex.Pattern;
-import org.snakeyaml.engine.v2.api.LoadSettings;
-import org.snakeyaml.engine.v2.api.lowlevel.Compose;
-import org.snakeyaml.engine.v2.api.lowlevel.Parse;
-import org.snakeyaml.engine.v2.events.AliasEvent;
-import org.snakeyaml.engine.v2.events.CollectionEndEvent;
-import org.snakeyaml.engine.v2.events.CollectionStartEvent;
-import org.snakeyaml.engine.v2.events.DocumentStartEvent;
-import org.snakeyaml.engine.v2.events.Event;
 import org.snakeyaml.engine.v2.common.ScalarStyle;
 import org.snakeyaml.engine.v2.exceptions.Mark;
-import org.snakeyaml.engine.v2.exceptions.MarkedYamlEngineException;
-import org.snakeyaml.engine.v2.exceptions.YamlEngineException;
 import org.snakeyaml.engine.v2.nodes.MappingNode;
 import org.snakeyaml.engine.v2.nodes.Node;
 import org.snakeyaml.engine.v2.nodes.NodeTuple;
 import org.snakeyaml.engine.v2.nodes.ScalarNode;
 import org.snakeyaml.engine.v2.nodes.SequenceNode;
+import org.zweep.config.BoundedYaml;
+import org.zweep.config.ConfigException;
+import org.zweep.config.YamlNode;
+import org.zweep.config.YamlSyntaxException;
 import org.zweep.simulator.InputFiles;
 import org.zweep.simulator.SimulatorInputException;
 import org.zweep.simulator.netlist.Netlist;
@@ -40,16 +34,6 @@ final class BenchFileReader {
             Pattern.compile("[-+]?(?:\\d+\\.?\\d*|\\.\\d+)(?:[eE][-+]?\\d+)?");
     private static final Pattern INTEGER = Pattern.compile("[-+]?\\d+");
 
-    /** The deepest nesting of mappings and lists. */
-    static final int MAX_DEPTH = 64;
-    /** The most aliases ({@code *name}) in one file. */
-    static final int MAX_ALIASES = 64;
-    /**
-     * SnakeYAML Engine re-copies its read window every buffer's length while one scalar is being
-     * scanned, so its default of 1024 code points makes a long line cost the square of its length.
-     */
-    private static final int READ_BUFFER = 1 << 16;
-
     private final String source;
     private final Path baseDir;
     private String[] rawLines = new String[0];
@@ -64,26 +48,15 @@ final class BenchFileReader {
     }
 
     BenchSpec read(String yaml) {
-        if (yaml.length() > InputFiles.MAX_BENCH_BYTES) {
-            throw new SimulatorInputException(source + ": larger than " + InputFiles.MAX_BENCH_BYTES
-                    + " characters, the limit for a bench file");
-        }
         rawLines = yaml.split("\r?\n|\r", -1);
         Node root;
         try {
-            LoadSettings settings = LoadSettings.builder().setLabel(source).setBufferSize(READ_BUFFER)
-                    .setCodePointLimit(InputFiles.MAX_BENCH_BYTES).setMaxAliasesForCollections(MAX_ALIASES).build();
-            checkLimits(new Parse(settings).parseString(yaml));
-            root = new Compose(settings).composeString(yaml).orElse(null);
-        } catch (MarkedYamlEngineException e) {
-            Optional<Mark> m = e.getProblemMark();
-            int line = m.map(x -> x.getLine() + 1).orElse(1);
-            int column = m.map(x -> x.getColumn() + 1).orElse(0);
-            throw SimulatorInputException.at(source, line, column,
-                    "not valid YAML: " + SimulatorInputException.oneLine(e.getProblem()));
-        } catch (YamlEngineException e) {
-            throw new SimulatorInputException(source + ": not valid YAML: "
-                    + SimulatorInputException.oneLine(e.getMessage()), e);
+            root = BoundedYaml.composeOne(yaml, source, "bench file").map(YamlNode::node).orElse(null);
+        } catch (YamlSyntaxException e) {
+            throw new SimulatorInputException(e.where() + ": not valid YAML: "
+                    + SimulatorInputException.oneLine(e.problem()), e);
+        } catch (ConfigException e) {
+            throw new SimulatorInputException(e.getMessage(), e);
         }
         if (root == null) {
             throw SimulatorInputException.at(source, 1, 0, "the bench file is empty");
@@ -99,31 +72,6 @@ final class BenchFileReader {
             throw top.error("a bench file needs a 'device' section");
         }
         return new BenchSpec(description, meter, fixture, device(deviceSection), seed);
-    }
-
-    /**
-     * Depth, alias and document limits, checked on the event stream (the parser keeps its own
-     * stack; the composer recurses and would overflow on deep nesting).
-     */
-    private void checkLimits(Iterable<Event> events) {
-        int depth = 0;
-        int aliases = 0;
-        int documents = 0;
-        for (Event e : events) {
-            if (e instanceof CollectionStartEvent) {
-                if (++depth > MAX_DEPTH) {
-                    throw at(e.getStartMark(), "nested deeper than " + MAX_DEPTH + " levels (the limit)");
-                }
-            } else if (e instanceof CollectionEndEvent) {
-                depth--;
-            } else if (e instanceof AliasEvent) {
-                if (++aliases > MAX_ALIASES) {
-                    throw at(e.getStartMark(), "more than " + MAX_ALIASES + " aliases (the limit)");
-                }
-            } else if (e instanceof DocumentStartEvent && ++documents > 1) {
-                throw at(e.getStartMark(), "expected one YAML document, found another");
-            }
-        }
     }
 
     private SimulatorInputException at(Optional<Mark> m, String what) {

@@ -226,7 +226,7 @@ public final class Instrument implements AutoCloseable {
         }
     }
 
-    // ---- trigger model (SCPI-1999 Vol 2 TRIGger, §2.8 of standards.md)
+    // ---- trigger model (SCPI-1999 Vol 2, TRIGger subsystem)
 
     /** {@code INITiate}: -213 if an operation is already pending. */
     void initiate(Session session) {

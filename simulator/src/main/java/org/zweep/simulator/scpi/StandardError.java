@@ -2,7 +2,7 @@ package org.zweep.simulator.scpi;
 
 /**
  * The SCPI-1999 standard error and event numbers the simulator reports, with their texts exactly
- * as SCPI-1999 Vol 2 §21.8 writes them (see {@code standards.md} §2.3).
+ * as SCPI-1999 Vol 2 §21.8.3 and §21.8.9–21.8.12 write them.
  */
 public enum StandardError {
     NO_ERROR(0, "No error"),

@@ -58,8 +58,8 @@ class BenchPhysicsTest {
 
     @Test
     void twoTerminalConnectionAddsTheLeadResistanceAndFourTerminalDoesNot() {
-        // check-values.md §8: 2 × 1 m of AWG 22 = 0.10593 Ω; a 100 mΩ DUT reads 205.9 mΩ
-        // two-wire and 100 mΩ four-wire
+        // leads of 0.10593 Ω (about 2 × 1 m of AWG 22 copper): a 100 mΩ part reads 205.9 mΩ two-terminal
+        // and 100 mΩ four-terminal, where the sense path carries no current
         String fixture = "meter:\n  noise: 0\nfixture:\n  residual_resistance_ohm: 0\n"
                 + "  residual_inductance_h: 0\n  stray_conductance_s: 0\n"
                 + "  stray_capacitance_f: 0\n  lead_resistance_ohm: 0.10593\n";
@@ -80,8 +80,8 @@ class BenchPhysicsTest {
 
     @Test
     void fixtureReadingsMatchTheCompensationTestVector() {
-        // check-values.md §3.4 vector T-A at 1 MHz: Zs = 0.05 Ω + 20 nH, Yo = 1 nS + 5 pF,
-        // DUT 1 µH with 0.5 Ω
+        // Zs = 0.05 Ω + 20 nH at the meter, Yo = 1 nS + 5 pF across a 0.5 Ω + 1 µH DUT at 1 MHz;
+        // expected readings computed independently from Zm = Zs + 1/(Yo + 1/Zdut), short Zs, open Zs + 1/Yo
         SimulatedBench b = Requests.bench("meter:\n  noise: 0\nfixture:\n"
                 + "  connection: 4-terminal\n  residual_resistance_ohm: 0.05\n"
                 + "  residual_inductance_h: 20e-9\n  stray_conductance_s: 1e-9\n"
@@ -102,8 +102,8 @@ class BenchPhysicsTest {
 
     @Test
     void openShortCorrectionRemovesTheFixtureResidualsAtEveryFrequency() {
-        // check-values.md §3.1 topology A (exact open/short formula); the true device is
-        // 0.5 Ω + 1 µH (§3.4), read between the acquired frequencies too
+        // series residual at the meter, stray admittance across the device: the exact open/short correction
+        // (Zm − Zs)/(1 − (Zm − Zs)·Yo) gives the true 0.5 Ω + 1 µH back, between the acquired frequencies too
         SimulatedBench b = Requests.bench("meter:\n  noise: 0\nfixture:\n"
                 + "  residual_resistance_ohm: 0.05\n  residual_inductance_h: 20e-9\n"
                 + "  stray_conductance_s: 1e-9\n  stray_capacitance_f: 5e-12\n"
@@ -129,8 +129,7 @@ class BenchPhysicsTest {
 
     @Test
     void capacitanceFallsWithDcBiasAlongTheDeratingCurve() {
-        // check-values.md §5.4: a synthetic class-2 curve, C(V)/C(0) decreasing with bias;
-        // here C0/(1 + (V/V½)^2), which is exactly 1/2 at V½
+        // a synthetic class-2 curve, C(V)/C(0) decreasing with bias: C0/(1 + (V/V½)^2), exactly 1/2 at V½
         SimulatedBench b = Requests.ideal("  capacitor:\n    capacitance_f: 100e-9\n"
                 + "    bias_half_voltage_v: 25\n    bias_exponent: 2\n");
         double previous = Double.POSITIVE_INFINITY;
@@ -145,8 +144,8 @@ class BenchPhysicsTest {
 
     @Test
     void inductanceFallsWithDcBiasCurrentThroughTheSaturationPoints() {
-        // check-values.md §6: L(I) = L0/(1 + (I/I0)^2), L0 = 10 µH, I0 = 5 A:
-        // 10 % down at 1.6667 A, 20 % at 2.5000 A, 30 % at 3.2733 A
+        // L(I) = L0/(1 + (I/I0)^2), L0 = 10 µH, I0 = 5 A: x % down at I = I0·√(1/(1 − x) − 1), computed:
+        // 10 % at 1.6667 A, 20 % at 2.5000 A, 30 % at 3.2733 A
         SimulatedBench b = Requests.ideal("  inductor:\n    inductance_h: 10e-6\n"
                 + "    saturation_current_a: 5\n    saturation_exponent: 2\n");
         double[][] points = {{1.6667, 0.9}, {2.5, 0.8}, {3.2733, 0.7}};
@@ -159,7 +158,8 @@ class BenchPhysicsTest {
 
     @Test
     void transformerPrimaryOpenShortedAndVoltageRatioMatchTheWorkedExample() {
-        // check-values.md §7, X7: L1 = 10 mH, n = 4, k = 0.99 → L_sc1 = 199.0 µH, r_fwd = 4.0404
+        // L1 = 10 mH, n = 4, k = 0.99: short-circuit inductance L1(1 − k²) = 199.0 µH (the JIS C 5602-1986 method,
+        // as Wikipedia "Short-circuit inductance" gives it) and V1/V2 = L1/M = n/k = 4.0404 (M = k√(L1·L2)), computed
         SimulatedBench b = Requests.ideal("  transformer:\n    primary_inductance_h: 10e-3\n"
                 + "    turns_ratio: 4\n    coupling: 0.99\n");
         assertEquals(10e-3, b.measure(Requests.at(1e3)).imaginary() / W1K, 1e-15);

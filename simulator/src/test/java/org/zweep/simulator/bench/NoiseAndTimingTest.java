@@ -96,7 +96,7 @@ class NoiseAndTimingTest {
 
     @Test
     void realTimingIsOverheadPlusAveragedApertureAndSettlingAfterABiasChange() {
-        // the documented timing model (README, formats-simulator); no outside source
+        // the documented timing model (README, formats-simulator)
         SimulatedBench b = Requests.bench("meter:\n  timing: real\n  point_overhead_s: 0.002\n"
                 + "  bias_settling_s: 0.05\ndevice:\n  capacitor:\n    capacitance_f: 1e-6\n");
         PointRequest plain = new PointRequest(false, 1e3, SourceKind.VOLTAGE, 1, SourceKind.VOLTAGE,

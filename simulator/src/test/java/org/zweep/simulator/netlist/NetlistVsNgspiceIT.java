@@ -20,8 +20,8 @@ import org.junit.jupiter.params.provider.Arguments;
 import org.junit.jupiter.params.provider.MethodSource;
 
 /**
- * The netlist solver against ngspice's AC analysis (the reference tool; deck pattern from
- * standards.md §7.1, voltage-source method). ngspice adds gmin (1e-12 S) to every node, so the
+ * The netlist solver against ngspice's AC analysis (the reference tool; ngspice User's Manual,
+ * .ac analysis, with a 1 V AC source and Z = v(in)/(-i(V1))). ngspice adds gmin (1e-12 S) to every node, so the
  * agreement is to about 1e-6 of |Z|.
  */
 class NetlistVsNgspiceIT {
@@ -48,7 +48,7 @@ class NetlistVsNgspiceIT {
 
     static List<Arguments> networks() {
         return List.of(
-                Arguments.of("series RLC of check-values.md §10",
+                Arguments.of("series RLC: ESR 20 mΩ, ESL 1 nH, C 100 nF",
                         "R1 hi a 20m\nL1 a b 1n\nC1 b 0 100n\n", ""),
                 Arguments.of("parallel resonant tank",
                         "R1 hi a 0.5\nL1 a 0 10u\nC1 hi 0 1n\nRp hi 0 10k\n", ""),

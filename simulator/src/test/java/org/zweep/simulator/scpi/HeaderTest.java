@@ -77,7 +77,9 @@ class HeaderTest {
 
     @Test
     void theHeaderPathIsTakenFromHeadersAsTypedNotFromOmittedDefaultNodes() {
-        // standards.md §1.5 rule 5: the simulator applies rule 3 to headers as typed; IMP:APER sets
+        // IEEE 488.2-1992 Appendix A / SCPI-1999 Vol 1 §6.2.4 (header-path traversal): after a unit the path is
+        // its header up to the last mnemonic. Whether an omitted default node counts is left open; the
+        // simulator applies the rule to headers as typed, so IMP:APER sets
         // the path IMP:, so AVER:COUN after it is IMP:AVER:COUN, which does not exist
         c.send("IMP:APER 0.2;AVER:COUN 4");
         assertEquals(List.of(-113), c.codes());
@@ -121,7 +123,7 @@ class HeaderTest {
 
     @Test
     void queryResponsesOfOneMessageAreJoinedBySemicolons() {
-        // IEEE 488.2 §8.4.1 (standards.md §1.7): FREQ?;VOLT? gives one line
+        // IEEE 488.2-1992 §8.4.1: the responses of one message are joined by ';' in one line
         assertEquals("1.0E+03;1.0E+00", c.send("SOUR:FREQ?;VOLT?"));
     }
 

@@ -81,7 +81,7 @@ class MeasurementTest {
 
     @Test
     void initiateWhileMeasuringIsIgnored() throws Exception {
-        // SCPI-1999 Vol 2 §21.8.10 (standards.md §1.4): -213 Init ignored
+        // SCPI-1999 Vol 2 §21.8.10: -213 Init ignored
         c.send("INIT");
         gate.awaitPointStarted();
         assertEquals(null, otherSend("INIT"));
@@ -92,7 +92,7 @@ class MeasurementTest {
 
     @Test
     void abortEndsARunningMeasurement() throws Exception {
-        // standards.md §2.8: ABORt returns to IDLE
+        // SCPI-1999 Vol 2, ABORt and the trigger model: ABORt returns to IDLE
         c.send("INIT");
         gate.awaitPointStarted();
         c.send("ABOR");
@@ -102,7 +102,7 @@ class MeasurementTest {
 
     @Test
     void fetchWithoutACompletedMeasurementIsStale() {
-        // SCPI-1999 Vol 2 §21.8.10 (standards.md §2.7): -230 Data corrupt or stale
+        // SCPI-1999 Vol 2 §21.8.10: -230 Data corrupt or stale (FETCh? with no completed reading)
         assertEquals(null, c.send("FETC?"));
         assertEquals(List.of(-230), c.codes());
     }
@@ -191,7 +191,8 @@ class MeasurementTest {
 
     @Test
     void aBusTriggerStartsAnInitiatedMeasurement() throws Exception {
-        // standards.md §2.8: BUS trigger is *TRG; -211 when not waiting; -214 READ? with BUS
+        // SCPI-1999 Vol 2, TRIGger subsystem: BUS trigger is *TRG (IEEE 488.2-1992 §10.37); §21.8.10: -211 Trigger
+        // ignored when not waiting, -214 Trigger deadlock for READ? with BUS
         c.send("SIM:TIM NONE;:TRIG:SOUR BUS");
         c.send("*TRG");
         c.send("READ?");
@@ -252,7 +253,7 @@ class MeasurementTest {
 
     @Test
     void openShortLoadCorrectionReturnsTheDeviceBehindALinearFixture() {
-        // check-values.md §3.2: open/short/load is exact for any linear fixture (at an acquired frequency)
+        // open/short/load is exact for any linear fixture (a bilinear map, fixed by three points) at an acquired frequency
         c.send("SIM:TIM NONE");
         c.send("CORR:STAT ON");
         assertEquals(List.of(-221), c.codes());
@@ -271,7 +272,7 @@ class MeasurementTest {
 
     @Test
     void openShortCorrectionRemovesTheResidualsBetweenAcquiredFrequencies() {
-        // check-values.md §3.1 topology A, exact Yo = 1/(Zo − Zs); residual R + jωL and stray jωC are linear in f
+        // series residual at the meter, stray across the device: exact Yo = 1/(Zo − Zs); residual R + jωL and stray jωC are linear in f
         c.send("SIM:TIM NONE");
         for (String std : List.of("OPEN", "SHORT")) {
             c.send("SIM:FIXT " + std + ";:CORR:COLL " + std + ";*WAI");

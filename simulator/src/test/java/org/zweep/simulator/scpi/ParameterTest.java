@@ -33,7 +33,8 @@ class ParameterTest {
 
     @Test
     void mhzIsMegahertzInAnyCase() {
-        // standards.md §2.6: MHZ is the standard exception, so mHz is megahertz too
+        // IEEE 488.2-1992 §7.7.3 / SCPI-1999 Vol 1 §7.2.2 (clause from memory): suffixes are case-insensitive and
+        // MHZ is the standard exception (mega), so mHz is megahertz too
         c.send("SOUR:FREQ 1MHZ");
         assertEquals(1e6, c.number("SOUR:FREQ?"));
         c.send("SOUR:FREQ 2mHz");
@@ -44,7 +45,7 @@ class ParameterTest {
 
     @Test
     void mohmIsMegohm() {
-        // standards.md §2.6: MOHM is megohm
+        // IEEE 488.2-1992 §7.7.3 (clause from memory): MOHM is megohm, the other exception
         c.send("IMP:RANG 1MOHM");
         assertEquals(1e6, c.number("IMP:RANG?"));
         c.send("IMP:RANG 10KOHM");
@@ -53,7 +54,7 @@ class ParameterTest {
 
     @Test
     void maAfterACurrentIsMilliampereAndMaaIsMegaampere() {
-        // standards.md §2.6: MA after a number for a current is milliampere; mega-ampere is MAA
+        // IEEE 488.2-1992 §7.7.3 (clause from memory): MA after a current is milliampere; mega-ampere is MAA
         c.send("SOUR:CURR 5MA");
         assertEquals(5e-3, c.number("SOUR:CURR?"), 1e-18);
         c.send("SOUR:CURR 1MAA");
@@ -141,7 +142,7 @@ class ParameterTest {
 
     @Test
     void enumerationsAreAnsweredInUpperCaseShortForm() {
-        // standards.md §2.6 (SCPI-1999 Vol 1 §7.1): a query returns the short form in upper case
+        // SCPI-1999 Vol 1 §7.1 (character data): a query returns the short form in upper case
         c.send("TRIG:SOUR bus");
         assertEquals("BUS", c.send("TRIG:SOUR?"));
         c.send("TRIG:SOUR immediate");

@@ -49,7 +49,7 @@ class PointTimingTest {
         c.send("SENS:AVER:COUN 2;:SENS:IMP:APER 5E-3");
         long trigger = clock.nanoTime();
         c.send("READ?");
-        // 2 averages × 5 ms aperture, TestBench's timing (common practice, no source)
+        // 2 averages × 5 ms aperture, TestBench's timing
         assertEquals(List.of(trigger + 10_000_000L), clock.deadlines());
     }
 

@@ -89,7 +89,7 @@ class SimulateCommandsTest {
         send("SIM:BENC \"kp-c0805-104.bench.yaml\"");
         assertEquals(0, nextError());
         double[] z = read();
-        assertTrue(z[1] < 0, "a capacitor reads a negative reactance (DESIGN.md convention): " + z[1]);
+        assertTrue(z[1] < 0, "a capacitor reads a negative reactance (Z = R + jX, X_C = −1/(ωC)): " + z[1]);
         // 100 nF at 1 kHz: |X| ≈ 1/(2π·1e3·1e-7) ≈ 1592 Ω before derating, common practice
         assertTrue(Math.abs(z[1]) > 1000 && Math.abs(z[1]) < 3000, Double.toString(z[1]));
     }

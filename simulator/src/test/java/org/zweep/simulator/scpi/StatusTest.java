@@ -71,7 +71,7 @@ class StatusTest {
 
     @Test
     void theStandardTextsAreExactlyThoseOfScpi1999() {
-        // SCPI-1999 Vol 2 §21.8.9–21.8.12, as listed in standards.md §2.3
+        // SCPI-1999 Vol 2 §21.8.9–21.8.12
         Map<Integer, String> texts = Map.ofEntries(
                 Map.entry(-100, "Command error"), Map.entry(-101, "Invalid character"),
                 Map.entry(-102, "Syntax error"), Map.entry(-103, "Invalid separator"),
@@ -136,14 +136,15 @@ class StatusTest {
 
     @Test
     void serviceRequestEnableIgnoresBitSix() {
-        // IEEE 488.2 §11.3.2 (standards.md §1.1, from memory): bit 6 of *SRE reads back 0
+        // IEEE 488.2-1992 §11.3.2 (from memory): bit 6 of *SRE reads back 0
         c.send("*SRE 255");
         assertEquals("191", c.send("*SRE?"));
     }
 
     @Test
     void identificationHasFourFieldsWithinSeventyTwoCharacters() {
-        // IEEE 488.2 §10.14; SCPI-1999 Vol 1 §4.1.3.6 (standards.md §1.9: at most 72 characters)
+        // IEEE 488.2-1992 §10.14; SCPI-1999 Vol 1 §4.1.3.6 (at most 72 characters: restated in conformance
+        // chapters, the clause itself from memory)
         String idn = c.send("*IDN?");
         assertEquals(4, idn.split(",", -1).length);
         assertTrue(idn.length() <= 72, idn);

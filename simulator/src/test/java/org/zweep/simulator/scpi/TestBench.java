@@ -12,7 +12,7 @@ import org.zweep.simulator.bench.Wiring;
 
 /**
  * A small, noiseless test bench: a device R + jωL behind a fixture with a series residual Zs on
- * the meter side and a stray admittance Yo across the slot (topology A of check-values.md §3.1).
+ * the meter side and a stray admittance Yo across the slot (the "ShortOpen" order of scikit-rf's skrf.calibration.deembedding).
  * Each point takes averages × aperture seconds; only a held range overloads. Records every request it sees.
  */
 public final class TestBench implements Bench {

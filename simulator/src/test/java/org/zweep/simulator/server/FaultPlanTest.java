@@ -16,8 +16,7 @@ class FaultPlanTest {
         FaultPlan p = FaultPlan.parse("drop@5, drop-idle=1.5, drop-random=0.25, delay=2@3, fragment=4@2+,"
                 + " stall@7, omit-terminator@~0.5, error=-350@2, garble", 9);
         List<ScheduledFault> f = p.faults();
-        // the numbers are the plan text's own inputs (1.5 s = 1500 ms, seed 9), no outside source;
-        // -350 "Queue overflow" is SCPI-99 Vol 2 §21.8 (standards.md §2.3)
+        // 1.5 s = 1500 ms, seed 9; -350 "Queue overflow" is SCPI-1999 Vol 2 §21.8.11
         assertEquals(new ScheduledFault(Phase.COMPLETE, Exchanges.nth(5), new Fault.Drop()), f.get(0));
         assertEquals(new ScheduledFault(Phase.IDLE, Exchanges.every(), new Fault.DropWhenIdle(Duration.ofMillis(1500))), f.get(1));
         assertEquals(new ScheduledFault(Phase.RECEIVE, new Exchanges.Random(0.25, 9), new Fault.Drop()), f.get(2));

@@ -59,10 +59,10 @@ class SerialSimulatorIT {
             meter.apply(MeasurementSetting.at(1000));
             Reading r = meter.measure();
             assertEquals(10, r.real(), 1e-9);
-            assertEquals(-1591.5494, r.imaginary(), 1e-4); // check-values.md §1.2: 100 nF at 1 kHz
+            assertEquals(-1591.5494, r.imaginary(), 1e-4); // 100 nF at 1 kHz: X_C = −1/(2πfC), computed
             List<Reading> list = meter.measureList(List.of(MeasurementSetting.at(1e4), MeasurementSetting.at(1e5)));
             Complex z = new Complex(list.get(1).real(), list.get(1).imaginary());
-            // Z = R − j/(2πfC); common practice, no source
+            // Z = R − j/(2πfC)
             assertTrue(z.subtract(new Complex(10, -1 / (2 * Math.PI * 1e5 * 100e-9))).abs() < 1e-9, z.toString());
             assertTrue(meter.safeShutdown());
         }

@@ -1,9 +1,9 @@
-package org.zweep.runner.sequence;
+package org.zweep.config;
 
 import java.util.Collection;
 
 /** "Did you mean" suggestions for mistyped keys and names. */
-final class Suggest {
+public final class Suggest {
     private Suggest() {
     }
 
@@ -11,7 +11,7 @@ final class Suggest {
      * {@code " (did you mean 'x'?)"} for the closest candidate within a small edit distance of
      * {@code word}, or the empty string when none is close.
      */
-    static String didYouMean(String word, Collection<String> candidates) {
+    public static String didYouMean(String word, Collection<String> candidates) {
         if (word.length() < 3) {
             return "";
         }
@@ -29,7 +29,7 @@ final class Suggest {
     }
 
     /** Optimal string alignment distance: insertions, deletions, substitutions and adjacent swaps. */
-    static int distance(String a, String b) {
+    public static int distance(String a, String b) {
         int[][] d = new int[a.length() + 1][b.length() + 1];
         for (int i = 0; i <= a.length(); i++) {
             d[i][0] = i;

@@ -1,4 +1,4 @@
-package org.zweep.runner.sequence;
+package org.zweep.config;
 
 import java.util.ArrayList;
 import java.util.LinkedHashMap;
@@ -11,45 +11,45 @@ import org.snakeyaml.engine.v2.nodes.Node;
 import org.snakeyaml.engine.v2.nodes.NodeTuple;
 import org.snakeyaml.engine.v2.nodes.ScalarNode;
 import org.snakeyaml.engine.v2.nodes.SequenceNode;
-import org.zweep.driver.InvalidInputException;
 
 /**
  * A YAML node with its place in the file, so that every complaint about it can say
  * {@code file:line:column} (1-based). Immutable.
  */
-final class YamlNode {
+public final class YamlNode {
     private final Node node;
     private final String file;
 
-    YamlNode(Node node, String file) {
+    /** @param file the name used in messages */
+    public YamlNode(Node node, String file) {
         this.node = node;
         this.file = file;
     }
 
     /** {@code file:line:column} of the node's start, 1-based. */
-    String where() {
+    public String where() {
         return where(file, node.getStartMark());
     }
 
-    static String where(String file, Optional<Mark> mark) {
+    public static String where(String file, Optional<Mark> mark) {
         return mark.map(m -> file + ":" + (m.getLine() + 1) + ":" + (m.getColumn() + 1)).orElse(file);
     }
 
     /** A validation error located at this node. */
-    InvalidInputException error(String message) {
-        return new InvalidInputException(where() + ": " + message);
+    public ConfigException error(String message) {
+        return new ConfigException(where() + ": " + message);
     }
 
-    boolean isList() {
+    public boolean isList() {
         return node instanceof SequenceNode;
     }
 
-    boolean isMap() {
+    public boolean isMap() {
         return node instanceof MappingNode;
     }
 
     /** The node's text; an error naming {@code what} when the node is a list or mapping. */
-    String text(String what) {
+    public String text(String what) {
         if (node instanceof ScalarNode s) {
             return s.getValue().strip();
         }
@@ -57,7 +57,7 @@ final class YamlNode {
     }
 
     /** The items of a list node; an error naming {@code what} otherwise. */
-    List<YamlNode> items(String what) {
+    public List<YamlNode> items(String what) {
         if (node instanceof SequenceNode s) {
             List<YamlNode> out = new ArrayList<>();
             for (Node n : s.getValue()) {
@@ -73,7 +73,7 @@ final class YamlNode {
      * {@code what} when it is not a mapping, a key is unknown (with a suggestion for a near
      * typo) or repeated.
      */
-    YamlMap map(String what, List<String> allowed) {
+    public YamlMap map(String what, List<String> allowed) {
         if (!(node instanceof MappingNode m)) {
             throw error("expected " + what + " (a mapping), got " + shape());
         }
@@ -95,8 +95,40 @@ final class YamlNode {
         return new YamlMap(this, what, values, keys);
     }
 
+    /**
+     * The node as a mapping read against {@code schema}: unknown keys (with a suggestion) and
+     * repeated keys are errors, and so is a missing or empty required key.
+     */
+    public YamlMap map(Schema schema) {
+        YamlMap m = map(schema.what(), schema.keys());
+        for (String key : schema.required()) {
+            m.required(key);
+        }
+        return m;
+    }
+
+    /** The SnakeYAML node itself, for what this class does not cover (scalar style, marks). */
+    public Node node() {
+        return node;
+    }
+
+    /** The file name used in messages. */
+    public String file() {
+        return file;
+    }
+
+    /** The node's 1-based line, or 1 when the parser gave no place. */
+    public int line() {
+        return node.getStartMark().map(m -> m.getLine() + 1).orElse(1);
+    }
+
+    /** The node's 1-based column, or 0 when the parser gave no place. */
+    public int column() {
+        return node.getStartMark().map(m -> m.getColumn() + 1).orElse(0);
+    }
+
     /** The text of a scalar value under {@code key} when this is a mapping, without any checks (for labels). */
-    Optional<String> peek(String key) {
+    public Optional<String> peek(String key) {
         if (node instanceof MappingNode m) {
             for (NodeTuple t : m.getValue()) {
                 if (t.getKeyNode() instanceof ScalarNode k && k.getValue().equals(key)
@@ -109,7 +141,7 @@ final class YamlNode {
     }
 
     /** The value node under {@code key} when this is a mapping, without any checks (for locating messages). */
-    Optional<YamlNode> child(String key) {
+    public Optional<YamlNode> child(String key) {
         if (node instanceof MappingNode m) {
             for (NodeTuple t : m.getValue()) {
                 if (t.getKeyNode() instanceof ScalarNode k && k.getValue().equals(key)) {
@@ -120,7 +152,7 @@ final class YamlNode {
         return Optional.empty();
     }
 
-    String shape() {
+    public String shape() {
         if (node instanceof ScalarNode s) {
             return s.getValue().isEmpty() ? "nothing" : "'" + s.getValue() + "'";
         }
@@ -128,14 +160,14 @@ final class YamlNode {
     }
 
     /** Whether the node is an empty plain scalar (a key with no value). */
-    boolean isEmpty() {
+    public boolean isEmpty() {
         return node instanceof ScalarNode s && s.getValue().isEmpty() && s.isPlain();
     }
 
     /** A mapping's entries, in file order, with the mapping's own position for missing keys. */
-    record YamlMap(YamlNode self, String what, Map<String, YamlNode> values, Map<String, YamlNode> keys) {
+    public record YamlMap(YamlNode self, String what, Map<String, YamlNode> values, Map<String, YamlNode> keys) {
         /** The value of {@code key}; an error at the mapping's position when it is absent or empty. */
-        YamlNode required(String key) {
+        public YamlNode required(String key) {
             YamlNode v = values.get(key);
             if (v == null) {
                 throw self.error("missing key '" + key + "' in " + what);
@@ -147,7 +179,7 @@ final class YamlNode {
         }
 
         /** The value of {@code key}, or empty when it is absent. */
-        Optional<YamlNode> optional(String key) {
+        public Optional<YamlNode> optional(String key) {
             YamlNode v = values.get(key);
             if (v != null && v.isEmpty()) {
                 throw keys.get(key).error("'" + key + "' has no value");
@@ -155,7 +187,7 @@ final class YamlNode {
             return Optional.ofNullable(v);
         }
 
-        boolean has(String key) {
+        public boolean has(String key) {
             return values.containsKey(key);
         }
     }

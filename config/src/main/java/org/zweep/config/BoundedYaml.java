@@ -1,4 +1,4 @@
-package org.zweep.runner.sequence;
+package org.zweep.config;
 
 import java.io.IOException;
 import java.io.InputStream;
@@ -23,7 +23,6 @@ import org.snakeyaml.engine.v2.events.Event;
 import org.snakeyaml.engine.v2.exceptions.MarkedYamlEngineException;
 import org.snakeyaml.engine.v2.exceptions.YamlEngineException;
 import org.snakeyaml.engine.v2.nodes.Node;
-import org.zweep.driver.InvalidInputException;
 
 /**
  * YAML from files nobody vouches for: bounded in size, nesting depth, document count and aliases,
@@ -31,16 +30,16 @@ import org.zweep.driver.InvalidInputException;
  * and in bounded memory (no stack overflow in the recursive composer, no quadratic re-reading of
  * long lines). Limits in README, section "Limits on input files".
  */
-final class BoundedYaml {
+public final class BoundedYaml {
     /**
      * The largest file read, in bytes: a hundred times a long sequence file, and small enough
      * that the two passes over it (limits, then nodes) stay well under a second on a cold JVM.
      */
-    static final int MAX_FILE_BYTES = 256 << 10;
+    public static final int MAX_FILE_BYTES = 256 << 10;
     /** The deepest nesting of mappings and lists. */
-    static final int MAX_DEPTH = 64;
+    public static final int MAX_DEPTH = 64;
     /** The most aliases ({@code *name}) in one file. */
-    static final int MAX_ALIASES = 64;
+    public static final int MAX_ALIASES = 64;
     /**
      * SnakeYAML Engine re-copies its read window every buffer's length while one scalar is being
      * scanned, so its default of 1024 code points makes a long line cost the square of its length;
@@ -56,28 +55,28 @@ final class BoundedYaml {
      * included).
      *
      * @param what what the file is, for the message ("sequence file")
-     * @throws InvalidInputException naming the file and the limit or the reason it cannot be read
+     * @throws ConfigException naming the file and the limit or the reason it cannot be read
      */
-    static String read(Path file, String what) {
+    public static String read(Path file, String what) {
         byte[] bytes;
         try (InputStream in = Files.newInputStream(file)) {
             bytes = in.readNBytes(MAX_FILE_BYTES + 1);
         } catch (NoSuchFileException e) {
-            throw new InvalidInputException(file + ": cannot read: no such file");
+            throw new ConfigException(file + ": cannot read: no such file");
         } catch (AccessDeniedException e) {
-            throw new InvalidInputException(file + ": cannot read: permission denied");
+            throw new ConfigException(file + ": cannot read: permission denied");
         } catch (IOException e) {
-            throw new InvalidInputException(file + ": cannot read: "
+            throw new ConfigException(file + ": cannot read: "
                     + (e.getMessage() == null ? e.getClass().getSimpleName() : e.getMessage()));
         }
         if (bytes.length > MAX_FILE_BYTES) {
-            throw new InvalidInputException(file + ": larger than " + MAX_FILE_BYTES + " bytes, the limit for a " + what);
+            throw new ConfigException(file + ": larger than " + MAX_FILE_BYTES + " bytes, the limit for a " + what);
         }
         try {
             return StandardCharsets.UTF_8.newDecoder().onMalformedInput(CodingErrorAction.REPORT)
                     .onUnmappableCharacter(CodingErrorAction.REPORT).decode(ByteBuffer.wrap(bytes)).toString();
         } catch (CharacterCodingException e) {
-            throw new InvalidInputException(file + ": not UTF-8 text");
+            throw new ConfigException(file + ": not UTF-8 text");
         }
     }
 
@@ -86,11 +85,12 @@ final class BoundedYaml {
      *
      * @param file the name used in messages
      * @param what what the text is, for the message ("sequence file")
-     * @throws InvalidInputException with {@code file:line:column} for a syntax error or a limit exceeded
+     * @throws ConfigException with {@code file:line:column} for a limit exceeded, a
+     *     {@link YamlSyntaxException} for a syntax error
      */
-    static List<Node> compose(String text, String file, String what) {
+    public static List<Node> compose(String text, String file, String what) {
         if (text.length() > MAX_FILE_BYTES) {
-            throw new InvalidInputException(file + ": larger than " + MAX_FILE_BYTES + " characters, the limit for a " + what);
+            throw new ConfigException(file + ": larger than " + MAX_FILE_BYTES + " characters, the limit for a " + what);
         }
         LoadSettings settings = LoadSettings.builder().setLabel(file).setBufferSize(READ_BUFFER)
                 .setCodePointLimit(MAX_FILE_BYTES).setMaxAliasesForCollections(MAX_ALIASES).build();
@@ -104,18 +104,28 @@ final class BoundedYaml {
                     ? " (" + e.getContext() + " at line " + (e.getContextMark().get().getLine() + 1) + ", column "
                             + (e.getContextMark().get().getColumn() + 1) + ")"
                     : "";
-            throw new InvalidInputException(oneLine(where + ": YAML syntax: " + e.getProblem() + context), e);
+            throw new YamlSyntaxException(where, e.getProblem(), context, e);
         } catch (YamlEngineException e) {
-            throw new InvalidInputException(oneLine(file + ": YAML syntax: " + e.getMessage()), e);
+            throw new YamlSyntaxException(file, e.getMessage(), "", e);
         }
         return documents;
+    }
+
+    /**
+     * The one document of {@code text} as a located node, or empty when the text holds none.
+     *
+     * @see #compose(String, String, String)
+     */
+    public static java.util.Optional<YamlNode> composeOne(String text, String file, String what) {
+        List<Node> documents = compose(text, file, what);
+        return documents.isEmpty() ? java.util.Optional.empty() : java.util.Optional.of(new YamlNode(documents.get(0), file));
     }
 
     /**
      * The parser quotes the character it did not expect as it is ("found \n(10)"), so a line end
      * or another control character would break the one-line message: each is written as an escape.
      */
-    static String oneLine(String message) {
+    public static String oneLine(String message) {
         StringBuilder b = new StringBuilder(message.length());
         message.codePoints().forEach(c -> {
             if (c == '\n') {
@@ -141,18 +151,18 @@ final class BoundedYaml {
         for (Event e : events) {
             if (e instanceof CollectionStartEvent) {
                 if (++depth > MAX_DEPTH) {
-                    throw new InvalidInputException(YamlNode.where(file, e.getStartMark())
+                    throw new ConfigException(YamlNode.where(file, e.getStartMark())
                             + ": nested deeper than " + MAX_DEPTH + " levels (the limit)");
                 }
             } else if (e instanceof CollectionEndEvent) {
                 depth--;
             } else if (e instanceof AliasEvent) {
                 if (++aliases > MAX_ALIASES) {
-                    throw new InvalidInputException(YamlNode.where(file, e.getStartMark())
+                    throw new ConfigException(YamlNode.where(file, e.getStartMark())
                             + ": more than " + MAX_ALIASES + " aliases (the limit)");
                 }
             } else if (e instanceof DocumentStartEvent && ++documents > 1) {
-                throw new InvalidInputException(YamlNode.where(file, e.getStartMark())
+                throw new ConfigException(YamlNode.where(file, e.getStartMark())
                         + ": expected one YAML document, found another");
             }
         }
