@@ -108,7 +108,7 @@ public final class AnalyzeCommand implements Callable<Integer> {
                     Figures.format(t.leakageH(), Unit.HENRY) + plusMinus(t.uLeakageH(), Unit.HENRY),
                     Figures.format(t.frequencyHz(), Unit.HERTZ), Figures.format(t.mutualH(), Unit.HENRY));
         }
-        var units = CheckText.unitsFrom(a.run().rows());
+        var units = a.stepUnits();
         for (CheckOutcome c : a.checks()) {
             out.println(CheckText.line(c, units.apply(c.step())));
         }

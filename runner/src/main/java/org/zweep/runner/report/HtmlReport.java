@@ -176,7 +176,7 @@ public final class HtmlReport {
     }
 
     private static List<Check> checks(AnalysisResult a) {
-        Function<String, CheckText.StepUnits> units = CheckText.unitsFrom(a.run().rows());
+        Function<String, CheckText.StepUnits> units = a.stepUnits();
         List<CheckOutcome> checks = a.checks();
         List<Check> out = new ArrayList<>();
         for (int i = 0; i < checks.size(); i++) {
@@ -271,7 +271,7 @@ public final class HtmlReport {
 
     private static List<Setting> settings(AnalysisResult a) {
         List<Setting> out = new ArrayList<>();
-        for (Sweep s : Sweep.of(a.run().rows())) {
+        for (Sweep s : a.sweeps()) {
             List<Impedance> p = s.points();
             out.add(new Setting(s.step(), s.describe(), p.size(), Figures.format(p.get(0).frequencyHz(), Unit.HERTZ)
                     + " – " + Figures.format(p.get(p.size() - 1).frequencyHz(), Unit.HERTZ), s.repeats()));

@@ -92,13 +92,4 @@ public final class CheckText {
                 where.isEmpty() ? "" : " at " + where, l.step(), value(c), c.result(), rule,
                 c.note().isEmpty() ? "" : " (" + c.note() + ")");
     }
-
-    /** The step units of each step of a run, from its rows' bias mode and drive ({@code V} or {@code A}). */
-    public static Function<String, StepUnits> unitsFrom(List<org.zweep.runner.results.PointRow> rows) {
-        java.util.Map<String, StepUnits> byStep = new java.util.HashMap<>();
-        for (org.zweep.runner.results.PointRow r : rows) {
-            byStep.putIfAbsent(r.step(), new StepUnits(Figures.unit(r.biasMode()), Figures.unit(r.drive())));
-        }
-        return step -> byStep.getOrDefault(step, StepUnits.UNKNOWN);
-    }
 }
