@@ -160,9 +160,11 @@ public final class HtmlReport {
                             e.getValue() == null ? "—" : Figures.of(k, f.sigma().get(k), 2)));
                 }
                 rows.add(new FitRow("SRF (from the fitted model)", f.srfHz() == null ? "not resolved"
-                        : Figures.format(f.srfHz(), Unit.HERTZ, 6), ""));
+                        : Figures.format(f.srfHz(), Unit.HERTZ, 6), f.srfHz() == null || !Double.isFinite(f.srfU()) ? ""
+                        : Figures.format(f.srfU(), Unit.HERTZ, 2)));
                 rows.add(new FitRow("SRF (where the measured X changes sign)", f.srfDataHz() == null ? "not in sweep"
-                        : Figures.format(f.srfDataHz(), Unit.HERTZ, 6), ""));
+                        : Figures.format(f.srfDataHz(), Unit.HERTZ, 6), f.srfDataHz() == null
+                        || !Double.isFinite(f.srfDataU()) ? "" : Figures.format(f.srfDataU(), Unit.HERTZ, 2)));
                 rows.add(new FitRow("residual RMS (relative)", Figures.number(f.residualRms(), 3), ""));
                 if (f.weighted()) {
                     rows.add(new FitRow("reduced χ² (weighted by u)", Figures.number(f.reducedChiSquared(), 3), ""));
