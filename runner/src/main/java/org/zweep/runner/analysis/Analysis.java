@@ -341,11 +341,11 @@ public final class Analysis {
         if (disagree.isEmpty()) {
             return "";
         }
-        return "check" + (disagree.size() > 1 ? "s " : " ") + String.join("; ", disagree) + "; but the " + source
+        return "check" + (disagree.size() > 1 ? "s " : " ") + String.join("; ", disagree) + "; the " + source
                 + " against the stated tolerance: " + tolerance.decision().word() + " [" + tolerance.rule()
-                + (Double.isNaN(tolerance.expandedU()) ? ", U unknown" : "") + "]"
-                + ": the bin judges that one figure against the part's tolerance,"
-                + " the check judges its own selected points against its own limits (the verdict is the checks')";
+                + (Double.isNaN(tolerance.expandedU()) ? ", U unknown" : "") + "]."
+                + " They differ because the bin judges that one figure against the part's tolerance and a check"
+                + " judges its own selected points against its own limits (the verdict is the checks')";
     }
 
     /** What a decision word means, for the few that need it. */

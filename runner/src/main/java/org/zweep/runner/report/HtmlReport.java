@@ -149,9 +149,13 @@ public final class HtmlReport {
                 }
                 b.append("<tr><td>SRF (from the fitted model)</td><td class=\"num\">")
                         .append(f.srfHz() == null ? "not resolved" : esc(Si.format(f.srfHz(), Unit.HERTZ, 6)))
-                        .append("</td><td></td></tr><tr><td>SRF (where the measured X changes sign)</td><td class=\"num\">")
+                        .append("</td><td class=\"num\">").append(f.srfHz() == null || !Double.isFinite(f.srfU()) ? ""
+                                : esc(Si.format(f.srfU(), Unit.HERTZ, 2)))
+                        .append("</td></tr><tr><td>SRF (where the measured X changes sign)</td><td class=\"num\">")
                         .append(f.srfDataHz() == null ? "not in sweep" : esc(Si.format(f.srfDataHz(), Unit.HERTZ, 6)))
-                        .append("</td><td></td></tr><tr><td>residual RMS (relative)</td><td class=\"num\">")
+                        .append("</td><td class=\"num\">").append(f.srfDataHz() == null || !Double.isFinite(f.srfDataU())
+                                ? "" : esc(Si.format(f.srfDataU(), Unit.HERTZ, 2)))
+                        .append("</td></tr><tr><td>residual RMS (relative)</td><td class=\"num\">")
                         .append(esc(String.format(Locale.ROOT, "%.3g", f.residualRms())))
                         .append(f.weighted() ? "</td><td></td></tr><tr><td>reduced χ² (weighted by u)</td><td class=\"num\">"
                                 + esc(String.format(Locale.ROOT, "%.3g", f.reducedChiSquared())) : "")
