@@ -10,7 +10,7 @@ import org.zweep.driver.scpi.ScpiSettings;
 import org.zweep.runner.engine.FixtureCompensation;
 import org.zweep.runner.engine.Interruption;
 import org.zweep.runner.engine.ProgressListener;
-import org.zweep.runner.engine.Prompter;
+import org.zweep.runner.engine.FixturePort;
 import org.zweep.runner.engine.ReconnectPolicy;
 import org.zweep.runner.engine.RunSession;
 import org.zweep.runner.engine.ScpiMeterLink;
@@ -75,7 +75,7 @@ public final class RealTimingCheck {
         Plan plan = SequenceLoader.load(seq);
         RunFolder folder = RunFolder.createAt(dir.resolve("run-" + points + "-" + list + "-" + sync), seq);
         RunSession session = new RunSession(plan, link, new RunSession.Setup(folder, false, seq.toString(), dialect,
-                null, ReconnectPolicy.DEFAULT, Prompter.refusing(), ProgressListener.QUIET, new Interruption(),
+                null, ReconnectPolicy.DEFAULT, FixturePort.meter(link, FixturePort.refusing("nobody at the fixture"), line -> { }), ProgressListener.QUIET, new Interruption(),
                 FixtureCompensation.NONE, SweepChecks.NONE, Clock.systemUTC(), "bench", sync));
         meterS.reset();
         long t0 = System.nanoTime();

@@ -93,7 +93,7 @@ public class RunnerOverheadBenchmark {
     public RunResult runThousandPoints() {
         InstantMeter meter = new InstantMeter(listPoints);
         Interruption interruption = new Interruption();
-        Station st = new Station(meter, new SafetyGuard(plan.safety()), i -> { }, Waiter.none(interruption),
+        Station st = new Station(meter, new SafetyGuard(plan.safety()), (state, text) -> { }, Waiter.none(interruption),
                 ReconnectPolicy.DEFAULT, line -> { });
         st.start(null);
         Path csv = dir.resolve("points-" + (run++) + ".csv");

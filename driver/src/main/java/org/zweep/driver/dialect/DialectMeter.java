@@ -18,6 +18,8 @@ import org.zweep.driver.impedance.Impedance;
 import org.zweep.driver.meter.Bias;
 import org.zweep.driver.meter.CorrectionStandard;
 import org.zweep.driver.meter.Drive;
+import org.zweep.driver.meter.FixtureControl;
+import org.zweep.driver.meter.FixtureState;
 import org.zweep.driver.meter.ImpedanceRange;
 import org.zweep.driver.meter.MeasuredQuantity;
 import org.zweep.driver.meter.MeasurementSetting;
@@ -120,7 +122,7 @@ public final class DialectMeter implements Meter {
         current = null;
         lastMeasured = null;
         resync = false;
-        send(List.of(render(Command.RESET)), "resetting");
+        dialect.command(Command.RESET).ifPresent(t -> send(List.of(t.render()), "resetting"));
     }
 
     @Override
@@ -316,11 +318,47 @@ public final class DialectMeter implements Meter {
         throw new ScpiProtocolException(session.address() + ": " + seen.size() + " different replies while " + what);
     }
 
+    /**
+     * The meter's own fixture switch, when the dialect has a {@code fixture} section: {@link
+     * FixtureControl#hold} sends the state's command, checks errors as after a setting, then waits
+     * the section's {@code settle} time.
+     */
+    @Override
+    public Optional<FixtureControl> fixture() {
+        if (dialect.fixtureStates().isEmpty()) {
+            return Optional.empty();
+        }
+        return Optional.of(new FixtureControl() {
+            @Override
+            public java.util.Set<FixtureState> states() {
+                return dialect.fixtureStates();
+            }
+
+            @Override
+            public void hold(FixtureState state) {
+                requireOpen();
+                Template t = dialect.fixtureCommand(state).orElseThrow(() -> new IllegalArgumentException(
+                        "the fixture of " + meterName() + " cannot be switched to " + state));
+                send(List.of(t.render()), "switching the fixture to " + state.name().toLowerCase(java.util.Locale.ROOT)
+                        .replace('_', ' '));
+                if (dialect.fixtureSettleS() > 0) {
+                    try {
+                        Thread.sleep(seconds(dialect.fixtureSettleS()).toMillis());
+                    } catch (InterruptedException e) {
+                        Thread.currentThread().interrupt();
+                        throw new org.zweep.driver.MeterException(session.address()
+                                + ": interrupted while the fixture settled");
+                    }
+                }
+            }
+        });
+    }
+
     @Override
     public void biasOff() {
         requireOpen();
         known.biasOn.clear();
-        send(List.of(render(Command.BIAS_OFF)), "switching DC bias off");
+        dialect.command(Command.BIAS_OFF).ifPresent(t -> send(List.of(t.render()), "switching DC bias off"));
         for (SourceMode mode : SourceMode.values()) {
             known.biasOn.put(mode, false);
         }
@@ -345,7 +383,8 @@ public final class DialectMeter implements Meter {
         }
         closed = true;
         try {
-            send(List.of(render(Command.BIAS_OFF)), "switching DC bias off at shutdown");
+            // a meter without a DC bias source (no bias-off command) has no bias to switch off
+            dialect.command(Command.BIAS_OFF).ifPresent(t -> send(List.of(t.render()), "switching DC bias off at shutdown"));
             biasConfirmedOff = true;
         } catch (RuntimeException e) {
             biasConfirmedOff = false;
@@ -550,22 +589,21 @@ public final class DialectMeter implements Meter {
             return;
         }
         try {
-            List<String> messages = dialect.compoundMessages() ? List.of(String.join(";", units)) : units;
+            Dialect.Messages m = dialect.messages();
+            List<String> messages = m.join() ? List.of(String.join(";", units)) : units;
             for (int i = 0; i < messages.size() - 1; i++) {
                 session.write(messages.get(i));
             }
             String last = messages.get(messages.size() - 1);
-            Optional<Template> errorQuery = dialect.command(Command.ERROR_QUERY);
             Duration work = seconds(expectedS);
-            if (dialect.appendErrorQuery()) {
-                ScpiError first = parseError(session.query(last + ";" + errorQuery.orElseThrow().render(), work),
-                        what);
+            if (m.errorCheck().afterSettings() && m.errorQueryJoined()) {
+                ScpiError first = parseError(session.query(last + ";" + render(Command.ERROR_QUERY), work), what);
                 if (first.code() != 0) {
                     throw errors(first, what);
                 }
             } else {
                 session.write(last);
-                if (errorQuery.isPresent()) {
+                if (m.errorCheck().afterSettings()) {
                     List<ScpiError> errors = readErrors(new ArrayList<>(), work, what);
                     if (!errors.isEmpty()) {
                         throw errors(errors, what);
@@ -675,7 +713,7 @@ public final class DialectMeter implements Meter {
             return readValues(command, points, expectedS, what, false)[0];
         }
         List<double[]> seen = new ArrayList<>();
-        if (dialect.compoundMessages() && dialect.reply().encoding() == ReplyShape.Encoding.ASCII) {
+        if (dialect.messages().join() && dialect.reply().encoding() == ReplyShape.Encoding.ASCII) {
             double[][] both = readValues(command, points, expectedS, what, true);
             if (Arrays.equals(both[0], both[1])) {
                 return both[0];
@@ -742,17 +780,33 @@ public final class DialectMeter implements Meter {
         int expected = points * shape.fields().size();
         double[][] results;
         String shown;
+        Dialect.Messages m = dialect.messages();
         if (shape.encoding() == ReplyShape.Encoding.ASCII) {
-            boolean append = dialect.appendErrorQuery();
-            String reply = session.query(append ? query + ";" + render(Command.ERROR_QUERY) : query, work);
-            List<String> units = splitOutsideQuotes(reply, ';');
+            boolean append = m.errorCheck().afterMeasurement() && m.errorQueryJoined();
+            int queries = (twice ? 2 : 1) + (append ? 1 : 0);
+            List<String> units = replies(append ? query + ";" + render(Command.ERROR_QUERY) : query, queries, work,
+                    what);
             if (append) {
-                ScpiError error = parseError(units.remove(units.size() - 1), what);
+                ScpiError error;
+                try {
+                    error = parseError(units.get(units.size() - 1), what);
+                } catch (ScpiProtocolException e) {
+                    if (units.size() < queries) {
+                        throw framingMismatch(query + ";" + render(Command.ERROR_QUERY), queries, units, what);
+                    }
+                    throw e;
+                }
+                units.remove(units.size() - 1);
                 if (error.code() != 0) {
+                    // IEEE 488.2 §6.3.2.3: a query that fails sends no response, so only the error came back
                     known = new KnownState();
                     resync = true;
                     throw errors(error, what);
                 }
+            }
+            if (queries > 1 && (units.size() < (twice ? 2 : 1) || units.stream().anyMatch(String::isBlank))) {
+                throw framingMismatch(append ? query + ";" + render(Command.ERROR_QUERY) : query, queries,
+                        units, what);
             }
             if (twice) {
                 if (units.size() != 2) {
@@ -781,6 +835,16 @@ public final class DialectMeter implements Meter {
             results = new double[][] {values};
             shown = block.length + " bytes";
         }
+        boolean separate = m.errorCheck().afterMeasurement()
+                && (!m.errorQueryJoined() || shape.encoding() != ReplyShape.Encoding.ASCII);
+        if (separate) {
+            List<ScpiError> errors = readErrors(new ArrayList<>(), what);
+            if (!errors.isEmpty()) {
+                known = new KnownState();
+                resync = true;
+                throw errors(errors, what);
+            }
+        }
         for (double[] values : results) {
             if (values.length != expected) {
                 throw new ScpiProtocolException(session.address() + ": expected " + expected + " numbers (" + points
@@ -789,6 +853,36 @@ public final class DialectMeter implements Meter {
             }
         }
         return results;
+    }
+
+    /**
+     * Sends {@code message}, which holds {@code queries} queries, and returns one reply per query,
+     * read as the dialect's reply framing says. A reply that does not fit the framing is a
+     * {@link ScpiProtocolException} that says what was expected and names the dialect's key.
+     */
+    private List<String> replies(String message, int queries, Duration work, String what) {
+        Dialect.ReplyFraming framing = dialect.messages().replies();
+        if (queries == 1 || framing == Dialect.ReplyFraming.SEMICOLON_JOINED) {
+            return splitOutsideQuotes(session.query(message, work), ';');
+        }
+        List<String> lines = new ArrayList<>(session.queryLines(message, queries, work));
+        for (String line : lines) {
+            if (splitOutsideQuotes(line, ';').size() > 1) {
+                throw new ScpiProtocolException(session.address() + ": expected " + queries + " replies to '"
+                        + abbreviate(message) + "', each on a line of its own, but got '" + abbreviate(line)
+                        + "' joined with ';' while " + what + " (the dialect says 'replies: one-line-per-query' in"
+                        + " section 'messages'; a meter that joins them needs 'replies: semicolon-joined')");
+            }
+        }
+        return lines;
+    }
+
+    /** A reply that does not fit the dialect's reply framing: what was expected, and the key to look at. */
+    private ScpiProtocolException framingMismatch(String message, int queries, List<String> units, String what) {
+        return new ScpiProtocolException(session.address() + ": expected " + queries + " replies joined with ';'"
+                + " on one line to '" + abbreviate(message) + "' but got '" + abbreviate(String.join(";", units))
+                + "' while " + what + " (the dialect says 'replies: semicolon-joined' in section 'messages'; a meter"
+                + " that answers each query on a line of its own needs 'replies: one-line-per-query')");
     }
 
     private double[] parseNumbers(String data, String what) {

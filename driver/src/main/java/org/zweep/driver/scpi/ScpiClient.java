@@ -162,6 +162,22 @@ public final class ScpiClient implements ScpiSession {
         }
     }
 
+    @Override
+    public List<String> queryLines(String message, int queries, Duration expectedWork) {
+        lock.lock();
+        try {
+            List<String> lines = new ArrayList<>(queries);
+            lines.add(queryUnlocked(message, work(expectedWork)));
+            for (int i = 1; i < queries; i++) {
+                int n = readLine(message, deadline(0));
+                lines.add(new String(line, 0, n, StandardCharsets.ISO_8859_1));
+            }
+            return lines;
+        } finally {
+            lock.unlock();
+        }
+    }
+
     /**
      * Looks for bytes that answer no query (a reply sent twice, or one that came after its query
      * timed out), waiting at most {@code quiet} for them. When there are some, they are discarded

@@ -22,7 +22,7 @@ import picocli.CommandLine.Spec;
                 + "under results/, and the command prints where they are and a short summary.",
             "The simulated meter takes as long as a real one would (tens of seconds)."
         },
-        footer = ExitCode.HELP_LIST + "  130 stopped by Ctrl-C (resumable)%n")
+        footer = ExitCode.HELP_LIST + "  130 stopped by Ctrl-C, a signal or at the fixture (resumable)%n")
 public final class DemoCommand implements Callable<Integer> {
     /** The demo's sequence, inside the shipped {@code sequences/} folder. */
     static final String SEQUENCE = "incoming-kp-c0805-104.yaml";
@@ -39,10 +39,13 @@ public final class DemoCommand implements Callable<Integer> {
     @Option(names = "--quiet", description = "no progress output")
     boolean quiet;
 
+    @picocli.CommandLine.Mixin
+    FixtureOptions fixture;
+
     @Override
     public Integer call() {
         Path sequence = locate();
-        RunLauncher.Options o = new RunLauncher.Options(null, null, out, Path.of("results"), false, seed, quiet, null,
+        RunLauncher.Options o = new RunLauncher.Options(null, null, out, Path.of("results"), fixture, seed, quiet, null,
                 10, 60);
         RunLauncher launcher = new RunLauncher(spec.commandLine().getOut(), spec.commandLine().getErr());
         int code = launcher.start(sequence, o);

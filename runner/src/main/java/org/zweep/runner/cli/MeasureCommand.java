@@ -16,13 +16,14 @@ import org.zweep.driver.impedance.Quantities;
 import org.zweep.driver.impedance.Unit;
 import org.zweep.driver.meter.Bias;
 import org.zweep.driver.meter.Drive;
+import org.zweep.driver.meter.FixtureState;
 import org.zweep.driver.meter.MeasurementSetting;
 import org.zweep.driver.meter.Reading;
 import org.zweep.driver.meter.ReadingStatus;
 import org.zweep.driver.meter.SourceMode;
 import org.zweep.driver.scpi.ScpiSettings;
 import org.zweep.runner.engine.Interruption;
-import org.zweep.runner.engine.Prompter;
+import org.zweep.runner.engine.FixturePort;
 import org.zweep.runner.engine.ReconnectPolicy;
 import org.zweep.runner.engine.SimulatorControl;
 import org.zweep.runner.engine.Station;
@@ -78,6 +79,9 @@ public final class MeasureCommand implements Callable<Integer> {
     @Option(names = "--json", description = "print one JSON object")
     boolean json;
 
+    @picocli.CommandLine.Mixin
+    FixtureOptions fixture = FixtureOptions.defaults();
+
     @Option(names = "--sequence", paramLabel = "FILE",
             description = "take the safety limits from this sequence's safety section (the options below override)")
     Path sequence;
@@ -108,6 +112,7 @@ public final class MeasureCommand implements Callable<Integer> {
 
     @Override
     public Integer call() {
+        fixture.check();
         double f = Quantities.parse(frequency, Unit.HERTZ);
         Drive drive = level(level);
         Bias b = bias == null ? Bias.OFF : bias(bias);
@@ -129,16 +134,19 @@ public final class MeasureCommand implements Callable<Integer> {
         Interruption interruption = new Interruption();
         try (ScpiMeterLink link = MeterLinks.open(address, dialect, ScpiSettings.DEFAULTS)) {
             boolean waits = link.simulator().map(SimulatorControl::realTiming).orElse(true);
-            Station station = new Station(link, guard, Prompter.refusing(), waits ? Waiter.sleeping(interruption)
-                    : Waiter.none(interruption), ReconnectPolicy.DEFAULT, note -> {
-                        err.println("zweep: " + note);
-                        err.flush();
-                    });
+            java.util.function.Consumer<String> note = line -> {
+                err.println("zweep: " + line);
+                err.flush();
+            };
+            FixturePort port = fixture.port(link, null, spec.commandLine().getOut(), note);
+            Station station = new Station(link, guard, port, waits ? Waiter.sleeping(interruption)
+                    : Waiter.none(interruption), ReconnectPolicy.DEFAULT, note);
             long graceMillis = (long) ((BiasRamp.durationS(b.value(), 0.0, control.rampPerS()) + 10.0) * 1000);
             try (BiasOffHook hook = BiasOffHook.install(interruption, station::biasOffNow, err, graceMillis)) {
                 try {
                     station.start(null);
                     identity = station.identity().toString();
+                    station.insert(FixtureState.PART, "", control);
                     r = station.measure(s, control, 0.0, 0L);
                 } finally {
                     if (!station.stopBias()) {

@@ -19,7 +19,7 @@ import picocli.CommandLine.Spec;
                 + "progress, turns DC bias off and leaves a resumable folder; a second Ctrl-C stops at once "
                 + "(bias off first). A lost link is reconnected with back-off and the point measured again."
         },
-        footer = ExitCode.HELP_LIST + "  130 stopped by Ctrl-C (resumable)%n")
+        footer = ExitCode.HELP_LIST + "  130 stopped by Ctrl-C, a signal or at the fixture (resumable)%n")
 public final class RunCommand implements Callable<Integer> {
 
     @Spec
@@ -41,8 +41,8 @@ public final class RunCommand implements Callable<Integer> {
     @Option(names = "--resume", paramLabel = "DIR", description = "continue the run in this folder (needs only the folder)")
     Path resume;
 
-    @Option(names = "--yes", description = "answer operator prompts on a real meter without waiting")
-    boolean yes;
+    @picocli.CommandLine.Mixin
+    FixtureOptions fixture;
 
     @Option(names = "--seed", paramLabel = "N", description = "the simulator's noise seed (default: the bench's; on resume: the run's)")
     Long seed;
@@ -100,7 +100,7 @@ public final class RunCommand implements Callable<Integer> {
         if (!(timeoutS > 0) || !(reconnectBudgetS >= 0)) {
             throw new InvalidInputException("--timeout must be positive and --reconnect-budget not negative");
         }
-        RunLauncher.Options o = new RunLauncher.Options(meter, dialect, out, Path.of("results"), yes, seed, quiet,
+        RunLauncher.Options o = new RunLauncher.Options(meter, dialect, out, Path.of("results"), fixture, seed, quiet,
                 trace, timeoutS, reconnectBudgetS);
         RunLauncher l = new RunLauncher(spec.commandLine().getOut(), spec.commandLine().getErr());
         if (resume != null && (serial != null || lot != null || operator != null || station != null)) {

@@ -27,6 +27,7 @@ import org.zweep.runner.verdict.CheckOutcome;
 import org.zweep.runner.analysis.RunData;
 import org.zweep.runner.compensation.CompensationWorkflow;
 import org.zweep.runner.engine.ConsoleProgress;
+import org.zweep.runner.engine.FixturePort;
 import org.zweep.runner.engine.Interruption;
 import org.zweep.runner.engine.ProgressListener;
 import org.zweep.runner.engine.Prompter;
@@ -58,14 +59,14 @@ final class RunLauncher {
      * @param dialect a dialect overriding the sequence's, or {@code null}
      * @param out the run folder to create, or {@code null} for a fresh one under {@code resultsDir}
      * @param resultsDir where fresh run folders go
-     * @param yes answer operator prompts on real meters
+     * @param fixture who changes what is in the fixture
      * @param seed the simulator's seed, or {@code null}
      * @param quiet no progress output
      * @param trace a traffic trace file, or {@code null}
      * @param timeoutS the meter's reply timeout in seconds
      * @param reconnectBudgetS the most seconds spent reconnecting after one failure
      */
-    record Options(String meter, String dialect, Path out, Path resultsDir, boolean yes, Long seed, boolean quiet,
+    record Options(String meter, String dialect, Path out, Path resultsDir, FixtureOptions fixture, Long seed, boolean quiet,
             Path trace, double timeoutS, double reconnectBudgetS) {
     }
 
@@ -104,6 +105,7 @@ final class RunLauncher {
 
     /** Starts a new run of {@code sequenceFile}; returns the exit code. */
     int start(Path sequenceFile, Options o) {
+        o.fixture().check();
         Plan plan = SequenceLoader.loadForMeter(sequenceFile, o.dialect());
         plan = withMeter(plan, o.meter(), o.dialect());
         new SafetyGuard(plan.safety()).checkPlan(plan);
@@ -201,6 +203,7 @@ final class RunLauncher {
 
     /** Resumes the run in {@code dir}; returns the exit code. */
     int resume(Path dir, Options o) {
+        o.fixture().check();
         RunFolder folder = RunFolder.existing(dir);
         try (FolderLock lock = FolderLock.acquire(dir, Clock.systemUTC().instant())) {
             return resumeLocked(folder, o);
@@ -263,16 +266,13 @@ final class RunLauncher {
                 out.println("live view: " + server.url());
                 out.flush();
             }
-            Prompter prompter = o.yes() ? Prompter.yes(out) : live != null
-                    ? new org.zweep.runner.live.LivePrompter(events, out, terminal ? new BufferedReader(
-                            new InputStreamReader(System.in, StandardCharsets.UTF_8)) : null, interruption)
-                    : terminal
-                    ? Prompter.terminal(new BufferedReader(new InputStreamReader(System.in, StandardCharsets.UTF_8)),
-                            out)
-                    : Prompter.refusing();
+            Prompter livePrompter = live == null ? null : new org.zweep.runner.live.LivePrompter(events, out,
+                    terminal ? new BufferedReader(new InputStreamReader(System.in, StandardCharsets.UTF_8)) : null,
+                    interruption);
+            FixturePort fixture = o.fixture().port(link, livePrompter, out, progress::note);
             Clock clock = Clock.systemUTC();
             RunSession session = new RunSession(plan, link, new RunSession.Setup(folder, resuming, sequenceFile,
-                    plan.meter().dialect(), seed, ReconnectPolicy.DEFAULT.withBudgetS(o.reconnectBudgetS()), prompter,
+                    plan.meter().dialect(), seed, ReconnectPolicy.DEFAULT.withBudgetS(o.reconnectBudgetS()), fixture,
                     progress, interruption,
                     (station, res, log) -> CompensationWorkflow.prepare(plan, station, folder, res, clock, log),
                     f -> Analysis.sweepFigures(RunData.read(f.dir())), clock, VersionProvider.version()));

@@ -22,6 +22,7 @@ import org.zweep.driver.impedance.Quantities;
 import org.zweep.driver.impedance.Unit;
 import org.zweep.driver.meter.Bias;
 import org.zweep.driver.meter.CorrectionStandard;
+import org.zweep.driver.meter.FixtureState;
 import org.zweep.driver.meter.MeasuredQuantity;
 import org.zweep.driver.meter.MeasurementSetting;
 import org.zweep.driver.meter.Reading;
@@ -29,14 +30,12 @@ import org.zweep.driver.meter.ReadingStatus;
 import org.zweep.runner.engine.FixtureCompensation;
 import org.zweep.runner.engine.ReadingCorrector;
 import org.zweep.runner.engine.RunEstimate;
-import org.zweep.runner.engine.SimulatorControl;
 import org.zweep.runner.engine.Station;
 import org.zweep.runner.plan.BiasControl;
 import org.zweep.runner.plan.CompensationMode;
 import org.zweep.runner.plan.FixturePlan;
 import org.zweep.runner.plan.Plan;
 import org.zweep.runner.plan.PlannedPoint;
-import org.zweep.runner.plan.Wiring;
 import org.zweep.runner.results.RunFolder;
 import org.zweep.runner.results.RunManifest;
 
@@ -147,7 +146,7 @@ public final class CompensationWorkflow {
                 .filter(x -> x.quantity() == MeasuredQuantity.IMPEDANCE).findFirst()
                 .orElse(plan.points().get(0).setting()).withBias(Bias.OFF);
         for (CorrectionStandard s : fx.standards()) {
-            station.fit(slot(s), instruction(s), BiasControl.NONE, Wiring.NONE);
+            station.insert(state(s), instruction(s), BiasControl.NONE);
             station.applySetting(at);
             if (s == CorrectionStandard.LOAD) {
                 if (fx.loadStandard() == null) {
@@ -169,7 +168,7 @@ public final class CompensationWorkflow {
         RunEstimate estimate = RunEstimate.of(plan);
         int k = 0;
         for (CorrectionStandard s : fx.standards()) {
-            station.fit(slot(s), instruction(s), BiasControl.NONE, Wiring.NONE);
+            station.insert(state(s), instruction(s), BiasControl.NONE);
             station.announce("compensation: measuring the " + s + " standard at " + settings.size() + " frequencies",
                     estimate.compensationStandardS().get(k++));
             int i = 0;
@@ -271,11 +270,11 @@ public final class CompensationWorkflow {
                 && i.standards().equals(fx.standards().stream().map(Enum::name).toList()) && sameLoad && covers;
     }
 
-    private static SimulatorControl.Slot slot(CorrectionStandard s) {
+    private static FixtureState state(CorrectionStandard s) {
         return switch (s) {
-            case OPEN -> SimulatorControl.Slot.OPEN;
-            case SHORT -> SimulatorControl.Slot.SHORT;
-            case LOAD -> SimulatorControl.Slot.LOAD;
+            case OPEN -> FixtureState.OPEN;
+            case SHORT -> FixtureState.SHORT;
+            case LOAD -> FixtureState.LOAD;
         };
     }
 

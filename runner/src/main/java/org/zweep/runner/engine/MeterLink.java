@@ -36,6 +36,11 @@ public interface MeterLink extends AutoCloseable {
     /** The simulator's own controls, when the meter is the zweep simulator; empty otherwise. */
     Optional<SimulatorControl> simulator();
 
+    /** What the meter itself can switch in its fixture (see {@link Meter#fixture()}), on the current connection. */
+    default Optional<org.zweep.driver.meter.FixtureControl> fixtureControl() {
+        return meter().fixture();
+    }
+
     /** The accuracy the meter's dialect states; empty when it states none. */
     default Optional<MeterAccuracy> accuracy() {
         return Optional.empty();

@@ -5,6 +5,7 @@ import java.util.BitSet;
 import java.util.List;
 import java.util.Locale;
 import org.zweep.driver.MeterException;
+import org.zweep.driver.meter.FixtureState;
 import org.zweep.driver.meter.MeasuredQuantity;
 import org.zweep.driver.meter.MeasurementSetting;
 import org.zweep.driver.meter.Reading;
@@ -122,7 +123,8 @@ public final class RunEngine {
     }
 
     private void runStep(PlannedStep step, BitSet done, RowSink sink, int total) {
-        station.fit(SimulatorControl.Slot.DEVICE, step.prompt(), step.bias(), step.points().get(0).wiring());
+        station.insert(FixtureState.PART, step.prompt(), step.bias());
+        station.connect(step.points().get(0).wiring(), step.bias(), !step.prompt().isEmpty());
         int max = station.capabilities() == null ? 0 : station.capabilities().maxListPoints();
         for (List<PlannedPoint> chunk : chunks(step.points(), max)) {
             stopIfRequested();

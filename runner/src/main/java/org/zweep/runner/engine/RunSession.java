@@ -39,7 +39,7 @@ public final class RunSession {
      * @param dialect the dialect name or file in use
      * @param seed the simulator's seed to use; {@code null} keeps (and records) the simulator's own
      * @param reconnect how to reconnect after a lost link
-     * @param prompter asks the operator (not used on the simulator)
+     * @param fixture changes what is in the fixture
      * @param progress where progress goes
      * @param interruption stop requests (Ctrl-C, shutdown)
      * @param compensation prepares fixture compensation
@@ -51,15 +51,15 @@ public final class RunSession {
      *     {@link PointsCsvWriter.Sync#BEHIND} while the next point is measured
      */
     public record Setup(RunFolder folder, boolean resuming, String sequenceFile, String dialect, Long seed,
-            ReconnectPolicy reconnect, Prompter prompter, ProgressListener progress, Interruption interruption,
+            ReconnectPolicy reconnect, FixturePort fixture, ProgressListener progress, Interruption interruption,
             FixtureCompensation compensation, SweepChecks sweepChecks, Clock clock, String version,
             PointsCsvWriter.Sync rowSync) {
 
         /** A setup whose rows are synced before the next point starts ({@link PointsCsvWriter.Sync#EACH_ROW}). */
         public Setup(RunFolder folder, boolean resuming, String sequenceFile, String dialect, Long seed,
-                ReconnectPolicy reconnect, Prompter prompter, ProgressListener progress, Interruption interruption,
+                ReconnectPolicy reconnect, FixturePort fixture, ProgressListener progress, Interruption interruption,
                 FixtureCompensation compensation, SweepChecks sweepChecks, Clock clock, String version) {
-            this(folder, resuming, sequenceFile, dialect, seed, reconnect, prompter, progress, interruption,
+            this(folder, resuming, sequenceFile, dialect, seed, reconnect, fixture, progress, interruption,
                     compensation, sweepChecks, clock, version, PointsCsvWriter.Sync.EACH_ROW);
         }
     }
@@ -142,7 +142,7 @@ public final class RunSession {
         boolean sim = link.simulator().isPresent();
         boolean waits = !sim || link.simulator().get().realTiming();
         Waiter waiter = waits ? Waiter.sleeping(interruption) : Waiter.none(interruption);
-        station = new Station(link, guard, setup.prompter(), waiter, setup.reconnect(), log);
+        station = new Station(link, guard, setup.fixture(), waiter, setup.reconnect(), log);
         station.watchBias(biasWatcher);
         station.reportWorkTo(progress::work);
         RunManifest manifest = null;

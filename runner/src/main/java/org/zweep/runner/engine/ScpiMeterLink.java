@@ -139,6 +139,15 @@ public final class ScpiMeterLink implements MeterLink {
     }
 
     @Override
+    public Optional<org.zweep.driver.meter.FixtureControl> fixtureControl() {
+        Optional<org.zweep.driver.meter.FixtureControl> own = meter.fixture();
+        if (own.isPresent() || simulator == null) {
+            return own;
+        }
+        return Optional.of(simulator.fixture());
+    }
+
+    @Override
     public Optional<SimulatorControl> simulator() {
         return Optional.ofNullable(simulator);
     }

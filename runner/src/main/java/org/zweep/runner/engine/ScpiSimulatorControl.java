@@ -70,6 +70,28 @@ final class ScpiSimulatorControl implements SimulatorControl {
         }
     }
 
+    /** The simulated fixture as the meter's own ({@code :SIM:FIXT}, {@code :SIM:SEC}). */
+    org.zweep.driver.meter.FixtureControl fixture() {
+        return new org.zweep.driver.meter.FixtureControl() {
+            @Override
+            public java.util.Set<org.zweep.driver.meter.FixtureState> states() {
+                return java.util.EnumSet.allOf(org.zweep.driver.meter.FixtureState.class);
+            }
+
+            @Override
+            public void hold(org.zweep.driver.meter.FixtureState state) {
+                switch (state) {
+                    case PART -> setSlot(Slot.DEVICE);
+                    case OPEN -> setSlot(Slot.OPEN);
+                    case SHORT -> setSlot(Slot.SHORT);
+                    case LOAD -> setSlot(Slot.LOAD);
+                    case SECONDARY_OPEN -> setWiring(Wiring.SECONDARY_OPEN);
+                    case SECONDARY_SHORTED -> setWiring(Wiring.SECONDARY_SHORTED);
+                }
+            }
+        };
+    }
+
     @Override
     public void setNoiseKey(long key) {
         session.joinNext(":SIM:NOIS:KEY " + key);

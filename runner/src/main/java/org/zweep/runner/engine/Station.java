@@ -8,6 +8,8 @@ import org.zweep.driver.MeterException;
 import org.zweep.driver.impedance.Impedance;
 import org.zweep.driver.meter.Bias;
 import org.zweep.driver.meter.CorrectionStandard;
+import org.zweep.driver.meter.FixtureControl;
+import org.zweep.driver.meter.FixtureState;
 import org.zweep.driver.meter.MeasurementSetting;
 import org.zweep.driver.meter.Meter;
 import org.zweep.driver.meter.MeterCapabilities;
@@ -24,8 +26,8 @@ import org.zweep.runner.safety.SafetyGuard;
  * operator. It checks every setting against the safety limits before sending it, never changes
  * DC bias faster than the step's ramp limit (intermediate steps) and settles after a change,
  * reconnects with back-off after a lost link or a timeout and then turns bias off, restores the
- * meter's state and repeats the interrupted operation, and switches the simulator's fixture
- * instead of prompting when the meter is the simulator.
+ * meter's state and repeats the interrupted operation. Everything that changes what is in the
+ * fixture goes through its {@link FixturePort}, with bias off.
  *
  * <p>Driven by one thread; only {@link #biasOffNow()} may be called from another (a shutdown hook).
  */
@@ -35,7 +37,7 @@ public final class Station {
 
     private final MeterLink link;
     private final SafetyGuard guard;
-    private final Prompter prompter;
+    private final FixturePort fixture;
     private final Waiter waiter;
     private final ReconnectPolicy policy;
     private final Consumer<String> log;
@@ -52,7 +54,8 @@ public final class Station {
     /** The bias of the setting being sent (it may or may not have reached the meter). */
     private Bias sending;
     private boolean meterCorrection;
-    private SimulatorControl.Slot slot;
+    /** What the fixture was last brought to (null: not known), and the second winding. */
+    private FixtureState held;
     private Wiring wiring = Wiring.NONE;
     private Long seed;
     private int reconnects;
@@ -68,16 +71,16 @@ public final class Station {
     /**
      * @param link the meter connection
      * @param guard the safety limits every setting is checked against before it is sent
-     * @param prompter asks the operator (not used on the simulator)
+     * @param fixture changes what is in the fixture
      * @param waiter host-side waits
      * @param policy how to reconnect
-     * @param log where one-line notes go (reconnects, prompts passed on the simulator)
+     * @param log where one-line notes go (reconnects)
      */
-    public Station(MeterLink link, SafetyGuard guard, Prompter prompter, Waiter waiter, ReconnectPolicy policy,
+    public Station(MeterLink link, SafetyGuard guard, FixturePort fixture, Waiter waiter, ReconnectPolicy policy,
             Consumer<String> log) {
         this.link = link;
         this.guard = guard;
-        this.prompter = prompter;
+        this.fixture = fixture;
         this.waiter = waiter;
         this.policy = policy;
         this.log = log;
@@ -129,11 +132,6 @@ public final class Station {
         return topRangeOhm;
     }
 
-    /** Whether the meter is the simulator (prompts pass by themselves). */
-    public boolean onSimulator() {
-        return link.simulator().isPresent();
-    }
-
     /** The address of the meter. */
     public String address() {
         return link.address();
@@ -145,55 +143,66 @@ public final class Station {
     }
 
     /**
-     * Gets {@code s} fitted to the fixture and the second winding connected as {@code w}: turns
-     * bias off, then switches the simulator's slot and wiring, or prompts the operator with
-     * {@code instruction} (when not empty), whose instruction is taken to cover the wiring too.
+     * Gets {@code state} into the fixture through the fixture port, bias off first. The port is
+     * asked when the state changes or {@code instruction} is not empty; a change without an
+     * instruction (the part back after the standards) gets one of its own.
      */
-    public void fit(SimulatorControl.Slot s, String instruction, BiasControl bias, Wiring w) {
-        rampBiasOff(bias);
-        Optional<SimulatorControl> sim = link.simulator();
-        if (sim.isPresent()) {
-            if (s != slot) {
-                withRetry("switching the fixture", () -> {
-                    link.simulator().orElseThrow().setSlot(s);
-                    return null;
-                });
-                slot = s;
-            }
-            if (!instruction.isEmpty() && prompter.onSimulator()) {
-                prompter.prompt(instruction);
-            } else if (!instruction.isEmpty()) {
-                log.accept(">> " + instruction + " (simulator: fixture holds " + s.name().toLowerCase(java.util.Locale.ROOT)
-                        + ")");
-            }
-            connect(w, bias);
-        } else {
-            if (!instruction.isEmpty()) {
-                prompter.prompt(instruction);
-            }
-            if (w != Wiring.NONE) {
-                wiring = w;
-            }
+    public void insert(FixtureState state, String instruction, BiasControl bias) {
+        if (state == held && instruction.isEmpty()) {
+            return;
         }
+        rampBiasOff(bias);
+        String text = instruction.isEmpty() && held != null ? standardInstruction(state) : instruction;
+        withRetry("changing the fixture to " + FixturePort.word(state), () -> {
+            fixture.hold(state, text);
+            return null;
+        });
+        held = state;
+    }
+
+    /**
+     * Takes the part out of the fixture: nothing is asked, but the next {@link #insert} of the
+     * part asks again.
+     */
+    public void remove() {
+        held = null;
+    }
+
+    /** What an operator is told to bring about {@code state} when the sequence says nothing. */
+    static String standardInstruction(FixtureState state) {
+        return switch (state) {
+            case PART -> "put the part back into the fixture";
+            case OPEN -> "OPEN standard: leave the fixture's terminals open (nothing fitted)";
+            case SHORT -> "SHORT standard: fit the shorting bar across the fixture's terminals";
+            case LOAD -> "LOAD standard: fit the known load standard";
+            case SECONDARY_OPEN -> "leave the second winding open";
+            case SECONDARY_SHORTED -> "short the second winding";
+        };
     }
 
     /**
      * Gets a transformer's second winding connected as {@code w} (nothing for {@link Wiring#NONE}
-     * or when already so): switched on the simulator, prompted for otherwise.
+     * or when already so) through the fixture port, bias off first.
      */
     public void connect(Wiring w, BiasControl bias) {
+        connect(w, bias, false);
+    }
+
+    /**
+     * As {@link #connect(Wiring, BiasControl)}; {@code told} says the step's own instruction
+     * (given with {@link #insert}) covers the wiring, so an operator is not asked again.
+     */
+    public void connect(Wiring w, BiasControl bias, boolean told) {
         if (w == Wiring.NONE || w == wiring) {
             return;
         }
         rampBiasOff(bias);
-        if (link.simulator().isPresent()) {
-            withRetry("switching the wiring", () -> {
-                link.simulator().orElseThrow().setWiring(w);
-                return null;
-            });
-        } else {
-            prompter.prompt(w == Wiring.SECONDARY_SHORTED ? "short the second winding" : "leave the second winding open");
-        }
+        FixtureState state = w == Wiring.SECONDARY_SHORTED ? FixtureState.SECONDARY_SHORTED
+                : FixtureState.SECONDARY_OPEN;
+        withRetry("switching the wiring", () -> {
+            fixture.hold(state, told ? "" : standardInstruction(state));
+            return null;
+        });
         wiring = w;
     }
 
@@ -520,17 +529,10 @@ public final class Station {
                     m.setCorrectionEnabled(true);
                 }
                 Optional<SimulatorControl> sim = link.simulator();
-                if (sim.isPresent()) {
-                    if (seed != null) {
-                        sim.get().setSeed(seed);
-                    }
-                    if (slot != null) {
-                        sim.get().setSlot(slot);
-                    }
-                    if (wiring != Wiring.NONE) {
-                        sim.get().setWiring(wiring);
-                    }
+                if (sim.isPresent() && seed != null) {
+                    sim.get().setSeed(seed);
                 }
+                restoreFixture();
                 log.accept("reconnected to " + link.address() + " (attempt " + attempt + "); "
                         + (applied.on() ? "bias held at " + ConsoleProgress.num(applied.value()) + " "
                                 + applied.mode().unit() : "bias is off") + ", repeating " + what);
@@ -541,6 +543,22 @@ public final class Station {
                 }
                 last = e;
             }
+        }
+    }
+
+    /** Brings the meter's own fixture back to what it held, after a reconnect. */
+    private void restoreFixture() {
+        Optional<FixtureControl> own = link.fixtureControl();
+        if (own.isEmpty()) {
+            return;
+        }
+        if (held != null && own.get().states().contains(held)) {
+            own.get().hold(held);
+        }
+        FixtureState w = wiring == Wiring.SECONDARY_SHORTED ? FixtureState.SECONDARY_SHORTED
+                : wiring == Wiring.SECONDARY_OPEN ? FixtureState.SECONDARY_OPEN : null;
+        if (w != null && own.get().states().contains(w)) {
+            own.get().hold(w);
         }
     }
 

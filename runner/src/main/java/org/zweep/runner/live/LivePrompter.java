@@ -19,7 +19,8 @@ import org.zweep.runner.engine.RunInterruptedException;
  * Prompts through the live view: writes a {@code prompt} event and waits until an {@code answer}
  * event with the prompt's id appears in the events file (posted from any page viewing the run) or,
  * when the run has a terminal, until Enter is pressed there. Then writes {@code prompt_answered}.
- * Used on the simulator too, so that a live run can be followed and answered from the page.
+ * Asked after the meter's own fixture switched too, so that a live run can be followed and answered
+ * from the page.
  */
 public final class LivePrompter implements Prompter {
     private static final long POLL_MS = 25;
@@ -56,11 +57,6 @@ public final class LivePrompter implements Prompter {
         } else {
             terminalLines = null;
         }
-    }
-
-    @Override
-    public boolean onSimulator() {
-        return true;
     }
 
     @Override

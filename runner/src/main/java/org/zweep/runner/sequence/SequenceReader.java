@@ -487,7 +487,7 @@ final class SequenceReader {
         List<StepSpec.Axis> order = m.optional("order").map(this::order).orElse(StepSpec.DEFAULT_ORDER);
         int averaging = m.optional("averaging").map(a -> Units.integer(a, "an averaging count", 1)).orElse(1);
         double integration = m.optional("integration").map(i -> Units.parse(i, Unit.SECOND, Unit.Bound.POSITIVE))
-                .orElse(0.02);
+                .orElse(org.zweep.driver.meter.MeasurementSetting.DEFAULT_INTEGRATION_TIME_S);
         int repeats = m.optional("repeats").map(r -> Units.integer(r, "a repeat count", 1)).orElse(1);
         double delay = m.optional("delay").map(d -> Units.parse(d, Unit.SECOND)).orElse(0.0);
         ImpedanceRange range = m.optional("range").map(SequenceReader::range).orElse(ImpedanceRange.AUTO);

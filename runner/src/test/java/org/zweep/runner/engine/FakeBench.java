@@ -59,8 +59,10 @@ final class FakeBench {
     int meterErrorAtMeasure;
     /** The measure() calls (1-based) whose R arrives with its sign flipped (a reply corrupted on the way). */
     final List<Integer> negativeRAtMeasure = new ArrayList<>();
-    SimulatorControl.Slot slot = SimulatorControl.Slot.DEVICE;
+    /** What the meter's own fixture holds. */
+    org.zweep.driver.meter.FixtureState slot = org.zweep.driver.meter.FixtureState.PART;
     long noiseKey;
+    /** Whether the meter has a fixture of its own (every state) and keys its noise. */
     boolean simulator = true;
     /** Whether the meter can be asked what bias it holds (then a reconnect keeps the bias where it was). */
     boolean readsBias;
@@ -272,6 +274,30 @@ final class FakeBench {
         }
 
         @Override
+        public Optional<org.zweep.driver.meter.FixtureControl> fixtureControl() {
+            if (!simulator) {
+                return Optional.empty();
+            }
+            return Optional.of(new org.zweep.driver.meter.FixtureControl() {
+                @Override
+                public java.util.Set<org.zweep.driver.meter.FixtureState> states() {
+                    return java.util.EnumSet.allOf(org.zweep.driver.meter.FixtureState.class);
+                }
+
+                @Override
+                public void hold(org.zweep.driver.meter.FixtureState s) {
+                    meter.live();
+                    trace.add("fixture " + s);
+                    if (s == org.zweep.driver.meter.FixtureState.SECONDARY_OPEN
+                            || s == org.zweep.driver.meter.FixtureState.SECONDARY_SHORTED) {
+                        return;
+                    }
+                    slot = s;
+                }
+            });
+        }
+
+        @Override
         public Optional<SimulatorControl> simulator() {
             if (!simulator) {
                 return Optional.empty();
@@ -279,15 +305,12 @@ final class FakeBench {
             return Optional.of(new SimulatorControl() {
                 @Override
                 public void setSlot(Slot s) {
-                    meter.live();
-                    trace.add("slot " + s);
-                    slot = s;
+                    throw new AssertionError("the fixture is switched through fixtureControl()");
                 }
 
                 @Override
                 public void setWiring(Wiring w) {
-                    meter.live();
-                    trace.add("wiring " + w);
+                    throw new AssertionError("the wiring is switched through fixtureControl()");
                 }
 
                 @Override

@@ -37,10 +37,15 @@ class RunEngineTest {
     }
 
     Station station() {
-        Station s = new Station(link, new SafetyGuard(TestPlans.LIMITS), prompts::add, bench.waiter(interruption),
+        Station s = new Station(link, new SafetyGuard(TestPlans.LIMITS), port(), bench.waiter(interruption),
                 policy, notes::add);
         s.start(42L);
         return s;
+    }
+
+    /** The meter's own fixture when it has one, else the operator (prompts recorded). */
+    FixturePort port() {
+        return FixturePort.meter(link, FixturePort.operator(prompts::add), notes::add);
     }
 
     RunResult run(Plan plan, BitSet done) {
@@ -258,12 +263,13 @@ class RunEngineTest {
     }
 
     @Test
-    void onTheSimulatorPromptsPassAndTheFixtureSlotIsSwitched() {
-        bench.slot = SimulatorControl.Slot.OPEN;
+    void aMeterWithItsOwnFixtureIsSwitchedInsteadOfPromptingTheOperator() {
+        bench.slot = org.zweep.driver.meter.FixtureState.OPEN;
         run(TestPlans.capacitor(), new BitSet());
         assertTrue(prompts.isEmpty());
-        assertEquals(SimulatorControl.Slot.DEVICE, bench.slot);
-        assertTrue(notes.stream().anyMatch(n -> n.startsWith(">> fit the part (simulator")), notes.toString());
+        assertEquals(org.zweep.driver.meter.FixtureState.PART, bench.slot);
+        assertTrue(notes.stream().anyMatch(n -> n.equals(">> fit the part (the meter's fixture holds part)")),
+                notes.toString());
     }
 
     @Test
@@ -332,7 +338,7 @@ class RunEngineTest {
                 inner.waitThroughStopS(seconds);
             }
         };
-        Station st = new Station(link, new SafetyGuard(TestPlans.LIMITS), prompts::add, stopAt4V, policy, notes::add);
+        Station st = new Station(link, new SafetyGuard(TestPlans.LIMITS), port(), stopAt4V, policy, notes::add);
         st.start(42L);
         Plan plan = TestPlans.capacitor();
         RunResult r = new RunEngine(plan, st, ReadingCorrector.NONE, new CheckEvaluator(plan.checks()), progress,

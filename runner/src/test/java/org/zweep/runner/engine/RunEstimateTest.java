@@ -35,7 +35,7 @@ class RunEstimateTest {
                     bias: {values: [0 V, 10 V], ramp: 5 V/s, settle: 1 s}
                 """);
         RunEstimate e = RunEstimate.of(plan);
-        // no outside source: arithmetic from the sequence above and standard.dialect's [timing]
+        // no outside source: arithmetic from the sequence above and standard.yaml's [timing]
         // (point-overhead 2 ms, min-periods 2, bias-settle 50 ms). Two list sweeps (one per bias value):
         // 10 Hz: 2·max(0.1, 2/10) + 0.002 + 0.05 (bias changed) = 0.452 s; 1 kHz: 2·0.1 + 0.002 = 0.202 s
         assertEquals(2 * (0.452 + 0.202), e.steps().get(0).meterS(), 1e-12);

@@ -56,12 +56,12 @@ class SequenceSectionsTest {
     @Test
     void dialectFileIsResolvedAgainstTheSequenceFolderAndLoaded() throws Exception {
         Path meters = Files.createDirectories(dir.resolve("meters"));
-        try (InputStream in = Dialect.class.getResourceAsStream("/org/zweep/driver/dialect/standard.dialect")) {
-            Files.write(meters.resolve("mine.dialect"), in.readAllBytes());
+        try (InputStream in = Dialect.class.getResourceAsStream("/org/zweep/driver/dialect/standard.yaml")) {
+            Files.write(meters.resolve("mine.yaml"), in.readAllBytes());
         }
-        Plan plan = load("meter: {address: 'tcp://127.0.0.1:5025', dialect: meters/mine.dialect}\n",
+        Plan plan = load("meter: {address: 'tcp://127.0.0.1:5025', dialect: meters/mine.yaml}\n",
                 "{name: s, frequency: 1 kHz, level: 1 V}");
-        assertEquals(meters.resolve("mine.dialect").toAbsolutePath().normalize().toString(), plan.meter().dialect());
+        assertEquals(meters.resolve("mine.yaml").toAbsolutePath().normalize().toString(), plan.meter().dialect());
     }
 
     @Test
@@ -75,9 +75,9 @@ class SequenceSectionsTest {
     @Test
     void missingDialectFileIsRefusedAtItsNode() {
         InvalidInputException e = assertThrows(InvalidInputException.class,
-                () -> load("meter: {bench: b.bench.yaml, dialect: x.dialect}\n", "{name: s, frequency: 1 kHz, level: 1 V}"));
-        assertEquals(dir.resolve("s.yaml") + ":2:39: dialect file not found: x.dialect (looked for "
-                + dir.resolve("x.dialect").toAbsolutePath().normalize() + ")", e.getMessage());
+                () -> load("meter: {bench: b.bench.yaml, dialect: x.yaml}\n", "{name: s, frequency: 1 kHz, level: 1 V}"));
+        assertEquals(dir.resolve("s.yaml") + ":2:39: dialect file not found: x.yaml (looked for "
+                + dir.resolve("x.yaml").toAbsolutePath().normalize() + ")", e.getMessage());
     }
 
     @Test
