@@ -65,9 +65,8 @@ public final class ResultsStore implements AutoCloseable {
                 }
             }
             migrate(db);
-            Connection c = connect(db);
-            c.setAutoCommit(false);
-            return new ResultsStore(db, c);
+            // outside index() no transaction is open: on SQLite an open one would hold the write lock
+            return new ResultsStore(db, connect(db));
         } catch (SQLException | FlywayException e) {
             throw new StoreException(db.describe() + ": " + oneLine(e), e);
         } catch (IOException e) {
@@ -129,8 +128,10 @@ public final class ResultsStore implements AutoCloseable {
         SQLException last = null;
         for (int attempt = 1; attempt <= ATTEMPTS; attempt++) {
             try {
+                connection.setAutoCommit(false);
                 Indexed done = write(runId, folder, run, analysis);
                 connection.commit();
+                connection.setAutoCommit(true);
                 return done;
             } catch (SQLException e) {
                 last = e;
@@ -412,10 +413,8 @@ public final class ResultsStore implements AutoCloseable {
                     out.add(row.read(rs));
                 }
             }
-            connection.commit();
             return out;
         } catch (SQLException e) {
-            rollbackQuietly();
             throw new StoreException(db.describe() + ": " + oneLine(e), e);
         }
     }
@@ -475,6 +474,7 @@ public final class ResultsStore implements AutoCloseable {
     private void rollbackQuietly() {
         try {
             connection.rollback();
+            connection.setAutoCommit(true);
         } catch (SQLException ignored) {
             // the connection is gone; the next use says so
         }
