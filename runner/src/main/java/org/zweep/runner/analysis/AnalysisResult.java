@@ -8,15 +8,18 @@ import org.zweep.runner.verdict.CheckOutcome;
  *
  * @param run the data analysed
  * @param steps one result per step that has measured points, in step order
+ * @param sweeps every frequency sweep (step, level, bias, wiring; repeats averaged), in step order,
+ *     those too short to fit included
  * @param transformer transformer parameters, or null for other parts
  * @param checks every check of the manifest, evaluated
  * @param bins the measured value against the nominal, or null when there is no main value
  * @param notes explanations for people
  */
-public record AnalysisResult(RunData run, List<StepResult> steps, TransformerResult transformer,
+public record AnalysisResult(RunData run, List<StepResult> steps, List<Sweep> sweeps, TransformerResult transformer,
         List<CheckOutcome> checks, Bins bins, List<String> notes) {
     public AnalysisResult {
         steps = List.copyOf(steps);
+        sweeps = List.copyOf(sweeps);
         checks = List.copyOf(checks);
         notes = List.copyOf(notes);
     }

@@ -53,7 +53,7 @@ public final class Plots {
         String kind = a.run().partKind();
         DerivedParameter value = Analysis.mainParameter(kind);
         boolean dissipation = "capacitor".equals(kind);
-        List<Sweep> all = Sweep.of(a.run().rows());
+        List<Sweep> all = a.sweeps();
         List<Named> out = new ArrayList<>();
         for (StepResult s : a.steps()) {
             String stem = Sweep.fileStem(s.name());

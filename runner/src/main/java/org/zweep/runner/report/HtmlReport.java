@@ -149,9 +149,13 @@ public final class HtmlReport {
                 }
                 b.append("<tr><td>SRF (from the fitted model)</td><td class=\"num\">")
                         .append(f.srfHz() == null ? "not resolved" : esc(Si.format(f.srfHz(), Unit.HERTZ, 6)))
-                        .append("</td><td></td></tr><tr><td>SRF (where the measured X changes sign)</td><td class=\"num\">")
+                        .append("</td><td class=\"num\">").append(f.srfHz() == null || !Double.isFinite(f.srfU()) ? ""
+                                : esc(Si.format(f.srfU(), Unit.HERTZ, 2)))
+                        .append("</td></tr><tr><td>SRF (where the measured X changes sign)</td><td class=\"num\">")
                         .append(f.srfDataHz() == null ? "not in sweep" : esc(Si.format(f.srfDataHz(), Unit.HERTZ, 6)))
-                        .append("</td><td></td></tr><tr><td>residual RMS (relative)</td><td class=\"num\">")
+                        .append("</td><td class=\"num\">").append(f.srfDataHz() == null || !Double.isFinite(f.srfDataU())
+                                ? "" : esc(Si.format(f.srfDataU(), Unit.HERTZ, 2)))
+                        .append("</td></tr><tr><td>residual RMS (relative)</td><td class=\"num\">")
                         .append(esc(String.format(Locale.ROOT, "%.3g", f.residualRms())))
                         .append(f.weighted() ? "</td><td></td></tr><tr><td>reduced χ² (weighted by u)</td><td class=\"num\">"
                                 + esc(String.format(Locale.ROOT, "%.3g", f.reducedChiSquared())) : "")
@@ -299,7 +303,7 @@ public final class HtmlReport {
     private static void settings(StringBuilder b, AnalysisResult a) {
         b.append("<h2>Settings</h2>\n<table><tr><th>step</th><th>conditions</th><th>frequencies</th><th>range</th>")
                 .append("<th>repeats</th></tr>");
-        for (Sweep s : Sweep.of(a.run().rows())) {
+        for (Sweep s : a.sweeps()) {
             List<org.zweep.driver.impedance.Impedance> p = s.points();
             b.append("<tr><td>").append(esc(s.step())).append("</td><td>").append(esc(s.describe())).append("</td><td class=\"num\">")
                     .append(p.size()).append("</td><td class=\"num\">")
