@@ -123,13 +123,15 @@ public final class ResultsStore implements AutoCloseable {
     public Indexed index(Path dir) {
         Path folder = dir.toAbsolutePath().normalize();
         RunData run = RunData.read(folder);
-        AnalysisResult analysis = analyse(run);
+        List<PointRow> rows = new ArrayList<>();
+        run.forEachRow(rows::add); // read before the transaction: the write lock is held only for writing
+        AnalysisResult analysis = rows.isEmpty() ? null : analyse(run);
         String runId = idOf(run.manifest());
         SQLException last = null;
         for (int attempt = 1; attempt <= ATTEMPTS; attempt++) {
             try {
                 connection.setAutoCommit(false);
-                Indexed done = write(runId, folder, run, analysis);
+                Indexed done = write(runId, folder, run, rows, analysis);
                 connection.commit();
                 connection.setAutoCommit(true);
                 return done;
@@ -159,9 +161,6 @@ public final class ResultsStore implements AutoCloseable {
 
     /** The analysis of the run (check values, fits), or null when it cannot be made (no points yet). */
     private static AnalysisResult analyse(RunData run) {
-        if (run.rows().isEmpty()) {
-            return null;
-        }
         try {
             return Analysis.analyze(run, null);
         } catch (RuntimeException e) {
@@ -169,7 +168,8 @@ public final class ResultsStore implements AutoCloseable {
         }
     }
 
-    private Indexed write(String runId, Path folder, RunData run, AnalysisResult analysis) throws SQLException {
+    private Indexed write(String runId, Path folder, RunData run, List<PointRow> rows, AnalysisResult analysis)
+            throws SQLException {
         RunManifest m = run.manifest();
         RunManifest.Identity id = m.identityOrNone();
         RunManifest.PartInfo part = m.part();
@@ -259,7 +259,7 @@ public final class ResultsStore implements AutoCloseable {
                 s.executeBatch();
             }
         }
-        int points = writePoints(runId, run.rows());
+        int points = writePoints(runId, rows);
         int checks = writeChecks(runId, m, analysis);
         int fits = writeFits(runId, analysis);
         return new Indexed(runId, folder, points, checks, fits);
