@@ -52,19 +52,19 @@ final class BenchFiles {
 
     /** The standard dialect with the simulated bench's ranges and {@code listPoints} list points (0: none). */
     static String dialect(Path dir, int listPoints) {
-        Path p = dir.resolve("bench-" + listPoints + ".dialect");
+        Path p = dir.resolve("bench-" + listPoints + ".yaml");
         if (!Files.exists(p)) {
             String std;
-            try (var in = BenchFiles.class.getResourceAsStream("/org/zweep/driver/dialect/standard.dialect")) {
+            try (var in = BenchFiles.class.getResourceAsStream("/org/zweep/driver/dialect/standard.yaml")) {
                 std = new String(in.readAllBytes(), java.nio.charset.StandardCharsets.UTF_8);
             } catch (IOException e) {
                 throw new UncheckedIOException(e);
             }
-            std = std.replaceFirst("(?m)^name\\s*=.*$", "name        = bench" + listPoints)
-                    .replaceFirst("(?m)^frequency\\s+=.*$", "frequency          = 10 .. 20e6 Hz")
-                    .replaceFirst("(?m)^list-points\\s*=.*$", "list-points        = " + listPoints);
+            std = std.replaceFirst("(?m)^  name:.*$", "  name: bench" + listPoints)
+                    .replaceFirst("(?m)^  frequency: .* Hz$", "  frequency: 10 .. 20e6 Hz")
+                    .replaceFirst("(?m)^  list-points:.*$", "  list-points: " + listPoints);
             if (listPoints == 0) {
-                std = std.replaceAll("(?m)^list-[a-z-]+\\s*=.*\n", "");
+                std = std.replaceAll("(?m)^  list-points:.*\n", "").replaceAll("(?m)^  list-[a-z-]+:.*\n", "");
             }
             write(p, std);
         }

@@ -3,14 +3,16 @@ package org.zweep.driver.dialect;
 import java.io.IOException;
 import java.io.InputStream;
 import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
-import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.util.EnumMap;
 import java.util.List;
 import java.util.Map;
 import java.util.Optional;
+import java.util.Set;
+import org.zweep.config.BoundedYaml;
+import org.zweep.config.ConfigException;
 import org.zweep.driver.InvalidInputException;
+import org.zweep.driver.meter.FixtureState;
 import org.zweep.driver.meter.MeasuredQuantity;
 import org.zweep.driver.meter.MeasurementSetting;
 import org.zweep.driver.meter.MeterCapabilities;
@@ -30,7 +32,68 @@ public final class Dialect {
     private static final List<String> BUILT_INS = List.of("standard", "mz300");
     private static final String RESOURCE_DIR = "/org/zweep/driver/dialect/";
     /** The largest dialect file read, in bytes (and the longest dialect text, in characters). */
-    public static final int MAX_FILE_BYTES = 1 << 20;
+    public static final int MAX_FILE_BYTES = BoundedYaml.MAX_FILE_BYTES;
+
+    /** How a meter frames the replies to a message that holds several queries. */
+    public enum ReplyFraming {
+        /** All replies on one line, separated by {@code ;} (IEEE 488.2 §8.4.1). */
+        SEMICOLON_JOINED("semicolon-joined"),
+        /** Each query's reply on a line of its own. */
+        ONE_LINE_PER_QUERY("one-line-per-query");
+
+        private final String word;
+
+        ReplyFraming(String word) {
+            this.word = word;
+        }
+
+        /** The value as written in a dialect file. */
+        public String word() {
+            return word;
+        }
+    }
+
+    /** Where the meter's error query is asked. */
+    public enum ErrorCheck {
+        /** After every message of settings (and commands such as acquiring a standard), not after a measurement. */
+        SETTINGS("settings"),
+        /** After every measurement only. */
+        MEASUREMENT("measurement"),
+        /** After settings and after measurements. */
+        BOTH("both"),
+        /** Never: the meter has no error query (a {@code sync} command, when declared, waits for completion). */
+        NONE("none");
+
+        private final String word;
+
+        ErrorCheck(String word) {
+            this.word = word;
+        }
+
+        /** The value as written in a dialect file. */
+        public String word() {
+            return word;
+        }
+
+        boolean afterSettings() {
+            return this == SETTINGS || this == BOTH;
+        }
+
+        boolean afterMeasurement() {
+            return this == MEASUREMENT || this == BOTH;
+        }
+    }
+
+    /**
+     * How messages are put together: section {@code messages} of a dialect file.
+     *
+     * @param join whether several commands may share one message, separated by {@code ;}
+     * @param replies how the replies to a message with several queries come back
+     * @param errorCheck where the error query is asked
+     * @param errorQueryJoined whether the error query ends the same message (else it is a message of its own)
+     */
+    public record Messages(boolean join, ReplyFraming replies, ErrorCheck errorCheck, boolean errorQueryJoined) {
+    }
 
     private final String name;
     private final String description;
@@ -39,16 +102,19 @@ public final class Dialect {
     private final Range averagingCount;
     private final Range integrationTimeS;
     private final Range impedanceRangeOhm;
-    private final boolean compoundMessages;
-    private final boolean appendErrorQuery;
+    private final Messages messages;
+    private final boolean correctionListAcquisition;
     private final ReplyShape reply;
     private final MeterTiming timing;
     private final Map<Command, Template> commands;
+    private final Map<FixtureState, Template> fixture;
+    private final double fixtureSettleS;
     private final MeterAccuracy accuracy;
 
     Dialect(String name, String description, String source, MeterCapabilities capabilities, Range averagingCount,
-            Range integrationTimeS, Range impedanceRangeOhm, boolean compoundMessages, boolean appendErrorQuery,
-            ReplyShape reply, MeterTiming timing, Map<Command, Template> commands, MeterAccuracy accuracy) {
+            Range integrationTimeS, Range impedanceRangeOhm, Messages messages, boolean correctionListAcquisition,
+            ReplyShape reply, MeterTiming timing, Map<Command, Template> commands,
+            Map<FixtureState, Template> fixture, double fixtureSettleS, MeterAccuracy accuracy) {
         this.name = name;
         this.description = description;
         this.source = source;
@@ -56,17 +122,19 @@ public final class Dialect {
         this.averagingCount = averagingCount;
         this.integrationTimeS = integrationTimeS;
         this.impedanceRangeOhm = impedanceRangeOhm;
-        this.compoundMessages = compoundMessages;
-        this.appendErrorQuery = appendErrorQuery;
+        this.messages = messages;
+        this.correctionListAcquisition = correctionListAcquisition;
         this.reply = reply;
         this.timing = timing;
         this.commands = new EnumMap<>(commands);
+        this.fixture = fixture.isEmpty() ? Map.of() : new EnumMap<>(fixture);
+        this.fixtureSettleS = fixtureSettleS;
         this.accuracy = accuracy;
     }
 
     /**
-     * Loads a dialect. A string without a path separator and not ending in {@code .dialect} names a
-     * built-in; anything else is a path to a dialect file.
+     * Loads a dialect. A string without a path separator and not ending in {@code .yaml} or
+     * {@code .yml} names a built-in; anything else is a path to a dialect file.
      *
      * @throws InvalidInputException when no such built-in or file exists, or the file is malformed
      */
@@ -76,13 +144,14 @@ public final class Dialect {
 
     /**
      * Whether {@link #load} takes {@code nameOrPath} as a file path (it contains {@code /} or
-     * {@code \} or ends in {@code .dialect}) rather than a built-in's name.
+     * {@code \} or ends in {@code .yaml} or {@code .yml}) rather than a built-in's name.
      */
     public static boolean isPath(String nameOrPath) {
-        return nameOrPath.contains("/") || nameOrPath.contains("\\") || nameOrPath.endsWith(".dialect");
+        return nameOrPath.contains("/") || nameOrPath.contains("\\") || nameOrPath.endsWith(".yaml")
+                || nameOrPath.endsWith(".yml");
     }
 
-    /** How long the meter works on what it is asked (the {@code [timing]} section, or its defaults). */
+    /** How long the meter works on what it is asked (section {@code timing}, or its defaults). */
     public MeterTiming timing() {
         return timing;
     }
@@ -100,10 +169,7 @@ public final class Dialect {
      * @throws InvalidInputException naming {@code source:line:column} and the problem
      */
     public static Dialect parse(String source, String text) {
-        if (text.length() > MAX_FILE_BYTES) {
-            throw new InvalidInputException(source + ": larger than " + MAX_FILE_BYTES + " characters, the limit for a dialect file");
-        }
-        return new DialectParser(source, text).parse();
+        return new DialectReader(source, text).read();
     }
 
     private static Dialect builtIn(String name) {
@@ -111,7 +177,7 @@ public final class Dialect {
             throw new InvalidInputException("unknown dialect '" + name + "': the built-in dialects are "
                     + String.join(", ", BUILT_INS) + "; give a path to use a dialect file");
         }
-        String file = name + ".dialect";
+        String file = name + ".yaml";
         try (InputStream in = Dialect.class.getResourceAsStream(RESOURCE_DIR + file)) {
             if (in == null) {
                 throw new IllegalStateException("built-in dialect missing from the classpath: " + file);
@@ -123,27 +189,18 @@ public final class Dialect {
     }
 
     private static Dialect fromFile(Path path) {
-        byte[] bytes;
-        try (InputStream in = Files.newInputStream(path)) {
-            bytes = in.readNBytes(MAX_FILE_BYTES + 1); // bounded: a device such as /dev/zero is refused, not read whole
-        } catch (NoSuchFileException e) {
-            throw new InvalidInputException(path + ": no such dialect file", e);
-        } catch (IOException e) {
-            throw new InvalidInputException(path + ": cannot read dialect file: " + e.getMessage(), e);
-        }
-        if (bytes.length > MAX_FILE_BYTES) {
-            throw new InvalidInputException(path + ": larger than " + MAX_FILE_BYTES + " bytes, the limit for a dialect file");
-        }
+        String text;
         try {
-            return parse(path.toString(), StandardCharsets.UTF_8.newDecoder()
-                    .onMalformedInput(java.nio.charset.CodingErrorAction.REPORT)
-                    .decode(java.nio.ByteBuffer.wrap(bytes)).toString());
-        } catch (java.nio.charset.CharacterCodingException e) {
-            throw new InvalidInputException(path + ": the dialect file is not UTF-8 text", e);
+            text = BoundedYaml.read(path, "dialect file");
+        } catch (InvalidInputException e) {
+            throw e;
+        } catch (ConfigException e) {
+            throw new InvalidInputException(e.getMessage(), e);
         }
+        return parse(path.toString(), text);
     }
 
-    /** The dialect's name, from its {@code [meter]} section. */
+    /** The dialect's name, from its section {@code meter}. */
     public String name() {
         return name;
     }
@@ -173,7 +230,7 @@ public final class Dialect {
         return impedanceRangeOhm;
     }
 
-    /** The meter's stated accuracy from the {@code [accuracy]} section; empty when the file states none. */
+    /** The meter's stated accuracy from section {@code accuracy}; empty when the file states none. */
     public Optional<MeterAccuracy> accuracy() {
         return Optional.ofNullable(accuracy);
     }
@@ -183,12 +240,45 @@ public final class Dialect {
         return source;
     }
 
+    /** How messages are put together and where the error query goes. */
+    public Messages messages() {
+        return messages;
+    }
+
+    /**
+     * Whether a standard acquired at each frequency of a plan ({@link
+     * org.zweep.driver.meter.CorrectionStyle#AT_ACQUIRED_FREQUENCY}) may be acquired over a list
+     * sweep of those frequencies instead of one frequency at a time.
+     */
+    public boolean correctionListAcquisition() {
+        return correctionListAcquisition;
+    }
+
+    /** The fixture states the meter can switch itself (section {@code fixture}); empty when it has none. */
+    public Set<FixtureState> fixtureStates() {
+        return fixture.keySet();
+    }
+
+    /** How long a fixture switch takes to settle after its command, in s (0 when the dialect states none). */
+    public double fixtureSettleS() {
+        return fixtureSettleS;
+    }
+
+    /** Whether the dialect declares integration time (section {@code capabilities}, key {@code integration-time}). */
+    public boolean hasIntegrationTime() {
+        return has(Command.INTEGRATION_TIME);
+    }
+
+    Optional<Template> fixtureCommand(FixtureState state) {
+        return Optional.ofNullable(fixture.get(state));
+    }
+
     boolean compoundMessages() {
-        return compoundMessages;
+        return messages.join();
     }
 
     boolean appendErrorQuery() {
-        return appendErrorQuery;
+        return messages.errorQueryJoined();
     }
 
     ReplyShape reply() {
@@ -243,7 +333,12 @@ public final class Dialect {
                             .or(() -> within("bias", "DC bias", s.bias().value(), caps.biasCurrentA(), "A"));
         }
         return r.or(() -> within("averaging", "averaging count", s.averagingCount(), averagingCount, ""))
-                .or(() -> within("integration", "integration time", s.integrationTimeS(), integrationTimeS, "s"))
+                .or(() -> has(Command.INTEGRATION_TIME)
+                        ? within("integration", "integration time", s.integrationTimeS(), integrationTimeS, "s")
+                        : s.integrationTimeS() == MeasurementSetting.DEFAULT_INTEGRATION_TIME_S ? Optional.empty()
+                        : Optional.of(new Refusal("integration", "integration time " + plain(s.integrationTimeS())
+                                + " s: " + meterName() + " has no integration-time setting (leave 'integration'"
+                                + " out of the step to use the meter's own)")))
                 .or(() -> s.range().auto() ? Optional.empty()
                         : supported("range", "held impedance range", Command.RANGE_HOLD)
                                 .or(() -> within("range", "impedance range", s.range().upperOhm(),

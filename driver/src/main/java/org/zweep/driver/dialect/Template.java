@@ -84,6 +84,11 @@ final class Template {
      * @param errors reports a problem at a 0-based index into {@code text}
      */
     static Template parse(String text, Command command, ErrorSink errors) {
+        return parse(text, command.key(), command.slots(), errors);
+    }
+
+    /** Parses {@code text}, the value of entry {@code key} whose placeholders are {@code slots}. */
+    static Template parse(String text, String key, List<Slot> slots, ErrorSink errors) {
         List<Part> parts = new ArrayList<>();
         List<String> seen = new ArrayList<>();
         int i = 0;
@@ -106,8 +111,8 @@ final class Template {
             int colon = inside.indexOf(':');
             String name = colon < 0 ? inside : inside.substring(0, colon);
             int nameIndex = i + 1;
-            Slot slot = command.slots().stream().filter(s -> s.name().equals(name)).findFirst()
-                    .orElseThrow(() -> errors.at(nameIndex, unknownPlaceholder(name, command)));
+            Slot slot = slots.stream().filter(s -> s.name().equals(name)).findFirst()
+                    .orElseThrow(() -> errors.at(nameIndex, unknownPlaceholder(name, key, slots)));
             int shift = 0;
             if (colon >= 0) {
                 String unit = inside.substring(colon + 1);
@@ -124,20 +129,20 @@ final class Template {
         if (literal.length() > 0) {
             parts.add(new Part(literal.toString(), null, 0));
         }
-        for (Slot s : command.slots()) {
+        for (Slot s : slots) {
             if (!seen.contains(s.name())) {
-                throw errors.at(0, "command '" + command.key() + "' must contain {" + s.name() + "}");
+                throw errors.at(0, "command '" + key + "' must contain {" + s.name() + "}");
             }
         }
         return new Template(text, parts);
     }
 
-    private static String unknownPlaceholder(String name, Command command) {
-        if (command.slots().isEmpty()) {
-            return "command '" + command.key() + "' takes no placeholder, found {" + name + "}";
+    private static String unknownPlaceholder(String name, String key, List<Slot> slots) {
+        if (slots.isEmpty()) {
+            return "command '" + key + "' takes no placeholder, found {" + name + "}";
         }
-        return "unknown placeholder {" + name + "} in '" + command.key() + "' (it takes "
-                + command.slots().stream().map(s -> "{" + s.name() + "}").collect(Collectors.joining(" ")) + ")";
+        return "unknown placeholder {" + name + "} in '" + key + "' (it takes "
+                + slots.stream().map(s -> "{" + s.name() + "}").collect(Collectors.joining(" ")) + ")";
     }
 
     private static int shiftFor(String unit, Slot slot, ErrorSink errors, int index) {

@@ -20,10 +20,16 @@ public record MeasurementSetting(
         double integrationTimeS,
         ImpedanceRange range) {
 
+    /**
+     * The integration time a setting carries when nothing asks for another, in s. A meter without an
+     * integration-time setting accepts only this value (it integrates as it does).
+     */
+    public static final double DEFAULT_INTEGRATION_TIME_S = 0.02;
+
     /** An impedance setting at {@code frequencyHz} with a 1 V rms drive, no bias, no averaging, 20 ms integration, auto range. */
     public static MeasurementSetting at(double frequencyHz) {
-        return new MeasurementSetting(MeasuredQuantity.IMPEDANCE, frequencyHz, Drive.voltage(1.0), Bias.OFF, 1, 0.02,
-                ImpedanceRange.AUTO);
+        return new MeasurementSetting(MeasuredQuantity.IMPEDANCE, frequencyHz, Drive.voltage(1.0), Bias.OFF, 1,
+                DEFAULT_INTEGRATION_TIME_S, ImpedanceRange.AUTO);
     }
 
     /** This setting at another frequency. */

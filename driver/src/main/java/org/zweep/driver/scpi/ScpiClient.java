@@ -162,6 +162,22 @@ public final class ScpiClient implements ScpiSession {
         }
     }
 
+    @Override
+    public List<String> queryLines(String message, int queries, Duration expectedWork) {
+        lock.lock();
+        try {
+            List<String> lines = new ArrayList<>(queries);
+            lines.add(queryUnlocked(message, work(expectedWork)));
+            for (int i = 1; i < queries; i++) {
+                int n = readLine(message, deadline(0));
+                lines.add(new String(line, 0, n, StandardCharsets.ISO_8859_1));
+            }
+            return lines;
+        } finally {
+            lock.unlock();
+        }
+    }
+
     /**
      * Looks for bytes that answer no query (a reply sent twice, or one that came after its query
      * timed out), waiting at most {@code quiet} for them. When there are some, they are discarded
@@ -313,16 +329,12 @@ public final class ScpiClient implements ScpiSession {
      */
     public double[] queryReal64(String message, BlockByteOrder order) {
         byte[] data = queryBlock(message);
-        if (data.length % Double.BYTES != 0) {
+        try {
+            return ScpiValues.real64(data, order.byteOrder());
+        } catch (IllegalArgumentException e) {
             throw new ScpiProtocolException(address() + ": the block replying to '" + message + "' has "
-                    + data.length + " bytes, not a whole number of 8-byte REAL,64 values");
+                    + data.length + " bytes, not a whole number of 8-byte REAL,64 values", e);
         }
-        double[] out = new double[data.length / Double.BYTES];
-        ByteBuffer.wrap(data).order(order.byteOrder()).asDoubleBuffer().get(out);
-        for (int i = 0; i < out.length; i++) {
-            out[i] = ScpiValues.special(out[i]);
-        }
-        return out;
     }
 
     @Override

@@ -37,6 +37,21 @@ public interface ScpiSession extends AutoCloseable {
     }
 
     /**
+     * Sends a message that holds {@code queries} queries to a meter that answers each on a line of
+     * its own, and returns the lines in order: the first awaited as in {@link #query(String,
+     * Duration)}, each further one within the session's slack. The default serves one query only.
+     *
+     * @throws UnsupportedOperationException when {@code queries > 1} and the session cannot read
+     *     several reply lines
+     */
+    default List<String> queryLines(String message, int queries, Duration expectedWork) {
+        if (queries == 1) {
+            return List.of(query(message, expectedWork));
+        }
+        throw new UnsupportedOperationException(address() + ": this session reads one reply line per message");
+    }
+
+    /**
      * Sends a query whose reply is an IEEE 488.2 arbitrary block (definite or indefinite length)
      * and returns the block's payload bytes.
      */

@@ -9,30 +9,29 @@ import org.zweep.driver.uncertainty.MeterAccuracy;
 class DialectAccuracyTest {
 
     private static final String TINY = """
-            zweep-dialect 1
-            [meter]
-            name = tiny
-            [capabilities]
-            frequency = 10 .. 1e6 Hz
-            voltage-level = 0.01 .. 1 V
-            integration-time = 1e-3 .. 1 s
-            [commands]
-            identify = *IDN?
-            reset = *RST
-            measure = :READ?
-            bias-off = :SOUR:VOLT:OFFS:STAT OFF
-            frequency = :SOUR:FREQ {frequency}
-            drive-voltage = :SOUR:VOLT {level}
-            integration-time = :SENS:IMP:APER {seconds}
+            format: zweep-dialect/2
+            meter: {name: tiny}
+            capabilities:
+              frequency: 10 .. 1e6 Hz
+              voltage-level: 0.01 .. 1 V
+              integration-time: 1e-3 .. 1 s
+            messages: {error-query-after: none}
+            commands:
+              identify: '*IDN?'
+              measure: ':READ?'
+              frequency: ':SOUR:FREQ {frequency}'
+              drive-voltage: ':SOUR:VOLT {level}'
+              integration-time: ':SENS:IMP:APER {seconds}'
             """;
 
     @Test
     void anAccuracySectionIsReadIntoBands() {
-        Dialect d = Dialect.parse("tiny.dialect", TINY + """
-                [accuracy]
-                distribution = normal-k2
-                band-low  = 10 .. 1e5 Hz; 0.01 .. 1 V; 0.01 s; 0.05 %; 2e-3 ohm; 1e-9 S   # long integration
-                band-fast = 10 .. 1e6 Hz; 0.01 .. 1 V; 0 s; 0.2 %; 1e-2 ohm; 1e-8 S; phase 0.1 deg
+        Dialect d = Dialect.parse("tiny.yaml", TINY + """
+                accuracy:
+                  distribution: normal-k2
+                  bands:
+                    low: 10 .. 1e5 Hz; 0.01 .. 1 V; 0.01 s; 0.05 %; 2e-3 ohm; 1e-9 S   # long integration
+                    fast: 10 .. 1e6 Hz; 0.01 .. 1 V; 0 s; 0.2 %; 1e-2 ohm; 1e-8 S; phase 0.1 deg
                 """);
         MeterAccuracy a = d.accuracy().orElseThrow();
         assertEquals(MeterAccuracy.Distribution.NORMAL_K2, a.distribution());
@@ -50,9 +49,9 @@ class DialectAccuracyTest {
     @Test
     void theReadmeExampleParsesAndGivesTheFiguresReadmeQuotes() throws java.io.IOException {
         String readme = java.nio.file.Files.readString(java.nio.file.Path.of("..", "README.md"));
-        int start = readme.indexOf("```text\n[accuracy]");
+        int start = readme.indexOf("```yaml\naccuracy:");
         assertTrue(start >= 0, "README has no [accuracy] example");
-        start += "```text\n".length();
+        start += "```yaml\n".length();
         Dialect d = Dialect.parse("readme", TINY + readme.substring(start, readme.indexOf("```", start)));
         MeterAccuracy a = d.accuracy().orElseThrow();
         org.zweep.driver.uncertainty.UncertainImpedance u = a.uncertainty(
@@ -65,6 +64,6 @@ class DialectAccuracyTest {
 
     @Test
     void aDialectWithoutTheSectionStatesNoAccuracy() {
-        assertTrue(Dialect.parse("tiny.dialect", TINY).accuracy().isEmpty());
+        assertTrue(Dialect.parse("tiny.yaml", TINY).accuracy().isEmpty());
     }
 }

@@ -34,15 +34,17 @@ import org.zweep.driver.meter.ReadingStatus;
  *
  * <p>File format, one item a line ({@code #} lines are comments):
  * <pre>
- * dialect NAME-OR-FILE        the dialect: a built-in, or a .dialect file beside the conversation
+ * dialect NAME-OR-FILE        the dialect: a built-in, or a .yaml file beside the conversation
  * call OPERATION [ARGS]       a Meter call; what follows until the next call belongs to it
  * &gt; MESSAGE                   a message the meter must receive next
- * &lt; REPLY                     ...its reply (a query); no reply line means a plain write
+ * &lt; REPLY                     ...its reply (a query); no reply line means a plain write; several
+ *                             reply lines: one line per query (a meter that frames replies so)
  * &lt;# HEX                      ...its reply as an arbitrary block's payload bytes
  * ! TEXT                      ...the link fails instead (MeterException with TEXT)
  * = RESULT                    the call's result: "R X [±TOL]" or "no-value" per reading,
  *                             "true"/"false", the identity, or "error Class: message"
  * </pre>
+ * fixture takes a state ({@code part open short load secondary-open secondary-shorted}).
  * apply takes {@code frequency= voltage= current= bias-voltage= bias-current= bias=off averaging=
  * aperture= range=auto|OHMS quantity=impedance|ratio}, each changing the previous setting
  * (initially 1 kHz, 1 V, no bias, 1 average, 20 ms, auto range); measure-list takes
@@ -85,8 +87,11 @@ class DialectConversationTest {
                     session.expectBlockQuery(n, message, following.substring(3));
                     i++;
                 } else if (following.startsWith("< ")) {
-                    session.expectQuery(n, message, following.substring(2));
-                    i++;
+                    List<String> replies = new ArrayList<>();
+                    while (i + 1 < lines.size() && lines.get(i + 1).startsWith("< ")) {
+                        replies.add(lines.get(++i).substring(2));
+                    }
+                    session.expectQuery(n, message, replies);
                 } else if (following.startsWith("! ")) {
                     session.expectFailure(n, message, following.substring(2));
                     i++;
@@ -105,7 +110,7 @@ class DialectConversationTest {
             }
         }
         assertNotNull(dialectName, file + ": no 'dialect' line");
-        Dialect dialect = dialectName.endsWith(".dialect")
+        Dialect dialect = dialectName.endsWith(".yaml")
                 ? Dialect.load(file.resolveSibling(dialectName).toString()) : Dialect.load(dialectName);
         DialectMeter meter = new DialectMeter(session, dialect, CLOCK);
 
@@ -174,6 +179,10 @@ class DialectConversationTest {
                 return null;
             case "shutdown":
                 return meter.safeShutdown();
+            case "fixture":
+                meter.fixture().orElseThrow().hold(org.zweep.driver.meter.FixtureState.valueOf(
+                        call.args.get(0).toUpperCase(java.util.Locale.ROOT).replace('-', '_')));
+                return null;
             default:
                 throw new AssertionError("unknown call " + call.operation + " at line " + call.line);
         }

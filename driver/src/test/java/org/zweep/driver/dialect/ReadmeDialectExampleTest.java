@@ -19,13 +19,13 @@ class ReadmeDialectExampleTest {
         String readme = Files.readString(Path.of("..", "README.md"), StandardCharsets.UTF_8);
         int docs = readme.indexOf("### Dialect files");
         assertTrue(docs >= 0, "README has no dialect files section");
-        int start = readme.indexOf("```text\n# Worked example", docs);
+        int start = readme.indexOf("```yaml\n# Worked example", docs);
         assertTrue(start >= 0, "README has no worked-example block");
-        start += "```text\n".length();
+        start += "```yaml\n".length();
         String block = readme.substring(start, readme.indexOf("```", start));
 
         String shipped;
-        try (InputStream in = Dialect.class.getResourceAsStream("mz300.dialect")) {
+        try (InputStream in = Dialect.class.getResourceAsStream("mz300.yaml")) {
             shipped = new String(in.readAllBytes(), StandardCharsets.UTF_8);
         }
         assertEquals(shipped, block);

@@ -15,7 +15,10 @@ import org.zweep.driver.scpi.ScpiSession;
 final class ScriptedSession implements ScpiSession {
 
     /** One scripted exchange; {@code line} is where it is written in the script, for messages. */
-    record Exchange(int line, String message, String reply, byte[] block, String failure) {
+    record Exchange(int line, String message, String reply, byte[] block, String failure, List<String> lines) {
+        Exchange(int line, String message, String reply, byte[] block, String failure) {
+            this(line, message, reply, block, failure, reply == null ? List.of() : List.of(reply));
+        }
     }
 
     private final String address;
@@ -34,6 +37,12 @@ final class ScriptedSession implements ScpiSession {
 
     void expectQuery(int line, String message, String reply) {
         script.add(new Exchange(line, message, reply, null, null));
+    }
+
+    /** A query answered with {@code replies}, one line each (one line: a plain query too). */
+    void expectQuery(int line, String message, List<String> replies) {
+        script.add(new Exchange(line, message, replies.size() == 1 ? replies.get(0) : null, null, null,
+                List.copyOf(replies)));
     }
 
     void expectBlockQuery(int line, String message, String hex) {
@@ -66,7 +75,7 @@ final class ScriptedSession implements ScpiSession {
     @Override
     public void write(String message) {
         Exchange e = take(message, "write");
-        if (e.reply != null || e.block != null) {
+        if (e.reply != null || e.block != null || !e.lines.isEmpty()) {
             throw new AssertionError("script line " + e.line + " expects a query with a reply, but '" + message
                     + "' was written without waiting for one");
         }
@@ -76,10 +85,20 @@ final class ScriptedSession implements ScpiSession {
     public String query(String message) {
         Exchange e = take(message, "query");
         if (e.reply == null) {
-            throw new AssertionError("script line " + e.line + ": '" + message + "' was sent as a query but the "
-                    + "script gives it no text reply");
+            throw new AssertionError("script line " + e.line + ": '" + message + "' was sent as a query of one reply"
+                    + " line but the script gives it " + (e.lines.isEmpty() ? "no text reply" : e.lines.size() + " lines"));
         }
         return e.reply;
+    }
+
+    @Override
+    public List<String> queryLines(String message, int queries, java.time.Duration expectedWork) {
+        Exchange e = take(message, "query of " + queries + " reply lines");
+        if (e.lines.size() != queries) {
+            throw new AssertionError("script line " + e.line + ": '" + message + "' was sent awaiting " + queries
+                    + " reply lines but the script gives " + e.lines.size());
+        }
+        return e.lines;
     }
 
     @Override

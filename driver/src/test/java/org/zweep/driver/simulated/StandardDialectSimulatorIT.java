@@ -290,28 +290,28 @@ class StandardDialectSimulatorIT {
         }
     }
 
-    /** Each literal header of every command in standard.dialect appeared in some message sent. */
+    /** Each literal header of every command in standard.yaml appeared in some message sent. */
     private static void assertEveryDialectCommandWasSent(List<String> sent) throws IOException {
         // sync is used only by dialects that cannot query errors; voltage-ratio has its own test
         Set<String> elsewhere = Set.of("sync", "function-voltage-ratio");
         String joined = String.join(";", sent);
         List<String> missing = new ArrayList<>();
         boolean inCommands = false;
-        for (String raw : standardDialectText().split("\n")) {
-            String line = raw.strip();
-            if (line.startsWith("[")) {
-                inCommands = line.equals("[commands]");
+        java.util.regex.Pattern entry = java.util.regex.Pattern.compile("  ([a-z-]+): '(.*)'");
+        for (String line : standardDialectText().split("\n")) {
+            if (!line.isBlank() && !line.startsWith(" ") && !line.startsWith("#")) {
+                inCommands = line.equals("commands:");
                 continue;
             }
-            int eq = line.indexOf('=');
-            if (!inCommands || line.startsWith("#") || eq < 0) {
+            java.util.regex.Matcher m = entry.matcher(line);
+            if (!inCommands || !m.matches()) {
                 continue;
             }
-            String key = line.substring(0, eq).strip();
+            String key = m.group(1);
             if (elsewhere.contains(key)) {
                 continue;
             }
-            for (String unit : line.substring(eq + 1).split(";")) {
+            for (String unit : m.group(2).split(";")) {
                 String literal = unit.contains("{") ? unit.substring(0, unit.indexOf('{')) : unit;
                 if (!joined.contains(literal.strip())) {
                     missing.add(key + ": " + literal.strip());
@@ -322,7 +322,7 @@ class StandardDialectSimulatorIT {
     }
 
     private static String standardDialectText() throws IOException {
-        try (InputStream in = Dialect.class.getResourceAsStream("standard.dialect")) {
+        try (InputStream in = Dialect.class.getResourceAsStream("standard.yaml")) {
             return new String(in.readAllBytes(), StandardCharsets.UTF_8);
         }
     }
@@ -361,9 +361,9 @@ class StandardDialectSimulatorIT {
     @EnumSource(SimulatorLink.Kind.class)
     void real64ReadingsEqualAsciiReadings(SimulatorLink.Kind kind) throws IOException {
         String text = standardDialectText()
-                .replace("encoding = ascii", "encoding = real64-big")
+                .replace("encoding: ascii", "encoding: real64-big")
                 .replace(":FORM ASC;", ":FORM REAL,64;:FORM:BORD NORM;")
-                .replaceFirst("(?m)^name(\\s*)= standard$", "name$1= standard-real64");
+                .replaceFirst("(?m)^  name: standard$", "  name: standard-real64");
         assertTrue(text.contains("real64-big") && text.contains(":FORM REAL,64"), "the dialect text changed shape");
         Dialect binary = Dialect.parse("standard-real64 (test)", text);
         try (SimulatorLink link = SimulatorLink.open(kind, RC)) {

@@ -19,6 +19,8 @@ import org.zweep.runner.conformance.DecisionRule;
 import org.zweep.runner.verdict.CheckEvaluator;
 import org.zweep.runner.verdict.CheckOutcome;
 import org.zweep.runner.verdict.SweepFigures;
+import org.zweep.runner.text.Figures;
+import org.zweep.runner.text.ParameterTable;
 
 /**
  * The analysis of a run folder: fits, derating, transformer parameters, repeats, checks and
@@ -35,26 +37,33 @@ public final class Analysis {
     }
 
     /**
-     * Analyses {@code run}.
+     * Analyses {@code run}, reading its {@code points.csv} once as a stream (rows are folded into
+     * per-step sums, never all held).
      *
      * @param model the circuit to fit to every frequency sweep; null to choose from the part kind
      */
     public static AnalysisResult analyze(RunData run, CircuitModel model) {
         CircuitModel chosen = model != null ? model : modelFor(run.partKind());
+        String column = mainColumn(run.partKind());
+        List<RunManifest.CheckInfo> infos = run.manifest().checks() == null ? List.of() : run.manifest().checks();
+        CheckEvaluator evaluator = new CheckEvaluator(infos.stream().map(RunManifest.CheckInfo::toLimit).toList());
+        TransformerResult.Collector transformerRows = new TransformerResult.Collector();
+        FirstValue firstValue = new FirstValue(column);
+        StepData.Read read = StepData.read(run, column, r -> {
+            evaluator.judge(r);
+            transformerRows.add(r);
+            firstValue.add(r);
+        });
         List<StepResult> steps = new ArrayList<>();
-        TreeMap<Integer, List<PointRow>> byStep = new TreeMap<>();
-        for (PointRow r : run.rows()) {
-            byStep.computeIfAbsent(r.stepIndex(), k -> new ArrayList<>()).add(r);
+        for (StepData d : read.steps()) {
+            steps.add(step(run, d, chosen, column));
         }
-        for (List<PointRow> rows : byStep.values()) {
-            steps.add(step(run, rows, chosen));
-        }
-        TransformerResult transformer = "transformer".equals(run.partKind())
-                || run.rows().stream().anyMatch(r -> !"none".equals(r.wiring()) || "voltage_ratio".equals(r.quantity()))
-                ? TransformerResult.of(run.rows(), nominalTurns(run.manifest()))
+        TransformerResult transformer = "transformer".equals(run.partKind()) || transformerRows.seen()
+                ? transformerRows.result(nominalTurns(run.manifest()))
                 : null;
-        List<CheckOutcome> checks = evaluate(run, figures(run, steps, transformer));
-        return new AnalysisResult(run, steps, transformer, checks, bins(run, steps, checks), run.notes());
+        List<CheckOutcome> checks = evaluator.outcomes(figures(run, steps, transformer));
+        return new AnalysisResult(run, steps, StepData.sweepsOf(read.steps()), transformer, checks,
+                bins(run, steps, checks, firstValue), read.notes());
     }
 
     /**
@@ -67,12 +76,28 @@ public final class Analysis {
         return figures(run, a.steps(), a.transformer());
     }
 
-    /** Judges every check of the run's manifest with the one evaluator. */
-    private static List<CheckOutcome> evaluate(RunData run, SweepFigures figures) {
-        List<RunManifest.CheckInfo> infos = run.manifest().checks() == null ? List.of() : run.manifest().checks();
-        CheckEvaluator evaluator = new CheckEvaluator(infos.stream().map(RunManifest.CheckInfo::toLimit).toList());
-        run.rows().forEach(evaluator::judge);
-        return evaluator.outcomes(figures);
+    /**
+     * Every frequency sweep of {@code run} (step, level, bias, wiring; repeats averaged), in step
+     * order, from one streamed pass over {@code points.csv}, without fitting them.
+     */
+    public static List<Sweep> sweeps(RunData run) {
+        return StepData.sweepsOf(StepData.read(run, mainColumn(run.partKind()), r -> { }).steps());
+    }
+
+    /** The first impedance row's value of the part's main column: the bins' value when nothing was fitted. */
+    private static final class FirstValue {
+        final String column;
+        PointRow row;
+
+        FirstValue(String column) {
+            this.column = column;
+        }
+
+        void add(PointRow r) {
+            if (row == null && r.okImpedance() && Double.isFinite(r.value(column))) {
+                row = r;
+            }
+        }
     }
 
     /** The default model for a part kind: capacitor, inductor (also for a transformer) or resistor. */
@@ -99,11 +124,10 @@ public final class Analysis {
         return mainParameter(partKind).key();
     }
 
-    private static StepResult step(RunData run, List<PointRow> rows, CircuitModel model) {
-        PointRow first = rows.get(0);
+    private static StepResult step(RunData run, StepData data, CircuitModel model, String column) {
         List<String> notes = new ArrayList<>();
         List<StepResult.SweepFit> fits = new ArrayList<>();
-        for (Sweep s : Sweep.of(rows)) {
+        for (Sweep s : data.sweeps()) {
             if (s.frequencies() < model.keys().size() + 1) {
                 continue;
             }
@@ -111,39 +135,17 @@ public final class Analysis {
                     ? EquivalentCircuitFit.fitWeighted(model, s.uncertainties())
                     : EquivalentCircuitFit.fit(model, s.points())));
         }
-        long noValue = rows.stream().filter(r -> !"ok".equals(r.status())).count();
-        if (noValue > 0) {
-            notes.add(noValue + " point(s) without a value left out");
+        if (data.noValue() > 0) {
+            notes.add(data.noValue() + " point(s) without a value left out");
         }
-        String column = mainColumn(run.partKind());
         List<Derating> derating = new ArrayList<>();
-        if (!"rs_ohm".equals(column)) {
-            Map<DeratingKey, Map<Double, double[]>> groups = new LinkedHashMap<>();
-            for (PointRow r : rows) {
-                if (r.okImpedance()) {
-                    DeratingKey key = new DeratingKey(r.frequencyHz(), r.level(), r.wiring(), r.biasMode());
-                    double[] acc = groups.computeIfAbsent(key, k -> new TreeMap<>())
-                            .computeIfAbsent(r.bias(), b -> new double[2]);
-                    acc[0] += r.value(column);
-                    acc[1]++;
-                }
-            }
-            for (Map.Entry<DeratingKey, Map<Double, double[]>> g : groups.entrySet()) {
-                if (g.getValue().size() < 2) {
-                    continue;
-                }
-                double[] biases = g.getValue().keySet().stream().mapToDouble(Double::doubleValue).toArray();
-                double[] values = g.getValue().values().stream().mapToDouble(a -> a[0] / a[1]).toArray();
-                derating.add(Derating.of(column, g.getKey().frequencyHz(), g.getKey().level(), g.getKey().biasMode(),
-                        biases, values, dropsFor(run, first.step(), column)));
-            }
+        for (Map.Entry<StepData.DeratingKey, TreeMap<Double, double[]>> g : data.derating().entrySet()) {
+            double[] biases = g.getValue().keySet().stream().mapToDouble(Double::doubleValue).toArray();
+            double[] values = g.getValue().values().stream().mapToDouble(a -> a[0] / a[1]).toArray();
+            derating.add(Derating.of(column, g.getKey().frequencyHz(), g.getKey().level(), g.getKey().biasMode(),
+                    biases, values, dropsFor(run, data.name(), column)));
         }
-        List<RepeatStats> repeats = RepeatStats.of(rows, List.of("r_ohm", "x_ohm", column));
-        return new StepResult(first.step(), first.stepIndex(), fits, derating, repeats, notes);
-    }
-
-    /** The points of one bias sweep: same frequency, level, wiring and bias mode. */
-    private record DeratingKey(double frequencyHz, double level, String wiring, String biasMode) {
+        return new StepResult(data.name(), data.index(), fits, derating, data.repeats(), notes);
     }
 
     private static double nominalTurns(RunManifest m) {
@@ -157,7 +159,7 @@ public final class Analysis {
                 return saturation(c, steps);
             }
             double[] v = wholeSweepFigure(c, steps, transformer);
-            return new SweepFigures.Figure(v[0], Si.unitOf(c.parameter()), "", v[1]);
+            return new SweepFigures.Figure(v[0], ParameterTable.unit(c.parameter()), "", v[1]);
         };
     }
 
@@ -176,15 +178,15 @@ public final class Analysis {
             return new SweepFigures.Figure(Double.NaN, Unit.NONE, "no bias sweep measured at the selected points");
         }
         Derating d = found.get(0);
-        Unit unit = Si.unitOfSymbol(d.biasMode());
+        Unit unit = Figures.unit(d.biasMode());
         Double at = d.biasAtDrop(c.dropPercent());
-        String ref = "relative to " + Si.format(d.referenceValue(), mainParameterOf(d.quantity()).unit(), 6) + " at "
-                + Si.format(d.referenceBias(), unit);
+        String ref = "relative to " + Figures.format(d.referenceValue(), mainParameterOf(d.quantity()).unit()) + " at "
+                + Figures.format(d.referenceBias(), unit);
         if (at == null) {
             double lowest = d.points().stream().mapToDouble(Derating.Point::percent).min().orElse(Double.NaN);
             return new SweepFigures.Figure(Double.NaN, unit, String.format(Locale.ROOT,
-                    "never falls by %s %% up to %s (lowest %.1f %%, %s)", Si.format(c.dropPercent(), Unit.NONE),
-                    Si.format(d.points().get(d.points().size() - 1).bias(), unit), lowest, ref));
+                    "never falls by %s %% up to %s (lowest %.1f %%, %s)", Figures.format(c.dropPercent(), Unit.NONE),
+                    Figures.format(d.points().get(d.points().size() - 1).bias(), unit), lowest, ref));
         }
         return new SweepFigures.Figure(at, unit, ref);
     }
@@ -252,7 +254,7 @@ public final class Analysis {
     private static final List<String> VALUE_PARAMETERS = List.of("cs_f", "cp_f", "ls_h", "lp_h", "rs_ohm", "rp_ohm",
             "r_ohm", "z_ohm", "c_f", "l_h");
 
-    private static Bins bins(RunData run, List<StepResult> steps, List<CheckOutcome> checks) {
+    private static Bins bins(RunData run, List<StepResult> steps, List<CheckOutcome> checks, FirstValue first) {
         RunManifest.PartInfo part = run.manifest().part();
         String kind = run.partKind();
         if (!List.of("capacitor", "inductor", "resistor").contains(kind)) {
@@ -271,17 +273,11 @@ public final class Analysis {
                 break;
             }
         }
-        if (!Double.isFinite(measured)) {
-            String column = mainColumn(kind);
-            for (PointRow r : run.rows()) {
-                double v = r.value(column);
-                if (r.okImpedance() && Double.isFinite(v)) {
-                    measured = v;
-                    measuredU = r.uncertainty().of(column);
-                    source = column + " of step " + r.step() + " at " + Si.format(r.frequencyHz(), Unit.HERTZ);
-                    break;
-                }
-            }
+        if (!Double.isFinite(measured) && first.row != null) {
+            PointRow r = first.row;
+            measured = r.value(first.column);
+            measuredU = r.uncertainty().of(first.column);
+            source = ParameterTable.label(first.column) + " of step " + r.step() + " at " + Figures.format(r.frequencyHz(), Unit.HERTZ);
         }
         if (!(measured > 0)) {
             return null;
@@ -334,11 +330,11 @@ public final class Analysis {
         if (disagree.isEmpty()) {
             return "";
         }
-        return "check" + (disagree.size() > 1 ? "s " : " ") + String.join("; ", disagree) + "; but the " + source
+        return "check" + (disagree.size() > 1 ? "s " : " ") + String.join("; ", disagree) + "; the " + source
                 + " against the stated tolerance: " + tolerance.decision().word() + " [" + tolerance.rule()
-                + (Double.isNaN(tolerance.expandedU()) ? ", U unknown" : "") + "]"
-                + ": the bin judges that one figure against the part's tolerance,"
-                + " the check judges its own selected points against its own limits (the verdict is the checks')";
+                + (Double.isNaN(tolerance.expandedU()) ? ", U unknown" : "") + "]."
+                + " They differ because the bin judges that one figure against the part's tolerance and a check"
+                + " judges its own selected points against its own limits (the verdict is the checks')";
     }
 
     /** What a decision word means, for the few that need it. */

@@ -1,12 +1,10 @@
 package org.zweep.runner.analysis;
 
-import java.io.IOException;
-import java.io.UncheckedIOException;
-import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.util.ArrayList;
 import java.util.List;
+import java.util.Objects;
+import java.util.function.Consumer;
 import org.zweep.driver.InvalidInputException;
 import org.zweep.runner.results.PointRow;
 import org.zweep.runner.results.PointsCsv;
@@ -15,26 +13,27 @@ import org.zweep.runner.results.RunFolder;
 import org.zweep.runner.results.RunManifest;
 
 /**
- * A run folder as the analysis sees it: the manifest and every complete row of {@code points.csv}.
- * Reading never changes the folder (a torn last line of a run still going, or one that died, is
- * skipped and noted, not cut off).
+ * A run folder as the analysis sees it: the manifest, and the rows of {@code points.csv} streamed
+ * from the file each time they are asked for ({@link #forEachRow}), never all held, so a run of
+ * millions of points is read in a small heap. Reading never changes the folder: a torn last line
+ * of a run still going, or one that died, is skipped and noted (the one rule of
+ * {@link PointsCsvReader}), not cut off.
  *
  * @param folder the run folder
  * @param manifest its {@code run.json}
- * @param rows every complete row, in file order
- * @param notes what was skipped while reading, for people
  */
-public record RunData(RunFolder folder, RunManifest manifest, List<PointRow> rows, List<String> notes) {
+public record RunData(RunFolder folder, RunManifest manifest) {
     public RunData {
-        rows = List.copyOf(rows);
-        notes = List.copyOf(notes);
+        Objects.requireNonNull(folder, "folder");
+        Objects.requireNonNull(manifest, "manifest");
     }
 
     /**
-     * Reads the run folder {@code dir}.
+     * Reads the manifest of the run folder {@code dir} and checks that {@code points.csv} is there
+     * with its header.
      *
-     * @throws InvalidInputException when {@code dir} is not a run folder or {@code points.csv} is
-     *     malformed ({@code file:line: what})
+     * @throws InvalidInputException when {@code dir} is not a run folder or {@code points.csv} does
+     *     not begin with the header ({@code file:line: what})
      */
     public static RunData read(Path dir) {
         if (!Files.isDirectory(dir)) {
@@ -46,40 +45,30 @@ public record RunData(RunFolder folder, RunManifest manifest, List<PointRow> row
         if (!Files.isRegularFile(points)) {
             throw new InvalidInputException(dir + ": not a run folder (no " + RunFolder.POINTS + ")");
         }
-        List<String> lines;
-        try {
-            lines = Files.readAllLines(points, StandardCharsets.UTF_8);
-        } catch (java.nio.charset.MalformedInputException e) {
-            throw new InvalidInputException(points + ": not UTF-8 text");
-        } catch (IOException e) {
-            throw new UncheckedIOException("cannot read " + points + ": " + e.getMessage(), e);
-        }
-        if (lines.isEmpty() || !lines.get(0).equals(PointsCsv.HEADER)) {
-            throw new InvalidInputException(points + ":1: expected the header " + PointsCsv.HEADER);
-        }
-        List<PointRow> rows = new ArrayList<>();
-        List<String> notes = new ArrayList<>();
-        PointsCsvReader.UniquePoints unique = new PointsCsvReader.UniquePoints(points);
-        for (int i = 1; i < lines.size(); i++) {
-            String line = lines.get(i);
-            if (line.isEmpty()) {
-                continue;
+        RunData run = new RunData(folder, manifest);
+        try (PointsCsvReader r = PointsCsvReader.open(points)) {
+            r.next();
+            if (!r.hasHeader()) {
+                throw new InvalidInputException(points + ":1: expected the header " + PointsCsv.HEADER);
             }
-            PointRow row;
-            try {
-                row = PointsCsv.parse(line);
-            } catch (IllegalArgumentException e) {
-                if (i == lines.size() - 1) {
-                    notes.add(points.getFileName() + ":" + (i + 1) + ": incomplete last row skipped");
-                } else {
-                    throw new InvalidInputException(points + ":" + (i + 1) + ": malformed row: " + e.getMessage());
-                }
-                continue;
-            }
-            unique.add(row.point(), i + 1);
-            rows.add(row);
         }
-        return new RunData(folder, manifest, rows, notes);
+        return run;
+    }
+
+    /**
+     * Gives every complete row of {@code points.csv}, in file order, to {@code sink}, reading the
+     * file afresh.
+     *
+     * @return what was skipped while reading, for people (a torn last row)
+     * @throws InvalidInputException when {@code points.csv} is malformed ({@code file:line: what})
+     */
+    public List<String> forEachRow(Consumer<PointRow> sink) {
+        try (PointsCsvReader r = PointsCsvReader.open(folder.points())) {
+            for (PointRow row = r.next(); row != null; row = r.next()) {
+                sink.accept(row);
+            }
+            return r.notes();
+        }
     }
 
     /**
@@ -88,8 +77,10 @@ public record RunData(RunFolder folder, RunManifest manifest, List<PointRow> row
      * @throws InvalidInputException naming {@code points.csv} when it holds no row yet
      */
     public RunData requirePoints() {
-        if (rows.isEmpty()) {
-            throw new InvalidInputException(folder.points() + ": no measured point in the run folder yet");
+        try (PointsCsvReader r = PointsCsvReader.open(folder.points())) {
+            if (r.next() == null) {
+                throw new InvalidInputException(folder.points() + ": no measured point in the run folder yet");
+            }
         }
         return this;
     }

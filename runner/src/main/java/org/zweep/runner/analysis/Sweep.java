@@ -9,6 +9,7 @@ import java.util.TreeMap;
 import org.zweep.driver.impedance.Impedance;
 import org.zweep.driver.uncertainty.UncertainImpedance;
 import org.zweep.runner.results.PointRow;
+import org.zweep.runner.text.Figures;
 
 /**
  * The impedance points of one step at one drive level, one DC bias and one wiring, repeats
@@ -48,73 +49,129 @@ public record Sweep(String step, int stepIndex, String wiring, String drive, dou
 
     /** The sweeps in {@code rows} (ok impedance rows only), in order of first appearance. */
     public static List<Sweep> of(List<PointRow> rows) {
-        Map<String, List<PointRow>> groups = new LinkedHashMap<>();
+        Map<Integer, Collector> steps = new LinkedHashMap<>();
         for (PointRow r : rows) {
-            if (!"ok".equals(r.status()) || !"impedance".equals(r.quantity())) {
-                continue;
-            }
-            String key = r.stepIndex() + "\u0000" + r.wiring() + "\u0000" + r.drive() + "\u0000" + r.level()
-                    + "\u0000" + r.biasMode() + "\u0000" + r.bias();
-            groups.computeIfAbsent(key, k -> new ArrayList<>()).add(r);
+            steps.computeIfAbsent(r.stepIndex(), k -> new Collector()).add(r);
         }
         List<Sweep> out = new ArrayList<>();
-        for (List<PointRow> g : groups.values()) {
-            TreeMap<Double, List<PointRow>> byF = new TreeMap<>();
-            for (PointRow r : g) {
-                byF.computeIfAbsent(r.frequencyHz(), k -> new ArrayList<>()).add(r);
-            }
-            List<Impedance> pts = new ArrayList<>();
-            List<UncertainImpedance> us = new ArrayList<>();
-            boolean known = true;
-            int repeats = 0;
-            for (Map.Entry<Double, List<PointRow>> e : byF.entrySet()) {
-                List<PointRow> rs = e.getValue();
-                double re = rs.stream().mapToDouble(PointRow::rOhm).average().orElseThrow();
-                double im = rs.stream().mapToDouble(PointRow::xOhm).average().orElseThrow();
-                Impedance mean = new Impedance(e.getKey(), re, im);
-                pts.add(mean);
-                repeats = Math.max(repeats, rs.size());
-                known = known && rs.stream().allMatch(r -> r.uncertainty().known());
-                if (known) {
-                    us.add(meanUncertainty(mean, rs));
-                }
-            }
-            PointRow first = g.get(0);
-            out.add(new Sweep(first.step(), first.stepIndex(), first.wiring(), first.drive(), first.level(),
-                    first.biasMode(), first.bias(), pts, repeats, known ? us : List.of()));
-        }
+        steps.values().forEach(c -> out.addAll(c.sweeps()));
         return out;
     }
 
-    /** Stated accuracy averaged over the readings plus the Type A covariance of their mean. */
-    private static UncertainImpedance meanUncertainty(Impedance mean, List<PointRow> rows) {
-        int n = rows.size();
-        double vr = 0;
-        double vx = 0;
-        double c = 0;
-        for (PointRow r : rows) {
-            UncertainImpedance u = r.uncertainty().at(r.impedance());
-            vr += u.varianceR() / n;
-            vx += u.varianceX() / n;
-            c += u.covarianceRX() / n;
-        }
-        if (n >= 2) {
-            double sr = 0;
-            double sx = 0;
-            double srx = 0;
-            for (PointRow r : rows) {
-                double dr = r.rOhm() - mean.resistanceOhm();
-                double dx = r.xOhm() - mean.reactanceOhm();
-                sr += dr * dr;
-                sx += dx * dx;
-                srx += dr * dx;
+    /**
+     * Gathers the sweeps of one step from its rows as they stream by, holding one running sum per
+     * distinct point (not the rows): the mean, the spread of the repeats and the stated
+     * uncertainties. Not thread-safe.
+     */
+    static final class Collector {
+        private final Map<Conditions, Group> groups = new LinkedHashMap<>();
+
+        /** Takes {@code r} into its sweep when it is an impedance row with a value; ignores it otherwise. */
+        void add(PointRow r) {
+            if (!"ok".equals(r.status()) || !"impedance".equals(r.quantity())) {
+                return;
             }
-            // the covariance of the mean: the sample covariance (n − 1 in the denominator) over n
-            vr += sr / (n - 1) / n;
-            vx += sx / (n - 1) / n;
-            c += srx / (n - 1) / n;
+            Conditions key = new Conditions(r.wiring(), r.drive(), r.level(), r.biasMode(), r.bias());
+            groups.computeIfAbsent(key, k -> new Group(r.step(), r.stepIndex()))
+                    .byFrequency.computeIfAbsent(r.frequencyHz(), f -> new Point()).add(r);
         }
-        return UncertainImpedance.fromCovariance(mean, vr, vx, c);
+
+        /** The sweeps gathered, in order of first appearance. */
+        List<Sweep> sweeps() {
+            List<Sweep> out = new ArrayList<>();
+            groups.forEach((c, g) -> out.add(g.sweep(c)));
+            return out;
+        }
+
+        private record Conditions(String wiring, String drive, double level, String biasMode, double bias) {
+        }
+
+        private static final class Group {
+            final String step;
+            final int stepIndex;
+            final TreeMap<Double, Point> byFrequency = new TreeMap<>();
+
+            Group(String step, int stepIndex) {
+                this.step = step;
+                this.stepIndex = stepIndex;
+            }
+
+            Sweep sweep(Conditions c) {
+                List<Impedance> pts = new ArrayList<>(byFrequency.size());
+                List<UncertainImpedance> us = new ArrayList<>(byFrequency.size());
+                boolean known = true;
+                int repeats = 0;
+                for (Map.Entry<Double, Point> e : byFrequency.entrySet()) {
+                    Point p = e.getValue();
+                    Impedance mean = new Impedance(e.getKey(), p.sumR / p.n, p.sumX / p.n);
+                    pts.add(mean);
+                    repeats = Math.max(repeats, p.n);
+                    known = known && p.known;
+                    if (known) {
+                        us.add(p.meanUncertainty(mean));
+                    }
+                }
+                return new Sweep(step, stepIndex, c.wiring(), c.drive(), c.level(), c.biasMode(), c.bias(), pts,
+                        repeats, known ? us : List.of());
+            }
+        }
+
+        /**
+         * The readings at one frequency: their sums, the running mean and co-moments of R and X
+         * (Welford's update, so the spread needs no second pass) and the sums of their stated
+         * covariances.
+         */
+        private static final class Point {
+            int n;
+            double sumR;
+            double sumX;
+            double meanR;
+            double meanX;
+            double m2R;
+            double m2X;
+            double cRX;
+            double statedR;
+            double statedX;
+            double statedRX;
+            boolean known = true;
+
+            void add(PointRow r) {
+                double re = r.rOhm();
+                double im = r.xOhm();
+                n++;
+                sumR += re;
+                sumX += im;
+                double dR = re - meanR;
+                double dX = im - meanX;
+                meanR += dR / n;
+                meanX += dX / n;
+                m2R += dR * (re - meanR);
+                m2X += dX * (im - meanX);
+                cRX += dR * (im - meanX);
+                if (known && r.uncertainty().known()) {
+                    UncertainImpedance u = r.uncertainty().at(r.impedance());
+                    statedR += u.varianceR();
+                    statedX += u.varianceX();
+                    statedRX += u.covarianceRX();
+                } else {
+                    known = false;
+                }
+            }
+
+            /** Stated accuracy averaged over the readings plus the Type A covariance of their mean. */
+            UncertainImpedance meanUncertainty(Impedance mean) {
+                double vr = statedR / n;
+                double vx = statedX / n;
+                double c = statedRX / n;
+                if (n >= 2) {
+                    // the covariance of the mean: the sample covariance (n − 1 in the denominator) over n
+                    vr += m2R / (n - 1) / n;
+                    vx += m2X / (n - 1) / n;
+                    c += cRX / (n - 1) / n;
+                }
+                return UncertainImpedance.fromCovariance(mean, vr, vx, c);
+            }
+        }
     }
 
     /**
@@ -133,12 +190,12 @@ public record Sweep(String step, int stepIndex, String wiring, String drive, dou
 
     /** A label such as {@code 1V 0V} or {@code 10mA 2A}, also used in file names. */
     public String conditionLabel() {
-        return Si.compact(level, Si.unitOfSymbol(drive)) + "_" + Si.compact(bias, Si.unitOfSymbol(biasMode)) + ("none".equals(wiring) ? "" : "_" + wiring);
+        return Figures.compact(level, Figures.unit(drive)) + "_" + Figures.compact(bias, Figures.unit(biasMode)) + ("none".equals(wiring) ? "" : "_" + wiring);
     }
 
     /** A label for people, e.g. {@code 1 V, bias 0 V}. */
     public String describe() {
-        return Si.format(level, Si.unitOfSymbol(drive)) + ", bias " + Si.format(bias, Si.unitOfSymbol(biasMode))
+        return Figures.format(level, Figures.unit(drive)) + ", bias " + Figures.format(bias, Figures.unit(biasMode))
                 + ("none".equals(wiring) ? "" : ", " + wiring.replace('_', ' '));
     }
 

@@ -5,6 +5,7 @@ import java.util.List;
 import java.util.Locale;
 import java.util.TreeMap;
 import org.zweep.runner.results.PointRow;
+import org.zweep.runner.text.Figures;
 
 /**
  * Transformer parameters from a run: primary inductance with the secondary open (L_oc) and
@@ -60,22 +61,63 @@ public record TransformerResult(double frequencyHz, double openH, double shortH,
         if (!(r > 0) || !Double.isFinite(r)) {
             return "—";
         }
-        return r >= 1 ? Si.format(r, org.zweep.driver.impedance.Unit.NONE, 4) + ":1"
-                : "1:" + Si.format(1 / r, org.zweep.driver.impedance.Unit.NONE, 4);
+        return r >= 1 ? Figures.format(r, org.zweep.driver.impedance.Unit.NONE, 4) + ":1"
+                : "1:" + Figures.format(1 / r, org.zweep.driver.impedance.Unit.NONE, 4);
     }
 
-    /** The transformer parameters in {@code rows}, or null when there are no transformer rows at all. */
-    static TransformerResult of(List<PointRow> rows, double nominalTurns) {
-        TreeMap<Double, double[]> open = inductance(rows, "secondary_open");
-        TreeMap<Double, double[]> shorted = inductance(rows, "secondary_shorted");
-        double ratioSum = 0;
-        int ratioCount = 0;
-        for (PointRow r : rows) {
-            if ("ok".equals(r.status()) && "voltage_ratio".equals(r.quantity()) && r.ratio() > 0) {
-                ratioSum += 1 / r.ratio();
-                ratioCount++;
+    /**
+     * Gathers what the transformer parameters need from a run's rows as they stream by: Ls (its
+     * sum, count, sum of stated u and sum of squares) per frequency with the secondary open and
+     * shorted, and the voltage ratios. Not thread-safe.
+     */
+    static final class Collector {
+        private final TreeMap<Double, double[]> open = new TreeMap<>();
+        private final TreeMap<Double, double[]> shorted = new TreeMap<>();
+        private double ratioSum;
+        private int ratioCount;
+        private boolean seen;
+
+        /** Takes {@code r} when it is a transformer row (a wiring other than none, or a voltage ratio). */
+        void add(PointRow r) {
+            if ("none".equals(r.wiring()) && !"voltage_ratio".equals(r.quantity())) {
+                return;
+            }
+            seen = true;
+            if (!"ok".equals(r.status())) {
+                return;
+            }
+            if ("voltage_ratio".equals(r.quantity())) {
+                if (r.ratio() > 0) {
+                    ratioSum += 1 / r.ratio();
+                    ratioCount++;
+                }
+                return;
+            }
+            TreeMap<Double, double[]> m = "secondary_open".equals(r.wiring()) ? open
+                    : "secondary_shorted".equals(r.wiring()) ? shorted : null;
+            if (m != null && "impedance".equals(r.quantity())) {
+                double[] acc = m.computeIfAbsent(r.frequencyHz(), x -> new double[4]);
+                double v = r.value("ls_h");
+                acc[0] += v;
+                acc[1]++;
+                acc[2] += r.uncertainty().of("ls_h");
+                acc[3] += v * v;
             }
         }
+
+        /** Whether a transformer row was seen (a wiring other than none, or a voltage ratio). */
+        boolean seen() {
+            return seen;
+        }
+
+        /** The transformer parameters, or null when there are no transformer rows at all. */
+        TransformerResult result(double nominalTurns) {
+            return of(open, shorted, ratioSum, ratioCount, nominalTurns);
+        }
+    }
+
+    private static TransformerResult of(TreeMap<Double, double[]> open, TreeMap<Double, double[]> shorted,
+            double ratioSum, int ratioCount, double nominalTurns) {
         if (open.isEmpty() && shorted.isEmpty() && ratioCount == 0) {
             return null;
         }
@@ -139,21 +181,6 @@ public record TransformerResult(double frequencyHz, double openH, double shortH,
             typeA = var / n;
         }
         return Math.sqrt(stated * stated + typeA);
-    }
-
-    private static TreeMap<Double, double[]> inductance(List<PointRow> rows, String wiring) {
-        TreeMap<Double, double[]> out = new TreeMap<>();
-        for (PointRow r : rows) {
-            if ("ok".equals(r.status()) && "impedance".equals(r.quantity()) && wiring.equals(r.wiring())) {
-                double[] acc = out.computeIfAbsent(r.frequencyHz(), x -> new double[4]);
-                double v = r.value("ls_h");
-                acc[0] += v;
-                acc[1]++;
-                acc[2] += r.uncertainty().of("ls_h");
-                acc[3] += v * v;
-            }
-        }
-        return out;
     }
 
     private static double mean(double[] acc) {

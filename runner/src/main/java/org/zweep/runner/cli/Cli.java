@@ -5,6 +5,7 @@ import java.util.Arrays;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
+import java.util.function.IntSupplier;
 import java.util.function.Supplier;
 import org.zweep.driver.InvalidInputException;
 import org.zweep.driver.MeterException;
@@ -38,6 +39,9 @@ public final class Cli {
         m.put("analyze", () -> new AnalyzeCommand());
         m.put("export", () -> new ExportCommand());
         m.put("report", () -> new ReportCommand());
+        m.put("index", () -> new IndexCommand());
+        m.put("runs", () -> new RunsCommand());
+        m.put("trend", () -> new TrendCommand());
         m.put("scpi", () -> new ScpiCommand());
         m.put("ping", () -> new PingCommand());
         m.put("sim", () -> new SimCommand());
@@ -53,8 +57,7 @@ public final class Cli {
     public static int run(String[] args, PrintWriter out, PrintWriter err) {
         boolean debug = Arrays.asList(args).contains("--debug");
         String[] rest = Arrays.stream(args).filter(a -> !a.equals("--debug")).toArray(String[]::new);
-        CommandLine cl = commandLine(out, err, debug, needed(rest));
-        int code = cl.execute(rest);
+        int code = guarded(() -> commandLine(out, err, debug, needed(rest)).execute(rest), err, debug);
         out.flush();
         err.flush();
         return code;
@@ -95,17 +98,47 @@ public final class Cli {
                 err.println("zweep: stopped: " + oneLine(ex) + "; DC bias is off");
                 return BiasOffHook.EXIT_INTERRUPTED;
             }
-            boolean expected = exitCodeOf(ex) != ExitCode.INTERNAL;
-            err.println("zweep: " + (expected ? "" : "internal error: ") + oneLine(ex)
-                    + (expected ? "" : debug ? "; this is a bug in zweep, please report it with the trace below"
-                            : "; this is a bug in zweep, please report it with the output of the same command"
-                                    + " run with --debug"));
+            if (exitCodeOf(ex) == ExitCode.INTERNAL) {
+                return internalError(err, ex, debug);
+            }
+            err.println("zweep: " + oneLine(ex));
             if (debug) {
                 ex.printStackTrace(err);
             }
             return exitCodeOf(ex);
         });
         return cl;
+    }
+
+    /**
+     * Runs {@code command}; an {@link Error} (out of memory, a stack overflow), which passes
+     * picocli's exception handler, or anything else thrown out of it, ends as
+     * {@link #internalError}.
+     */
+    static int guarded(IntSupplier command, PrintWriter err, boolean debug) {
+        try {
+            return command.getAsInt();
+        } catch (Throwable ex) {
+            return internalError(err, ex, debug);
+        }
+    }
+
+    /**
+     * Says in one line that zweep itself failed and asks for a report (the trace only with
+     * {@code --debug}); returns {@link ExitCode#INTERNAL}.
+     */
+    static int internalError(PrintWriter err, Throwable ex, boolean debug) {
+        String what = ex instanceof OutOfMemoryError ? "out of memory (" + oneLine(ex) + ")"
+                : ex instanceof StackOverflowError ? "stack overflow" : oneLine(ex);
+        err.println("zweep: internal error: " + what
+                + (debug ? "; this is a bug in zweep, please report it with the trace below"
+                        : "; this is a bug in zweep, please report it with the output of the same command"
+                                + " run with --debug"));
+        if (debug) {
+            ex.printStackTrace(err);
+        }
+        err.flush();
+        return ExitCode.INTERNAL;
     }
 
     /**
@@ -141,7 +174,8 @@ public final class Cli {
         if (ex instanceof InvalidInputException || ex instanceof CommandLine.ParameterException) {
             return ExitCode.USAGE;
         }
-        if (ex instanceof MeterException || ex instanceof java.io.UncheckedIOException
+        if (ex instanceof MeterException || ex instanceof org.zweep.runner.store.StoreException
+                || ex instanceof java.io.UncheckedIOException
                 || ex instanceof java.io.IOException) {
             return ExitCode.METER;
         }

@@ -12,6 +12,9 @@ public final class Main {
     public static void main(String[] args) {
         PrintWriter out = new PrintWriter(new java.io.OutputStreamWriter(System.out, StandardCharsets.UTF_8), true);
         PrintWriter err = new PrintWriter(new java.io.OutputStreamWriter(System.err, StandardCharsets.UTF_8), true);
+        boolean debug = java.util.Arrays.asList(args).contains("--debug");
+        // a failure on another thread (a background sync, the live page) is one line too, never a trace
+        Thread.setDefaultUncaughtExceptionHandler((t, e) -> Cli.internalError(err, e, debug));
         System.exit(Cli.run(args, out, err));
     }
 }

@@ -23,6 +23,7 @@ import org.zweep.simulator.scpi.TimingModel;
 import org.zweep.simulator.server.FaultPlan;
 import org.zweep.simulator.server.ServerOptions;
 import org.zweep.simulator.hislip.HislipOptions;
+import org.zweep.simulator.server.ListenerOptions;
 import org.zweep.simulator.hislip.HislipServer;
 import org.zweep.simulator.server.SimulatorServer;
 import org.zweep.simulator.vxi11.Vxi11Options;
@@ -196,8 +197,8 @@ public final class SimCommand implements Callable<Integer> {
         Vxi11Server vxi11 = null;
         if (vxi11Port != null) {
             try {
-                vxi11 = Vxi11Server.start(server, Vxi11Options.defaults().withBindAddress(address)
-                        .withPortmapperPort(vxi11Port).withLog(options.log()));
+                vxi11 = Vxi11Server.start(server, Vxi11Options.defaults()
+                        .withPortmapper(new ListenerOptions(address, vxi11Port, options.log())));
             } catch (IOException e) {
                 server.close();
                 throw new MeterException(e.getMessage(), e);
@@ -213,8 +214,8 @@ public final class SimCommand implements Callable<Integer> {
                 throw new InvalidInputException("--hislip-port: must be 0..65535, got " + hislipPort);
             }
             try {
-                hislip = HislipServer.start(server, HislipOptions.defaults().withBindAddress(address)
-                        .withPort(hislipPort).withOverlapped(hislipOverlapped).withLog(options.log()));
+                hislip = HislipServer.start(server, HislipOptions.defaults()
+                        .withListener(new ListenerOptions(address, hislipPort, options.log())).withOverlapped(hislipOverlapped));
             } catch (IOException e) {
                 if (vxi11 != null) {
                     vxi11.close();

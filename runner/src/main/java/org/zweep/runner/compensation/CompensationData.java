@@ -13,12 +13,15 @@ import java.nio.file.Path;
 import java.time.Instant;
 import java.util.ArrayList;
 import java.util.List;
+import org.apache.commons.csv.CSVParser;
+import org.apache.commons.csv.CSVRecord;
 import org.zweep.driver.InvalidInputException;
 import org.zweep.driver.meter.CorrectionStandard;
+import org.zweep.runner.results.Csv;
 
 /**
  * Host-side compensation data: each standard's reading at each frequency, with the time and the
- * settings it was measured at. Stored as {@code NAME.csv} (columns {@code standard,
+ * settings it was measured at. Stored as {@code NAME.csv} (cells as {@link Csv} writes them) (columns {@code standard,
  * frequency_hz, r_ohm, x_ohm, time, status}; {@code status} is {@code ok}, or {@code over_range}
  * for an OPEN the meter read as overload or beyond its range, with empty R and X) with a sidecar
  * {@code NAME.json} describing the settings. Files without the {@code status} column (written
@@ -109,10 +112,9 @@ public record CompensationData(Info info, List<Entry> entries) {
     public void write(Path csv) {
         StringBuilder b = new StringBuilder(HEADER).append('\n');
         for (Entry e : entries) {
-            b.append(e.standard()).append(',').append(e.frequencyHz()).append(',')
-                    .append(e.overRange() ? "" : String.valueOf(e.rOhm())).append(',')
-                    .append(e.overRange() ? "" : String.valueOf(e.xOhm())).append(',').append(e.time()).append(',')
-                    .append(e.overRange() ? OVER_RANGE : "ok").append('\n');
+            Csv.append(b, List.of(e.standard().name(), Csv.number(e.frequencyHz()),
+                    e.overRange() ? "" : Csv.number(e.rOhm()), e.overRange() ? "" : Csv.number(e.xOhm()),
+                    e.time().toString(), e.overRange() ? OVER_RANGE : "ok")).append('\n');
         }
         try {
             Files.createDirectories(csv.toAbsolutePath().getParent());
@@ -160,10 +162,8 @@ public record CompensationData(Info info, List<Entry> entries) {
      */
     public static CompensationData read(Path csv) {
         Info info;
-        List<String> lines;
         try {
             info = JSON.readValue(sidecar(csv).toFile(), Info.class);
-            lines = Files.readAllLines(csv, StandardCharsets.UTF_8);
         } catch (JsonProcessingException e) {
             throw new InvalidInputException(sidecar(csv) + ": not valid compensation settings: "
                     + e.getOriginalMessage());
@@ -173,33 +173,50 @@ public record CompensationData(Info info, List<Entry> entries) {
         if (!FORMAT.equals(info.format())) {
             throw new InvalidInputException(sidecar(csv) + ": format is " + info.format() + ", expected " + FORMAT);
         }
-        if (lines.isEmpty() || !lines.get(0).equals(HEADER) && !lines.get(0).equals(HEADER_WITHOUT_STATUS)) {
-            throw new InvalidInputException(csv + ":1: expected the header " + HEADER);
-        }
-        int cells = lines.get(0).equals(HEADER) ? 6 : 5;
         List<Entry> entries = new ArrayList<>();
-        for (int i = 1; i < lines.size(); i++) {
-            String[] c = lines.get(i).split(",", -1);
-            try {
-                if (c.length != cells) {
-                    throw new IllegalArgumentException("expected " + cells + " cells, found " + c.length);
+        try (CSVParser parser = CSVParser.parse(csv, StandardCharsets.UTF_8, Csv.FORMAT)) {
+            int cells = 0;
+            for (CSVRecord r : parser) {
+                List<String> c = r.toList();
+                long line = r.getRecordNumber(); // one record per line here: no cell holds a line break
+                if (cells == 0) {
+                    String header = String.join(",", c);
+                    if (!header.equals(HEADER) && !header.equals(HEADER_WITHOUT_STATUS)) {
+                        throw new InvalidInputException(csv + ":1: expected the header " + HEADER);
+                    }
+                    cells = c.size();
+                    continue;
                 }
-                CorrectionStandard standard = CorrectionStandard.valueOf(c[0]);
-                boolean over = cells == 6 && c[5].equals(OVER_RANGE);
-                if (cells == 6 && !over && !c[5].equals("ok")) {
-                    throw new IllegalArgumentException("status '" + c[5] + "' is neither ok nor " + OVER_RANGE);
-                }
-                if (over && standard != CorrectionStandard.OPEN) {
-                    throw new IllegalArgumentException("only an OPEN may be " + OVER_RANGE);
-                }
-                entries.add(over ? Entry.openOverRange(Double.parseDouble(c[1]), Instant.parse(c[4]))
-                        : new Entry(standard, Double.parseDouble(c[1]), Double.parseDouble(c[2]),
-                                Double.parseDouble(c[3]), Instant.parse(c[4])));
-            } catch (RuntimeException e) {
-                throw new InvalidInputException(csv + ":" + (i + 1) + ": malformed row: " + e.getMessage());
+                entries.add(entry(csv, line, c, cells));
             }
+            if (cells == 0) {
+                throw new InvalidInputException(csv + ":1: expected the header " + HEADER);
+            }
+        } catch (IOException | java.io.UncheckedIOException e) {
+            throw new InvalidInputException(csv + ": cannot read compensation data: " + e.getMessage());
         }
         return new CompensationData(info, entries);
+    }
+
+    private static Entry entry(Path csv, long line, List<String> c, int cells) {
+        try {
+            if (c.size() != cells) {
+                throw new IllegalArgumentException("expected " + cells + " cells, found " + c.size());
+            }
+            CorrectionStandard standard = CorrectionStandard.valueOf(c.get(0));
+            boolean over = cells == 6 && c.get(5).equals(OVER_RANGE);
+            if (cells == 6 && !over && !c.get(5).equals("ok")) {
+                throw new IllegalArgumentException("status '" + c.get(5) + "' is neither ok nor " + OVER_RANGE);
+            }
+            if (over && standard != CorrectionStandard.OPEN) {
+                throw new IllegalArgumentException("only an OPEN may be " + OVER_RANGE);
+            }
+            return over ? Entry.openOverRange(Double.parseDouble(c.get(1)), Instant.parse(c.get(4)))
+                    : new Entry(standard, Double.parseDouble(c.get(1)), Double.parseDouble(c.get(2)),
+                            Double.parseDouble(c.get(3)), Instant.parse(c.get(4)));
+        } catch (RuntimeException e) {
+            throw new InvalidInputException(csv + ":" + line + ": malformed row: " + e.getMessage());
+        }
     }
 
     static Path sidecar(Path csv) {

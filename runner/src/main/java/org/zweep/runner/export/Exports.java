@@ -1,20 +1,23 @@
 package org.zweep.runner.export;
 
+import com.fasterxml.jackson.core.JsonGenerator;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.SerializationFeature;
-import com.fasterxml.jackson.databind.node.ArrayNode;
 import com.fasterxml.jackson.databind.node.ObjectNode;
 import java.io.IOException;
 import java.io.UncheckedIOException;
+import java.io.Writer;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
+import org.zweep.runner.analysis.Analysis;
 import org.zweep.runner.analysis.AnalysisJson;
 import org.zweep.runner.analysis.AnalysisResult;
 import org.zweep.runner.analysis.RunData;
 import org.zweep.runner.analysis.Sweep;
+import org.zweep.runner.results.Csv;
 import org.zweep.runner.results.Derived;
 import org.zweep.runner.results.PointRow;
 import org.zweep.runner.results.RunManifest;
@@ -42,7 +45,7 @@ public final class Exports {
      */
     public static List<Path> touchstone(RunData run, Path outDir, Touchstone.Version version, double referenceOhm) {
         List<Path> written = new ArrayList<>();
-        for (Sweep s : Sweep.of(run.rows())) {
+        for (Sweep s : Analysis.sweeps(run)) {
             if (s.frequencies() < 2) {
                 continue;
             }
@@ -64,37 +67,49 @@ public final class Exports {
         return written;
     }
 
-    /** Writes every measured row (points with a value) as CSV to {@code file}. */
+    /** Writes every measured row (points with a value) as CSV to {@code file}, streamed from {@code points.csv}. */
     public static void csv(RunData run, Path file) {
-        StringBuilder b = new StringBuilder(String.join(",", CSV_COLUMNS)).append('\n');
         RunManifest m = run.manifest();
         RunManifest.Identity id = m.identityOrNone();
         // the same for every row: which run and part, and the run's verdict (empty when unknown)
-        String whose = "," + quote(orEmpty(m.id())) + "," + quote(orEmpty(id.serial())) + ","
-                + quote(orEmpty(id.lot())) + "," + quote(orEmpty(m.verdict()));
-        for (PointRow r : run.rows()) {
-            if (!"ok".equals(r.status())) {
-                continue;
-            }
-            List<String> cells = new ArrayList<>();
-            cells.add(quote(r.step()));
-            cells.add(String.valueOf(r.repeat()));
-            cells.add(r.quantity());
-            cells.add(r.wiring());
-            cells.add(num(r.frequencyHz()));
-            cells.add(r.drive());
-            cells.add(num(r.level()));
-            cells.add(r.biasMode());
-            cells.add(num(r.bias()));
-            cells.add(num(r.rOhm()));
-            cells.add(num(r.xOhm()));
-            for (String d : Derived.NAMES) {
-                cells.add(num(r.value(d)));
-            }
-            cells.add(num(r.ratio()));
-            b.append(String.join(",", cells)).append(whose).append('\n');
+        List<String> whose = List.of(orEmpty(m.id()), orEmpty(id.serial()), orEmpty(id.lot()), orEmpty(m.verdict()));
+        try (Writer w = open(file)) {
+            w.write(Csv.record(CSV_COLUMNS));
+            w.write('\n');
+            StringBuilder line = new StringBuilder(256);
+            List<String> cells = new ArrayList<>(CSV_COLUMNS.size());
+            run.forEachRow(r -> {
+                if (!"ok".equals(r.status())) {
+                    return;
+                }
+                cells.clear();
+                cells.add(r.step());
+                cells.add(String.valueOf(r.repeat()));
+                cells.add(r.quantity());
+                cells.add(r.wiring());
+                cells.add(Csv.number(r.frequencyHz()));
+                cells.add(r.drive());
+                cells.add(Csv.number(r.level()));
+                cells.add(r.biasMode());
+                cells.add(Csv.number(r.bias()));
+                cells.add(Csv.number(r.rOhm()));
+                cells.add(Csv.number(r.xOhm()));
+                for (String d : Derived.NAMES) {
+                    cells.add(Csv.number(r.value(d)));
+                }
+                cells.add(Csv.number(r.ratio()));
+                cells.addAll(whose);
+                line.setLength(0);
+                Csv.append(line, cells).append('\n');
+                try {
+                    w.append(line);
+                } catch (IOException e) {
+                    throw new UncheckedIOException("cannot write " + file + ": " + e.getMessage(), e);
+                }
+            });
+        } catch (IOException e) {
+            throw new UncheckedIOException("cannot write " + file + ": " + e.getMessage(), e);
         }
-        write(file, b.toString());
     }
 
     private static com.fasterxml.jackson.databind.JsonNode manifestTree(RunData run) {
@@ -105,39 +120,52 @@ public final class Exports {
         }
     }
 
-    /** Writes the manifest, every measured row and the analysis as one JSON document to {@code file}. */
+    /**
+     * Writes the manifest, every measured row and the analysis as one JSON document to
+     * {@code file}; the rows are streamed from {@code points.csv} into the file, never all held.
+     */
     public static void json(RunData run, AnalysisResult analysis, Path file) {
-        ObjectNode root = JSON.createObjectNode();
-        root.put("format", "zweep-export/1");
-        root.set("run", manifestTree(run)); // run.json's own snake_case keys
-        ArrayNode points = root.putArray("points");
-        for (PointRow r : run.rows()) {
-            if (!"ok".equals(r.status())) {
-                continue;
-            }
-            ObjectNode p = points.addObject();
-            p.put("step", r.step());
-            p.put("repeat", r.repeat());
-            p.put("quantity", r.quantity());
-            p.put("wiring", r.wiring());
-            put(p, "frequency_hz", r.frequencyHz());
-            p.put("drive", r.drive());
-            put(p, "level", r.level());
-            p.put("bias_mode", r.biasMode());
-            put(p, "bias", r.bias());
-            put(p, "r_ohm", r.rOhm());
-            put(p, "x_ohm", r.xOhm());
-            for (String d : Derived.NAMES) {
-                put(p, d, r.value(d));
-            }
-            put(p, "ratio", r.ratio());
-            p.put("time", r.time().toString());
-        }
-        root.set("analysis", AnalysisJson.tree(analysis));
-        try {
-            write(file, JSON.writeValueAsString(root) + "\n");
-        } catch (com.fasterxml.jackson.core.JsonProcessingException e) {
-            throw new IllegalStateException(e);
+        try (Writer w = open(file); JsonGenerator g = JSON.createGenerator(w)) {
+            g.writeStartObject();
+            g.writeStringField("format", "zweep-export/1");
+            g.writeFieldName("run");
+            g.writeTree(manifestTree(run)); // run.json's own snake_case keys
+            g.writeArrayFieldStart("points");
+            run.forEachRow(r -> {
+                if (!"ok".equals(r.status())) {
+                    return;
+                }
+                ObjectNode p = JSON.createObjectNode();
+                p.put("step", r.step());
+                p.put("repeat", r.repeat());
+                p.put("quantity", r.quantity());
+                p.put("wiring", r.wiring());
+                put(p, "frequency_hz", r.frequencyHz());
+                p.put("drive", r.drive());
+                put(p, "level", r.level());
+                p.put("bias_mode", r.biasMode());
+                put(p, "bias", r.bias());
+                put(p, "r_ohm", r.rOhm());
+                put(p, "x_ohm", r.xOhm());
+                for (String d : Derived.NAMES) {
+                    put(p, d, r.value(d));
+                }
+                put(p, "ratio", r.ratio());
+                p.put("time", r.time().toString());
+                try {
+                    g.writeTree(p);
+                } catch (IOException e) {
+                    throw new UncheckedIOException("cannot write " + file + ": " + e.getMessage(), e);
+                }
+            });
+            g.writeEndArray();
+            g.writeFieldName("analysis");
+            g.writeTree(AnalysisJson.tree(analysis));
+            g.writeEndObject();
+            g.flush();
+            w.write('\n');
+        } catch (IOException e) {
+            throw new UncheckedIOException("cannot write " + file + ": " + e.getMessage(), e);
         }
     }
 
@@ -153,15 +181,12 @@ public final class Exports {
         return s == null ? "" : s;
     }
 
-    private static String num(double v) {
-        return Double.isFinite(v) ? Double.toString(v) : "";
-    }
-
-    private static String quote(String s) {
-        if (s.indexOf(',') < 0 && s.indexOf('"') < 0 && s.indexOf('\n') < 0) {
-            return s;
+    private static Writer open(Path file) throws IOException {
+        Path parent = file.toAbsolutePath().getParent();
+        if (parent != null) {
+            Files.createDirectories(parent);
         }
-        return '"' + s.replace("\"", "\"\"") + '"';
+        return Files.newBufferedWriter(file, StandardCharsets.UTF_8);
     }
 
     private static void write(Path file, String text) {

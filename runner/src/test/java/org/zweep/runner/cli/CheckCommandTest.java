@@ -65,14 +65,14 @@ class CheckCommandTest {
     void aSweepBeyondTheDialectsMaximumFrequencyIsRefusedAtTheStepsFrequency() throws IOException {
         // issue 9: check said ok for a 10 MHz sweep on a meter whose dialect declares a 5 MHz maximum
         Files.writeString(dir.resolve("b.bench.yaml"), "# placeholder\n");
-        Files.writeString(dir.resolve("five.dialect"), Files.readString(Path.of("..", "driver", "src", "main",
-                "resources", "org", "zweep", "driver", "dialect", "standard.dialect"))
-                .replace("frequency          = 10 .. 20e6 Hz", "frequency          = 10 .. 5e6 Hz")
-                .replace("name        = standard", "name        = five"));
+        Files.writeString(dir.resolve("five.yaml"), Files.readString(Path.of("..", "driver", "src", "main",
+                "resources", "org", "zweep", "driver", "dialect", "standard.yaml"))
+                .replace("  frequency: 10 .. 20e6 Hz", "  frequency: 10 .. 5e6 Hz")
+                .replace("  name: standard", "  name: five"));
         Path file = dir.resolve("wide.yaml");
         Files.writeString(file, """
                 format: zweep-sequence/1
-                meter: {bench: b.bench.yaml, dialect: five.dialect}
+                meter: {bench: b.bench.yaml, dialect: five.yaml}
                 safety: {max_level_voltage: 1 V}
                 part: {kind: capacitor, nominal: 1 nF}
                 steps:

@@ -85,11 +85,11 @@ class InputFuzzIT {
     void dialectReaderRefusesMutatedDialectsCleanly() throws Exception {
         List<String> seeds = new ArrayList<>();
         for (String name : List.of("standard", "mz300")) {
-            try (InputStream in = Dialect.class.getResourceAsStream("/org/zweep/driver/dialect/" + name + ".dialect")) {
+            try (InputStream in = Dialect.class.getResourceAsStream("/org/zweep/driver/dialect/" + name + ".yaml")) {
                 seeds.add(new String(in.readAllBytes(), StandardCharsets.UTF_8));
             }
         }
-        fuzz("dialect", seeds, text -> expectClean(() -> Dialect.parse("fuzzed.dialect", text), InvalidInputException.class));
+        fuzz("dialect", seeds, text -> expectClean(() -> Dialect.parse("fuzzed.yaml", text), InvalidInputException.class));
     }
 
     @Test

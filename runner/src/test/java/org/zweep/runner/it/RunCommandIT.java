@@ -87,7 +87,7 @@ class RunCommandIT {
 
     @Test
     void settingTheMeterCannotDoIsRefusedWithExitCode2AndNoRunFolder() throws Exception {
-        // the standard dialect's frequency range ends at 20 MHz (standard.dialect [capabilities])
+        // the standard dialect's frequency range ends at 20 MHz (standard.yaml [capabilities])
         Path seq = variant("stop: 20 MHz", "stop: 30 MHz");
         Path out = dir.resolve("out");
         Sims.Result r = Sims.zweep("run", seq.toString(), "--meter", sim(), "--dialect", Sims.dialect(), "--out",

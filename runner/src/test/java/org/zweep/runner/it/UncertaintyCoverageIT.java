@@ -40,10 +40,11 @@ class UncertaintyCoverageIT {
     Path dir;
 
     private static final String ACCURACY_DIALECT = """
-            [accuracy]
-            distribution = normal-k2
-            band-low  = 10 .. 2e7 Hz; 0.05 .. 0.15 V; 0 s; 0.5 %; 2e-3 ohm; 2e-9 S; phase 0.004 rad
-            band-high = 10 .. 2e7 Hz; 0.3 .. 2 V; 0 s; 0.2 %; 1e-3 ohm; 1e-9 S; phase 0.002 rad
+            accuracy:
+              distribution: normal-k2
+              bands:
+                low: 10 .. 2e7 Hz; 0.05 .. 0.15 V; 0 s; 0.5 %; 2e-3 ohm; 2e-9 S; phase 0.004 rad
+                high: 10 .. 2e7 Hz; 0.3 .. 2 V; 0 s; 0.2 %; 1e-3 ohm; 1e-9 S; phase 0.002 rad
             """;
 
     private static final String ACCURACY_BENCH = """
@@ -105,10 +106,10 @@ class UncertaintyCoverageIT {
 
     private Path dialect() throws Exception {
         String standard;
-        try (InputStream in = Dialect.class.getResourceAsStream("standard.dialect")) {
+        try (InputStream in = Dialect.class.getResourceAsStream("standard.yaml")) {
             standard = new String(in.readAllBytes(), StandardCharsets.UTF_8);
         }
-        Path p = dir.resolve("stated.dialect");
+        Path p = dir.resolve("stated.yaml");
         Files.writeString(p, standard + "\n" + ACCURACY_DIALECT);
         return p;
     }

@@ -19,8 +19,8 @@ class PointsCsvTest {
 
     @Test
     void headerListsTheRunFolderContractColumnsInOrder() {
-        // RUNFOLDER.md column table (the contract with the analysis reader)
-        assertEquals("point,step,step_index,repeat,quantity,wiring,frequency_hz,drive,level,bias_mode,bias,r_ohm,x_ohm,"
+        // README "formats-runner" column table (the contract with the analysis reader)
+        assertEquals("point,step,step_index,repeat,quantity,wiring,frequency_hz,drive_mode,level,bias_mode,bias,r_ohm,x_ohm,"
                 + "z_ohm,theta_deg,cs_f,cp_f,ls_h,lp_h,rs_ohm,rp_ohm,d,q,ratio,status,check,time,"
                 + "u_r_ohm,u_x_ohm,r_rx,u_z_ohm,u_theta_deg,u_cs_f,u_cp_f,u_ls_h,u_lp_h,u_rs_ohm,u_rp_ohm,u_d,u_q",
                 PointsCsv.HEADER);
@@ -66,6 +66,13 @@ class PointsCsvTest {
         String line = PointsCsv.format(r);
         assertTrue(line.startsWith("3,\"bias, \"\"hot\"\" sweep\",0,"), line); // RFC 4180 §2 rules 6-7
         assertEquals(r.step(), PointsCsv.parse(line).step());
+    }
+
+    @Test
+    void folderHeaderBeforeTheDriveModeColumnWasRenamedIsStillAHeader() {
+        assertTrue(PointsCsv.isHeader(PointsCsv.HEADER));
+        assertTrue(PointsCsv.isHeader(PointsCsv.HEADER.replace(",drive_mode,", ",drive,")));
+        assertEquals(false, PointsCsv.isHeader(PointsCsv.HEADER.replace(",drive_mode,", ",drive_level,")));
     }
 
     @Test

@@ -73,10 +73,10 @@ public final class HislipServer implements AutoCloseable {
         ServerSocket s = new ServerSocket();
         try {
             s.setReuseAddress(true);
-            s.bind(new InetSocketAddress(options.bindAddress(), options.port()), 50);
+            s.bind(new InetSocketAddress(options.listener().bindAddress(), options.listener().port()), 50);
         } catch (IOException e) {
             s.close();
-            throw new IOException("cannot listen on " + options.bindAddress().getHostAddress() + ":" + options.port()
+            throw new IOException("cannot listen on " + options.listener().bindAddress().getHostAddress() + ":" + options.listener().port()
                     + " for HiSLIP: " + e.getMessage(), e);
         }
         listener = s;
@@ -141,7 +141,7 @@ public final class HislipServer implements AutoCloseable {
                 sessions.put(id, session);
                 Frame.write(out, INITIALIZE_RESPONSE, options.overlapped() ? 1 : 0, (SERVER_VERSION << 16) | id,
                         new byte[0], 0, 0);
-                options.log().accept("hislip: session " + id + " from " + peer);
+                options.listener().log().accept("hislip: session " + id + " from " + peer);
                 session.serveSync(in);
             } else if (first.type() == ASYNC_INITIALIZE) {
                 Session session = sessions.get(first.parameter() & 0xffff);
@@ -423,7 +423,7 @@ public final class HislipServer implements AutoCloseable {
             closeQuietly(asyncSocket);
             conn.close();
             probe.close();
-            options.log().accept("hislip: session " + id + " closed (" + why + ")");
+            options.listener().log().accept("hislip: session " + id + " closed (" + why + ")");
         }
     }
 

@@ -64,15 +64,15 @@ public final class Vxi11Server implements AutoCloseable {
         RpcListener c = null;
         RpcListener a = null;
         try {
-            c = new RpcListener("vxi11-core", options.bindAddress(), 0, CORE_PROGRAM, 1, new Core(),
-                    options.replyFragmentBytes(), maxRecord, options.log());
-            a = new RpcListener("vxi11-abort", options.bindAddress(), 0, ABORT_PROGRAM, 1, this::abortCall,
-                    options.replyFragmentBytes(), 1024, options.log());
+            c = new RpcListener("vxi11-core", options.portmapper().bindAddress(), 0, CORE_PROGRAM, 1, new Core(),
+                    options.replyFragmentBytes(), maxRecord, options.portmapper().log());
+            a = new RpcListener("vxi11-abort", options.portmapper().bindAddress(), 0, ABORT_PROGRAM, 1, this::abortCall,
+                    options.replyFragmentBytes(), 1024, options.portmapper().log());
             int corePort = c.port();
             int abortPort = a.port();
-            this.portmapper = new RpcListener("portmapper", options.bindAddress(), options.portmapperPort(),
+            this.portmapper = new RpcListener("portmapper", options.portmapper().bindAddress(), options.portmapper().port(),
                     PORTMAPPER_PROGRAM, 2, (proc, args, ch) -> portmap(proc, args, corePort, abortPort),
-                    options.replyFragmentBytes(), 1024, options.log());
+                    options.replyFragmentBytes(), 1024, options.portmapper().log());
         } catch (IOException e) {
             if (c != null) {
                 c.close();
@@ -282,7 +282,7 @@ public final class Vxi11Server implements AutoCloseable {
             long lockTimeout = args.uint32();
             String device = args.string(256);
             if (!device.equalsIgnoreCase("inst0")) {
-                options.log().accept("vxi11: create_link to unknown device '" + device + "' refused");
+                options.portmapper().log().accept("vxi11: create_link to unknown device '" + device + "' refused");
                 return new XdrOut().int32(ERR_NOT_ACCESSIBLE).int32(0).int32(abort.port())
                         .int32(options.maxReceiveBytes()).bytes();
             }
@@ -303,7 +303,7 @@ public final class Vxi11Server implements AutoCloseable {
                             .bytes();
                 }
             }
-            options.log().accept("vxi11: link " + link.id + " to " + device + " from " + channel.peer);
+            options.portmapper().log().accept("vxi11: link " + link.id + " to " + device + " from " + channel.peer);
             return new XdrOut().int32(0).int32(link.id).int32(abort.port()).int32(options.maxReceiveBytes()).bytes();
         }
 

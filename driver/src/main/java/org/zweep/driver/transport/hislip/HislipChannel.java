@@ -1,13 +1,10 @@
 package org.zweep.driver.transport.hislip;
 
-import java.io.EOFException;
 import java.io.IOException;
-import java.io.InputStream;
-import java.io.OutputStream;
 import java.net.InetSocketAddress;
-import java.net.Socket;
-import java.net.SocketTimeoutException;
 import java.time.Duration;
+import org.zweep.driver.transport.Deadline;
+import org.zweep.driver.transport.TimedSocket;
 
 /**
  * One HiSLIP TCP connection (IVI-6.1 §2): messages of a 16-byte header (prologue {@code HS},
@@ -22,33 +19,17 @@ final class HislipChannel implements AutoCloseable {
     record Header(int type, int control, int parameter, long length) {
     }
 
-    private final Socket socket;
-    private final InputStream in;
-    private final OutputStream out;
-    private final long replySpinNanos;
+    private final TimedSocket socket;
     private final byte[] header = new byte[HEADER_BYTES];
     private int headerGot;
-    private int soTimeoutMillis = -1;
 
-    private HislipChannel(Socket socket, Duration replySpin) throws IOException {
+    private HislipChannel(TimedSocket socket) {
         this.socket = socket;
-        this.in = socket.getInputStream();
-        this.out = socket.getOutputStream();
-        this.replySpinNanos = replySpin.toNanos();
     }
 
     static HislipChannel connect(InetSocketAddress target, Duration connectTimeout, Duration replySpin)
             throws IOException {
-        Socket s = new Socket();
-        try {
-            s.setTcpNoDelay(true);
-            s.setKeepAlive(true);
-            s.connect(target, (int) Math.max(1, Math.min(Integer.MAX_VALUE, connectTimeout.toMillis())));
-            return new HislipChannel(s, replySpin);
-        } catch (IOException | RuntimeException e) {
-            s.close();
-            throw e;
-        }
+        return new HislipChannel(TimedSocket.connect(target, connectTimeout, replySpin));
     }
 
     /** Sends one message, header and payload in one write. */
@@ -66,8 +47,7 @@ final class HislipChannel implements AutoCloseable {
             m[8 + i] = (byte) ((long) length >>> (56 - 8 * i));
         }
         System.arraycopy(payload, offset, m, HEADER_BYTES, length);
-        out.write(m);
-        out.flush();
+        socket.write(m, 0, m.length);
     }
 
     void send(int type, int control, int parameter) throws IOException {
@@ -80,9 +60,9 @@ final class HislipChannel implements AutoCloseable {
      * @throws HislipException if the prologue is not {@code HS}
      */
     Header readHeader(long timeoutMillis) throws IOException {
-        long deadline = System.nanoTime() + Math.max(1, timeoutMillis) * 1_000_000L;
+        Deadline deadline = Deadline.after(timeoutMillis);
         while (headerGot < HEADER_BYTES) {
-            int n = readSome(header, headerGot, HEADER_BYTES - headerGot, deadline);
+            int n = socket.readSome(header, headerGot, HEADER_BYTES - headerGot, deadline);
             if (n == 0) {
                 return null;
             }
@@ -104,16 +84,16 @@ final class HislipChannel implements AutoCloseable {
 
     /** Reads payload bytes, at least one unless the time runs out (then 0). */
     int readPayload(byte[] into, int offset, int length, long timeoutMillis) throws IOException {
-        return readSome(into, offset, length, System.nanoTime() + Math.max(1, timeoutMillis) * 1_000_000L);
+        return socket.readSome(into, offset, length, Deadline.after(timeoutMillis));
     }
 
     /** A whole (small) payload, or null when it did not come in time. */
     byte[] readAll(long length, long timeoutMillis) throws IOException {
         byte[] b = new byte[(int) length];
-        long deadline = System.nanoTime() + Math.max(1, timeoutMillis) * 1_000_000L;
+        Deadline deadline = Deadline.after(timeoutMillis);
         int got = 0;
         while (got < b.length) {
-            int n = readSome(b, got, b.length - got, deadline);
+            int n = socket.readSome(b, got, b.length - got, deadline);
             if (n == 0) {
                 return null;
             }
@@ -122,38 +102,9 @@ final class HislipChannel implements AutoCloseable {
         return b;
     }
 
-    private int readSome(byte[] into, int offset, int length, long deadline) throws IOException {
-        long spinEnd = System.nanoTime() + replySpinNanos;
-        while (replySpinNanos > 0 && in.available() == 0 && System.nanoTime() - spinEnd < 0) {
-            Thread.onSpinWait();
-        }
-        long left = deadline - System.nanoTime();
-        if (left <= 0 && in.available() == 0) {
-            return 0;
-        }
-        int t = (int) Math.max(1, Math.min(Integer.MAX_VALUE, (left + 999_999) / 1_000_000));
-        if (t != soTimeoutMillis) {
-            socket.setSoTimeout(t);
-            soTimeoutMillis = t;
-        }
-        try {
-            int n = in.read(into, offset, length);
-            if (n < 0) {
-                throw new EOFException("the server closed the connection");
-            }
-            return n;
-        } catch (SocketTimeoutException e) {
-            return 0;
-        }
-    }
-
     @Override
     public void close() {
-        try {
-            socket.close();
-        } catch (IOException e) {
-            // closing is best effort
-        }
+        socket.close();
     }
 
     /** The peer broke the HiSLIP protocol. */

@@ -8,6 +8,9 @@ import java.time.Duration;
 import org.zweep.driver.address.HislipAddress;
 import org.zweep.driver.transport.ConnectFailedException;
 import org.zweep.driver.transport.ConnectionLostException;
+import org.zweep.driver.transport.Deadline;
+import org.zweep.driver.transport.LinkState;
+import org.zweep.driver.transport.MessagePieces;
 import org.zweep.driver.transport.MeterTimeoutException;
 import org.zweep.driver.transport.Transport;
 import org.zweep.driver.transport.TransportOptions;
@@ -70,12 +73,12 @@ public final class HislipTransport implements Transport {
     private long payloadLeft;
     private boolean delivering;
     private boolean endOfMessage;
-    private ConnectionLostException broken;
-    private volatile boolean closed;
+    private final LinkState state;
 
     private HislipTransport(String name, HislipChannel sync, HislipChannel async, boolean overlapped, int sessionId,
             long serverMaxBytes, long asyncTimeoutMillis) {
         this.name = name;
+        this.state = new LinkState(name);
         this.sync = sync;
         this.async = async;
         this.overlapped = overlapped;
@@ -194,15 +197,12 @@ public final class HislipTransport implements Transport {
 
     @Override
     public void write(byte[] data, int offset, int length) {
-        usable("write");
+        state.check("write");
         try {
-            int done = 0;
-            do {
-                int piece = (int) Math.min(length - done, serverMaxBytes);
-                boolean last = done + piece == length;
-                sendOnSync(last ? DATA_END : DATA, data, offset + done, piece);
-                done += piece;
-            } while (done < length);
+            MessagePieces.send(length, serverMaxBytes, (from, piece, last) -> {
+                sendOnSync(last ? DATA_END : DATA, data, offset + from, piece);
+                return piece;
+            });
         } catch (IOException e) {
             throw fail("link broke while sending: " + e.getMessage());
         }
@@ -219,11 +219,11 @@ public final class HislipTransport implements Transport {
 
     @Override
     public int read(byte[] buffer, int offset, int length, long timeoutMillis) {
-        usable("read");
-        long deadline = System.nanoTime() + Math.max(1, timeoutMillis) * 1_000_000L;
+        state.check("read");
+        Deadline deadline = Deadline.after(timeoutMillis);
         try {
             while (true) {
-                long left = Math.max(1, (deadline - System.nanoTime() + 999_999L) / 1_000_000L);
+                long left = deadline.millisLeftRoundedUp();
                 if (payloadLeft > 0) {
                     byte[] into = delivering ? buffer : new byte[(int) Math.min(payloadLeft, 8192)];
                     int off = delivering ? offset : 0;
@@ -241,7 +241,7 @@ public final class HislipTransport implements Transport {
                     }
                     continue;
                 }
-                if (System.nanoTime() - deadline >= 0) {
+                if (deadline.passed()) {
                     return 0;
                 }
                 HislipChannel.Header h = sync.readHeader(left);
@@ -283,14 +283,14 @@ public final class HislipTransport implements Transport {
      * @throws MeterTimeoutException if the server does not acknowledge within the write timeout
      */
     public void clear() {
-        usable("clear");
+        state.check("clear");
         try {
             async.send(ASYNC_DEVICE_CLEAR, 0, 0);
             HislipChannel.Header ack = asyncReply(ASYNC_DEVICE_CLEAR_ACKNOWLEDGE, "device clear");
             sync.send(DEVICE_CLEAR_COMPLETE, ack.control(), 0);
-            long deadline = System.nanoTime() + asyncTimeoutMillis * 1_000_000L;
+            Deadline deadline = Deadline.after(asyncTimeoutMillis);
             while (true) {
-                long left = (deadline - System.nanoTime()) / 1_000_000L;
+                long left = deadline.millisLeft();
                 if (payloadLeft > 0) {
                     int n = left <= 0 ? 0 : sync.readPayload(new byte[(int) Math.min(payloadLeft, 8192)], 0,
                             (int) Math.min(payloadLeft, 8192), left);
@@ -321,7 +321,7 @@ public final class HislipTransport implements Transport {
 
     /** The status byte (AsyncStatusQuery), 0 to 255. Blocks up to the write timeout. */
     public int readStatusByte() {
-        usable("read the status byte");
+        state.check("read the status byte");
         try {
             async.send(ASYNC_STATUS_QUERY, rmtDelivered ? 1 : 0, lastSentId);
             return asyncReply(ASYNC_STATUS_RESPONSE, "status query").control();
@@ -332,7 +332,7 @@ public final class HislipTransport implements Transport {
 
     /** Trigger (the Trigger message on the synchronous channel, the same as GET / {@code *TRG}). */
     public void trigger() {
-        usable("trigger");
+        state.check("trigger");
         try {
             sendOnSync(TRIGGER, new byte[0], 0, 0);
         } catch (IOException e) {
@@ -347,7 +347,7 @@ public final class HislipTransport implements Transport {
      * @throws MeterTimeoutException if the lock was not granted within {@code lockTimeout}
      */
     public void lock(Duration lockTimeout) {
-        usable("lock");
+        state.check("lock");
         long ms = Math.max(0, Math.min(0xffff_ffffL, lockTimeout.toMillis()));
         try {
             async.send(ASYNC_LOCK, 1, (int) ms);
@@ -371,7 +371,7 @@ public final class HislipTransport implements Transport {
      * @return false if this session held no lock
      */
     public boolean unlock() {
-        usable("unlock");
+        state.check("unlock");
         try {
             async.send(ASYNC_LOCK, 0, lastSentId);
             return asyncReply(ASYNC_LOCK_RESPONSE, "lock release").control() == 1;
@@ -386,9 +386,9 @@ public final class HislipTransport implements Transport {
 
     /** The next asynchronous reply of {@code type}, skipping service requests. */
     private HislipChannel.Header asyncReply(int type, String what, long timeoutMillis) throws IOException {
-        long deadline = System.nanoTime() + timeoutMillis * 1_000_000L;
+        Deadline deadline = Deadline.after(timeoutMillis);
         while (true) {
-            long left = (deadline - System.nanoTime()) / 1_000_000L;
+            long left = deadline.millisLeft();
             HislipChannel.Header h = left <= 0 ? null : async.readHeader(left);
             if (h == null) {
                 throw new MeterTimeoutException(name + ": no answer to the " + what + " within " + timeoutMillis
@@ -429,17 +429,8 @@ public final class HislipTransport implements Transport {
         return "HiSLIP " + kind + " " + code + " (" + meaning + ")" + t;
     }
 
-    private void usable(String what) {
-        if (closed) {
-            throw new ConnectionLostException(name + ": cannot " + what + ", the connection is closed");
-        }
-        if (broken != null) {
-            throw new ConnectionLostException(broken.getMessage(), broken);
-        }
-    }
-
     private ConnectionLostException fail(String why) {
-        broken = new ConnectionLostException(name + ": " + why);
+        ConnectionLostException broken = state.broke(why);
         sync.close();
         async.close();
         return broken;
@@ -448,7 +439,7 @@ public final class HislipTransport implements Transport {
     /** Closes both channels; never throws. */
     @Override
     public void close() {
-        closed = true;
+        state.close();
         sync.close();
         async.close();
     }

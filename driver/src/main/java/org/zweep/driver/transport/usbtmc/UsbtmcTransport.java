@@ -1,10 +1,14 @@
 package org.zweep.driver.transport.usbtmc;
 
 import java.nio.file.Path;
+import java.util.Arrays;
 import org.zweep.driver.MeterException;
 import org.zweep.driver.address.UsbtmcAddress;
 import org.zweep.driver.transport.ConnectFailedException;
 import org.zweep.driver.transport.ConnectionLostException;
+import org.zweep.driver.transport.Deadline;
+import org.zweep.driver.transport.LinkState;
+import org.zweep.driver.transport.MessagePieces;
 import org.zweep.driver.transport.MeterTimeoutException;
 import org.zweep.driver.transport.Transport;
 import org.zweep.driver.transport.TransportOptions;
@@ -37,12 +41,12 @@ public final class UsbtmcTransport implements Transport {
     private final int writeTimeoutMillis;
     private final byte[] chunk = new byte[CHUNK];
     private int kernelTimeoutMillis = -1;
-    private ConnectionLostException broken;
-    private volatile boolean closed;
+    private final LinkState state;
 
     private UsbtmcTransport(String name, String path, LinuxNode node, boolean kernelTimeouts, int writeTimeoutMillis,
             int kernelTimeoutMillis) {
         this.name = name;
+        this.state = new LinkState(name);
         this.path = path;
         this.node = node;
         this.kernelTimeouts = kernelTimeouts;
@@ -116,20 +120,22 @@ public final class UsbtmcTransport implements Transport {
 
     @Override
     public void write(byte[] data, int offset, int length) {
-        usable("write");
-        byte[] message = offset == 0 && length == data.length ? data : java.util.Arrays.copyOfRange(data, offset,
-                offset + length);
+        state.check("write");
+        if (length == 0) {
+            return;
+        }
         try {
             setKernelTimeout(writeTimeoutMillis);
-            int done = 0;
-            while (done < length) {
-                byte[] rest = done == 0 ? message : java.util.Arrays.copyOfRange(message, done, length);
-                int n = node.write(rest, length - done);
+            // the driver frames one write as one message: no piece limit, only what the device did not take again
+            MessagePieces.send(length, Long.MAX_VALUE, (from, piece, last) -> {
+                byte[] rest = offset + from == 0 && piece == data.length ? data
+                        : Arrays.copyOfRange(data, offset + from, offset + from + piece);
+                int n = node.write(rest, piece);
                 if (n <= 0) {
                     throw fail("the device took no bytes of a " + length + "-byte message");
                 }
-                done += n;
-            }
+                return Math.min(n, piece);
+            });
         } catch (LinuxNode.Errno e) {
             if (e.errno == LinuxNode.ETIMEDOUT) {
                 throw new MeterTimeoutException(name + ": the device did not take the message within "
@@ -141,17 +147,17 @@ public final class UsbtmcTransport implements Transport {
 
     @Override
     public int read(byte[] buffer, int offset, int length, long timeoutMillis) {
-        usable("read");
+        state.check("read");
         int t = (int) Math.max(1, Math.min(Integer.MAX_VALUE, timeoutMillis));
         int want = Math.min(length, CHUNK);
         try {
             int n;
             if (kernelTimeouts) {
                 setKernelTimeout(Math.max(MIN_KERNEL_TIMEOUT_MILLIS, t));
-                long deadline = System.nanoTime() + t * 1_000_000L;
+                Deadline deadline = Deadline.after(t);
                 do {
                     n = node.read(chunk, want); // 0: an empty message; ask again while time is left
-                } while (n == 0 && System.nanoTime() - deadline < 0);
+                } while (n == 0 && !deadline.passed());
             } else {
                 if (!node.awaitReadable(t)) {
                     return 0;
@@ -188,7 +194,7 @@ public final class UsbtmcTransport implements Transport {
 
     /** The status byte through USB488 READ_STATUS_BYTE ({@code USBTMC488_IOCTL_READ_STB}), 0 to 255. */
     public int readStatusByte() {
-        usable("read the status byte");
+        state.check("read the status byte");
         requireKernel("reading the status byte");
         try {
             return node.ioctlReadByte("USBTMC488_IOCTL_READ_STB", LinuxNode.USBTMC488_IOCTL_READ_STB);
@@ -198,7 +204,7 @@ public final class UsbtmcTransport implements Transport {
     }
 
     private void ioctl(String what, long request) {
-        usable(what);
+        state.check(what);
         requireKernel(what);
         try {
             node.ioctl(what, request);
@@ -235,23 +241,13 @@ public final class UsbtmcTransport implements Transport {
         };
     }
 
-    private void usable(String what) {
-        if (closed) {
-            throw new ConnectionLostException(name + ": cannot " + what + ", the connection is closed");
-        }
-        if (broken != null) {
-            throw new ConnectionLostException(broken.getMessage(), broken);
-        }
-    }
-
     private ConnectionLostException fail(String why) {
-        broken = new ConnectionLostException(name + ": " + why);
-        return broken;
+        return state.broke(why);
     }
 
     @Override
     public void close() {
-        closed = true;
+        state.close();
         node.close();
     }
 }

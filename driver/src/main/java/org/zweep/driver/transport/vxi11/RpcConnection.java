@@ -1,13 +1,12 @@
 package org.zweep.driver.transport.vxi11;
 
 import java.io.IOException;
-import java.io.InputStream;
-import java.io.OutputStream;
 import java.net.InetSocketAddress;
-import java.net.Socket;
 import java.net.SocketTimeoutException;
 import java.time.Duration;
 import java.util.Arrays;
+import org.zweep.driver.transport.Deadline;
+import org.zweep.driver.transport.TimedSocket;
 
 /**
  * An ONC RPC version 2 client over one TCP connection (RFC 5531): calls with AUTH_NONE, replies
@@ -26,13 +25,9 @@ final class RpcConnection implements AutoCloseable {
     private static final int MAX_AUTH_BYTES = 400;
     private static final int LAST_FRAGMENT = 0x8000_0000;
 
-    private final Socket socket;
-    private final InputStream in;
-    private final OutputStream out;
+    private final TimedSocket socket;
     private final int maxRecordBytes;
-    private final long replySpinNanos;
     private int nextXid;
-    private int soTimeoutMillis = -1;
     // the record being received; kept across timeouts
     private final byte[] header = new byte[4];
     private int headerGot;
@@ -41,12 +36,9 @@ final class RpcConnection implements AutoCloseable {
     private byte[] record = new byte[256];
     private int recordLength;
 
-    private RpcConnection(Socket socket, int maxRecordBytes, Duration replySpin) throws IOException {
+    private RpcConnection(TimedSocket socket, int maxRecordBytes) {
         this.socket = socket;
-        this.in = socket.getInputStream();
-        this.out = socket.getOutputStream();
         this.maxRecordBytes = maxRecordBytes;
-        this.replySpinNanos = replySpin.toNanos();
         this.nextXid = (int) System.nanoTime();
     }
 
@@ -58,16 +50,7 @@ final class RpcConnection implements AutoCloseable {
      */
     static RpcConnection connect(InetSocketAddress target, Duration connectTimeout, int maxRecordBytes,
             Duration replySpin) throws IOException {
-        Socket s = new Socket();
-        try {
-            s.setTcpNoDelay(true);
-            s.setKeepAlive(true);
-            s.connect(target, (int) Math.max(1, Math.min(Integer.MAX_VALUE, connectTimeout.toMillis())));
-            return new RpcConnection(s, maxRecordBytes, replySpin);
-        } catch (IOException | RuntimeException e) {
-            s.close();
-            throw e;
-        }
+        return new RpcConnection(TimedSocket.connect(target, connectTimeout, replySpin), maxRecordBytes);
     }
 
     /** Sends a call as one record in one fragment; returns its transaction id. */
@@ -85,8 +68,7 @@ final class RpcConnection implements AutoCloseable {
         message[1] = (byte) (body >>> 16);
         message[2] = (byte) (body >>> 8);
         message[3] = (byte) body;
-        out.write(message);
-        out.flush();
+        socket.write(message, 0, message.length);
         return xid;
     }
 
@@ -99,7 +81,7 @@ final class RpcConnection implements AutoCloseable {
      * @throws IOException if the connection broke or the server closed it
      */
     XdrDecoder awaitReply(int xid, long timeoutMillis) throws IOException {
-        long deadline = System.nanoTime() + Math.max(1, timeoutMillis) * 1_000_000L;
+        Deadline deadline = Deadline.after(timeoutMillis);
         while (true) {
             if (!receiveRecord(deadline)) {
                 return null;
@@ -151,11 +133,11 @@ final class RpcConnection implements AutoCloseable {
     }
 
     /** Reads fragments until a record is complete; false at the deadline (progress is kept). */
-    private boolean receiveRecord(long deadline) throws IOException {
+    private boolean receiveRecord(Deadline deadline) throws IOException {
         while (true) {
             if (fragmentLeft < 0) {
                 while (headerGot < 4) {
-                    int n = readSome(header, headerGot, 4 - headerGot, deadline);
+                    int n = socket.readSome(header, headerGot, 4 - headerGot, deadline);
                     if (n == 0) {
                         return false;
                     }
@@ -175,7 +157,7 @@ final class RpcConnection implements AutoCloseable {
                 }
             }
             while (fragmentLeft > 0) {
-                int n = readSome(record, recordLength, (int) fragmentLeft, deadline);
+                int n = socket.readSome(record, recordLength, (int) fragmentLeft, deadline);
                 if (n == 0) {
                     return false;
                 }
@@ -189,39 +171,9 @@ final class RpcConnection implements AutoCloseable {
         }
     }
 
-    /** Reads at least one byte, or returns 0 at the deadline. */
-    private int readSome(byte[] into, int offset, int length, long deadline) throws IOException {
-        long spinEnd = System.nanoTime() + replySpinNanos;
-        while (replySpinNanos > 0 && in.available() == 0 && System.nanoTime() - spinEnd < 0) {
-            Thread.onSpinWait();
-        }
-        long left = deadline - System.nanoTime();
-        if (left <= 0 && in.available() == 0) {
-            return 0;
-        }
-        int t = (int) Math.max(1, Math.min(Integer.MAX_VALUE, (left + 999_999) / 1_000_000));
-        if (t != soTimeoutMillis) {
-            socket.setSoTimeout(t);
-            soTimeoutMillis = t;
-        }
-        try {
-            int n = in.read(into, offset, length);
-            if (n < 0) {
-                throw new java.io.EOFException("the server closed the connection");
-            }
-            return n;
-        } catch (SocketTimeoutException e) {
-            return 0;
-        }
-    }
-
     @Override
     public void close() {
-        try {
-            socket.close();
-        } catch (IOException e) {
-            // closing is best effort: the connection is being abandoned
-        }
+        socket.close();
     }
 
     /** The server refused a call or broke the RPC protocol. */

@@ -9,6 +9,9 @@ import java.util.concurrent.locks.ReentrantLock;
 import org.zweep.driver.address.Vxi11Address;
 import org.zweep.driver.transport.ConnectFailedException;
 import org.zweep.driver.transport.ConnectionLostException;
+import org.zweep.driver.transport.Deadline;
+import org.zweep.driver.transport.LinkState;
+import org.zweep.driver.transport.MessagePieces;
 import org.zweep.driver.transport.MeterTimeoutException;
 import org.zweep.driver.transport.Transport;
 import org.zweep.driver.transport.TransportOptions;
@@ -73,12 +76,12 @@ public final class Vxi11Transport implements Transport {
     private final ReentrantLock busy = new ReentrantLock();
     private byte[] pending = new byte[0];
     private int pendingPos;
-    private ConnectionLostException broken;
-    private volatile boolean closed;
+    private final LinkState state;
 
     private Vxi11Transport(String name, RpcConnection core, InetSocketAddress host, int link, int abortPort,
             long serverMaxReceive, int readBytes, TransportOptions options) {
         this.name = name;
+        this.state = new LinkState(name);
         this.core = core;
         this.host = host;
         this.link = link;
@@ -195,14 +198,11 @@ public final class Vxi11Transport implements Transport {
     public void write(byte[] data, int offset, int length) {
         busy.lock();
         try {
-            usable("write");
-            int done = 0;
-            do {
-                int piece = (int) Math.min(length - done, serverMaxReceive);
-                boolean last = done + piece == length;
+            state.check("write");
+            MessagePieces.send(length, serverMaxReceive, (from, piece, last) -> {
                 XdrEncoder args = new XdrEncoder().putInt(link).putInt((int) writeTimeoutMillis)
                         .putInt((int) writeTimeoutMillis).putInt(FLAG_WAITLOCK | (last ? FLAG_END : 0))
-                        .putOpaque(data, offset + done, piece);
+                        .putOpaque(data, offset + from, piece);
                 XdrDecoder r = call(DEVICE_WRITE, args, writeTimeoutMillis, "device_write");
                 if (r == null) {
                     throw new MeterTimeoutException(name + ": the VXI-11 server did not answer device_write within "
@@ -220,11 +220,11 @@ public final class Vxi11Transport implements Transport {
                 if (accepted > piece) {
                     throw fail("device_write: the server claims " + accepted + " bytes of a " + piece + "-byte piece");
                 }
-                done += (int) accepted;
                 if (accepted == 0 && piece > 0) {
                     throw fail("device_write: the server accepted none of a " + piece + "-byte piece");
                 }
-            } while (done < length);
+                return (int) accepted;
+            });
         } catch (XdrDecoder.XdrException e) {
             throw fail("malformed device_write reply: " + e.getMessage());
         } finally {
@@ -239,9 +239,9 @@ public final class Vxi11Transport implements Transport {
         }
         busy.lock();
         try {
-            usable("read");
+            state.check("read");
             long t = Math.max(1, timeoutMillis);
-            long deadline = System.nanoTime() + t * 1_000_000L;
+            Deadline deadline = Deadline.after(t);
             while (true) {
                 XdrEncoder args = new XdrEncoder().putInt(link).putInt(readBytes).putInt((int) t).putInt((int) t)
                         .putInt(FLAG_WAITLOCK).putInt(0);
@@ -262,7 +262,7 @@ public final class Vxi11Transport implements Transport {
                 }
                 // an empty message, or the device had nothing in time (error 15), was locked by another
                 // link beyond the lock timeout (11) or the read was aborted (23)
-                t = (deadline - System.nanoTime()) / 1_000_000L;
+                t = deadline.millisLeft();
                 if (error != 0 || t <= 0) {
                     return 0;
                 }
@@ -314,7 +314,7 @@ public final class Vxi11Transport implements Transport {
         long ms = Math.max(0, lockTimeout.toMillis());
         busy.lock();
         try {
-            usable("lock");
+            state.check("lock");
             XdrDecoder r = call(DEVICE_LOCK, new XdrEncoder().putInt(link).putInt(FLAG_WAITLOCK).putInt((int) ms),
                     ms, "device_lock");
             int error = r == null ? ERR_TIMEOUT : r.getInt();
@@ -338,7 +338,7 @@ public final class Vxi11Transport implements Transport {
     public boolean unlock() {
         busy.lock();
         try {
-            usable("unlock");
+            state.check("unlock");
             XdrDecoder r = call(DEVICE_UNLOCK, new XdrEncoder().putInt(link), writeTimeoutMillis, "device_unlock");
             int error = r == null ? ERR_TIMEOUT : r.getInt();
             if (error == ERR_NO_LOCK) {
@@ -386,7 +386,7 @@ public final class Vxi11Transport implements Transport {
     private XdrDecoder genericCall(int procedure, String what) {
         busy.lock();
         try {
-            usable(what);
+            state.check(what);
             XdrEncoder args = new XdrEncoder().putInt(link).putInt(FLAG_WAITLOCK).putInt((int) writeTimeoutMillis)
                     .putInt((int) writeTimeoutMillis);
             XdrDecoder r = call(procedure, args, writeTimeoutMillis, what);
@@ -414,25 +414,16 @@ public final class Vxi11Transport implements Transport {
         } catch (RpcConnection.RpcException e) {
             throw fail(what + ": " + e.getMessage());
         } catch (IOException e) {
-            if (closed) {
+            if (state.closed()) {
                 throw new ConnectionLostException(name + ": the connection is closed");
             }
             throw fail("link broke during " + what + ": " + (e.getMessage() == null ? e.toString() : e.getMessage()));
         }
     }
 
-    private void usable(String what) {
-        if (closed) {
-            throw new ConnectionLostException(name + ": cannot " + what + ", the connection is closed");
-        }
-        if (broken != null) {
-            throw new ConnectionLostException(broken.getMessage(), broken);
-        }
-    }
-
     /** The link is unusable from now on: close it and say why. */
     private ConnectionLostException fail(String why) {
-        broken = new ConnectionLostException(name + ": " + why);
+        ConnectionLostException broken = state.broke(why);
         core.close();
         return broken;
     }
@@ -440,11 +431,11 @@ public final class Vxi11Transport implements Transport {
     /** Destroys the link (waiting at most half a second for the server) and closes the connection; never throws. */
     @Override
     public void close() {
-        if (closed) {
+        if (state.closed()) {
             return;
         }
         // a caller blocked in a read (close from another thread) is released by closing the socket
-        if (broken == null && busy.tryLock()) {
+        if (!state.broken() && busy.tryLock()) {
             try {
                 core.awaitReply(core.send(CORE_PROGRAM, CORE_VERSION, DESTROY_LINK, new XdrEncoder().putInt(link)),
                         CLOSE_WAIT_MILLIS);
@@ -454,7 +445,7 @@ public final class Vxi11Transport implements Transport {
                 busy.unlock();
             }
         }
-        closed = true;
+        state.close();
         core.close();
     }
 

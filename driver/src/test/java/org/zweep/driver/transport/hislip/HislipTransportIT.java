@@ -6,7 +6,6 @@ import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.io.IOException;
-import java.nio.charset.StandardCharsets;
 import java.time.Duration;
 import java.util.List;
 import org.junit.jupiter.api.AfterEach;
@@ -20,14 +19,10 @@ import org.zweep.driver.scpi.ScpiSettings;
 import org.zweep.driver.transport.ConnectFailedException;
 import org.zweep.driver.transport.MeterTimeoutException;
 import org.zweep.driver.transport.TransportOptions;
-import org.zweep.simulator.bench.BenchSpec;
-import org.zweep.simulator.bench.SimulatedBench;
+import org.zweep.driver.transport.LanTestMeter;
 import org.zweep.simulator.hislip.HislipOptions;
 import org.zweep.simulator.hislip.HislipServer;
 import org.zweep.simulator.scpi.Instrument;
-import org.zweep.simulator.scpi.InstrumentOptions;
-import org.zweep.simulator.scpi.TimingModel;
-import org.zweep.simulator.server.ServerOptions;
 import org.zweep.simulator.server.SimulatorServer;
 
 /**
@@ -36,15 +31,13 @@ import org.zweep.simulator.server.SimulatorServer;
  * locks and the ways connecting fails.
  */
 class HislipTransportIT {
-    private static final BenchSpec R = BenchSpec.ofNetlist("R1 hi lo 220", "test").ideal();
     private static final TransportOptions OPTIONS = TransportOptions.DEFAULT;
 
     private SimulatorServer meter;
     private HislipServer server;
 
     private HislipAddress start(HislipOptions options) throws IOException {
-        meter = SimulatorServer.start(new SimulatedBench(R), ServerOptions.defaults().withPort(0)
-                .withInstrument(InstrumentOptions.defaults().withTiming(TimingModel.NONE)));
+        meter = LanTestMeter.start();
         server = HislipServer.start(meter, options);
         return (HislipAddress) Address.parse("TCPIP::127.0.0.1::hislip0," + server.port() + "::INSTR");
     }
@@ -60,21 +53,11 @@ class HislipTransportIT {
     }
 
     private static void send(HislipTransport t, String message) {
-        byte[] b = message.getBytes(StandardCharsets.ISO_8859_1);
-        t.write(b, 0, b.length);
+        LanTestMeter.send(t, message);
     }
 
     private static String readMessage(HislipTransport t) {
-        StringBuilder sb = new StringBuilder();
-        byte[] buf = new byte[256];
-        while (sb.indexOf("\n") < 0) {
-            int n = t.read(buf, 0, buf.length, 5000);
-            if (n == 0) {
-                throw new AssertionError("no reply within 5 s, got '" + sb + "'");
-            }
-            sb.append(new String(buf, 0, n, StandardCharsets.ISO_8859_1));
-        }
-        return sb.toString();
+        return LanTestMeter.readLine(t, 5000);
     }
 
     @ParameterizedTest(name = "overlapped={0}")

@@ -7,7 +7,6 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.io.IOException;
 import java.net.ServerSocket;
-import java.nio.charset.StandardCharsets;
 import java.time.Duration;
 import java.util.concurrent.CompletableFuture;
 import java.util.concurrent.TimeUnit;
@@ -21,13 +20,9 @@ import org.zweep.driver.transport.ConnectFailedException;
 import org.zweep.driver.transport.ConnectionLostException;
 import org.zweep.driver.transport.MeterTimeoutException;
 import org.zweep.driver.transport.TransportOptions;
-import org.zweep.simulator.bench.BenchSpec;
-import org.zweep.simulator.bench.SimulatedBench;
 import org.zweep.simulator.scpi.Instrument;
-import org.zweep.simulator.scpi.InstrumentOptions;
-import org.zweep.simulator.scpi.TimingModel;
-import org.zweep.simulator.server.ServerOptions;
 import org.zweep.simulator.server.SimulatorServer;
+import org.zweep.driver.transport.LanTestMeter;
 import org.zweep.simulator.vxi11.Vxi11Options;
 import org.zweep.simulator.vxi11.Vxi11Server;
 
@@ -37,15 +32,13 @@ import org.zweep.simulator.vxi11.Vxi11Server;
  * device clear, the status byte and the ways connecting fails.
  */
 class Vxi11TransportIT {
-    private static final BenchSpec R = BenchSpec.ofNetlist("R1 hi lo 220", "test").ideal();
     private static final TransportOptions OPTIONS = TransportOptions.DEFAULT;
 
     private SimulatorServer meter;
     private Vxi11Server server;
 
     private Vxi11Address start(Vxi11Options options) throws IOException {
-        meter = SimulatorServer.start(new SimulatedBench(R), ServerOptions.defaults().withPort(0)
-                .withInstrument(InstrumentOptions.defaults().withTiming(TimingModel.NONE)));
+        meter = LanTestMeter.start();
         server = Vxi11Server.start(meter, options);
         return (Vxi11Address) Address.parse("vxi11://127.0.0.1:" + server.portmapperPort() + "/inst0");
     }
@@ -61,21 +54,11 @@ class Vxi11TransportIT {
     }
 
     private static String readMessage(Vxi11Transport t, long timeoutMillis) {
-        StringBuilder sb = new StringBuilder();
-        byte[] buf = new byte[256];
-        while (sb.indexOf("\n") < 0) {
-            int n = t.read(buf, 0, buf.length, timeoutMillis);
-            if (n == 0) {
-                throw new AssertionError("no reply within " + timeoutMillis + " ms, got '" + sb + "'");
-            }
-            sb.append(new String(buf, 0, n, StandardCharsets.ISO_8859_1));
-        }
-        return sb.toString();
+        return LanTestMeter.readLine(t, timeoutMillis);
     }
 
     private static void send(Vxi11Transport t, String message) {
-        byte[] b = message.getBytes(StandardCharsets.ISO_8859_1);
-        t.write(b, 0, b.length);
+        LanTestMeter.send(t, message);
     }
 
     @Test

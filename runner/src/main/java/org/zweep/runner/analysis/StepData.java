@@ -1,0 +1,140 @@
+package org.zweep.runner.analysis;
+
+import java.util.ArrayList;
+import java.util.HashSet;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.Set;
+import java.util.TreeMap;
+import java.util.function.Consumer;
+import org.zweep.runner.results.PointRow;
+
+/**
+ * What the analysis keeps of one step's rows: its sweeps (repeats averaged), the points without
+ * a value, the bias sweeps of the part's main value and the spread of repeated points. Made from
+ * the rows as they stream by ({@link #read}); a step's rows are folded into running sums and
+ * dropped, so a run is analysed in a heap that holds its sweeps, not its rows.
+ *
+ * @param name the step's name
+ * @param index the step's index
+ * @param sweeps the step's sweeps, in order of first appearance
+ * @param noValue the number of rows without a value
+ * @param derating per frequency, level, wiring and bias mode swept over two or more biases: the main
+ *     value's sum and count per bias
+ * @param repeats the points read more than once
+ */
+record StepData(String name, int index, List<Sweep> sweeps, long noValue,
+        Map<DeratingKey, TreeMap<Double, double[]>> derating, List<RepeatStats> repeats) {
+
+    /** The points of one bias sweep: same frequency, level, wiring and bias mode. */
+    record DeratingKey(double frequencyHz, double level, String wiring, String biasMode) {
+    }
+
+    /**
+     * The steps of {@code run} in step order, and what was skipped while reading, from one pass over
+     * {@code points.csv} (a second one only for steps whose rows are not together in the file).
+     *
+     * @param column the part's main column ({@code cs_f}, {@code ls_h}, {@code rs_ohm}); bias sweeps
+     *     are gathered for it unless it is {@code rs_ohm}
+     * @param everyRow also given every row, in file order, during the first pass
+     */
+    static Read read(RunData run, String column, Consumer<PointRow> everyRow) {
+        TreeMap<Integer, StepData> done = new TreeMap<>();
+        Set<Integer> scattered = new HashSet<>();
+        Collector[] current = {null};
+        List<String> notes = run.forEachRow(r -> {
+            everyRow.accept(r);
+            int i = r.stepIndex();
+            if (scattered.contains(i)) {
+                return;
+            }
+            if (current[0] != null && current[0].index == i) {
+                current[0].add(r);
+                return;
+            }
+            if (current[0] != null) {
+                done.put(current[0].index, current[0].finish());
+                current[0] = null;
+            }
+            if (done.remove(i) != null) {
+                scattered.add(i); // rows of this step come apart in the file: gathered again below
+                return;
+            }
+            current[0] = new Collector(r, column);
+            current[0].add(r);
+        });
+        if (current[0] != null) {
+            done.put(current[0].index, current[0].finish());
+        }
+        if (!scattered.isEmpty()) {
+            Map<Integer, Collector> again = new LinkedHashMap<>();
+            run.forEachRow(r -> {
+                if (scattered.contains(r.stepIndex())) {
+                    again.computeIfAbsent(r.stepIndex(), k -> new Collector(r, column)).add(r);
+                }
+            });
+            again.values().forEach(c -> done.put(c.index, c.finish()));
+        }
+        return new Read(List.copyOf(done.values()), notes);
+    }
+
+    /**
+     * The steps read and the notes of the reading.
+     *
+     * @param steps in step order
+     * @param notes what was skipped while reading, for people
+     */
+    record Read(List<StepData> steps, List<String> notes) {
+    }
+
+    /** The running sums of one step. */
+    private static final class Collector {
+        final String name;
+        final int index;
+        final String column;
+        final Sweep.Collector sweeps = new Sweep.Collector();
+        final RepeatStats.Collector repeats;
+        final Map<DeratingKey, TreeMap<Double, double[]>> derating = new LinkedHashMap<>();
+        long noValue;
+
+        Collector(PointRow first, String column) {
+            this.name = first.step();
+            this.index = first.stepIndex();
+            this.column = column;
+            this.repeats = new RepeatStats.Collector(List.of("r_ohm", "x_ohm", column));
+        }
+
+        void add(PointRow r) {
+            if (!"ok".equals(r.status())) {
+                noValue++;
+            }
+            sweeps.add(r);
+            repeats.add(r);
+            if (!"rs_ohm".equals(column) && r.okImpedance()) {
+                double[] acc = derating.computeIfAbsent(
+                        new DeratingKey(r.frequencyHz(), r.level(), r.wiring(), r.biasMode()), k -> new TreeMap<>())
+                        .computeIfAbsent(r.bias(), b -> new double[2]);
+                acc[0] += r.value(column);
+                acc[1]++;
+            }
+        }
+
+        StepData finish() {
+            Map<DeratingKey, TreeMap<Double, double[]>> biasSweeps = new LinkedHashMap<>();
+            derating.forEach((k, v) -> {
+                if (v.size() >= 2) {
+                    biasSweeps.put(k, v);
+                }
+            });
+            return new StepData(name, index, sweeps.sweeps(), noValue, biasSweeps, repeats.stats());
+        }
+    }
+
+    /** Every sweep of {@code steps}, in step order. */
+    static List<Sweep> sweepsOf(List<StepData> steps) {
+        List<Sweep> out = new ArrayList<>();
+        steps.forEach(s -> out.addAll(s.sweeps()));
+        return out;
+    }
+}
