@@ -9,6 +9,7 @@ import java.util.TreeMap;
 import org.zweep.driver.impedance.Impedance;
 import org.zweep.driver.uncertainty.UncertainImpedance;
 import org.zweep.runner.results.PointRow;
+import org.zweep.runner.text.Figures;
 
 /**
  * The impedance points of one step at one drive level, one DC bias and one wiring, repeats
@@ -182,6 +183,27 @@ public record Sweep(String step, int stepIndex, String wiring, String drive, dou
         return out.isEmpty() ? "step" : out;
     }
 
+    /**
+     * This sweep, or when it has more than {@code max} frequencies, {@code max} of them evenly
+     * spread by index (the first and the last kept), with their uncertainties.
+     */
+    public Sweep thinned(int max) {
+        int n = points.size();
+        if (n <= max || max < 2) {
+            return this;
+        }
+        List<Impedance> pts = new ArrayList<>(max);
+        List<UncertainImpedance> us = new ArrayList<>(hasUncertainties() ? max : 0);
+        for (int i = 0; i < max; i++) {
+            int k = (int) Math.round(i * (n - 1) / (double) (max - 1));
+            pts.add(points.get(k));
+            if (hasUncertainties()) {
+                us.add(uncertainties.get(k));
+            }
+        }
+        return new Sweep(step, stepIndex, wiring, drive, level, biasMode, bias, pts, repeats, us);
+    }
+
     /** The number of distinct frequencies. */
     public int frequencies() {
         return points.size();
@@ -189,12 +211,12 @@ public record Sweep(String step, int stepIndex, String wiring, String drive, dou
 
     /** A label such as {@code 1V 0V} or {@code 10mA 2A}, also used in file names. */
     public String conditionLabel() {
-        return Si.compact(level, Si.unitOfSymbol(drive)) + "_" + Si.compact(bias, Si.unitOfSymbol(biasMode)) + ("none".equals(wiring) ? "" : "_" + wiring);
+        return Figures.compact(level, Figures.unit(drive)) + "_" + Figures.compact(bias, Figures.unit(biasMode)) + ("none".equals(wiring) ? "" : "_" + wiring);
     }
 
     /** A label for people, e.g. {@code 1 V, bias 0 V}. */
     public String describe() {
-        return Si.format(level, Si.unitOfSymbol(drive)) + ", bias " + Si.format(bias, Si.unitOfSymbol(biasMode))
+        return Figures.format(level, Figures.unit(drive)) + ", bias " + Figures.format(bias, Figures.unit(biasMode))
                 + ("none".equals(wiring) ? "" : ", " + wiring.replace('_', ' '));
     }
 
