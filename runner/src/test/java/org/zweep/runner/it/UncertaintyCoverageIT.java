@@ -230,6 +230,9 @@ class UncertaintyCoverageIT {
                         Map<String, Double> netlist = Map.of("c_f", 1e-6, "esr_ohm", 0.02, "esl_h", 1e-9);
                         netlist.forEach((k, v) -> fits.add(k, f.sigma().get(k) != null
                                 && Math.abs(f.value(k) - v) <= 2 * f.sigma().get(k)));
+                        // the series RLC's reactance is zero at 1/(2π√(LC)) = 5.0329 MHz (common practice, no source)
+                        double srf = 1 / (2 * Math.PI * Math.sqrt(1e-9 * 1e-6));
+                        fits.add("srf_hz", f.srfHz() != null && Math.abs(f.srfHz() - srf) <= 2 * f.srfU());
                     }
                 }
             }
