@@ -45,6 +45,7 @@ public final class Cli {
         m.put("compare", () -> new CompareCommand());
         m.put("scpi", () -> new ScpiCommand());
         m.put("ping", () -> new PingCommand());
+        m.put("probe", () -> new ProbeCommand());
         m.put("sim", () -> new SimCommand());
         m.put("watch", () -> new WatchCommand());
         return m;
