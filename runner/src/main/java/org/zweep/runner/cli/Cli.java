@@ -44,6 +44,7 @@ public final class Cli {
         m.put("trend", () -> new TrendCommand());
         m.put("scpi", () -> new ScpiCommand());
         m.put("ping", () -> new PingCommand());
+        m.put("probe", () -> new ProbeCommand());
         m.put("sim", () -> new SimCommand());
         m.put("watch", () -> new WatchCommand());
         return m;

@@ -250,8 +250,9 @@ public final class Station {
 
     /** Moves the meter to {@code s} (checked against the safety limits, bias ramped) without measuring. */
     public void applySetting(MeasurementSetting s) {
-        guard.check(s, "setting at " + s.frequencyHz() + " Hz");
-        withRetry("applying the setting at " + s.frequencyHz() + " Hz", () -> {
+        String at = org.zweep.runner.text.Figures.format(s.frequencyHz(), org.zweep.driver.impedance.Unit.HERTZ, 6);
+        guard.check(s, "setting at " + at);
+        withRetry("applying the setting at " + at, () -> {
             moveTo(s, BiasControl.NONE);
             return null;
         });
