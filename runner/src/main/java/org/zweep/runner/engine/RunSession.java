@@ -218,10 +218,8 @@ public final class RunSession {
                 station.identity().toString());
         if (setup.resuming()) {
             RunManifest old = RunManifest.read(folder.manifest());
-            return new RunManifest(old.format(), old.sequence(), old.part(), old.steps(), old.checks(), meter,
-                    old.compensation(), old.software(), old.host(), seed, old.started(), null, old.counts(),
-                    "running", "none", old.id() != null ? old.id() : RunId.next(setup.clock().instant()),
-                    old.identity());
+            return old.toBuilder().meter(meter).seed(seed).ended(null).outcome("running").verdict("none")
+                    .id(old.id() != null ? old.id() : RunId.next(setup.clock().instant())).build();
         }
         RunManifest fresh = freshManifest(plan, folder, setup.sequenceFile(), meter, seed, setup.clock(),
                 setup.version());
@@ -249,15 +247,16 @@ public final class RunSession {
                 .map(s -> new RunManifest.StepInfo(s.index(), s.name(), s.points().size(),
                         s.deratingDrops().isEmpty() ? null : s.deratingDrops())).toList();
         List<RunManifest.CheckInfo> checks = plan.checks().stream().map(RunManifest.CheckInfo::of).toList();
-        return new RunManifest(RunManifest.FORMAT,
-                new RunManifest.SequenceInfo(plan.name(), sequenceFile, RunFolder.sha256(folder.sequenceCopy()),
-                        RunFolder.SEQUENCE_COPY),
-                new RunManifest.PartInfo(p.kind().name().toLowerCase(Locale.ROOT), p.name(), finite(p.nominal()),
-                        p.nominalUnit(), finite(p.tolerancePercent()), finite(p.turnsRatio())),
-                steps, checks, meter, new RunManifest.CompensationInfo("none", List.of(), null),
-                new RunManifest.SoftwareInfo("zweep", version), host(), seed,
-                clock.instant().toString(), null, new RunManifest.Counts(plan.points().size(), 0), "running",
-                "none", RunId.next(clock.instant()), null);
+        return RunManifest.builder()
+                .sequence(new RunManifest.SequenceInfo(plan.name(), sequenceFile, RunFolder.sha256(folder.sequenceCopy()),
+                        RunFolder.SEQUENCE_COPY))
+                .part(new RunManifest.PartInfo(p.kind().name().toLowerCase(Locale.ROOT), p.name(), finite(p.nominal()),
+                        p.nominalUnit(), finite(p.tolerancePercent()), finite(p.turnsRatio())))
+                .steps(steps).checks(checks).meter(meter)
+                .compensation(new RunManifest.CompensationInfo("none", List.of(), null))
+                .software(new RunManifest.SoftwareInfo("zweep", version)).host(host()).seed(seed)
+                .started(clock.instant().toString()).counts(new RunManifest.Counts(plan.points().size(), 0))
+                .outcome("running").verdict("none").id(RunId.next(clock.instant())).build();
     }
 
     private static Double finite(double v) {
