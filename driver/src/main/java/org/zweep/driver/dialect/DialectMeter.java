@@ -1,14 +1,12 @@
 package org.zweep.driver.dialect;
 
 import java.math.BigDecimal;
-import java.nio.ByteBuffer;
 import java.nio.ByteOrder;
 import java.time.Clock;
 import java.time.Duration;
 import java.time.Instant;
 import java.util.ArrayList;
 import java.util.Arrays;
-import java.util.EnumMap;
 import java.util.List;
 import java.util.Map;
 import java.util.Optional;
@@ -17,11 +15,9 @@ import org.zweep.driver.InvalidInputException;
 import org.zweep.driver.impedance.Impedance;
 import org.zweep.driver.meter.Bias;
 import org.zweep.driver.meter.CorrectionStandard;
-import org.zweep.driver.meter.Drive;
+import org.zweep.driver.meter.CorrectionStyle;
 import org.zweep.driver.meter.FixtureControl;
 import org.zweep.driver.meter.FixtureState;
-import org.zweep.driver.meter.ImpedanceRange;
-import org.zweep.driver.meter.MeasuredQuantity;
 import org.zweep.driver.meter.MeasurementSetting;
 import org.zweep.driver.meter.Meter;
 import org.zweep.driver.meter.MeterCapabilities;
@@ -30,6 +26,7 @@ import org.zweep.driver.meter.Range;
 import org.zweep.driver.meter.Reading;
 import org.zweep.driver.meter.ReadingStatus;
 import org.zweep.driver.meter.SourceMode;
+import org.zweep.driver.scpi.ErrorQueue;
 import org.zweep.driver.scpi.MeterErrorException;
 import org.zweep.driver.scpi.ScpiError;
 import org.zweep.driver.scpi.ScpiProtocolException;
@@ -54,19 +51,17 @@ import org.zweep.driver.transport.MeterTimeoutException;
  * is forgotten, so the next {@link #apply} sends every setting again.
  */
 public final class DialectMeter implements Meter {
-    private static final int MAX_ERROR_ENTRIES = 64;
     /** How often a result is read again, at most, to find two reads that agree. */
     private static final int MAX_READS_AGAIN = 3;
 
     private final ScpiSession session;
     private final Dialect dialect;
     private final Clock clock;
-    private KnownState known = new KnownState();
+    private final SettingMessages planner;
     private MeasurementSetting current;
     /** The setting of the point this object last had measured (for the timing model), or null. */
     private MeasurementSetting lastMeasured;
     private boolean resync;
-    private boolean setupDone;
     private boolean closed;
     private boolean biasConfirmedOff;
 
@@ -84,6 +79,7 @@ public final class DialectMeter implements Meter {
         this.session = session;
         this.dialect = dialect;
         this.clock = clock;
+        this.planner = new SettingMessages(dialect);
     }
 
     /**
@@ -117,8 +113,7 @@ public final class DialectMeter implements Meter {
     @Override
     public void reset() {
         requireOpen();
-        known = new KnownState();
-        setupDone = false;
+        planner.reset();
         current = null;
         lastMeasured = null;
         resync = false;
@@ -205,7 +200,7 @@ public final class DialectMeter implements Meter {
         requireOpen();
         settings.forEach(this::validate);
         List<Reading> readings = new ArrayList<>(settings.size());
-        if (!sweepable(settings)) {
+        if (!planner.sweepable(settings)) {
             for (MeasurementSetting s : settings) {
                 apply(s);
                 readings.add(measure());
@@ -243,8 +238,11 @@ public final class DialectMeter implements Meter {
             case LOAD -> Command.CORRECTION_LOAD;
         };
         MeasurementSetting at = current != null ? current : MeasurementSetting.at(dialect.capabilities().frequencyHz().min());
-        send(List.of(render(c)), dialect.timing().correctionS(at, dialect.capabilities().frequencyHz()),
-                "acquiring the " + standard + " correction");
+        // a meter correcting at the acquired frequency measures the standard there, once; one
+        // correcting its whole range sweeps its own grid
+        double expectedS = dialect.capabilities().correctionStyle() == CorrectionStyle.AT_ACQUIRED_FREQUENCY
+                ? dialect.timing().pointS(at, at) : dialect.timing().correctionS(at, dialect.capabilities().frequencyHz());
+        send(List.of(render(c)), expectedS, "acquiring the " + standard + " correction");
         lastMeasured = null;
     }
 
@@ -286,10 +284,7 @@ public final class DialectMeter implements Meter {
         double amperes = limit(Command.BIAS_CURRENT_QUERY);
         // what the meter holds is now known: the next setting sends only what differs from it (no
         // off-and-on again of a bias that is to stay on)
-        known.biasOn.put(SourceMode.VOLTAGE, voltageOn);
-        known.biasOn.put(SourceMode.CURRENT, currentOn);
-        known.biasValue.put(SourceMode.VOLTAGE, volts);
-        known.biasValue.put(SourceMode.CURRENT, amperes);
+        planner.biasHeld(voltageOn, currentOn, volts, amperes);
         if (voltageOn == currentOn) {
             return Optional.of(voltageOn ? new Bias(SourceMode.VOLTAGE, volts, true) : Bias.OFF);
         }
@@ -357,11 +352,8 @@ public final class DialectMeter implements Meter {
     @Override
     public void biasOff() {
         requireOpen();
-        known.biasOn.clear();
         dialect.command(Command.BIAS_OFF).ifPresent(t -> send(List.of(t.render()), "switching DC bias off"));
-        for (SourceMode mode : SourceMode.values()) {
-            known.biasOn.put(mode, false);
-        }
+        planner.biasOff();
         if (current != null && current.bias().on()) {
             // the next reading must say what is true: no bias, until a setting turns it on again
             current = current.withBias(new Bias(current.bias().mode(), current.bias().value(), false));
@@ -423,153 +415,13 @@ public final class DialectMeter implements Meter {
     }
 
     /**
-     * Sends what differs between {@code s} and the remembered state, bias switched off first and
-     * on last; with a non-empty {@code sweep}, the list commands too (frequency then not sent).
+     * Sends what differs between {@code s} and what the meter holds; with a non-empty {@code sweep},
+     * the list commands too.
      */
     private void configure(MeasurementSetting s, List<MeasurementSetting> sweep, String what) {
-        KnownState next = known.copy();
-        List<String> units = new ArrayList<>();
-        boolean list = !sweep.isEmpty();
-        if (!setupDone) {
-            dialect.command(Command.SETUP).ifPresent(t -> units.add(t.render()));
-        }
-        for (SourceMode mode : SourceMode.values()) {
-            Command off = BiasCommands.of(mode).off;
-            if (!biasOn(s, mode) && dialect.has(off) && !Boolean.FALSE.equals(next.biasOn.get(mode))) {
-                add(units, render(off));
-                next.biasOn.put(mode, false);
-            }
-        }
-        if (!list && !Boolean.FALSE.equals(next.listMode)) {
-            dialect.command(Command.LIST_MODE_OFF).ifPresent(t -> add(units, t.render()));
-            next.listMode = false;
-        }
-        if (dialect.capabilities().voltageRatio() && next.quantity != s.quantity()) {
-            add(units, render(s.quantity() == MeasuredQuantity.IMPEDANCE
-                    ? Command.FUNCTION_IMPEDANCE : Command.FUNCTION_VOLTAGE_RATIO));
-            next.quantity = s.quantity();
-        }
-        if (!list && !same(next.frequencyHz, s.frequencyHz())) {
-            add(units, render(Command.FREQUENCY, "frequency", s.frequencyHz()));
-            next.frequencyHz = s.frequencyHz();
-        }
-        if (!s.drive().equals(next.drive)) {
-            Command c = s.drive().mode() == SourceMode.VOLTAGE ? Command.DRIVE_VOLTAGE : Command.DRIVE_CURRENT;
-            add(units, render(c, "level", s.drive().levelRms()));
-            next.drive = s.drive();
-        }
-        if (dialect.has(Command.AVERAGING) && !Integer.valueOf(s.averagingCount()).equals(next.averaging)) {
-            add(units, dialect.command(Command.AVERAGING).orElseThrow().render(Map.of("count", s.averagingCount())));
-            next.averaging = s.averagingCount();
-        }
-        if (dialect.has(Command.INTEGRATION_TIME) && !same(next.integrationTimeS, s.integrationTimeS())) {
-            add(units, render(Command.INTEGRATION_TIME, "seconds", s.integrationTimeS()));
-            next.integrationTimeS = s.integrationTimeS();
-        }
-        if (dialect.has(Command.RANGE_AUTO) && !s.range().equals(next.range)) {
-            add(units, s.range().auto() ? render(Command.RANGE_AUTO)
-                    : render(Command.RANGE_HOLD, "ohms", s.range().upperOhm()));
-            next.range = s.range();
-        }
-        if (list) {
-            addListUnits(units, sweep, next);
-        }
-        if (s.bias().on()) {
-            SourceMode mode = s.bias().mode();
-            BiasCommands c = BiasCommands.of(mode);
-            if (!same(next.biasValue.get(mode), s.bias().value())) {
-                add(units, render(c.value, "bias", s.bias().value()));
-                next.biasValue.put(mode, s.bias().value());
-            }
-            if (!Boolean.TRUE.equals(next.biasOn.get(mode))) {
-                add(units, render(c.on));
-                next.biasOn.put(mode, true);
-            }
-        }
-        if (list) {
-            forgetListed(next, s.drive().mode());
-        }
-        send(units, what);
-        known = next;
-        setupDone = true;
-    }
-
-    private void addListUnits(List<String> units, List<MeasurementSetting> sweep, KnownState next) {
-        add(units, dialect.command(Command.LIST_FREQUENCY).orElseThrow().render(
-                Map.of("frequencies", sweep.stream().map(MeasurementSetting::frequencyHz).toList())));
-        List<Double> levels = sweep.stream().map(x -> x.drive().levelRms()).toList();
-        List<Double> biases = sweep.stream().map(x -> x.bias().value()).toList();
-        Command levelList = sweep.get(0).drive().mode() == SourceMode.VOLTAGE
-                ? Command.LIST_VOLTAGE : Command.LIST_CURRENT;
-        dialect.command(levelList).ifPresent(t -> add(units, t.render(Map.of("levels", levels))));
-        Bias bias = sweep.get(0).bias();
-        if (bias.on()) {
-            dialect.command(BiasCommands.of(bias.mode()).list)
-                    .ifPresent(t -> add(units, t.render(Map.of("biases", biases))));
-        }
-        dialect.command(Command.LIST_MODE_ON).ifPresent(t -> add(units, t.render()));
-        next.listMode = true;
-    }
-
-    /** After a sweep the meter's single-point values of what was listed are not trusted. */
-    private void forgetListed(KnownState next, SourceMode driveMode) {
-        next.frequencyHz = null;
-        if (dialect.has(driveMode == SourceMode.VOLTAGE ? Command.LIST_VOLTAGE : Command.LIST_CURRENT)) {
-            next.drive = null;
-        }
-        for (SourceMode mode : SourceMode.values()) {
-            if (dialect.has(BiasCommands.of(mode).list)) {
-                next.biasValue.remove(mode);
-            }
-        }
-    }
-
-    /** Whether {@code settings} can be one list sweep: they differ only in what the dialect can list. */
-    private boolean sweepable(List<MeasurementSetting> settings) {
-        if (settings.size() < 2 || !dialect.capabilities().listSweep()) {
-            return false;
-        }
-        MeasurementSetting first = listKey(settings.get(0));
-        return settings.stream().allMatch(s -> listKey(s).equals(first));
-    }
-
-    /** The setting with every field the dialect can list blanked out. */
-    private MeasurementSetting listKey(MeasurementSetting s) {
-        MeasurementSetting k = s.withFrequencyHz(0);
-        Command levelList = s.drive().mode() == SourceMode.VOLTAGE ? Command.LIST_VOLTAGE : Command.LIST_CURRENT;
-        if (dialect.has(levelList)) {
-            k = k.withDrive(new Drive(s.drive().mode(), 0));
-        }
-        if (!s.bias().on() || dialect.has(BiasCommands.of(s.bias().mode()).list)) {
-            k = k.withBias(new Bias(s.bias().mode(), 0, s.bias().on()));
-        }
-        return k;
-    }
-
-    private static boolean biasOn(MeasurementSetting s, SourceMode mode) {
-        return s.bias().on() && s.bias().mode() == mode;
-    }
-
-    /** The dialect commands of one bias source. */
-    private record BiasCommands(Command value, Command on, Command off, Command list) {
-        static final BiasCommands VOLTAGE = new BiasCommands(Command.BIAS_VOLTAGE, Command.BIAS_VOLTAGE_ON,
-                Command.BIAS_VOLTAGE_OFF, Command.LIST_BIAS_VOLTAGE);
-        static final BiasCommands CURRENT = new BiasCommands(Command.BIAS_CURRENT, Command.BIAS_CURRENT_ON,
-                Command.BIAS_CURRENT_OFF, Command.LIST_BIAS_CURRENT);
-
-        static BiasCommands of(SourceMode mode) {
-            return mode == SourceMode.VOLTAGE ? VOLTAGE : CURRENT;
-        }
-    }
-
-    private static void add(List<String> units, String unit) {
-        if (units.isEmpty() || !units.get(units.size() - 1).equals(unit)) {
-            units.add(unit);
-        }
-    }
-
-    private static boolean same(Double known, double wanted) {
-        return known != null && known == wanted;
+        SettingMessages.Pending pending = planner.plan(s, sweep);
+        send(pending.units(), what);
+        planner.sent(pending);
     }
 
     // ---- the wire -----------------------------------------------------------------------------
@@ -604,7 +456,7 @@ public final class DialectMeter implements Meter {
             } else {
                 session.write(last);
                 if (m.errorCheck().afterSettings()) {
-                    List<ScpiError> errors = readErrors(new ArrayList<>(), work, what);
+                    List<ScpiError> errors = readErrors(List.of(), work, what);
                     if (!errors.isEmpty()) {
                         throw errors(errors, what);
                     }
@@ -613,12 +465,12 @@ public final class DialectMeter implements Meter {
                 }
             }
         } catch (MeterTimeoutException e) {
-            known = new KnownState();
+            planner.forget();
             resync = current != null;
             lastMeasured = null;
             throw named(e, what);
         } catch (RuntimeException e) {
-            known = new KnownState();
+            planner.forget();
             resync = current != null;
             lastMeasured = null;
             throw e;
@@ -634,70 +486,22 @@ public final class DialectMeter implements Meter {
         return s > 0 ? Duration.ofNanos((long) Math.ceil(s * 1e9)) : Duration.ZERO;
     }
 
-    /** Reads the error query until it answers 0, after the entries already in {@code errors}. */
-    private List<ScpiError> readErrors(List<ScpiError> errors, String what) {
-        return readErrors(errors, Duration.ZERO, what);
+    /** Reads the error queue until it is empty: every entry, after those in {@code earlier}. */
+    private List<ScpiError> readErrors(List<ScpiError> earlier, Duration work, String what) {
+        return ErrorQueue.read(session, render(Command.ERROR_QUERY), work, earlier, what);
     }
 
-    /** As {@link #readErrors(List, String)}, the first answer awaited after {@code work} of the meter's. */
-    private List<ScpiError> readErrors(List<ScpiError> errors, Duration work, String what) {
-        String query = render(Command.ERROR_QUERY);
-        for (int i = 0; i < MAX_ERROR_ENTRIES; i++) {
-            ScpiError e = parseError(session.query(query, i == 0 ? work : Duration.ZERO), what);
-            if (e.code() == 0) {
-                break;
-            }
-            errors.add(e);
-        }
-        return errors;
-    }
-
+    /** The failure for a first entry {@code first}, with the rest of the queue read. */
     private MeterErrorException errors(ScpiError first, String what) {
-        List<ScpiError> all = new ArrayList<>(List.of(first));
-        return errors(readErrors(all, what), what);
+        return errors(readErrors(List.of(first), Duration.ZERO, what), what);
     }
 
     private MeterErrorException errors(List<ScpiError> errors, String what) {
-        return new MeterErrorException(session.address() + ": the meter reported "
-                + errors.stream().map(ScpiError::toString).collect(Collectors.joining("; ")) + " while " + what,
-                errors);
+        return ErrorQueue.failure(session.address(), errors, what);
     }
 
-    /** Parses {@code code,"text"} (SCPI-1999 Vol 2 §21.8); the text may be missing. */
     private ScpiError parseError(String reply, String what) {
-        String r = reply.strip();
-        int comma = r.indexOf(',');
-        String code = comma < 0 ? r : r.substring(0, comma).strip();
-        try {
-            int n = Integer.parseInt(code.startsWith("+") ? code.substring(1) : code);
-            String text = comma < 0 ? "" : r.substring(comma + 1).strip();
-            boolean quoted = text.length() >= 2 && text.startsWith("\"") && text.endsWith("\"");
-            if (n != 0 && !text.isEmpty() && !quoted) {
-                throw new ScpiProtocolException(session.address() + ": reply '" + abbreviate(reply)
-                        + "' to the error query is not 'code,\"text\"' (corrupted on the way) while " + what);
-            }
-            if (quoted) {
-                String inner = text.substring(1, text.length() - 1);
-                if (n != 0 && inner.replace("\"\"", "").contains("\"")) {
-                    // IEEE 488.2 §7.7.5: a quote inside a string is doubled; a lone one means the
-                    // reply was corrupted on the way (a lost separator joined two replies)
-                    throw new ScpiProtocolException(session.address() + ": reply '" + abbreviate(reply)
-                            + "' to the error query is not 'code,\"text\"' (corrupted on the way) while " + what);
-                }
-                text = inner.replace("\"\"", "\"");
-            }
-            if (n != 0 && nearNoError(r)) {
-                // SCPI-1999 Vol 2 §21.8: 0,"No error" is the empty queue's answer; a reply of its length
-                // that differs from it in a few characters is that answer corrupted on the way
-                throw new ScpiProtocolException(session.address() + ": reply '" + abbreviate(reply)
-                        + "' to the error query is 0,\"No error\" with characters replaced (corrupted on the way)"
-                        + " while " + what);
-            }
-            return new ScpiError(n, text);
-        } catch (NumberFormatException e) {
-            throw new ScpiProtocolException(session.address() + ": reply '" + abbreviate(reply)
-                    + "' to the error query is not 'code,\"text\"' while " + what);
-        }
+        return ErrorQueue.parse(session.address(), reply, what);
     }
 
     /**
@@ -731,27 +535,10 @@ public final class DialectMeter implements Meter {
             }
             seen.add(again);
         }
-        known = new KnownState();
+        planner.forget();
         resync = current != null;
         throw new ScpiProtocolException(session.address() + ": the meter gave " + seen.size()
                 + " different results for one measurement (replies corrupted on the way) while " + what);
-    }
-
-    /** The empty error queue's answer (SCPI-1999 Vol 2 §21.8). */
-    private static final String NO_ERROR = "0,\"No error\"";
-
-    /** Whether {@code reply} is {@link #NO_ERROR} with at most a third of its characters replaced. */
-    static boolean nearNoError(String reply) {
-        if (reply.length() != NO_ERROR.length()) {
-            return false;
-        }
-        int differ = 0;
-        for (int i = 0; i < reply.length(); i++) {
-            if (Character.toLowerCase(reply.charAt(i)) != Character.toLowerCase(NO_ERROR.charAt(i))) {
-                differ++;
-            }
-        }
-        return differ * 3 <= NO_ERROR.length();
     }
 
     /** Sends {@code command} (a query, no work for the meter) and returns {@code points} points' worth of numbers. */
@@ -799,7 +586,7 @@ public final class DialectMeter implements Meter {
                 units.remove(units.size() - 1);
                 if (error.code() != 0) {
                     // IEEE 488.2 §6.3.2.3: a query that fails sends no response, so only the error came back
-                    known = new KnownState();
+                    planner.forget();
                     resync = true;
                     throw errors(error, what);
                 }
@@ -822,15 +609,12 @@ public final class DialectMeter implements Meter {
             }
         } else {
             byte[] block = session.queryBlock(query, work);
-            if (block.length % Double.BYTES != 0) {
-                throw new ScpiProtocolException(session.address() + ": a REAL,64 block of " + block.length
-                        + " bytes is not a whole number of doubles while " + what);
-            }
-            ByteBuffer b = ByteBuffer.wrap(block).order(shape.encoding() == ReplyShape.Encoding.REAL64_BIG
-                    ? ByteOrder.BIG_ENDIAN : ByteOrder.LITTLE_ENDIAN);
-            double[] values = new double[block.length / Double.BYTES];
-            for (int i = 0; i < values.length; i++) {
-                values[i] = b.getDouble();
+            double[] values;
+            try {
+                values = ScpiValues.real64(block, shape.encoding() == ReplyShape.Encoding.REAL64_BIG
+                        ? ByteOrder.BIG_ENDIAN : ByteOrder.LITTLE_ENDIAN);
+            } catch (IllegalArgumentException e) {
+                throw new ScpiProtocolException(session.address() + ": " + e.getMessage() + " while " + what, e);
             }
             results = new double[][] {values};
             shown = block.length + " bytes";
@@ -838,9 +622,9 @@ public final class DialectMeter implements Meter {
         boolean separate = m.errorCheck().afterMeasurement()
                 && (!m.errorQueryJoined() || shape.encoding() != ReplyShape.Encoding.ASCII);
         if (separate) {
-            List<ScpiError> errors = readErrors(new ArrayList<>(), what);
+            List<ScpiError> errors = readErrors(List.of(), Duration.ZERO, what);
             if (!errors.isEmpty()) {
-                known = new KnownState();
+                planner.forget();
                 resync = true;
                 throw errors(errors, what);
             }
@@ -863,11 +647,11 @@ public final class DialectMeter implements Meter {
     private List<String> replies(String message, int queries, Duration work, String what) {
         Dialect.ReplyFraming framing = dialect.messages().replies();
         if (queries == 1 || framing == Dialect.ReplyFraming.SEMICOLON_JOINED) {
-            return splitOutsideQuotes(session.query(message, work), ';');
+            return ScpiValues.splitUnits(session.query(message, work));
         }
         List<String> lines = new ArrayList<>(session.queryLines(message, queries, work));
         for (String line : lines) {
-            if (splitOutsideQuotes(line, ';').size() > 1) {
+            if (ScpiValues.splitUnits(line).size() > 1) {
                 throw new ScpiProtocolException(session.address() + ": expected " + queries + " replies to '"
                         + abbreviate(message) + "', each on a line of its own, but got '" + abbreviate(line)
                         + "' joined with ';' while " + what + " (the dialect says 'replies: one-line-per-query' in"
@@ -886,37 +670,12 @@ public final class DialectMeter implements Meter {
     }
 
     private double[] parseNumbers(String data, String what) {
-        if (data.isBlank()) {
-            return new double[0];
+        try {
+            return ScpiValues.parseNumbers(data);
+        } catch (NumberFormatException e) {
+            throw new ScpiProtocolException(session.address() + ": '" + abbreviate(e.getMessage())
+                    + "' in the reply is not an NR1/NR2/NR3 number while " + what, e);
         }
-        String[] parts = data.split(",", -1);
-        double[] values = new double[parts.length];
-        for (int i = 0; i < parts.length; i++) {
-            try {
-                values[i] = ScpiValues.parseNumber(parts[i]);
-            } catch (NumberFormatException e) {
-                throw new ScpiProtocolException(session.address() + ": '" + abbreviate(parts[i].strip())
-                        + "' in the reply is not an NR1/NR2/NR3 number while " + what, e);
-            }
-        }
-        return values;
-    }
-
-    private static List<String> splitOutsideQuotes(String s, char separator) {
-        List<String> out = new ArrayList<>();
-        boolean quoted = false;
-        int start = 0;
-        for (int i = 0; i < s.length(); i++) {
-            char c = s.charAt(i);
-            if (c == '"') {
-                quoted = !quoted;
-            } else if (c == separator && !quoted) {
-                out.add(s.substring(start, i));
-                start = i + 1;
-            }
-        }
-        out.add(s.substring(start));
-        return out;
     }
 
     private Reading reading(MeasurementSetting s, double[] values, int index, Instant t) {
@@ -957,7 +716,7 @@ public final class DialectMeter implements Meter {
     }
 
     private static String abbreviate(String s) {
-        return s.length() <= 60 ? s : s.substring(0, 57) + "...";
+        return ScpiValues.abbreviate(s);
     }
 
     private void requireOpen() {
@@ -966,30 +725,4 @@ public final class DialectMeter implements Meter {
         }
     }
 
-    /** What this object last told the meter; {@code null} means unknown (send it). */
-    private static final class KnownState {
-        Boolean listMode;
-        MeasuredQuantity quantity;
-        Double frequencyHz;
-        Drive drive;
-        final Map<SourceMode, Double> biasValue = new EnumMap<>(SourceMode.class);
-        final Map<SourceMode, Boolean> biasOn = new EnumMap<>(SourceMode.class);
-        Integer averaging;
-        Double integrationTimeS;
-        ImpedanceRange range;
-
-        KnownState copy() {
-            KnownState k = new KnownState();
-            k.listMode = listMode;
-            k.quantity = quantity;
-            k.frequencyHz = frequencyHz;
-            k.drive = drive;
-            k.biasValue.putAll(biasValue);
-            k.biasOn.putAll(biasOn);
-            k.averaging = averaging;
-            k.integrationTimeS = integrationTimeS;
-            k.range = range;
-            return k;
-        }
-    }
 }

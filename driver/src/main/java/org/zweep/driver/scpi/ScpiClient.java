@@ -329,16 +329,12 @@ public final class ScpiClient implements ScpiSession {
      */
     public double[] queryReal64(String message, BlockByteOrder order) {
         byte[] data = queryBlock(message);
-        if (data.length % Double.BYTES != 0) {
+        try {
+            return ScpiValues.real64(data, order.byteOrder());
+        } catch (IllegalArgumentException e) {
             throw new ScpiProtocolException(address() + ": the block replying to '" + message + "' has "
-                    + data.length + " bytes, not a whole number of 8-byte REAL,64 values");
+                    + data.length + " bytes, not a whole number of 8-byte REAL,64 values", e);
         }
-        double[] out = new double[data.length / Double.BYTES];
-        ByteBuffer.wrap(data).order(order.byteOrder()).asDoubleBuffer().get(out);
-        for (int i = 0; i < out.length; i++) {
-            out[i] = ScpiValues.special(out[i]);
-        }
-        return out;
     }
 
     @Override

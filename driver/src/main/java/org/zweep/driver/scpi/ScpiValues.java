@@ -83,6 +83,74 @@ public final class ScpiValues {
     }
 
     /**
+     * Splits a response message at {@code ;} outside quoted strings: one piece per query of a
+     * message that held several (IEEE 488.2 §8.4.1). Pieces are not stripped; one piece for a
+     * response without {@code ;}.
+     */
+    public static List<String> splitUnits(String text) {
+        List<String> out = new ArrayList<>();
+        boolean quoted = false;
+        int start = 0;
+        for (int i = 0; i < text.length(); i++) {
+            char c = text.charAt(i);
+            if (c == '"') {
+                quoted = !quoted;
+            } else if (c == ';' && !quoted) {
+                out.add(text.substring(start, i));
+                start = i + 1;
+            }
+        }
+        out.add(text.substring(start));
+        return out;
+    }
+
+    /**
+     * Parses a comma-separated list of NR1/NR2/NR3 numbers as {@link #parseNumber} does each; a
+     * blank response is an empty array.
+     *
+     * @throws NumberFormatException whose message is the first element that is not a number, stripped
+     */
+    public static double[] parseNumbers(String text) {
+        if (text.isBlank()) {
+            return new double[0];
+        }
+        String[] parts = text.split(",", -1);
+        double[] values = new double[parts.length];
+        for (int i = 0; i < parts.length; i++) {
+            try {
+                values[i] = parseNumber(parts[i]);
+            } catch (NumberFormatException e) {
+                throw new NumberFormatException(parts[i].strip());
+            }
+        }
+        return values;
+    }
+
+    /**
+     * Decodes a block of IEEE 754 doubles ({@code FORMat REAL,64}) in {@code order}; SCPI's
+     * special values are mapped as in {@link #parseNumber}.
+     *
+     * @throws IllegalArgumentException when the length is not a multiple of 8
+     */
+    public static double[] real64(byte[] block, java.nio.ByteOrder order) {
+        if (block.length % Double.BYTES != 0) {
+            throw new IllegalArgumentException("a REAL,64 block of " + block.length
+                    + " bytes is not a whole number of 8-byte values");
+        }
+        double[] out = new double[block.length / Double.BYTES];
+        java.nio.ByteBuffer.wrap(block).order(order).asDoubleBuffer().get(out);
+        for (int i = 0; i < out.length; i++) {
+            out[i] = special(out[i]);
+        }
+        return out;
+    }
+
+    /** {@code text} cut to 60 characters for a one-line message ({@code ...} marks the cut). */
+    public static String abbreviate(String text) {
+        return text.length() <= 60 ? text : text.substring(0, 57) + "...";
+    }
+
+    /**
      * Parses a {@code SYSTem:ERRor?} reply, {@code <code>,"<message>"} (SCPI-1999 Vol 2 §21.8);
      * a doubled quote inside the message is one quote.
      *

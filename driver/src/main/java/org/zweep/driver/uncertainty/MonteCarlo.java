@@ -99,6 +99,30 @@ public final class MonteCarlo {
     }
 
     /**
+     * The parameters in {@code parameters} whose linear 95 % interval the Monte Carlo method does
+     * not validate ({@link #validatesLinear}, tolerance {@link #numericalTolerance} of u to one
+     * significant digit, generous enough for the sampling noise of {@code trials} ≥ 100 000
+     * draws), with what the Monte Carlo method says instead; empty when the linear law holds for
+     * all. A parameter whose linear u is infinite or NaN, or whose value is, is left out.
+     */
+    public static Map<DerivedParameter, Result> linearFailures(UncertainImpedance z,
+            Iterable<DerivedParameter> parameters, int trials, long seed) {
+        Map<DerivedParameter, Result> mc = propagate(z, parameters, trials, seed);
+        Map<DerivedParameter, Result> out = new EnumMap<>(DerivedParameter.class);
+        for (Map.Entry<DerivedParameter, Result> e : mc.entrySet()) {
+            double y = e.getKey().of(z.value());
+            double u = z.standardUncertainty(e.getKey());
+            if (!Double.isFinite(y) || !Double.isFinite(u) || u == 0) {
+                continue;
+            }
+            if (!validatesLinear(y, u, e.getValue(), numericalTolerance(u, 1))) {
+                out.put(e.getKey(), e.getValue());
+            }
+        }
+        return out;
+    }
+
+    /**
      * The numerical tolerance of a standard uncertainty {@code u} expressed to {@code digits}
      * significant digits: half a unit of its last digit (JCGM 101:2008, 7.9.2).
      */

@@ -44,6 +44,7 @@ import org.zweep.driver.meter.ReadingStatus;
  * = RESULT                    the call's result: "R X [±TOL]" or "no-value" per reading,
  *                             "true"/"false", the identity, or "error Class: message"
  * </pre>
+ * fixture takes a state ({@code part open short load secondary-open secondary-shorted}).
  * apply takes {@code frequency= voltage= current= bias-voltage= bias-current= bias=off averaging=
  * aperture= range=auto|OHMS quantity=impedance|ratio}, each changing the previous setting
  * (initially 1 kHz, 1 V, no bias, 1 average, 20 ms, auto range); measure-list takes
@@ -178,6 +179,10 @@ class DialectConversationTest {
                 return null;
             case "shutdown":
                 return meter.safeShutdown();
+            case "fixture":
+                meter.fixture().orElseThrow().hold(org.zweep.driver.meter.FixtureState.valueOf(
+                        call.args.get(0).toUpperCase(java.util.Locale.ROOT).replace('-', '_')));
+                return null;
             default:
                 throw new AssertionError("unknown call " + call.operation + " at line " + call.line);
         }

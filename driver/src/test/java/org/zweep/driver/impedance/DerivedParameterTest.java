@@ -10,8 +10,7 @@ class DerivedParameterTest {
 
     @Test
     void contractNamesAreExactlyTheDocumentedOnesInOrder() {
-        // issue 2, "zweep convert": the JSON field names are our own contract; 1 kHz, 3 + j4 Ω is our own demo
-        // input, not an outside value
+        // issue 2, "zweep convert": the JSON field names are our own contract
         List<String> expected = List.of("frequency_hz", "r_ohm", "x_ohm", "z_ohm", "theta_deg", "delta_deg", "q", "d",
                 "g_s", "b_s", "cs_f", "cp_f", "ls_h", "lp_h", "rs_ohm", "rp_ohm");
         Map<String, Double> values = DerivedParameter.contractValues(new Impedance(1e3, 3, 4));

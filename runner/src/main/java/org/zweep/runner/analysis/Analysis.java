@@ -19,6 +19,8 @@ import org.zweep.runner.conformance.DecisionRule;
 import org.zweep.runner.verdict.CheckEvaluator;
 import org.zweep.runner.verdict.CheckOutcome;
 import org.zweep.runner.verdict.SweepFigures;
+import org.zweep.runner.text.Figures;
+import org.zweep.runner.text.ParameterTable;
 
 /**
  * The analysis of a run folder: fits, derating, transformer parameters, repeats, checks and
@@ -157,7 +159,7 @@ public final class Analysis {
                 return saturation(c, steps);
             }
             double[] v = wholeSweepFigure(c, steps, transformer);
-            return new SweepFigures.Figure(v[0], Si.unitOf(c.parameter()), "", v[1]);
+            return new SweepFigures.Figure(v[0], ParameterTable.unit(c.parameter()), "", v[1]);
         };
     }
 
@@ -176,15 +178,15 @@ public final class Analysis {
             return new SweepFigures.Figure(Double.NaN, Unit.NONE, "no bias sweep measured at the selected points");
         }
         Derating d = found.get(0);
-        Unit unit = Si.unitOfSymbol(d.biasMode());
+        Unit unit = Figures.unit(d.biasMode());
         Double at = d.biasAtDrop(c.dropPercent());
-        String ref = "relative to " + Si.format(d.referenceValue(), mainParameterOf(d.quantity()).unit(), 6) + " at "
-                + Si.format(d.referenceBias(), unit);
+        String ref = "relative to " + Figures.format(d.referenceValue(), mainParameterOf(d.quantity()).unit()) + " at "
+                + Figures.format(d.referenceBias(), unit);
         if (at == null) {
             double lowest = d.points().stream().mapToDouble(Derating.Point::percent).min().orElse(Double.NaN);
             return new SweepFigures.Figure(Double.NaN, unit, String.format(Locale.ROOT,
-                    "never falls by %s %% up to %s (lowest %.1f %%, %s)", Si.format(c.dropPercent(), Unit.NONE),
-                    Si.format(d.points().get(d.points().size() - 1).bias(), unit), lowest, ref));
+                    "never falls by %s %% up to %s (lowest %.1f %%, %s)", Figures.format(c.dropPercent(), Unit.NONE),
+                    Figures.format(d.points().get(d.points().size() - 1).bias(), unit), lowest, ref));
         }
         return new SweepFigures.Figure(at, unit, ref);
     }
@@ -275,7 +277,7 @@ public final class Analysis {
             PointRow r = first.row;
             measured = r.value(first.column);
             measuredU = r.uncertainty().of(first.column);
-            source = first.column + " of step " + r.step() + " at " + Si.format(r.frequencyHz(), Unit.HERTZ);
+            source = ParameterTable.label(first.column) + " of step " + r.step() + " at " + Figures.format(r.frequencyHz(), Unit.HERTZ);
         }
         if (!(measured > 0)) {
             return null;
@@ -328,11 +330,11 @@ public final class Analysis {
         if (disagree.isEmpty()) {
             return "";
         }
-        return "check" + (disagree.size() > 1 ? "s " : " ") + String.join("; ", disagree) + "; but the " + source
+        return "check" + (disagree.size() > 1 ? "s " : " ") + String.join("; ", disagree) + "; the " + source
                 + " against the stated tolerance: " + tolerance.decision().word() + " [" + tolerance.rule()
-                + (Double.isNaN(tolerance.expandedU()) ? ", U unknown" : "") + "]"
-                + ": the bin judges that one figure against the part's tolerance,"
-                + " the check judges its own selected points against its own limits (the verdict is the checks')";
+                + (Double.isNaN(tolerance.expandedU()) ? ", U unknown" : "") + "]."
+                + " They differ because the bin judges that one figure against the part's tolerance and a check"
+                + " judges its own selected points against its own limits (the verdict is the checks')";
     }
 
     /** What a decision word means, for the few that need it. */

@@ -36,4 +36,14 @@ public record AnalysisResult(RunData run, List<StepResult> steps, List<Sweep> sw
     public StepResult step(String name) {
         return steps.stream().filter(s -> s.name().equals(name)).findFirst().orElse(null);
     }
+
+    /** The units of each step's DC bias and drive level, from its sweeps, to show the checks' selections with them. */
+    public java.util.function.Function<String, org.zweep.runner.verdict.CheckText.StepUnits> stepUnits() {
+        java.util.Map<String, org.zweep.runner.verdict.CheckText.StepUnits> byStep = new java.util.HashMap<>();
+        for (Sweep s : sweeps) {
+            byStep.putIfAbsent(s.step(), new org.zweep.runner.verdict.CheckText.StepUnits(
+                    org.zweep.runner.text.Figures.unit(s.biasMode()), org.zweep.runner.text.Figures.unit(s.drive())));
+        }
+        return step -> byStep.getOrDefault(step, org.zweep.runner.verdict.CheckText.StepUnits.UNKNOWN);
+    }
 }

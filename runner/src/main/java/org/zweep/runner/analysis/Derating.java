@@ -5,6 +5,7 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
+import org.zweep.runner.text.Figures;
 
 /**
  * How a value (C or L) falls with DC bias: each point as a percentage of its value at zero bias,
@@ -72,7 +73,7 @@ public record Derating(String quantity, double frequencyHz, double level, String
         double ref = pts.get(0)[1];
         if (refBias != 0) {
             notes.add(String.format(Locale.ROOT, "no 0 %s point: values are relative to the one at %s", biasMode,
-                    Si.format(refBias, Si.unitOfSymbol(biasMode))));
+                    Figures.format(refBias, Figures.unit(biasMode))));
         }
         List<Point> points = new ArrayList<>();
         for (double[] p : pts) {
@@ -85,8 +86,8 @@ public record Derating(String quantity, double frequencyHz, double level, String
             if (at == null) {
                 double min = points.stream().mapToDouble(Point::percent).min().orElseThrow();
                 notes.add(String.format(Locale.ROOT, "never falls by %d %% up to %s (lowest %.1f %% of the %s value)",
-                        drop, Si.format(points.get(points.size() - 1).bias(), Si.unitOfSymbol(biasMode)), min,
-                        Si.format(refBias, Si.unitOfSymbol(biasMode))));
+                        drop, Figures.format(points.get(points.size() - 1).bias(), Figures.unit(biasMode)), min,
+                        Figures.format(refBias, Figures.unit(biasMode))));
             }
         }
         return new Derating(quantity, frequencyHz, level, biasMode, refBias, ref, points, drops, notes);

@@ -9,6 +9,7 @@ import java.util.TreeMap;
 import org.zweep.driver.impedance.Impedance;
 import org.zweep.driver.uncertainty.UncertainImpedance;
 import org.zweep.runner.results.PointRow;
+import org.zweep.runner.text.Figures;
 
 /**
  * The impedance points of one step at one drive level, one DC bias and one wiring, repeats
@@ -189,12 +190,12 @@ public record Sweep(String step, int stepIndex, String wiring, String drive, dou
 
     /** A label such as {@code 1V 0V} or {@code 10mA 2A}, also used in file names. */
     public String conditionLabel() {
-        return Si.compact(level, Si.unitOfSymbol(drive)) + "_" + Si.compact(bias, Si.unitOfSymbol(biasMode)) + ("none".equals(wiring) ? "" : "_" + wiring);
+        return Figures.compact(level, Figures.unit(drive)) + "_" + Figures.compact(bias, Figures.unit(biasMode)) + ("none".equals(wiring) ? "" : "_" + wiring);
     }
 
     /** A label for people, e.g. {@code 1 V, bias 0 V}. */
     public String describe() {
-        return Si.format(level, Si.unitOfSymbol(drive)) + ", bias " + Si.format(bias, Si.unitOfSymbol(biasMode))
+        return Figures.format(level, Figures.unit(drive)) + ", bias " + Figures.format(bias, Figures.unit(biasMode))
                 + ("none".equals(wiring) ? "" : ", " + wiring.replace('_', ' '));
     }
 

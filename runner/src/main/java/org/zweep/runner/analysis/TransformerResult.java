@@ -5,6 +5,7 @@ import java.util.List;
 import java.util.Locale;
 import java.util.TreeMap;
 import org.zweep.runner.results.PointRow;
+import org.zweep.runner.text.Figures;
 
 /**
  * Transformer parameters from a run: primary inductance with the secondary open (L_oc) and
@@ -60,8 +61,8 @@ public record TransformerResult(double frequencyHz, double openH, double shortH,
         if (!(r > 0) || !Double.isFinite(r)) {
             return "—";
         }
-        return r >= 1 ? Si.format(r, org.zweep.driver.impedance.Unit.NONE, 4) + ":1"
-                : "1:" + Si.format(1 / r, org.zweep.driver.impedance.Unit.NONE, 4);
+        return r >= 1 ? Figures.format(r, org.zweep.driver.impedance.Unit.NONE, 4) + ":1"
+                : "1:" + Figures.format(1 / r, org.zweep.driver.impedance.Unit.NONE, 4);
     }
 
     /**

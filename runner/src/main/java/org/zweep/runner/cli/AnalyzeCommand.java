@@ -16,7 +16,6 @@ import org.zweep.runner.analysis.CircuitFit;
 import org.zweep.runner.analysis.CircuitModel;
 import org.zweep.runner.analysis.Derating;
 import org.zweep.runner.analysis.RunData;
-import org.zweep.runner.analysis.Si;
 import org.zweep.runner.analysis.StepResult;
 import org.zweep.runner.analysis.TransformerResult;
 import picocli.CommandLine.Command;
@@ -24,6 +23,9 @@ import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
+import org.zweep.runner.text.Figures;
+import org.zweep.runner.verdict.CheckText;
+import org.zweep.runner.text.ParameterTable;
 
 /** {@code zweep analyze DIR}: fits, derating, transformer figures, checks; writes {@code DIR/analysis.json}. */
 @Command(name = "analyze", mixinStandardHelpOptions = true,
@@ -63,7 +65,7 @@ public final class AnalyzeCommand implements Callable<Integer> {
 
     /** {@code " ± u"}, or nothing when u is unknown. */
     private static String plusMinus(double u, Unit unit) {
-        return Double.isFinite(u) ? " ± " + Si.format(u, unit, 2) : "";
+        return Double.isFinite(u) ? " ± " + Figures.format(u, unit, 2) : "";
     }
 
     static void summary(PrintWriter out, AnalysisResult a) {
@@ -77,13 +79,13 @@ public final class AnalyzeCommand implements Callable<Integer> {
                 CircuitFit f = sf.fit();
                 StringBuilder b = new StringBuilder("  " + f.model().id() + " fit, " + sf.sweep().describe() + ":");
                 for (Map.Entry<String, Double> e : f.parameters().entrySet()) {
-                    Unit unit = Si.unitOf(e.getKey());
-                    b.append(' ').append(Si.label(e.getKey())).append(' ');
+                    Unit unit = ParameterTable.unit(e.getKey());
+                    b.append(' ').append(ParameterTable.label(e.getKey())).append(' ');
                     b.append(e.getValue() == null ? "not resolved"
-                            : Si.format(e.getValue(), unit) + " ± " + Si.format(f.sigma().get(e.getKey()), unit, 2));
+                            : Figures.format(e.getValue(), unit) + " ± " + Figures.format(f.sigma().get(e.getKey()), unit, 2));
                 }
-                b.append(", SRF ").append(f.srfHz() == null ? "not resolved" : Si.format(f.srfHz(), Unit.HERTZ)
-                        + (f.weighted() && Double.isFinite(f.srfU()) ? " ± " + Si.format(f.srfU(), Unit.HERTZ, 2) : ""));
+                b.append(", SRF ").append(f.srfHz() == null ? "not resolved" : Figures.format(f.srfHz(), Unit.HERTZ)
+                        + (f.weighted() && Double.isFinite(f.srfU()) ? " ± " + Figures.format(f.srfU(), Unit.HERTZ, 2) : ""));
                 b.append(String.format(Locale.ROOT, ", residual %.2g", f.residualRms()));
                 if (f.weighted()) {
                     b.append(String.format(Locale.ROOT, ", weighted by u, reduced chi-squared %.3g", f.reducedChiSquared()));
@@ -94,26 +96,27 @@ public final class AnalyzeCommand implements Callable<Integer> {
             for (Derating d : s.derating()) {
                 List<String> drops = new ArrayList<>();
                 d.drops().forEach((pct, at) -> drops.add(at == null ? "never falls by " + pct + " %"
-                        : pct + " % drop at " + Si.format(at, Si.unitOfSymbol(d.biasMode()))));
-                out.println("  derating at " + Si.format(d.frequencyHz(), Unit.HERTZ) + ": " + String.join(", ", drops));
+                        : pct + " % drop at " + Figures.format(at, Figures.unit(d.biasMode()))));
+                out.println("  derating at " + Figures.format(d.frequencyHz(), Unit.HERTZ) + ": " + String.join(", ", drops));
             }
         }
         TransformerResult t = a.transformer();
         if (t != null) {
             out.printf(Locale.ROOT, "transformer: turns ratio N1:N2 %s (k × measured V1:V2 %s), k %s, leakage L_sc %s"
                     + " (secondary shorted, at %s), mutual %s%n", t.turnsRatioText(), t.voltageRatioText(),
-                    Si.format(t.k(), Unit.NONE, 4) + plusMinus(t.uK(), Unit.NONE),
-                    Si.format(t.leakageH(), Unit.HENRY) + plusMinus(t.uLeakageH(), Unit.HENRY),
-                    Si.format(t.frequencyHz(), Unit.HERTZ), Si.format(t.mutualH(), Unit.HENRY));
+                    Figures.format(t.k(), Unit.NONE, 4) + plusMinus(t.uK(), Unit.NONE),
+                    Figures.format(t.leakageH(), Unit.HENRY) + plusMinus(t.uLeakageH(), Unit.HENRY),
+                    Figures.format(t.frequencyHz(), Unit.HERTZ), Figures.format(t.mutualH(), Unit.HENRY));
         }
+        var units = a.stepUnits();
         for (CheckOutcome c : a.checks()) {
-            out.println(RunLauncher.checkLine(c));
+            out.println(CheckText.line(c, units.apply(c.step())));
         }
         if (a.bins() != null && a.bins().letter() != null) {
             var tol = a.bins().tolerance();
             out.printf(Locale.ROOT, "bin: %+.3f %% of nominal, tolerance letter %s%s%n", a.bins().deviationPercent(),
                     a.bins().letter(), tol == null ? "" : ", against the stated tolerance: " + tol.decision().word()
-                            + " " + tol.how(Si.unitOfSymbol(a.bins().unit())));
+                            + " " + tol.how(Figures.unit(a.bins().unit())));
         }
         if (a.bins() != null && !a.bins().versusChecks().isEmpty()) {
             out.println("bin versus checks: " + a.bins().versusChecks());

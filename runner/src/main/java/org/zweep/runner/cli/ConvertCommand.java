@@ -19,6 +19,7 @@ import org.zweep.driver.impedance.PartFamily;
 import org.zweep.driver.impedance.Quantities;
 import org.zweep.driver.impedance.Unit;
 import org.zweep.driver.impedance.Unit.Bound;
+import org.zweep.driver.uncertainty.MonteCarlo;
 import org.zweep.driver.uncertainty.UncertainImpedance;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Model.CommandSpec;
@@ -257,6 +258,19 @@ final class ConvertCommand implements Callable<Integer> {
         }
     }
 
+    /** Draws of the Monte Carlo check; the seed is fixed so the same input prints the same figures. */
+    static final int MONTE_CARLO_TRIALS = 200_000;
+
+    /**
+     * The parameters whose linear 95 % interval a Monte Carlo propagation (JCGM 101:2008, 8.2)
+     * does not validate, with the Monte Carlo figures.
+     */
+    static Map<DerivedParameter, MonteCarlo.Result> monteCarloCheck(UncertainImpedance z) {
+        List<DerivedParameter> ps = DerivedParameter.contract().stream().filter(p -> p != DerivedParameter.FREQUENCY)
+                .toList();
+        return MonteCarlo.linearFailures(z, ps, MONTE_CARLO_TRIALS, 1L);
+    }
+
     /** The correlations {@code zweep convert} prints: between R, X, |Z| and θ. */
     private static final List<List<DerivedParameter>> CORRELATIONS = List.of(
             List.of(DerivedParameter.R, DerivedParameter.X), List.of(DerivedParameter.R, DerivedParameter.Z),
@@ -286,6 +300,15 @@ final class ConvertCommand implements Callable<Integer> {
             correlations.put(pq.get(0).key() + "," + pq.get(1).key(), finiteOrNull(z.correlation(pq.get(0), pq.get(1))));
         }
         values.put("correlations", correlations);
+        Map<String, Object> mc = new LinkedHashMap<>();
+        monteCarloCheck(z).forEach((p, r) -> {
+            Map<String, Double> o = new LinkedHashMap<>();
+            o.put("u", finiteOrNull(r.standardUncertainty()));
+            o.put("low95", finiteOrNull(r.low95()));
+            o.put("high95", finiteOrNull(r.high95()));
+            mc.put(p.key(), o);
+        });
+        values.put("monte_carlo", mc);
         try {
             return JSON.writeValueAsString(values);
         } catch (JsonProcessingException e) {
@@ -315,6 +338,17 @@ final class ConvertCommand implements Callable<Integer> {
             double r = z.correlation(pq.get(0), pq.get(1));
             out.printf("r(%s, %s) = %s%n", pq.get(0).label(), pq.get(1).label(),
                     Double.isNaN(r) ? "-" : String.format(java.util.Locale.ROOT, "%.3f", Math.round(r * 1000) / 1000.0 + 0.0));
+        }
+        Map<DerivedParameter, MonteCarlo.Result> mc = monteCarloCheck(z);
+        if (!mc.isEmpty()) {
+            out.println();
+            out.printf(java.util.Locale.ROOT, "the linear law does not hold here for %s: the Monte Carlo method (JCGM 101:2008, %,d draws)"
+                    + " gives%n", mc.keySet().stream().map(DerivedParameter::label).collect(Collectors.joining(", ")),
+                    MONTE_CARLO_TRIALS);
+            mc.forEach((p, r) -> out.printf(row, p.label(), "95 % interval",
+                    Quantities.format(r.low95(), p.unit(), UNCERTAINTY_DIGITS) + " … "
+                            + Quantities.format(r.high95(), p.unit(), UNCERTAINTY_DIGITS),
+                    "(u = " + Quantities.format(r.standardUncertainty(), p.unit(), UNCERTAINTY_DIGITS) + ")"));
         }
         suggest(out, z.value(), family);
     }

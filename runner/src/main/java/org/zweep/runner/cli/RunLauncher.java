@@ -38,6 +38,8 @@ import org.zweep.runner.engine.RunResult;
 import org.zweep.runner.engine.RunSession;
 import org.zweep.runner.engine.ScpiMeterLink;
 import org.zweep.runner.plan.CheckLimit;
+import org.zweep.runner.text.Figures;
+import org.zweep.runner.verdict.CheckText;
 import org.zweep.runner.plan.MeterSpec;
 import org.zweep.runner.plan.Plan;
 import org.zweep.runner.results.FolderLock;
@@ -283,7 +285,7 @@ final class RunLauncher {
                     guard.close();
                 }
             }
-            printSummary(folder, s);
+            printSummary(folder, s, stepUnits(plan));
             recordEnd(events, s);
             ended = true;
             return exitCode(s);
@@ -375,9 +377,9 @@ final class RunLauncher {
             events.write("check", n -> {
                 n.put("name", c.limit().name());
                 n.put("parameter", c.limit().parameter());
+                n.put("label", CheckText.label(c));
                 n.put("value", c.lastValue());
-                n.put("value_text", Double.isNaN(c.lastValue()) ? "no value"
-                        : Quantities.formatShort(c.lastValue(), c.unit(), 4));
+                n.put("value_text", CheckText.value(c));
                 n.put("result", c.result());
             });
         }
@@ -408,7 +410,8 @@ final class RunLauncher {
         };
     }
 
-    void printSummary(RunFolder folder, RunSession.Summary s) {
+    void printSummary(RunFolder folder, RunSession.Summary s,
+            java.util.function.Function<String, CheckText.StepUnits> units) {
         RunResult r = s.result();
         finishedFolder = folder.dir();
         out.printf(Locale.ROOT, "results: %s%n", folder.dir());
@@ -420,54 +423,23 @@ final class RunLauncher {
             err.println("zweep: the run folder is resumable: zweep run --resume " + folder.dir());
         }
         for (CheckOutcome c : s.checks()) {
-            out.println(checkLine(c));
+            out.println(CheckText.line(c, units.apply(c.step())));
         }
         out.println("verdict: " + s.verdict());
         out.flush();
     }
 
-    /**
-     * One check's outcome for people, the same line in {@code zweep run} and {@code zweep analyze}:
-     * {@code check NAME PARAMETER at 1 kHz, bias 0 A in STEP = 10.02 µH: pass}.
-     */
-    static String checkLine(CheckOutcome c) {
-        CheckLimit l = c.limit();
-        StringBuilder where = new StringBuilder();
-        CheckLimit.Selection s = l.selection();
-        List<String> sel = new ArrayList<>();
-        if (!Double.isNaN(s.frequencyHz())) {
-            sel.add(Quantities.formatShort(s.frequencyHz(), Unit.HERTZ, 4));
+    /** The units of each step's bias and drive level in {@code plan}, for the check lines. */
+    static java.util.function.Function<String, CheckText.StepUnits> stepUnits(Plan plan) {
+        java.util.Map<String, CheckText.StepUnits> byStep = new java.util.HashMap<>();
+        for (org.zweep.runner.plan.PlannedStep st : plan.steps()) {
+            if (!st.points().isEmpty()) {
+                var setting = st.points().get(0).setting();
+                byStep.put(st.name(), new CheckText.StepUnits(Figures.unit(setting.bias().mode().unit()),
+                        Figures.unit(setting.drive().mode().unit())));
+            }
         }
-        if (!Double.isNaN(s.bias())) {
-            sel.add("bias " + Quantities.formatShort(s.bias(), Unit.NONE, 4));
-        }
-        if (!Double.isNaN(s.level())) {
-            sel.add("level " + Quantities.formatShort(s.level(), Unit.NONE, 4));
-        }
-        if (!Double.isNaN(l.dropPercent())) {
-            sel.add(String.format(Locale.ROOT, "%s %% drop", Quantities.formatShort(l.dropPercent(), Unit.NONE, 4)));
-        }
-        if (!sel.isEmpty()) {
-            where.append(" at ").append(String.join(", ", sel));
-        }
-        String value;
-        if (c.values().isEmpty()) {
-            value = "no value";
-        } else if (c.values().size() == 1) {
-            value = Quantities.formatShort(c.values().get(0), c.unit(), 4);
-        } else {
-            double lo = c.values().stream().mapToDouble(Double::doubleValue).min().orElseThrow();
-            double hi = c.values().stream().mapToDouble(Double::doubleValue).max().orElseThrow();
-            value = Quantities.formatShort(lo, c.unit(), 4) + " … " + Quantities.formatShort(hi, c.unit(), 4) + " ("
-                    + c.values().size() + " points)";
-        }
-        String rule = "";
-        if (l.rule() != org.zweep.runner.conformance.DecisionRule.SIMPLE || !Double.isNaN(c.expandedU())) {
-            rule = " " + org.zweep.runner.conformance.Conformance.how(l.rule().text(), c.expandedU(), c.probability(),
-                    c.unit());
-        }
-        return String.format(Locale.ROOT, "check %-22s %s%s in %s = %s: %s%s%s", l.name(), l.parameter(), where,
-                l.step(), value, c.result(), rule, c.note().isEmpty() ? "" : " (" + c.note() + ")");
+        return step -> byStep.getOrDefault(step, CheckText.StepUnits.UNKNOWN);
     }
 
     /** {@code plan} with its meter address and dialect replaced where {@code meter} or {@code dialect} is not null. */

@@ -15,7 +15,6 @@ import java.util.Locale;
 import java.util.concurrent.Callable;
 import org.zweep.driver.InvalidInputException;
 import org.zweep.driver.impedance.Unit;
-import org.zweep.runner.analysis.Si;
 import org.zweep.runner.live.EventLog;
 import org.zweep.runner.live.LiveServer;
 import picocli.CommandLine.Command;
@@ -23,6 +22,7 @@ import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
+import org.zweep.runner.text.Figures;
 
 /** {@code zweep watch DIR}: follows a run's events in the terminal, or serves its live page. */
 @Command(
@@ -122,7 +122,7 @@ final class WatchCommand implements Callable<Integer> {
                     case "run_started" -> {
                         mainKey = e.path("main_parameter").asText(mainKey);
                         mainLabel = e.path("main_label").asText(mainLabel);
-                        mainUnit = Si.unitOfSymbol(e.path("main_unit").asText());
+                        mainUnit = Figures.unit(e.path("main_unit").asText());
                         out.printf(Locale.ROOT, "run %s: %d points (%d already measured)%n", e.path("name").asText(),
                                 e.path("total").asInt(), e.path("done").asInt());
                     }
@@ -136,17 +136,17 @@ final class WatchCommand implements Callable<Integer> {
                     case "point" -> {
                         StringBuilder b = new StringBuilder(String.format(Locale.ROOT, "[%d/%d] %s",
                                 e.path("done").asInt(), e.path("total").asInt(),
-                                Si.format(e.path("frequency_hz").asDouble(), Unit.HERTZ)));
+                                Figures.format(e.path("frequency_hz").asDouble(), Unit.HERTZ)));
                         if (e.path("bias").asDouble() != 0) {
-                            b.append(", bias ").append(Si.format(e.path("bias").asDouble(),
-                                    Si.unitOfSymbol(e.path("bias_mode").asText("V"))));
+                            b.append(", bias ").append(Figures.format(e.path("bias").asDouble(),
+                                    Figures.unit(e.path("bias_mode").asText("V"))));
                         }
                         if (e.has("z_ohm")) {
                             stepZ.add(e.path("z_ohm").asDouble());
-                            b.append("  |Z| ").append(Si.format(e.path("z_ohm").asDouble(), Unit.OHM))
+                            b.append("  |Z| ").append(Figures.format(e.path("z_ohm").asDouble(), Unit.OHM))
                                     .append(String.format(Locale.ROOT, "  θ %.2f°", e.path("theta_deg").asDouble()))
                                     .append("  ").append(mainLabel).append(' ')
-                                    .append(Si.format(e.path(mainKey).asDouble(Double.NaN), mainUnit));
+                                    .append(Figures.format(e.path(mainKey).asDouble(Double.NaN), mainUnit));
                         } else if (e.has("ratio")) {
                             b.append(String.format(Locale.ROOT, "  V2/V1 %.5g", e.path("ratio").asDouble()));
                         } else {
@@ -161,7 +161,9 @@ final class WatchCommand implements Callable<Integer> {
                             + " (answer at the run's terminal or on its live page)");
                     case "prompt_answered" -> out.println("   answered (" + e.path("by").asText() + ")");
                     case "note", "reconnect" -> out.println("note: " + e.path("text").asText());
-                    case "check" -> out.println("check " + e.path("name").asText() + ": " + e.path("result").asText());
+                    case "check" -> out.println("check " + e.path("name").asText() + ": "
+                            + e.path("label").asText(e.path("parameter").asText()) + " = "
+                            + e.path("value_text").asText("no value") + ": " + e.path("result").asText());
                     case "finished" -> {
                         if (!stepZ.isEmpty()) {
                             out.println("  |Z| " + sparkline(stepZ));
@@ -204,6 +206,6 @@ final class WatchCommand implements Callable<Integer> {
             int i = (int) Math.round(Math.log(v / lo) / Math.log(hi / lo) * (BARS.length() - 1));
             b.append(BARS.charAt(Math.max(0, Math.min(BARS.length() - 1, i))));
         }
-        return b + "  " + Si.format(lo, Unit.OHM, 3) + " … " + Si.format(hi, Unit.OHM, 3);
+        return b + "  " + Figures.format(lo, Unit.OHM, 3) + " … " + Figures.format(hi, Unit.OHM, 3);
     }
 }

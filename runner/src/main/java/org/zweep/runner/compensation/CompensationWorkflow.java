@@ -91,7 +91,7 @@ public final class CompensationWorkflow {
                 reusedFrom = before.reusedFrom();
             }
             log.accept("compensation: using the data already in the run folder (measured "
-                    + org.zweep.runner.analysis.Si.time(data.info().time()) + ")");
+                    + org.zweep.runner.text.Figures.time(data.info().time()) + ")");
         } else {
             Optional<Path> reusable = findReusable(plan, station, folder, clock.instant());
             if (reusable.isPresent()) {
@@ -99,7 +99,7 @@ public final class CompensationWorkflow {
                 source = "reused";
                 reusedFrom = reusable.get().toAbsolutePath().normalize().toString();
                 log.accept("compensation: reusing " + reusable.get() + " measured "
-                        + org.zweep.runner.analysis.Si.time(data.info().time()));
+                        + org.zweep.runner.text.Figures.time(data.info().time()));
             } else {
                 data = measure(plan, station, clock);
                 if (fx.store() != null) {

@@ -10,6 +10,9 @@ import java.nio.ByteBuffer;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.nio.file.StandardWatchEventKinds;
+import java.nio.file.WatchKey;
+import java.nio.file.WatchService;
 import java.util.Properties;
 import java.util.concurrent.TimeUnit;
 import org.eclipse.jetty.http.HttpHeader;
@@ -29,17 +32,24 @@ import org.eclipse.jetty.util.thread.QueuedThreadPool;
  * {@code events.jsonl} as server-sent events (every viewer gets the whole run, then each new line
  * as it is appended; a reconnecting browser resumes from its {@code Last-Event-ID}), and
  * {@code POST /answer} ({@code id=...}) appends the answer to a prompt. Nothing is fetched from
- * elsewhere. Each viewer is served by its own pool thread; {@link #close()} ends them.
+ * elsewhere. Each viewer is served by its own pool thread; {@link #close()} ends them. A new line
+ * reaches the viewers as soon as it is written: the folder is watched (inotify on Linux, through
+ * {@link WatchService}), and the file is read again at least every {@link #POLL_MS} in case a
+ * change was not reported (a file system without notifications).
  */
 public final class LiveServer implements AutoCloseable {
-    /** How often a viewer's stream looks for new lines. */
-    static final long POLL_MS = 20;
+    /** How often a viewer's stream looks for new lines when no change is reported. */
+    static final long POLL_MS = 250;
     private static final long HEARTBEAT_MS = 10_000;
 
     private final Server server;
     private final ServerConnector connector;
     private final Path dir;
     private volatile boolean running = true;
+    /** Counts reported changes of the folder; viewers wait on it. */
+    private final Object changes = new Object();
+    private long changeCount;
+    private final Thread watcher;
 
     private LiveServer(Path dir, InetSocketAddress bind) {
         this.dir = dir;
@@ -58,6 +68,47 @@ public final class LiveServer implements AutoCloseable {
             }
         });
         server.setStopTimeout(2000);
+        watcher = new Thread(this::watch, "zweep-live-watch");
+        watcher.setDaemon(true);
+    }
+
+    /** Wakes the viewers whenever the folder reports a change, until {@link #close()}. */
+    private void watch() {
+        try (WatchService ws = dir.getFileSystem().newWatchService()) {
+            dir.register(ws, StandardWatchEventKinds.ENTRY_CREATE, StandardWatchEventKinds.ENTRY_MODIFY);
+            while (running) {
+                WatchKey key = ws.take();
+                key.pollEvents();
+                key.reset();
+                changed();
+            }
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+        } catch (IOException | java.nio.file.ClosedWatchServiceException | UnsupportedOperationException e) {
+            // no notifications: the viewers fall back to reading every POLL_MS
+        }
+    }
+
+    private void changed() {
+        synchronized (changes) {
+            changeCount++;
+            changes.notifyAll();
+        }
+    }
+
+    private long changeCount() {
+        synchronized (changes) {
+            return changeCount;
+        }
+    }
+
+    /** Waits until a change after {@code seen} is reported, at most {@link #POLL_MS}. */
+    private void awaitChange(long seen) throws InterruptedException {
+        synchronized (changes) {
+            if (changeCount == seen && running) {
+                changes.wait(POLL_MS);
+            }
+        }
     }
 
     /**
@@ -68,6 +119,7 @@ public final class LiveServer implements AutoCloseable {
         LiveServer s = new LiveServer(dir, bind);
         try {
             s.server.start();
+            s.watcher.start();
         } catch (Exception e) {
             throw new UncheckedIOException(new IOException("cannot serve the live view on " + bind + ": "
                     + e.getMessage(), e));
@@ -159,6 +211,7 @@ public final class LiveServer implements AutoCloseable {
         try {
             send(response, "retry: 500\n\n");
             while (running) {
+                long seen = changeCount();
                 StringBuilder chunk = new StringBuilder();
                 if (Files.exists(file)) {
                     try (RandomAccessFile f = new RandomAccessFile(file.toFile(), "r")) {
@@ -191,7 +244,7 @@ public final class LiveServer implements AutoCloseable {
                     send(response, ": still here\n\n");
                     lastWrite = System.currentTimeMillis();
                 } else {
-                    Thread.sleep(POLL_MS);
+                    awaitChange(seen);
                 }
             }
             callback.succeeded();
@@ -227,6 +280,8 @@ public final class LiveServer implements AutoCloseable {
     @Override
     public void close() {
         running = false;
+        watcher.interrupt();
+        changed();
         try {
             server.stop();
         } catch (Exception e) {

@@ -25,7 +25,7 @@ import org.zweep.driver.impedance.Unit;
 import org.zweep.runner.analysis.CircuitFit;
 import org.zweep.runner.analysis.Derating;
 import org.zweep.runner.analysis.Resonance;
-import org.zweep.runner.analysis.Si;
+import org.zweep.runner.text.Figures;
 
 /**
  * Builds the charts. Our own look: white background, light grid, labelled axes with units and SI
@@ -268,7 +268,7 @@ public final class Charts {
         }
         ValueMarker m = new ValueMarker(srf, Color.GRAY, new BasicStroke(1f, BasicStroke.CAP_BUTT,
                 BasicStroke.JOIN_MITER, 1f, new float[] {4f, 4f}, 0f));
-        m.setLabel("SRF " + Si.format(srf, Unit.HERTZ, 3));
+        m.setLabel("SRF " + Figures.format(srf, Unit.HERTZ, 3));
         m.setLabelFont(TICK);
         m.setLabelBackgroundColor(Color.WHITE);
         m.setLabelAnchor(org.jfree.chart.ui.RectangleAnchor.BOTTOM_LEFT);
@@ -297,7 +297,7 @@ public final class Charts {
     /** The value in % of its zero-bias value versus DC bias, with the drop levels and crossings marked. */
     public static JFreeChart derating(String title, Derating d) {
         XYSeries s = new XYSeries(("cs_f".equals(d.quantity()) ? "C" : "L") + " / value at "
-                + Si.format(d.referenceBias(), Si.unitOfSymbol(d.biasMode())));
+                + Figures.format(d.referenceBias(), Figures.unit(d.biasMode())));
         for (Derating.Point p : d.points()) {
             s.add(p.bias(), p.percent());
         }
@@ -313,7 +313,7 @@ public final class Charts {
         NumberAxis x = ReadableTicks.linear("DC bias", d.biasMode(), maxBias, true);
         style(x);
         NumberAxis y = ReadableTicks.linear(("cs_f".equals(d.quantity()) ? "C" : "L") + " (% of value at "
-                + Si.format(d.referenceBias(), Si.unitOfSymbol(d.biasMode())) + ")", "", 100, false);
+                + Figures.format(d.referenceBias(), Figures.unit(d.biasMode())) + ")", "", 100, false);
         style(y);
         y.setAutoRangeIncludesZero(false);
         XYLineAndShapeRenderer renderer = line(BLUE, true);

@@ -16,9 +16,9 @@ import org.zweep.runner.analysis.Analysis;
 import org.zweep.runner.analysis.AnalysisResult;
 import org.zweep.runner.analysis.CircuitFit;
 import org.zweep.runner.analysis.Derating;
-import org.zweep.runner.analysis.Si;
 import org.zweep.runner.analysis.StepResult;
 import org.zweep.runner.analysis.Sweep;
+import org.zweep.runner.text.Figures;
 
 /**
  * Renders the charts of an analysis to PNG and SVG under {@code DIR/plots/}. Sets
@@ -75,7 +75,7 @@ public final class Plots {
             int i = 0;
             for (Derating d : s.derating()) {
                 String t = ("cs_f".equals(d.quantity()) ? "C vs DC bias" : "L vs bias current") + ", " + s.name() + " at "
-                        + Si.format(d.frequencyHz(), Unit.HERTZ);
+                        + Figures.format(d.frequencyHz(), Unit.HERTZ);
                 out.add(new Named(stem + "-bias" + (i++ == 0 ? "" : "-" + i), Charts.derating(t, d)));
             }
         }

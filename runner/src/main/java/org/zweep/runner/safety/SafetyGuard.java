@@ -122,6 +122,6 @@ public final class SafetyGuard {
         String symbol = space < 0 ? unit : unit.substring(0, space);
         String rest = space < 0 ? "" : unit.substring(space);
         return org.zweep.driver.impedance.Unit.ofSymbol(symbol)
-                .map(u -> org.zweep.runner.analysis.Si.format(v, u, 6) + rest).orElse(v + " " + unit);
+                .map(u -> org.zweep.runner.text.Figures.format(v, u, 6) + rest).orElse(v + " " + unit);
     }
 }

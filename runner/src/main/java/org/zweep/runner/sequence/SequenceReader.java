@@ -85,6 +85,22 @@ final class SequenceReader {
             PartKind.TRANSFORMER, List.of("ls_h", "lp_h", "ratio"),
             PartKind.RESISTOR, List.of("rs_ohm", "rp_ohm", "r_ohm", "z_ohm"));
 
+    /**
+     * Whole-sweep figures a check may name besides {@code srf_hz} and {@code saturation}: the
+     * values of the equivalent circuit fitted to the step's first sweep (the part kind's default
+     * model) and the transformer figures, with their units.
+     */
+    static final Map<PartKind, Map<String, Unit>> SWEEP_FIGURES = Map.of(
+            PartKind.CAPACITOR, Map.of("c_f", Unit.FARAD, "esr_ohm", Unit.OHM, "esl_h", Unit.HENRY),
+            PartKind.INDUCTOR, Map.of("l_h", Unit.HENRY),
+            PartKind.TRANSFORMER, Map.of("l_h", Unit.HENRY, "turns_ratio", Unit.NONE, "k", Unit.NONE,
+                    "leakage_h", Unit.HENRY, "mutual_h", Unit.HENRY),
+            PartKind.RESISTOR, Map.of());
+
+    /** The fitted value of each part kind that {@code within} compares with the nominal. */
+    static final Map<PartKind, String> FITTED_NOMINAL = Map.of(PartKind.CAPACITOR, "c_f", PartKind.INDUCTOR, "l_h",
+            PartKind.TRANSFORMER, "l_h");
+
     static final String SRF = CheckLimit.SRF;
     static final String SATURATION = CheckLimit.SATURATION;
     private static final Pattern NAME = Pattern.compile("[A-Za-z0-9._-]+");
@@ -593,6 +609,8 @@ final class SequenceReader {
         List<String> known = new ArrayList<>(POINT_PARAMETERS.keySet());
         known.add(SRF);
         known.add(SATURATION);
+        Map<String, Unit> figures = part == null ? Map.of() : SWEEP_FIGURES.get(part.kind());
+        known.addAll(new java.util.TreeSet<>(figures.keySet()));
         if (!known.contains(parameter)) {
             throw pn.error("unknown parameter '" + parameter + "'" + Suggest.didYouMean(parameter, known)
                     + "; expected one of: " + String.join(", ", known));
@@ -606,19 +624,20 @@ final class SequenceReader {
         double frequencyHz = Double.NaN;
         double dropPercent = Double.NaN;
         Unit unit;
-        if (parameter.equals(SRF)) {
-            unit = Unit.HERTZ;
+        if (parameter.equals(SRF) || figures.containsKey(parameter)) {
+            unit = parameter.equals(SRF) ? Unit.HERTZ : figures.get(parameter);
+            boolean transformer = List.of("turns_ratio", "k", "leakage_h", "mutual_h").contains(parameter);
             if (m.has("at")) {
-                throw m.values().get("at").error("srf_hz is a whole-sweep figure: remove 'at'");
+                throw m.values().get("at").error(parameter + " is a whole-sweep figure: remove 'at'");
             }
             for (String k : List.of("bias", "level")) {
                 if (m.has(k)) {
-                    throw m.values().get(k).error("srf_hz is found on the step's first fitted sweep: remove '" + k
-                            + "'");
+                    throw m.values().get(k).error(parameter + " is found on " + (transformer
+                            ? "the run's transformer steps" : "the step's first fitted sweep") + ": remove '" + k + "'");
                 }
             }
-            if (step.frequencies().values().size() < 2) {
-                throw pn.error("srf_hz needs a frequency sweep; step '" + stepName + "' has one frequency");
+            if (!transformer && step.frequencies().values().size() < 2) {
+                throw pn.error(parameter + " needs a frequency sweep; step '" + stepName + "' has one frequency");
             }
         } else if (parameter.equals(SATURATION)) {
             if (step.bias() == null || step.bias().values().size() < 2) {
@@ -758,6 +777,9 @@ final class SequenceReader {
     }
 
     private static double nominalFor(YamlNode within, String parameter, Part part) {
+        if (parameter.equals(FITTED_NOMINAL.get(part.kind()))) {
+            return part.nominal();
+        }
         if (parameter.equals("ratio")) {
             if (Double.isNaN(part.turnsRatio())) {
                 throw within.error("within on ratio needs part turns_ratio");

@@ -151,11 +151,7 @@ public final class CheckEvaluator {
 
     /** The unit of a point parameter (or of {@code srf_hz}); {@link Unit#NONE} for one without. */
     static Unit unitOf(String parameter) {
-        if (CheckLimit.SRF.equals(parameter)) {
-            return Unit.HERTZ;
-        }
-        DerivedParameter p = Derived.parameter(parameter);
-        return p == null ? Unit.NONE : p.unit();
+        return org.zweep.runner.text.ParameterTable.unit(parameter);
     }
 
     /**

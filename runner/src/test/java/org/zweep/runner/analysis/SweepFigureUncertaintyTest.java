@@ -127,6 +127,6 @@ class SweepFigureUncertaintyTest {
         assertFalse(text.contains("failed"), text);
         assertTrue(text.contains("cap (cs_f): conditional pass (inside its limits, but within U of one: not a proven"
                 + " pass)"), text);
-        assertTrue(text.contains("against the stated tolerance: pass [guarded]"), text);
+        assertTrue(text.contains("against the stated tolerance: pass [guarded]."), text);
     }
 }

@@ -83,7 +83,7 @@ class AnalyzeCommandTest {
         StringWriter out = new StringWriter();
         StringWriter err = new StringWriter();
         assertEquals(1, run(out, err, "analyze", dir.toString()));
-        assertTrue(out.toString().contains("srf_hz in sweep = 15.92 MHz: fail"), out.toString());
+        assertTrue(out.toString().contains("SRF in sweep = 15.92 MHz: fail"), out.toString());
     }
 
     @Test

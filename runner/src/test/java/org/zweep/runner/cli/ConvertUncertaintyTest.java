@@ -26,6 +26,30 @@ class ConvertUncertaintyTest {
     }
 
     @Test
+    void theMonteCarloCheckIsQuietWhereTheLinearLawHoldsAndSpeaksWhereItFails() throws Exception {
+        // JCGM 100:2008, H.2 inputs (R = 127.732 Ω, u 0.071 Ω; X = 219.847 Ω, u 0.295 Ω; r = −0.588):
+        // every parameter is smooth within ±u, so JCGM 101:2008, 8.2 validates the linear law
+        JsonNode h2 = ConvertCommandTest.json("convert", "-f", "50", "--r", "127.732", "--x", "219.847",
+                "--u-r", "0.071", "--u-x", "0.295", "--correlation", "-0.588");
+        assertEquals(0, h2.get("monte_carlo").size(), h2.get("monte_carlo").toString());
+        // a nearly lossless capacitor, R = 0.01 ± 0.01 Ω on X = −1591.5 Ω: Q = |X|/R has its pole within
+        // ±u of R (JCGM 101:2008, 5.10: the linear law fails for a model markedly non-linear within u),
+        // while D = R/|X| is linear in R and stays validated
+        JsonNode lossless = ConvertCommandTest.json("convert", "-f", "1kHz", "--r", "0.01", "--x", "-1591.5",
+                "--u-r", "0.01", "--u-x", "1");
+        JsonNode mc = lossless.get("monte_carlo");
+        assertTrue(mc.has("q"), mc.toString());
+        assertTrue(!mc.has("d"), mc.toString());
+        double q = lossless.get("q").asDouble();
+        double uQ = lossless.get("u_q").asDouble();
+        // R's draws cross zero, so the Monte Carlo interval of Q reaches far below the linear one's low end
+        assertTrue(mc.get("q").get("low95").asDouble() < q - 1.96 * uQ, mc.toString());
+        ConvertCommandTest.Run table = ConvertCommandTest.zweep("convert", "-f", "1kHz", "--r", "0.01", "--x",
+                "-1591.5", "--u-r", "0.01", "--u-x", "1");
+        assertTrue(table.out().contains("the linear law does not hold here for Q"), table.out());
+    }
+
+    @Test
     void everyContractParameterGetsUAndU() throws Exception {
         JsonNode node = ConvertCommandTest.json("convert", "-f", "1kHz", "--cs", "1uF", "--esr", "1",
                 "--u-r", "10m", "--u-x", "50m");

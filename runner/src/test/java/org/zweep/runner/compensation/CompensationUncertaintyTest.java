@@ -112,7 +112,7 @@ class CompensationUncertaintyTest {
     @Test
     void theLoadStandardsRelativeUncertaintyPassesOneToOneToTheCorrectedValue() {
         // Z = Z_std·F(readings), so with exact readings u(Z)/|Z| = u(Z_std)/|Z_std| for a load whose
-        // u is the same fraction on both parts (follows from the open/short/load formula, no source)
+        // u is the same fraction on both parts (follows from the open/short/load formula)
         CompensationData d = new CompensationData(HostCorrectorTest.info(List.of("OPEN", "SHORT", "LOAD")), List.of(
                 HostCorrectorTest.e(CorrectionStandard.OPEN, F, 10500, -30500),
                 HostCorrectorTest.e(CorrectionStandard.SHORT, F, 0.264363030808, 2.04621149042),

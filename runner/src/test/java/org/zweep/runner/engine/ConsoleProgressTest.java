@@ -62,7 +62,7 @@ class ConsoleProgressTest {
                 false);
         clock.set(2_000_000_000L);
         p.work("compensation: the meter acquires the OPEN standard", 8.4);
-        // no outside source: 1 s start + 3 points of 1 s + 0.5 s finish = 4.5 s, 2 s gone: 2.5 s (rounds to 3)
+        // 1 s start + 3 points of 1 s + 0.5 s finish = 4.5 s, 2 s gone: 2.5 s (rounds to 3)
         assertEquals("[0/3] 0%  ETA 00:03  elapsed 00:02  compensation: the meter acquires the OPEN standard"
                 + " (00:08 left)", text.toString().strip());
     }

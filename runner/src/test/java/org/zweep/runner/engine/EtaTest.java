@@ -19,7 +19,7 @@ class EtaTest {
     void beforeAnythingTheEtaIsTheWholeEstimateCountingDown() {
         Eta eta = new Eta(estimate());
         eta.begin(0);
-        // no outside source: 0.5 + 1.5 + 4 + 10 + 1 = 17 s
+        // 0.5 + 1.5 + 4 + 10 + 1 = 17 s
         assertEquals(17.0, eta.remainingS(0), 1e-9);
         assertEquals(16.0, eta.remainingS(S), 1e-9);
     }
@@ -29,7 +29,7 @@ class EtaTest {
         Eta eta = new Eta(estimate());
         eta.begin(0);
         eta.pointsStart(0, 3500 * S / 1000); // 0.5 s start, then 3 s of compensation for 1.5 s expected: ratio 2
-        // no outside source: remaining meter 4 s · 2 + the 10 s ramp + 1 s finish
+        // remaining meter 4 s · 2 + the 10 s ramp + 1 s finish
         assertEquals(19.0, eta.remainingS(3500 * S / 1000), 1e-9);
         eta.measured(0, 5500 * S / 1000); // 2 s for 1 s expected: still 2
         assertEquals(3 * 2 + 10 + 1, eta.remainingS(5500 * S / 1000), 1e-9);

@@ -88,7 +88,6 @@ class RunEngineTest {
                 assertTrue(Math.abs(b.value()) <= rampPerS * Station.RAMP_STEP_S + 1e-9, "first step " + b);
             }
         }
-        // arithmetic from the plan's ramp limit and settle time (our own demo data, no outside source)
         // every biased point is measured at least the settle time (0.5 s) after the last bias change before it
         for (PointRow row : rows) {
             if (row.bias() == 0) {
@@ -128,7 +127,7 @@ class RunEngineTest {
     void biasIsOffAtTheNormalEnd() {
         run(TestPlans.capacitor(), new BitSet());
         assertEquals(Bias.OFF, bench.instrumentBias);
-        // 5 V is our own demo plan's highest bias, not an outside value
+        // 5 V is the plan's highest bias
         assertTrue(bench.biasHistory.stream().anyMatch(e -> e.value() == 5.0), "bias was applied during the run");
     }
 
@@ -240,7 +239,7 @@ class RunEngineTest {
         assertEquals(11, r.measured());
         assertEquals(List.of(6, 7, 8, 9, 10), rows.stream().map(PointRow::point).toList());
         for (PointRow row : rows) {
-            assertEquals(full.get(row.point()).rOhm(), row.rOhm(), 0.0); // the first run's value, no outside source
+            assertEquals(full.get(row.point()).rOhm(), row.rOhm(), 0.0); // the first run's value
         }
     }
 
@@ -259,7 +258,7 @@ class RunEngineTest {
         done.set(1);
         run(TestPlans.capacitor(), done);
         assertEquals(2, rows.get(0).point());
-        assertEquals(full.get(2).rOhm(), rows.get(0).rOhm(), 0.0); // the first run's value, no outside source
+        assertEquals(full.get(2).rOhm(), rows.get(0).rOhm(), 0.0); // the first run's value
     }
 
     @Test
@@ -286,7 +285,7 @@ class RunEngineTest {
         MeasurementSetting hot = MeasurementSetting.at(1000).withBias(Bias.voltage(30.0)); // limit is 25 V
         InvalidInputException e = assertThrows(InvalidInputException.class,
                 () -> st.measure(hot, BiasControl.NONE, 0, 0));
-        // 25 V is our own test configuration (TestPlans.LIMITS), not an outside value
+        // 25 V: TestPlans.LIMITS
         assertTrue(e.getMessage().contains("DC bias 30 V exceeds the safety limit 25 V"), e.getMessage());
         assertTrue(bench.trace.isEmpty(), bench.trace.toString());
     }

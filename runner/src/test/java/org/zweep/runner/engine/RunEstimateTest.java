@@ -35,7 +35,7 @@ class RunEstimateTest {
                     bias: {values: [0 V, 10 V], ramp: 5 V/s, settle: 1 s}
                 """);
         RunEstimate e = RunEstimate.of(plan);
-        // no outside source: arithmetic from the sequence above and standard.yaml's [timing]
+        // from the sequence above and standard.yaml's [timing]
         // (point-overhead 2 ms, min-periods 2, bias-settle 50 ms). Two list sweeps (one per bias value):
         // 10 Hz: 2·max(0.1, 2/10) + 0.002 + 0.05 (bias changed) = 0.452 s; 1 kHz: 2·0.1 + 0.002 = 0.202 s
         assertEquals(2 * (0.452 + 0.202), e.steps().get(0).meterS(), 1e-12);
@@ -58,14 +58,14 @@ class RunEstimateTest {
                   - {name: s, frequency: [1 kHz, 10 kHz], level: 1 V, integration: 100 ms}
                 """);
         RunEstimate e = RunEstimate.of(plan);
-        // no outside source: per standard 2 points of 0.1 + 0.002 s, 2 exchanges each, 1 for the fixture
+        // per standard 2 points of 0.1 + 0.002 s, 2 exchanges each, 1 for the fixture
         assertEquals(2 * (2 * 0.102 + 5 * RunEstimate.EXCHANGE_S), e.compensationS(), 1e-12);
         assertEquals(2, e.compensationStandardS().size());
     }
 
     @Test
     void formatsForPeople() {
-        // our own display format; arithmetic from the inputs (185 s = 3 min 5 s, 3720 s = 1 h 2 min), no source
+        // 185 s = 3 min 5 s, 3720 s = 1 h 2 min
         assertEquals("4.2 s", RunEstimate.format(4.2));
         assertEquals("42 s", RunEstimate.format(42.4));
         assertEquals("3 min 5 s", RunEstimate.format(185));

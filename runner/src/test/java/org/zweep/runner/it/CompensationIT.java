@@ -96,7 +96,7 @@ class CompensationIT {
                 + relErr(raw.get(top), truth.get(top)));
         for (int i = 0; i <= top; i++) {
             // the bench's noise is 1e-4 relative (kp-c0805-104.bench.yaml); 1 % leaves room for the
-            // noise of the standards and for the meter's grid interpolation - common practice, no source
+            // noise of the standards and for the meter's grid interpolation
             assertTrue(relErr(host.get(i), truth.get(i)) < 0.01, "host vs truth at point " + i + ": "
                     + relErr(host.get(i), truth.get(i)));
             assertTrue(relErr(meter.get(i), truth.get(i)) < 0.01, "meter vs truth at point " + i + ": "

@@ -122,7 +122,7 @@ class HostCompensationOverloadIT {
     void anIdealFixtureWhoseOpenOverloadsEverywhereStillRecoversTheNetlist() throws Exception {
         // --ideal: no residuals, no strays, no noise; the open is an infinite impedance at every frequency
         BenchSpec spec = BenchSpec.load(bench("")).ideal();
-        JsonNode run = recovers(spec, 1e-6); // ngspice reference; 1e-6: the two solvers' rounding, no source
+        JsonNode run = recovers(spec, 1e-6); // ngspice reference; 1e-6: the two solvers' rounding
         JsonNode over = run.at("/compensation/open_over_range_hz");
         assertEquals(21, over.size(), run.toPrettyString()); // 100 Hz .. 1 MHz, 5 per decade
         String csv = Files.readString(dir.resolve("run/compensation/host.csv"));

@@ -79,7 +79,6 @@ class LiveViewChromiumIT {
             }
             assertTrue(prompts.stream().anyMatch(t -> t.contains("Fit the KP-C0805-104")), prompts.toString());
             // a second viewer joins mid-run and gets the whole run so far, then the rest as it comes
-            long openedAt = System.currentTimeMillis();
             second = Browser.open(tmp, 1000, 800);
             second.get(url);
             long sofar = received(first);
@@ -97,6 +96,7 @@ class LiveViewChromiumIT {
 
             // the first viewer reloads (a browser reconnecting) and catches up again
             long before = received(first);
+            List<Map<String, Object>> beforeReload = liveLatencies(first);
             first.navigate().refresh();
             wait.until(d -> received(first) >= before);
 
@@ -118,24 +118,37 @@ class LiveViewChromiumIT {
                 }
             }
 
-            // latency: point measured (row time) to point drawn on the page, for points measured after the
-            // second viewer had opened (live points, not the catch-up)
+            // latency: point measured (the reading's time) to point drawn on the page, over both viewers, for
+            // the points measured after the page had connected (live points, not the catch-up of a page opened or
+            // reloaded mid-run); the parts: measured to written to events.jsonl, written to
+            // received by the page, received to drawn
             List<Double> ms = new ArrayList<>();
-            for (Object o : (List<?>) second.executeScript("return window.zweepLive.latencies;")) {
-                Map<String, Object> m = Browser.map(o);
-                long measured = ((Number) m.get("measured_ms")).longValue();
-                if (measured > openedAt + 1000) {
-                    ms.add(((Number) m.get("drawn_ms")).doubleValue() - measured);
-                }
+            List<Double> written = new ArrayList<>();
+            List<Double> received = new ArrayList<>();
+            List<Double> drawn = new ArrayList<>();
+            List<Map<String, Object>> all = new ArrayList<>(beforeReload);
+            all.addAll(liveLatencies(first));
+            all.addAll(liveLatencies(second));
+            for (Map<String, Object> m : all) {
+                double measured = ((Number) m.get("measured_ms")).doubleValue();
+                double w = ((Number) m.get("written_ms")).doubleValue();
+                double got = ((Number) m.get("received_ms")).doubleValue();
+                double t = ((Number) m.get("drawn_ms")).doubleValue();
+                ms.add(t - measured);
+                written.add(w - measured);
+                received.add(got - w);
+                drawn.add(t - got);
+                System.out.println("live point " + m);
             }
-            assertTrue(ms.size() >= 10, "live points seen by the second viewer: " + ms.size());
-            ms.sort(null);
-            String line = String.format(Locale.ROOT, "live page latency, point measured to point drawn: n=%d median %.0f ms,"
-                    + " p95 %.0f ms, max %.0f ms", ms.size(), ms.get(ms.size() / 2), ms.get((int) (ms.size() * 0.95)),
-                    ms.get(ms.size() - 1));
+            String line = String.format(Locale.ROOT, "live page latency, point measured to point drawn: n=%d p50 %.0f ms,"
+                    + " p95 %.0f ms, max %.0f ms (p50 of the parts: measured to written %.0f ms, written to received"
+                    + " %.0f ms, received to drawn %.0f ms)", ms.size(), quantile(ms, 0.5), quantile(ms, 0.95),
+                    quantile(ms, 1), quantile(written, 0.5), quantile(received, 0.5), quantile(drawn, 0.5));
             System.out.println(line);
             Files.writeString(shots.resolve("live-latency.txt"), line + "\n");
-            assertTrue(ms.get(ms.size() / 2) < 1000, line);
+            assertTrue(ms.size() >= 15, "live points seen by the two viewers: " + ms.size());
+            // issue 14 asks for a live view: a point should be on the page well within a second
+            assertTrue(quantile(ms, 0.95) < 500, line); // common practice, no source
         } finally {
             first.quit();
             if (second != null) {
@@ -143,6 +156,32 @@ class LiveViewChromiumIT {
             }
             run.cancel(true);
         }
+    }
+
+    /**
+     * The latency records of the points measured after {@code d}'s page had connected to the event stream
+     * (live points; those before are the catch-up of a page opened or reloaded mid-run).
+     */
+    private static List<Map<String, Object>> liveLatencies(ChromeDriver d) {
+        Object since = d.executeScript("return window.zweepLive.live_since_ms;");
+        List<Map<String, Object>> out = new ArrayList<>();
+        if (since == null) {
+            return out;
+        }
+        for (Object o : (List<?>) d.executeScript("return window.zweepLive.latencies;")) {
+            Map<String, Object> m = Browser.map(o);
+            if (((Number) m.get("measured_ms")).longValue() >= ((Number) since).longValue()) {
+                out.add(m);
+            }
+        }
+        return out;
+    }
+
+    /** The {@code q} quantile (nearest rank) of {@code values}. */
+    private static double quantile(List<Double> values, double q) {
+        List<Double> v = new ArrayList<>(values);
+        v.sort(null);
+        return v.get(Math.min(v.size() - 1, (int) Math.ceil(q * v.size()) - (q > 0 ? 1 : 0)));
     }
 
     private static void awaitServing(String url, CompletableFuture<Sims.Result> run) throws Exception {

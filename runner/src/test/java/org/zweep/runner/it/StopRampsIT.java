@@ -69,7 +69,7 @@ class StopRampsIT {
             System.out.printf(Locale.ROOT, "ramp figures: %s %s bias, SIG%s: peak %.3f, largest rate over 1 s %.3f"
                     + " (ramp %.3f), largest excess over the ramp %.4f (one step %.3f)%n", file, kind, signal, peak, rate,
                     rampPerS, excess, step);
-            // the step's ramp plus one step (common practice, no source: the issue's own acceptance rule)
+            // the step's ramp plus one step (the acceptance rule)
             assertTrue(excess <= step + 1e-9, "bias moved " + excess + " beyond the ramp: " + t);
             assertTrue(rate <= rampPerS * 1.1 + step, "largest rate over 1 s " + rate);
             // nothing else moved: a voltage run never applies current and the other way round

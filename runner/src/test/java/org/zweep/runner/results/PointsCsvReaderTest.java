@@ -34,7 +34,7 @@ class PointsCsvReaderTest {
         Path f = writeRows(5);
         List<PointRow> rows = new ArrayList<>();
         PointsCsvReader.Recovery r = PointsCsvReader.recover(f, rows::add);
-        assertEquals(5, r.rows()); // arithmetic from the inputs above (rows written), no outside source
+        assertEquals(5, r.rows()); // the rows written above
         assertFalse(r.tornLineDropped());
         assertEquals(List.of(0, 1, 2, 3, 4), rows.stream().map(PointRow::point).toList());
     }
@@ -64,7 +64,7 @@ class PointsCsvReaderTest {
         Path f = writeRows(2);
         Files.write(f, new byte[] {0, 0, 0, 0, '\n'}, StandardOpenOption.APPEND);
         PointsCsvReader.Recovery r = PointsCsvReader.recover(f, row -> { });
-        // arithmetic from the inputs above: 2 whole rows, the file keeps header + 2 lines; no outside source
+        // 2 whole rows: the file keeps header + 2 lines
         assertEquals(2, r.rows());
         assertTrue(r.tornLineDropped());
         assertEquals(3, Files.readAllLines(f).size());

@@ -245,7 +245,17 @@ class MalformedSequenceTest {
                           - {name: c, step: sweep, parameter: ls_hh, at: 1 kHz, max: 1 H}
                         """, "10:39: unknown parameter 'ls_hh' (did you mean 'ls_h'?); expected one of: r_ohm, x_ohm, "
                                 + "z_ohm, theta_deg, delta_deg, q, d, g_s, b_s, cs_f, cp_f, ls_h, lp_h, rs_ohm, rp_ohm, "
-                                + "ratio, srf_hz, saturation"),
+                                + "ratio, srf_hz, saturation, c_f, esl_h, esr_ohm"),
+                Arguments.of("a fitted value checked at one frequency", HEAD + STEP + """
+                        checks:
+                          - {name: c, step: sweep, parameter: c_f, at: 1 kHz, within: tolerance}
+                        """, "10:48: c_f is a whole-sweep figure: remove 'at'"),
+                Arguments.of("an inductor's fitted value on a capacitor", HEAD + STEP + """
+                        checks:
+                          - {name: c, step: sweep, parameter: l_h, min: 1 uH}
+                        """, "10:39: unknown parameter 'l_h' (did you mean 'ls_h'?); expected one of: r_ohm, x_ohm, "
+                                + "z_ohm, theta_deg, delta_deg, q, d, g_s, b_s, cs_f, cp_f, ls_h, lp_h, rs_ohm, rp_ohm, "
+                                + "ratio, srf_hz, saturation, c_f, esl_h, esr_ohm"),
                 Arguments.of("check at a frequency not in the sweep", HEAD + STEP + """
                         checks:
                           - {name: c, step: sweep, parameter: d, at: 1.5 kHz, max: 0.025}

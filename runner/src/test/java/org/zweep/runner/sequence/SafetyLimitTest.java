@@ -25,7 +25,6 @@ class SafetyLimitTest {
                   - {name: warm-up, frequency: 100 kHz, level: 0.5 V}
                   - {name: saturation, frequency: 100 kHz, level: 0.5 V, bias: {start: 0 A, stop: 3.5 A, points: 8}}
                 """));
-        // our own message text; line:column and values are those of the sequence above, no outside source
         assertTrue(e.getMessage().endsWith(
                 ":7:64: step 'saturation': DC bias 3.5 A exceeds safety max_bias_current 3 A"), e.getMessage());
     }
@@ -35,7 +34,7 @@ class SafetyLimitTest {
         InvalidInputException e = assertThrows(InvalidInputException.class, () -> SequenceTestFiles.load(dir,
                 "{max_bias_voltage: 10 V, max_level_voltage: 1 V}", "{kind: capacitor, nominal: 1 µF}",
                 "steps: [{name: reverse, frequency: 1 kHz, level: 1 V, bias: [-12 V, 0 V]}]\n"));
-        // |−12 V| against the 10 V limit above: our own demo data, not an outside value
+        // |−12 V| against the 10 V limit above
         assertTrue(e.getMessage().endsWith("step 'reverse': DC bias 12 V exceeds safety max_bias_voltage 10 V"),
                 e.getMessage());
     }
@@ -44,7 +43,6 @@ class SafetyLimitTest {
     void currentDriveAboveTheLimitIsRefused() {
         InvalidInputException e = assertThrows(InvalidInputException.class, () -> SequenceTestFiles.load(dir,
                 "{max_level_current: 10 mA}", PART, "steps: [{name: s, frequency: 1 kHz, level: 20 mA}]\n"));
-        // the inputs above, no outside source
         assertTrue(e.getMessage().endsWith("step 's': drive level 20 mA rms exceeds safety max_level_current 10 mA"),
                 e.getMessage());
     }
@@ -53,7 +51,7 @@ class SafetyLimitTest {
     void valuesExactlyAtTheLimitsAreAllowed() {
         Plan plan = SequenceTestFiles.load(dir, "{max_bias_current: 3 A, max_level_voltage: 0.5 V}", PART,
                 "steps: [{name: s, frequency: 1 kHz, level: 0.5 V, bias: [0 A, 3 A]}]\n");
-        assertEquals(3.0, plan.safety().maxBiasCurrentA(), 0.0); // the input above, no outside source
+        assertEquals(3.0, plan.safety().maxBiasCurrentA(), 0.0);
         assertEquals(3.0, plan.points().get(1).setting().bias().value(), 0.0); // the input above
     }
 
@@ -62,7 +60,7 @@ class SafetyLimitTest {
         InvalidInputException e = assertThrows(InvalidInputException.class, () -> SequenceTestFiles.load(dir,
                 "{max_level_voltage: 1 V}", "{kind: capacitor, nominal: 1 µF}",
                 "steps: [{name: s, frequency: 1 kHz, level: 1 V, bias: 1 V}]\n"));
-        // 0 V is our own default for an omitted limit, not an outside value
+        // an omitted limit is 0 V: no bias allowed
         assertTrue(e.getMessage().endsWith("step 's': DC bias 1 V exceeds safety max_bias_voltage 0 V"),
                 e.getMessage());
     }

@@ -1,6 +1,7 @@
 package org.zweep.runner.sequence;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
 import static org.junit.jupiter.api.Assertions.assertNull;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 
@@ -17,6 +18,7 @@ import org.zweep.driver.meter.CorrectionStandard;
 import org.zweep.driver.meter.ImpedanceRange;
 import org.zweep.runner.plan.CompensationMode;
 import org.zweep.runner.plan.Connection;
+import org.zweep.runner.plan.CheckLimit;
 import org.zweep.runner.plan.FixturePlan;
 import org.zweep.runner.plan.Plan;
 import org.zweep.runner.plan.PlannedStep;
@@ -116,6 +118,23 @@ class SequenceSectionsTest {
         assertEquals(0.0, f.loadStandardU().uROhm(), 0.0, "no uncertainty stated: exact");
         assertEquals(Duration.ofHours(2), f.reuseYoungerThan());
         assertEquals(dir.resolve("comp").toAbsolutePath().normalize(), f.store());
+    }
+
+    @Test
+    void fittedValuesAreWholeSweepChecksAndWithinToleranceComparesTheFittedCapacitance() {
+        SequenceTestFiles.bench(dir);
+        Plan checked = SequenceLoader.parse("format: zweep-sequence/1\nmeter: {bench: b.bench.yaml}\n"
+                + "safety: {max_level_voltage: 1 V}\npart: {kind: capacitor, nominal: 100 nF, tolerance: K}\n"
+                + "steps: [{name: s, frequency: [1 kHz, 10 kHz, 100 kHz, 1 MHz], level: 1 V}]\n" + """
+                checks:
+                  - {name: c, step: s, parameter: c_f, within: tolerance}
+                  - {name: esl, step: s, parameter: esl_h, max: 2 nH}
+                """, dir.resolve("s.yaml"));
+        CheckLimit c = checked.checks().get(0);
+        assertTrue(c.wholeSweep());
+        assertEquals(90e-9, c.min(), 1e-20);
+        assertEquals(110e-9, c.max(), 1e-20);
+        assertEquals(2e-9, checked.checks().get(1).max(), 1e-20);
     }
 
     @Test
