@@ -28,6 +28,13 @@ import org.zweep.runner.text.ParameterTable;
  * a second for any sweep a meter can make).
  */
 public final class Analysis {
+    /**
+     * The most frequencies one fit takes: a longer sweep (a bench run of 100,000 points) is fitted
+     * on this many, evenly spread, so the Jacobian stays a few megabytes (a meter's own sweeps
+     * have at most a few thousand points and are fitted whole).
+     */
+    static final int MAX_FIT_FREQUENCIES = 5000;
+
     private Analysis() {
     }
 
@@ -131,9 +138,15 @@ public final class Analysis {
             if (s.frequencies() < model.keys().size() + 1) {
                 continue;
             }
-            fits.add(new StepResult.SweepFit(s, s.hasUncertainties()
-                    ? EquivalentCircuitFit.fitWeighted(model, s.uncertainties())
-                    : EquivalentCircuitFit.fit(model, s.points())));
+            Sweep fitted = s.thinned(MAX_FIT_FREQUENCIES);
+            if (fitted != s) {
+                notes.add(String.format(Locale.ROOT, "%s: fitted on %d of its %d frequencies, evenly spread (a fit"
+                        + " needs no more; it bounds the fit's time and memory)", s.describe(), fitted.frequencies(),
+                        s.frequencies()));
+            }
+            fits.add(new StepResult.SweepFit(s, fitted.hasUncertainties()
+                    ? EquivalentCircuitFit.fitWeighted(model, fitted.uncertainties())
+                    : EquivalentCircuitFit.fit(model, fitted.points())));
         }
         if (data.noValue() > 0) {
             notes.add(data.noValue() + " point(s) without a value left out");

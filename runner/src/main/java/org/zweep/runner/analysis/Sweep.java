@@ -183,6 +183,27 @@ public record Sweep(String step, int stepIndex, String wiring, String drive, dou
         return out.isEmpty() ? "step" : out;
     }
 
+    /**
+     * This sweep, or when it has more than {@code max} frequencies, {@code max} of them evenly
+     * spread by index (the first and the last kept), with their uncertainties.
+     */
+    public Sweep thinned(int max) {
+        int n = points.size();
+        if (n <= max || max < 2) {
+            return this;
+        }
+        List<Impedance> pts = new ArrayList<>(max);
+        List<UncertainImpedance> us = new ArrayList<>(hasUncertainties() ? max : 0);
+        for (int i = 0; i < max; i++) {
+            int k = (int) Math.round(i * (n - 1) / (double) (max - 1));
+            pts.add(points.get(k));
+            if (hasUncertainties()) {
+                us.add(uncertainties.get(k));
+            }
+        }
+        return new Sweep(step, stepIndex, wiring, drive, level, biasMode, bias, pts, repeats, us);
+    }
+
     /** The number of distinct frequencies. */
     public int frequencies() {
         return points.size();

@@ -39,6 +39,9 @@ public final class Cli {
         m.put("analyze", () -> new AnalyzeCommand());
         m.put("export", () -> new ExportCommand());
         m.put("report", () -> new ReportCommand());
+        m.put("index", () -> new IndexCommand());
+        m.put("runs", () -> new RunsCommand());
+        m.put("trend", () -> new TrendCommand());
         m.put("scpi", () -> new ScpiCommand());
         m.put("ping", () -> new PingCommand());
         m.put("sim", () -> new SimCommand());
@@ -171,7 +174,8 @@ public final class Cli {
         if (ex instanceof InvalidInputException || ex instanceof CommandLine.ParameterException) {
             return ExitCode.USAGE;
         }
-        if (ex instanceof MeterException || ex instanceof java.io.UncheckedIOException
+        if (ex instanceof MeterException || ex instanceof org.zweep.runner.store.StoreException
+                || ex instanceof java.io.UncheckedIOException
                 || ex instanceof java.io.IOException) {
             return ExitCode.METER;
         }

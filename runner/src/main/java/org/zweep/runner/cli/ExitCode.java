@@ -8,7 +8,7 @@ public final class ExitCode {
     public static final int CHECK_FAILED = 1;
     /** Bad usage, a bad value or a file that does not validate. */
     public static final int USAGE = 2;
-    /** The meter or the connection to it failed. */
+    /** The meter or the connection to it failed (or the results database could not be reached). */
     public static final int METER = 3;
     /** zweep itself failed (a bug): the message asks for a report. */
     public static final int INTERNAL = 4;
@@ -18,7 +18,7 @@ public final class ExitCode {
             + "  0  ok, every check passed%n"
             + "  1  a check failed%n"
             + "  2  usage or validation error%n"
-            + "  3  meter or connection failure%n"
+            + "  3  meter or connection failure (or the results database)%n"
             + "  4  internal error (a bug in zweep: please report it)%n";
 
     private ExitCode() {

@@ -83,6 +83,12 @@ public final class RunCommand implements Callable<Integer> {
             description = "this test station's name (default: station: in the station file, ~/.zweep/station.yaml)")
     String station;
 
+    @picocli.CommandLine.Mixin
+    StoreOptions store;
+
+    @Option(names = "--no-index", description = "do not add the run to the results index at its end")
+    boolean noIndex;
+
     @Override
     public Integer call() {
         if ((file == null) == (resume == null)) {
@@ -100,6 +106,9 @@ public final class RunCommand implements Callable<Integer> {
         if (resume != null && (serial != null || lot != null || operator != null || station != null)) {
             throw new InvalidInputException("--serial, --lot, --operator and --station cannot be used with --resume"
                     + " (the run keeps the identity it started with)");
+        }
+        if (!noIndex) {
+            l.indexInto(store.database());
         }
         if (resume == null) {
             org.zweep.runner.store.StationFile sf = org.zweep.runner.store.StationFile.load();

@@ -78,6 +78,12 @@ final class RunLauncher {
     private java.net.InetSocketAddress live;
 
     private RunManifest.Identity identity;
+    private org.zweep.runner.store.Database index;
+
+    /** Indexes each run this launcher ends (completed or failed) in {@code db}; never fails the run. */
+    void indexInto(org.zweep.runner.store.Database db) {
+        this.index = db;
+    }
 
     /** Records {@code id} (serial, lot, operator, station) in the runs this launcher starts. */
     void identity(RunManifest.Identity id) {
@@ -288,6 +294,9 @@ final class RunLauncher {
             printSummary(folder, s, stepUnits(plan));
             recordEnd(events, s);
             ended = true;
+            if (s.result().outcome() != RunResult.Outcome.ABORTED) {
+                indexQuietly(folder);
+            }
             return exitCode(s);
         } finally {
             if (!ended) {
@@ -305,6 +314,25 @@ final class RunLauncher {
             }
             events.close();
         }
+    }
+
+    /**
+     * Adds the ended run to the results index. A failure only warns: the run folder holds
+     * everything, and {@code zweep index} adds it later.
+     */
+    private void indexQuietly(RunFolder folder) {
+        if (index == null) {
+            return;
+        }
+        try (org.zweep.runner.store.ResultsStore st = org.zweep.runner.store.ResultsStore.open(index)) {
+            st.index(folder.dir());
+            out.println("indexed in: " + index.describe());
+        } catch (RuntimeException | LinkageError e) {
+            err.println("zweep: WARNING: the run was not indexed (" + String.valueOf(e.getMessage()).replace('\n', ' ')
+                    + "); the run folder keeps everything: 'zweep index " + folder.dir() + "' adds it later");
+        }
+        out.flush();
+        err.flush();
     }
 
     /**

@@ -1,10 +1,6 @@
 package org.zweep.runner.compensation;
 
 import com.fasterxml.jackson.core.JsonProcessingException;
-import com.fasterxml.jackson.databind.DeserializationFeature;
-import com.fasterxml.jackson.databind.ObjectMapper;
-import com.fasterxml.jackson.databind.PropertyNamingStrategies;
-import com.fasterxml.jackson.databind.SerializationFeature;
 import java.io.IOException;
 import java.io.UncheckedIOException;
 import java.nio.charset.StandardCharsets;
@@ -18,6 +14,7 @@ import org.apache.commons.csv.CSVRecord;
 import org.zweep.driver.InvalidInputException;
 import org.zweep.driver.meter.CorrectionStandard;
 import org.zweep.runner.results.Csv;
+import org.zweep.runner.results.Json;
 
 /**
  * Host-side compensation data: each standard's reading at each frequency, with the time and the
@@ -39,11 +36,6 @@ public record CompensationData(Info info, List<Entry> entries) {
     public static final String OVER_RANGE = "over_range";
     /** The sidecar's format tag. */
     public static final String FORMAT = "zweep-compensation/1";
-
-    private static final ObjectMapper JSON = new ObjectMapper()
-            .setPropertyNamingStrategy(PropertyNamingStrategies.SNAKE_CASE)
-            .enable(SerializationFeature.INDENT_OUTPUT)
-            .disable(DeserializationFeature.FAIL_ON_UNKNOWN_PROPERTIES);
 
     public CompensationData {
         entries = List.copyOf(entries);
@@ -123,7 +115,7 @@ public record CompensationData(Info info, List<Entry> entries) {
         }
         String json;
         try {
-            json = JSON.writeValueAsString(info) + "\n";
+            json = Json.writer().writeValueAsString(info) + "\n";
         } catch (JsonProcessingException e) {
             throw new IllegalStateException("cannot write compensation settings: " + e.getMessage(), e);
         }
@@ -163,7 +155,7 @@ public record CompensationData(Info info, List<Entry> entries) {
     public static CompensationData read(Path csv) {
         Info info;
         try {
-            info = JSON.readValue(sidecar(csv).toFile(), Info.class);
+            info = Json.reader().forType(Info.class).readValue(sidecar(csv).toFile());
         } catch (JsonProcessingException e) {
             throw new InvalidInputException(sidecar(csv) + ": not valid compensation settings: "
                     + e.getOriginalMessage());

@@ -1,9 +1,7 @@
 package org.zweep.runner.export;
 
 import com.fasterxml.jackson.core.JsonGenerator;
-import com.fasterxml.jackson.databind.ObjectMapper;
-import com.fasterxml.jackson.databind.SerializationFeature;
-import com.fasterxml.jackson.databind.node.ObjectNode;
+import com.fasterxml.jackson.databind.ObjectWriter;
 import java.io.IOException;
 import java.io.UncheckedIOException;
 import java.io.Writer;
@@ -19,6 +17,7 @@ import org.zweep.runner.analysis.RunData;
 import org.zweep.runner.analysis.Sweep;
 import org.zweep.runner.results.Csv;
 import org.zweep.runner.results.Derived;
+import org.zweep.runner.results.Json;
 import org.zweep.runner.results.PointRow;
 import org.zweep.runner.results.RunManifest;
 
@@ -28,10 +27,8 @@ import org.zweep.runner.results.RunManifest;
 public final class Exports {
     /** The columns of the CSV export, in order. */
     public static final List<String> CSV_COLUMNS = List.of("step", "repeat", "quantity", "wiring", "frequency_hz",
-            "drive", "level", "bias_mode", "bias", "r_ohm", "x_ohm", "z_ohm", "theta_deg", "cs_f", "cp_f", "ls_h",
+            "drive_mode", "level", "bias_mode", "bias", "r_ohm", "x_ohm", "z_ohm", "theta_deg", "cs_f", "cp_f", "ls_h",
             "lp_h", "rs_ohm", "rp_ohm", "d", "q", "ratio", "run_id", "serial", "lot", "verdict");
-
-    private static final ObjectMapper JSON = new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT);
 
     private Exports() {
     }
@@ -112,55 +109,33 @@ public final class Exports {
         }
     }
 
-    private static com.fasterxml.jackson.databind.JsonNode manifestTree(RunData run) {
-        try {
-            return JSON.readTree(run.manifest().toJson());
-        } catch (com.fasterxml.jackson.core.JsonProcessingException e) {
-            throw new IllegalStateException("run.json does not read back: " + e.getMessage(), e);
-        }
-    }
-
     /**
      * Writes the manifest, every measured row and the analysis as one JSON document to
-     * {@code file}; the rows are streamed from {@code points.csv} into the file, never all held.
+     * {@code file} (format {@code zweep-export/1}, the names of {@code run.json},
+     * {@code points.csv} and {@code analysis.json}); the rows are streamed from {@code points.csv}
+     * into the file, never all held.
      */
     public static void json(RunData run, AnalysisResult analysis, Path file) {
-        try (Writer w = open(file); JsonGenerator g = JSON.createGenerator(w)) {
+        ObjectWriter json = Json.writer();
+        try (Writer w = open(file); JsonGenerator g = json.createGenerator(w)) {
             g.writeStartObject();
             g.writeStringField("format", "zweep-export/1");
             g.writeFieldName("run");
-            g.writeTree(manifestTree(run)); // run.json's own snake_case keys
+            json.writeValue(g, run.manifest());
             g.writeArrayFieldStart("points");
             run.forEachRow(r -> {
                 if (!"ok".equals(r.status())) {
                     return;
                 }
-                ObjectNode p = JSON.createObjectNode();
-                p.put("step", r.step());
-                p.put("repeat", r.repeat());
-                p.put("quantity", r.quantity());
-                p.put("wiring", r.wiring());
-                put(p, "frequency_hz", r.frequencyHz());
-                p.put("drive", r.drive());
-                put(p, "level", r.level());
-                p.put("bias_mode", r.biasMode());
-                put(p, "bias", r.bias());
-                put(p, "r_ohm", r.rOhm());
-                put(p, "x_ohm", r.xOhm());
-                for (String d : Derived.NAMES) {
-                    put(p, d, r.value(d));
-                }
-                put(p, "ratio", r.ratio());
-                p.put("time", r.time().toString());
                 try {
-                    g.writeTree(p);
+                    json.writeValue(g, ExportPoint.of(r));
                 } catch (IOException e) {
                     throw new UncheckedIOException("cannot write " + file + ": " + e.getMessage(), e);
                 }
             });
             g.writeEndArray();
             g.writeFieldName("analysis");
-            g.writeTree(AnalysisJson.tree(analysis));
+            json.writeValue(g, AnalysisJson.document(analysis));
             g.writeEndObject();
             g.flush();
             w.write('\n');
@@ -169,11 +144,16 @@ public final class Exports {
         }
     }
 
-    private static void put(ObjectNode n, String key, double v) {
-        if (Double.isFinite(v)) {
-            n.put(key, v);
-        } else {
-            n.putNull(key);
+    /** One measured point of the JSON export: the columns of {@code points.csv} that hold values. */
+    record ExportPoint(String step, int repeat, String quantity, String wiring, double frequencyHz, String driveMode,
+            double level, String biasMode, double bias, double rOhm, double xOhm, double zOhm, double thetaDeg,
+            double csF, double cpF, double lsH, double lpH, double rsOhm, double rpOhm, double d, double q,
+            double ratio, String time) {
+        static ExportPoint of(PointRow r) {
+            Derived v = r.derived();
+            return new ExportPoint(r.step(), r.repeat(), r.quantity(), r.wiring(), r.frequencyHz(), r.drive(),
+                    r.level(), r.biasMode(), r.bias(), r.rOhm(), r.xOhm(), v.zOhm(), v.thetaDeg(), v.csF(), v.cpF(),
+                    v.lsH(), v.lpH(), v.rsOhm(), v.rpOhm(), v.d(), v.q(), r.ratio(), r.time().toString());
         }
     }
 

@@ -1,14 +1,9 @@
 package org.zweep.runner.results;
 
-import com.fasterxml.jackson.annotation.JsonInclude;
 import com.fasterxml.jackson.annotation.JsonPropertyOrder;
 import com.fasterxml.jackson.core.JsonLocation;
 import com.fasterxml.jackson.core.JsonProcessingException;
-import com.fasterxml.jackson.databind.DeserializationFeature;
 import com.fasterxml.jackson.databind.JsonMappingException;
-import com.fasterxml.jackson.databind.ObjectMapper;
-import com.fasterxml.jackson.databind.PropertyNamingStrategies;
-import com.fasterxml.jackson.databind.SerializationFeature;
 import java.io.IOException;
 import java.io.UncheckedIOException;
 import java.nio.ByteBuffer;
@@ -80,11 +75,6 @@ public record RunManifest(String format, SequenceInfo sequence, PartInfo part, L
     /** The manifest's file name in a run folder. */
     public static final String FILE = "run.json";
 
-    private static final ObjectMapper JSON = new ObjectMapper()
-            .setPropertyNamingStrategy(PropertyNamingStrategies.SNAKE_CASE)
-            .setSerializationInclusion(JsonInclude.Include.ALWAYS)
-            .enable(SerializationFeature.INDENT_OUTPUT)
-            .disable(DeserializationFeature.FAIL_ON_UNKNOWN_PROPERTIES);
 
     /**
      * The sequence run.
@@ -285,7 +275,7 @@ public record RunManifest(String format, SequenceInfo sequence, PartInfo part, L
     /** The manifest as JSON text. */
     public String toJson() {
         try {
-            return JSON.writeValueAsString(this);
+            return Json.writer().writeValueAsString(this);
         } catch (JsonProcessingException e) {
             throw new IllegalStateException("cannot write run.json: " + e.getMessage(), e);
         }
@@ -332,7 +322,7 @@ public record RunManifest(String format, SequenceInfo sequence, PartInfo part, L
         }
         RunManifest m;
         try {
-            m = JSON.readValue(file.toFile(), RunManifest.class);
+            m = Json.reader().forType(RunManifest.class).readValue(file.toFile());
         } catch (JsonProcessingException e) {
             throw new InvalidInputException(problem(file, e), e);
         } catch (IOException e) {

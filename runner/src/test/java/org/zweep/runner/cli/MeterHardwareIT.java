@@ -5,8 +5,6 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
-import java.io.PrintWriter;
-import java.io.StringWriter;
 import org.junit.jupiter.api.Assumptions;
 import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
@@ -29,19 +27,9 @@ class MeterHardwareIT {
                         + " tcp://HOST:5025, and ZWEEP_HARDWARE_DIALECT to its dialect)");
     }
 
-    record Run(int exitCode, String out, String err) {
-    }
-
-    static Run zweep(String... args) {
-        StringWriter out = new StringWriter();
-        StringWriter err = new StringWriter();
-        int code = Cli.run(args, new PrintWriter(out), new PrintWriter(err));
-        return new Run(code, out.toString(), err.toString());
-    }
-
     @Test
     void theMeterIdentifiesItselfWithTheFourFieldsOfIeee4882() {
-        Run run = zweep("scpi", ADDRESS, "*IDN?");
+        ConvertCommandTest.Run run = ConvertCommandTest.zweep("scpi", ADDRESS, "*IDN?");
         assertEquals(ExitCode.OK, run.exitCode(), run.err());
         String idn = run.out().strip();
         // IEEE 488.2-1992 §10.14: manufacturer, model, serial number, firmware level
@@ -50,8 +38,8 @@ class MeterHardwareIT {
 
     @Test
     void onePointAtOneKilohertzGivesAFiniteImpedanceAndItsDerivedParameters() throws Exception {
-        Run run = zweep("measure", ADDRESS, "--dialect", DIALECT, "--frequency", "1kHz", "--level", "0.5V",
-                "--json");
+        ConvertCommandTest.Run run = ConvertCommandTest.zweep("measure", ADDRESS, "--dialect", DIALECT,
+                "--frequency", "1kHz", "--level", "0.5V", "--json");
         assertEquals(ExitCode.OK, run.exitCode(), run.err());
         JsonNode z = new ObjectMapper().readTree(run.out());
         assertEquals(1000.0, z.get("frequency_hz").asDouble(), 1e-6, run.out());

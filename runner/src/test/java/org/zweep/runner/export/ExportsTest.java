@@ -82,7 +82,7 @@ class ExportsTest {
         assertEquals(file.toString(), out.toString().strip());
         List<String> lines = Files.readAllLines(file);
         List<String> header = fields(lines.get(0));
-        assertEquals(List.of("step", "repeat", "quantity", "wiring", "frequency_hz", "drive", "level", "bias_mode",
+        assertEquals(List.of("step", "repeat", "quantity", "wiring", "frequency_hz", "drive_mode", "level", "bias_mode",
                 "bias", "r_ohm", "x_ohm", "z_ohm", "theta_deg", "cs_f", "cp_f", "ls_h", "lp_h", "rs_ohm", "rp_ohm", "d",
                 "q", "ratio", "run_id", "serial", "lot", "verdict"), header);
         // three impedance points and the ratio row; the point without a value is left out
@@ -129,7 +129,7 @@ class ExportsTest {
         assertEquals(4, points.size());
         List<String> keys = new ArrayList<>();
         points.get(0).fieldNames().forEachRemaining(keys::add);
-        assertEquals(List.of("step", "repeat", "quantity", "wiring", "frequency_hz", "drive", "level", "bias_mode",
+        assertEquals(List.of("step", "repeat", "quantity", "wiring", "frequency_hz", "drive_mode", "level", "bias_mode",
                 "bias", "r_ohm", "x_ohm", "z_ohm", "theta_deg", "cs_f", "cp_f", "ls_h", "lp_h", "rs_ohm", "rp_ohm", "d",
                 "q", "ratio", "time"), keys);
         JsonNode p = points.get(2);
