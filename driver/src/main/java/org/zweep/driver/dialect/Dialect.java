@@ -1,5 +1,7 @@
 package org.zweep.driver.dialect;
 
+import org.zweep.driver.impedance.Unit;
+import org.zweep.driver.impedance.Quantities;
 import java.io.IOException;
 import java.io.InputStream;
 import java.nio.charset.StandardCharsets;
@@ -336,8 +338,8 @@ public final class Dialect {
                 .or(() -> has(Command.INTEGRATION_TIME)
                         ? within("integration", "integration time", s.integrationTimeS(), integrationTimeS, "s")
                         : s.integrationTimeS() == MeasurementSetting.DEFAULT_INTEGRATION_TIME_S ? Optional.empty()
-                        : Optional.of(new Refusal("integration", "integration time " + plain(s.integrationTimeS())
-                                + " s: " + meterName() + " has no integration-time setting (leave 'integration'"
+                        : Optional.of(new Refusal("integration", "integration time " + plain(s.integrationTimeS(), "s")
+                                + ": " + meterName() + " has no integration-time setting (leave 'integration'"
                                 + " out of the step to use the meter's own)")))
                 .or(() -> s.range().auto() ? Optional.empty()
                         : supported("range", "held impedance range", Command.RANGE_HOLD)
@@ -350,17 +352,16 @@ public final class Dialect {
     }
 
     private Optional<Refusal> within(String key, String setting, double value, Range r, String unit) {
-        String u = unit.isEmpty() ? "" : " " + unit;
         if (Double.isNaN(value)) {
             return Optional.of(new Refusal(key, setting + " is not a number"));
         }
         if (value < r.min()) {
-            return Optional.of(new Refusal(key, setting + " " + plain(value) + u + " is below the minimum "
-                    + plain(r.min()) + u + " of " + meterName()));
+            return Optional.of(new Refusal(key, setting + " " + plain(value, unit) + " is below the minimum "
+                    + plain(r.min(), unit) + " of " + meterName()));
         }
         if (value > r.max()) {
-            return Optional.of(new Refusal(key, setting + " " + plain(value) + u + " is above the maximum "
-                    + plain(r.max()) + u + " of " + meterName()));
+            return Optional.of(new Refusal(key, setting + " " + plain(value, unit) + " is above the maximum "
+                    + plain(r.max(), unit) + " of " + meterName()));
         }
         return Optional.empty();
     }
@@ -369,10 +370,13 @@ public final class Dialect {
         return "the meter (dialect " + name + ")";
     }
 
-    private static String plain(double v) {
+    /** {@code v} for people, with the SI prefix of its unit ({@code 2 MHz}, {@code 100 kΩ}, {@code 25 V}). */
+    private static String plain(double v, String unit) {
         if (!Double.isFinite(v)) {
-            return Double.toString(v);
+            return Double.toString(v) + (unit.isEmpty() ? "" : " " + unit);
         }
-        return new java.math.BigDecimal(Double.toString(v)).stripTrailingZeros().toPlainString();
+        Unit u = "ohm".equals(unit) ? Unit.OHM : Unit.ofSymbol(unit).orElse(Unit.NONE);
+        return u == Unit.NONE && !unit.isEmpty() ? Quantities.formatShort(v, Unit.NONE, 6) + " " + unit
+                : Quantities.formatShort(v, u, 6);
     }
 }

@@ -704,15 +704,8 @@ public final class DialectMeter implements Meter {
         return "the meter (dialect " + dialect.name() + ")";
     }
 
-    private static String plain(double v) {
-        if (!Double.isFinite(v)) {
-            return Double.toString(v);
-        }
-        return new BigDecimal(Double.toString(v)).stripTrailingZeros().toPlainString();
-    }
-
     private static String describe(MeasurementSetting s) {
-        return plain(s.frequencyHz()) + " Hz";
+        return org.zweep.driver.impedance.Quantities.formatShort(s.frequencyHz(), org.zweep.driver.impedance.Unit.HERTZ, 6);
     }
 
     private static String abbreviate(String s) {

@@ -271,6 +271,20 @@ public final class Quantities {
         return format(value, unit, digits);
     }
 
+    /**
+     * The SI prefix of an engineering exponent, as {@link #format} writes it: {@code "µ"} for −6,
+     * {@code "k"} for 3, {@code ""} for 0.
+     *
+     * @param exponent a multiple of 3 from −15 to 12
+     */
+    public static String prefix(int exponent) {
+        if (exponent % 3 != 0 || exponent < -15 || exponent > 12) {
+            throw new IllegalArgumentException("not an engineering exponent from -15 to 12: " + exponent);
+        }
+        char p = ENGINEERING_PREFIXES.charAt(exponent / 3 + 5);
+        return p == ' ' ? "" : String.valueOf(p);
+    }
+
     private static String plain(BigDecimal rounded, int exponent, int significantDigits) {
         if (exponent < -6 || exponent > 12) {
             return scientific(rounded, exponent, significantDigits);

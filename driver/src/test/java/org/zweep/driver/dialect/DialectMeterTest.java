@@ -188,7 +188,7 @@ class DialectMeterTest {
         meter.apply(MeasurementSetting.at(1000));
         var e = assertThrows(org.zweep.driver.transport.MeterTimeoutException.class, meter::measure);
         assertEquals("fake:answering: no reply to ':READ?;:SYST:ERR?' (waited 10.0 s; nothing received)"
-                + " while measuring at 1000 Hz", e.getMessage());
+                + " while measuring at 1 kHz", e.getMessage());
     }
 
     /** A fake meter answering each query with {@code answer}; records every call, close included. */

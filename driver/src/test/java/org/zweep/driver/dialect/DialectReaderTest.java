@@ -178,10 +178,10 @@ class DialectReaderTest {
         org.zweep.driver.meter.MeasurementSetting s = org.zweep.driver.meter.MeasurementSetting.at(1e3);
 
         assertEquals(java.util.Optional.empty(), d.refusal(s));
-        assertEquals("integration time 0.1 s: the meter (dialect tiny) has no integration-time setting (leave"
+        assertEquals("integration time 100 ms: the meter (dialect tiny) has no integration-time setting (leave"
                 + " 'integration' out of the step to use the meter's own)",
                 d.refusal(s.withIntegrationTimeS(0.1)).orElseThrow().message());
-        assertEquals("frequency 6000000 Hz is above the maximum 1000000 Hz of the meter (dialect tiny)",
+        assertEquals("frequency 6 MHz is above the maximum 1 MHz of the meter (dialect tiny)",
                 d.refusal(s.withFrequencyHz(6e6)).orElseThrow().message());
         assertEquals("averaging count 4 is above the maximum 1 of the meter (dialect tiny)",
                 d.refusal(s.withAveragingCount(4)).orElseThrow().message());

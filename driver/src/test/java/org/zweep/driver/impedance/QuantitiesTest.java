@@ -170,4 +170,15 @@ class QuantitiesTest {
             }
         }
     }
+
+    @Test
+    void prefixOfAnEngineeringExponentIsTheSiSymbol() {
+        // BIPM, The International System of Units, 9th ed. (2019), Table 7: SI prefixes
+        assertEquals("f", Quantities.prefix(-15));
+        assertEquals("µ", Quantities.prefix(-6));
+        assertEquals("", Quantities.prefix(0));
+        assertEquals("k", Quantities.prefix(3));
+        assertEquals("T", Quantities.prefix(12));
+        assertThrows(IllegalArgumentException.class, () -> Quantities.prefix(4));
+    }
 }

@@ -1,5 +1,7 @@
 package org.zweep.runner.analysis;
 
+import org.zweep.driver.impedance.Unit;
+import org.zweep.runner.text.Figures;
 import java.util.ArrayList;
 import java.util.Comparator;
 import java.util.LinkedHashMap;
@@ -71,8 +73,9 @@ public final class EquivalentCircuitFit {
         for (UncertainImpedance u : sweep) {
             Point p = Point.weighted(u);
             if (!(p.l11 > 0) || !(p.l22 > 0) || !Double.isFinite(p.l11) || !Double.isFinite(p.l22)) {
-                throw new InvalidInputException("cannot weight a fit by u(R) = " + u.uROhm() + " ohm, u(X) = "
-                        + u.uXOhm() + " ohm, r = " + u.correlation() + " at " + u.value().frequencyHz() + " Hz");
+                throw new InvalidInputException("cannot weight a fit by u(R) = " + Figures.format(u.uROhm(), Unit.OHM)
+                        + ", u(X) = " + Figures.format(u.uXOhm(), Unit.OHM) + ", r = " + Figures.number(u.correlation(), 4)
+                        + " at " + Figures.format(u.value().frequencyHz(), Unit.HERTZ, 6));
             }
             points.add(p);
         }
@@ -100,8 +103,8 @@ public final class EquivalentCircuitFit {
         }
         for (Impedance z : data) {
             if (!(z.magnitudeOhm() > 0) || !Double.isFinite(z.magnitudeOhm())) {
-                throw new InvalidInputException("cannot fit an impedance of " + z.magnitudeOhm() + " ohm at "
-                        + z.frequencyHz() + " Hz");
+                throw new InvalidInputException("cannot fit an impedance of " + Figures.format(z.magnitudeOhm(), Unit.OHM)
+                        + " at " + Figures.format(z.frequencyHz(), Unit.HERTZ, 6));
             }
         }
         double srfData = Resonance.fromData(data);
@@ -144,8 +147,8 @@ public final class EquivalentCircuitFit {
             notes.add("the fit did not converge: " + pass.result.message());
         }
         if (srfFit == null && Double.isFinite(srfData)) {
-            notes.add(String.format(Locale.ROOT, "the measured reactance crosses zero at %.6g Hz but the fitted"
-                    + " circuit does not resonate there", srfData));
+            notes.add("the measured reactance crosses zero at " + Figures.format(srfData, Unit.HERTZ, 6)
+                    + " but the fitted circuit does not resonate there");
         }
         double reducedChiSquared = Double.NaN;
         if (weighted) {

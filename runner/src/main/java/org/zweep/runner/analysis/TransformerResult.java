@@ -151,8 +151,7 @@ public record TransformerResult(double frequencyHz, double openH, double shortH,
         } else {
             n = nominalTurns;
             if (Double.isFinite(n)) {
-                notes.add(String.format(Locale.ROOT, "no voltage ratio measured: the nominal turns ratio %.4g is used",
-                        n));
+                notes.add("no voltage ratio measured: the nominal turns ratio " + Figures.number(n, 4) + " is used");
             }
         }
         // k = √(1 − Lsc/Loc): ∂k/∂Loc = Lsc/(2k·Loc²), ∂k/∂Lsc = −1/(2k·Loc)

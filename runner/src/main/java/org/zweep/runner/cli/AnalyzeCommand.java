@@ -78,15 +78,17 @@ public final class AnalyzeCommand implements Callable<Integer> {
             for (StepResult.SweepFit sf : s.fits()) {
                 CircuitFit f = sf.fit();
                 StringBuilder b = new StringBuilder("  " + f.model().id() + " fit, " + sf.sweep().describe() + ":");
+                String sep = " ";
                 for (Map.Entry<String, Double> e : f.parameters().entrySet()) {
                     Unit unit = ParameterTable.unit(e.getKey());
-                    b.append(' ').append(ParameterTable.label(e.getKey())).append(' ');
+                    b.append(sep).append(ParameterTable.label(e.getKey())).append(' ');
+                    sep = ", ";
                     b.append(e.getValue() == null ? "not resolved"
                             : Figures.format(e.getValue(), unit) + " ± " + Figures.format(f.sigma().get(e.getKey()), unit, 2));
                 }
                 b.append(", SRF ").append(f.srfHz() == null ? "not resolved" : Figures.format(f.srfHz(), Unit.HERTZ)
                         + (f.weighted() && Double.isFinite(f.srfU()) ? " ± " + Figures.format(f.srfU(), Unit.HERTZ, 2) : ""));
-                b.append(String.format(Locale.ROOT, ", residual %.2g", f.residualRms()));
+                b.append(", residual ").append(Figures.number(f.residualRms(), 2));
                 if (f.weighted()) {
                     b.append(String.format(Locale.ROOT, ", weighted by u, reduced chi-squared %.3g", f.reducedChiSquared()));
                 }

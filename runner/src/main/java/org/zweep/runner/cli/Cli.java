@@ -42,8 +42,10 @@ public final class Cli {
         m.put("index", () -> new IndexCommand());
         m.put("runs", () -> new RunsCommand());
         m.put("trend", () -> new TrendCommand());
+        m.put("compare", () -> new CompareCommand());
         m.put("scpi", () -> new ScpiCommand());
         m.put("ping", () -> new PingCommand());
+        m.put("probe", () -> new ProbeCommand());
         m.put("sim", () -> new SimCommand());
         m.put("watch", () -> new WatchCommand());
         return m;

@@ -144,11 +144,11 @@ final class WatchCommand implements Callable<Integer> {
                         if (e.has("z_ohm")) {
                             stepZ.add(e.path("z_ohm").asDouble());
                             b.append("  |Z| ").append(Figures.format(e.path("z_ohm").asDouble(), Unit.OHM))
-                                    .append(String.format(Locale.ROOT, "  θ %.2f°", e.path("theta_deg").asDouble()))
+                                    .append("  θ ").append(Figures.format(e.path("theta_deg").asDouble(), Unit.DEGREE, 4))
                                     .append("  ").append(mainLabel).append(' ')
                                     .append(Figures.format(e.path(mainKey).asDouble(Double.NaN), mainUnit));
                         } else if (e.has("ratio")) {
-                            b.append(String.format(Locale.ROOT, "  V2/V1 %.5g", e.path("ratio").asDouble()));
+                            b.append("  V2/V1 ").append(Figures.number(e.path("ratio").asDouble(), 5));
                         } else {
                             b.append("  ").append(e.path("status").asText());
                         }

@@ -1,5 +1,7 @@
 package org.zweep.runner.engine;
 
+import org.zweep.driver.impedance.Unit;
+import org.zweep.runner.text.Figures;
 import java.io.PrintWriter;
 import java.time.Duration;
 import java.util.Locale;
@@ -105,8 +107,8 @@ public final class ConsoleProgress implements ProgressListener {
         eta.measured(row.point(), now);
         work = null;
         measuredAny = true;
-        detail = row.step() + "  " + hz(row.frequencyHz()) + " " + num(row.level()) + " " + row.drive() + ", bias "
-                + num(row.bias()) + " " + row.biasMode();
+        detail = row.step() + "  " + hz(row.frequencyHz()) + " " + Figures.format(row.level(), Figures.unit(row.drive()))
+                + ", bias " + Figures.format(row.bias(), Figures.unit(row.biasMode()));
         if (terminal) {
             redraw(now);
         } else if (done == total) {
@@ -222,25 +224,11 @@ public final class ConsoleProgress implements ProgressListener {
     }
 
     static String hz(double f) {
-        if (f >= 1e6) {
-            return num(f / 1e6) + " MHz";
-        }
-        if (f >= 1e3) {
-            return num(f / 1e3) + " kHz";
-        }
-        return num(f) + " Hz";
+        return Figures.format(f, Unit.HERTZ);
     }
 
+    /** A plain number for people, at most 4 significant digits. */
     static String num(double v) {
-        String s = String.format(Locale.ROOT, "%.4g", v);
-        int e = s.indexOf('e');
-        String mantissa = e < 0 ? s : s.substring(0, e);
-        if (mantissa.contains(".")) {
-            mantissa = mantissa.replaceAll("0+$", "");
-            if (mantissa.endsWith(".")) {
-                mantissa = mantissa.substring(0, mantissa.length() - 1);
-            }
-        }
-        return mantissa + (e < 0 ? "" : s.substring(e));
+        return Figures.number(v, 4);
     }
 }

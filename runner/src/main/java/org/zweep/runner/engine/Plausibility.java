@@ -1,5 +1,7 @@
 package org.zweep.runner.engine;
 
+import org.zweep.driver.impedance.Unit;
+import org.zweep.runner.text.Figures;
 import java.util.Locale;
 import java.util.Optional;
 import org.zweep.driver.meter.MeasuredQuantity;
@@ -29,13 +31,13 @@ record Plausibility(double maxImpedanceOhm) {
         }
         if (r.real() < 0) {
             double thetaDeg = Math.toDegrees(Math.atan2(r.imaginary(), r.real()));
-            return Optional.of(String.format(Locale.ROOT, "θ = %.2f° (R = %.4g Ω), beyond the ±90° a passive part"
-                    + " allows", thetaDeg, r.real()));
+            return Optional.of(String.format(Locale.ROOT, "θ = %.2f° (R = %s), beyond the ±90° a passive part"
+                    + " allows", thetaDeg, Figures.format(r.real(), Unit.OHM)));
         }
         double z = r.magnitude();
         if (z > maxImpedanceOhm) {
-            return Optional.of(String.format(Locale.ROOT, "|Z| = %.4g Ω, beyond what the meter can read (%.4g Ω)", z,
-                    maxImpedanceOhm));
+            return Optional.of("|Z| = " + Figures.format(z, Unit.OHM) + ", beyond what the meter can read ("
+                    + Figures.format(maxImpedanceOhm, Unit.OHM) + ")");
         }
         return Optional.empty();
     }

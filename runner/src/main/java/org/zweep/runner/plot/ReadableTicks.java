@@ -26,7 +26,6 @@ import org.jfree.chart.ui.TextAnchor;
 final class ReadableTicks {
     /** Pixels kept free between two neighbouring labels. */
     static final double GAP_PX = 6;
-    private static final String[] PREFIXES = {"f", "p", "n", "µ", "m", "", "k", "M", "G", "T"};
 
     private ReadableTicks() {
     }
@@ -45,7 +44,7 @@ final class ReadableTicks {
             exp = (int) Math.floor(Math.log10(maxAbs * (1 + 1e-9)) / 3) * 3;
             exp = Math.max(-15, Math.min(12, exp));
         }
-        String shown = unit.isEmpty() ? "" : " (" + PREFIXES[exp / 3 + 5] + unit + ")";
+        String shown = unit.isEmpty() ? "" : " (" + org.zweep.driver.impedance.Quantities.prefix(exp) + unit + ")";
         return new Linear(quantity + shown, Math.pow(10, exp));
     }
 
@@ -149,7 +148,7 @@ final class ReadableTicks {
             exp = Math.max(-15, Math.min(12, exp));
             String digits = BigDecimal.valueOf(mantissa).scaleByPowerOfTen(decade - exp).stripTrailingZeros()
                     .toPlainString();
-            String prefix = PREFIXES[exp / 3 + 5];
+            String prefix = org.zweep.driver.impedance.Quantities.prefix(exp);
             return prefix.isEmpty() ? digits : digits + " " + prefix;
         }
     }

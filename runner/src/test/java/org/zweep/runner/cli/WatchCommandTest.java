@@ -29,7 +29,8 @@ class WatchCommandTest {
                         + "\"theta_deg\":-89.9,\"cs_f\":1.0E-7}",
                 "{\"type\":\"point\",\"time_ms\":6,\"done\":2,\"total\":3,\"frequency_hz\":10000.0,\"z_ohm\":159.15,"
                         + "\"theta_deg\":-89.8,\"cs_f\":1.0E-7}",
-                "{\"type\":\"check\",\"time_ms\":7,\"name\":\"capacitance\",\"result\":\"fail\"}",
+                "{\"type\":\"check\",\"time_ms\":7,\"name\":\"capacitance\",\"parameter\":\"cs_f\",\"label\":\"Cs\","
+                        + "\"value_text\":\"no value\",\"result\":\"fail\"}",
                 "{\"type\":\"finished\",\"time_ms\":8,\"outcome\":\"completed\",\"verdict\":\"fail\",\"measured\":3,"
                         + "\"total\":3}") + "\n");
         StringWriter out = new StringWriter();
@@ -39,8 +40,9 @@ class WatchCommandTest {
         assertEquals("run demo: 3 points (0 already measured)", lines.get(0));
         assertTrue(lines.contains(">> Fit the part. (answer at the run's terminal or on its live page)"), lines.toString());
         // 1/(2π·1 kHz·100 nF) = 1.5915 kΩ: the values arrive as written and are shown with SI prefixes
-        assertTrue(lines.contains("[1/3] 1 kHz  |Z| 1.592 kΩ  θ -89.90°  Cs 100 nF"), lines.toString());
+        assertTrue(lines.contains("[1/3] 1 kHz  |Z| 1.592 kΩ  θ -89.9°  Cs 100 nF"), lines.toString());
         assertTrue(lines.contains("  |Z| █▁  159 Ω … 1.59 kΩ"), lines.toString());
+        assertTrue(lines.contains("check capacitance: Cs = no value: fail"), lines.toString());
         assertEquals("finished: completed, 3 of 3 points, verdict fail", lines.get(lines.size() - 1));
     }
 }

@@ -1,0 +1,173 @@
+package org.zweep.runner.cli;
+
+import com.fasterxml.jackson.databind.node.ArrayNode;
+import com.fasterxml.jackson.databind.node.ObjectNode;
+import java.io.IOException;
+import java.io.PrintWriter;
+import java.io.UncheckedIOException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+import java.util.concurrent.Callable;
+import org.jfree.chart.ChartUtils;
+import org.zweep.driver.InvalidInputException;
+import org.zweep.driver.impedance.Quantities;
+import org.zweep.driver.impedance.Unit;
+import org.zweep.runner.analysis.StepResult;
+import org.zweep.runner.analysis.Sweep;
+import org.zweep.runner.compare.Comparison;
+import org.zweep.runner.plot.Charts;
+import org.zweep.runner.plot.Plots;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Model.CommandSpec;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
+import picocli.CommandLine.Spec;
+
+/** {@code zweep compare RUN RUN...}: checks and fitted values side by side, with differences. */
+@Command(name = "compare", mixinStandardHelpOptions = true,
+        description = {"Compares two or more run folders: each check's value and each step's fitted elements per run,"
+                + " with the difference from the first run and the relative change; --plots DIR overlays each"
+                + " step's first sweep of every run (|Z| and θ)."},
+        footer = ExitCode.HELP_LIST)
+public final class CompareCommand implements Callable<Integer> {
+    @Spec
+    CommandSpec spec;
+
+    @Parameters(arity = "2..*", paramLabel = "RUN", description = "run folders; the first is the reference")
+    List<Path> folders;
+
+    @Option(names = "--json", description = "the comparison as JSON")
+    boolean json;
+
+    @Option(names = "--plots", paramLabel = "DIR", description = "write overlaid plots (PNG and SVG) into DIR")
+    Path plots;
+
+    @Override
+    public Integer call() throws Exception {
+        Comparison c = Comparison.of(folders);
+        List<Path> written = plots == null ? List.of() : plot(c, plots);
+        PrintWriter out = spec.commandLine().getOut();
+        if (json) {
+            ObjectNode root = RunsCommand.JSON.createObjectNode();
+            ArrayNode runs = root.putArray("runs");
+            for (Comparison.Run r : c.runs()) {
+                ObjectNode n = runs.addObject();
+                n.put("folder", r.folder().toString());
+                n.put("label", r.label());
+                n.put("run_id", r.manifest().id());
+                n.put("serial", r.manifest().identityOrNone().serial());
+                n.put("lot", r.manifest().identityOrNone().lot());
+                n.put("verdict", r.manifest().verdict());
+            }
+            ArrayNode rows = root.putArray("rows");
+            for (Comparison.Row row : c.rows()) {
+                ObjectNode n = rows.addObject();
+                n.put("kind", row.kind());
+                n.put("name", row.name());
+                n.put("parameter", row.parameter());
+                ArrayNode v = n.putArray("values");
+                ArrayNode d = n.putArray("differences");
+                ArrayNode rel = n.putArray("relative");
+                for (int i = 0; i < row.values().size(); i++) {
+                    add(v, row.values().get(i));
+                    add(d, row.difference(i));
+                    add(rel, row.relative(i));
+                }
+            }
+            ArrayNode p = root.putArray("plots");
+            written.forEach(f -> p.add(f.toString()));
+            out.println(RunsCommand.JSON.writeValueAsString(root));
+            return ExitCode.OK;
+        }
+        for (int i = 0; i < c.runs().size(); i++) {
+            Comparison.Run r = c.runs().get(i);
+            out.printf(Locale.ROOT, "%s %s: %s (verdict %s)%n", i == 0 ? "reference" : "run " + (i + 1), r.label(),
+                    r.folder(), r.manifest().verdict());
+        }
+        StringBuilder head = new StringBuilder(String.format(Locale.ROOT, "%-34s", "quantity"));
+        for (int i = 0; i < c.runs().size(); i++) {
+            head.append(String.format(Locale.ROOT, "  %-13s", clip(c.runs().get(i).label(), 13)));
+            if (i > 0) {
+                head.append(String.format(Locale.ROOT, "  %-13s  %-8s", "difference", "change"));
+            }
+        }
+        out.println(head.toString().stripTrailing());
+        for (Comparison.Row row : c.rows()) {
+            Unit unit = TrendCommand.unitOf(row.parameter());
+            StringBuilder b = new StringBuilder(String.format(Locale.ROOT, "%-34s",
+                    clip(row.kind() + " " + row.name(), 34)));
+            for (int i = 0; i < row.values().size(); i++) {
+                b.append(String.format(Locale.ROOT, "  %-13s", text(row.values().get(i), unit)));
+                if (i > 0) {
+                    double rel = row.relative(i);
+                    b.append(String.format(Locale.ROOT, "  %-13s  %-8s", text(row.difference(i), unit),
+                            Double.isFinite(rel) ? String.format(Locale.ROOT, "%+.3f %%", 100 * rel) : "-"));
+                }
+            }
+            out.println(b.toString().stripTrailing());
+        }
+        written.forEach(f -> out.println("plot: " + f));
+        return ExitCode.OK;
+    }
+
+    /** One chart per step of the reference: the first sweep of each run that has the step, overlaid. */
+    static List<Path> plot(Comparison c, Path dir) {
+        if (System.getProperty("java.awt.headless") == null) {
+            System.setProperty("java.awt.headless", "true");
+        }
+        List<Path> written = new ArrayList<>();
+        try {
+            Files.createDirectories(dir);
+            for (StepResult step : c.runs().get(0).analysis().steps()) {
+                List<Charts.Trace> traces = new ArrayList<>();
+                for (Comparison.Run r : c.runs()) {
+                    if (traces.size() == Charts.MAX_TRACES) {
+                        break;
+                    }
+                    Sweep s = r.analysis().sweeps().stream()
+                            .filter(w -> w.step().equals(step.name()) && w.frequencies() > 1).findFirst().orElse(null);
+                    StepResult rs = r.analysis().step(step.name());
+                    if (s != null) {
+                        traces.add(new Charts.Trace(r.label(), s.points(),
+                                rs == null || rs.primaryFit() == null ? null : rs.primaryFit().fit()));
+                    }
+                }
+                if (traces.size() < 2) {
+                    continue;
+                }
+                var chart = Charts.impedance("|Z| and θ, " + step.name() + ", " + traces.size() + " runs", traces);
+                Path png = dir.resolve(Sweep.fileStem(step.name()) + "-impedance.png");
+                ChartUtils.saveChartAsPNG(png.toFile(), chart, Plots.WIDTH, Plots.HEIGHT);
+                Path svg = dir.resolve(Sweep.fileStem(step.name()) + "-impedance.svg");
+                Files.writeString(svg, Plots.svg(chart, Plots.WIDTH, Plots.HEIGHT, null));
+                written.add(png);
+                written.add(svg);
+            }
+        } catch (IOException e) {
+            throw new UncheckedIOException("cannot write plots under " + dir + ": " + e.getMessage(), e);
+        }
+        if (written.isEmpty()) {
+            throw new InvalidInputException("no step has a frequency sweep in two of the runs: nothing to overlay");
+        }
+        return written;
+    }
+
+    private static void add(ArrayNode a, double v) {
+        if (Double.isFinite(v)) {
+            a.add(v);
+        } else {
+            a.addNull();
+        }
+    }
+
+    private static String clip(String s, int n) {
+        return s.length() <= n ? s : s.substring(0, n - 1) + "…";
+    }
+
+    private static String text(double v, Unit unit) {
+        return Double.isFinite(v) ? Quantities.formatShort(v, unit, 4) : "-";
+    }
+}
