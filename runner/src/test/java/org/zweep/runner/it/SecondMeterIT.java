@@ -51,6 +51,31 @@ class SecondMeterIT {
         }
     }
 
+    @org.junit.jupiter.api.Test
+    void probeFindsEveryOperationTheShippedDialectDeclaresWorking() {
+        try (QuillfenMeter meter = QuillfenMeter.start(5, 1.0)) {
+            Sims.Result r = Sims.zweep("probe", meter.address(), "--dialect", QuillfenMeter.dialect().toString());
+            assertEquals(0, r.code(), r.out() + r.err());
+            assertTrue(r.out().contains(" 0 failed"), r.out());
+            // the jig is driven through the dialect's fixture section, and the standards acquired with it
+            assertTrue(r.out().matches("(?s).*fixture open\\s+ok.*correction-open\\s+ok.*"), r.out());
+            assertTrue(r.out().matches("(?s).*measure once\\s+ok.*"), r.out());
+        }
+    }
+
+    @org.junit.jupiter.api.Test
+    void probeNamesTheOperationWhoseCommandTheMeterRefuses() throws Exception {
+        try (QuillfenMeter meter = QuillfenMeter.start(5, 1.0)) {
+            Path wrong = dir.resolve("wrong.dialect.yaml");
+            String text = java.nio.file.Files.readString(QuillfenMeter.dialect());
+            java.nio.file.Files.writeString(wrong, text.replace("drive-voltage: SWING {level}", "drive-voltage: SWNG {level}"));
+            Sims.Result r = Sims.zweep("probe", meter.address(), "--dialect", wrong.toString());
+            assertTrue(r.code() != 0, r.out());
+            // the meter's own words for it: FAULT? answers 12,"unknown word SWNG"
+            assertTrue(r.out().matches("(?s).*drive-voltage\\s+FAILED.*unknown word SWNG.*"), r.out());
+        }
+    }
+
     private static double rel(double value, double truth) {
         return (value - truth) / truth * 100.0;
     }
