@@ -1,5 +1,7 @@
 package org.zweep.runner.engine;
 
+import org.zweep.runner.safety.BiasWatcher;
+import org.zweep.runner.safety.Interruption;
 import java.net.InetAddress;
 import java.net.UnknownHostException;
 import java.time.Clock;
@@ -37,7 +39,7 @@ public final class RunSession {
      * @param resuming whether this continues a run already in {@code folder}
      * @param sequenceFile the original sequence file (for {@code run.json})
      * @param dialect the dialect name or file in use
-     * @param seed the simulator's seed to use; {@code null} keeps (and records) the simulator's own
+     * @param seed the noise seed of the meter's bench, recorded in {@code run.json}; {@code null} when none
      * @param reconnect how to reconnect after a lost link
      * @param fixture changes what is in the fixture
      * @param progress where progress goes
@@ -139,19 +141,14 @@ public final class RunSession {
         }
         Consumer<String> log = progress::note;
         Interruption interruption = setup.interruption();
-        boolean sim = link.simulator().isPresent();
-        boolean waits = !sim || link.simulator().get().realTiming();
-        Waiter waiter = waits ? Waiter.sleeping(interruption) : Waiter.none(interruption);
+        Waiter waiter = link.timed() ? Waiter.sleeping(interruption) : Waiter.none(interruption);
         station = new Station(link, guard, setup.fixture(), waiter, setup.reconnect(), log);
         station.watchBias(biasWatcher);
         station.reportWorkTo(progress::work);
         RunManifest manifest = null;
         try (PointsCsvWriter writer = PointsCsvWriter.open(folder.points(), setup.rowSync())) {
             Long seed = setup.seed();
-            if (seed == null && sim) {
-                seed = link.simulator().get().seed();
-            }
-            station.start(seed);
+            station.start();
             SafetyGuard.checkCapabilities(plan, station.capabilities(), "dialect " + setup.dialect());
             SafetyGuard.checkCapabilities(plan, station.statedLimits(), "as the meter states its limits");
             manifest = manifest(seed);
@@ -241,7 +238,7 @@ public final class RunSession {
      * measured), from the plan and the sequence copy already in the folder.
      *
      * @param meter the meter; its identity may be {@code null} before the meter was reached
-     * @param seed the simulator's seed, or {@code null}
+     * @param seed the noise seed of the meter's bench, or {@code null}
      */
     public static RunManifest freshManifest(Plan plan, RunFolder folder, String sequenceFile,
             RunManifest.MeterInfo meter, Long seed, Clock clock, String version) {

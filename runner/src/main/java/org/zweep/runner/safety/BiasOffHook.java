@@ -6,7 +6,6 @@ import java.lang.reflect.Method;
 import java.lang.reflect.Proxy;
 import java.util.concurrent.atomic.AtomicInteger;
 import java.util.function.BooleanSupplier;
-import org.zweep.runner.engine.Interruption;
 
 /**
  * Keeps DC bias off when a run is stopped from outside. While installed:
