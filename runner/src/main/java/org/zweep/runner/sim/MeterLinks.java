@@ -49,7 +49,10 @@ public final class MeterLinks {
                 throw e;
             }
         }
-        return ScpiMeterLink.open(address, dialect, () -> ScpiClient.open(a, settings), () -> { });
+        // a meter outside IEEE 488.2 is sent nothing its dialect does not declare: no *CLS on connecting
+        ScpiSettings s = org.zweep.driver.dialect.Dialect.load(dialect).takesCommonCommands() ? settings
+                : settings.toBuilder().clearOnConnect(false).build();
+        return ScpiMeterLink.open(address, dialect, () -> ScpiClient.open(a, s), () -> { });
     }
 
     private static ScpiMeterLink remote(String address, String rest, String dialect, ScpiSettings settings) {

@@ -34,6 +34,8 @@ class SecondMeterIT {
             Sims.Result run = Sims.zweep("run", seq.toString(), "--meter", meter.address(), "--out", out.toString());
             assertEquals(0, run.code(), run.out() + run.err());
             assertTrue(run.out().contains("verdict: pass"), run.out());
+            // zweep sent the meter nothing outside its dialect: its own error queue is empty
+            assertEquals("0,\"none\"", faultQuery(meter.port()));
 
             Sims.Result analyzed = Sims.zweep("analyze", out.toString(), "--json");
             assertEquals(0, analyzed.code(), analyzed.err());
@@ -73,6 +75,15 @@ class SecondMeterIT {
             assertTrue(r.code() != 0, r.out());
             // the meter's own words for it: FAULT? answers 12,"unknown word SWNG"
             assertTrue(r.out().matches("(?s).*drive-voltage\\s+FAILED.*unknown word SWNG.*"), r.out());
+        }
+    }
+
+    private static String faultQuery(int port) throws java.io.IOException {
+        try (java.net.Socket s = new java.net.Socket("127.0.0.1", port)) {
+            s.setSoTimeout(5000);
+            s.getOutputStream().write("FAULT?\n".getBytes(java.nio.charset.StandardCharsets.US_ASCII));
+            return new java.io.BufferedReader(new java.io.InputStreamReader(s.getInputStream(),
+                    java.nio.charset.StandardCharsets.US_ASCII)).readLine();
         }
     }
 
