@@ -117,7 +117,7 @@ public final class FaultSurvivalCheck {
             while (code != refCode && resumes < 3) {
                 resumes++;
                 code = Cli.run(new String[] {"run", "--resume", out.toString(), "--meter",
-                    "tcp://127.0.0.1:" + server.port(), "--dialect", "standard", "--timeout", TIMEOUT_S, "--quiet"},
+                    "sim:tcp://127.0.0.1:" + server.port(), "--dialect", "standard", "--timeout", TIMEOUT_S, "--quiet"},
                         new PrintWriter(new StringWriter()), new PrintWriter(new StringWriter()));
             }
         }
@@ -148,7 +148,7 @@ public final class FaultSurvivalCheck {
     }
 
     private static String[] run(Path seq, SimulatorServer server, Path out, long seed) {
-        return new String[] {"run", seq.toString(), "--meter", "tcp://127.0.0.1:" + server.port(), "--dialect",
+        return new String[] {"run", seq.toString(), "--meter", "sim:tcp://127.0.0.1:" + server.port(), "--dialect",
             "standard", "--out", out.toString(), "--seed", Long.toString(seed), "--timeout", TIMEOUT_S, "--quiet"};
     }
 

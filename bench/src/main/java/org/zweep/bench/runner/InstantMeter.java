@@ -16,7 +16,6 @@ import org.zweep.driver.meter.Range;
 import org.zweep.driver.meter.Reading;
 import org.zweep.driver.meter.ReadingStatus;
 import org.zweep.runner.engine.MeterLink;
-import org.zweep.runner.engine.SimulatorControl;
 
 /** A meter that answers at once (no wire, no physics): what is left of a run's time is the runner's. */
 final class InstantMeter implements Meter, MeterLink {
@@ -107,8 +106,8 @@ final class InstantMeter implements Meter, MeterLink {
     }
 
     @Override
-    public Optional<SimulatorControl> simulator() {
-        return Optional.empty();
+    public boolean timed() {
+        return false;
     }
 
     @Override

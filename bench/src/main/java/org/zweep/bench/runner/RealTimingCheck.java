@@ -8,7 +8,7 @@ import java.util.concurrent.atomic.DoubleAdder;
 import org.zweep.driver.scpi.ScpiClient;
 import org.zweep.driver.scpi.ScpiSettings;
 import org.zweep.runner.engine.FixtureCompensation;
-import org.zweep.runner.engine.Interruption;
+import org.zweep.runner.safety.Interruption;
 import org.zweep.runner.engine.ProgressListener;
 import org.zweep.runner.engine.FixturePort;
 import org.zweep.runner.engine.ReconnectPolicy;

@@ -19,7 +19,7 @@ import org.openjdk.jmh.annotations.Setup;
 import org.openjdk.jmh.annotations.State;
 import org.openjdk.jmh.annotations.TearDown;
 import org.zweep.driver.meter.MeasurementSetting;
-import org.zweep.runner.engine.Interruption;
+import org.zweep.runner.safety.Interruption;
 import org.zweep.runner.verdict.CheckEvaluator;
 import org.zweep.runner.engine.ProgressListener;
 import org.zweep.runner.engine.ReadingCorrector;
@@ -95,7 +95,7 @@ public class RunnerOverheadBenchmark {
         Interruption interruption = new Interruption();
         Station st = new Station(meter, new SafetyGuard(plan.safety()), (state, text) -> { }, Waiter.none(interruption),
                 ReconnectPolicy.DEFAULT, line -> { });
-        st.start(null);
+        st.start();
         Path csv = dir.resolve("points-" + (run++) + ".csv");
         try (PointsCsvWriter w = PointsCsvWriter.open(csv, sync ? PointsCsvWriter.Sync.EACH_ROW : PointsCsvWriter.Sync.NONE)) {
             return new RunEngine(plan, st, ReadingCorrector.NONE, new CheckEvaluator(plan.checks()),

@@ -287,6 +287,15 @@ public final class Dialect {
         return reply;
     }
 
+    /**
+     * Whether the meter takes IEEE 488.2 common commands: its dialect identifies it with
+     * {@code *IDN?} (IEEE 488.2 §10.14). Only such a meter is sent {@code *CLS} when zweep connects;
+     * any other meter hears nothing but what its dialect declares.
+     */
+    public boolean takesCommonCommands() {
+        return command(Command.IDENTIFY).map(t -> t.text().strip().equalsIgnoreCase("*IDN?")).orElse(false);
+    }
+
     Optional<Template> command(Command c) {
         return Optional.ofNullable(commands.get(c));
     }

@@ -55,8 +55,11 @@ final class SimulatorLink implements AutoCloseable {
         this.hislip = kind == Kind.HISLIP ? startHislip(server) : null;
         this.client = connect(settings);
         this.session = new Recording(client);
-        // opened now: its *CLS would clear the shared error queue later
+        // opened now: its *CLS would clear the shared error queue later; and waited for, since on a
+        // loaded machine the server may execute a connection's *CLS after the test has injected an
+        // error on another one (a write does not wait for its execution; *OPC? answers after it)
         this.probe = another();
+        this.probe.query("*OPC?");
     }
 
     /** A server on {@code bench} with no timing (points take no time), reached over {@code kind}. */

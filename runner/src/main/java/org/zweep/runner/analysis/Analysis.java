@@ -50,27 +50,40 @@ public final class Analysis {
      * @param model the circuit to fit to every frequency sweep; null to choose from the part kind
      */
     public static AnalysisResult analyze(RunData run, CircuitModel model) {
+        return analyze(run, model, true);
+    }
+
+    /**
+     * As {@link #analyze(RunData, CircuitModel)}; without {@code keepSweeps} the result holds no
+     * measured points (its {@link AnalysisResult#sweeps()} is empty and each fit's sweep keeps only
+     * its conditions): what judging the whole-sweep checks needs, in the least memory.
+     */
+    private static AnalysisResult analyze(RunData run, CircuitModel model, boolean keepSweeps) {
         CircuitModel chosen = model != null ? model : modelFor(run.partKind());
         String column = mainColumn(run.partKind());
         List<RunManifest.CheckInfo> infos = run.manifest().checks() == null ? List.of() : run.manifest().checks();
         CheckEvaluator evaluator = new CheckEvaluator(infos.stream().map(RunManifest.CheckInfo::toLimit).toList());
         TransformerResult.Collector transformerRows = new TransformerResult.Collector();
         FirstValue firstValue = new FirstValue(column);
-        StepData.Read read = StepData.read(run, column, r -> {
+        List<Sweep> sweeps = new ArrayList<>();
+        StepData.Read<StepResult> read = StepData.read(run, column, r -> {
             evaluator.judge(r);
             transformerRows.add(r);
             firstValue.add(r);
+        }, d -> {
+            if (keepSweeps) {
+                sweeps.addAll(d.sweeps());
+            }
+            StepResult s = step(run, d, chosen, column);
+            return keepSweeps ? s : s.withoutPoints();
         });
-        List<StepResult> steps = new ArrayList<>();
-        for (StepData d : read.steps()) {
-            steps.add(step(run, d, chosen, column));
-        }
+        List<StepResult> steps = read.steps();
         TransformerResult transformer = "transformer".equals(run.partKind()) || transformerRows.seen()
                 ? transformerRows.result(nominalTurns(run.manifest()))
                 : null;
         List<CheckOutcome> checks = evaluator.outcomes(figures(run, steps, transformer));
-        return new AnalysisResult(run, steps, StepData.sweepsOf(read.steps()), transformer, checks,
-                bins(run, steps, checks, firstValue), read.notes());
+        return new AnalysisResult(run, steps, sweeps, transformer, checks, bins(run, steps, checks, firstValue),
+                read.notes());
     }
 
     /**
@@ -79,7 +92,7 @@ public final class Analysis {
      * exactly as {@code zweep analyze} does.
      */
     public static SweepFigures sweepFigures(RunData run) {
-        AnalysisResult a = analyze(run, null);
+        AnalysisResult a = analyze(run, null, false);
         return figures(run, a.steps(), a.transformer());
     }
 
@@ -88,7 +101,9 @@ public final class Analysis {
      * order, from one streamed pass over {@code points.csv}, without fitting them.
      */
     public static List<Sweep> sweeps(RunData run) {
-        return StepData.sweepsOf(StepData.read(run, mainColumn(run.partKind()), r -> { }).steps());
+        List<Sweep> out = new ArrayList<>();
+        StepData.read(run, mainColumn(run.partKind()), r -> { }, d -> out.addAll(d.sweeps()));
+        return out;
     }
 
     /** The first impedance row's value of the part's main column: the bins' value when nothing was fitted. */

@@ -1,6 +1,5 @@
 package org.zweep.runner.analysis;
 
-import java.util.ArrayList;
 import java.util.HashSet;
 import java.util.LinkedHashMap;
 import java.util.List;
@@ -8,6 +7,7 @@ import java.util.Map;
 import java.util.Set;
 import java.util.TreeMap;
 import java.util.function.Consumer;
+import java.util.function.Function;
 import org.zweep.runner.results.PointRow;
 
 /**
@@ -32,15 +32,17 @@ record StepData(String name, int index, List<Sweep> sweeps, long noValue,
     }
 
     /**
-     * The steps of {@code run} in step order, and what was skipped while reading, from one pass over
-     * {@code points.csv} (a second one only for steps whose rows are not together in the file).
+     * The steps of {@code run}, each made into a {@code T} by {@code finish} as soon as its rows
+     * have gone by (so only one step's running sums are held at a time), in step order, and what
+     * was skipped while reading: one pass over {@code points.csv}, a second one only for steps
+     * whose rows are not together in the file.
      *
      * @param column the part's main column ({@code cs_f}, {@code ls_h}, {@code rs_ohm}); bias sweeps
      *     are gathered for it unless it is {@code rs_ohm}
      * @param everyRow also given every row, in file order, during the first pass
      */
-    static Read read(RunData run, String column, Consumer<PointRow> everyRow) {
-        TreeMap<Integer, StepData> done = new TreeMap<>();
+    static <T> Read<T> read(RunData run, String column, Consumer<PointRow> everyRow, Function<StepData, T> finish) {
+        TreeMap<Integer, T> done = new TreeMap<>();
         Set<Integer> scattered = new HashSet<>();
         Collector[] current = {null};
         List<String> notes = run.forEachRow(r -> {
@@ -54,7 +56,7 @@ record StepData(String name, int index, List<Sweep> sweeps, long noValue,
                 return;
             }
             if (current[0] != null) {
-                done.put(current[0].index, current[0].finish());
+                done.put(current[0].index, finish.apply(current[0].finish()));
                 current[0] = null;
             }
             if (done.remove(i) != null) {
@@ -65,7 +67,7 @@ record StepData(String name, int index, List<Sweep> sweeps, long noValue,
             current[0].add(r);
         });
         if (current[0] != null) {
-            done.put(current[0].index, current[0].finish());
+            done.put(current[0].index, finish.apply(current[0].finish()));
         }
         if (!scattered.isEmpty()) {
             Map<Integer, Collector> again = new LinkedHashMap<>();
@@ -74,9 +76,9 @@ record StepData(String name, int index, List<Sweep> sweeps, long noValue,
                     again.computeIfAbsent(r.stepIndex(), k -> new Collector(r, column)).add(r);
                 }
             });
-            again.values().forEach(c -> done.put(c.index, c.finish()));
+            again.values().forEach(c -> done.put(c.index, finish.apply(c.finish())));
         }
-        return new Read(List.copyOf(done.values()), notes);
+        return new Read<>(List.copyOf(done.values()), notes);
     }
 
     /**
@@ -85,7 +87,7 @@ record StepData(String name, int index, List<Sweep> sweeps, long noValue,
      * @param steps in step order
      * @param notes what was skipped while reading, for people
      */
-    record Read(List<StepData> steps, List<String> notes) {
+    record Read<T>(List<T> steps, List<String> notes) {
     }
 
     /** The running sums of one step. */
@@ -93,16 +95,14 @@ record StepData(String name, int index, List<Sweep> sweeps, long noValue,
         final String name;
         final int index;
         final String column;
-        final Sweep.Collector sweeps = new Sweep.Collector();
-        final RepeatStats.Collector repeats;
-        final Map<DeratingKey, TreeMap<Double, double[]>> derating = new LinkedHashMap<>();
+        final Sweep.Collector sweeps;
         long noValue;
 
         Collector(PointRow first, String column) {
             this.name = first.step();
             this.index = first.stepIndex();
             this.column = column;
-            this.repeats = new RepeatStats.Collector(List.of("r_ohm", "x_ohm", column));
+            this.sweeps = new Sweep.Collector(column);
         }
 
         void add(PointRow r) {
@@ -110,31 +110,11 @@ record StepData(String name, int index, List<Sweep> sweeps, long noValue,
                 noValue++;
             }
             sweeps.add(r);
-            repeats.add(r);
-            if (!"rs_ohm".equals(column) && r.okImpedance()) {
-                double[] acc = derating.computeIfAbsent(
-                        new DeratingKey(r.frequencyHz(), r.level(), r.wiring(), r.biasMode()), k -> new TreeMap<>())
-                        .computeIfAbsent(r.bias(), b -> new double[2]);
-                acc[0] += r.value(column);
-                acc[1]++;
-            }
         }
 
         StepData finish() {
-            Map<DeratingKey, TreeMap<Double, double[]>> biasSweeps = new LinkedHashMap<>();
-            derating.forEach((k, v) -> {
-                if (v.size() >= 2) {
-                    biasSweeps.put(k, v);
-                }
-            });
-            return new StepData(name, index, sweeps.sweeps(), noValue, biasSweeps, repeats.stats());
+            return new StepData(name, index, sweeps.sweeps(), noValue,
+                    "rs_ohm".equals(column) ? Map.of() : sweeps.derating(), sweeps.repeats());
         }
-    }
-
-    /** Every sweep of {@code steps}, in step order. */
-    static List<Sweep> sweepsOf(List<StepData> steps) {
-        List<Sweep> out = new ArrayList<>();
-        steps.forEach(s -> out.addAll(s.sweeps()));
-        return out;
     }
 }

@@ -21,6 +21,12 @@ public record StepResult(String name, int index, List<SweepFit> fits, List<Derat
         notes = List.copyOf(notes);
     }
 
+    /** This result with every fit's sweep reduced to its conditions (no measured points). */
+    StepResult withoutPoints() {
+        return new StepResult(name, index, fits.stream().map(f -> new SweepFit(f.sweep().withoutPoints(), f.fit()))
+                .toList(), derating, repeats, notes);
+    }
+
     /** The first fit made, or null when the step has no sweep that could be fitted. */
     public SweepFit primaryFit() {
         return fits.stream().filter(f -> f.fit() != null).findFirst().orElse(null);

@@ -51,7 +51,7 @@ public record Sweep(String step, int stepIndex, String wiring, String drive, dou
     public static List<Sweep> of(List<PointRow> rows) {
         Map<Integer, Collector> steps = new LinkedHashMap<>();
         for (PointRow r : rows) {
-            steps.computeIfAbsent(r.stepIndex(), k -> new Collector()).add(r);
+            steps.computeIfAbsent(r.stepIndex(), k -> new Collector(null)).add(r);
         }
         List<Sweep> out = new ArrayList<>();
         steps.values().forEach(c -> out.addAll(c.sweeps()));
@@ -60,11 +60,19 @@ public record Sweep(String step, int stepIndex, String wiring, String drive, dou
 
     /**
      * Gathers the sweeps of one step from its rows as they stream by, holding one running sum per
-     * distinct point (not the rows): the mean, the spread of the repeats and the stated
-     * uncertainties. Not thread-safe.
+     * distinct point (not the rows): the mean, the spread of the repeats, the stated uncertainties
+     * and the part's main value, from which the step's bias sweeps and repeat statistics are
+     * taken too. Not thread-safe.
      */
     static final class Collector {
+        private final String column;
         private final Map<Conditions, Group> groups = new LinkedHashMap<>();
+        private long seen;
+
+        /** @param column the part's main column ({@code cs_f}, ...) or null when not wanted */
+        Collector(String column) {
+            this.column = column;
+        }
 
         /** Takes {@code r} into its sweep when it is an impedance row with a value; ignores it otherwise. */
         void add(PointRow r) {
@@ -73,13 +81,65 @@ public record Sweep(String step, int stepIndex, String wiring, String drive, dou
             }
             Conditions key = new Conditions(r.wiring(), r.drive(), r.level(), r.biasMode(), r.bias());
             groups.computeIfAbsent(key, k -> new Group(r.step(), r.stepIndex()))
-                    .byFrequency.computeIfAbsent(r.frequencyHz(), f -> new Point()).add(r);
+                    .byFrequency.computeIfAbsent(r.frequencyHz(), f -> new Point(seen++)).add(r, column);
         }
 
         /** The sweeps gathered, in order of first appearance. */
         List<Sweep> sweeps() {
             List<Sweep> out = new ArrayList<>();
             groups.forEach((c, g) -> out.add(g.sweep(c)));
+            return out;
+        }
+
+        /**
+         * The bias sweeps of the main value: per frequency, level, wiring and bias mode measured at
+         * two or more biases, the value's sum and count per bias; in order of first appearance.
+         */
+        Map<StepData.DeratingKey, TreeMap<Double, double[]>> derating() {
+            Map<StepData.DeratingKey, TreeMap<Double, double[]>> all = new LinkedHashMap<>();
+            Map<StepData.DeratingKey, Long> first = new LinkedHashMap<>();
+            groups.forEach((c, g) -> g.byFrequency.forEach((f, p) -> {
+                StepData.DeratingKey k = new StepData.DeratingKey(f, c.level(), c.wiring(), c.biasMode());
+                double[] acc = all.computeIfAbsent(k, x -> new TreeMap<>()).computeIfAbsent(c.bias(), b -> new double[2]);
+                acc[0] += p.sumV;
+                acc[1] += p.n;
+                first.merge(k, p.seq, Math::min);
+            }));
+            Map<StepData.DeratingKey, TreeMap<Double, double[]>> out = new LinkedHashMap<>();
+            first.entrySet().stream().sorted(Map.Entry.comparingByValue()).forEach(e -> {
+                if (all.get(e.getKey()).size() >= 2) {
+                    out.put(e.getKey(), all.get(e.getKey()));
+                }
+            });
+            return out;
+        }
+
+        /** The spread of every point read more than once (R, X and the main value), in order of first appearance. */
+        List<RepeatStats> repeats() {
+            List<Map.Entry<Conditions, Point>> points = new ArrayList<>();
+            groups.forEach((c, g) -> g.byFrequency.forEach((f, p) -> {
+                if (p.n >= 2) {
+                    points.add(Map.entry(new Conditions(c.wiring(), c.drive(), c.level(), c.biasMode(), f), p));
+                }
+            }));
+            points.sort(java.util.Comparator.comparingLong(e -> e.getValue().seq));
+            List<RepeatStats> out = new ArrayList<>();
+            for (Map.Entry<Conditions, Point> e : points) {
+                Point p = e.getValue();
+                Conditions c = e.getKey(); // the frequency in place of the bias here
+                Map<String, Double> mean = new LinkedHashMap<>();
+                Map<String, Double> std = new LinkedHashMap<>();
+                Map<String, Double> rel = new LinkedHashMap<>();
+                double[][] stats = {{p.meanR, p.m2R}, {p.meanX, p.m2X}, {p.meanV, p.m2V}};
+                String[] names = {"r_ohm", "x_ohm", column};
+                for (int i = 0; i < names.length; i++) {
+                    double sd = Math.sqrt(stats[i][1] / (p.n - 1));
+                    mean.put(names[i], stats[i][0]);
+                    std.put(names[i], sd);
+                    rel.put(names[i], sd / Math.abs(stats[i][0]));
+                }
+                out.add(new RepeatStats(c.bias(), c.level(), p.bias, c.wiring(), p.n, mean, std, rel));
+            }
             return out;
         }
 
@@ -122,7 +182,12 @@ public record Sweep(String step, int stepIndex, String wiring, String drive, dou
          * covariances.
          */
         private static final class Point {
+            final long seq;
             int n;
+            double bias;
+            double sumV;
+            double meanV;
+            double m2V;
             double sumR;
             double sumX;
             double meanR;
@@ -135,10 +200,22 @@ public record Sweep(String step, int stepIndex, String wiring, String drive, dou
             double statedRX;
             boolean known = true;
 
-            void add(PointRow r) {
+            Point(long seq) {
+                this.seq = seq;
+            }
+
+            void add(PointRow r, String column) {
                 double re = r.rOhm();
                 double im = r.xOhm();
                 n++;
+                bias = r.bias();
+                if (column != null) {
+                    double v = r.value(column);
+                    sumV += v;
+                    double dV = v - meanV;
+                    meanV += dV / n;
+                    m2V += dV * (v - meanV);
+                }
                 sumR += re;
                 sumX += im;
                 double dR = re - meanR;
@@ -202,6 +279,11 @@ public record Sweep(String step, int stepIndex, String wiring, String drive, dou
             }
         }
         return new Sweep(step, stepIndex, wiring, drive, level, biasMode, bias, pts, repeats, us);
+    }
+
+    /** This sweep's conditions without its points. */
+    Sweep withoutPoints() {
+        return new Sweep(step, stepIndex, wiring, drive, level, biasMode, bias, List.of(), repeats, List.of());
     }
 
     /** The number of distinct frequencies. */

@@ -31,7 +31,7 @@ import org.zweep.runner.text.ParameterTable;
 @Command(name = "analyze", mixinStandardHelpOptions = true,
         description = {"Analyses a run folder and writes DIR/analysis.json.",
             "Equivalent-circuit fits, DC-bias derating, transformer parameters, repeat statistics, checks and bins."
-                + " Exit code 1 when a check failed."},
+                + " Exit code 1 when a check did not pass (a conditional pass is not a proven pass)."},
         footer = ExitCode.HELP_LIST)
 public final class AnalyzeCommand implements Callable<Integer> {
     @Spec

@@ -4,7 +4,7 @@ package org.zweep.runner.cli;
 public final class ExitCode {
     /** Everything worked and every check passed. */
     public static final int OK = 0;
-    /** The command ran but a check failed. */
+    /** The command ran but a check did not prove a pass (it failed, or passed or failed only conditionally). */
     public static final int CHECK_FAILED = 1;
     /** Bad usage, a bad value or a file that does not validate. */
     public static final int USAGE = 2;
@@ -16,7 +16,7 @@ public final class ExitCode {
     /** The exit-code list shown at the end of every {@code --help}. */
     static final String HELP_LIST = "%nExit codes:%n"
             + "  0  ok, every check passed%n"
-            + "  1  a check failed%n"
+            + "  1  a check did not pass (fail, conditional fail or conditional pass)%n"
             + "  2  usage or validation error%n"
             + "  3  meter or connection failure (or the results database)%n"
             + "  4  internal error (a bug in zweep: please report it)%n";

@@ -22,10 +22,9 @@ import org.zweep.driver.meter.Reading;
 import org.zweep.driver.meter.ReadingStatus;
 import org.zweep.driver.meter.SourceMode;
 import org.zweep.driver.scpi.ScpiSettings;
-import org.zweep.runner.engine.Interruption;
+import org.zweep.runner.safety.Interruption;
 import org.zweep.runner.engine.FixturePort;
 import org.zweep.runner.engine.ReconnectPolicy;
-import org.zweep.runner.engine.SimulatorControl;
 import org.zweep.runner.engine.Station;
 import org.zweep.runner.engine.Waiter;
 import org.zweep.runner.plan.BiasControl;
@@ -133,7 +132,7 @@ public final class MeasureCommand implements Callable<Integer> {
         PrintWriter err = spec.commandLine().getErr();
         Interruption interruption = new Interruption();
         try (ScpiMeterLink link = MeterLinks.open(address, dialect, ScpiSettings.DEFAULTS)) {
-            boolean waits = link.simulator().map(SimulatorControl::realTiming).orElse(true);
+            boolean waits = link.timed();
             java.util.function.Consumer<String> note = line -> {
                 err.println("zweep: " + line);
                 err.flush();
@@ -144,10 +143,10 @@ public final class MeasureCommand implements Callable<Integer> {
             long graceMillis = (long) ((BiasRamp.durationS(b.value(), 0.0, control.rampPerS()) + 10.0) * 1000);
             try (BiasOffHook hook = BiasOffHook.install(interruption, station::biasOffNow, err, graceMillis)) {
                 try {
-                    station.start(null);
+                    station.start();
                     identity = station.identity().toString();
                     station.insert(FixtureState.PART, "", control);
-                    r = station.measure(s, control, 0.0, 0L);
+                    r = station.measure(s, control, 0.0);
                 } finally {
                     if (!station.stopBias()) {
                         err.println("zweep: WARNING: could not confirm that DC bias is off on " + address

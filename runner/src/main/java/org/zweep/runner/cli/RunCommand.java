@@ -29,7 +29,7 @@ public final class RunCommand implements Callable<Integer> {
     Path file;
 
     @Option(names = "--meter", paramLabel = "ADDRESS", description = "use this meter instead of the sequence's "
-            + "(tcp://HOST[:PORT], serial:DEVICE, sim:BENCH_FILE[?timing=real|none])")
+            + "(tcp://HOST[:PORT], serial:DEVICE, sim:BENCH_FILE[?timing=real|none][&seed=N], sim:tcp://HOST:PORT)")
     String meter;
 
     @Option(names = "--dialect", paramLabel = "DIALECT", description = "the meter's dialect (name or file) instead of the sequence's")
@@ -44,7 +44,7 @@ public final class RunCommand implements Callable<Integer> {
     @picocli.CommandLine.Mixin
     FixtureOptions fixture;
 
-    @Option(names = "--seed", paramLabel = "N", description = "the simulator's noise seed (default: the bench's; on resume: the run's)")
+    @Option(names = "--seed", paramLabel = "N", description = "the noise seed of a sim: meter's bench, as sim:...?seed=N (default: the bench's; on resume: the run's)")
     Long seed;
 
     @Option(names = "--quiet", description = "no progress output")

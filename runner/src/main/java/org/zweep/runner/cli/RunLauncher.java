@@ -28,7 +28,7 @@ import org.zweep.runner.analysis.RunData;
 import org.zweep.runner.compensation.CompensationWorkflow;
 import org.zweep.runner.engine.ConsoleProgress;
 import org.zweep.runner.engine.FixturePort;
-import org.zweep.runner.engine.Interruption;
+import org.zweep.runner.safety.Interruption;
 import org.zweep.runner.engine.ProgressListener;
 import org.zweep.runner.engine.Prompter;
 import org.zweep.runner.engine.ReconnectPolicy;
@@ -62,7 +62,7 @@ final class RunLauncher {
      * @param out the run folder to create, or {@code null} for a fresh one under {@code resultsDir}
      * @param resultsDir where fresh run folders go
      * @param fixture who changes what is in the fixture
-     * @param seed the simulator's seed, or {@code null}
+     * @param seed the noise seed of a {@code sim:} meter's bench, or {@code null}
      * @param quiet no progress output
      * @param trace a traffic trace file, or {@code null}
      * @param timeoutS the meter's reply timeout in seconds
@@ -111,6 +111,7 @@ final class RunLauncher {
         Plan plan = SequenceLoader.loadForMeter(sequenceFile, o.dialect());
         plan = withMeter(plan, o.meter(), o.dialect());
         new SafetyGuard(plan.safety()).checkPlan(plan);
+        MeterLinks.seeded(plan.meter().address(), o.seed()); // a seed for a meter that has none: refused now
         Clock clock = Clock.systemUTC();
         boolean existed = o.out() != null && Files.isDirectory(o.out());
         boolean hadLockFile = existed && Files.exists(o.out().resolve(FolderLock.FILE));
@@ -242,7 +243,9 @@ final class RunLauncher {
         plan = withMeter(plan, address, dialect);
         new SafetyGuard(plan.safety()).checkPlan(plan);
         out.println("resuming run folder: " + folder.dir());
-        return execute(plan, folder, true, m.sequence().file(), o.seed() != null ? o.seed() : m.seed(), o);
+        Long seed = o.seed() != null ? o.seed() : Address.parse(address) instanceof SimAddress ? m.seed() : null;
+        MeterLinks.seeded(plan.meter().address(), seed);
+        return execute(plan, folder, true, m.sequence().file(), seed, o);
     }
 
     private int execute(Plan plan, RunFolder folder, boolean resuming, String sequenceFile, Long seed, Options o) {
@@ -262,7 +265,9 @@ final class RunLauncher {
         ProgressListener progress = resuming ? shown : announcingFolder(folder, shown);
         org.zweep.runner.live.LiveServer server = null;
         boolean ended = false;
-        try (ScpiMeterLink link = MeterLinks.open(plan.meter().address(), plan.meter().dialect(), sb.build())) {
+        Long noiseSeed = seed != null ? seed : MeterLinks.seedOf(plan.meter().address());
+        try (ScpiMeterLink link = MeterLinks.open(MeterLinks.seeded(plan.meter().address(), seed),
+                plan.meter().dialect(), sb.build())) {
             if (live != null) {
                 server = org.zweep.runner.live.LiveServer.start(folder.dir(), live);
                 out.println("live view: " + server.url());
@@ -274,7 +279,7 @@ final class RunLauncher {
             FixturePort fixture = o.fixture().port(link, livePrompter, out, progress::note);
             Clock clock = Clock.systemUTC();
             RunSession session = new RunSession(plan, link, new RunSession.Setup(folder, resuming, sequenceFile,
-                    plan.meter().dialect(), seed, ReconnectPolicy.DEFAULT.withBudgetS(o.reconnectBudgetS()), fixture,
+                    plan.meter().dialect(), noiseSeed, ReconnectPolicy.DEFAULT.withBudgetS(o.reconnectBudgetS()), fixture,
                     progress, interruption,
                     (station, res, log) -> CompensationWorkflow.prepare(plan, station, folder, res, clock, log),
                     f -> Analysis.sweepFigures(RunData.read(f.dir())), clock, VersionProvider.version()));
@@ -337,10 +342,10 @@ final class RunLauncher {
 
     /**
      * Starts the guard process that ramps bias down should this process die (not for a {@code sim:}
-     * meter, which dies with it); {@code null}, after a note, when it cannot be started.
+     * meter in this process, which dies with it); {@code null}, after a note, when it cannot be started.
      */
     private BiasGuard startGuard(String address, RunFolder folder) {
-        if (Address.parse(address) instanceof SimAddress) {
+        if (Address.parse(address) instanceof SimAddress s && !s.bench().startsWith("tcp://")) {
             return null;
         }
         try {

@@ -174,7 +174,8 @@ final class WatchCommand implements Callable<Integer> {
                                 + e.path("total").asInt() + " points, verdict " + verdict);
                         out.flush();
                         return "failed".equals(outcome) ? ExitCode.METER
-                                : "fail".equals(verdict) ? ExitCode.CHECK_FAILED : ExitCode.OK;
+                                : org.zweep.runner.verdict.CheckOutcome.failed(verdict) ? ExitCode.CHECK_FAILED
+                                : ExitCode.OK;
                     }
                     default -> {
                         // answers and other event types: nothing to show

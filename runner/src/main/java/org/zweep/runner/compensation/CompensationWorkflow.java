@@ -22,6 +22,7 @@ import org.zweep.driver.impedance.Quantities;
 import org.zweep.driver.impedance.Unit;
 import org.zweep.driver.meter.Bias;
 import org.zweep.driver.meter.CorrectionStandard;
+import org.zweep.driver.meter.CorrectionStyle;
 import org.zweep.driver.meter.FixtureState;
 import org.zweep.driver.meter.MeasuredQuantity;
 import org.zweep.driver.meter.MeasurementSetting;
@@ -141,22 +142,28 @@ public final class CompensationWorkflow {
         // the standards are acquired at the run's own drive, averaging and integration (bias off),
         // which also makes their time known beforehand (RunEstimate)
         RunEstimate estimate = RunEstimate.of(plan);
+        boolean perFrequency = station.capabilities().correctionStyle() == CorrectionStyle.AT_ACQUIRED_FREQUENCY;
+        // a meter that corrects where it acquired gets each standard at every frequency of the plan;
+        // one whose correction covers its range acquires once, at the run's first setting
+        List<MeasurementSetting> at = perFrequency ? List.copyOf(settings(plan).values())
+                : List.of(plan.points().stream().map(PlannedPoint::setting)
+                        .filter(x -> x.quantity() == MeasuredQuantity.IMPEDANCE).findFirst()
+                        .orElse(plan.points().get(0).setting()).withBias(Bias.OFF));
         int k = 0;
-        MeasurementSetting at = plan.points().stream().map(PlannedPoint::setting)
-                .filter(x -> x.quantity() == MeasuredQuantity.IMPEDANCE).findFirst()
-                .orElse(plan.points().get(0).setting()).withBias(Bias.OFF);
         for (CorrectionStandard s : fx.standards()) {
             station.insert(state(s), instruction(s), BiasControl.NONE);
-            station.applySetting(at);
-            if (s == CorrectionStandard.LOAD) {
-                if (fx.loadStandard() == null) {
-                    throw new InvalidInputException("meter-side LOAD compensation needs the load standard's value");
-                }
-                station.setLoadStandard(fx.loadStandard());
+            if (s == CorrectionStandard.LOAD && fx.loadStandard() == null) {
+                throw new InvalidInputException("meter-side LOAD compensation needs the load standard's value");
             }
-            station.announce("compensation: the meter acquires the " + s + " standard",
-                    estimate.compensationStandardS().get(k++));
-            station.acquireCorrection(s);
+            station.announce("compensation: the meter acquires the " + s + " standard"
+                    + (perFrequency ? " at " + at.size() + " frequencies" : ""), estimate.compensationStandardS().get(k++));
+            for (MeasurementSetting m : at) {
+                station.applySetting(m);
+                if (s == CorrectionStandard.LOAD) {
+                    station.setLoadStandard(fx.loadStandard());
+                }
+                station.acquireCorrection(s);
+            }
         }
         station.setMeterCorrection(true);
     }
@@ -171,10 +178,8 @@ public final class CompensationWorkflow {
             station.insert(state(s), instruction(s), BiasControl.NONE);
             station.announce("compensation: measuring the " + s + " standard at " + settings.size() + " frequencies",
                     estimate.compensationStandardS().get(k++));
-            int i = 0;
             for (MeasurementSetting m : settings.values()) {
-                long key = -1L - (s.ordinal() * 1_000_000L + i++);
-                Reading r = station.measure(m, BiasControl.NONE, 0.0, key);
+                Reading r = station.measure(m, BiasControl.NONE, 0.0);
                 if (r.status() != ReadingStatus.OK && s == CorrectionStandard.OPEN) {
                     // an open's admittance below what the meter can see: taken as 0 there
                     entries.add(CompensationData.Entry.openOverRange(m.frequencyHz(), r.timestamp()));

@@ -33,8 +33,14 @@ public interface MeterLink extends AutoCloseable {
      */
     boolean isLinkFailure(MeterException e);
 
-    /** The simulator's own controls, when the meter is the zweep simulator; empty otherwise. */
-    Optional<SimulatorControl> simulator();
+    /**
+     * Whether the meter takes real time, so that host-side waits (bias ramp steps, settling, delays,
+     * reconnect back-off) are waited out. Only a bench without timing, as whoever opened the link
+     * built it, says no; a meter over a real link always says yes.
+     */
+    default boolean timed() {
+        return true;
+    }
 
     /** What the meter itself can switch in its fixture (see {@link Meter#fixture()}), on the current connection. */
     default Optional<org.zweep.driver.meter.FixtureControl> fixtureControl() {

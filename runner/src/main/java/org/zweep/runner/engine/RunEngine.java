@@ -1,5 +1,6 @@
 package org.zweep.runner.engine;
 
+import org.zweep.runner.safety.Interruption;
 import java.util.ArrayList;
 import java.util.BitSet;
 import java.util.List;
@@ -137,8 +138,8 @@ public final class RunEngine {
             List<String> problems = problems(readings);
             for (int i = 0; i < problems.size(); i++) {
                 if (!problems.get(i).isEmpty()) {
-                    // measured again (the same noise key on the simulator): a reading corrupted on the way
-                    // comes back right, a real one comes back the same
+                    // measured again: a reading corrupted on the way comes back right, a real one comes back
+                    // the same
                     progress.note("point " + chunk.get(i).index() + ": " + problems.get(i) + "; measuring again");
                     readings = measure(chunk, step);
                     problems = problems(readings);
@@ -173,10 +174,9 @@ public final class RunEngine {
     private List<Reading> measure(List<PlannedPoint> chunk, PlannedStep step) {
         PlannedPoint first = chunk.get(0);
         if (chunk.size() == 1) {
-            return List.of(station.measure(first.setting(), step.bias(), first.delayS(), first.index()));
+            return List.of(station.measure(first.setting(), step.bias(), first.delayS()));
         }
-        List<Reading> readings = station.measureList(chunk.stream().map(PlannedPoint::setting).toList(), step.bias(),
-                first.index());
+        List<Reading> readings = station.measureList(chunk.stream().map(PlannedPoint::setting).toList(), step.bias());
         if (readings.size() != chunk.size()) {
             throw new MeterException("the meter returned " + readings.size() + " readings for a list of "
                     + chunk.size() + " points");
@@ -213,7 +213,7 @@ public final class RunEngine {
      * Splits a step's points into runs measured with one trigger: consecutive points that differ
      * only in frequency, without their own delay, at most {@code maxList} long. With no list
      * sweep ({@code maxList} below 2), every point is its own run. The split depends only on the
-     * plan, so a resumed run measures the same lists (and draws the same simulator noise).
+     * plan, so a resumed run measures the same lists.
      */
     static List<List<PlannedPoint>> chunks(List<PlannedPoint> points, int maxList) {
         List<List<PlannedPoint>> out = new ArrayList<>();

@@ -5,6 +5,7 @@ import java.util.List;
 import java.util.Map;
 import java.util.TreeMap;
 import org.zweep.driver.dialect.Dialect;
+import org.zweep.driver.meter.CorrectionStyle;
 import org.zweep.driver.dialect.MeterTiming;
 import org.zweep.driver.meter.Bias;
 import org.zweep.driver.meter.CorrectionStandard;
@@ -22,8 +23,8 @@ import org.zweep.runner.plan.PlannedStep;
  * the meter's work from its dialect's {@link MeterTiming} (the same model the reply deadlines come
  * from), the host's planned waits (bias ramps at the step's rate, settling, point delays) and a
  * small cost per command exchange. Compensation is counted as if measured (stored data that is
- * reused makes the run shorter); operator prompts are not counted (on the simulator they pass at
- * once). Immutable.
+ * reused makes the run shorter); the time someone or something takes to change the fixture is not
+ * counted. Immutable.
  *
  * @param startS connecting, identifying and resetting the meter, in s
  * @param compensationS preparing fixture compensation (every standard), in s
@@ -166,10 +167,12 @@ public record RunEstimate(double startS, double compensationS, List<Double> comp
                     .orElse(plan.points().get(0).setting()).withBias(Bias.OFF);
             for (CorrectionStandard s : fx.standards()) {
                 double t = EXCHANGE_S; // the fixture
-                if (fx.compensation() == CompensationMode.METER) {
+                if (fx.compensation() == CompensationMode.METER
+                        && caps.correctionStyle() == CorrectionStyle.WHOLE_RANGE) {
                     t += 2 * EXCHANGE_S + timing.correctionS(first, caps.frequencyHz());
                     previous = null;
                 } else {
+                    // host-side, or a meter that acquires at the frequency it is set to: once per frequency
                     for (MeasurementSetting m : hostSettings(plan).values()) {
                         t += 2 * EXCHANGE_S + timing.pointS(m, previous);
                         previous = m;

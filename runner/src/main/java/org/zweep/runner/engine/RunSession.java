@@ -1,5 +1,7 @@
 package org.zweep.runner.engine;
 
+import org.zweep.runner.safety.BiasWatcher;
+import org.zweep.runner.safety.Interruption;
 import java.net.InetAddress;
 import java.net.UnknownHostException;
 import java.time.Clock;
@@ -37,7 +39,7 @@ public final class RunSession {
      * @param resuming whether this continues a run already in {@code folder}
      * @param sequenceFile the original sequence file (for {@code run.json})
      * @param dialect the dialect name or file in use
-     * @param seed the simulator's seed to use; {@code null} keeps (and records) the simulator's own
+     * @param seed the noise seed of the meter's bench, recorded in {@code run.json}; {@code null} when none
      * @param reconnect how to reconnect after a lost link
      * @param fixture changes what is in the fixture
      * @param progress where progress goes
@@ -139,19 +141,14 @@ public final class RunSession {
         }
         Consumer<String> log = progress::note;
         Interruption interruption = setup.interruption();
-        boolean sim = link.simulator().isPresent();
-        boolean waits = !sim || link.simulator().get().realTiming();
-        Waiter waiter = waits ? Waiter.sleeping(interruption) : Waiter.none(interruption);
+        Waiter waiter = link.timed() ? Waiter.sleeping(interruption) : Waiter.none(interruption);
         station = new Station(link, guard, setup.fixture(), waiter, setup.reconnect(), log);
         station.watchBias(biasWatcher);
         station.reportWorkTo(progress::work);
         RunManifest manifest = null;
         try (PointsCsvWriter writer = PointsCsvWriter.open(folder.points(), setup.rowSync())) {
             Long seed = setup.seed();
-            if (seed == null && sim) {
-                seed = link.simulator().get().seed();
-            }
-            station.start(seed);
+            station.start();
             SafetyGuard.checkCapabilities(plan, station.capabilities(), "dialect " + setup.dialect());
             SafetyGuard.checkCapabilities(plan, station.statedLimits(), "as the meter states its limits");
             manifest = manifest(seed);
@@ -221,10 +218,8 @@ public final class RunSession {
                 station.identity().toString());
         if (setup.resuming()) {
             RunManifest old = RunManifest.read(folder.manifest());
-            return new RunManifest(old.format(), old.sequence(), old.part(), old.steps(), old.checks(), meter,
-                    old.compensation(), old.software(), old.host(), seed, old.started(), null, old.counts(),
-                    "running", "none", old.id() != null ? old.id() : RunId.next(setup.clock().instant()),
-                    old.identity());
+            return old.toBuilder().meter(meter).seed(seed).ended(null).outcome("running").verdict("none")
+                    .id(old.id() != null ? old.id() : RunId.next(setup.clock().instant())).build();
         }
         RunManifest fresh = freshManifest(plan, folder, setup.sequenceFile(), meter, seed, setup.clock(),
                 setup.version());
@@ -243,7 +238,7 @@ public final class RunSession {
      * measured), from the plan and the sequence copy already in the folder.
      *
      * @param meter the meter; its identity may be {@code null} before the meter was reached
-     * @param seed the simulator's seed, or {@code null}
+     * @param seed the noise seed of the meter's bench, or {@code null}
      */
     public static RunManifest freshManifest(Plan plan, RunFolder folder, String sequenceFile,
             RunManifest.MeterInfo meter, Long seed, Clock clock, String version) {
@@ -252,15 +247,16 @@ public final class RunSession {
                 .map(s -> new RunManifest.StepInfo(s.index(), s.name(), s.points().size(),
                         s.deratingDrops().isEmpty() ? null : s.deratingDrops())).toList();
         List<RunManifest.CheckInfo> checks = plan.checks().stream().map(RunManifest.CheckInfo::of).toList();
-        return new RunManifest(RunManifest.FORMAT,
-                new RunManifest.SequenceInfo(plan.name(), sequenceFile, RunFolder.sha256(folder.sequenceCopy()),
-                        RunFolder.SEQUENCE_COPY),
-                new RunManifest.PartInfo(p.kind().name().toLowerCase(Locale.ROOT), p.name(), finite(p.nominal()),
-                        p.nominalUnit(), finite(p.tolerancePercent()), finite(p.turnsRatio())),
-                steps, checks, meter, new RunManifest.CompensationInfo("none", List.of(), null),
-                new RunManifest.SoftwareInfo("zweep", version), host(), seed,
-                clock.instant().toString(), null, new RunManifest.Counts(plan.points().size(), 0), "running",
-                "none", RunId.next(clock.instant()), null);
+        return RunManifest.builder()
+                .sequence(new RunManifest.SequenceInfo(plan.name(), sequenceFile, RunFolder.sha256(folder.sequenceCopy()),
+                        RunFolder.SEQUENCE_COPY))
+                .part(new RunManifest.PartInfo(p.kind().name().toLowerCase(Locale.ROOT), p.name(), finite(p.nominal()),
+                        p.nominalUnit(), finite(p.tolerancePercent()), finite(p.turnsRatio())))
+                .steps(steps).checks(checks).meter(meter)
+                .compensation(new RunManifest.CompensationInfo("none", List.of(), null))
+                .software(new RunManifest.SoftwareInfo("zweep", version)).host(host()).seed(seed)
+                .started(clock.instant().toString()).counts(new RunManifest.Counts(plan.points().size(), 0))
+                .outcome("running").verdict("none").id(RunId.next(clock.instant())).build();
     }
 
     private static Double finite(double v) {

@@ -1,10 +1,12 @@
 package org.zweep.runner.engine;
 
 import java.util.Optional;
+import java.util.function.Function;
 import java.util.function.Supplier;
 import org.zweep.driver.MeterException;
 import org.zweep.driver.dialect.Dialect;
 import org.zweep.driver.dialect.DialectMeter;
+import org.zweep.driver.meter.FixtureControl;
 import org.zweep.driver.meter.Meter;
 import org.zweep.driver.meter.MeterIdentity;
 import org.zweep.driver.scpi.ScpiProtocolException;
@@ -16,24 +18,36 @@ import org.zweep.driver.uncertainty.MeterAccuracy;
 
 /**
  * A {@link MeterLink} over SCPI: a {@link DialectMeter} on a session from {@code connector},
- * re-opened through the same connector. The zweep simulator is recognised by its {@code *IDN?}
- * identity, wherever it runs (in-process or over TCP), and then offers its
- * {@link SimulatorControl}.
+ * re-opened through the same connector.
  */
 public final class ScpiMeterLink implements MeterLink {
+    /**
+     * What whoever opens the link knows of the meter beyond its dialect.
+     *
+     * @param timed whether the meter takes real time (see {@link MeterLink#timed()})
+     * @param fixture the fixture the meter switches on a session when its dialect declares none, or
+     *     null
+     */
+    public record Bench(boolean timed, Function<ScpiSession, FixtureControl> fixture) {
+        /** A meter on a real link: timed, its fixture as its dialect declares. */
+        public static final Bench REAL = new Bench(true, null);
+    }
+
     private final String address;
     private final Dialect dialect;
     private final Supplier<ScpiSession> connector;
     private final Runnable onClose;
+    private final Bench bench;
     private volatile ScpiSession session;
     private volatile DialectMeter meter;
-    private volatile ScpiSimulatorControl simulator;
 
-    private ScpiMeterLink(String address, Dialect dialect, Supplier<ScpiSession> connector, Runnable onClose) {
+    private ScpiMeterLink(String address, Dialect dialect, Supplier<ScpiSession> connector, Runnable onClose,
+            Bench bench) {
         this.address = address;
         this.dialect = dialect;
         this.connector = connector;
         this.onClose = onClose;
+        this.bench = bench;
     }
 
     /**
@@ -42,12 +56,18 @@ public final class ScpiMeterLink implements MeterLink {
      * @param address the address (for messages)
      * @param dialect a dialect name or file
      * @param connector opens a new session each call (blocking up to its connect timeout)
-     * @param onClose run after the link is closed (e.g. stops an in-process simulator)
+     * @param onClose run after the link is closed (e.g. stops a meter started for the link)
      * @throws MeterException when the meter cannot be reached
      */
     public static ScpiMeterLink open(String address, String dialect, Supplier<ScpiSession> connector,
             Runnable onClose) {
-        ScpiMeterLink link = new ScpiMeterLink(address, Dialect.load(dialect), connector, onClose);
+        return open(address, dialect, connector, onClose, Bench.REAL);
+    }
+
+    /** As {@link #open(String, String, Supplier, Runnable)}, with what is known of the meter's bench. */
+    public static ScpiMeterLink open(String address, String dialect, Supplier<ScpiSession> connector,
+            Runnable onClose, Bench bench) {
+        ScpiMeterLink link = new ScpiMeterLink(address, Dialect.load(dialect), connector, onClose, bench);
         // a link that breaks while the meter is being identified is opened again, as a reconnect
         // would be; a meter that cannot be reached at all fails at once
         for (int attempt = 1;; attempt++) {
@@ -77,13 +97,12 @@ public final class ScpiMeterLink implements MeterLink {
     }
 
     private Meter connect() {
-        JoiningSession s = new JoiningSession(connector.get());
+        ScpiSession s = connector.get();
         try {
             DialectMeter m = new DialectMeter(s, dialect);
-            MeterIdentity id = agreedIdentity(m);
+            agreedIdentity(m);
             session = s;
             meter = m;
-            simulator = ScpiSimulatorControl.isSimulator(id) ? new ScpiSimulatorControl(s) : null;
             return m;
         } catch (RuntimeException e) {
             s.close();
@@ -93,7 +112,7 @@ public final class ScpiMeterLink implements MeterLink {
 
     /**
      * The identity read until two reads agree (at most four): a reply corrupted on the way must not
-     * make the simulator look like a real meter, or a real meter like another.
+     * make one meter look like another.
      */
     private MeterIdentity agreedIdentity(DialectMeter m) {
         java.util.List<MeterIdentity> seen = new java.util.ArrayList<>();
@@ -139,17 +158,17 @@ public final class ScpiMeterLink implements MeterLink {
     }
 
     @Override
-    public Optional<org.zweep.driver.meter.FixtureControl> fixtureControl() {
-        Optional<org.zweep.driver.meter.FixtureControl> own = meter.fixture();
-        if (own.isPresent() || simulator == null) {
+    public Optional<FixtureControl> fixtureControl() {
+        Optional<FixtureControl> own = meter.fixture();
+        if (own.isPresent() || bench.fixture() == null) {
             return own;
         }
-        return Optional.of(simulator.fixture());
+        return Optional.of(bench.fixture().apply(session));
     }
 
     @Override
-    public Optional<SimulatorControl> simulator() {
-        return Optional.ofNullable(simulator);
+    public boolean timed() {
+        return bench.timed();
     }
 
     @Override

@@ -1,5 +1,6 @@
 package org.zweep.runner.engine;
 
+import org.zweep.runner.safety.BiasWatcher;
 import java.util.List;
 import java.util.Optional;
 import java.util.function.Consumer;
@@ -57,7 +58,6 @@ public final class Station {
     /** What the fixture was last brought to (null: not known), and the second winding. */
     private FixtureState held;
     private Wiring wiring = Wiring.NONE;
-    private Long seed;
     private int reconnects;
     private MeasurementSetting lastSetting;
     /** Reconnect attempts and back-off waited since the last operation that succeeded. */
@@ -86,13 +86,8 @@ public final class Station {
         this.log = log;
     }
 
-    /**
-     * Identifies the meter, resets it (bias off) and, on the simulator, sets the noise seed.
-     *
-     * @param noiseSeed the simulator's seed; {@code null} leaves it as it is
-     */
-    public void start(Long noiseSeed) {
-        this.seed = noiseSeed;
+    /** Identifies the meter and resets it (bias off). */
+    public void start() {
         withRetry("identifying the meter", () -> {
             Meter m = link.meter();
             identity = m.identify();
@@ -102,9 +97,6 @@ public final class Station {
             topRangeOhm = m instanceof org.zweep.driver.dialect.DialectMeter d ? d.dialect().impedanceRangeOhm().max()
                     : 0.0;
             applied = Bias.OFF;
-            if (seed != null) {
-                link.simulator().ifPresent(s -> s.setSeed(seed));
-            }
             return null;
         });
     }
@@ -160,14 +152,6 @@ public final class Station {
         held = state;
     }
 
-    /**
-     * Takes the part out of the fixture: nothing is asked, but the next {@link #insert} of the
-     * part asks again.
-     */
-    public void remove() {
-        held = null;
-    }
-
     /** What an operator is told to bring about {@code state} when the sequence says nothing. */
     static String standardInstruction(FixtureState state) {
         return switch (state) {
@@ -207,30 +191,25 @@ public final class Station {
     }
 
     /**
-     * Measures one point: moves to {@code s} (bias ramped and settled), waits {@code delayS}, keys
-     * the simulator's noise with {@code noiseKey}, triggers and reads.
+     * Measures one point: moves to {@code s} (bias ramped and settled), waits {@code delayS},
+     * triggers and reads.
      */
-    public Reading measure(MeasurementSetting s, BiasControl bias, double delayS, long noiseKey) {
+    public Reading measure(MeasurementSetting s, BiasControl bias, double delayS) {
         guard.check(s, "setting at " + org.zweep.runner.safety.SafetyGuard.human(s.frequencyHz(), "Hz"));
         return withRetry("measuring at " + org.zweep.runner.safety.SafetyGuard.human(s.frequencyHz(), "Hz"), () -> {
             moveTo(s, bias);
             waiter.waitS(delayS);
-            link.simulator().ifPresent(c -> c.setNoiseKey(noiseKey));
             return link.meter().measure();
         });
     }
 
-    /**
-     * Measures a list of settings that differ only in frequency with the meter's list sweep,
-     * keying the simulator's noise with {@code noiseKey} once for the list.
-     */
-    public List<Reading> measureList(List<MeasurementSetting> settings, BiasControl bias, long noiseKey) {
+    /** Measures a list of settings that differ only in frequency with the meter's list sweep. */
+    public List<Reading> measureList(List<MeasurementSetting> settings, BiasControl bias) {
         for (MeasurementSetting s : settings) {
             guard.check(s, "setting at " + org.zweep.runner.safety.SafetyGuard.human(s.frequencyHz(), "Hz"));
         }
         return withRetry("measuring a list of " + settings.size() + " points", () -> {
             moveTo(settings.get(0), bias);
-            link.simulator().ifPresent(c -> c.setNoiseKey(noiseKey));
             return link.meter().measureList(settings);
         });
     }
@@ -261,8 +240,6 @@ public final class Station {
     /** Tells the meter to acquire {@code standard} now fitted. */
     public void acquireCorrection(CorrectionStandard standard) {
         withRetry("acquiring the " + standard + " correction", () -> {
-            // keyed like a point, so that an acquisition repeated after a reconnect draws the same noise
-            link.simulator().ifPresent(c -> c.setNoiseKey(-(1L << 40) - standard.ordinal() * 1_000_000L));
             link.meter().acquireCorrection(standard);
             return null;
         });
@@ -528,10 +505,6 @@ public final class Station {
                 }
                 if (meterCorrection) {
                     m.setCorrectionEnabled(true);
-                }
-                Optional<SimulatorControl> sim = link.simulator();
-                if (sim.isPresent() && seed != null) {
-                    sim.get().setSeed(seed);
                 }
                 restoreFixture();
                 log.accept("reconnected to " + link.address() + " (attempt " + attempt + "); "

@@ -1,10 +1,11 @@
 package org.zweep.runner.engine;
 
+import org.zweep.runner.safety.Interruption;
 import java.util.concurrent.locks.LockSupport;
 
 /**
  * Waits on the host side (bias ramp steps, settling, delays, reconnect back-off). Tests and
- * simulator runs without timing use one that does not sleep.
+ * meters without timing ({@link MeterLink#timed()}) use one that does not sleep.
  */
 public interface Waiter {
 

@@ -11,7 +11,7 @@ import java.util.UUID;
 import java.util.concurrent.BlockingQueue;
 import java.util.concurrent.LinkedBlockingQueue;
 import java.util.concurrent.TimeUnit;
-import org.zweep.runner.engine.Interruption;
+import org.zweep.runner.safety.Interruption;
 import org.zweep.runner.engine.Prompter;
 import org.zweep.runner.engine.RunInterruptedException;
 

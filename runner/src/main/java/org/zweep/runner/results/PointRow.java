@@ -143,13 +143,6 @@ public record PointRow(Key key, Conditions conditions, Measured measured, String
                 : Measured.of(conditions, ok, re, im, u.uROhm(), u.uXOhm(), u.correlation()), check, time);
     }
 
-    /** A row from stored values, u(R), u(X) and r(R, X) NaN when unknown. */
-    public static PointRow of(Key key, Conditions conditions, boolean ok, double re, double im, double uROhm,
-            double uXOhm, double correlation, String check, Instant time) {
-        return new PointRow(key, conditions, Measured.of(conditions, ok, re, im, uROhm, uXOhm, correlation), check,
-                time);
-    }
-
     /** The standard uncertainties of R, X and every derived parameter (unknown: {@link RowUncertainty#NONE}). */
     public RowUncertainty uncertainty() {
         return measured.uncertainty();

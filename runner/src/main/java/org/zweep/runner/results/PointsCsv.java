@@ -98,10 +98,11 @@ public final class PointsCsv {
             // the derived cells are not read back: every derived value (and its u) is computed from R and X
             // (and u(R), u(X), r), once
             String status = c.get(after + 1);
-            PointRow row = PointRow.of(new PointRow.Key(Integer.parseInt(c.get(0)), c.get(1),
-                    Integer.parseInt(c.get(2)), Integer.parseInt(c.get(3))), conditions, !"no_value".equals(status),
+            PointRow.Key key = new PointRow.Key(Integer.parseInt(c.get(0)), c.get(1), Integer.parseInt(c.get(2)),
+                    Integer.parseInt(c.get(3)));
+            PointRow row = new PointRow(key, conditions, PointRow.Measured.of(conditions, !"no_value".equals(status),
                     Csv.number(c.get(11)), Csv.number(c.get(12)), Csv.number(c.get(after + 4)),
-                    Csv.number(c.get(after + 5)), Csv.number(c.get(after + 6)), c.get(after + 2),
+                    Csv.number(c.get(after + 5)), Csv.number(c.get(after + 6))), c.get(after + 2),
                     Instant.parse(c.get(after + 3)));
             return "ok".equals(status) || "no_value".equals(status) ? row : row.withStatus(status);
         } catch (NumberFormatException | DateTimeParseException e) {

@@ -49,12 +49,164 @@ public record RunManifest(String format, SequenceInfo sequence, PartInfo part, L
         Long seed, String started, String ended, Counts counts, String outcome, String verdict, String id,
         Identity identity) {
 
-    /** A manifest without id and identity (both unknown). */
-    public RunManifest(String format, SequenceInfo sequence, PartInfo part, List<StepInfo> steps,
-            List<CheckInfo> checks, MeterInfo meter, CompensationInfo compensation, SoftwareInfo software, String host,
-            Long seed, String started, String ended, Counts counts, String outcome, String verdict) {
-        this(format, sequence, part, steps, checks, meter, compensation, software, host, seed, started, ended, counts,
-                outcome, verdict, null, null);
+    /** A manifest built field by field; unset fields are null ({@link #FORMAT} for the format). */
+    public static Builder builder() {
+        return new Builder();
+    }
+
+    /** A builder holding this manifest's fields, to change some of them. */
+    public Builder toBuilder() {
+        Builder b = new Builder();
+        b.format = format;
+        b.sequence = sequence;
+        b.part = part;
+        b.steps = steps;
+        b.checks = checks;
+        b.meter = meter;
+        b.compensation = compensation;
+        b.software = software;
+        b.host = host;
+        b.seed = seed;
+        b.started = started;
+        b.ended = ended;
+        b.counts = counts;
+        b.outcome = outcome;
+        b.verdict = verdict;
+        b.id = id;
+        b.identity = identity;
+        return b;
+    }
+
+    /** Builds a {@link RunManifest} by field name instead of by position; not thread-safe. */
+    public static final class Builder {
+        private String format = FORMAT;
+        private SequenceInfo sequence;
+        private PartInfo part;
+        private List<StepInfo> steps;
+        private List<CheckInfo> checks;
+        private MeterInfo meter;
+        private CompensationInfo compensation;
+        private SoftwareInfo software;
+        private String host;
+        private Long seed;
+        private String started;
+        private String ended;
+        private Counts counts;
+        private String outcome;
+        private String verdict;
+        private String id;
+        private Identity identity;
+
+        private Builder() {
+        }
+
+        /** The format tag. */
+        public Builder format(String v) {
+            format = v;
+            return this;
+        }
+
+        /** The sequence run. */
+        public Builder sequence(SequenceInfo v) {
+            sequence = v;
+            return this;
+        }
+
+        /** The component under test. */
+        public Builder part(PartInfo v) {
+            part = v;
+            return this;
+        }
+
+        /** The steps. */
+        public Builder steps(List<StepInfo> v) {
+            steps = v;
+            return this;
+        }
+
+        /** The checks. */
+        public Builder checks(List<CheckInfo> v) {
+            checks = v;
+            return this;
+        }
+
+        /** The meter. */
+        public Builder meter(MeterInfo v) {
+            meter = v;
+            return this;
+        }
+
+        /** The compensation. */
+        public Builder compensation(CompensationInfo v) {
+            compensation = v;
+            return this;
+        }
+
+        /** The program that wrote the folder. */
+        public Builder software(SoftwareInfo v) {
+            software = v;
+            return this;
+        }
+
+        /** The computer's name. */
+        public Builder host(String v) {
+            host = v;
+            return this;
+        }
+
+        /** The simulator's seed, null on a real meter. */
+        public Builder seed(Long v) {
+            seed = v;
+            return this;
+        }
+
+        /** When the run started (ISO-8601). */
+        public Builder started(String v) {
+            started = v;
+            return this;
+        }
+
+        /** When it ended (ISO-8601), null while running. */
+        public Builder ended(String v) {
+            ended = v;
+            return this;
+        }
+
+        /** Planned and measured points. */
+        public Builder counts(Counts v) {
+            counts = v;
+            return this;
+        }
+
+        /** {@code running}, {@code completed}, {@code aborted} or {@code failed}. */
+        public Builder outcome(String v) {
+            outcome = v;
+            return this;
+        }
+
+        /** {@code pass}, {@code fail} or {@code none}. */
+        public Builder verdict(String v) {
+            verdict = v;
+            return this;
+        }
+
+        /** The run's id. */
+        public Builder id(String v) {
+            id = v;
+            return this;
+        }
+
+        /** Who and what was measured. */
+        public Builder identity(Identity v) {
+            identity = v;
+            return this;
+        }
+
+        /** The manifest. */
+        public RunManifest build() {
+            return new RunManifest(format, sequence, part, steps, checks, meter, compensation, software, host, seed,
+                    started, ended, counts, outcome, verdict, id, identity);
+        }
     }
 
     /**
@@ -220,32 +372,27 @@ public record RunManifest(String format, SequenceInfo sequence, PartInfo part, L
 
     /** This manifest with a new outcome, end time, counts and verdict. */
     public RunManifest finished(String newOutcome, String newEnded, Counts newCounts, String newVerdict) {
-        return new RunManifest(format, sequence, part, steps, checks, meter, compensation, software, host, seed,
-                started, newEnded, newCounts, newOutcome, newVerdict, id, identity);
+        return toBuilder().outcome(newOutcome).ended(newEnded).counts(newCounts).verdict(newVerdict).build();
     }
 
     /** This manifest with each check's outcome (same order as {@link #checks()}). */
     public RunManifest withChecks(List<CheckInfo> judged) {
-        return new RunManifest(format, sequence, part, steps, List.copyOf(judged), meter, compensation, software, host,
-                seed, started, ended, counts, outcome, verdict, id, identity);
+        return toBuilder().checks(List.copyOf(judged)).build();
     }
 
     /** This manifest with another meter and compensation record (after a resume reconnects). */
     public RunManifest withMeter(MeterInfo newMeter) {
-        return new RunManifest(format, sequence, part, steps, checks, newMeter, compensation, software, host, seed,
-                started, ended, counts, outcome, verdict, id, identity);
+        return toBuilder().meter(newMeter).build();
     }
 
     /** This manifest with another compensation record. */
     public RunManifest withCompensation(CompensationInfo newCompensation) {
-        return new RunManifest(format, sequence, part, steps, checks, meter, newCompensation, software, host, seed,
-                started, ended, counts, outcome, verdict, id, identity);
+        return toBuilder().compensation(newCompensation).build();
     }
 
     /** This manifest with another run id and identity. */
     public RunManifest identified(String newId, Identity newIdentity) {
-        return new RunManifest(format, sequence, part, steps, checks, meter, compensation, software, host, seed,
-                started, ended, counts, outcome, verdict, newId, newIdentity);
+        return toBuilder().id(newId).identity(newIdentity).build();
     }
 
     /** The identity, {@link Identity#NONE} when unknown. */

@@ -10,7 +10,6 @@ import java.util.List;
 import java.util.Locale;
 import org.zweep.driver.meter.Bias;
 import org.zweep.driver.meter.MeasurementSetting;
-import org.zweep.runner.engine.BiasWatcher;
 
 /**
  * The run's side of the guard process: starts {@link BiasGuardMain} in a small JVM of its own

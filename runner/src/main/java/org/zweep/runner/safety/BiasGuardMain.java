@@ -18,9 +18,7 @@ import org.zweep.driver.meter.MeasurementSetting;
 import org.zweep.driver.meter.Meter;
 import org.zweep.driver.meter.SourceMode;
 import org.zweep.driver.scpi.ScpiSettings;
-import org.zweep.runner.engine.ScpiMeterLink;
 import org.zweep.runner.results.RunManifest;
-import org.zweep.runner.sim.MeterLinks;
 
 /**
  * The guard process of {@code zweep run} ({@link BiasGuard} starts it):
@@ -135,8 +133,8 @@ public final class BiasGuardMain {
         RuntimeException failure = null;
         for (int attempt = 1; attempt <= 5; attempt++) {
             long t0 = System.nanoTime();
-            try (ScpiMeterLink link = MeterLinks.open(address, dialect, settings)) {
-                Meter m = link.meter();
+            try (org.zweep.driver.dialect.DialectMeter m = new org.zweep.driver.dialect.DialectMeter(
+                    org.zweep.driver.scpi.ScpiClient.open(address, settings), org.zweep.driver.dialect.Dialect.load(dialect))) {
                 String what;
                 if (last.on()) {
                     m.apply(last.setting(last.value()));
@@ -176,8 +174,7 @@ public final class BiasGuardMain {
             org.zweep.driver.dialect.Dialect.load(dialect);
             BiasRamp.plan(1.0, 0.0, 1.0);
             Last.parse("on V 1.0 1.0 1000.0 V 0.5").setting(0.5);
-            for (String c : new String[] {"org.zweep.driver.dialect.DialectMeter", "org.zweep.driver.scpi.ScpiClient",
-                "org.zweep.runner.engine.ScpiMeterLink", "org.zweep.runner.engine.JoiningSession"}) {
+            for (String c : new String[] {"org.zweep.driver.dialect.DialectMeter", "org.zweep.driver.scpi.ScpiClient"}) {
                 Class.forName(c);
             }
         } catch (ReflectiveOperationException | RuntimeException | LinkageError e) {

@@ -6,7 +6,6 @@ import java.lang.reflect.Method;
 import java.lang.reflect.Proxy;
 import java.util.concurrent.atomic.AtomicInteger;
 import java.util.function.BooleanSupplier;
-import org.zweep.runner.engine.Interruption;
 
 /**
  * Keeps DC bias off when a run is stopped from outside. While installed:
@@ -27,7 +26,7 @@ public final class BiasOffHook implements AutoCloseable {
     /** Exit code after a second Ctrl-C (128 + SIGINT). */
     public static final int EXIT_INTERRUPTED = 130;
     /** How long a second Ctrl-C waits for the meter to confirm bias off before the process ends. */
-    static final long SECOND_STOP_MILLIS = 500;
+    static final long SECOND_STOP_MILLIS = 350;
 
     private final Interruption interruption;
     private final BooleanSupplier biasOff;

@@ -26,31 +26,49 @@ import org.zweep.simulator.server.SimulatorServer;
  * One simulated meter in this process, loaded from a bench file, served to any number of
  * in-memory connections (each like a TCP connection: own parser, faults, noise-key counter).
  *
- * <p>The address form is {@code sim:BENCH_FILE[?timing=real|none]}: without {@code timing} the
- * bench file's own timing model is used. Thread-safe; {@link #close()} stops the meter.
+ * <p>The address form is {@code sim:BENCH_FILE[?timing=real|none][&seed=N]}: without {@code timing}
+ * the bench file's own timing model is used, without {@code seed} its own seed. Thread-safe;
+ * {@link #close()} stops the meter.
  */
 public final class InProcessSimulator implements AutoCloseable {
     private final String address;
     private final SimulatorServer server;
+    private final BenchSpec spec;
 
-    private InProcessSimulator(String address, SimulatorServer server) {
+    private InProcessSimulator(String address, SimulatorServer server, BenchSpec spec) {
         this.address = address;
         this.server = server;
+        this.spec = spec;
     }
 
     /**
      * Loads the bench named by a {@code sim:} address and starts its meter.
      *
      * @throws InvalidInputException when the address's bench file (none: {@link #defaultBench()}) is missing or
-     *     invalid, or {@code timing} is not {@code real} or {@code none}
+     *     invalid, {@code timing} is not {@code real} or {@code none}, or {@code seed} not a whole number
      */
     public static InProcessSimulator start(String address) {
+        BenchSpec spec = spec(address);
+        InstrumentOptions io = InstrumentOptions.defaults()
+                .withTiming(spec.timing() == Timing.REAL ? TimingModel.REAL : TimingModel.NONE);
+        try {
+            return new InProcessSimulator(address,
+                    SimulatorServer.start(new SimulatedBench(spec), ServerOptions.defaults().withTcp(false)
+                            .withInstrument(io)), spec);
+        } catch (IOException e) {
+            throw new UncheckedIOException(e);
+        }
+    }
+
+    /** The bench a {@code sim:} address names, with its {@code timing} and {@code seed} options applied. */
+    static BenchSpec spec(String address) {
         Address a = Address.parse(address);
         if (!(a instanceof SimAddress sim)) {
             throw new InvalidInputException("address '" + address + "': not a sim: address");
         }
         String bench = sim.bench();
         Timing timing = null;
+        Long seed = null;
         int q = bench.indexOf('?');
         if (q >= 0) {
             String query = bench.substring(q + 1);
@@ -64,9 +82,11 @@ public final class InProcessSimulator implements AutoCloseable {
                         default -> throw new InvalidInputException("address '" + address + "': timing must be real"
                                 + " or none, not '" + p[1] + "'");
                     };
+                } else if (p.length == 2 && p[0].equals("seed")) {
+                    seed = seed(address, p[1]);
                 } else {
                     throw new InvalidInputException("address '" + address + "': unknown option '" + kv
-                            + "' (sim:BENCH_FILE[?timing=real|none])");
+                            + "' (sim:BENCH_FILE[?timing=real|none][&seed=N])");
                 }
             }
         }
@@ -87,15 +107,34 @@ public final class InProcessSimulator implements AutoCloseable {
         if (timing != null) {
             spec = spec.withTiming(timing);
         }
-        InstrumentOptions io = InstrumentOptions.defaults()
-                .withTiming(spec.timing() == Timing.REAL ? TimingModel.REAL : TimingModel.NONE);
-        try {
-            return new InProcessSimulator(address,
-                    SimulatorServer.start(new SimulatedBench(spec), ServerOptions.defaults().withTcp(false)
-                            .withInstrument(io)));
-        } catch (IOException e) {
-            throw new UncheckedIOException(e);
+        if (seed != null) {
+            spec = spec.withSeed(seed);
         }
+        return spec;
+    }
+
+    /** The {@code seed} option's value. */
+    static long seed(String address, String text) {
+        try {
+            long v = Long.parseLong(text);
+            if (Math.abs(v) <= 1L << 53) {
+                return v;
+            }
+        } catch (NumberFormatException e) {
+            // said below
+        }
+        throw new InvalidInputException("address '" + address + "': seed must be a whole number within ±2^53, not '"
+                + text + "'");
+    }
+
+    /** Whether the simulated meter takes real time ({@code timing real}). */
+    public boolean timed() {
+        return spec.timing() == Timing.REAL;
+    }
+
+    /** The seed its noise is drawn from. */
+    public long seed() {
+        return spec.seed();
     }
 
     /** The bench of {@code sim:} without a file and of {@code zweep sim} without options: a 100 Ω resistor. */

@@ -7,7 +7,9 @@ import org.zweep.driver.transport.TransportProvider;
 
 /**
  * The {@code sim:} scheme: each open starts a fresh in-process simulator from the address's bench
- * file and connects to it; closing the transport stops that simulator. Stateless and thread-safe.
+ * file and connects to it; closing the transport stops that simulator. {@code sim:tcp://HOST:PORT}
+ * connects to a simulator already serving over TCP (its options, such as {@code seed}, are
+ * applied only by {@link MeterLinks}). Stateless and thread-safe.
  */
 public final class SimTransportProvider implements TransportProvider {
 
@@ -18,6 +20,11 @@ public final class SimTransportProvider implements TransportProvider {
 
     @Override
     public Transport open(Address address, TransportOptions options) {
+        String text = address.text().substring("sim:".length());
+        if (text.startsWith("tcp://")) {
+            int q = text.indexOf('?');
+            return org.zweep.driver.transport.Transports.open(q >= 0 ? text.substring(0, q) : text, options);
+        }
         InProcessSimulator sim = InProcessSimulator.start(address.text());
         Transport t = sim.connectTransport();
         return new Transport() {

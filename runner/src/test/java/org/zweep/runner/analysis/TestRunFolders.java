@@ -111,11 +111,14 @@ public final class TestRunFolders {
         List<RunManifest.StepInfo> stepInfo = new ArrayList<>();
         steps.forEach((name, index) -> stepInfo.add(new RunManifest.StepInfo(index, name,
                 (int) rows.stream().filter(r -> r.step().equals(name)).count())));
-        new RunManifest(RunManifest.FORMAT, new RunManifest.SequenceInfo("test", "/tmp/test.yaml", "00", "sequence.yaml"),
-                part, stepInfo, checks, new RunManifest.MeterInfo("sim:bench.yaml", "standard", "Korvane Test,SIM-1,0001,1.0"),
-                new RunManifest.CompensationInfo("none", List.of(), null), new RunManifest.SoftwareInfo("zweep", "test"),
-                "test-host", 1L, "2024-05-01T10:00:00Z", time.toString(), new RunManifest.Counts(rows.size(), rows.size()),
-                "completed", "none").write(dir.resolve("run.json"));
+        RunManifest.builder().sequence(new RunManifest.SequenceInfo("test", "/tmp/test.yaml", "00", "sequence.yaml"))
+                .part(part).steps(stepInfo).checks(checks)
+                .meter(new RunManifest.MeterInfo("sim:bench.yaml", "standard", "Korvane Test,SIM-1,0001,1.0"))
+                .compensation(new RunManifest.CompensationInfo("none", List.of(), null))
+                .software(new RunManifest.SoftwareInfo("zweep", "test")).host("test-host").seed(1L)
+                .started("2024-05-01T10:00:00Z").ended(time.toString())
+                .counts(new RunManifest.Counts(rows.size(), rows.size())).outcome("completed").verdict("none")
+                .build().write(dir.resolve("run.json"));
         return dir;
     }
 }

@@ -45,4 +45,15 @@ class WatchCommandTest {
         assertTrue(lines.contains("check capacitance: Cs = no value: fail"), lines.toString());
         assertEquals("finished: completed, 3 of 3 points, verdict fail", lines.get(lines.size() - 1));
     }
+
+    @Test
+    void aConditionalPassEndsWithTheSameExitCodeAsRunAndAnalyze() throws Exception {
+        Path events = dir.resolve("events.jsonl");
+        Files.writeString(events, String.join("\n",
+                "{\"type\":\"run_started\",\"time_ms\":1,\"name\":\"demo\",\"total\":1,\"done\":0}",
+                "{\"type\":\"finished\",\"time_ms\":2,\"outcome\":\"completed\",\"verdict\":\"conditional pass\","
+                        + "\"measured\":1,\"total\":1}") + "\n");
+        // a conditional pass is not a proven pass: zweep run and zweep analyze exit 1 for it, and so does watch
+        assertEquals(ExitCode.CHECK_FAILED, WatchCommand.follow(events, new PrintWriter(new StringWriter())));
+    }
 }

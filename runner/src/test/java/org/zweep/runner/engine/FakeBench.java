@@ -1,5 +1,6 @@
 package org.zweep.runner.engine;
 
+import org.zweep.runner.safety.Interruption;
 import java.time.Instant;
 import java.util.ArrayList;
 import java.util.List;
@@ -16,7 +17,6 @@ import org.zweep.driver.meter.MeterIdentity;
 import org.zweep.driver.meter.Range;
 import org.zweep.driver.meter.Reading;
 import org.zweep.driver.meter.ReadingStatus;
-import org.zweep.runner.plan.Wiring;
 
 /**
  * A small in-test bench: an instrument whose state (bias, correction) survives reconnects, a
@@ -61,8 +61,9 @@ final class FakeBench {
     final List<Integer> negativeRAtMeasure = new ArrayList<>();
     /** What the meter's own fixture holds. */
     org.zweep.driver.meter.FixtureState slot = org.zweep.driver.meter.FixtureState.PART;
-    long noiseKey;
-    /** Whether the meter has a fixture of its own (every state) and keys its noise. */
+    /** How the meter's own correction applies what it acquired. */
+    org.zweep.driver.meter.CorrectionStyle correctionStyle = org.zweep.driver.meter.CorrectionStyle.WHOLE_RANGE;
+    /** Whether the meter has a fixture of its own (every state). */
     boolean simulator = true;
     /** Whether the meter can be asked what bias it holds (then a reconnect keeps the bias where it was). */
     boolean readsBias;
@@ -91,6 +92,16 @@ final class FakeBench {
     }
 
     /** The DUT's impedance at {@code f}: 100 nF in series with 10 mOhm, plus a key-dependent tiny offset. */
+    /** A setting as the trace shows it: frequency and bias. */
+    static String label(MeasurementSetting s) {
+        return s.frequencyHz() + " Hz" + (s.bias().on() ? " bias " + s.bias().value() : "");
+    }
+
+    /** The fake meter's own noise key: drawn from the setting alone, so that it is reproducible by itself. */
+    static long key(MeasurementSetting s) {
+        return Math.round(Math.log10(s.frequencyHz()) * 10) + (s.bias().on() ? 100 * Math.round(s.bias().value()) : 0);
+    }
+
     static Impedance dut(double f, long key) {
         double x = -1.0 / (2 * Math.PI * f * 100e-9);
         return new Impedance(f, 0.010 + key * 1e-9, x);
@@ -127,7 +138,8 @@ final class FakeBench {
         @Override
         public MeterCapabilities capabilities() {
             return new MeterCapabilities(new Range(20, 2e6), new Range(0.005, 2), new Range(1e-5, 0.02),
-                    new Range(-40, 40), new Range(-1, 1), maxListPoints, Set.of(CorrectionStandard.values()), true);
+                    new Range(-40, 40), new Range(-1, 1), maxListPoints, Set.of(CorrectionStandard.values()), true,
+                    correctionStyle);
         }
 
         @Override
@@ -155,9 +167,9 @@ final class FakeBench {
                 trace.add("measure (meter error)");
                 throw new MeterError("meter reported -222,\"Data out of range\"");
             }
-            trace.add("measure key " + noiseKey);
+            trace.add("measure " + label(current));
             nowS += 0.01;
-            Reading r = reading(current, noiseKey);
+            Reading r = reading(current, key(current));
             if (negativeRAtMeasure.contains(measures)) {
                 return new Reading(r.setting(), -r.real(), r.imaginary(), r.status(), r.timestamp());
             }
@@ -172,10 +184,10 @@ final class FakeBench {
                 broken = true;
                 throw new LinkDown("connection reset while reading a list");
             }
-            trace.add("list " + settings.size() + " key " + noiseKey);
+            trace.add("list " + settings.size() + " from " + label(settings.get(0)));
             List<Reading> out = new ArrayList<>();
             for (int i = 0; i < settings.size(); i++) {
-                out.add(reading(settings.get(i), noiseKey + i));
+                out.add(reading(settings.get(i), key(settings.get(i))));
             }
             nowS += 0.01 * settings.size();
             return out;
@@ -293,46 +305,6 @@ final class FakeBench {
                         return;
                     }
                     slot = s;
-                }
-            });
-        }
-
-        @Override
-        public Optional<SimulatorControl> simulator() {
-            if (!simulator) {
-                return Optional.empty();
-            }
-            return Optional.of(new SimulatorControl() {
-                @Override
-                public void setSlot(Slot s) {
-                    throw new AssertionError("the fixture is switched through fixtureControl()");
-                }
-
-                @Override
-                public void setWiring(Wiring w) {
-                    throw new AssertionError("the wiring is switched through fixtureControl()");
-                }
-
-                @Override
-                public void setNoiseKey(long key) {
-                    meter.live();
-                    noiseKey = key;
-                }
-
-                @Override
-                public void setSeed(long seed) {
-                    meter.live();
-                    trace.add("seed " + seed);
-                }
-
-                @Override
-                public long seed() {
-                    return 42;
-                }
-
-                @Override
-                public boolean realTiming() {
-                    return false;
                 }
             });
         }

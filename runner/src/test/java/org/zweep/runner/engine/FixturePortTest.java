@@ -112,11 +112,6 @@ class FixturePortTest {
             }
 
             @Override
-            public java.util.Optional<SimulatorControl> simulator() {
-                return java.util.Optional.empty();
-            }
-
-            @Override
             public void close() {
             }
         };

@@ -1,5 +1,6 @@
 package org.zweep.runner.engine;
 
+import org.zweep.runner.safety.Interruption;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertThrows;
@@ -39,7 +40,7 @@ class RunEngineTest {
     Station station() {
         Station s = new Station(link, new SafetyGuard(TestPlans.LIMITS), port(), bench.waiter(interruption),
                 policy, notes::add);
-        s.start(42L);
+        s.start();
         return s;
     }
 
@@ -108,7 +109,9 @@ class RunEngineTest {
         assertEquals(RunResult.Outcome.COMPLETED, r.outcome());
         assertEquals("ok", rows.get(1).status());
         assertEquals(0.010, rows.get(1).rOhm(), 1e-6); // FakeBench's part: 10 mOhm ESR, R > 0 as read again
-        assertEquals(2, bench.trace.stream().filter(t -> t.equals("measure key 1")).count(), bench.trace.toString());
+        String point1 = "measure " + FakeBench.label(TestPlans.capacitor().points().get(1).setting());
+        List<String> measures = bench.trace.stream().filter(t -> t.startsWith("measure")).toList();
+        assertEquals(List.of(point1, point1), measures.subList(1, 3), bench.trace.toString()); // read twice in a row
         assertTrue(notes.stream().anyMatch(n -> n.startsWith("point 1: θ = ") && n.endsWith("; measuring again")),
                 notes.toString());
     }
@@ -248,9 +251,10 @@ class RunEngineTest {
         bench.maxListPoints = 3;
         run(TestPlans.capacitor(), new BitSet());
         // arithmetic from the inputs above: at most 3 per list; sweep 0-4 → 3 + 2; bias pairs start at 5, 7, 9
-        assertTrue(bench.trace.contains("list 3 key 0"), bench.trace.toString());
-        assertTrue(bench.trace.contains("list 2 key 3"), bench.trace.toString());
-        assertTrue(bench.trace.contains("list 2 key 9"), bench.trace.toString());
+        List<org.zweep.runner.plan.PlannedPoint> p = TestPlans.capacitor().points();
+        assertTrue(bench.trace.contains("list 3 from " + FakeBench.label(p.get(0).setting())), bench.trace.toString());
+        assertTrue(bench.trace.contains("list 2 from " + FakeBench.label(p.get(3).setting())), bench.trace.toString());
+        assertTrue(bench.trace.contains("list 2 from " + FakeBench.label(p.get(9).setting())), bench.trace.toString());
         List<PointRow> full = List.copyOf(rows);
         rows.clear();
         BitSet done = new BitSet();
@@ -284,7 +288,7 @@ class RunEngineTest {
         bench.trace.clear();
         MeasurementSetting hot = MeasurementSetting.at(1000).withBias(Bias.voltage(30.0)); // limit is 25 V
         InvalidInputException e = assertThrows(InvalidInputException.class,
-                () -> st.measure(hot, BiasControl.NONE, 0, 0));
+                () -> st.measure(hot, BiasControl.NONE, 0));
         // 25 V: TestPlans.LIMITS
         assertTrue(e.getMessage().contains("DC bias 30 V exceeds the safety limit 25 V"), e.getMessage());
         assertTrue(bench.trace.isEmpty(), bench.trace.toString());
@@ -338,7 +342,7 @@ class RunEngineTest {
             }
         };
         Station st = new Station(link, new SafetyGuard(TestPlans.LIMITS), port(), stopAt4V, policy, notes::add);
-        st.start(42L);
+        st.start();
         Plan plan = TestPlans.capacitor();
         RunResult r = new RunEngine(plan, st, ReadingCorrector.NONE, new CheckEvaluator(plan.checks()), progress,
                 interruption).run(new BitSet(), (row, last) -> rows.add(row));

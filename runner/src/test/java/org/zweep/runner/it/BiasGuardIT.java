@@ -63,7 +63,7 @@ class BiasGuardIT {
         Path seq = Sims.sequences().resolve(c.file());
         try (SimulatorServer server = Sims.tcp(Sims.benchOf(seq), FaultPlan.none())) {
             server.instrument().setTiming(TimingModel.REAL);
-            String address = "tcp://127.0.0.1:" + server.port();
+            String address = Sims.address(server);
             Path out = dir.resolve("run" + i);
             Path log = dir.resolve("run" + i + ".log");
             Process p = Children.zweep(log, "run", seq.toString(), "--meter", address, "--dialect", Sims.dialect(),

@@ -21,7 +21,7 @@ class FaultSurvivalIT {
     Path dir;
 
     Sims.Result run(Path seq, SimulatorServer server, Path out, long seed) {
-        return Sims.zweep("run", seq.toString(), "--meter", "tcp://127.0.0.1:" + server.port(), "--dialect",
+        return Sims.zweep("run", seq.toString(), "--meter", Sims.address(server), "--dialect",
                 Sims.dialect(), "--out", out.toString(), "--seed", Long.toString(seed), "--timeout", "1", "--quiet");
     }
 

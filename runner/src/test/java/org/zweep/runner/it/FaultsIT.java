@@ -32,7 +32,7 @@ class FaultsIT {
     }
 
     static Sims.Result run(SimulatorServer server, Path out, String... extra) {
-        String[] base = {"run", SEQ.toString(), "--meter", "tcp://127.0.0.1:" + server.port(), "--dialect",
+        String[] base = {"run", SEQ.toString(), "--meter", Sims.address(server), "--dialect",
             Sims.dialect(), "--out", out.toString(), "--seed", "11", "--timeout", "1"};
         String[] all = new String[base.length + extra.length];
         System.arraycopy(base, 0, all, 0, base.length);
@@ -56,7 +56,7 @@ class FaultsIT {
             Path out = dir.resolve("dropped");
             Sims.Result r = run(server, out);
             assertEquals(0, r.code(), r.out() + r.err());
-            assertTrue(r.out().contains("reconnected to tcp://127.0.0.1:" + server.port()), r.out());
+            assertTrue(r.out().contains("reconnected to " + Sims.address(server)), r.out());
             assertSameAsReference(out);
             assertTrue(Sims.biasOff(server), "bias off on the simulator");
         }

@@ -100,7 +100,7 @@ class HostCompensationOverloadIT {
         List<Impedance> reference = ngspiceSweep("dec 5 100 1meg");
         Path out = dir.resolve("run");
         try (SimulatorServer s = server(spec)) {
-            Sims.Result r = Sims.zweep("run", sequence("auto").toString(), "--meter", "tcp://127.0.0.1:" + s.port(),
+            Sims.Result r = Sims.zweep("run", sequence("auto").toString(), "--meter", Sims.address(s),
                     "--dialect", Sims.dialect(), "--out", out.toString(), "--yes", "--quiet");
             assertEquals(0, r.code(), r.out() + r.err());
         }
@@ -161,7 +161,7 @@ class HostCompensationOverloadIT {
         BenchSpec spec = BenchSpec.load(bench("")).ideal();
         try (SimulatorServer s = server(spec)) {
             Sims.Result r = Sims.zweep("run", sequence("100 kΩ").toString(), "--meter",
-                    "tcp://127.0.0.1:" + s.port(), "--dialect", Sims.dialect(), "--out", dir.resolve("run").toString(),
+                    Sims.address(s), "--dialect", Sims.dialect(), "--out", dir.resolve("run").toString(),
                     "--yes", "--quiet");
             assertEquals(3, r.code(), r.out() + r.err());
             assertTrue(r.err().contains("the SHORT standard overloaded the meter at 100 Hz"), r.err());

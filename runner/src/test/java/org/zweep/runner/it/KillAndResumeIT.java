@@ -91,7 +91,7 @@ class KillAndResumeIT {
         try (SimulatorServer server = Sims.tcp(Sims.benchOf(SEQ), FaultPlan.none())) {
             // host-side waits are real only when the simulator's timing is real: use it
             server.instrument().setTiming(org.zweep.simulator.scpi.TimingModel.REAL);
-            Process p = child(out, "tcp://127.0.0.1:" + server.port());
+            Process p = child(out, Sims.address(server));
             awaitRows(out, 55, p);
             Children.signal(p, ctrlC ? "INT" : "TERM"); // SIGTERM: JVM shutdown hooks run
             assertTrue(p.waitFor(30, TimeUnit.SECONDS), "child stopped");

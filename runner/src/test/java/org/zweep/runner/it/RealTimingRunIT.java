@@ -89,7 +89,7 @@ class RealTimingRunIT {
         try (SimulatorServer server = start(Sims.benchOf(seq))) {
             long t0 = System.nanoTime();
             int code = Cli.run(new String[] {"run", seq.toString(), "--yes", "--out", out.toString(), "--meter",
-                "tcp://127.0.0.1:" + server.port()}, new PrintWriter(lines, true), new PrintWriter(err, true));
+                Sims.address(server)}, new PrintWriter(lines, true), new PrintWriter(err, true));
             long t1 = System.nanoTime();
             Sims.Result r = new Sims.Result(code, lines.text(), err.toString());
             ShippedSequencesRunIT.assertCompleteRun(seq, out, r);

@@ -103,7 +103,7 @@ class RunCommandIT {
         try (org.zweep.simulator.server.SimulatorServer server = Sims.tcp(Sims.benchOf(SEQ),
                 org.zweep.simulator.server.FaultPlan.parse("error=-222@20", 1))) {
             Path out = dir.resolve("out");
-            Sims.Result r = Sims.zweep("run", SEQ.toString(), "--meter", "tcp://127.0.0.1:" + server.port(),
+            Sims.Result r = Sims.zweep("run", SEQ.toString(), "--meter", Sims.address(server),
                     "--dialect", Sims.dialect(), "--quiet", "--out", out.toString());
             assertEquals(3, r.code(), r.out() + r.err());
             assertTrue(r.err().contains("-222"), r.err());
@@ -166,7 +166,7 @@ class RunCommandIT {
         try (org.zweep.simulator.server.SimulatorServer server = Sims.tcp(Sims.benchOf(SEQ),
                 org.zweep.simulator.server.FaultPlan.none())) {
             server.instrument().setTiming(org.zweep.simulator.scpi.TimingModel.REAL);
-            String address = "tcp://127.0.0.1:" + server.port();
+            String address = Sims.address(server);
             Sims.Result r = Sims.zweep("measure", address, "--frequency", "1kHz", "--level", "0.5V", "--bias", "5V",
                     "--ramp", "10V/s", "--settle", "100ms", "--sequence", SEQ.toString(), "--json");
             assertEquals(0, r.code(), r.out() + r.err());

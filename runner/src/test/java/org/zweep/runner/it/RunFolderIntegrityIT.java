@@ -203,7 +203,7 @@ class RunFolderIntegrityIT {
                 }
             });
             acceptor.start();
-            Process p = child("run", SEQ.toString(), "--meter", "tcp://127.0.0.1:" + silent.getLocalPort(),
+            Process p = child("run", SEQ.toString(), "--meter", "sim:tcp://127.0.0.1:" + silent.getLocalPort(),
                     "--dialect", Sims.dialect(), "--out", out.toString(), "--seed", "5", "--timeout", "60", "--quiet");
             awaitLockHeld(out.resolve(FolderLock.FILE), p);
             long end = System.nanoTime() + Duration.ofSeconds(30).toNanos();

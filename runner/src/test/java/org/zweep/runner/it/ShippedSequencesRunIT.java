@@ -59,7 +59,7 @@ class ShippedSequencesRunIT {
     void runsCompletelyOnTheTcpSimulatorAndLeavesBiasOff(Path seq) {
         Path out = dir.resolve("run");
         try (SimulatorServer server = Sims.tcp(Sims.benchOf(seq), FaultPlan.none())) {
-            Sims.Result r = Sims.zweep("run", seq.toString(), "--meter", "tcp://127.0.0.1:" + server.port(),
+            Sims.Result r = Sims.zweep("run", seq.toString(), "--meter", Sims.address(server),
                     "--dialect", Sims.dialect(), "--out", out.toString(), "--quiet");
             assertCompleteRun(seq, out, r);
             assertTrue(Sims.biasOff(server), "the simulator's own bias state is off");

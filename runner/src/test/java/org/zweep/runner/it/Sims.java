@@ -68,6 +68,14 @@ final class Sims {
         }
     }
 
+    /**
+     * The address a run uses for {@code server}: {@code sim:tcp://127.0.0.1:PORT}, so that the run
+     * takes its timing (and its fixture, where the dialect declares none) from the simulator.
+     */
+    static String address(SimulatorServer server) {
+        return "sim:tcp://127.0.0.1:" + server.port();
+    }
+
     /** Whether the simulator's DC bias sources are both off, asked over a new connection. */
     static boolean biasOff(SimulatorServer server) {
         try (ScpiClient c = ScpiClient.open("tcp://127.0.0.1:" + server.port(), ScpiSettings.DEFAULTS)) {

@@ -35,7 +35,7 @@ class StalledLinkStopIT {
             server.instrument().setTiming(TimingModel.REAL);
             String meterSide = "tcp://127.0.0.1:" + server.port();
             Path log = dir.resolve("run.log");
-            Process p = Children.zweep(log, "run", seq.toString(), "--meter", "tcp://127.0.0.1:" + proxy.port(),
+            Process p = Children.zweep(log, "run", seq.toString(), "--meter", "sim:tcp://127.0.0.1:" + proxy.port(),
                     "--dialect", Sims.dialect(), "--out", dir.resolve("run").toString(), "--seed", "3", "--yes");
             long end = System.nanoTime() + TimeUnit.SECONDS.toNanos(120);
             while (BiasTrace.read(meterSide).peak(false) < 4.0) {

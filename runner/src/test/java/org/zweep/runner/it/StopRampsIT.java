@@ -38,7 +38,7 @@ class StopRampsIT {
         boolean current = kind.equals("current");
         try (SimulatorServer server = Sims.tcp(Sims.benchOf(seq), FaultPlan.none())) {
             server.instrument().setTiming(TimingModel.REAL);
-            String address = "tcp://127.0.0.1:" + server.port();
+            String address = Sims.address(server);
             Path out = dir.resolve("run");
             Path log = dir.resolve("run.log");
             Process p = Children.zweep(log, "run", seq.toString(), "--meter", address, "--dialect", Sims.dialect(),
@@ -83,7 +83,7 @@ class StopRampsIT {
         Path seq = Sims.sequences().resolve("incoming-kp-c0805-104.yaml"); // compensation: host, open and short
         try (SimulatorServer server = Sims.tcp(Sims.benchOf(seq), FaultPlan.none())) {
             server.instrument().setTiming(TimingModel.REAL);
-            String address = "tcp://127.0.0.1:" + server.port();
+            String address = Sims.address(server);
             Path log = dir.resolve("comp.log");
             Process p = Children.zweep(log, "run", seq.toString(), "--meter", address, "--dialect", Sims.dialect(),
                     "--out", dir.resolve("comp").toString(), "--seed", "3", "--yes");

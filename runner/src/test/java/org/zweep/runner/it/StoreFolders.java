@@ -55,10 +55,9 @@ final class StoreFolders {
         }
         Instant started = Instant.parse("2026-11-02T08:00:00Z").plusSeconds(60L * minutes);
         RunManifest m = RunManifest.read(target.resolve("run.json"));
-        RunManifest copy = new RunManifest(m.format(), m.sequence(), m.part(), m.steps(), m.checks(), m.meter(),
-                m.compensation(), m.software(), m.host(), m.seed(), started.toString(),
-                started.plusSeconds(30).toString(), m.counts(), m.outcome(), verdict, RunId.next(started),
-                new RunManifest.Identity(serial, lot, "ana", station));
+        RunManifest copy = m.toBuilder().started(started.toString()).ended(started.plusSeconds(30).toString())
+                .verdict(verdict).id(RunId.next(started)).identity(new RunManifest.Identity(serial, lot, "ana", station))
+                .build();
         copy.write(target.resolve("run.json"));
     }
 

@@ -195,6 +195,7 @@ class UncertaintyCoverageIT {
         Path dialect = dialect();
         int seeds = 4;
         Tally points = new Tally();
+        List<String> implausible = new ArrayList<>();
         Tally fits = new Tally();
         Map<String, Map<Double, Impedance>> truths = new LinkedHashMap<>();
         for (Device d : DEVICES) {
@@ -208,7 +209,20 @@ class UncertaintyCoverageIT {
                     truths.put(d.name(), truth);
                 }
                 for (PointRow row : rows.values()) {
-                    assertTrue(row.okImpedance(), "a value at " + row.frequencyHz() + " Hz, status " + row.status());
+                    // a nearly lossless point (the inductor near its resonance: R about 1 ohm, u(R) about
+                    // 13 ohm) reads R < 0 about half the time and, now and then, beyond what the run takes
+                    // for noise: it is stored with its value, flagged implausible, and counted here. Measured
+                    // with this bench: 3 of 16 seeds give one such point in 75 (2 of 16 before the
+                    // simulator keyed its own noise) - common practice, no source
+                    String where = row.frequencyHz() + " Hz, status " + row.status() + " (" + d.name() + ", seed "
+                            + seed + ", level " + row.level() + ": R = " + row.rOhm() + " ohm, X = " + row.xOhm()
+                            + " ohm, u(R) = " + (row.uncertainty() == null ? "?" : row.uncertainty().of("r_ohm"))
+                            + " ohm)";
+                    assertTrue(row.okImpedance() || ("implausible".equals(row.status())
+                            && Double.isFinite(row.rOhm()) && Double.isFinite(row.xOhm())), "a value at " + where);
+                    if (!row.okImpedance()) {
+                        implausible.add(where);
+                    }
                     Impedance t = truth.get(row.frequencyHz());
                     for (String p : List.of("r_ohm", "x_ohm", "z_ohm", "theta_deg")) {
                         double tv = switch (p) {
@@ -268,6 +282,9 @@ class UncertaintyCoverageIT {
         osl.counts.keySet().forEach(p -> report.append(String.format(Locale.ROOT, " %s %.1f %% of %d;", p,
                 100 * osl.fraction(p), osl.total(p))));
         System.out.println(report);
+        // flagged points stay rare: about 0.75 expected in these runs (3 in 16 inductor runs of 75 points,
+        // 4 runs here); four or more (Poisson, under 1 %) means the noise or the rule changed
+        assertTrue(implausible.size() <= 3, implausible.toString());
         for (String p : osl.counts.keySet()) {
             assertTrue(osl.total(p) >= 1000, p + ": at least 1000 points");
             assertEquals(0.95, osl.fraction(p), 0.02, report.toString()); // as above

@@ -19,16 +19,17 @@ class RunManifestTest {
     Path dir;
 
     static RunManifest sample() {
-        return new RunManifest(RunManifest.FORMAT,
-                new RunManifest.SequenceInfo("incoming", "/x/incoming.yaml", "ab12", "sequence.yaml"),
-                new RunManifest.PartInfo("capacitor", "KP-C0805-104", 1.0e-7, "F", 10.0, null),
-                List.of(new RunManifest.StepInfo(0, "sweep", 31)),
-                List.of(new RunManifest.CheckInfo("cs", "cs_f", "sweep", 1000.0, 9.0e-8, 1.1e-7),
-                        new RunManifest.CheckInfo("srf", "srf_hz", "sweep", null, 1.0e7, null)),
-                new RunManifest.MeterInfo("sim:bench.yaml", "standard", "Zweep,SIM,0,1"),
-                new RunManifest.CompensationInfo("host", List.of("OPEN", "SHORT"), "compensation/host.csv"),
-                new RunManifest.SoftwareInfo("zweep", "0.1.0"), "bench-pc", 1234L, "2024-05-01T10:00:00Z", null,
-                new RunManifest.Counts(31, 0), "running", "none");
+        return RunManifest.builder()
+                .sequence(new RunManifest.SequenceInfo("incoming", "/x/incoming.yaml", "ab12", "sequence.yaml"))
+                .part(new RunManifest.PartInfo("capacitor", "KP-C0805-104", 1.0e-7, "F", 10.0, null))
+                .steps(List.of(new RunManifest.StepInfo(0, "sweep", 31)))
+                .checks(List.of(new RunManifest.CheckInfo("cs", "cs_f", "sweep", 1000.0, 9.0e-8, 1.1e-7),
+                        new RunManifest.CheckInfo("srf", "srf_hz", "sweep", null, 1.0e7, null)))
+                .meter(new RunManifest.MeterInfo("sim:bench.yaml", "standard", "Zweep,SIM,0,1"))
+                .compensation(new RunManifest.CompensationInfo("host", List.of("OPEN", "SHORT"), "compensation/host.csv"))
+                .software(new RunManifest.SoftwareInfo("zweep", "0.1.0")).host("bench-pc").seed(1234L)
+                .started("2024-05-01T10:00:00Z").counts(new RunManifest.Counts(31, 0)).outcome("running")
+                .verdict("none").build();
     }
 
     @Test

@@ -27,4 +27,10 @@ public record PointRequest(
         double apertureS,
         double rangeUpperOhm,
         long noiseKey) {
+
+    /** This request drawing its noise from {@code key}. */
+    public PointRequest withNoiseKey(long key) {
+        return new PointRequest(voltageRatio, frequencyHz, drive, driveLevelRms, bias, biasValue, biasOn, averages,
+                apertureS, rangeUpperOhm, key);
+    }
 }

@@ -48,6 +48,8 @@ public final class Instrument implements AutoCloseable {
     /** Points per decade of the log grid the correction standards are acquired on. */
     static final int CORRECTION_POINTS_PER_DECADE = 10;
 
+    /** The noise keys of the triggers, over all connections. */
+    private final NoiseKeys noiseKeys = new NoiseKeys();
     private final ReentrantLock lock = new ReentrantLock();
     private final Condition idle = lock.newCondition();
     private final InstrumentOptions options;
@@ -115,6 +117,14 @@ public final class Instrument implements AutoCloseable {
     public void setBench(Bench newBench) {
         abort();
         this.bench = newBench;
+    }
+
+    /**
+     * Forgets which triggers were measured before: from now on the noise is drawn as by a meter
+     * just started ({@code SIMulate:SEED} does this, so that a seed set again repeats its readings).
+     */
+    void restartNoise() {
+        noiseKeys.restart();
     }
 
     /** The timing model in use. */
@@ -292,9 +302,10 @@ public final class Instrument implements AutoCloseable {
                 throw new ScpiException(StandardError.SETTINGS_CONFLICT, "a measurement is in progress");
             }
             double[] grid = MeterCorrection.frequencies(bench.limits(), CORRECTION_POINTS_PER_DECADE);
-            long key = session.takeNoiseKeys(grid.length);
             PointRequest template = request(settings, false, grid[0], levelOf(settings), settings.biasVoltageV,
-                    Double.NaN, key);
+                    Double.NaN, 0);
+            template = template.withNoiseKey(noiseKeys.draw(List.of(template), bench.slot(), bench.wiring(),
+                    standard.ordinal()));
             status.setOperation(StatusModel.OPER_CALIBRATING, true);
             start(new Job(++generation, List.of(template), standard, grid, null));
         } finally {
@@ -405,15 +416,17 @@ public final class Instrument implements AutoCloseable {
                     || (biasListed && !lengthFits(s.listBiasVoltageV.length, n))) {
                 throw new ScpiException(StandardError.LISTS_NOT_SAME_LENGTH, "LIST:FREQuency has " + n + " points");
             }
-            long key = session.takeNoiseKeys(n);
             for (int i = 0; i < n; i++) {
                 double level = levelListed ? pick(s.listVoltageVrms, i) : levelOf(s);
                 double bias = biasListed ? pick(s.listBiasVoltageV, i) : s.biasVoltageV;
-                points.add(request(s, s.voltageRatio, s.listFrequencyHz[i], level, bias, heldRange(s), key + i));
+                points.add(request(s, s.voltageRatio, s.listFrequencyHz[i], level, bias, heldRange(s), 0));
             }
         } else {
-            long key = session.takeNoiseKeys(1);
-            points.add(request(s, s.voltageRatio, s.frequencyHz, levelOf(s), s.biasVoltageV, heldRange(s), key));
+            points.add(request(s, s.voltageRatio, s.frequencyHz, levelOf(s), s.biasVoltageV, heldRange(s), 0));
+        }
+        long key = noiseKeys.draw(points, bench.slot(), bench.wiring(), -1);
+        for (int i = 0; i < points.size(); i++) {
+            points.set(i, points.get(i).withNoiseKey(key + i));
         }
         MeterCorrection corr = null;
         if (s.correctionOn && !s.voltageRatio) {

@@ -6,8 +6,8 @@ import java.util.List;
 
 /**
  * One connection's view of the {@link Instrument}: its own parser state (the header path of
- * IEEE 488.2 Appendix A / SCPI-1999 Vol 1 §6.2.4, applied to headers as typed), its own noise-key
- * counter and query rules; the settings, status and error queue are the instrument's and shared.
+ * IEEE 488.2 Appendix A / SCPI-1999 Vol 1 §6.2.4, applied to headers as typed) and query rules;
+ * the settings, status, error queue and noise keys are the instrument's and shared.
  *
  * <p>Not thread-safe: one connection thread calls {@link #execute} at a time.
  */
@@ -39,8 +39,6 @@ public final class Session {
     private final Hooks hooks;
     private final List<Object> attachments = new ArrayList<>(1);
     private boolean strict;
-    private long pointCounter;
-    private Long explicitNoiseKey;
     private boolean firstUnit;
     private List<Response> replies;
 
@@ -175,32 +173,6 @@ public final class Session {
         if (firstUnit) {
             hooks.clearOutput();
         }
-    }
-
-    /** Sets the noise key of the next measured point (list points use key+i). */
-    void setNoiseKey(long key) {
-        explicitNoiseKey = key;
-    }
-
-    /** The noise key the next point will use. */
-    long nextNoiseKey() {
-        return explicitNoiseKey != null ? explicitNoiseKey : pointCounter;
-    }
-
-    /**
-     * Takes {@code n} consecutive noise keys: from an explicit {@code SIMulate:NOISe:KEY} (used
-     * once), otherwise from this connection's point counter.
-     */
-    long takeNoiseKeys(int n) {
-        long base;
-        if (explicitNoiseKey != null) {
-            base = explicitNoiseKey;
-            explicitNoiseKey = null;
-        } else {
-            base = pointCounter;
-        }
-        pointCounter += n;
-        return base;
     }
 
     private static List<Mnemonic> concat(List<Mnemonic> a, List<Mnemonic> b) {

@@ -7,11 +7,11 @@ import org.zweep.simulator.bench.Wiring;
 
 /**
  * The simulator-only {@code SIMulate} subsystem (our own, in SCPI-1999 style): what is in the
- * fixture, the transformer's second winding, the seed and noise key, the timing model, the applied DC bias over time, loading a
+ * fixture, the transformer's second winding, the seed, the timing model, the applied DC bias over time, loading a
  * device or bench, and the strict IEEE 488.2 query rules. The server adds {@code SIMulate:FAULt}.
  */
 final class SimulateCommands {
-    /** Seeds and keys travel as NRf, so they are exact up to 2^53. */
+    /** Seeds travel as NRf, so they are exact up to 2^53. */
     private static final long MAX_EXACT = 1L << 53;
 
     private SimulateCommands() {
@@ -46,20 +46,12 @@ final class SimulateCommands {
         b.on("SIMulate:SEED", c -> {
             c.count(1, 1);
             in.bench().setSeed(c.integer(0, -MAX_EXACT, MAX_EXACT, 0));
+            in.restartNoise();
             return null;
         });
         b.on("SIMulate:SEED?", c -> {
             c.count(0, 0);
             return Response.text(Long.toString(in.bench().seed()));
-        });
-        b.on("SIMulate:NOISe:KEY", c -> {
-            c.count(1, 1);
-            c.session().setNoiseKey(c.integer(0, -MAX_EXACT, MAX_EXACT, 0));
-            return null;
-        });
-        b.on("SIMulate:NOISe:KEY?", c -> {
-            c.count(0, 0);
-            return Response.text(Long.toString(c.session().nextNoiseKey()));
         });
         b.on("SIMulate:TIMing", c -> {
             c.count(1, 1);

@@ -23,7 +23,7 @@ import org.zweep.simulator.scpi.Instrument;
  *
  * <p>State model: one {@link Instrument} (settings, measurement data, status registers, error
  * queue) is shared by every connection, as on a real meter with several remote clients; each
- * connection has its own parser and header path, output queue, noise-key counter, strictness
+ * connection has its own parser and header path, output queue, strictness
  * and faults. Each connection is served by its own reader and writer threads, so a slow, silent
  * or non-reading client never blocks another. TCP connections are capped
  * ({@link ServerOptions#maxConnections()}): one more is told why in one line and closed.

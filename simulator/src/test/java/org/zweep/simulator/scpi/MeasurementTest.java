@@ -233,12 +233,14 @@ class MeasurementTest {
     }
 
     @Test
-    void noiseKeysCountPointsPerConnectionUnlessOneIsSet() {
+    void aListSweepsPointsDrawFromConsecutiveKeysAndARepeatedTriggerFromTheSame() {
         c.send("SIM:TIM NONE;:READ?;READ?");
-        c.send("SIM:NOIS:KEY 42;:SOUR:LIST:FREQ 100,200,300;:SOUR:FREQ:MODE LIST;:READ?");
-        c.send("READ?");
-        assertEquals(List.of(0L, 1L, 42L, 43L, 44L, 5L, 6L, 7L),
-                bench.requests().stream().map(PointRequest::noiseKey).toList());
+        c.send(":SOUR:LIST:FREQ 100,200,300;:SOUR:FREQ:MODE LIST;:READ?");
+        List<Long> keys = bench.requests().stream().map(PointRequest::noiseKey).toList();
+        assertEquals(keys.get(0), keys.get(1)); // the same trigger right after itself
+        assertEquals(keys.get(2) + 1, keys.get(3));
+        assertEquals(keys.get(2) + 2, keys.get(4));
+        assertTrue(!keys.get(0).equals(keys.get(2)));
     }
 
     @Test

@@ -150,28 +150,41 @@ class SimulateCommandsTest {
     }
 
     @Test
-    void anExplicitNoiseKeyIsUsedOnceThenTheCounterGoesOn() {
-        assertEquals("0", send("SIM:NOIS:KEY?"));
-        send("READ?");
-        assertEquals("1", send("SIM:NOIS:KEY?"));
-        send("SIM:NOIS:KEY 99");
-        assertEquals("99", send("SIM:NOIS:KEY?"));
-        send("READ?");
-        assertEquals("2", send("SIM:NOIS:KEY?"));
-    }
-
-    @Test
-    void theSameSeedAndNoiseKeyGiveTheSameNoisyReadingOnAnyConnection() {
+    void theSameTriggerGivesTheSameNoisyReadingOnAnyConnectionAndAnotherTriggerOtherNoise() {
         SimulatedBench noisy = new SimulatedBench(BenchSpec.ofNetlist("R1 hi lo 100", "test").withTiming(Timing.NONE));
         try (Instrument n = new Instrument(noisy, InstrumentOptions.defaults().withTiming(TimingModel.NONE))) {
             Session a = n.openSession(Session.Hooks.NONE);
             Session b = n.openSession(Session.Hooks.NONE);
-            byte[] first = a.execute("SIM:NOIS:KEY 5;:READ?".getBytes(StandardCharsets.US_ASCII));
-            byte[] again = b.execute("SIM:NOIS:KEY 5;:READ?".getBytes(StandardCharsets.US_ASCII));
-            byte[] other = b.execute("SIM:NOIS:KEY 6;:READ?".getBytes(StandardCharsets.US_ASCII));
-            assertEquals(new String(first, StandardCharsets.US_ASCII), new String(again, StandardCharsets.US_ASCII));
-            assertTrue(!Arrays.equals(first, other), "another key draws other noise");
+            // a reading lost on the way is measured again, maybe on a new connection: the same noise
+            String first = text(a.execute(":SOUR:FREQ 1000;:READ?".getBytes(StandardCharsets.US_ASCII)));
+            String again = text(b.execute(":SOUR:FREQ 1000;:READ?".getBytes(StandardCharsets.US_ASCII)));
+            assertEquals(first, again);
+            // another setting, then the first again: a new measurement, new noise
+            String other = text(b.execute(":SOUR:FREQ 2000;:READ?".getBytes(StandardCharsets.US_ASCII)));
+            String second = text(a.execute(":SOUR:FREQ 1000;:READ?".getBytes(StandardCharsets.US_ASCII)));
+            assertTrue(!first.equals(second), first + " / " + second);
+            assertTrue(!first.equals(other), "another setting draws other noise");
+            // what the fixture holds is part of the trigger
+            a.execute(":SIM:FIXT OPEN".getBytes(StandardCharsets.US_ASCII));
+            String open = text(a.execute(":SOUR:FREQ 2000;:READ?".getBytes(StandardCharsets.US_ASCII)));
+            assertTrue(!open.equals(other), open);
         }
+        // a fresh meter with the same seed gives the same readings for the same triggers
+        try (Instrument n = new Instrument(new SimulatedBench(BenchSpec.ofNetlist("R1 hi lo 100", "test")
+                        .withTiming(Timing.NONE)), InstrumentOptions.defaults().withTiming(TimingModel.NONE));
+                Instrument m = new Instrument(new SimulatedBench(BenchSpec.ofNetlist("R1 hi lo 100", "test")
+                        .withTiming(Timing.NONE)), InstrumentOptions.defaults().withTiming(TimingModel.NONE))) {
+            Session a = n.openSession(Session.Hooks.NONE);
+            Session b = m.openSession(Session.Hooks.NONE);
+            for (String cmd : new String[] {":SOUR:FREQ 1000;:READ?", ":SOUR:FREQ 2000;:READ?", ":SOUR:FREQ 1000;:READ?"}) {
+                assertEquals(text(a.execute(cmd.getBytes(StandardCharsets.US_ASCII))),
+                        text(b.execute(cmd.getBytes(StandardCharsets.US_ASCII))), cmd);
+            }
+        }
+    }
+
+    private static String text(byte[] b) {
+        return new String(b, StandardCharsets.US_ASCII);
     }
 
     @Test

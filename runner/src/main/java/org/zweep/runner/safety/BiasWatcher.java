@@ -1,9 +1,9 @@
-package org.zweep.runner.engine;
+package org.zweep.runner.safety;
 
 import org.zweep.driver.meter.MeasurementSetting;
 
 /**
- * Hears of every DC bias change a {@link Station} makes, before the command is sent: the guard
+ * Hears of every DC bias change the run makes, before the command is sent: the guard
  * process keeps the last one so that it can ramp the bias down if the run's process dies.
  * Called from the run's thread and, for {@link #off()}, from a shutdown hook; implementations
  * must be thread-safe and must not throw.

@@ -1,4 +1,4 @@
-package org.zweep.runner.engine;
+package org.zweep.runner.safety;
 
 import java.util.concurrent.CountDownLatch;
 import java.util.concurrent.TimeUnit;
