@@ -253,8 +253,8 @@ class UncertaintyCoverageIT {
         }
         // open/short/load with a load standard stated as 100 Ω, U = 0.6 Ω (k = 2): each run's bench holds a
         // load whose true value is drawn from that statement, so the load's error is common to every point of
-        // the run. Measured 2026-12-03: with the load's u, X 94.3 % and |Z| 94.5 % of 1500 points; with the
-        // same runs but the load stated as exact, 85.7 % and 86.0 %, which this test refuses
+        // the run. Measured 2026-12-03: with the load's u, X 94.6 % and |Z| 95.0 % of 1500 points; with the
+        // same runs but the load stated as exact, 85.5 % and 85.9 %, which this test refuses
         Tally osl = new Tally();
         Device cap = DEVICES.get(0);
         Map<Double, Impedance> capTruth = truths.get(cap.name());
