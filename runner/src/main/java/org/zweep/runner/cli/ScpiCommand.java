@@ -104,7 +104,9 @@ final class ScpiCommand implements Callable<Integer> {
             throw e;
         } catch (MeterException e) {
             String problem = e instanceof org.zweep.driver.transport.MeterTimeoutException
-                    ? "no reply to '" + message + "' within " + client.settings().readTimeout().toMillis() + " ms"
+                    ? "no reply to '" + message + "' within "
+                            + org.zweep.runner.text.Figures.format(client.settings().readTimeout().toMillis() / 1000.0,
+                                    org.zweep.driver.impedance.Unit.SECOND)
                     : e.getMessage();
             String queue;
             try {

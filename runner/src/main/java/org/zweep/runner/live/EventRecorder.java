@@ -4,6 +4,8 @@ import org.zweep.driver.impedance.DerivedParameter;
 import org.zweep.driver.impedance.Impedance;
 import org.zweep.runner.engine.ProgressListener;
 import org.zweep.runner.results.PointRow;
+import org.zweep.runner.text.Figures;
+import org.zweep.driver.impedance.Unit;
 
 /**
  * A {@link ProgressListener} that records the run in {@link EventLog} ({@code run_started},
@@ -78,6 +80,16 @@ public final class EventRecorder implements ProgressListener {
             }
             if (Double.isFinite(row.ratio())) {
                 n.put("ratio", row.ratio());
+            }
+            n.put("setting_text", Figures.format(row.frequencyHz(), Unit.HERTZ) + ", "
+                    + Figures.format(row.level(), Figures.unit(row.drive())) + " rms, bias "
+                    + Figures.format(row.bias(), Figures.unit(row.biasMode())));
+            if (z != null) {
+                n.put("values_text", "|Z| " + Figures.format(row.value("z_ohm"), Unit.OHM) + ", θ "
+                        + Figures.format(row.value("theta_deg"), Unit.DEGREE) + ", " + main.label() + " "
+                        + Figures.format(row.value(main.key()), main.unit()));
+            } else if (Double.isFinite(row.ratio())) {
+                n.put("values_text", "V2/V1 " + Figures.number(row.ratio(), 5));
             }
             n.put("done", done);
             n.put("total", total);
