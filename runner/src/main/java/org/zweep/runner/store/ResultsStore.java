@@ -123,15 +123,16 @@ public final class ResultsStore implements AutoCloseable {
     public Indexed index(Path dir) {
         Path folder = dir.toAbsolutePath().normalize();
         RunData run = RunData.read(folder);
-        List<PointRow> rows = new ArrayList<>();
-        run.forEachRow(rows::add); // read before the transaction: the write lock is held only for writing
-        AnalysisResult analysis = rows.isEmpty() ? null : analyse(run);
+        // the analysis is made before the transaction (the write lock is held only for writing); the
+        // points are streamed from the folder into the batch, never all held: a run of a million
+        // points is indexed in the heap a run of a thousand needs
+        AnalysisResult analysis = hasPoints(folder) ? analyse(run) : null;
         String runId = idOf(run.manifest());
         SQLException last = null;
         for (int attempt = 1; attempt <= ATTEMPTS; attempt++) {
             try {
                 connection.setAutoCommit(false);
-                Indexed done = write(runId, folder, run, rows, analysis);
+                Indexed done = write(runId, folder, run, analysis);
                 connection.commit();
                 connection.setAutoCommit(true);
                 return done;
@@ -159,6 +160,28 @@ public final class ResultsStore implements AutoCloseable {
         return UUID.nameUUIDFromBytes(key.getBytes(StandardCharsets.UTF_8)).toString();
     }
 
+    /** Whether the folder's points.csv holds a line after its header (read no further than that). */
+    private static boolean hasPoints(Path folder) {
+        try (java.io.InputStream in = new java.io.BufferedInputStream(java.nio.file.Files.newInputStream(
+                folder.resolve(org.zweep.runner.results.RunFolder.POINTS)))) {
+            int lines = 0;
+            int b;
+            boolean content = false;
+            while ((b = in.read()) >= 0) {
+                if (b == '\n') {
+                    if (++lines == 2) {
+                        return true;
+                    }
+                } else if (lines == 1) {
+                    content = true;
+                }
+            }
+            return content;
+        } catch (java.io.IOException e) {
+            return false;
+        }
+    }
+
     /** The analysis of the run (check values, fits), or null when it cannot be made (no points yet). */
     private static AnalysisResult analyse(RunData run) {
         try {
@@ -168,7 +191,7 @@ public final class ResultsStore implements AutoCloseable {
         }
     }
 
-    private Indexed write(String runId, Path folder, RunData run, List<PointRow> rows, AnalysisResult analysis)
+    private Indexed write(String runId, Path folder, RunData run, AnalysisResult analysis)
             throws SQLException {
         RunManifest m = run.manifest();
         RunManifest.Identity id = m.identityOrNone();
@@ -259,45 +282,67 @@ public final class ResultsStore implements AutoCloseable {
                 s.executeBatch();
             }
         }
-        int points = writePoints(runId, rows);
+        int points = writePoints(runId, run);
         int checks = writeChecks(runId, m, analysis);
         int fits = writeFits(runId, analysis);
         return new Indexed(runId, folder, points, checks, fits);
     }
 
-    private int writePoints(String runId, List<PointRow> rows) throws SQLException {
+    private int writePoints(String runId, RunData run) throws SQLException {
         try (PreparedStatement s = connection.prepareStatement("INSERT INTO points (run_id, point_no, step, step_index,"
                 + " repeat_no, quantity, wiring, frequency_hz, drive, drive_level, bias_mode, bias, r_ohm, x_ohm, ratio,"
                 + " status, point_check, measured_at) VALUES (?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?)")) {
-            int n = 0;
-            for (PointRow r : rows) {
-                int i = 1;
-                s.setString(i++, runId);
-                s.setInt(i++, r.point());
-                s.setString(i++, r.step());
-                s.setInt(i++, r.key().stepIndex());
-                s.setInt(i++, r.repeat());
-                s.setString(i++, r.quantity());
-                s.setString(i++, r.wiring());
-                number(s, i++, r.frequencyHz());
-                s.setString(i++, r.drive());
-                number(s, i++, r.level());
-                s.setString(i++, r.biasMode());
-                number(s, i++, r.bias());
-                number(s, i++, r.rOhm());
-                number(s, i++, r.xOhm());
-                number(s, i++, r.ratio());
-                s.setString(i++, r.status());
-                s.setString(i++, r.check().isEmpty() ? null : r.check());
-                s.setString(i++, r.time().toString());
-                s.addBatch();
-                if (++n % 1000 == 0) {
-                    s.executeBatch();
-                }
+            int[] n = {0};
+            try {
+                run.forEachRow(r -> {
+                    try {
+                        addPoint(s, runId, r);
+                        if (++n[0] % 1000 == 0) {
+                            s.executeBatch();
+                        }
+                    } catch (SQLException e) {
+                        throw new PointWriteFailure(e);
+                    }
+                });
+            } catch (PointWriteFailure e) {
+                throw e.sql;
             }
             s.executeBatch();
-            return n;
+            return n[0];
         }
+    }
+
+    /** An SQL failure carried out of the row callback. */
+    private static final class PointWriteFailure extends RuntimeException {
+        final SQLException sql;
+
+        PointWriteFailure(SQLException sql) {
+            super(sql);
+            this.sql = sql;
+        }
+    }
+
+    private static void addPoint(PreparedStatement s, String runId, PointRow r) throws SQLException {
+        int i = 1;
+        s.setString(i++, runId);
+        s.setInt(i++, r.point());
+        s.setString(i++, r.step());
+        s.setInt(i++, r.key().stepIndex());
+        s.setInt(i++, r.repeat());
+        s.setString(i++, r.quantity());
+        s.setString(i++, r.wiring());
+        number(s, i++, r.frequencyHz());
+        s.setString(i++, r.drive());
+        number(s, i++, r.level());
+        s.setString(i++, r.biasMode());
+        number(s, i++, r.bias());
+        number(s, i++, r.rOhm());
+        number(s, i++, r.xOhm());
+        number(s, i++, r.ratio());
+        s.setString(i++, r.status());
+        s.setString(i++, r.check().isEmpty() ? null : r.check());
+        s.setString(i++, r.time().toString());
+        s.addBatch();
     }
 
     private int writeChecks(String runId, RunManifest m, AnalysisResult analysis) throws SQLException {
