@@ -34,23 +34,9 @@ public class SimulatorInputException extends RuntimeException {
 
     /**
      * {@code text} with line ends and other control characters written as escapes ({@code \n},
-     * {@code \u0000}), for quoting input in a one-line message.
+     * {@code \u0000}), for quoting input in a one-line message (the config toolkit's rule).
      */
     public static String oneLine(String text) {
-        StringBuilder b = new StringBuilder(text.length());
-        text.codePoints().forEach(c -> {
-            if (c == '\n') {
-                b.append("\\n");
-            } else if (c == '\r') {
-                b.append("\\r");
-            } else if (c == '\t') {
-                b.append("\\t");
-            } else if (c < 0x20 || c == 0x7F || (c >= 0x80 && c < 0xA0) || c == 0x2028 || c == 0x2029) {
-                b.append(String.format("\\u%04x", c));
-            } else {
-                b.appendCodePoint(c);
-            }
-        });
-        return b.toString();
+        return org.zweep.config.BoundedYaml.oneLine(text);
     }
 }
