@@ -64,6 +64,8 @@ public final class DialectMeter implements Meter {
     private boolean resync;
     private boolean closed;
     private boolean biasConfirmedOff;
+    /** Settings to send in front of the next measuring query, in its message ("" for none). */
+    private String prefix = "";
 
     /** A meter speaking {@code dialect} over {@code session}, timestamping readings with the system clock. */
     public DialectMeter(ScpiSession session, Dialect dialect) {
@@ -193,6 +195,42 @@ public final class DialectMeter implements Meter {
         double[] values = measured(Command.MEASURE, 1, dialect.timing().pointS(current, lastMeasured), what);
         lastMeasured = current;
         return reading(current, values, 0, clock.instant());
+    }
+
+    /**
+     * Where the dialect joins commands in one message, ends it with the error query and reads
+     * ASCII: the settings that changed, the trigger (and {@code measure-again}) and the error
+     * query in one message, one round trip. Otherwise as {@link #apply} then {@link #measure}.
+     */
+    @Override
+    public Reading measureAt(MeasurementSetting setting) {
+        requireOpen();
+        Dialect.Messages m = dialect.messages();
+        if (resync || !m.join() || !m.errorQueryJoined() || !m.errorCheck().afterMeasurement()
+                || dialect.reply().encoding() != ReplyShape.Encoding.ASCII) {
+            apply(setting);
+            return measure();
+        }
+        validate(setting);
+        SettingMessages.Pending pending = planner.plan(setting, List.of());
+        String what = "measuring at " + describe(setting);
+        double[] values;
+        try {
+            prefix = String.join(";", pending.units());
+            values = measured(Command.MEASURE, 1, dialect.timing().pointS(setting, lastMeasured), what);
+        } catch (RuntimeException e) {
+            // whether the meter took the setting is unknown: the next operation sends it again
+            planner.forget();
+            current = setting;
+            resync = true;
+            throw e;
+        } finally {
+            prefix = "";
+        }
+        planner.sent(pending);
+        current = setting;
+        lastMeasured = setting;
+        return reading(setting, values, 0, clock.instant());
     }
 
     @Override
@@ -563,6 +601,10 @@ public final class DialectMeter implements Meter {
 
     private double[][] readValuesTimed(Command command, int points, Duration work, String what, boolean twice) {
         String query = twice ? render(command) + ";" + render(Command.MEASURE_AGAIN) : render(command);
+        if (!prefix.isEmpty()) {
+            query = prefix + ";" + query;
+            prefix = "";
+        }
         ReplyShape shape = dialect.reply();
         int expected = points * shape.fields().size();
         double[][] results;

@@ -47,7 +47,8 @@ import org.zweep.driver.meter.ReadingStatus;
  * fixture takes a state ({@code part open short load secondary-open secondary-shorted}).
  * apply takes {@code frequency= voltage= current= bias-voltage= bias-current= bias=off averaging=
  * aperture= range=auto|OHMS quantity=impedance|ratio}, each changing the previous setting
- * (initially 1 kHz, 1 V, no bias, 1 average, 20 ms, auto range); measure-list takes
+ * (initially 1 kHz, 1 V, no bias, 1 average, 20 ms, auto range), as does measure-at (apply and
+ * measure in one); measure-list takes
  * {@code frequencies=F1,F2,...} at the previous setting.
  */
 class DialectConversationTest {
@@ -121,7 +122,7 @@ class DialectConversationTest {
             Object result = null;
             RuntimeException thrown = null;
             try {
-                if (call.operation.equals("apply")) {
+                if (call.operation.equals("apply") || call.operation.equals("measure-at")) {
                     setting = changed(setting, call.args);
                 }
                 result = run(meter, call, setting);
@@ -160,6 +161,8 @@ class DialectConversationTest {
                 return null;
             case "measure":
                 return meter.measure();
+            case "measure-at":
+                return meter.measureAt(setting);
             case "measure-list":
                 String freqs = call.args.get(0).substring("frequencies=".length());
                 return meter.measureList(Arrays.stream(freqs.split(","))

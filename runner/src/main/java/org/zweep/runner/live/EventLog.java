@@ -63,7 +63,10 @@ public final class EventLog implements AutoCloseable {
         n.put("time_ms", clock.millis());
         fields.accept(n);
         try {
-            out.write((JSON.writeValueAsString(n) + "\n").getBytes(StandardCharsets.UTF_8));
+            byte[] json = JSON.writeValueAsBytes(n);
+            byte[] line = java.util.Arrays.copyOf(json, json.length + 1);
+            line[json.length] = '\n';
+            out.write(line);
             out.flush();
         } catch (IOException e) {
             broken = true;
