@@ -40,6 +40,7 @@ import org.zweep.driver.meter.ReadingStatus;
  * &lt; REPLY                     ...its reply (a query); no reply line means a plain write; several
  *                             reply lines: one line per query (a meter that frames replies so)
  * &lt;# HEX                      ...its reply as an arbitrary block's payload bytes
+ * &lt;#; HEX ; HEX ; TEXT        ...its reply as blocks then a text unit, on one line (the last is the text)
  * ! TEXT                      ...the link fails instead (MeterException with TEXT)
  * = RESULT                    the call's result: "R X [±TOL]" or "no-value" per reading,
  *                             "true"/"false", the identity, or "error Class: message"
@@ -84,7 +85,10 @@ class DialectConversationTest {
             } else if (line.startsWith("> ")) {
                 String message = line.substring(2);
                 String following = i + 1 < lines.size() ? lines.get(i + 1) : "";
-                if (following.startsWith("<# ")) {
+                if (following.startsWith("<#; ")) {
+                    session.expectBlocksQuery(n, message, following.substring(4));
+                    i++;
+                } else if (following.startsWith("<# ")) {
                     session.expectBlockQuery(n, message, following.substring(3));
                     i++;
                 } else if (following.startsWith("< ")) {
