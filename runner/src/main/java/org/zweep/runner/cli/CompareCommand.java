@@ -1,7 +1,5 @@
 package org.zweep.runner.cli;
 
-import com.fasterxml.jackson.databind.node.ArrayNode;
-import com.fasterxml.jackson.databind.node.ObjectNode;
 import java.io.IOException;
 import java.io.PrintWriter;
 import java.io.UncheckedIOException;
@@ -19,8 +17,10 @@ import org.zweep.runner.analysis.StepResult;
 import org.zweep.runner.analysis.Sweep;
 import org.zweep.runner.compare.Comparison;
 import org.zweep.runner.plot.Charts;
+import org.zweep.runner.results.Json;
 import org.zweep.runner.plot.Plots;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
@@ -39,8 +39,8 @@ public final class CompareCommand implements Callable<Integer> {
     @Parameters(arity = "2..*", paramLabel = "RUN", description = "run folders; the first is the reference")
     List<Path> folders;
 
-    @Option(names = "--json", description = "the comparison as JSON")
-    boolean json;
+    @Mixin
+    JsonOption json;
 
     @Option(names = "--plots", paramLabel = "DIR", description = "write overlaid plots (PNG and SVG) into DIR")
     Path plots;
@@ -50,36 +50,21 @@ public final class CompareCommand implements Callable<Integer> {
         Comparison c = Comparison.of(folders);
         List<Path> written = plots == null ? List.of() : plot(c, plots);
         PrintWriter out = spec.commandLine().getOut();
-        if (json) {
-            ObjectNode root = RunsCommand.JSON.createObjectNode();
-            ArrayNode runs = root.putArray("runs");
-            for (Comparison.Run r : c.runs()) {
-                ObjectNode n = runs.addObject();
-                n.put("folder", r.folder().toString());
-                n.put("label", r.label());
-                n.put("run_id", r.manifest().id());
-                n.put("serial", r.manifest().identityOrNone().serial());
-                n.put("lot", r.manifest().identityOrNone().lot());
-                n.put("verdict", r.manifest().verdict());
-            }
-            ArrayNode rows = root.putArray("rows");
+        if (json.on()) {
+            List<RunJson> runs = c.runs().stream().map(r -> new RunJson(r.folder().toString(), r.label(),
+                    r.manifest().id(), r.manifest().identityOrNone().serial(), r.manifest().identityOrNone().lot(),
+                    r.manifest().verdict())).toList();
+            List<RowJson> rows = new ArrayList<>();
             for (Comparison.Row row : c.rows()) {
-                ObjectNode n = rows.addObject();
-                n.put("kind", row.kind());
-                n.put("name", row.name());
-                n.put("parameter", row.parameter());
-                ArrayNode v = n.putArray("values");
-                ArrayNode d = n.putArray("differences");
-                ArrayNode rel = n.putArray("relative");
+                List<Double> d = new ArrayList<>();
+                List<Double> rel = new ArrayList<>();
                 for (int i = 0; i < row.values().size(); i++) {
-                    add(v, row.values().get(i));
-                    add(d, row.difference(i));
-                    add(rel, row.relative(i));
+                    d.add(row.difference(i));
+                    rel.add(row.relative(i));
                 }
+                rows.add(new RowJson(row.kind(), row.name(), row.parameter(), row.values(), d, rel));
             }
-            ArrayNode p = root.putArray("plots");
-            written.forEach(f -> p.add(f.toString()));
-            out.println(RunsCommand.JSON.writeValueAsString(root));
+            out.print(Json.text(new CompareJson(runs, rows, written.stream().map(Path::toString).toList())));
             return ExitCode.OK;
         }
         for (int i = 0; i < c.runs().size(); i++) {
@@ -155,12 +140,17 @@ public final class CompareCommand implements Callable<Integer> {
         return written;
     }
 
-    private static void add(ArrayNode a, double v) {
-        if (Double.isFinite(v)) {
-            a.add(v);
-        } else {
-            a.addNull();
-        }
+    /** {@code zweep compare --json}: the runs, one row per compared quantity, the plots written. */
+    record CompareJson(List<RunJson> runs, List<RowJson> rows, List<String> plots) {
+    }
+
+    /** One compared run. */
+    record RunJson(String folder, String label, String runId, String serial, String lot, String verdict) {
+    }
+
+    /** One quantity: its value in each run, and each run's difference and relative change from the first. */
+    record RowJson(String kind, String name, String parameter, List<Double> values, List<Double> differences,
+            List<Double> relative) {
     }
 
     private static String clip(String s, int n) {
