@@ -30,7 +30,7 @@ import org.zweep.runner.plan.BiasControl;
 import org.zweep.runner.conformance.DecisionRule;
 import org.zweep.runner.plan.CheckLimit;
 import org.zweep.runner.plan.CompensationMode;
-import org.zweep.runner.plan.Connection;
+import org.zweep.runner.plan.TerminalConfiguration;
 import org.zweep.runner.plan.FixturePlan;
 import org.zweep.runner.plan.MeterSpec;
 import org.zweep.runner.plan.Part;
@@ -138,7 +138,7 @@ final class SequenceReader {
         MeterSpec meter = meter(top.required("meter"));
         SafetyLimits safety = safety(top.required("safety"));
         FixturePlan fixture = top.optional("fixture").map(this::fixture)
-                .orElse(new FixturePlan(Connection.TWO_TERMINAL, CompensationMode.NONE, List.of(), null,
+                .orElse(new FixturePlan(TerminalConfiguration.TWO_TERMINAL, CompensationMode.NONE, List.of(), null,
                         Duration.ZERO, null));
         Part part = part(top.required("part"));
         List<StepSpec> specs = steps(top.required("steps"), part, safety);
@@ -274,9 +274,9 @@ final class SequenceReader {
     private FixturePlan fixture(YamlNode node) {
         YamlNode.YamlMap m = node.map("fixture", FIXTURE_KEYS);
         YamlNode t = m.required("terminals");
-        Connection connection = switch (word(t, "terminals", List.of("2", "4"))) {
-            case "2" -> Connection.TWO_TERMINAL;
-            default -> Connection.FOUR_TERMINAL;
+        TerminalConfiguration terminals = switch (word(t, "terminals", List.of("2", "4"))) {
+            case "2" -> TerminalConfiguration.TWO_TERMINAL;
+            default -> TerminalConfiguration.FOUR_TERMINAL;
         };
         CompensationMode mode = m.optional("compensation")
                 .map(c -> CompensationMode.valueOf(
@@ -333,7 +333,7 @@ final class SequenceReader {
             }
             store = source.toAbsolutePath().getParent().resolve(st.text("a folder")).normalize();
         }
-        return new FixturePlan(connection, mode, standards, load == null ? null : load.value(), reuse, store, load);
+        return new FixturePlan(terminals, mode, standards, load == null ? null : load.value(), reuse, store, load);
     }
 
     /**
