@@ -31,7 +31,7 @@ import org.zweep.runner.engine.Waiter;
 import org.zweep.runner.plan.BiasControl;
 import org.zweep.runner.plan.CheckLimit;
 import org.zweep.runner.plan.CompensationMode;
-import org.zweep.runner.plan.Connection;
+import org.zweep.runner.plan.TerminalConfiguration;
 import org.zweep.runner.plan.FixturePlan;
 import org.zweep.runner.plan.MeterSpec;
 import org.zweep.runner.plan.Part;
@@ -74,7 +74,7 @@ public class RunnerOverheadBenchmark {
         }
         plan = new Plan("overhead", Path.of("overhead.yaml"), new MeterSpec("instant:", "standard"),
                 new SafetyLimits(10, 1, 2, 0.1),
-                new FixturePlan(Connection.FOUR_TERMINAL, CompensationMode.NONE, List.of(), null, Duration.ZERO, null),
+                new FixturePlan(TerminalConfiguration.FOUR_TERMINAL, CompensationMode.NONE, List.of(), null, Duration.ZERO, null),
                 new Part(PartKind.CAPACITOR, "", 100e-9, 10, Double.NaN),
                 List.of(new PlannedStep(0, "sweep", "", BiasControl.NONE, pts)),
                 List.of(new CheckLimit("cs", "cs_f", "sweep", 100.0, 90e-9, 110e-9)));

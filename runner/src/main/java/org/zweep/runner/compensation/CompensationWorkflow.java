@@ -196,7 +196,7 @@ public final class CompensationWorkflow {
         }
         MeasurementSetting first = settings.values().iterator().next();
         CompensationData.Info info = new CompensationData.Info(CompensationData.FORMAT, clock.instant().toString(),
-                station.identity().toString(), fx.connection().name(), fx.standards().stream().map(Enum::name).toList(),
+                station.identity().toString(), fx.terminals().name(), fx.standards().stream().map(Enum::name).toList(),
                 fx.loadStandard() == null ? null : fx.loadStandard().resistanceOhm(),
                 fx.loadStandard() == null ? null : fx.loadStandard().reactanceOhm(), first.drive().mode().unit(),
                 first.drive().levelRms(), first.averagingCount(), first.integrationTimeS());
@@ -271,7 +271,7 @@ public final class CompensationWorkflow {
             return !e.isEmpty() && e.get(0).frequencyHz() <= lo * (1 + 1e-9)
                     && e.get(e.size() - 1).frequencyHz() >= hi * (1 - 1e-9);
         });
-        return i.meter().equals(station.identity().toString()) && i.connection().equals(fx.connection().name())
+        return i.meter().equals(station.identity().toString()) && i.connection().equals(fx.terminals().name())
                 && i.standards().equals(fx.standards().stream().map(Enum::name).toList()) && sameLoad && covers;
     }
 

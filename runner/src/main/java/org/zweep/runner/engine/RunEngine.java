@@ -79,7 +79,7 @@ public final class RunEngine {
      *
      * @param done the indices of points already on disk; updated as points are written
      * @param sink receives each new row (with its check outcome); rows of one trigger (a point, or
-     *     a whole list sweep) are made durable together, with the last of them
+     *     a whole list sweep) are made durable together, with the last of them (see {@link RowSink})
      * @return how the run ended
      */
     public RunResult run(BitSet done, RowSink sink) {

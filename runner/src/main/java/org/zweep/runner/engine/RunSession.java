@@ -48,21 +48,22 @@ public final class RunSession {
      * @param sweepChecks evaluates whole-sweep checks at the end
      * @param clock the wall clock
      * @param version the software version
-     * @param rowSync when rows reach the storage device: {@link PointsCsvWriter.Sync#EACH_ROW}
-     *     (the default) before the next point starts, as the run-folder contract asks, or
-     *     {@link PointsCsvWriter.Sync#BEHIND} while the next point is measured
+     * @param rowSync when rows reach the storage device: {@link PointsCsvWriter.Sync#BEHIND} (the
+     *     default, the run-folder contract) while the next point is measured, durable before the
+     *     point after it is triggered, or {@link PointsCsvWriter.Sync#EACH_ROW} before the next
+     *     point starts
      */
     public record Setup(RunFolder folder, boolean resuming, String sequenceFile, String dialect, Long seed,
             ReconnectPolicy reconnect, FixturePort fixture, ProgressListener progress, Interruption interruption,
             FixtureCompensation compensation, SweepChecks sweepChecks, Clock clock, String version,
             PointsCsvWriter.Sync rowSync) {
 
-        /** A setup whose rows are synced before the next point starts ({@link PointsCsvWriter.Sync#EACH_ROW}). */
+        /** A setup whose rows are synced while the next point is measured ({@link PointsCsvWriter.Sync#BEHIND}). */
         public Setup(RunFolder folder, boolean resuming, String sequenceFile, String dialect, Long seed,
                 ReconnectPolicy reconnect, FixturePort fixture, ProgressListener progress, Interruption interruption,
                 FixtureCompensation compensation, SweepChecks sweepChecks, Clock clock, String version) {
             this(folder, resuming, sequenceFile, dialect, seed, reconnect, fixture, progress, interruption,
-                    compensation, sweepChecks, clock, version, PointsCsvWriter.Sync.EACH_ROW);
+                    compensation, sweepChecks, clock, version, PointsCsvWriter.Sync.BEHIND);
         }
     }
 

@@ -9,7 +9,7 @@ import org.zweep.driver.uncertainty.UncertainImpedance;
 /**
  * How the fixture is connected and compensated.
  *
- * @param connection 2- or 4-terminal
+ * @param terminals 2- or 4-terminal
  * @param compensation none, meter-side or host-side
  * @param standards the standards to acquire, in order (e.g. OPEN, SHORT or OPEN, SHORT, LOAD); empty with NONE
  * @param loadStandard the load standard's known impedance (its frequency is ignored: R + jX held constant);
@@ -21,7 +21,7 @@ import org.zweep.driver.uncertainty.UncertainImpedance;
  *     {@code loadStandard}'s); exact when none is stated; {@code null} when no LOAD is used
  */
 public record FixturePlan(
-        Connection connection,
+        TerminalConfiguration terminals,
         CompensationMode compensation,
         List<CorrectionStandard> standards,
         Impedance loadStandard,
@@ -37,8 +37,8 @@ public record FixturePlan(
     }
 
     /** With the load standard's value taken as exact. */
-    public FixturePlan(Connection connection, CompensationMode compensation, List<CorrectionStandard> standards,
+    public FixturePlan(TerminalConfiguration terminals, CompensationMode compensation, List<CorrectionStandard> standards,
             Impedance loadStandard, Duration reuseYoungerThan, java.nio.file.Path store) {
-        this(connection, compensation, standards, loadStandard, reuseYoungerThan, store, null);
+        this(terminals, compensation, standards, loadStandard, reuseYoungerThan, store, null);
     }
 }

@@ -11,7 +11,7 @@ import java.util.List;
  * @param source the sequence file it came from
  * @param meter the meter to use (an override from the command line is applied by the caller)
  * @param safety limits checked before any command is sent
- * @param fixture connection and compensation
+ * @param fixture terminal configuration and compensation
  * @param part the component under test
  * @param steps the steps in order
  * @param checks pass/fail limits

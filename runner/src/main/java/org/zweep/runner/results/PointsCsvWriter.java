@@ -13,26 +13,26 @@ import java.util.concurrent.Executors;
 import java.util.concurrent.Future;
 
 /**
- * Appends rows to a {@code points.csv}. Every row is written to the operating system before
- * {@link #append} returns, so killing the process ({@code kill -9}, a JVM crash) never loses a
- * row that was appended. What a power cut or an operating-system crash can lose depends on the
- * {@link Sync} mode (the device cache is trusted to honour {@code fdatasync}):
+ * Appends rows to a {@code points.csv}. A row asked to be synced (the last of a trigger: a point,
+ * or a whole list sweep) is written to the operating system, with the rows of its trigger before
+ * it, before {@link #append} returns, so killing the process ({@code kill -9}, a JVM crash) never
+ * loses a trigger's rows once its last was appended. What a power cut or an operating-system crash
+ * can lose depends on the {@link Sync} mode (the device cache is trusted to honour {@code fdatasync}):
  * <ul>
- *   <li>{@link Sync#EACH_ROW} (the run engine's): a row asked to be synced is on the device when
- *       {@code append} returns, so the engine starts the next point only once the last one is
- *       durable; a power cut loses at most the point in progress (for a list sweep, whose rows
- *       arrive in one reply and are synced once with the last, the sweep in progress).
- *   <li>{@link Sync#BEHIND}: the sync runs on a background thread while the caller goes on (the
- *       next point is measured meanwhile); the next {@code append} first waits for it, so at most
- *       one sync is ever in flight. A power cut loses at most the point in progress <em>and</em>
- *       the row appended just before it, if its sync had not finished.
+ *   <li>{@link Sync#BEHIND} (the run engine's): the sync runs on a background thread while the
+ *       caller goes on (the next point is measured meanwhile); the next {@code append} first waits
+ *       for it, so at most one sync is ever in flight and a row is durable before the trigger after
+ *       next is sent. A power cut loses at most the point in progress <em>and</em> the one
+ *       appended just before it (for list sweeps, the sweep in progress and the one before it).
+ *   <li>{@link Sync#EACH_ROW}: a row asked to be synced is on the device when {@code append}
+ *       returns; a power cut loses at most the point (or list sweep) in progress.
  *   <li>{@link Sync#NONE}: never synced before {@link #close()}; for benchmarks that measure
  *       what syncing costs.
  * </ul>
  * Writes the header when the file is new or empty.
  *
  * <p>Not thread-safe: one run engine writes one file. I/O failures, a background sync's
- * included (reported by the next call), are thrown as {@link UncheckedIOException}.
+ * included (reported by the next call, naming the file), are thrown as {@link UncheckedIOException}.
  */
 public final class PointsCsvWriter implements AutoCloseable {
     /** When rows reach the storage device; see the class description for what each can lose. */
@@ -50,7 +50,11 @@ public final class PointsCsvWriter implements AutoCloseable {
     private final Sync mode;
     private final ExecutorService syncer;
     private Future<?> inFlight;
-    private ByteBuffer buffer = ByteBuffer.allocate(1024);
+    private volatile long durableBytes;
+    private long writtenBytes;
+    /** Rows of one trigger held back at most this long before they go to the OS anyway. */
+    private static final int HAND_OVER_BYTES = 1 << 16;
+    private ByteBuffer buffer = ByteBuffer.allocate(4096);
 
     private PointsCsvWriter(Path file, FileChannel channel, Sync mode) {
         this.file = file;
@@ -77,6 +81,8 @@ public final class PointsCsvWriter implements AutoCloseable {
             FileChannel ch = FileChannel.open(file, StandardOpenOption.CREATE, StandardOpenOption.WRITE,
                     StandardOpenOption.APPEND);
             PointsCsvWriter w = new PointsCsvWriter(file, ch, mode);
+            w.writtenBytes = ch.size();
+            w.durableBytes = w.writtenBytes;
             if (ch.size() == 0) {
                 w.writeLine(PointsCsv.HEADER, true);
             }
@@ -112,28 +118,43 @@ public final class PointsCsvWriter implements AutoCloseable {
 
     private void writeLine(String line, boolean syncNow) {
         awaitInFlight();
-        byte[] bytes = (line + "\n").getBytes(StandardCharsets.UTF_8);
-        if (buffer.capacity() < bytes.length) {
-            buffer = ByteBuffer.allocate(bytes.length * 2);
+        byte[] bytes = line.getBytes(StandardCharsets.UTF_8);
+        if (buffer.remaining() < bytes.length + 1) {
+            ByteBuffer bigger = ByteBuffer.allocate(Math.max(buffer.capacity() * 2, buffer.position() + bytes.length + 1));
+            buffer.flip();
+            buffer = bigger.put(buffer);
         }
-        buffer.clear();
-        buffer.put(bytes).flip();
+        buffer.put(bytes).put((byte) '\n');
+        if (!syncNow && buffer.position() < HAND_OVER_BYTES) {
+            return; // more rows of this trigger follow: they go to the OS together, with the last
+        }
         try {
+            buffer.flip();
             while (buffer.hasRemaining()) {
-                channel.write(buffer);
+                writtenBytes += channel.write(buffer);
             }
+            buffer.clear();
             if (syncNow && mode == Sync.EACH_ROW) {
                 channel.force(false);
+                durableBytes = writtenBytes;
             }
         } catch (IOException e) {
+            buffer.clear();
             throw new UncheckedIOException("cannot write " + file + ": " + e.getMessage(), e);
         }
         if (syncNow && mode == Sync.BEHIND) {
+            long upTo = writtenBytes;
             inFlight = syncer.submit(() -> {
                 channel.force(false);
+                durableBytes = upTo;
                 return null;
             });
         }
+    }
+
+    /** How many bytes of the file a finished sync has made durable (for tests). */
+    long durableBytes() {
+        return durableBytes;
     }
 
     /** Waits, uninterruptibly, for the background sync in flight; rethrows its failure. */
@@ -178,7 +199,13 @@ public final class PointsCsvWriter implements AutoCloseable {
         }
         try {
             if (channel.isOpen()) {
+                buffer.flip();
+                while (buffer.hasRemaining()) {
+                    writtenBytes += channel.write(buffer);
+                }
+                buffer.clear();
                 channel.force(true);
+                durableBytes = writtenBytes;
                 channel.close();
             }
         } catch (IOException e) {

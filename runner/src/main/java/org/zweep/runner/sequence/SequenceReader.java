@@ -30,7 +30,7 @@ import org.zweep.runner.plan.BiasControl;
 import org.zweep.runner.conformance.DecisionRule;
 import org.zweep.runner.plan.CheckLimit;
 import org.zweep.runner.plan.CompensationMode;
-import org.zweep.runner.plan.Connection;
+import org.zweep.runner.plan.TerminalConfiguration;
 import org.zweep.runner.plan.FixturePlan;
 import org.zweep.runner.plan.MeterSpec;
 import org.zweep.runner.plan.Part;
@@ -138,7 +138,7 @@ final class SequenceReader {
         MeterSpec meter = meter(top.required("meter"));
         SafetyLimits safety = safety(top.required("safety"));
         FixturePlan fixture = top.optional("fixture").map(this::fixture)
-                .orElse(new FixturePlan(Connection.TWO_TERMINAL, CompensationMode.NONE, List.of(), null,
+                .orElse(new FixturePlan(TerminalConfiguration.TWO_TERMINAL, CompensationMode.NONE, List.of(), null,
                         Duration.ZERO, null));
         Part part = part(top.required("part"));
         List<StepSpec> specs = steps(top.required("steps"), part, safety);
@@ -274,9 +274,9 @@ final class SequenceReader {
     private FixturePlan fixture(YamlNode node) {
         YamlNode.YamlMap m = node.map("fixture", FIXTURE_KEYS);
         YamlNode t = m.required("terminals");
-        Connection connection = switch (word(t, "terminals", List.of("2", "4"))) {
-            case "2" -> Connection.TWO_TERMINAL;
-            default -> Connection.FOUR_TERMINAL;
+        TerminalConfiguration terminals = switch (word(t, "terminals", List.of("2", "4"))) {
+            case "2" -> TerminalConfiguration.TWO_TERMINAL;
+            default -> TerminalConfiguration.FOUR_TERMINAL;
         };
         CompensationMode mode = m.optional("compensation")
                 .map(c -> CompensationMode.valueOf(
@@ -333,7 +333,7 @@ final class SequenceReader {
             }
             store = source.toAbsolutePath().getParent().resolve(st.text("a folder")).normalize();
         }
-        return new FixturePlan(connection, mode, standards, load == null ? null : load.value(), reuse, store, load);
+        return new FixturePlan(terminals, mode, standards, load == null ? null : load.value(), reuse, store, load);
     }
 
     /**
@@ -467,34 +467,34 @@ final class SequenceReader {
         } else if (transformer) {
             throw node.error("missing key 'wiring' in " + step + " (secondary_open or secondary_shorted)");
         }
-        Sweep frequencies = Sweep.read(m.required("frequency"), Sweep.Kind.FREQUENCY);
+        AxisValues frequencies = AxisValues.read(m.required("frequency"), AxisValues.Kind.FREQUENCY);
         YamlNode levelNode = m.required("level");
-        Sweep levels = Sweep.read(levelNode, Sweep.Kind.LEVEL);
+        AxisValues levels = AxisValues.read(levelNode, AxisValues.Kind.LEVEL);
         checkLimit(levelNode, step, "drive level", levels, " rms", levels.unit() == Unit.VOLT
                 ? new Limit("max_level_voltage", safety.maxLevelVrms())
                 : new Limit("max_level_current", safety.maxLevelArms()));
-        Sweep bias = null;
+        AxisValues bias = null;
         BiasControl control = BiasControl.NONE;
         if (m.has("bias")) {
             YamlNode bn = m.required("bias");
             if (bn.isMap()) {
                 YamlNode.YamlMap bm = bn.map("bias", BIAS_KEYS);
                 if (bm.has("values")) {
-                    for (String k : Sweep.RANGE_KEYS) {
+                    for (String k : AxisValues.RANGE_KEYS) {
                         if (bm.has(k)) {
                             throw bm.values().get(k).error("give either values or start/stop, not both");
                         }
                     }
-                    bias = Sweep.read(bm.required("values"), Sweep.Kind.BIAS);
+                    bias = AxisValues.read(bm.required("values"), AxisValues.Kind.BIAS);
                 } else {
-                    bias = Sweep.range(bm, Sweep.Kind.BIAS);
+                    bias = AxisValues.range(bm, AxisValues.Kind.BIAS);
                 }
                 Unit unit = bias.unit();
                 double ramp = bm.optional("ramp").map(r -> Units.ratePerS(r, unit)).orElse(Double.POSITIVE_INFINITY);
                 double settle = bm.optional("settle").map(s -> Units.parse(s, Unit.SECOND)).orElse(0.0);
                 control = new BiasControl(ramp, settle);
             } else {
-                bias = Sweep.read(bn, Sweep.Kind.BIAS);
+                bias = AxisValues.read(bn, AxisValues.Kind.BIAS);
             }
             checkLimit(bn, step, "DC bias", bias, "", bias.unit() == Unit.VOLT
                     ? new Limit("max_bias_voltage", safety.maxBiasVoltageV())
@@ -507,7 +507,7 @@ final class SequenceReader {
         int repeats = m.optional("repeats").map(r -> Units.integer(r, "a repeat count", 1)).orElse(1);
         double delay = m.optional("delay").map(d -> Units.parse(d, Unit.SECOND)).orElse(0.0);
         ImpedanceRange range = m.optional("range").map(SequenceReader::range).orElse(ImpedanceRange.AUTO);
-        Sweep biasAxis = bias;
+        AxisValues biasAxis = bias;
         List<Integer> derating = m.optional("derating").map(d -> deratingDrops(d, biasAxis, step)).orElse(List.of());
         StepSpec spec = new StepSpec(name, prompt, quantity, wiring, frequencies, levels, bias, control, order,
                 averaging, integration, repeats, delay, range, derating, node);
@@ -536,7 +536,7 @@ final class SequenceReader {
     private record Limit(String key, double value) {
     }
 
-    private static void checkLimit(YamlNode node, String step, String what, Sweep sweep, String rms, Limit limit) {
+    private static void checkLimit(YamlNode node, String step, String what, AxisValues sweep, String rms, Limit limit) {
         double worst = sweep.maxAbs();
         if (worst > limit.value()) {
             throw node.error(step + ": " + what + " " + Units.format(worst, sweep.unit()) + rms + " exceeds safety "
@@ -732,7 +732,7 @@ final class SequenceReader {
     }
 
     /** The value of {@code node} in {@code sweep}'s unit, which must be one of the step's values of that axis. */
-    private static double valueOf(YamlNode node, Sweep sweep, String what, StepSpec step) {
+    private static double valueOf(YamlNode node, AxisValues sweep, String what, StepSpec step) {
         double v = Units.parse(node, sweep.unit(), Unit.Bound.ANY);
         double nearest = Double.NaN;
         for (double x : sweep.values()) {
@@ -758,7 +758,7 @@ final class SequenceReader {
     }
 
     /** A step's {@code derating} list: whole percentages, each once, returned ascending. */
-    private static List<Integer> deratingDrops(YamlNode node, Sweep bias, String step) {
+    private static List<Integer> deratingDrops(YamlNode node, AxisValues bias, String step) {
         if (bias == null || bias.values().size() < 2) {
             throw node.error("derating needs a bias sweep; " + step + " has " + (bias == null ? "no bias"
                     : "one bias value"));

@@ -11,7 +11,7 @@ import org.zweep.driver.meter.CorrectionStyle;
 import org.zweep.runner.compensation.CompensationWorkflow;
 import org.zweep.runner.plan.BiasControl;
 import org.zweep.runner.plan.CompensationMode;
-import org.zweep.runner.plan.Connection;
+import org.zweep.runner.plan.TerminalConfiguration;
 import org.zweep.runner.plan.FixturePlan;
 import org.zweep.runner.plan.Plan;
 import org.zweep.runner.safety.Interruption;
@@ -26,7 +26,7 @@ class MeterSideCompensationTest {
     static Plan plan() {
         Plan p = TestPlans.plan(List.of(TestPlans.step(0, 0, "sweep", "fit the part", BiasControl.NONE,
                 new double[] {0}, 1000, 100_000, 1e6)), List.of());
-        return new Plan(p.name(), p.source(), p.meter(), p.safety(), new FixturePlan(Connection.FOUR_TERMINAL,
+        return new Plan(p.name(), p.source(), p.meter(), p.safety(), new FixturePlan(TerminalConfiguration.FOUR_TERMINAL,
                 CompensationMode.METER, List.of(CorrectionStandard.OPEN, CorrectionStandard.SHORT), null, Duration.ZERO,
                 null), p.part(), p.steps(), p.checks());
     }

@@ -9,7 +9,7 @@ import org.zweep.driver.meter.MeasurementSetting;
 import org.zweep.runner.plan.BiasControl;
 import org.zweep.runner.plan.CheckLimit;
 import org.zweep.runner.plan.CompensationMode;
-import org.zweep.runner.plan.Connection;
+import org.zweep.runner.plan.TerminalConfiguration;
 import org.zweep.runner.plan.FixturePlan;
 import org.zweep.runner.plan.MeterSpec;
 import org.zweep.runner.plan.Part;
@@ -43,7 +43,7 @@ final class TestPlans {
 
     static Plan plan(List<PlannedStep> steps, List<CheckLimit> checks) {
         return new Plan("test", Path.of("test.yaml"), new MeterSpec("fake:bench", "standard"), LIMITS,
-                new FixturePlan(Connection.FOUR_TERMINAL, CompensationMode.NONE, List.of(), null, Duration.ZERO, null),
+                new FixturePlan(TerminalConfiguration.FOUR_TERMINAL, CompensationMode.NONE, List.of(), null, Duration.ZERO, null),
                 new Part(PartKind.CAPACITOR, "KP-C0805-104", 100e-9, 10.0, Double.NaN), steps, checks);
     }
 

@@ -252,6 +252,39 @@ class RunFolderIntegrityIT {
     }
 
     @Test
+    void pointsCsvThatCannotGrowMidRunStopsWithExit3NamingItKeepsItsRowsAndResumeCompletes() throws Exception {
+        Map<Integer, PointRow> all = Rows.of(completed(dir.resolve("reference")));
+        Path out = dir.resolve("file-limit");
+        // the child may write files of at most 16 KiB (RLIMIT_FSIZE): points.csv's writes fail part-way
+        // through the run with EFBIG, as they would on a full disk; rows are handed over and synced
+        // on another thread, and the failure must still stop the run
+        String java = Path.of(System.getProperty("java.home"), "bin", "java").toString();
+        ProcessBuilder pb = new ProcessBuilder("bash", "-c", "ulimit -f 16 && exec \"$@\"", "zweep",
+                "env", "--default-signal=INT,TERM", java, "-cp", System.getProperty("java.class.path"),
+                "org.zweep.runner.cli.Main", "run", SEQ.toString(), "--meter", sim(), "--dialect", Sims.dialect(),
+                "--out", out.toString(), "--seed", "5", "--quiet");
+        pb.redirectErrorStream(true);
+        Process p = pb.start();
+        String text = new String(p.getInputStream().readAllBytes(), StandardCharsets.UTF_8);
+        assertTrue(p.waitFor(120, TimeUnit.SECONDS));
+        assertEquals(3, p.exitValue(), text);
+        assertTrue(text.contains("cannot write " + out.resolve("points.csv")), text);
+        assertFalse(text.contains("internal error"), text);
+        assertEquals("failed", RunManifest.read(out.resolve("run.json")).outcome());
+        int kept = Rows.of(out).size();
+        assertTrue(kept > 0 && kept < all.size(), kept + " of " + all.size() + " rows kept");
+        Sims.Result r = resume(out);
+        assertEquals(0, r.code(), r.out() + r.err());
+        assertSamePoints(all, out);
+    }
+
+    Path completed(Path out) {
+        Sims.Result r = run(out);
+        assertEquals(0, r.code(), r.out() + r.err());
+        return out;
+    }
+
+    @Test
     void outThatCannotBeCreatedExits2NamingTheFolder() throws Exception {
         Path file = dir.resolve("a-file");
         Files.writeString(file, "not a folder");

@@ -1,6 +1,7 @@
 package org.zweep.runner.results;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.nio.file.Path;
 import java.util.ArrayList;
@@ -8,7 +9,7 @@ import java.util.List;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
-/** Every sync mode hands each row to the operating system before append returns. */
+/** Every sync mode hands each trigger's rows to the operating system before append returns. */
 class PointsCsvWriterTest {
     @TempDir
     Path dir;
@@ -30,6 +31,35 @@ class PointsCsvWriterTest {
             }
         }
         assertEquals(List.of(0, 1, 2), points(f));
+    }
+
+    @Test
+    void aRowSyncedBehindIsDurableBeforeTheNextAppendReturns() throws Exception {
+        // the power-cut promise: when point n+1's row is appended (before point n+2 is triggered),
+        // point n's row has been synced
+        Path f = dir.resolve("points.csv");
+        try (PointsCsvWriter w = PointsCsvWriter.open(f, PointsCsvWriter.Sync.BEHIND)) {
+            for (int i = 0; i < 5; i++) {
+                long before = java.nio.file.Files.size(f);
+                w.append(PointsCsvTest.row(i, "s", 1.0 + i, -100.0));
+                assertTrue(w.durableBytes() >= before, "after append " + i + ": " + w.durableBytes()
+                        + " bytes durable, " + before + " written before it");
+            }
+            w.close();
+            assertEquals(java.nio.file.Files.size(f), w.durableBytes());
+        }
+    }
+
+    @Test
+    void theRowsOfOneTriggerReachTheSystemTogetherWithTheLast() {
+        Path f = dir.resolve("points.csv");
+        try (PointsCsvWriter w = PointsCsvWriter.open(f, PointsCsvWriter.Sync.BEHIND)) {
+            w.append(PointsCsvTest.row(0, "s", 1.0, -100.0), false);
+            w.append(PointsCsvTest.row(1, "s", 2.0, -100.0), false);
+            assertEquals(List.of(), points(f));
+            w.append(PointsCsvTest.row(2, "s", 3.0, -100.0), true);
+            assertEquals(List.of(0, 1, 2), points(f));
+        }
     }
 
     @Test

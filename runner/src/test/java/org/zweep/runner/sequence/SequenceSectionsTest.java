@@ -17,7 +17,7 @@ import org.zweep.driver.dialect.Dialect;
 import org.zweep.driver.meter.CorrectionStandard;
 import org.zweep.driver.meter.ImpedanceRange;
 import org.zweep.runner.plan.CompensationMode;
-import org.zweep.runner.plan.Connection;
+import org.zweep.runner.plan.TerminalConfiguration;
 import org.zweep.runner.plan.CheckLimit;
 import org.zweep.runner.plan.FixturePlan;
 import org.zweep.runner.plan.Plan;
@@ -110,7 +110,7 @@ class SequenceSectionsTest {
                   store: comp
                 """, "{name: s, frequency: 1 kHz, level: 1 V}");
         FixturePlan f = plan.fixture();
-        assertEquals(Connection.FOUR_TERMINAL, f.connection());
+        assertEquals(TerminalConfiguration.FOUR_TERMINAL, f.terminals());
         assertEquals(CompensationMode.HOST, f.compensation());
         assertEquals(List.of(CorrectionStandard.OPEN, CorrectionStandard.SHORT, CorrectionStandard.LOAD), f.standards());
         assertEquals(100.0, f.loadStandard().resistanceOhm(), 0.0);

@@ -174,7 +174,7 @@ final class BenchFileReader {
 
     private FixtureSpec fixture(Section s, Section load) {
         FixtureSpec d = FixtureSpec.defaults();
-        Connection connection = d.connection();
+        TerminalConfiguration terminals = d.terminals();
         double rs = d.residualResistanceOhm();
         double ls = d.residualInductanceH();
         double g = d.strayConductanceS();
@@ -183,8 +183,8 @@ final class BenchFileReader {
         if (s != null) {
             s.allow("connection", "residual_resistance_ohm", "residual_inductance_h",
                     "stray_conductance_s", "stray_capacitance_f", "lead_resistance_ohm");
-            connection = s.choice("connection", "4-terminal", "2-terminal", "4-terminal")
-                    .equals("2-terminal") ? Connection.TWO_TERMINAL : Connection.FOUR_TERMINAL;
+            terminals = s.choice("connection", "4-terminal", "2-terminal", "4-terminal")
+                    .equals("2-terminal") ? TerminalConfiguration.TWO_TERMINAL : TerminalConfiguration.FOUR_TERMINAL;
             rs = s.nonNegative("residual_resistance_ohm", rs);
             ls = s.nonNegative("residual_inductance_h", ls);
             g = s.nonNegative("stray_conductance_s", g);
@@ -198,7 +198,7 @@ final class BenchFileReader {
             loadR = load.positive("resistance_ohm", loadR);
             loadL = load.nonNegative("inductance_h", loadL);
         }
-        return new FixtureSpec(connection, rs, ls, g, c, lead, loadR, loadL);
+        return new FixtureSpec(terminals, rs, ls, g, c, lead, loadR, loadL);
     }
 
     private Device device(Section s) {

@@ -20,8 +20,8 @@ final class FaultCommands {
     private FaultCommands() {
     }
 
-    private static Connection conn(Call c) {
-        return c.session().attachment(Connection.class);
+    private static ClientConnection conn(Call c) {
+        return c.session().attachment(ClientConnection.class);
     }
 
     private static long count(Call c, int i) {
@@ -31,7 +31,7 @@ final class FaultCommands {
     static void register(CommandTree.Builder b) {
         b.on("SIMulate:FAULt:DROP[:AFTer]", c -> {
             c.count(1, 1);
-            Connection k = conn(c);
+            ClientConnection k = conn(c);
             long n = c.integer(0, 0, MAX_COUNT, 0);
             k.faults().add(new ScheduledFault(Phase.COMPLETE, Exchanges.nth(k.messageNumber() + n), new Fault.Drop()));
             return null;
@@ -43,7 +43,7 @@ final class FaultCommands {
                 throw new ScpiException(StandardError.DATA_OUT_OF_RANGE,
                         "idle time " + s + " s is below 1 ms (0 turns the fault off)");
             }
-            Connection k = conn(c);
+            ClientConnection k = conn(c);
             k.faults().removeIdle();
             if (s > 0) {
                 k.faults().add(new ScheduledFault(Phase.IDLE, Exchanges.every(),
@@ -83,7 +83,7 @@ final class FaultCommands {
         });
         b.on("SIMulate:FAULt:STALl", c -> {
             c.count(0, 0);
-            Connection k = conn(c);
+            ClientConnection k = conn(c);
             k.faults().add(new ScheduledFault(Phase.RECEIVE, Exchanges.from(k.messageNumber() + 1), new Fault.Stall()));
             return null;
         });
@@ -107,7 +107,7 @@ final class FaultCommands {
 
     /** Attaches {@code f} to the next replies; the count is parameter {@code countIndex}. */
     private static void nextReplies(Call c, int countIndex, Fault f) {
-        Connection k = conn(c);
+        ClientConnection k = conn(c);
         long n = count(c, countIndex);
         k.faults().add(new ScheduledFault(Phase.REPLY, new Exchanges.Range(k.replyNumber() + 1, n), f));
     }

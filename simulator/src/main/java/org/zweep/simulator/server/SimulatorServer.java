@@ -36,7 +36,7 @@ public final class SimulatorServer implements AutoCloseable {
     private final ServerOptions options;
     private final Instrument instrument;
     private final ServerSocket listener;
-    private final Set<Connection> connections = ConcurrentHashMap.newKeySet();
+    private final Set<ClientConnection> connections = ConcurrentHashMap.newKeySet();
     private final AtomicLong ids = new AtomicLong();
     /** Bytes in all connections' output queues. */
     private final AtomicLong outputBytes = new AtomicLong();
@@ -145,7 +145,7 @@ public final class SimulatorServer implements AutoCloseable {
                 return "in-memory";
             }
         };
-        Connection c = new Connection(this, ids.incrementAndGet(), link, options.faults());
+        ClientConnection c = new ClientConnection(this, ids.incrementAndGet(), link, options.faults());
         toClient.setOnBlockedRead(() -> c.onClientBlockedRead(toServer));
         serve(c);
         return new InMemoryConnection(toServer, toClient);
@@ -168,7 +168,7 @@ public final class SimulatorServer implements AutoCloseable {
             }
             try {
                 s.setTcpNoDelay(true);
-                serve(new Connection(this, ids.incrementAndGet(), socketLink(s), options.faults()));
+                serve(new ClientConnection(this, ids.incrementAndGet(), socketLink(s), options.faults()));
             } catch (IOException e) {
                 log("cannot set up connection: " + e.getMessage());
                 closeQuietly(s);
@@ -265,7 +265,7 @@ public final class SimulatorServer implements AutoCloseable {
         };
     }
 
-    private void serve(Connection c) {
+    private void serve(ClientConnection c) {
         connections.add(c);
         if (closed) {
             c.close("server stopped");
@@ -276,7 +276,7 @@ public final class SimulatorServer implements AutoCloseable {
         t.start();
     }
 
-    void closed(Connection c) {
+    void closed(ClientConnection c) {
         connections.remove(c);
     }
 
@@ -306,7 +306,7 @@ public final class SimulatorServer implements AutoCloseable {
                 // closing is best effort
             }
         }
-        for (Connection c : connections) {
+        for (ClientConnection c : connections) {
             c.close("server stopped");
         }
         if (refusals != null) {

@@ -20,7 +20,7 @@ import org.zweep.simulator.scpi.StandardError;
  * the queue is cleared, the reply discarded and {@code -430 Query DEADLOCKED} reported, and the
  * connection reads on. A reply always fits an empty queue, whatever its size.
  */
-final class Connection implements Session.Hooks {
+final class ClientConnection implements Session.Hooks {
     private final SimulatorServer server;
     private final long id;
     private final Link link;
@@ -40,7 +40,7 @@ final class Connection implements Session.Hooks {
     private long replies;
     private String closeReason = "client closed";
 
-    Connection(SimulatorServer server, long id, Link link, FaultPlan plan) {
+    ClientConnection(SimulatorServer server, long id, Link link, FaultPlan plan) {
         this.server = server;
         this.id = id;
         this.link = link;
