@@ -461,7 +461,7 @@ public final class DialectMeter implements Meter {
                         throw errors(errors, what);
                     }
                 } else {
-                    dialect.command(Command.SYNC).ifPresent(t -> session.query(t.render(), work));
+                    dialect.command(Command.SYNC).ifPresent(t -> session.waitForCompletion(t.render(), work));
                 }
             }
         } catch (MeterTimeoutException e) {
