@@ -688,8 +688,8 @@ public final class DialectMeter implements Meter {
         return dialect.command(c).orElseThrow(() -> new IllegalStateException(c.key())).render();
     }
 
-    private String render(Command c, String slot, double value) {
-        return dialect.command(c).orElseThrow(() -> new IllegalStateException(c.key())).render(Map.of(slot, value));
+    private String render(Command c, String placeholder, double value) {
+        return dialect.command(c).orElseThrow(() -> new IllegalStateException(c.key())).render(Map.of(placeholder, value));
     }
 
     // ---- validation ---------------------------------------------------------------------------
