@@ -30,13 +30,15 @@ import picocli.CommandLine.Spec;
 @Command(name = "compare", mixinStandardHelpOptions = true,
         description = {"Compares two or more run folders: each check's value and each step's fitted elements per run,"
                 + " with the difference from the first run and the relative change; --plots DIR overlays each"
-                + " step's first sweep of every run (|Z| and θ)."},
+                + " step's first sweep of every run (|Z| and θ).",
+            "Given lot folders (zweep lot), compares the lots: per check each lot's n, passes, mean, σ, lowest,"
+                + " highest and Cpk, with each mean's difference from the first lot's."},
         footer = ExitCode.HELP_LIST)
 public final class CompareCommand implements Callable<Integer> {
     @Spec
     CommandSpec spec;
 
-    @Parameters(arity = "2..*", paramLabel = "RUN", description = "run folders; the first is the reference")
+    @Parameters(arity = "2..*", paramLabel = "RUN", description = "run folders, or lot folders; the first is the reference")
     List<Path> folders;
 
     @Mixin
@@ -47,6 +49,16 @@ public final class CompareCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws Exception {
+        long lots = folders.stream().filter(org.zweep.runner.lot.LotManifest::isLot).count();
+        if (lots > 0) {
+            if (lots != folders.size()) {
+                throw new InvalidInputException("compare either run folders or lot folders, not both");
+            }
+            if (plots != null) {
+                throw new InvalidInputException("--plots overlays runs; compare two of the lots' part folders for that");
+            }
+            return compareLots(org.zweep.runner.lot.LotComparison.of(folders), spec.commandLine().getOut());
+        }
         Comparison c = Comparison.of(folders);
         List<Path> written = plots == null ? List.of() : plot(c, plots);
         PrintWriter out = spec.commandLine().getOut();
@@ -95,6 +107,86 @@ public final class CompareCommand implements Callable<Integer> {
             out.println(b.toString().stripTrailing());
         }
         written.forEach(f -> out.println("plot: " + f));
+        return ExitCode.OK;
+    }
+
+    /** Lots side by side: per check, each lot's figures and the difference of each mean from the first lot's. */
+    private int compareLots(org.zweep.runner.lot.LotComparison c, PrintWriter out) throws Exception {
+        if (json) {
+            ObjectNode root = RunsCommand.JSON.createObjectNode();
+            ArrayNode lots = root.putArray("lots");
+            for (var l : c.lots()) {
+                ObjectNode n = lots.addObject();
+                n.put("folder", l.folder().toString());
+                n.put("lot", l.table().lot());
+                n.put("parts", l.table().parts().size());
+                n.put("completed", l.table().completed());
+                n.put("passed", l.table().passed());
+                n.put("failed", l.table().failed());
+                if (Double.isFinite(l.table().yield())) {
+                    n.put("yield", l.table().yield());
+                } else {
+                    n.putNull("yield");
+                }
+            }
+            ArrayNode checks = root.putArray("checks");
+            for (var row : c.checks()) {
+                ObjectNode n = checks.addObject();
+                n.put("name", row.name());
+                n.put("parameter", row.parameter());
+                ArrayNode count = n.putArray("n");
+                ArrayNode passed = n.putArray("passed");
+                ArrayNode mean = n.putArray("mean");
+                ArrayNode sigma = n.putArray("sigma");
+                ArrayNode lowest = n.putArray("lowest");
+                ArrayNode highest = n.putArray("highest");
+                ArrayNode cpk = n.putArray("cpk");
+                ArrayNode diff = n.putArray("mean_difference");
+                ArrayNode rel = n.putArray("mean_relative");
+                for (int i = 0; i < c.lots().size(); i++) {
+                    var s = row.stats().get(i);
+                    var cap = row.capability(i);
+                    count.add(cap.n());
+                    passed.add(s == null ? 0 : s.passed());
+                    add(mean, cap.mean());
+                    add(sigma, cap.sigma());
+                    add(lowest, s == null ? Double.NaN : s.lowest());
+                    add(highest, s == null ? Double.NaN : s.highest());
+                    add(cpk, cap.cpk());
+                    add(diff, row.meanDifference(i));
+                    add(rel, row.meanRelative(i));
+                }
+            }
+            out.println(RunsCommand.JSON.writeValueAsString(root));
+            return ExitCode.OK;
+        }
+        for (int i = 0; i < c.lots().size(); i++) {
+            var t = c.lots().get(i).table();
+            out.printf(Locale.ROOT, "%s lot %s: %s (%d parts, %d passed, %d failed, yield %s)%n",
+                    i == 0 ? "reference" : "lot " + (i + 1), t.lot(), c.lots().get(i).folder(), t.parts().size(),
+                    t.passed(), t.failed(), Double.isFinite(t.yield())
+                            ? String.format(Locale.ROOT, "%.1f %%", 100 * t.yield()) : "-");
+        }
+        for (var row : c.checks()) {
+            Unit unit = TrendCommand.unitOf(row.parameter());
+            out.println();
+            out.printf(Locale.ROOT, "check %s (%s)%n", row.name(), row.parameter());
+            out.printf(Locale.ROOT, "  %-14s %5s %7s  %-12s %-12s %-12s %-12s %-8s %-12s %-8s%n", "lot", "n", "passed",
+                    "mean", "sigma", "lowest", "highest", "Cpk", "difference", "change");
+            for (int i = 0; i < c.lots().size(); i++) {
+                var s = row.stats().get(i);
+                var cap = row.capability(i);
+                double rel = row.meanRelative(i);
+                out.println(String.format(Locale.ROOT, "  %-14s %5d %7s  %-12s %-12s %-12s %-12s %-8s %-12s %-8s",
+                        clip(c.lots().get(i).table().lot(), 14), cap.n(), s == null ? "-" : s.passed() + "/" + s.judged(),
+                        text(cap.mean(), unit), text(cap.sigma(), unit), text(s == null ? Double.NaN : s.lowest(), unit),
+                        text(s == null ? Double.NaN : s.highest(), unit),
+                        Double.isFinite(cap.cpk()) ? String.format(Locale.ROOT, "%.2f", cap.cpk()) : "-",
+                        i == 0 ? "" : text(row.meanDifference(i), unit),
+                        i == 0 || !Double.isFinite(rel) ? "" : String.format(Locale.ROOT, "%+.3f %%", 100 * rel))
+                        .stripTrailing());
+            }
+        }
         return ExitCode.OK;
     }
 

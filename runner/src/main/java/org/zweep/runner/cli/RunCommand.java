@@ -113,7 +113,7 @@ public final class RunCommand implements Callable<Integer> {
         return resume != null ? l.resume(resume, o) : l.start(file, o);
     }
 
-    private static String text(String v, String option) {
+    static String text(String v, String option) {
         if (v == null) {
             return null;
         }
