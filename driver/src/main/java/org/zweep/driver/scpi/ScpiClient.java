@@ -425,24 +425,13 @@ public final class ScpiClient implements ScpiSession {
 
     /**
      * Waits until the meter has finished every pending operation: sends {@code *OPC?} and waits up
-     * to {@code timeout} for its {@code 1} (IEEE 488.2 §10.19).
+     * to {@code timeout} plus the read timeout for its {@code 1} (IEEE 488.2 §10.19); the same as
+     * {@link #waitForCompletion(String, Duration) waitForCompletion("*OPC?", timeout)}.
      *
      * @throws MeterTimeoutException if the operations did not finish in time
      */
     public void waitForCompletion(Duration timeout) {
-        String reply;
-        lock.lock();
-        try {
-            begin();
-            send("*OPC?");
-            reply = new String(line, 0, readLine("*OPC?", new Deadline(System.nanoTime() + millis(timeout) * 1_000_000L,
-                    0, millis(timeout))), StandardCharsets.ISO_8859_1).strip();
-        } finally {
-            lock.unlock();
-        }
-        if (!reply.equals("1") && !reply.equals("+1")) {
-            throw new ScpiProtocolException(address() + ": '*OPC?' answered '" + reply + "' instead of 1");
-        }
+        waitForCompletion("*OPC?", timeout);
     }
 
     /** Closes the connection (and the trace); never throws, does not wait for a running call. */

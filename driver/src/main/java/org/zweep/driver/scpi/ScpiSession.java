@@ -82,6 +82,22 @@ public interface ScpiSession extends AutoCloseable {
         throw new UnsupportedOperationException(address() + ": this session reads one block per message");
     }
 
+    /**
+     * Waits until the meter has finished every pending operation: sends {@code completionQuery}
+     * ({@code *OPC?}, IEEE 488.2 §10.19, or a meter's own query of the same meaning) and awaits its
+     * answer {@code 1} as in {@link #query(String, Duration)}. The one completion wait of the SCPI
+     * layer: {@code ScpiClient} and the dialect's {@code sync} both come here.
+     *
+     * @throws ScpiProtocolException when the answer is not {@code 1}
+     */
+    default void waitForCompletion(String completionQuery, Duration expectedWork) {
+        String reply = query(completionQuery, expectedWork).strip();
+        if (!reply.equals("1") && !reply.equals("+1")) {
+            throw new ScpiProtocolException(address() + ": '" + completionQuery + "' answered '"
+                    + ScpiValues.abbreviate(reply) + "' instead of 1");
+        }
+    }
+
     /** Reads {@code SYSTem:ERRor?} until it returns 0 and returns every entry read, oldest first. */
     List<ScpiError> drainErrors();
 

@@ -2,6 +2,7 @@ package org.zweep.runner.engine;
 
 import java.util.ArrayList;
 import java.util.List;
+import org.zweep.runner.safety.BiasRamp;
 import java.util.Map;
 import java.util.TreeMap;
 import org.zweep.driver.dialect.Dialect;
@@ -204,16 +205,14 @@ public record RunEstimate(double startS, double compensationS, List<Double> comp
             }
         }
 
-        /** Steps the applied bias to {@code value} as {@code Station} does (steps of at most {@link Station#RAMP_STEP_S}). */
+        /** Steps the applied bias to {@code value} as {@code Station} does: the one ramp planner's steps and waits. */
         private void rampTo(double value, BiasControl control) {
             if (!applied.on() || applied.value() == value) {
                 return;
             }
-            double rate = control.rampPerS();
-            double total = Double.isFinite(rate) && rate > 0 ? Math.abs(value - applied.value()) / rate : 0.0;
-            int n = total > 0 ? Math.max(1, (int) Math.ceil(total / Station.RAMP_STEP_S - 1e-9)) : 1;
-            host += total;
-            exchange(n);
+            List<BiasRamp.Step> steps = BiasRamp.plan(applied.value(), value, control.rampPerS(), Station.RAMP_STEP_S);
+            host += steps.stream().mapToDouble(BiasRamp.Step::waitS).sum();
+            exchange(steps.size());
             applied = new Bias(applied.mode(), value, true);
         }
 

@@ -32,7 +32,7 @@ import org.zweep.runner.plan.CheckLimit;
 import org.zweep.runner.plan.CompensationMode;
 import org.zweep.runner.plan.TerminalConfiguration;
 import org.zweep.runner.plan.FixturePlan;
-import org.zweep.runner.plan.MeterSpec;
+import org.zweep.runner.plan.MeterChoice;
 import org.zweep.runner.plan.Part;
 import org.zweep.runner.plan.PartKind;
 import org.zweep.runner.plan.Plan;
@@ -135,7 +135,7 @@ final class SequenceReader {
         }
         String name = top.optional("name").map(n -> name(n, "a sequence name")).orElseGet(this::defaultName);
         top.optional("description").ifPresent(d -> d.text("a description"));
-        MeterSpec meter = meter(top.required("meter"));
+        MeterChoice meter = meter(top.required("meter"));
         SafetyLimits safety = safety(top.required("safety"));
         FixturePlan fixture = top.optional("fixture").map(this::fixture)
                 .orElse(new FixturePlan(TerminalConfiguration.TWO_TERMINAL, CompensationMode.NONE, List.of(), null,
@@ -194,7 +194,7 @@ final class SequenceReader {
 
     // ---- meter ----
 
-    private MeterSpec meter(YamlNode node) {
+    private MeterChoice meter(YamlNode node) {
         YamlNode.YamlMap m = node.map("meter", METER_KEYS);
         String dialect = m.optional("dialect").map(this::dialect).orElse(DEFAULT_DIALECT);
         Optional<YamlNode> address = m.optional("address");
@@ -203,7 +203,7 @@ final class SequenceReader {
             throw bench.get().error("give either address or bench, not both");
         }
         if (bench.isPresent()) {
-            return new MeterSpec("sim:" + benchFile(bench.get(), bench.get().text("a bench file")), dialect);
+            return new MeterChoice("sim:" + benchFile(bench.get(), bench.get().text("a bench file")), dialect);
         }
         if (address.isEmpty()) {
             throw node.error("missing key 'address' or 'bench' in meter");
@@ -217,7 +217,7 @@ final class SequenceReader {
         } catch (InvalidInputException e) {
             throw address.get().error(e.getMessage());
         }
-        return new MeterSpec(a, dialect);
+        return new MeterChoice(a, dialect);
     }
 
     /**
@@ -467,34 +467,34 @@ final class SequenceReader {
         } else if (transformer) {
             throw node.error("missing key 'wiring' in " + step + " (secondary_open or secondary_shorted)");
         }
-        Sweep frequencies = Sweep.read(m.required("frequency"), Sweep.Kind.FREQUENCY);
+        AxisValues frequencies = AxisValues.read(m.required("frequency"), AxisValues.Kind.FREQUENCY);
         YamlNode levelNode = m.required("level");
-        Sweep levels = Sweep.read(levelNode, Sweep.Kind.LEVEL);
+        AxisValues levels = AxisValues.read(levelNode, AxisValues.Kind.LEVEL);
         checkLimit(levelNode, step, "drive level", levels, " rms", levels.unit() == Unit.VOLT
                 ? new Limit("max_level_voltage", safety.maxLevelVrms())
                 : new Limit("max_level_current", safety.maxLevelArms()));
-        Sweep bias = null;
+        AxisValues bias = null;
         BiasControl control = BiasControl.NONE;
         if (m.has("bias")) {
             YamlNode bn = m.required("bias");
             if (bn.isMap()) {
                 YamlNode.YamlMap bm = bn.map("bias", BIAS_KEYS);
                 if (bm.has("values")) {
-                    for (String k : Sweep.RANGE_KEYS) {
+                    for (String k : AxisValues.RANGE_KEYS) {
                         if (bm.has(k)) {
                             throw bm.values().get(k).error("give either values or start/stop, not both");
                         }
                     }
-                    bias = Sweep.read(bm.required("values"), Sweep.Kind.BIAS);
+                    bias = AxisValues.read(bm.required("values"), AxisValues.Kind.BIAS);
                 } else {
-                    bias = Sweep.range(bm, Sweep.Kind.BIAS);
+                    bias = AxisValues.range(bm, AxisValues.Kind.BIAS);
                 }
                 Unit unit = bias.unit();
                 double ramp = bm.optional("ramp").map(r -> Units.ratePerS(r, unit)).orElse(Double.POSITIVE_INFINITY);
                 double settle = bm.optional("settle").map(s -> Units.parse(s, Unit.SECOND)).orElse(0.0);
                 control = new BiasControl(ramp, settle);
             } else {
-                bias = Sweep.read(bn, Sweep.Kind.BIAS);
+                bias = AxisValues.read(bn, AxisValues.Kind.BIAS);
             }
             checkLimit(bn, step, "DC bias", bias, "", bias.unit() == Unit.VOLT
                     ? new Limit("max_bias_voltage", safety.maxBiasVoltageV())
@@ -507,7 +507,7 @@ final class SequenceReader {
         int repeats = m.optional("repeats").map(r -> Units.integer(r, "a repeat count", 1)).orElse(1);
         double delay = m.optional("delay").map(d -> Units.parse(d, Unit.SECOND)).orElse(0.0);
         ImpedanceRange range = m.optional("range").map(SequenceReader::range).orElse(ImpedanceRange.AUTO);
-        Sweep biasAxis = bias;
+        AxisValues biasAxis = bias;
         List<Integer> derating = m.optional("derating").map(d -> deratingDrops(d, biasAxis, step)).orElse(List.of());
         StepSpec spec = new StepSpec(name, prompt, quantity, wiring, frequencies, levels, bias, control, order,
                 averaging, integration, repeats, delay, range, derating, node);
@@ -536,7 +536,7 @@ final class SequenceReader {
     private record Limit(String key, double value) {
     }
 
-    private static void checkLimit(YamlNode node, String step, String what, Sweep sweep, String rms, Limit limit) {
+    private static void checkLimit(YamlNode node, String step, String what, AxisValues sweep, String rms, Limit limit) {
         double worst = sweep.maxAbs();
         if (worst > limit.value()) {
             throw node.error(step + ": " + what + " " + Units.format(worst, sweep.unit()) + rms + " exceeds safety "
@@ -732,7 +732,7 @@ final class SequenceReader {
     }
 
     /** The value of {@code node} in {@code sweep}'s unit, which must be one of the step's values of that axis. */
-    private static double valueOf(YamlNode node, Sweep sweep, String what, StepSpec step) {
+    private static double valueOf(YamlNode node, AxisValues sweep, String what, StepSpec step) {
         double v = Units.parse(node, sweep.unit(), Unit.Bound.ANY);
         double nearest = Double.NaN;
         for (double x : sweep.values()) {
@@ -758,7 +758,7 @@ final class SequenceReader {
     }
 
     /** A step's {@code derating} list: whole percentages, each once, returned ascending. */
-    private static List<Integer> deratingDrops(YamlNode node, Sweep bias, String step) {
+    private static List<Integer> deratingDrops(YamlNode node, AxisValues bias, String step) {
         if (bias == null || bias.values().size() < 2) {
             throw node.error("derating needs a bias sweep; " + step + " has " + (bias == null ? "no bias"
                     : "one bias value"));

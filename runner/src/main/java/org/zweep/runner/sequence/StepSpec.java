@@ -27,8 +27,8 @@ import org.zweep.runner.plan.Wiring;
  * @param deratingDrops the drops (whole percentages) the analysis reports for the bias sweep; empty for the defaults
  * @param node the step's mapping, for complaints
  */
-record StepSpec(String name, String prompt, MeasuredQuantity quantity, Wiring wiring, Sweep frequencies,
-        Sweep levels, Sweep bias, BiasControl biasControl, List<Axis> order, int averaging, double integrationTimeS,
+record StepSpec(String name, String prompt, MeasuredQuantity quantity, Wiring wiring, AxisValues frequencies,
+        AxisValues levels, AxisValues bias, BiasControl biasControl, List<Axis> order, int averaging, double integrationTimeS,
         int repeats, double delayS, ImpedanceRange range, List<Integer> deratingDrops, YamlNode node) {
 
     /** The nested axes of a step. */

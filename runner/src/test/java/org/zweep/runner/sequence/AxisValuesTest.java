@@ -9,7 +9,7 @@ import org.junit.jupiter.api.io.TempDir;
 import org.zweep.runner.plan.Plan;
 import org.zweep.runner.plan.PlannedPoint;
 
-class SweepTest {
+class AxisValuesTest {
     @TempDir
     Path dir;
 

@@ -14,7 +14,7 @@ import org.zweep.driver.impedance.Unit;
  * @param unit the unit they were given in (hertz, or volt or ampere for a source)
  * @param node where they were given, for later complaints
  */
-record Sweep(List<Double> values, Unit unit, YamlNode node) {
+record AxisValues(List<Double> values, Unit unit, YamlNode node) {
     /** The most values one axis may hold. */
     static final int MAX_VALUES = 100_000;
 
@@ -45,12 +45,12 @@ record Sweep(List<Double> values, Unit unit, YamlNode node) {
         }
     }
 
-    Sweep {
+    AxisValues {
         values = List.copyOf(values);
     }
 
     /** Reads an axis given as a value, a list or a range mapping. */
-    static Sweep read(YamlNode node, Kind kind) {
+    static AxisValues read(YamlNode node, Kind kind) {
         if (node.isMap()) {
             return range(node.map(kind.noun + " sweep", RANGE_KEYS), kind);
         }
@@ -69,14 +69,14 @@ record Sweep(List<Double> values, Unit unit, YamlNode node) {
                 unit = v.unit();
                 values.add(v.si());
             }
-            return new Sweep(values, unit, node);
+            return new AxisValues(values, unit, node);
         }
         Units.Value v = kind.value(node, null);
-        return new Sweep(List.of(v.si()), v.unit(), node);
+        return new AxisValues(List.of(v.si()), v.unit(), node);
     }
 
     /** Reads a {@code {start, stop, points | per_decade, spacing}} mapping already checked for its keys. */
-    static Sweep range(YamlNode.YamlMap m, Kind kind) {
+    static AxisValues range(YamlNode.YamlMap m, Kind kind) {
         YamlNode startNode = m.required("start");
         Units.Value start = kind.value(startNode, null);
         YamlNode stopNode = m.required("stop");
@@ -136,7 +136,7 @@ record Sweep(List<Double> values, Unit unit, YamlNode node) {
                 values.add(i == points - 1 ? stop.si() : Units.round(v));
             }
         }
-        return new Sweep(values, start.unit(), m.self());
+        return new AxisValues(values, start.unit(), m.self());
     }
 
     private static void checkLogStart(YamlNode startNode, Units.Value start) {
