@@ -98,7 +98,8 @@ public final class AnalyzeCommand implements Callable<Integer> {
             for (Derating d : s.derating()) {
                 List<String> drops = new ArrayList<>();
                 d.drops().forEach((pct, at) -> drops.add(at == null ? "never falls by " + pct + " %"
-                        : pct + " % drop at " + Figures.format(at, Figures.unit(d.biasMode()))));
+                        : pct + " % drop at " + Figures.format(at, Figures.unit(d.biasMode()))
+                                + plusMinus(d.dropsU().get(pct), Figures.unit(d.biasMode()))));
                 out.println("  derating at " + Figures.format(d.frequencyHz(), Unit.HERTZ) + ": " + String.join(", ", drops));
             }
         }

@@ -244,7 +244,10 @@ public final class HtmlReport {
             for (Derating d : s.derating()) {
                 List<Drop> rows = new ArrayList<>();
                 d.drops().forEach((pct, at) -> rows.add(new Drop(pct + " %",
-                        at == null ? "not reached" : Figures.format(at, Figures.unit(d.biasMode()), 5))));
+                        at == null ? "not reached" : Figures.format(at, Figures.unit(d.biasMode()), 5)
+                                + (Double.isFinite(d.dropsU().get(pct))
+                                        ? " ± " + Figures.format(d.dropsU().get(pct), Figures.unit(d.biasMode()), 2)
+                                        : ""))));
                 out.add(new DeratingTable(s.name() + " at " + Figures.format(d.frequencyHz(), Unit.HERTZ), rows,
                         d.notes()));
             }
