@@ -285,7 +285,7 @@ public final class HtmlReport {
     }
 
     /** The SVG element without namespace declarations (not needed inline in HTML; keeps the page free of URLs). */
-    static String inlineSvg(String svg) {
+    public static String inlineSvg(String svg) {
         return svg.replaceAll("\\s+xmlns(:[A-Za-z]+)?=(\"[^\"]*\"|'[^']*')", "")
                 .replaceAll("\\s+jfreesvg:[A-Za-z]+=(\"[^\"]*\"|'[^']*')", "");
     }
