@@ -160,7 +160,7 @@ public final class Analysis {
                         s.frequencies()));
             }
             fits.add(new StepResult.SweepFit(s, fitted.hasUncertainties()
-                    ? EquivalentCircuitFit.fitWeighted(model, fitted.uncertainties())
+                    ? EquivalentCircuitFit.fitWeighted(model, fitted.uncertainties(), commonError(run))
                     : EquivalentCircuitFit.fit(model, fitted.points())));
         }
         if (data.noValue() > 0) {
@@ -175,6 +175,12 @@ public final class Analysis {
                     biases, values, us, dropsFor(run, data.name(), column)));
         }
         return new StepResult(data.name(), data.index(), fits, derating, data.repeats(), notes);
+    }
+
+    /** The error common to every point of the run: its load standard's stated uncertainty, if any. */
+    static CommonError commonError(RunData run) {
+        RunManifest.CompensationInfo c = run.manifest().compensation();
+        return c == null || c.load() == null ? CommonError.NONE : CommonError.ofLoadStandard(c.load().stated());
     }
 
     private static double nominalTurns(RunManifest m) {
