@@ -343,7 +343,7 @@ final class RunLauncher {
                         width == null ? () -> 0 : width::columns);
         org.zweep.runner.live.EventLog events = org.zweep.runner.live.EventLog.open(folder.dir(), Clock.systemUTC());
         ProgressListener shown = new org.zweep.runner.live.EventRecorder(events, console,
-                Analysis.mainParameter(plan.part().kind().name().toLowerCase(Locale.ROOT)), plan.name());
+                Analysis.mainParameter(plan.part().kind()), plan.name());
         ProgressListener progress = resuming ? shown : announcingFolder(folder, shown);
         org.zweep.runner.live.LiveServer server = null;
         boolean ended = false;
