@@ -360,13 +360,16 @@ final class RunLauncher {
                     interruption);
             FixturePort fixture = o.fixture().port(link, livePrompter, out, progress::note);
             Clock clock = Clock.systemUTC();
-            RunSession session = new RunSession(plan, link, new RunSession.Setup(folder, resuming, sequenceFile,
-                    plan.meter().dialect(), noiseSeed, ReconnectPolicy.DEFAULT.withBudgetS(o.reconnectBudget().toMillis() / 1000.0), fixture,
-                    progress, interruption,
-                    (station, res, log) -> CompensationWorkflow.prepare(plan, station, folder, res, clock, log),
-                    f -> Analysis.sweepFigures(RunData.read(f.dir())), clock, VersionProvider.version()));
+            RunSession session = new RunSession(plan, link, RunSession.Setup.builder(folder).resuming(resuming)
+                    .sequenceFile(sequenceFile).dialect(plan.meter().dialect()).seed(noiseSeed)
+                    .reconnect(ReconnectPolicy.DEFAULT.withBudgetS(o.reconnectBudget().toMillis() / 1000.0))
+                    .fixture(fixture).progress(progress).interruption(interruption)
+                    .compensation((station, res, log) -> CompensationWorkflow.prepare(plan, station, folder, res, clock,
+                            log))
+                    .sweepChecks(f -> Analysis.sweepFigures(RunData.read(f.dir()))).clock(clock)
+                    .version(VersionProvider.version()).build());
             RunSession.Summary s;
-            BiasGuard guard = startGuard(plan.meter().address(), folder);
+            BiasGuard guard = appliesBias(plan) ? startGuard(plan.meter().address(), folder) : null;
             if (guard != null) {
                 session.watchBias(guard);
             }
@@ -420,6 +423,11 @@ final class RunLauncher {
         }
         out.flush();
         err.flush();
+    }
+
+    /** Whether any point of {@code plan} has DC bias on: a plan without bias needs no guard process. */
+    static boolean appliesBias(Plan plan) {
+        return plan.points().stream().anyMatch(p -> p.setting().bias().on());
     }
 
     /**
@@ -566,8 +574,7 @@ final class RunLauncher {
                 dialect != null ? dialect : plan.meter().dialect());
         Address.parse(m.address());
         Dialect.load(m.dialect());
-        return new Plan(plan.name(), plan.source(), m, plan.safety(), plan.fixture(), plan.part(), plan.steps(),
-                plan.checks());
+        return plan.toBuilder().meter(m).build();
     }
 
     /** Copies a dialect file that lies under the sequence's folder to the same place in the run folder. */

@@ -42,14 +42,17 @@ final class TestPlans {
     }
 
     static Plan plan(List<PlannedStep> steps, List<CheckLimit> checks) {
-        return new Plan("test", Path.of("test.yaml"), new MeterChoice("fake:bench", "standard"), LIMITS,
-                new FixturePlan(TerminalConfiguration.FOUR_TERMINAL, CompensationMode.NONE, List.of(), null, Duration.ZERO, null),
-                new Part(PartKind.CAPACITOR, "KP-C0805-104", 100e-9, 10.0, Double.NaN), steps, checks);
+        return Plan.builder().name("test").source(Path.of("test.yaml")).meter(new MeterChoice("fake:bench", "standard"))
+                .safety(LIMITS)
+                .fixture(new FixturePlan(TerminalConfiguration.FOUR_TERMINAL, CompensationMode.NONE, List.of(), null,
+                        Duration.ZERO, null))
+                .part(new Part(PartKind.CAPACITOR, "KP-C0805-104", 100e-9, 10.0, Double.NaN)).steps(steps).checks(checks)
+                .build();
     }
 
     /** A frequency sweep of 5 points plus a bias step of 3 x 2 points with a 1 V/s ramp and 0.5 s settle. */
     static Plan capacitor() {
-        PlannedStep sweep = step(0, 0, "sweep", "fit the part", BiasControl.NONE, new double[] {0},
+        PlannedStep sweep = step(0, 0, "sweep", "insert the part", BiasControl.NONE, new double[] {0},
                 100, 1000, 10_000, 100_000, 1e6);
         PlannedStep bias = step(1, 5, "bias", "", new BiasControl(1.0, 0.5), new double[] {0, 2, 5}, 1000, 10_000);
         return plan(List.of(sweep, bias), List.of(
