@@ -229,6 +229,15 @@ class LotIT {
         assertEquals(2, c.get("lots").size());
         assertEquals(2, c.get("checks").size());
         for (JsonNode row : c.get("checks")) {
+            // the mean and the sample standard deviation (n − 1) of the lot table's column, computed here
+            // (common practice, no source)
+            List<Double> v = table(ref).column("check." + row.get("name").asText()).stream().map(Double::parseDouble)
+                    .toList();
+            double mean = v.stream().mapToDouble(Double::doubleValue).sum() / v.size();
+            double ss = v.stream().mapToDouble(x -> (x - mean) * (x - mean)).sum();
+            assertEquals(mean, row.at("/mean/0").asDouble(), Math.abs(mean) * 1e-12, row.toString());
+            assertEquals(Math.sqrt(ss / (v.size() - 1)), row.at("/sigma/0").asDouble(), Math.abs(mean) * 1e-12);
+            assertEquals(v.size(), row.at("/n/0").asInt());
             assertEquals(0.0, row.at("/mean_difference/1").asDouble(), 0.0, row.toString());
             assertEquals(row.at("/mean/0").asDouble(), row.at("/mean/1").asDouble(), 0.0);
         }
