@@ -1,7 +1,5 @@
 package org.zweep.runner.cli;
 
-import com.fasterxml.jackson.databind.node.ArrayNode;
-import com.fasterxml.jackson.databind.node.ObjectNode;
 import java.io.IOException;
 import java.io.PrintWriter;
 import java.io.UncheckedIOException;
@@ -19,8 +17,10 @@ import org.zweep.runner.analysis.StepResult;
 import org.zweep.runner.analysis.Sweep;
 import org.zweep.runner.compare.Comparison;
 import org.zweep.runner.plot.Charts;
+import org.zweep.runner.results.Json;
 import org.zweep.runner.plot.Plots;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
@@ -41,8 +41,8 @@ public final class CompareCommand implements Callable<Integer> {
     @Parameters(arity = "2..*", paramLabel = "RUN", description = "run folders, or lot folders; the first is the reference")
     List<Path> folders;
 
-    @Option(names = "--json", description = "the comparison as JSON")
-    boolean json;
+    @Mixin
+    JsonOption json;
 
     @Option(names = "--plots", paramLabel = "DIR", description = "write overlaid plots (PNG and SVG) into DIR")
     Path plots;
@@ -62,36 +62,21 @@ public final class CompareCommand implements Callable<Integer> {
         Comparison c = Comparison.of(folders);
         List<Path> written = plots == null ? List.of() : plot(c, plots);
         PrintWriter out = spec.commandLine().getOut();
-        if (json) {
-            ObjectNode root = RunsCommand.JSON.createObjectNode();
-            ArrayNode runs = root.putArray("runs");
-            for (Comparison.Run r : c.runs()) {
-                ObjectNode n = runs.addObject();
-                n.put("folder", r.folder().toString());
-                n.put("label", r.label());
-                n.put("run_id", r.manifest().id());
-                n.put("serial", r.manifest().identityOrNone().serial());
-                n.put("lot", r.manifest().identityOrNone().lot());
-                n.put("verdict", r.manifest().verdict());
-            }
-            ArrayNode rows = root.putArray("rows");
+        if (json.on()) {
+            List<RunJson> runs = c.runs().stream().map(r -> new RunJson(r.folder().toString(), r.label(),
+                    r.manifest().id(), r.manifest().identityOrNone().serial(), r.manifest().identityOrNone().lot(),
+                    r.manifest().verdict())).toList();
+            List<RowJson> rows = new ArrayList<>();
             for (Comparison.Row row : c.rows()) {
-                ObjectNode n = rows.addObject();
-                n.put("kind", row.kind());
-                n.put("name", row.name());
-                n.put("parameter", row.parameter());
-                ArrayNode v = n.putArray("values");
-                ArrayNode d = n.putArray("differences");
-                ArrayNode rel = n.putArray("relative");
+                List<Double> d = new ArrayList<>();
+                List<Double> rel = new ArrayList<>();
                 for (int i = 0; i < row.values().size(); i++) {
-                    add(v, row.values().get(i));
-                    add(d, row.difference(i));
-                    add(rel, row.relative(i));
+                    d.add(row.difference(i));
+                    rel.add(row.relative(i));
                 }
+                rows.add(new RowJson(row.kind(), row.name(), row.parameter(), row.values(), d, rel));
             }
-            ArrayNode p = root.putArray("plots");
-            written.forEach(f -> p.add(f.toString()));
-            out.println(RunsCommand.JSON.writeValueAsString(root));
+            out.print(Json.text(new CompareJson(runs, rows, written.stream().map(Path::toString).toList())));
             return ExitCode.OK;
         }
         for (int i = 0; i < c.runs().size(); i++) {
@@ -127,52 +112,31 @@ public final class CompareCommand implements Callable<Integer> {
 
     /** Lots side by side: per check, each lot's figures and the difference of each mean from the first lot's. */
     private int compareLots(org.zweep.runner.lot.LotComparison c, PrintWriter out) throws Exception {
-        if (json) {
-            ObjectNode root = RunsCommand.JSON.createObjectNode();
-            ArrayNode lots = root.putArray("lots");
-            for (var l : c.lots()) {
-                ObjectNode n = lots.addObject();
-                n.put("folder", l.folder().toString());
-                n.put("lot", l.table().lot());
-                n.put("parts", l.table().parts().size());
-                n.put("completed", l.table().completed());
-                n.put("passed", l.table().passed());
-                n.put("failed", l.table().failed());
-                if (Double.isFinite(l.table().yield())) {
-                    n.put("yield", l.table().yield());
-                } else {
-                    n.putNull("yield");
-                }
-            }
-            ArrayNode checks = root.putArray("checks");
+        if (json.on()) {
+            List<LotJson> lots = c.lots().stream().map(l -> new LotJson(l.folder().toString(), l.table().lot(),
+                    l.table().parts().size(), l.table().completed(), l.table().passed(), l.table().failed(),
+                    l.table().yield())).toList();
+            List<LotCheckJson> checks = new ArrayList<>();
             for (var row : c.checks()) {
-                ObjectNode n = checks.addObject();
-                n.put("name", row.name());
-                n.put("parameter", row.parameter());
-                ArrayNode count = n.putArray("n");
-                ArrayNode passed = n.putArray("passed");
-                ArrayNode mean = n.putArray("mean");
-                ArrayNode sigma = n.putArray("sigma");
-                ArrayNode lowest = n.putArray("lowest");
-                ArrayNode highest = n.putArray("highest");
-                ArrayNode cpk = n.putArray("cpk");
-                ArrayNode diff = n.putArray("mean_difference");
-                ArrayNode rel = n.putArray("mean_relative");
+                LotCheckJson n = new LotCheckJson(row.name(), row.parameter(), new ArrayList<>(), new ArrayList<>(),
+                        new ArrayList<>(), new ArrayList<>(), new ArrayList<>(), new ArrayList<>(), new ArrayList<>(),
+                        new ArrayList<>(), new ArrayList<>());
                 for (int i = 0; i < c.lots().size(); i++) {
                     var s = row.stats().get(i);
                     var cap = row.capability(i);
-                    count.add(cap.n());
-                    passed.add(s == null ? 0 : s.passed());
-                    add(mean, cap.mean());
-                    add(sigma, cap.sigma());
-                    add(lowest, s == null ? Double.NaN : s.lowest());
-                    add(highest, s == null ? Double.NaN : s.highest());
-                    add(cpk, cap.cpk());
-                    add(diff, row.meanDifference(i));
-                    add(rel, row.meanRelative(i));
+                    n.n().add(cap.n());
+                    n.passed().add(s == null ? 0 : s.passed());
+                    n.mean().add(cap.mean());
+                    n.sigma().add(cap.sigma());
+                    n.lowest().add(s == null ? Double.NaN : s.lowest());
+                    n.highest().add(s == null ? Double.NaN : s.highest());
+                    n.cpk().add(cap.cpk());
+                    n.meanDifference().add(row.meanDifference(i));
+                    n.meanRelative().add(row.meanRelative(i));
                 }
+                checks.add(n);
             }
-            out.println(RunsCommand.JSON.writeValueAsString(root));
+            out.print(Json.text(new LotsJson(lots, checks)));
             return ExitCode.OK;
         }
         for (int i = 0; i < c.lots().size(); i++) {
@@ -247,12 +211,31 @@ public final class CompareCommand implements Callable<Integer> {
         return written;
     }
 
-    private static void add(ArrayNode a, double v) {
-        if (Double.isFinite(v)) {
-            a.add(v);
-        } else {
-            a.addNull();
-        }
+    /** {@code zweep compare --json}: the runs, one row per compared quantity, the plots written. */
+    record CompareJson(List<RunJson> runs, List<RowJson> rows, List<String> plots) {
+    }
+
+    /** {@code zweep compare --json} on lot folders. */
+    record LotsJson(List<LotJson> lots, List<LotCheckJson> checks) {
+    }
+
+    /** One lot's counts and yield. */
+    record LotJson(String folder, String lot, int parts, long completed, long passed, long failed, double yield) {
+    }
+
+    /** One check across the lots: each lot's figures, and each mean's difference from the first lot's. */
+    record LotCheckJson(String name, String parameter, List<Integer> n, List<Integer> passed, List<Double> mean,
+            List<Double> sigma, List<Double> lowest, List<Double> highest, List<Double> cpk,
+            List<Double> meanDifference, List<Double> meanRelative) {
+    }
+
+    /** One compared run. */
+    record RunJson(String folder, String label, String runId, String serial, String lot, String verdict) {
+    }
+
+    /** One quantity: its value in each run, and each run's difference and relative change from the first. */
+    record RowJson(String kind, String name, String parameter, List<Double> values, List<Double> differences,
+            List<Double> relative) {
     }
 
     private static String clip(String s, int n) {

@@ -251,7 +251,7 @@ public final class RunSession {
         return RunManifest.builder()
                 .sequence(new RunManifest.SequenceInfo(plan.name(), sequenceFile, RunFolder.sha256(folder.sequenceCopy()),
                         RunFolder.SEQUENCE_COPY))
-                .part(new RunManifest.PartInfo(p.kind().name().toLowerCase(Locale.ROOT), p.name(), finite(p.nominal()),
+                .part(new RunManifest.PartInfo(p.kind().word(), p.name(), finite(p.nominal()),
                         p.nominalUnit(), finite(p.tolerancePercent()), finite(p.turnsRatio())))
                 .steps(steps).checks(checks).meter(meter)
                 .compensation(new RunManifest.CompensationInfo("none", List.of(), null))

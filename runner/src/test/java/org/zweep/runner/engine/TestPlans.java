@@ -13,7 +13,7 @@ import org.zweep.runner.plan.TerminalConfiguration;
 import org.zweep.runner.plan.FixturePlan;
 import org.zweep.runner.plan.MeterChoice;
 import org.zweep.runner.plan.Part;
-import org.zweep.runner.plan.PartKind;
+import org.zweep.driver.impedance.PartKind;
 import org.zweep.runner.plan.Plan;
 import org.zweep.runner.plan.PlannedPoint;
 import org.zweep.runner.plan.PlannedStep;
