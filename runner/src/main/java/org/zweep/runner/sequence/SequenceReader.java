@@ -149,7 +149,8 @@ final class SequenceReader {
         if (meterCheck != null) {
             checkMeter(specs, steps, Dialect.load(meterCheck.isEmpty() ? meter.dialect() : meterCheck));
         }
-        return new Plan(name, source, meter, safety, fixture, part, steps, checks);
+        return Plan.builder().name(name).source(source).meter(meter).safety(safety).fixture(fixture).part(part)
+                .steps(steps).checks(checks).build();
     }
 
     /**
