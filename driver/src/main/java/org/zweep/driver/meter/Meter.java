@@ -55,7 +55,7 @@ public interface Meter extends AutoCloseable {
      */
     List<Reading> measureList(List<MeasurementSetting> settings);
 
-    /** Tells the meter to acquire a fixture-correction standard now fitted to the fixture. */
+    /** Tells the meter to acquire a fixture-correction standard now inserted in the fixture. */
     void acquireCorrection(CorrectionStandard standard);
 
     /** Tells the meter the known impedance of its load standard (used by {@link CorrectionStandard#LOAD}). */

@@ -153,12 +153,12 @@ public final class Station {
     }
 
     /** What an operator is told to bring about {@code state} when the sequence says nothing. */
-    static String standardInstruction(FixtureState state) {
+    public static String standardInstruction(FixtureState state) {
         return switch (state) {
             case PART -> "put the part back into the fixture";
-            case OPEN -> "OPEN standard: leave the fixture's terminals open (nothing fitted)";
-            case SHORT -> "SHORT standard: fit the shorting bar across the fixture's terminals";
-            case LOAD -> "LOAD standard: fit the known load standard";
+            case OPEN -> "OPEN standard: leave the fixture's terminals open (nothing inserted)";
+            case SHORT -> "SHORT standard: insert the shorting bar across the fixture's terminals";
+            case LOAD -> "LOAD standard: insert the known load standard";
             case SECONDARY_OPEN -> "leave the second winding open";
             case SECONDARY_SHORTED -> "short the second winding";
         };
@@ -237,7 +237,7 @@ public final class Station {
         });
     }
 
-    /** Tells the meter to acquire {@code standard} now fitted. */
+    /** Tells the meter to acquire {@code standard} now inserted. */
     public void acquireCorrection(CorrectionStandard standard) {
         withRetry("acquiring the " + standard + " correction", () -> {
             link.meter().acquireCorrection(standard);
