@@ -153,12 +153,12 @@ public final class Station {
     }
 
     /** What an operator is told to bring about {@code state} when the sequence says nothing. */
-    static String standardInstruction(FixtureState state) {
+    public static String standardInstruction(FixtureState state) {
         return switch (state) {
             case PART -> "put the part back into the fixture";
-            case OPEN -> "OPEN standard: leave the fixture's terminals open (nothing fitted)";
-            case SHORT -> "SHORT standard: fit the shorting bar across the fixture's terminals";
-            case LOAD -> "LOAD standard: fit the known load standard";
+            case OPEN -> "OPEN standard: leave the fixture's terminals open (nothing inserted)";
+            case SHORT -> "SHORT standard: insert the shorting bar across the fixture's terminals";
+            case LOAD -> "LOAD standard: insert the known load standard";
             case SECONDARY_OPEN -> "leave the second winding open";
             case SECONDARY_SHORTED -> "short the second winding";
         };
@@ -195,8 +195,12 @@ public final class Station {
      * triggers and reads.
      */
     public Reading measure(MeasurementSetting s, BiasControl bias, double delayS) {
-        guard.check(s, "setting at " + org.zweep.runner.safety.SafetyGuard.human(s.frequencyHz(), "Hz"));
-        return withRetry("measuring at " + org.zweep.runner.safety.SafetyGuard.human(s.frequencyHz(), "Hz"), () -> {
+        check(s);
+        return withRetry(() -> "measuring at " + org.zweep.runner.safety.SafetyGuard.human(s.frequencyHz(), "Hz"), () -> {
+            if (delayS <= 0 && holdsBias(s.bias())) {
+                // nothing to wait for between setting and trigger: one message where the meter allows
+                return applyAndMeasure(s);
+            }
             moveTo(s, bias);
             waiter.waitS(delayS);
             return link.meter().measure();
@@ -206,7 +210,7 @@ public final class Station {
     /** Measures a list of settings that differ only in frequency with the meter's list sweep. */
     public List<Reading> measureList(List<MeasurementSetting> settings, BiasControl bias) {
         for (MeasurementSetting s : settings) {
-            guard.check(s, "setting at " + org.zweep.runner.safety.SafetyGuard.human(s.frequencyHz(), "Hz"));
+            check(s);
         }
         return withRetry("measuring a list of " + settings.size() + " points", () -> {
             moveTo(settings.get(0), bias);
@@ -237,7 +241,7 @@ public final class Station {
         });
     }
 
-    /** Tells the meter to acquire {@code standard} now fitted. */
+    /** Tells the meter to acquire {@code standard} now inserted. */
     public void acquireCorrection(CorrectionStandard standard) {
         withRetry("acquiring the " + standard + " correction", () -> {
             link.meter().acquireCorrection(standard);
@@ -437,8 +441,35 @@ public final class Station {
         return Math.abs(a - b) <= 1e-6 * Math.max(1.0, Math.abs(b));
     }
 
+    /** Refuses {@code s} when it is outside the safety limits, naming it; nothing is formatted when it is within. */
+    private void check(MeasurementSetting s) {
+        if (guard.problem(s) != null) {
+            guard.check(s, "setting at " + org.zweep.runner.safety.SafetyGuard.human(s.frequencyHz(), "Hz"));
+        }
+    }
+
+    /** Whether {@code b} is what the meter holds now: no ramp, no settling before measuring at it. */
+    private boolean holdsBias(Bias b) {
+        return !b.on() && !applied.on()
+                || b.on() && applied.on() && b.mode() == applied.mode() && b.value() == applied.value();
+    }
+
+    /** As {@link #apply} then measuring, in one exchange where the meter allows. */
+    private Reading applyAndMeasure(MeasurementSetting s) {
+        check(s);
+        sending = s.bias();
+        if (s.bias().on() || applied.on()) {
+            biasWatcher.applying(s, rampControl.rampPerS());
+        }
+        Reading r = link.meter().measureAt(s);
+        lastSetting = s;
+        applied = s.bias();
+        acceptedThisAttempt++;
+        return r;
+    }
+
     private void apply(MeasurementSetting s) {
-        guard.check(s, "setting at " + org.zweep.runner.safety.SafetyGuard.human(s.frequencyHz(), "Hz"));
+        check(s);
         sending = s.bias();
         if (s.bias().on() || applied.on()) {
             biasWatcher.applying(s, rampControl.rampPerS());
@@ -450,6 +481,11 @@ public final class Station {
     }
 
     private <T> T withRetry(String what, Supplier<T> op) {
+        return withRetry(() -> what, op);
+    }
+
+    /** As above, with the description made only when it is needed (a point's hot path). */
+    private <T> T withRetry(Supplier<String> what, Supplier<T> op) {
         while (true) {
             acceptedThisAttempt = 0;
             try {
@@ -470,7 +506,7 @@ public final class Station {
                     budgetAttempts = 0;
                     budgetWaitedS = 0.0;
                 }
-                recover(what, e);
+                recover(what.get(), e);
             }
         }
     }
