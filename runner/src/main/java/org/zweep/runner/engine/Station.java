@@ -245,6 +245,26 @@ public final class Station {
         });
     }
 
+    /**
+     * Tells the meter to acquire {@code standard} now fitted at each of {@code settings} (checked
+     * against the safety limits; bias off, brought down first at the rate it went up), in one list
+     * message where its dialect allows (see {@link Meter#acquireCorrection(CorrectionStandard, List)}).
+     */
+    public void acquireCorrection(CorrectionStandard standard, List<MeasurementSetting> settings) {
+        for (MeasurementSetting s : settings) {
+            if (s.bias().on()) {
+                throw new IllegalArgumentException("a correction standard is acquired with bias off");
+            }
+            guard.check(s, "setting at " + org.zweep.runner.safety.SafetyGuard.human(s.frequencyHz(), "Hz"));
+        }
+        rampBiasOff(BiasControl.NONE);
+        withRetry("acquiring the " + standard + " correction at " + settings.size() + " frequencies", () -> {
+            link.meter().acquireCorrection(standard, settings);
+            lastSetting = settings.get(settings.size() - 1);
+            return null;
+        });
+    }
+
     /** Tells the meter its load standard's value. */
     public void setLoadStandard(Impedance known) {
         withRetry("setting the load standard", () -> {
