@@ -33,7 +33,7 @@ import org.zweep.runner.plan.CheckLimit;
 import org.zweep.runner.plan.CompensationMode;
 import org.zweep.runner.plan.TerminalConfiguration;
 import org.zweep.runner.plan.FixturePlan;
-import org.zweep.runner.plan.MeterSpec;
+import org.zweep.runner.plan.MeterChoice;
 import org.zweep.runner.plan.Part;
 import org.zweep.runner.plan.PartKind;
 import org.zweep.runner.plan.Plan;
@@ -72,7 +72,7 @@ public class RunnerOverheadBenchmark {
         for (int i = 0; i < POINTS; i++) {
             pts.add(new PlannedPoint(i, 0, 0, MeasurementSetting.at(100 + i * 1000.0), Wiring.NONE, 0.0));
         }
-        plan = new Plan("overhead", Path.of("overhead.yaml"), new MeterSpec("instant:", "standard"),
+        plan = new Plan("overhead", Path.of("overhead.yaml"), new MeterChoice("instant:", "standard"),
                 new SafetyLimits(10, 1, 2, 0.1),
                 new FixturePlan(TerminalConfiguration.FOUR_TERMINAL, CompensationMode.NONE, List.of(), null, Duration.ZERO, null),
                 new Part(PartKind.CAPACITOR, "", 100e-9, 10, Double.NaN),

@@ -40,7 +40,7 @@ import org.zweep.runner.engine.ScpiMeterLink;
 import org.zweep.runner.plan.CheckLimit;
 import org.zweep.runner.text.Figures;
 import org.zweep.runner.verdict.CheckText;
-import org.zweep.runner.plan.MeterSpec;
+import org.zweep.runner.plan.MeterChoice;
 import org.zweep.runner.plan.Plan;
 import org.zweep.runner.results.FolderLock;
 import org.zweep.runner.results.RunFolder;
@@ -480,7 +480,7 @@ final class RunLauncher {
         if (meter == null && dialect == null) {
             return plan;
         }
-        MeterSpec m = new MeterSpec(meter != null ? meter : plan.meter().address(),
+        MeterChoice m = new MeterChoice(meter != null ? meter : plan.meter().address(),
                 dialect != null ? dialect : plan.meter().dialect());
         Address.parse(m.address());
         Dialect.load(m.dialect());

@@ -16,7 +16,7 @@ import java.util.List;
  * @param steps the steps in order
  * @param checks pass/fail limits
  */
-public record Plan(String name, Path source, MeterSpec meter, SafetyLimits safety, FixturePlan fixture, Part part,
+public record Plan(String name, Path source, MeterChoice meter, SafetyLimits safety, FixturePlan fixture, Part part,
         List<PlannedStep> steps, List<CheckLimit> checks) {
     public Plan {
         steps = List.copyOf(steps);

@@ -32,7 +32,7 @@ import org.zweep.runner.plan.CheckLimit;
 import org.zweep.runner.plan.CompensationMode;
 import org.zweep.runner.plan.TerminalConfiguration;
 import org.zweep.runner.plan.FixturePlan;
-import org.zweep.runner.plan.MeterSpec;
+import org.zweep.runner.plan.MeterChoice;
 import org.zweep.runner.plan.Part;
 import org.zweep.runner.plan.PartKind;
 import org.zweep.runner.plan.Plan;
@@ -135,7 +135,7 @@ final class SequenceReader {
         }
         String name = top.optional("name").map(n -> name(n, "a sequence name")).orElseGet(this::defaultName);
         top.optional("description").ifPresent(d -> d.text("a description"));
-        MeterSpec meter = meter(top.required("meter"));
+        MeterChoice meter = meter(top.required("meter"));
         SafetyLimits safety = safety(top.required("safety"));
         FixturePlan fixture = top.optional("fixture").map(this::fixture)
                 .orElse(new FixturePlan(TerminalConfiguration.TWO_TERMINAL, CompensationMode.NONE, List.of(), null,
@@ -194,7 +194,7 @@ final class SequenceReader {
 
     // ---- meter ----
 
-    private MeterSpec meter(YamlNode node) {
+    private MeterChoice meter(YamlNode node) {
         YamlNode.YamlMap m = node.map("meter", METER_KEYS);
         String dialect = m.optional("dialect").map(this::dialect).orElse(DEFAULT_DIALECT);
         Optional<YamlNode> address = m.optional("address");
@@ -203,7 +203,7 @@ final class SequenceReader {
             throw bench.get().error("give either address or bench, not both");
         }
         if (bench.isPresent()) {
-            return new MeterSpec("sim:" + benchFile(bench.get(), bench.get().text("a bench file")), dialect);
+            return new MeterChoice("sim:" + benchFile(bench.get(), bench.get().text("a bench file")), dialect);
         }
         if (address.isEmpty()) {
             throw node.error("missing key 'address' or 'bench' in meter");
@@ -217,7 +217,7 @@ final class SequenceReader {
         } catch (InvalidInputException e) {
             throw address.get().error(e.getMessage());
         }
-        return new MeterSpec(a, dialect);
+        return new MeterChoice(a, dialect);
     }
 
     /**

@@ -11,7 +11,7 @@ import org.zweep.runner.plan.CheckLimit;
 import org.zweep.runner.plan.CompensationMode;
 import org.zweep.runner.plan.TerminalConfiguration;
 import org.zweep.runner.plan.FixturePlan;
-import org.zweep.runner.plan.MeterSpec;
+import org.zweep.runner.plan.MeterChoice;
 import org.zweep.runner.plan.Part;
 import org.zweep.runner.plan.PartKind;
 import org.zweep.runner.plan.Plan;
@@ -42,7 +42,7 @@ final class TestPlans {
     }
 
     static Plan plan(List<PlannedStep> steps, List<CheckLimit> checks) {
-        return new Plan("test", Path.of("test.yaml"), new MeterSpec("fake:bench", "standard"), LIMITS,
+        return new Plan("test", Path.of("test.yaml"), new MeterChoice("fake:bench", "standard"), LIMITS,
                 new FixturePlan(TerminalConfiguration.FOUR_TERMINAL, CompensationMode.NONE, List.of(), null, Duration.ZERO, null),
                 new Part(PartKind.CAPACITOR, "KP-C0805-104", 100e-9, 10.0, Double.NaN), steps, checks);
     }

@@ -47,7 +47,7 @@ public final class Call {
      * suffix, or MINimum, MAXimum, DEFault (§7.2.1). Outside [{@code min}, {@code max}] it is
      * {@code -222 Data out of range}.
      */
-    public double number(int i, Unit unit, double min, double max, double def) {
+    public double number(int i, SuffixUnit unit, double min, double max, double def) {
         Param p = params.get(i);
         if (p instanceof Param.Chars c) {
             if (c.is("MINimum")) {
@@ -85,7 +85,7 @@ public final class Call {
             }
             return (long) r;
         }
-        return Math.round(number(i, Unit.NONE, min, max, def));
+        return Math.round(number(i, SuffixUnit.NONE, min, max, def));
     }
 
     /** Parameter {@code i} as a boolean: ON, OFF or an NRf rounded, non-zero meaning 1 (§7.3). */

@@ -169,7 +169,7 @@ final class MeterCommands {
      * Declares a numeric setting: {@code header} sets it (NRf with a suffix in {@code unit}, or
      * MIN/MAX/DEF; -222 outside the limits) and {@code header?} reads it (or, with MIN/MAX/DEF, a limit).
      */
-    private static void numeric(CommandTree.Builder b, Instrument in, String header, Unit unit,
+    private static void numeric(CommandTree.Builder b, Instrument in, String header, SuffixUnit unit,
             ToDoubleFunction<MeterLimits> min, ToDoubleFunction<MeterLimits> max, double def,
             ToDoubleFunction<Settings> get, ObjDoubleConsumer<Settings> set) {
         b.on(header, c -> {
@@ -203,23 +203,23 @@ final class MeterCommands {
     }
 
     private static void source(CommandTree.Builder b, Instrument in) {
-        numeric(b, in, "SOURce:FREQuency[:CW]", Unit.HERTZ, MeterLimits::minFrequencyHz, MeterLimits::maxFrequencyHz,
+        numeric(b, in, "SOURce:FREQuency[:CW]", SuffixUnit.HERTZ, MeterLimits::minFrequencyHz, MeterLimits::maxFrequencyHz,
                 Settings.DEFAULT_FREQUENCY_HZ, s -> s.frequencyHz, (s, v) -> s.frequencyHz = v);
         choice(b, in, "SOURce:FREQuency:MODE", new String[] {"CW", "LIST"}, s -> s.listMode ? 1 : 0,
                 (s, k) -> s.listMode = k == 1);
-        numeric(b, in, "SOURce:VOLTage[:LEVel][:IMMediate][:AMPLitude]", Unit.VOLT, MeterLimits::minVoltageVrms,
+        numeric(b, in, "SOURce:VOLTage[:LEVel][:IMMediate][:AMPLitude]", SuffixUnit.VOLT, MeterLimits::minVoltageVrms,
                 MeterLimits::maxVoltageVrms, Settings.DEFAULT_VOLTAGE_VRMS, s -> s.voltageVrms, (s, v) -> {
                     s.voltageVrms = v;
                     s.drive = SourceKind.VOLTAGE;
                 });
-        numeric(b, in, "SOURce:CURRent[:LEVel][:IMMediate][:AMPLitude]", Unit.AMPERE, MeterLimits::minCurrentArms,
+        numeric(b, in, "SOURce:CURRent[:LEVel][:IMMediate][:AMPLitude]", SuffixUnit.AMPERE, MeterLimits::minCurrentArms,
                 MeterLimits::maxCurrentArms, Settings.DEFAULT_CURRENT_ARMS, s -> s.currentArms, (s, v) -> {
                     s.currentArms = v;
                     s.drive = SourceKind.CURRENT;
                 });
-        numeric(b, in, "SOURce:VOLTage[:LEVel][:IMMediate]:OFFSet", Unit.VOLT, l -> -l.maxBiasVoltageV(),
+        numeric(b, in, "SOURce:VOLTage[:LEVel][:IMMediate]:OFFSet", SuffixUnit.VOLT, l -> -l.maxBiasVoltageV(),
                 MeterLimits::maxBiasVoltageV, 0, s -> s.biasVoltageV, (s, v) -> s.biasVoltageV = v);
-        numeric(b, in, "SOURce:CURRent[:LEVel][:IMMediate]:OFFSet", Unit.AMPERE, l -> -l.maxBiasCurrentA(),
+        numeric(b, in, "SOURce:CURRent[:LEVel][:IMMediate]:OFFSet", SuffixUnit.AMPERE, l -> -l.maxBiasCurrentA(),
                 MeterLimits::maxBiasCurrentA, 0, s -> s.biasCurrentA, (s, v) -> s.biasCurrentA = v);
         // one bias source: switching one kind on switches the other off
         flag(b, in, "SOURce:VOLTage[:LEVel][:IMMediate]:OFFSet:STATe", s -> s.voltageBiasOn, (s, on) -> {
@@ -230,11 +230,11 @@ final class MeterCommands {
             s.currentBiasOn = on;
             s.voltageBiasOn &= !on;
         });
-        list(b, in, "SOURce:LIST:FREQuency", Unit.HERTZ, MeterLimits::minFrequencyHz, MeterLimits::maxFrequencyHz,
+        list(b, in, "SOURce:LIST:FREQuency", SuffixUnit.HERTZ, MeterLimits::minFrequencyHz, MeterLimits::maxFrequencyHz,
                 s -> s.listFrequencyHz, (s, v) -> s.listFrequencyHz = v);
-        list(b, in, "SOURce:LIST:VOLTage", Unit.VOLT, MeterLimits::minVoltageVrms, MeterLimits::maxVoltageVrms,
+        list(b, in, "SOURce:LIST:VOLTage", SuffixUnit.VOLT, MeterLimits::minVoltageVrms, MeterLimits::maxVoltageVrms,
                 s -> s.listVoltageVrms, (s, v) -> s.listVoltageVrms = v);
-        list(b, in, "SOURce:LIST:VOLTage:OFFSet", Unit.VOLT, l -> -l.maxBiasVoltageV(), MeterLimits::maxBiasVoltageV,
+        list(b, in, "SOURce:LIST:VOLTage:OFFSet", SuffixUnit.VOLT, l -> -l.maxBiasVoltageV(), MeterLimits::maxBiasVoltageV,
                 s -> s.listBiasVoltageV, (s, v) -> s.listBiasVoltageV = v);
         b.on("SOURce:LIST:POINts?", c -> {
             c.count(0, 0);
@@ -261,7 +261,7 @@ final class MeterCommands {
      * Declares a list setting: every element in range, or -222 and nothing changes; -223 past the
      * meter's list length. The query answers the list in NR3.
      */
-    private static void list(CommandTree.Builder b, Instrument in, String header, Unit unit,
+    private static void list(CommandTree.Builder b, Instrument in, String header, SuffixUnit unit,
             ToDoubleFunction<MeterLimits> min, ToDoubleFunction<MeterLimits> max,
             Function<Settings, double[]> get, BiConsumer<Settings, double[]> set) {
         b.on(header, c -> {
@@ -291,12 +291,12 @@ final class MeterCommands {
             return null;
         });
         b.on("[SENSe:]AVERage:COUNt?", c -> nr1(Math.round(c.queryLimit(in.read(s -> s.averages), 1, Settings.MAX_AVERAGES, 1))));
-        numeric(b, in, "[SENSe:]IMPedance:APERture", Unit.SECOND, l -> Settings.MIN_APERTURE_S, l -> Settings.MAX_APERTURE_S,
+        numeric(b, in, "[SENSe:]IMPedance:APERture", SuffixUnit.SECOND, l -> Settings.MIN_APERTURE_S, l -> Settings.MAX_APERTURE_S,
                 Settings.DEFAULT_APERTURE_S, s -> s.apertureS, (s, v) -> s.apertureS = v);
         b.on("[SENSe:]IMPedance:RANGe[:UPPer]", c -> {
             c.count(1, 1);
             double[] ranges = in.limits().rangesOhm();
-            double v = c.number(0, Unit.OHM, 0, ranges[ranges.length - 1], ranges[ranges.length - 1]);
+            double v = c.number(0, SuffixUnit.OHM, 0, ranges[ranges.length - 1], ranges[ranges.length - 1]);
             // the smallest range that holds the value: rounding, not an error (SCPI-1999 §21.8 class intro)
             double chosen = ranges[ranges.length - 1];
             for (double r : ranges) {
@@ -353,9 +353,9 @@ final class MeterCommands {
             c.count(0, 0);
             return bool(in.read(s -> s.correctionOn));
         });
-        numeric(b, in, "[SENSe:]CORRection:LOAD:RESistance", Unit.OHM, l -> 0, l -> Settings.MAX_LOAD_OHM,
+        numeric(b, in, "[SENSe:]CORRection:LOAD:RESistance", SuffixUnit.OHM, l -> 0, l -> Settings.MAX_LOAD_OHM,
                 Settings.DEFAULT_LOAD_OHM, s -> s.loadResistanceOhm, (s, v) -> s.loadResistanceOhm = v);
-        numeric(b, in, "[SENSe:]CORRection:LOAD:REACtance", Unit.OHM, l -> -MAX_REACTANCE_OHM, l -> MAX_REACTANCE_OHM,
+        numeric(b, in, "[SENSe:]CORRection:LOAD:REACtance", SuffixUnit.OHM, l -> -MAX_REACTANCE_OHM, l -> MAX_REACTANCE_OHM,
                 0, s -> s.loadReactanceOhm, (s, v) -> s.loadReactanceOhm = v);
         b.on("[SENSe:]FUNCtion[:ON]", c -> {
             c.count(1, 1);

@@ -5,7 +5,7 @@ import org.zweep.simulator.scpi.Call;
 import org.zweep.simulator.scpi.CommandTree;
 import org.zweep.simulator.scpi.ScpiException;
 import org.zweep.simulator.scpi.StandardError;
-import org.zweep.simulator.scpi.Unit;
+import org.zweep.simulator.scpi.SuffixUnit;
 
 /**
  * {@code SIMulate:FAULt}: faults for the connection that sends them, counted from the message
@@ -38,7 +38,7 @@ final class FaultCommands {
         });
         b.on("SIMulate:FAULt:DROP:IDLE", c -> {
             c.count(1, 1);
-            double s = c.number(0, Unit.SECOND, 0, MAX_SECONDS, 0);
+            double s = c.number(0, SuffixUnit.SECOND, 0, MAX_SECONDS, 0);
             if (s > 0 && s < MIN_IDLE_SECONDS) {
                 throw new ScpiException(StandardError.DATA_OUT_OF_RANGE,
                         "idle time " + s + " s is below 1 ms (0 turns the fault off)");
@@ -53,7 +53,7 @@ final class FaultCommands {
         });
         b.on("SIMulate:FAULt:DROP:RANDom", c -> {
             c.count(1, 2);
-            double p = c.number(0, Unit.NONE, 0, 1, 0);
+            double p = c.number(0, SuffixUnit.NONE, 0, 1, 0);
             long seed = c.params().size() > 1 ? c.integer(1, -(1L << 53), 1L << 53, 0) : c.session().instrument().bench().seed();
             ConnectionFaults f = conn(c).faults();
             f.add(f.drawnHere(new ScheduledFault(Phase.RECEIVE, new Exchanges.Random(p, seed), new Fault.Drop())));
@@ -61,7 +61,7 @@ final class FaultCommands {
         });
         b.on("SIMulate:FAULt:DELay", c -> {
             c.count(1, 2);
-            double s = c.number(0, Unit.SECOND, 0, MAX_SECONDS, 0);
+            double s = c.number(0, SuffixUnit.SECOND, 0, MAX_SECONDS, 0);
             nextReplies(c, 1, new Fault.Delay(Duration.ofNanos(Math.round(s * 1e9))));
             return null;
         });

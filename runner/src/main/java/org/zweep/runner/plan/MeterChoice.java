@@ -6,5 +6,5 @@ package org.zweep.runner.plan;
  * @param address an address the driver accepts ({@code tcp://…}, {@code serial:…}, {@code sim:BENCH}, VISA strings)
  * @param dialect a built-in dialect name or a path to a dialect file
  */
-public record MeterSpec(String address, String dialect) {
+public record MeterChoice(String address, String dialect) {
 }

@@ -9,7 +9,7 @@ import java.util.Map;
  * {@code MHZ} is megahertz, {@code MOHM} megohm, {@code MA} after a current milliampere;
  * elsewhere {@code M} is milli and {@code MA} mega, so {@code mHz} is megahertz.
  */
-public enum Unit {
+public enum SuffixUnit {
     /** A plain number: any suffix is {@code -138 Suffix not allowed}. */
     NONE(List.of()),
     HERTZ(List.of("HZ")),
@@ -27,7 +27,7 @@ public enum Unit {
 
     private final List<String> symbols;
 
-    Unit(List<String> symbols) {
+    SuffixUnit(List<String> symbols) {
         this.symbols = symbols;
     }
 
