@@ -12,7 +12,7 @@ import org.zweep.driver.meter.MeasurementSetting;
 import org.zweep.driver.meter.Meter;
 import org.zweep.driver.meter.MeterCapabilities;
 import org.zweep.driver.meter.MeterIdentity;
-import org.zweep.driver.meter.Range;
+import org.zweep.driver.meter.Interval;
 import org.zweep.driver.meter.Reading;
 import org.zweep.driver.meter.ReadingStatus;
 import org.zweep.runner.engine.MeterLink;
@@ -37,8 +37,8 @@ final class InstantMeter implements Meter, MeterLink {
 
     @Override
     public MeterCapabilities capabilities() {
-        return new MeterCapabilities(new Range(1, 1e9), new Range(0, 10), new Range(0, 1), new Range(-100, 100),
-                new Range(-10, 10), maxListPoints, Set.of(), false);
+        return new MeterCapabilities(new Interval(1, 1e9), new Interval(0, 10), new Interval(0, 1), new Interval(-100, 100),
+                new Interval(-10, 10), maxListPoints, Set.of(), false);
     }
 
     @Override

@@ -17,13 +17,13 @@ enum Command {
     MEASURE("measure"),
     FUNCTION_IMPEDANCE("function-impedance"),
     FUNCTION_VOLTAGE_RATIO("function-voltage-ratio"),
-    FREQUENCY("frequency", Slot.number("frequency", "Hz")),
-    DRIVE_VOLTAGE("drive-voltage", Slot.number("level", "V")),
-    DRIVE_CURRENT("drive-current", Slot.number("level", "A")),
-    BIAS_VOLTAGE("bias-voltage", Slot.number("bias", "V")),
+    FREQUENCY("frequency", Placeholder.number("frequency", "Hz")),
+    DRIVE_VOLTAGE("drive-voltage", Placeholder.number("level", "V")),
+    DRIVE_CURRENT("drive-current", Placeholder.number("level", "A")),
+    BIAS_VOLTAGE("bias-voltage", Placeholder.number("bias", "V")),
     BIAS_VOLTAGE_ON("bias-voltage-on"),
     BIAS_VOLTAGE_OFF("bias-voltage-off"),
-    BIAS_CURRENT("bias-current", Slot.number("bias", "A")),
+    BIAS_CURRENT("bias-current", Placeholder.number("bias", "A")),
     BIAS_CURRENT_ON("bias-current-on"),
     BIAS_CURRENT_OFF("bias-current-off"),
     BIAS_OFF("bias-off"),
@@ -31,15 +31,15 @@ enum Command {
     BIAS_VOLTAGE_STATE_QUERY("bias-voltage-state-query"),
     BIAS_CURRENT_QUERY("bias-current-query"),
     BIAS_CURRENT_STATE_QUERY("bias-current-state-query"),
-    AVERAGING("averaging", Slot.count("count")),
-    INTEGRATION_TIME("integration-time", Slot.number("seconds", "s")),
+    AVERAGING("averaging", Placeholder.count("count")),
+    INTEGRATION_TIME("integration-time", Placeholder.number("seconds", "s")),
     RANGE_AUTO("range-auto"),
-    RANGE_HOLD("range-hold", Slot.number("ohms", "ohm")),
-    LIST_FREQUENCY("list-frequency", Slot.numbers("frequencies", "Hz")),
-    LIST_VOLTAGE("list-voltage", Slot.numbers("levels", "V")),
-    LIST_CURRENT("list-current", Slot.numbers("levels", "A")),
-    LIST_BIAS_VOLTAGE("list-bias-voltage", Slot.numbers("biases", "V")),
-    LIST_BIAS_CURRENT("list-bias-current", Slot.numbers("biases", "A")),
+    RANGE_HOLD("range-hold", Placeholder.number("ohms", "ohm")),
+    LIST_FREQUENCY("list-frequency", Placeholder.numbers("frequencies", "Hz")),
+    LIST_VOLTAGE("list-voltage", Placeholder.numbers("levels", "V")),
+    LIST_CURRENT("list-current", Placeholder.numbers("levels", "A")),
+    LIST_BIAS_VOLTAGE("list-bias-voltage", Placeholder.numbers("biases", "V")),
+    LIST_BIAS_CURRENT("list-bias-current", Placeholder.numbers("biases", "A")),
     LIST_MODE_ON("list-mode-on"),
     LIST_MODE_OFF("list-mode-off"),
     LIST_MEASURE("list-measure"),
@@ -47,12 +47,12 @@ enum Command {
     CORRECTION_OPEN("correction-open"),
     CORRECTION_SHORT("correction-short"),
     CORRECTION_LOAD("correction-load"),
-    CORRECTION_OPEN_LIST("correction-open-list", Slot.numbers("frequencies", "Hz")),
-    CORRECTION_SHORT_LIST("correction-short-list", Slot.numbers("frequencies", "Hz")),
-    CORRECTION_LOAD_LIST("correction-load-list", Slot.numbers("frequencies", "Hz")),
+    CORRECTION_OPEN_LIST("correction-open-list", Placeholder.numbers("frequencies", "Hz")),
+    CORRECTION_SHORT_LIST("correction-short-list", Placeholder.numbers("frequencies", "Hz")),
+    CORRECTION_LOAD_LIST("correction-load-list", Placeholder.numbers("frequencies", "Hz")),
     CORRECTION_ON("correction-on"),
     CORRECTION_OFF("correction-off"),
-    LOAD_STANDARD("load-standard", Slot.number("resistance", "ohm"), Slot.number("reactance", "ohm")),
+    LOAD_STANDARD("load-standard", Placeholder.number("resistance", "ohm"), Placeholder.number("reactance", "ohm")),
     LIMIT_FREQUENCY_MIN("limit-frequency-min"),
     LIMIT_FREQUENCY_MAX("limit-frequency-max"),
     LIMIT_VOLTAGE_LEVEL_MIN("limit-voltage-level-min"),
@@ -68,11 +68,11 @@ enum Command {
             Arrays.stream(values()).collect(Collectors.toUnmodifiableMap(c -> c.key, Function.identity()));
 
     private final String key;
-    private final List<Slot> slots;
+    private final List<Placeholder> placeholders;
 
-    Command(String key, Slot... slots) {
+    Command(String key, Placeholder... placeholders) {
         this.key = key;
-        this.slots = List.of(slots);
+        this.placeholders = List.of(placeholders);
     }
 
     /** The key as written in a dialect file. */
@@ -81,8 +81,8 @@ enum Command {
     }
 
     /** The placeholders the template must hold, each exactly once or more; no others are allowed. */
-    List<Slot> slots() {
-        return slots;
+    List<Placeholder> placeholders() {
+        return placeholders;
     }
 
     /** The command that acquires {@code s} at the frequency set now. */

@@ -18,7 +18,7 @@ import org.zweep.driver.meter.FixtureState;
 import org.zweep.driver.meter.MeasuredQuantity;
 import org.zweep.driver.meter.MeasurementSetting;
 import org.zweep.driver.meter.MeterCapabilities;
-import org.zweep.driver.meter.Range;
+import org.zweep.driver.meter.Interval;
 import org.zweep.driver.meter.SourceMode;
 import org.zweep.driver.uncertainty.MeterAccuracy;
 
@@ -101,9 +101,9 @@ public final class Dialect {
     private final String description;
     private final String source;
     private final MeterCapabilities capabilities;
-    private final Range averagingCount;
-    private final Range integrationTimeS;
-    private final Range impedanceRangeOhm;
+    private final Interval averagingCount;
+    private final Interval integrationTimeS;
+    private final Interval impedanceRangeOhm;
     private final Messages messages;
     private final boolean correctionListAcquisition;
     private final ReplyShape reply;
@@ -113,8 +113,8 @@ public final class Dialect {
     private final double fixtureSettleS;
     private final MeterAccuracy accuracy;
 
-    Dialect(String name, String description, String source, MeterCapabilities capabilities, Range averagingCount,
-            Range integrationTimeS, Range impedanceRangeOhm, Messages messages, boolean correctionListAcquisition,
+    Dialect(String name, String description, String source, MeterCapabilities capabilities, Interval averagingCount,
+            Interval integrationTimeS, Interval impedanceRangeOhm, Messages messages, boolean correctionListAcquisition,
             ReplyShape reply, MeterTiming timing, Map<Command, Template> commands,
             Map<FixtureState, Template> fixture, double fixtureSettleS, MeterAccuracy accuracy) {
         this.name = name;
@@ -218,17 +218,17 @@ public final class Dialect {
     }
 
     /** Averaging counts the meter accepts. */
-    public Range averagingCount() {
+    public Interval averagingCount() {
         return averagingCount;
     }
 
     /** Integration (aperture) times the meter accepts, in seconds. */
-    public Range integrationTimeS() {
+    public Interval integrationTimeS() {
         return integrationTimeS;
     }
 
     /** Upper limits of the impedance ranges the meter can hold, in ohms; {@code [0, 0]} when it cannot. */
-    public Range impedanceRangeOhm() {
+    public Interval impedanceRangeOhm() {
         return impedanceRangeOhm;
     }
 
@@ -362,7 +362,7 @@ public final class Dialect {
         return has(c) ? Optional.empty() : Optional.of(new Refusal(key, what + ": " + meterName() + " cannot set it"));
     }
 
-    private Optional<Refusal> within(String key, String setting, double value, Range r, String unit) {
+    private Optional<Refusal> within(String key, String setting, double value, Interval r, String unit) {
         if (Double.isNaN(value)) {
             return Optional.of(new Refusal(key, setting + " is not a number"));
         }

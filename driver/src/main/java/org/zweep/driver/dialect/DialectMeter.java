@@ -22,7 +22,7 @@ import org.zweep.driver.meter.MeasurementSetting;
 import org.zweep.driver.meter.Meter;
 import org.zweep.driver.meter.MeterCapabilities;
 import org.zweep.driver.meter.MeterIdentity;
-import org.zweep.driver.meter.Range;
+import org.zweep.driver.meter.Interval;
 import org.zweep.driver.meter.Reading;
 import org.zweep.driver.meter.ReadingStatus;
 import org.zweep.driver.meter.SourceMode;
@@ -139,10 +139,10 @@ public final class DialectMeter implements Meter {
     }
 
     /** {@code declared} with each end the meter answers for in its place. */
-    private Range stated(Range declared, Command min, Command max) {
+    private Interval stated(Interval declared, Command min, Command max) {
         double lo = dialect.has(min) ? limit(min) : declared.min();
         double hi = dialect.has(max) ? limit(max) : declared.max();
-        return new Range(lo, hi);
+        return new Interval(lo, hi);
     }
 
     /** A query answering one number, read until two reads agree (at most four). */
@@ -723,8 +723,8 @@ public final class DialectMeter implements Meter {
         return dialect.command(c).orElseThrow(() -> new IllegalStateException(c.key())).render();
     }
 
-    private String render(Command c, String slot, double value) {
-        return dialect.command(c).orElseThrow(() -> new IllegalStateException(c.key())).render(Map.of(slot, value));
+    private String render(Command c, String placeholder, double value) {
+        return dialect.command(c).orElseThrow(() -> new IllegalStateException(c.key())).render(Map.of(placeholder, value));
     }
 
     // ---- validation ---------------------------------------------------------------------------

@@ -16,7 +16,7 @@ import org.zweep.driver.meter.Drive;
 import org.zweep.driver.meter.FixtureState;
 import org.zweep.driver.meter.MeasurementSetting;
 import org.zweep.driver.meter.MeterCapabilities;
-import org.zweep.driver.meter.Range;
+import org.zweep.driver.meter.Interval;
 import org.zweep.driver.meter.Reading;
 import org.zweep.driver.meter.ReadingStatus;
 import org.zweep.driver.scpi.ErrorQueue;
@@ -173,7 +173,7 @@ public final class DialectProbe {
     }
 
     /** The bias value 0 (only when 0 is within the declared range), then on at 0 and off again. */
-    private void bias(Command value, Command on, Command off, Range range, String unit) {
+    private void bias(Command value, Command on, Command off, Interval range, String unit) {
         if (!dialect.has(value)) {
             return;
         }
@@ -459,7 +459,7 @@ public final class DialectProbe {
         return plain(d.levelRms()) + (d.mode() == org.zweep.driver.meter.SourceMode.VOLTAGE ? " V" : " A") + " rms";
     }
 
-    private static double clamp(double v, Range r) {
+    private static double clamp(double v, Interval r) {
         return Math.max(r.min(), Math.min(r.max(), v));
     }
 

@@ -19,7 +19,7 @@ import org.zweep.driver.meter.CorrectionStandard;
 import org.zweep.driver.meter.CorrectionStyle;
 import org.zweep.driver.meter.FixtureState;
 import org.zweep.driver.meter.MeterCapabilities;
-import org.zweep.driver.meter.Range;
+import org.zweep.driver.meter.Interval;
 import org.zweep.driver.uncertainty.MeterAccuracy;
 
 /**
@@ -48,7 +48,7 @@ final class DialectReader {
     private static final Schema COMMANDS = new Schema("section 'commands'",
             java.util.Arrays.stream(Command.values()).map(Command::key).toList(), List.of("identify", "measure"));
     private static final Pattern NAME = Pattern.compile("[a-z0-9][a-z0-9-]*");
-    private static final Range NONE = new Range(0, 0);
+    private static final Interval NONE = new Interval(0, 0);
 
     /** One {@code key: value} scalar; lines and columns are 1-based. */
     private record Entry(String key, String value, int line, int keyColumn, int valueColumn) {
@@ -96,14 +96,14 @@ final class DialectReader {
 
         YamlNode capsNode = top.required("capabilities");
         Map<String, Entry> caps = entries(capsNode, CAPABILITIES);
-        Range frequency = range(caps.get("frequency"), "Hz", true);
-        Range voltage = optionalRange(caps, "voltage-level", "V", true);
-        Range current = optionalRange(caps, "current-level", "A", true);
-        Range biasV = optionalRange(caps, "bias-voltage", "V", false);
-        Range biasA = optionalRange(caps, "bias-current", "A", false);
-        Range averaging = caps.containsKey("averaging") ? countRange(caps.get("averaging")) : new Range(1, 1);
-        Range integration = optionalRange(caps, "integration-time", "s", true);
-        Range impedanceRange = optionalRange(caps, "impedance-range", "ohm", true);
+        Interval frequency = interval(caps.get("frequency"), "Hz", true);
+        Interval voltage = optionalInterval(caps, "voltage-level", "V", true);
+        Interval current = optionalInterval(caps, "current-level", "A", true);
+        Interval biasV = optionalInterval(caps, "bias-voltage", "V", false);
+        Interval biasA = optionalInterval(caps, "bias-current", "A", false);
+        Interval averaging = caps.containsKey("averaging") ? countInterval(caps.get("averaging")) : new Interval(1, 1);
+        Interval integration = optionalInterval(caps, "integration-time", "s", true);
+        Interval impedanceRange = optionalInterval(caps, "impedance-range", "ohm", true);
         int listPoints = caps.containsKey("list-points") ? nonNegativeInt(caps.get("list-points")) : 0;
         boolean ratio = caps.containsKey("voltage-ratio") && yesNo(caps.get("voltage-ratio"));
 
@@ -463,12 +463,12 @@ final class DialectReader {
         }
     }
 
-    private Range optionalRange(Map<String, Entry> caps, String key, String unit, boolean positive) {
-        return caps.containsKey(key) ? range(caps.get(key), unit, positive) : NONE;
+    private Interval optionalInterval(Map<String, Entry> caps, String key, String unit, boolean positive) {
+        return caps.containsKey(key) ? interval(caps.get(key), unit, positive) : NONE;
     }
 
     /** {@code MIN .. MAX UNIT}, plain decimal numbers in the SI unit without a prefix. */
-    private Range range(Entry e, String unit, boolean positive) {
+    private Interval interval(Entry e, String unit, boolean positive) {
         List<int[]> spans = tokens(e.value);
         String shape = "'" + e.key + ": MIN .. MAX " + unit + "'";
         if (spans.size() != 4 || !token(e, spans, 1).equals("..")) {
@@ -487,7 +487,7 @@ final class DialectReader {
         if (positive && min <= 0) {
             throw fail(e.line, column(e, spans, 0), e.key + " must be positive, found " + token(e, spans, 0));
         }
-        return new Range(min, max);
+        return new Interval(min, max);
     }
 
     /** The {@code [timing]} section; a missing key takes {@link MeterTiming#DEFAULT}'s value. */
@@ -537,7 +537,7 @@ final class DialectReader {
         return v;
     }
 
-    private Range countRange(Entry e) {
+    private Interval countInterval(Entry e) {
         List<int[]> spans = tokens(e.value);
         if (spans.size() != 3 || !token(e, spans, 1).equals("..")) {
             throw fail(e.line, e.valueColumn, "expected 'averaging: MIN .. MAX' (whole numbers)");
@@ -550,7 +550,7 @@ final class DialectReader {
         if (max < min) {
             throw fail(e.line, column(e, spans, 2), "maximum " + max + " is below minimum " + min);
         }
-        return new Range(min, max);
+        return new Interval(min, max);
     }
 
     private int nonNegativeInt(Entry e) {
@@ -586,11 +586,11 @@ final class DialectReader {
             offsets[i] = offsets[i - 1] + parts[i - 1].length() + 1;
         }
         Entry f = sub(e, parts[0], offsets[0]);
-        Range freq = range(f, "Hz", true);
+        Interval freq = interval(f, "Hz", true);
         Entry l = sub(e, parts[1], offsets[1]);
         List<int[]> ls = tokens(l.value);
         boolean current = ls.size() == 4 && token(l, ls, 3).equals("A");
-        Range level = range(l, current ? "A" : "V", true);
+        Interval level = interval(l, current ? "A" : "V", true);
         double t = quantity(sub(e, parts[2], offsets[2]), "s");
         double a = quantity(sub(e, parts[3], offsets[3]), "%") / 100;
         double zs = quantity(sub(e, parts[4], offsets[4]), "ohm");

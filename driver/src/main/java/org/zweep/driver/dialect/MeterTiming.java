@@ -3,7 +3,7 @@ package org.zweep.driver.dialect;
 import java.util.List;
 import org.zweep.driver.meter.Bias;
 import org.zweep.driver.meter.MeasurementSetting;
-import org.zweep.driver.meter.Range;
+import org.zweep.driver.meter.Interval;
 
 /**
  * How long a meter works on what it is asked, as its dialect's {@code [timing]} section declares.
@@ -69,7 +69,7 @@ public record MeterTiming(double pointOverheadS, double minPeriods, double biasS
      * The expected time of acquiring one correction standard at setting {@code at} (its frequency
      * ignored) over {@code frequencyHz}, the meter's frequency range, in s.
      */
-    public double correctionS(MeasurementSetting at, Range frequencyHz) {
+    public double correctionS(MeasurementSetting at, Interval frequencyHz) {
         double lo = Math.log10(frequencyHz.min());
         double hi = Math.log10(frequencyHz.max());
         int n = Math.max(2, (int) Math.ceil((hi - lo) * correctionPointsPerDecade) + 1);

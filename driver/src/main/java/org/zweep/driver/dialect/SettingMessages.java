@@ -213,8 +213,8 @@ final class SettingMessages {
         return dialect.command(c).orElseThrow(() -> new IllegalStateException(c.key())).render();
     }
 
-    private String render(Command c, String slot, double value) {
-        return dialect.command(c).orElseThrow(() -> new IllegalStateException(c.key())).render(Map.of(slot, value));
+    private String render(Command c, String placeholder, double value) {
+        return dialect.command(c).orElseThrow(() -> new IllegalStateException(c.key())).render(Map.of(placeholder, value));
     }
 
     /** What this object last told the meter; {@code null} means unknown (send it). */

@@ -13,8 +13,8 @@ final class Template {
     private static final String[] PREFIXES = {"p", "n", "u", "µ", "m", "", "k", "M", "G"};
     private static final int[] SHIFTS = {-12, -9, -6, -6, -3, 0, 3, 6, 9};
 
-    /** A literal piece ({@code slot == null}) or a placeholder with its decimal point shift. */
-    private record Part(String literal, Slot slot, int pointShift) {
+    /** A literal piece ({@code placeholder == null}) or a placeholder with its decimal point shift. */
+    private record Part(String literal, Placeholder placeholder, int pointShift) {
     }
 
     private final String text;
@@ -46,25 +46,25 @@ final class Template {
     /**
      * Fills in the placeholders.
      *
-     * @param values by placeholder name: a {@code Double} in the slot's SI unit, a {@code List<Double>}
-     *     for list slots, an {@code Integer} for counts
+     * @param values by placeholder name: a {@code Double} in the placeholder's SI unit, a {@code List<Double>}
+     *     for list placeholders, an {@code Integer} for counts
      */
     String render(Map<String, ?> values) {
         StringBuilder sb = new StringBuilder();
         for (Part p : parts) {
-            if (p.slot == null) {
+            if (p.placeholder == null) {
                 sb.append(p.literal);
                 continue;
             }
-            Object v = values.get(p.slot.name());
+            Object v = values.get(p.placeholder.name());
             if (v == null) {
-                throw new IllegalArgumentException("no value for {" + p.slot.name() + "} in " + text);
+                throw new IllegalArgumentException("no value for {" + p.placeholder.name() + "} in " + text);
             }
-            if (p.slot.list()) {
+            if (p.placeholder.list()) {
                 @SuppressWarnings("unchecked")
                 List<Double> list = (List<Double>) v;
                 sb.append(list.stream().map(x -> Nr3.format(x, p.pointShift)).collect(Collectors.joining(",")));
-            } else if (p.slot.unit().isEmpty()) {
+            } else if (p.placeholder.unit().isEmpty()) {
                 sb.append(((Integer) v).intValue());
             } else {
                 sb.append(Nr3.format((Double) v, p.pointShift));
@@ -84,11 +84,11 @@ final class Template {
      * @param errors reports a problem at a 0-based index into {@code text}
      */
     static Template parse(String text, Command command, ErrorSink errors) {
-        return parse(text, command.key(), command.slots(), errors);
+        return parse(text, command.key(), command.placeholders(), errors);
     }
 
-    /** Parses {@code text}, the value of entry {@code key} whose placeholders are {@code slots}. */
-    static Template parse(String text, String key, List<Slot> slots, ErrorSink errors) {
+    /** Parses {@code text}, the value of entry {@code key} whose placeholders are {@code placeholders}. */
+    static Template parse(String text, String key, List<Placeholder> placeholders, ErrorSink errors) {
         List<Part> parts = new ArrayList<>();
         List<String> seen = new ArrayList<>();
         int i = 0;
@@ -111,25 +111,25 @@ final class Template {
             int colon = inside.indexOf(':');
             String name = colon < 0 ? inside : inside.substring(0, colon);
             int nameIndex = i + 1;
-            Slot slot = slots.stream().filter(s -> s.name().equals(name)).findFirst()
-                    .orElseThrow(() -> errors.at(nameIndex, unknownPlaceholder(name, key, slots)));
+            Placeholder placeholder = placeholders.stream().filter(s -> s.name().equals(name)).findFirst()
+                    .orElseThrow(() -> errors.at(nameIndex, unknownPlaceholder(name, key, placeholders)));
             int shift = 0;
             if (colon >= 0) {
                 String unit = inside.substring(colon + 1);
-                shift = shiftFor(unit, slot, errors, i + 2 + colon);
+                shift = shiftFor(unit, placeholder, errors, i + 2 + colon);
             }
             if (literal.length() > 0) {
                 parts.add(new Part(literal.toString(), null, 0));
                 literal.setLength(0);
             }
-            parts.add(new Part(null, slot, shift));
+            parts.add(new Part(null, placeholder, shift));
             seen.add(name);
             i = close + 1;
         }
         if (literal.length() > 0) {
             parts.add(new Part(literal.toString(), null, 0));
         }
-        for (Slot s : slots) {
+        for (Placeholder s : placeholders) {
             if (!seen.contains(s.name())) {
                 throw errors.at(0, "command '" + key + "' must contain {" + s.name() + "}");
             }
@@ -137,24 +137,24 @@ final class Template {
         return new Template(text, parts);
     }
 
-    private static String unknownPlaceholder(String name, String key, List<Slot> slots) {
-        if (slots.isEmpty()) {
+    private static String unknownPlaceholder(String name, String key, List<Placeholder> placeholders) {
+        if (placeholders.isEmpty()) {
             return "command '" + key + "' takes no placeholder, found {" + name + "}";
         }
         return "unknown placeholder {" + name + "} in '" + key + "' (it takes "
-                + slots.stream().map(s -> "{" + s.name() + "}").collect(Collectors.joining(" ")) + ")";
+                + placeholders.stream().map(s -> "{" + s.name() + "}").collect(Collectors.joining(" ")) + ")";
     }
 
-    private static int shiftFor(String unit, Slot slot, ErrorSink errors, int index) {
-        if (slot.unit().isEmpty()) {
-            throw errors.at(index, "{" + slot.name() + "} is a plain count and takes no unit");
+    private static int shiftFor(String unit, Placeholder placeholder, ErrorSink errors, int index) {
+        if (placeholder.unit().isEmpty()) {
+            throw errors.at(index, "{" + placeholder.name() + "} is a plain count and takes no unit");
         }
         for (int k = 0; k < PREFIXES.length; k++) {
-            if (unit.equals(PREFIXES[k] + slot.unit())) {
+            if (unit.equals(PREFIXES[k] + placeholder.unit())) {
                 return SHIFTS[k];
             }
         }
-        throw errors.at(index, "unit '" + unit + "' does not fit {" + slot.name() + "}: expected " + slot.unit()
+        throw errors.at(index, "unit '" + unit + "' does not fit {" + placeholder.name() + "}: expected " + placeholder.unit()
                 + " with an optional SI prefix (p n u m k M G)");
     }
 

@@ -16,11 +16,11 @@ import java.util.Set;
  * @param correctionStyle how the meter's own correction applies what it acquired
  */
 public record MeterCapabilities(
-        Range frequencyHz,
-        Range voltageLevelVrms,
-        Range currentLevelArms,
-        Range biasVoltageV,
-        Range biasCurrentA,
+        Interval frequencyHz,
+        Interval voltageLevelVrms,
+        Interval currentLevelArms,
+        Interval biasVoltageV,
+        Interval biasCurrentA,
         int maxListPoints,
         Set<CorrectionStandard> corrections,
         boolean voltageRatio,
@@ -32,8 +32,8 @@ public record MeterCapabilities(
     }
 
     /** Capabilities of a meter whose correction covers its whole range ({@link CorrectionStyle#WHOLE_RANGE}). */
-    public MeterCapabilities(Range frequencyHz, Range voltageLevelVrms, Range currentLevelArms, Range biasVoltageV,
-            Range biasCurrentA, int maxListPoints, Set<CorrectionStandard> corrections, boolean voltageRatio) {
+    public MeterCapabilities(Interval frequencyHz, Interval voltageLevelVrms, Interval currentLevelArms, Interval biasVoltageV,
+            Interval biasCurrentA, int maxListPoints, Set<CorrectionStandard> corrections, boolean voltageRatio) {
         this(frequencyHz, voltageLevelVrms, currentLevelArms, biasVoltageV, biasCurrentA, maxListPoints, corrections,
                 voltageRatio, CorrectionStyle.WHOLE_RANGE);
     }

@@ -18,7 +18,7 @@ import org.junit.jupiter.params.provider.MethodSource;
 import org.zweep.driver.InvalidInputException;
 import org.zweep.driver.meter.CorrectionStandard;
 import org.zweep.driver.meter.MeterCapabilities;
-import org.zweep.driver.meter.Range;
+import org.zweep.driver.meter.Interval;
 
 class DialectReaderTest {
 
@@ -47,7 +47,7 @@ class DialectReaderTest {
 
         MeterCapabilities c = d.capabilities();
         assertEquals("standard", d.name());
-        assertEquals(new Range(10, 20e6), c.frequencyHz()); // issue 4: at least 10 Hz to 10 MHz; the simulator goes to 20 MHz
+        assertEquals(new Interval(10, 20e6), c.frequencyHz()); // issue 4: at least 10 Hz to 10 MHz; the simulator goes to 20 MHz
         assertEquals(201, c.maxListPoints());
         assertEquals(EnumSet.allOf(CorrectionStandard.class), c.corrections());
         assertTrue(c.voltageRatio());
@@ -90,8 +90,8 @@ class DialectReaderTest {
         Dialect d = Dialect.load("mz300");
 
         MeterCapabilities c = d.capabilities();
-        assertEquals(new Range(0, 0), c.currentLevelArms());
-        assertEquals(new Range(0, 0), c.biasCurrentA());
+        assertEquals(new Interval(0, 0), c.currentLevelArms());
+        assertEquals(new Interval(0, 0), c.biasCurrentA());
         assertEquals(32, c.maxListPoints());
         assertEquals(EnumSet.of(CorrectionStandard.OPEN, CorrectionStandard.SHORT), c.corrections());
         assertEquals(List.of(ReplyShape.Field.MAGNITUDE, ReplyShape.Field.PHASE_DEG, ReplyShape.Field.SKIP),

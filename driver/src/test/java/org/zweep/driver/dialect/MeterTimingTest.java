@@ -7,7 +7,7 @@ import org.junit.jupiter.api.Test;
 import org.zweep.driver.meter.Bias;
 import org.zweep.driver.meter.ImpedanceRange;
 import org.zweep.driver.meter.MeasurementSetting;
-import org.zweep.driver.meter.Range;
+import org.zweep.driver.meter.Interval;
 
 class MeterTimingTest {
     private static final MeterTiming T = new MeterTiming(0.01, 2, 0.2, 0.1, 2);
@@ -37,6 +37,6 @@ class MeterTimingTest {
         MeasurementSetting s = MeasurementSetting.at(1000).withIntegrationTimeS(0.1);
         assertEquals(3 * 0.11, T.sweepS(List.of(s, s.withFrequencyHz(2000), s.withFrequencyHz(3000)), s), 1e-12);
         // 100 Hz .. 10 kHz at 2 per decade: 5 points, each 0.01 + max(0.1, 2/f) (2/100 Hz = 0.02 s)
-        assertEquals(5 * 0.11, T.correctionS(s, new Range(100, 10_000)), 1e-12);
+        assertEquals(5 * 0.11, T.correctionS(s, new Interval(100, 10_000)), 1e-12);
     }
 }

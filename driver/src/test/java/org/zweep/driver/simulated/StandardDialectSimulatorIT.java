@@ -88,7 +88,7 @@ class StandardDialectSimulatorIT {
             MeterCapabilities caps = meter.capabilities();
             Dialect d = meter.dialect();
             ScpiClient sim = link.probe();
-            Map<String, org.zweep.driver.meter.Range> declared = new LinkedHashMap<>();
+            Map<String, org.zweep.driver.meter.Interval> declared = new LinkedHashMap<>();
             declared.put(":SOUR:FREQ?", caps.frequencyHz());
             declared.put(":SOUR:VOLT?", caps.voltageLevelVrms());
             declared.put(":SOUR:CURR?", caps.currentLevelArms());
@@ -265,15 +265,15 @@ class StandardDialectSimulatorIT {
 
             // the limits the meter states are the simulator's own
             MeterCapabilities stated = meter.statedLimits();
-            assertEquals(new org.zweep.driver.meter.Range(RC.limits().minFrequencyHz(), RC.limits().maxFrequencyHz()),
+            assertEquals(new org.zweep.driver.meter.Interval(RC.limits().minFrequencyHz(), RC.limits().maxFrequencyHz()),
                     stated.frequencyHz());
-            assertEquals(new org.zweep.driver.meter.Range(RC.limits().minVoltageVrms(), RC.limits().maxVoltageVrms()),
+            assertEquals(new org.zweep.driver.meter.Interval(RC.limits().minVoltageVrms(), RC.limits().maxVoltageVrms()),
                     stated.voltageLevelVrms());
-            assertEquals(new org.zweep.driver.meter.Range(RC.limits().minCurrentArms(), RC.limits().maxCurrentArms()),
+            assertEquals(new org.zweep.driver.meter.Interval(RC.limits().minCurrentArms(), RC.limits().maxCurrentArms()),
                     stated.currentLevelArms());
-            assertEquals(new org.zweep.driver.meter.Range(-RC.limits().maxBiasVoltageV(), RC.limits().maxBiasVoltageV()),
+            assertEquals(new org.zweep.driver.meter.Interval(-RC.limits().maxBiasVoltageV(), RC.limits().maxBiasVoltageV()),
                     stated.biasVoltageV());
-            assertEquals(new org.zweep.driver.meter.Range(-RC.limits().maxBiasCurrentA(), RC.limits().maxBiasCurrentA()),
+            assertEquals(new org.zweep.driver.meter.Interval(-RC.limits().maxBiasCurrentA(), RC.limits().maxBiasCurrentA()),
                     stated.biasCurrentA());
             link.assertNoErrors("the limit queries");
 

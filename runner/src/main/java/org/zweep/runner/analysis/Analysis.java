@@ -170,8 +170,9 @@ public final class Analysis {
         for (Map.Entry<StepData.DeratingKey, TreeMap<Double, double[]>> g : data.derating().entrySet()) {
             double[] biases = g.getValue().keySet().stream().mapToDouble(Double::doubleValue).toArray();
             double[] values = g.getValue().values().stream().mapToDouble(a -> a[0] / a[1]).toArray();
+            double[] us = g.getValue().values().stream().mapToDouble(StepData::deratingU).toArray();
             derating.add(Derating.of(column, g.getKey().frequencyHz(), g.getKey().level(), g.getKey().biasMode(),
-                    biases, values, dropsFor(run, data.name(), column)));
+                    biases, values, us, dropsFor(run, data.name(), column)));
         }
         return new StepResult(data.name(), data.index(), fits, derating, data.repeats(), notes);
     }
@@ -216,7 +217,7 @@ public final class Analysis {
                     "never falls by %s %% up to %s (lowest %.1f %%, %s)", Figures.format(c.dropPercent(), Unit.NONE),
                     Figures.format(d.points().get(d.points().size() - 1).bias(), unit), lowest, ref));
         }
-        return new SweepFigures.Figure(at, unit, ref);
+        return new SweepFigures.Figure(at, unit, ref, d.biasAtDropU(c.dropPercent()));
     }
 
     /**

@@ -95,7 +95,8 @@ public final class AnalysisJson {
 
     /** A bias sweep of the part's main value. */
     public record DeratingDocument(String quantity, double frequencyHz, String biasMode, double referenceBias,
-            double referenceValue, List<Derating.Point> points, Map<String, Double> drop, List<String> notes) {
+            double referenceValue, List<Derating.Point> points, Map<String, Double> drop, List<String> notes,
+            Map<String, Double> dropU) {
     }
 
     /** The spread of the repeats of one point. */
@@ -157,8 +158,10 @@ public final class AnalysisJson {
     private static DeratingDocument derating(Derating d) {
         Map<String, Double> drop = new LinkedHashMap<>();
         d.drops().forEach((k, v) -> drop.put(String.valueOf(k), v));
+        Map<String, Double> dropU = new LinkedHashMap<>();
+        d.dropsU().forEach((k, v) -> dropU.put(String.valueOf(k), v));
         return new DeratingDocument(d.quantity(), d.frequencyHz(), d.biasMode(), d.referenceBias(), d.referenceValue(),
-                d.points(), drop, d.notes());
+                d.points(), drop, d.notes(), dropU);
     }
 
     private static Transformer transformer(TransformerResult t) {

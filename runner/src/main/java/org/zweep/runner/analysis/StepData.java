@@ -21,11 +21,23 @@ import org.zweep.runner.results.PointRow;
  * @param sweeps the step's sweeps, in order of first appearance
  * @param noValue the number of rows without a value
  * @param derating per frequency, level, wiring and bias mode swept over two or more biases: the main
- *     value's sum and count per bias
+ *     value's sum, count, summed stated variance and summed squared deviation per bias
  * @param repeats the points read more than once
  */
 record StepData(String name, int index, List<Sweep> sweeps, long noValue,
         Map<DeratingKey, TreeMap<Double, double[]>> derating, List<RepeatStats> repeats) {
+
+    /**
+     * The standard uncertainty of the mean value of one derating entry {sum, n, Σu², Σ(v − mean)²}:
+     * the readings' stated variance averaged (a systematic limit, not divided by the number of
+     * readings) plus, with two or more readings, the variance of their mean (Type A, JCGM
+     * 100:2008, 4.2.3), as for the sweeps' points; NaN when a reading's u is unknown.
+     */
+    static double deratingU(double[] entry) {
+        double n = entry[1];
+        double var = entry[2] / n + (n >= 2 ? entry[3] / (n - 1) / n : 0);
+        return Math.sqrt(var);
+    }
 
     /** The points of one bias sweep: same frequency, level, wiring and bias mode. */
     record DeratingKey(double frequencyHz, double level, String wiring, String biasMode) {

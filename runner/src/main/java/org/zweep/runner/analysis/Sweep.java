@@ -93,16 +93,20 @@ public record Sweep(String step, int stepIndex, String wiring, String drive, dou
 
         /**
          * The bias sweeps of the main value: per frequency, level, wiring and bias mode measured at
-         * two or more biases, the value's sum and count per bias; in order of first appearance.
+         * two or more biases, per bias: the value's sum, the count, the sum of the readings' stated
+         * variances (NaN when one is unknown) and the sum of squared deviations from the mean; in
+         * order of first appearance. See {@link StepData#deratingU(double[])}.
          */
         Map<StepData.DeratingKey, TreeMap<Double, double[]>> derating() {
             Map<StepData.DeratingKey, TreeMap<Double, double[]>> all = new LinkedHashMap<>();
             Map<StepData.DeratingKey, Long> first = new LinkedHashMap<>();
             groups.forEach((c, g) -> g.byFrequency.forEach((f, p) -> {
                 StepData.DeratingKey k = new StepData.DeratingKey(f, c.level(), c.wiring(), c.biasMode());
-                double[] acc = all.computeIfAbsent(k, x -> new TreeMap<>()).computeIfAbsent(c.bias(), b -> new double[2]);
+                double[] acc = all.computeIfAbsent(k, x -> new TreeMap<>()).computeIfAbsent(c.bias(), b -> new double[4]);
                 acc[0] += p.sumV;
                 acc[1] += p.n;
+                acc[2] += p.statedV;
+                acc[3] += p.m2V;
                 first.merge(k, p.seq, Math::min);
             }));
             Map<StepData.DeratingKey, TreeMap<Double, double[]>> out = new LinkedHashMap<>();
@@ -188,6 +192,7 @@ public record Sweep(String step, int stepIndex, String wiring, String drive, dou
             double sumV;
             double meanV;
             double m2V;
+            double statedV;
             double sumR;
             double sumX;
             double meanR;
@@ -215,6 +220,8 @@ public record Sweep(String step, int stepIndex, String wiring, String drive, dou
                     double dV = v - meanV;
                     meanV += dV / n;
                     m2V += dV * (v - meanV);
+                    double u = r.uncertainty().known() ? r.uncertainty().of(column) : Double.NaN;
+                    statedV += u * u;
                 }
                 sumR += re;
                 sumX += im;

@@ -19,6 +19,7 @@ import org.zweep.runner.analysis.RunData;
 import org.zweep.runner.analysis.StepResult;
 import org.zweep.runner.analysis.TransformerResult;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
@@ -31,7 +32,8 @@ import org.zweep.runner.text.ParameterTable;
 @Command(name = "analyze", mixinStandardHelpOptions = true,
         description = {"Analyses a run folder and writes DIR/analysis.json.",
             "Equivalent-circuit fits, DC-bias derating, transformer parameters, repeat statistics, checks and bins."
-                + " Exit code 1 when a check did not pass (a conditional pass is not a proven pass)."},
+                + " Exit code 1 when a check did not pass (a conditional pass is not a proven pass).",
+            "With --json: the analysis.json document on standard output instead of the summary."},
         footer = ExitCode.HELP_LIST)
 public final class AnalyzeCommand implements Callable<Integer> {
     @Spec
@@ -40,8 +42,8 @@ public final class AnalyzeCommand implements Callable<Integer> {
     @Parameters(index = "0", paramLabel = "DIR", description = "the run folder")
     Path dir;
 
-    @Option(names = "--json", description = "print analysis.json to standard output instead of a summary")
-    boolean json;
+    @Mixin
+    JsonOption json;
 
     @Option(names = "--model", paramLabel = "MODEL",
             description = "circuit to fit: capacitor, capacitor-leakage, capacitor-tan-delta, inductor, "
@@ -54,7 +56,7 @@ public final class AnalyzeCommand implements Callable<Integer> {
         CircuitModel m = model == null ? null : CircuitModel.byId(model);
         AnalysisResult a = Analysis.analyze(RunData.read(dir).requirePoints(), m);
         Path file = AnalysisJson.write(a);
-        if (json) {
+        if (json.on()) {
             out.print(AnalysisJson.text(a));
         } else {
             summary(out, a);
@@ -98,7 +100,8 @@ public final class AnalyzeCommand implements Callable<Integer> {
             for (Derating d : s.derating()) {
                 List<String> drops = new ArrayList<>();
                 d.drops().forEach((pct, at) -> drops.add(at == null ? "never falls by " + pct + " %"
-                        : pct + " % drop at " + Figures.format(at, Figures.unit(d.biasMode()))));
+                        : pct + " % drop at " + Figures.format(at, Figures.unit(d.biasMode()))
+                                + plusMinus(d.dropsU().get(pct), Figures.unit(d.biasMode()))));
                 out.println("  derating at " + Figures.format(d.frequencyHz(), Unit.HERTZ) + ": " + String.join(", ", drops));
             }
         }

@@ -11,7 +11,7 @@ import org.zweep.runner.plan.Plan;
 import org.zweep.runner.sequence.SequenceLoader;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Model.CommandSpec;
-import picocli.CommandLine.Option;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
 
@@ -35,14 +35,13 @@ public final class CheckCommand implements Callable<Integer> {
     @Parameters(index = "0", paramLabel = "FILE", description = "the sequence file (YAML)")
     Path file;
 
-    @Option(names = "--dialect", paramLabel = "NAME|FILE",
-            description = "check against this meter dialect instead of the sequence's own")
-    String dialect;
+    @Mixin
+    DialectOption dialect;
 
     @Override
     public Integer call() {
-        Plan plan = SequenceLoader.loadForMeter(file, dialect);
-        Dialect d = Dialect.load(dialect != null ? dialect : plan.meter().dialect());
+        Plan plan = SequenceLoader.loadForMeter(file, dialect.orNull());
+        Dialect d = Dialect.load(dialect.orNull() != null ? dialect.orNull() : plan.meter().dialect());
         RunEstimate e = RunEstimate.of(plan, d);
         int points = plan.points().size();
         PrintWriter out = spec.commandLine().getOut();

@@ -35,6 +35,7 @@ public final class Cli {
         m.put("check", () -> new CheckCommand());
         m.put("demo", () -> new DemoCommand());
         m.put("run", () -> new RunCommand());
+        m.put("lot", () -> new LotCommand());
         m.put("measure", () -> new MeasureCommand());
         m.put("analyze", () -> new AnalyzeCommand());
         m.put("export", () -> new ExportCommand());

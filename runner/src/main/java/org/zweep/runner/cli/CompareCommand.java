@@ -1,7 +1,5 @@
 package org.zweep.runner.cli;
 
-import com.fasterxml.jackson.databind.node.ArrayNode;
-import com.fasterxml.jackson.databind.node.ObjectNode;
 import java.io.IOException;
 import java.io.PrintWriter;
 import java.io.UncheckedIOException;
@@ -19,8 +17,10 @@ import org.zweep.runner.analysis.StepResult;
 import org.zweep.runner.analysis.Sweep;
 import org.zweep.runner.compare.Comparison;
 import org.zweep.runner.plot.Charts;
+import org.zweep.runner.results.Json;
 import org.zweep.runner.plot.Plots;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
@@ -30,56 +30,53 @@ import picocli.CommandLine.Spec;
 @Command(name = "compare", mixinStandardHelpOptions = true,
         description = {"Compares two or more run folders: each check's value and each step's fitted elements per run,"
                 + " with the difference from the first run and the relative change; --plots DIR overlays each"
-                + " step's first sweep of every run (|Z| and θ)."},
+                + " step's first sweep of every run (|Z| and θ).",
+            "Given lot folders (zweep lot), compares the lots: per check each lot's n, passes, mean, σ, lowest,"
+                + " highest and Cpk, with each mean's difference from the first lot's."},
         footer = ExitCode.HELP_LIST)
 public final class CompareCommand implements Callable<Integer> {
     @Spec
     CommandSpec spec;
 
-    @Parameters(arity = "2..*", paramLabel = "RUN", description = "run folders; the first is the reference")
+    @Parameters(arity = "2..*", paramLabel = "RUN", description = "run folders, or lot folders; the first is the reference")
     List<Path> folders;
 
-    @Option(names = "--json", description = "the comparison as JSON")
-    boolean json;
+    @Mixin
+    JsonOption json;
 
     @Option(names = "--plots", paramLabel = "DIR", description = "write overlaid plots (PNG and SVG) into DIR")
     Path plots;
 
     @Override
     public Integer call() throws Exception {
+        long lots = folders.stream().filter(org.zweep.runner.lot.LotManifest::isLot).count();
+        if (lots > 0) {
+            if (lots != folders.size()) {
+                throw new InvalidInputException("compare either run folders or lot folders, not both");
+            }
+            if (plots != null) {
+                throw new InvalidInputException("--plots overlays runs; compare two of the lots' part folders for that");
+            }
+            return compareLots(org.zweep.runner.lot.LotComparison.of(folders), spec.commandLine().getOut());
+        }
         Comparison c = Comparison.of(folders);
         List<Path> written = plots == null ? List.of() : plot(c, plots);
         PrintWriter out = spec.commandLine().getOut();
-        if (json) {
-            ObjectNode root = RunsCommand.JSON.createObjectNode();
-            ArrayNode runs = root.putArray("runs");
-            for (Comparison.Run r : c.runs()) {
-                ObjectNode n = runs.addObject();
-                n.put("folder", r.folder().toString());
-                n.put("label", r.label());
-                n.put("run_id", r.manifest().id());
-                n.put("serial", r.manifest().identityOrNone().serial());
-                n.put("lot", r.manifest().identityOrNone().lot());
-                n.put("verdict", r.manifest().verdict());
-            }
-            ArrayNode rows = root.putArray("rows");
+        if (json.on()) {
+            List<RunJson> runs = c.runs().stream().map(r -> new RunJson(r.folder().toString(), r.label(),
+                    r.manifest().id(), r.manifest().identityOrNone().serial(), r.manifest().identityOrNone().lot(),
+                    r.manifest().verdict())).toList();
+            List<RowJson> rows = new ArrayList<>();
             for (Comparison.Row row : c.rows()) {
-                ObjectNode n = rows.addObject();
-                n.put("kind", row.kind());
-                n.put("name", row.name());
-                n.put("parameter", row.parameter());
-                ArrayNode v = n.putArray("values");
-                ArrayNode d = n.putArray("differences");
-                ArrayNode rel = n.putArray("relative");
+                List<Double> d = new ArrayList<>();
+                List<Double> rel = new ArrayList<>();
                 for (int i = 0; i < row.values().size(); i++) {
-                    add(v, row.values().get(i));
-                    add(d, row.difference(i));
-                    add(rel, row.relative(i));
+                    d.add(row.difference(i));
+                    rel.add(row.relative(i));
                 }
+                rows.add(new RowJson(row.kind(), row.name(), row.parameter(), row.values(), d, rel));
             }
-            ArrayNode p = root.putArray("plots");
-            written.forEach(f -> p.add(f.toString()));
-            out.println(RunsCommand.JSON.writeValueAsString(root));
+            out.print(Json.text(new CompareJson(runs, rows, written.stream().map(Path::toString).toList())));
             return ExitCode.OK;
         }
         for (int i = 0; i < c.runs().size(); i++) {
@@ -110,6 +107,86 @@ public final class CompareCommand implements Callable<Integer> {
             out.println(b.toString().stripTrailing());
         }
         written.forEach(f -> out.println("plot: " + f));
+        return ExitCode.OK;
+    }
+
+    /** Lots side by side: per check, each lot's figures and the difference of each mean from the first lot's. */
+    private int compareLots(org.zweep.runner.lot.LotComparison c, PrintWriter out) throws Exception {
+        if (json) {
+            ObjectNode root = RunsCommand.JSON.createObjectNode();
+            ArrayNode lots = root.putArray("lots");
+            for (var l : c.lots()) {
+                ObjectNode n = lots.addObject();
+                n.put("folder", l.folder().toString());
+                n.put("lot", l.table().lot());
+                n.put("parts", l.table().parts().size());
+                n.put("completed", l.table().completed());
+                n.put("passed", l.table().passed());
+                n.put("failed", l.table().failed());
+                if (Double.isFinite(l.table().yield())) {
+                    n.put("yield", l.table().yield());
+                } else {
+                    n.putNull("yield");
+                }
+            }
+            ArrayNode checks = root.putArray("checks");
+            for (var row : c.checks()) {
+                ObjectNode n = checks.addObject();
+                n.put("name", row.name());
+                n.put("parameter", row.parameter());
+                ArrayNode count = n.putArray("n");
+                ArrayNode passed = n.putArray("passed");
+                ArrayNode mean = n.putArray("mean");
+                ArrayNode sigma = n.putArray("sigma");
+                ArrayNode lowest = n.putArray("lowest");
+                ArrayNode highest = n.putArray("highest");
+                ArrayNode cpk = n.putArray("cpk");
+                ArrayNode diff = n.putArray("mean_difference");
+                ArrayNode rel = n.putArray("mean_relative");
+                for (int i = 0; i < c.lots().size(); i++) {
+                    var s = row.stats().get(i);
+                    var cap = row.capability(i);
+                    count.add(cap.n());
+                    passed.add(s == null ? 0 : s.passed());
+                    add(mean, cap.mean());
+                    add(sigma, cap.sigma());
+                    add(lowest, s == null ? Double.NaN : s.lowest());
+                    add(highest, s == null ? Double.NaN : s.highest());
+                    add(cpk, cap.cpk());
+                    add(diff, row.meanDifference(i));
+                    add(rel, row.meanRelative(i));
+                }
+            }
+            out.println(RunsCommand.JSON.writeValueAsString(root));
+            return ExitCode.OK;
+        }
+        for (int i = 0; i < c.lots().size(); i++) {
+            var t = c.lots().get(i).table();
+            out.printf(Locale.ROOT, "%s lot %s: %s (%d parts, %d passed, %d failed, yield %s)%n",
+                    i == 0 ? "reference" : "lot " + (i + 1), t.lot(), c.lots().get(i).folder(), t.parts().size(),
+                    t.passed(), t.failed(), Double.isFinite(t.yield())
+                            ? String.format(Locale.ROOT, "%.1f %%", 100 * t.yield()) : "-");
+        }
+        for (var row : c.checks()) {
+            Unit unit = TrendCommand.unitOf(row.parameter());
+            out.println();
+            out.printf(Locale.ROOT, "check %s (%s)%n", row.name(), row.parameter());
+            out.printf(Locale.ROOT, "  %-14s %5s %7s  %-12s %-12s %-12s %-12s %-8s %-12s %-8s%n", "lot", "n", "passed",
+                    "mean", "sigma", "lowest", "highest", "Cpk", "difference", "change");
+            for (int i = 0; i < c.lots().size(); i++) {
+                var s = row.stats().get(i);
+                var cap = row.capability(i);
+                double rel = row.meanRelative(i);
+                out.println(String.format(Locale.ROOT, "  %-14s %5d %7s  %-12s %-12s %-12s %-12s %-8s %-12s %-8s",
+                        clip(c.lots().get(i).table().lot(), 14), cap.n(), s == null ? "-" : s.passed() + "/" + s.judged(),
+                        text(cap.mean(), unit), text(cap.sigma(), unit), text(s == null ? Double.NaN : s.lowest(), unit),
+                        text(s == null ? Double.NaN : s.highest(), unit),
+                        Double.isFinite(cap.cpk()) ? String.format(Locale.ROOT, "%.2f", cap.cpk()) : "-",
+                        i == 0 ? "" : text(row.meanDifference(i), unit),
+                        i == 0 || !Double.isFinite(rel) ? "" : String.format(Locale.ROOT, "%+.3f %%", 100 * rel))
+                        .stripTrailing());
+            }
+        }
         return ExitCode.OK;
     }
 
@@ -155,12 +232,17 @@ public final class CompareCommand implements Callable<Integer> {
         return written;
     }
 
-    private static void add(ArrayNode a, double v) {
-        if (Double.isFinite(v)) {
-            a.add(v);
-        } else {
-            a.addNull();
-        }
+    /** {@code zweep compare --json}: the runs, one row per compared quantity, the plots written. */
+    record CompareJson(List<RunJson> runs, List<RowJson> rows, List<String> plots) {
+    }
+
+    /** One compared run. */
+    record RunJson(String folder, String label, String runId, String serial, String lot, String verdict) {
+    }
+
+    /** One quantity: its value in each run, and each run's difference and relative change from the first. */
+    record RowJson(String kind, String name, String parameter, List<Double> values, List<Double> differences,
+            List<Double> relative) {
     }
 
     private static String clip(String s, int n) {

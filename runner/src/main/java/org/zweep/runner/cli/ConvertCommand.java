@@ -1,10 +1,6 @@
 package org.zweep.runner.cli;
 
-import com.fasterxml.jackson.core.JsonProcessingException;
-import com.fasterxml.jackson.databind.ObjectMapper;
-import com.fasterxml.jackson.databind.ObjectWriter;
 import java.io.PrintWriter;
-import java.io.UncheckedIOException;
 import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
@@ -12,6 +8,7 @@ import java.util.Map;
 import java.util.concurrent.Callable;
 import java.util.stream.Collectors;
 import org.zweep.driver.InvalidInputException;
+import org.zweep.runner.results.Json;
 import org.zweep.driver.impedance.DerivedParameter;
 import org.zweep.driver.impedance.EquivalentCircuit;
 import org.zweep.driver.impedance.Impedance;
@@ -22,6 +19,7 @@ import org.zweep.driver.impedance.Unit.Bound;
 import org.zweep.driver.uncertainty.MonteCarlo;
 import org.zweep.driver.uncertainty.UncertainImpedance;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.ParseResult;
@@ -42,7 +40,8 @@ import picocli.CommandLine.Spec;
             "C and L are magnitudes (positive); D, ESR and Rs may be zero; θ is in degrees.",
             "With --u-r/--u-x/--correlation (or --u-z/--u-theta/--correlation) it also prints the standard",
             "uncertainty u and the expanded uncertainty U (k = 2) of every parameter, by the law of",
-            "propagation of uncertainty (JCGM 100:2008); a missing u is zero."
+            "propagation of uncertainty (JCGM 100:2008); a missing u is zero.",
+            "With --json: one JSON object, SI numbers, null where a value is infinite."
         },
         footer = ExitCode.HELP_LIST)
 final class ConvertCommand implements Callable<Integer> {
@@ -50,7 +49,6 @@ final class ConvertCommand implements Callable<Integer> {
     private static final int TABLE_DIGITS = 6;
     private static final int UNCERTAINTY_DIGITS = 3;
     /** Immutable and thread-safe once built. */
-    private static final ObjectWriter JSON = new ObjectMapper().writerWithDefaultPrettyPrinter();
 
     /** One accepted input pair: its two options, their units and bounds, and the factory. */
     private record Pair(String first, Unit firstUnit, Bound firstBound, String second, Unit secondUnit,
@@ -149,8 +147,8 @@ final class ConvertCommand implements Callable<Integer> {
             description = "correlation coefficient of R and X (or of |Z| and θ), -1 to 1; default 0")
     String correlation;
 
-    @Option(names = "--json", description = "print one JSON object (SI numbers; null where infinite)")
-    boolean json;
+    @Mixin
+    JsonOption json;
 
     @Override
     public Integer call() {
@@ -170,7 +168,7 @@ final class ConvertCommand implements Callable<Integer> {
         Impedance impedance = pair.factory().make(frequencyHz, a, b);
         UncertainImpedance uncertain = uncertainty(impedance);
         PrintWriter out = spec.commandLine().getOut();
-        if (json) {
+        if (json.on()) {
             out.println(uncertain == null ? toJson(impedance) : toJson(uncertain));
         } else if (uncertain == null) {
             printTable(out, impedance, pair.family());
@@ -246,16 +244,9 @@ final class ConvertCommand implements Callable<Integer> {
         }
     }
 
-    /** The contract map as a JSON object; infinite values become {@code null}. */
+    /** The contract map as a JSON object ({@link Json}: infinite values become {@code null}). */
     static String toJson(Impedance impedance) {
-        Map<String, Double> values = new LinkedHashMap<>();
-        DerivedParameter.contractValues(impedance)
-                .forEach((k, v) -> values.put(k, Double.isFinite(v) ? v : null));
-        try {
-            return JSON.writeValueAsString(values);
-        } catch (JsonProcessingException e) {
-            throw new UncheckedIOException(e);
-        }
+        return Json.text(DerivedParameter.contractValues(impedance)).stripTrailing();
     }
 
     /** Draws of the Monte Carlo check; the seed is fixed so the same input prints the same figures. */
@@ -283,41 +274,33 @@ final class ConvertCommand implements Callable<Integer> {
      */
     static String toJson(UncertainImpedance z) {
         Map<String, Object> values = new LinkedHashMap<>();
-        DerivedParameter.contractValues(z.value()).forEach((k, v) -> values.put(k, finiteOrNull(v)));
+        values.putAll(DerivedParameter.contractValues(z.value()));
         for (DerivedParameter p : DerivedParameter.contract()) {
             if (p != DerivedParameter.FREQUENCY) {
-                values.put("u_" + p.key(), finiteOrNull(z.standardUncertainty(p)));
+                values.put("u_" + p.key(), z.standardUncertainty(p));
             }
         }
         for (DerivedParameter p : DerivedParameter.contract()) {
             if (p != DerivedParameter.FREQUENCY) {
-                values.put("U_" + p.key(), finiteOrNull(z.expandedUncertainty(p)));
+                values.put("U_" + p.key(), z.expandedUncertainty(p));
             }
         }
         values.put("coverage_factor", UncertainImpedance.COVERAGE_FACTOR);
         Map<String, Double> correlations = new LinkedHashMap<>();
         for (List<DerivedParameter> pq : CORRELATIONS) {
-            correlations.put(pq.get(0).key() + "," + pq.get(1).key(), finiteOrNull(z.correlation(pq.get(0), pq.get(1))));
+            correlations.put(pq.get(0).key() + "," + pq.get(1).key(), z.correlation(pq.get(0), pq.get(1)));
         }
         values.put("correlations", correlations);
         Map<String, Object> mc = new LinkedHashMap<>();
         monteCarloCheck(z).forEach((p, r) -> {
             Map<String, Double> o = new LinkedHashMap<>();
-            o.put("u", finiteOrNull(r.standardUncertainty()));
-            o.put("low95", finiteOrNull(r.low95()));
-            o.put("high95", finiteOrNull(r.high95()));
+            o.put("u", r.standardUncertainty());
+            o.put("low95", r.low95());
+            o.put("high95", r.high95());
             mc.put(p.key(), o);
         });
         values.put("monte_carlo", mc);
-        try {
-            return JSON.writeValueAsString(values);
-        } catch (JsonProcessingException e) {
-            throw new UncheckedIOException(e);
-        }
-    }
-
-    private static Double finiteOrNull(double v) {
-        return Double.isFinite(v) ? v : null;
+        return Json.text(values).stripTrailing();
     }
 
     private static void printTable(PrintWriter out, UncertainImpedance z, PartFamily family) {

@@ -9,7 +9,7 @@ import java.util.concurrent.Callable;
 import org.zweep.driver.InvalidInputException;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Model.CommandSpec;
-import picocli.CommandLine.Option;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Spec;
 
 /** {@code zweep demo}: runs the shipped capacitor sequence on the built-in simulator. */
@@ -30,23 +30,13 @@ public final class DemoCommand implements Callable<Integer> {
     @Spec
     CommandSpec spec;
 
-    @Option(names = "--out", paramLabel = "DIR", description = "the run folder to create (default: results/NAME-yyyyMMdd-HHmmss)")
-    Path out;
-
-    @Option(names = "--seed", paramLabel = "N", description = "the simulator's noise seed (default: the bench's)")
-    Long seed;
-
-    @Option(names = "--quiet", description = "no progress output")
-    boolean quiet;
-
-    @picocli.CommandLine.Mixin
-    FixtureOptions fixture;
+    @Mixin
+    RunOptions run;
 
     @Override
     public Integer call() {
         Path sequence = locate();
-        RunLauncher.Options o = new RunLauncher.Options(null, null, out, Path.of("results"), fixture, seed, quiet, null,
-                10, 60);
+        RunLauncher.Options o = run.builder().build();
         RunLauncher launcher = new RunLauncher(spec.commandLine().getOut(), spec.commandLine().getErr());
         int code = launcher.start(sequence, o);
         Path dir = launcher.finishedFolder();

@@ -100,7 +100,110 @@ public final class FixtureOptions {
         };
     }
 
-    private static BufferedReader stdin() {
-        return new BufferedReader(new InputStreamReader(System.in, StandardCharsets.UTF_8));
+    /** One reader of standard input for every port these options make (a lot makes one per part). */
+    private BufferedReader stdin;
+
+    private BufferedReader stdin() {
+        if (stdin == null) {
+            stdin = new BufferedReader(new InputStreamReader(System.in, StandardCharsets.UTF_8));
+        }
+        return stdin;
+    }
+
+    /**
+     * The port a lot asks for the next part through, before its run starts: the terminal, the line
+     * channels and the command hook as for a run; with the meter's own fixture or {@code --yes}
+     * (nobody to ask) the instruction is only shown.
+     */
+    FixturePort partPort(PrintWriter out) {
+        check();
+        boolean terminal = System.console() != null;
+        if (command != null) {
+            return FixturePort.command(command);
+        }
+        if ("stdin".equals(channel)) {
+            return FixturePort.lines("stdin", stdin(), out);
+        }
+        if (channel != null && channel.startsWith("pipe:")) {
+            return FixturePort.pipe(Path.of(channel.substring("pipe:".length())));
+        }
+        if ("terminal".equals(channel) || (channel == null && !yes && terminal)) {
+            if (!terminal) {
+                throw new InvalidInputException("--fixture terminal: there is no terminal; " + CHANNELS);
+            }
+            return FixturePort.operator(Prompter.terminal(stdin(), out));
+        }
+        return (state, instruction) -> {
+            out.println(">> " + instruction);
+            out.flush();
+        };
+    }
+
+    /**
+     * {@code --scan}: asks for the next part's serial (typed or scanned) on the terminal or a line
+     * channel ({@code serial N TEXT}, answered by the serial, {@code end} or {@code abort}).
+     * Returns the serial, or {@code null} when the lot is complete (an empty line or {@code end}).
+     *
+     * @throws InvalidInputException when nobody can answer (the meter's fixture, a command hook, no terminal)
+     * @throws org.zweep.runner.engine.RunInterruptedException on {@code abort} or the end of input
+     */
+    java.util.function.IntFunction<String> serialReader(PrintWriter out) {
+        check();
+        boolean terminal = System.console() != null;
+        boolean lines = "stdin".equals(channel) || (channel != null && channel.startsWith("pipe:"));
+        if (!lines && !(terminal && command == null && !"meter".equals(channel))) {
+            throw new InvalidInputException("--scan needs someone to type or scan each serial: a terminal,"
+                    + " --fixture stdin or --fixture pipe:PATH");
+        }
+        if (!lines) {
+            return k -> {
+                out.print(">> part " + k + ": scan or type its serial (an empty line ends the lot): ");
+                out.flush();
+                String line = readLine(stdin(), "the terminal");
+                return line.isBlank() ? null : line.strip();
+            };
+        }
+        boolean pipe = !"stdin".equals(channel);
+        Path path = pipe ? Path.of(channel.substring("pipe:".length())) : null;
+        return k -> {
+            String request = "serial " + k + " scan or type the serial of part " + k + " (end: the lot is complete)";
+            String answer;
+            if (pipe) {
+                try (PrintWriter w = new PrintWriter(java.nio.file.Files.newBufferedWriter(path, StandardCharsets.UTF_8))) {
+                    w.println(request);
+                } catch (java.io.IOException e) {
+                    throw new InvalidInputException("--fixture " + channel + ": cannot write requests: " + e.getMessage());
+                }
+                try (BufferedReader r = java.nio.file.Files.newBufferedReader(Path.of(path + ".reply"),
+                        StandardCharsets.UTF_8)) {
+                    answer = readLine(r, channel);
+                } catch (java.io.IOException e) {
+                    throw new InvalidInputException("--fixture " + channel + ": cannot read answers: " + e.getMessage());
+                }
+            } else {
+                out.println(request);
+                out.flush();
+                answer = readLine(stdin(), "stdin");
+            }
+            String a = answer.strip();
+            if (a.equalsIgnoreCase("abort")) {
+                throw new org.zweep.runner.engine.RunInterruptedException("abort answered on " + channel
+                        + " at the request for the serial of part " + k);
+            }
+            return a.isEmpty() || a.equalsIgnoreCase("end") ? null : a;
+        };
+    }
+
+    private static String readLine(BufferedReader r, String name) {
+        try {
+            String line = r.readLine();
+            if (line == null) {
+                throw new org.zweep.runner.engine.RunInterruptedException("input ended on " + name
+                        + " at the request for a serial");
+            }
+            return line;
+        } catch (java.io.IOException e) {
+            throw new java.io.UncheckedIOException(name + ": " + e.getMessage(), e);
+        }
     }
 }

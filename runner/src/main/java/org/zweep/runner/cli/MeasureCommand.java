@@ -1,10 +1,8 @@
 package org.zweep.runner.cli;
 
-import com.fasterxml.jackson.core.JsonProcessingException;
-import com.fasterxml.jackson.databind.ObjectMapper;
-import com.fasterxml.jackson.databind.SerializationFeature;
 import java.io.PrintWriter;
 import java.nio.file.Path;
+import java.time.Duration;
 import java.util.LinkedHashMap;
 import java.util.Locale;
 import java.util.Map;
@@ -29,6 +27,7 @@ import org.zweep.runner.engine.Station;
 import org.zweep.runner.engine.Waiter;
 import org.zweep.runner.plan.BiasControl;
 import org.zweep.runner.plan.SafetyLimits;
+import org.zweep.runner.results.Json;
 import org.zweep.runner.safety.BiasOffHook;
 import org.zweep.runner.safety.BiasRamp;
 import org.zweep.runner.safety.SafetyGuard;
@@ -38,7 +37,7 @@ import org.zweep.runner.sim.MeterLinks;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
-import picocli.CommandLine.Parameters;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Spec;
 
 /** {@code zweep measure ADDRESS --frequency F}: one point, every derived parameter. */
@@ -51,15 +50,15 @@ import picocli.CommandLine.Spec;
                 + "checked against the safety limits (options, or a sequence's safety section) before anything is "
                 + "sent; DC bias is ramped up and down at --ramp as in 'zweep run', also on Ctrl-C."
         },
+        defaultValueProvider = OptionDefaults.class,
         footer = ExitCode.HELP_LIST)
 public final class MeasureCommand implements Callable<Integer> {
 
     @Spec
     CommandSpec spec;
 
-    @Parameters(index = "0", paramLabel = "ADDRESS",
-            description = "the meter (tcp://HOST[:PORT], serial:DEVICE, sim:BENCH_FILE[?timing=real|none])")
-    String address;
+    @Mixin
+    MeterAddress meter;
 
     @Option(names = "--frequency", required = true, paramLabel = "F", description = "test frequency, e.g. 1kHz")
     String frequency;
@@ -71,15 +70,20 @@ public final class MeasureCommand implements Callable<Integer> {
     @Option(names = "--bias", paramLabel = "B", description = "DC bias in V or A, e.g. 2V or 100mA (default: off)")
     String bias;
 
-    @Option(names = "--dialect", paramLabel = "DIALECT", defaultValue = "standard",
-            description = "the meter's dialect, a name or a file (default: ${DEFAULT-VALUE})")
-    String dialect;
+    @Mixin
+    DialectOption dialect;
 
-    @Option(names = "--json", description = "print one JSON object")
-    boolean json;
+    @Mixin
+    TimeoutOption timeout;
 
-    @picocli.CommandLine.Mixin
-    FixtureOptions fixture = FixtureOptions.defaults();
+    @Mixin
+    TraceOption trace;
+
+    @Mixin
+    JsonOption json;
+
+    @Mixin
+    FixtureOptions fixture;
 
     @Option(names = "--sequence", paramLabel = "FILE",
             description = "take the safety limits from this sequence's safety section (the options below override)")
@@ -105,9 +109,10 @@ public final class MeasureCommand implements Callable<Integer> {
             + " (default: no limit)")
     String ramp;
 
-    @Option(names = "--settle", paramLabel = "T", defaultValue = "0 s",
-            description = "wait after a bias change before measuring (default: ${DEFAULT-VALUE})")
-    String settle;
+    @Option(names = "--settle", paramLabel = "DURATION", defaultValue = "0s", converter = DurationConverter.class,
+            description = "wait after a bias change before measuring, e.g. 500ms, 2s or a number of seconds"
+                    + " (default: ${DEFAULT-VALUE})")
+    Duration settle;
 
     @Override
     public Integer call() {
@@ -126,12 +131,14 @@ public final class MeasureCommand implements Callable<Integer> {
         }
         guard.check(s, "--level/--bias");
         BiasControl control = new BiasControl(ramp == null ? Double.POSITIVE_INFINITY : rate(ramp, b.mode()),
-                Quantities.parse(settle, Unit.SECOND, Unit.Bound.NON_NEGATIVE));
+                settle.toMillis() / 1000.0);
         Reading r;
         String identity;
         PrintWriter err = spec.commandLine().getErr();
         Interruption interruption = new Interruption();
-        try (ScpiMeterLink link = MeterLinks.open(address, dialect, ScpiSettings.DEFAULTS)) {
+        String address = meter.get();
+        ScpiSettings settings = ScpiSettings.builder().readTimeout(timeout.get()).tracePath(trace.get()).build();
+        try (ScpiMeterLink link = MeterLinks.open(address, dialect.orNull(), settings)) {
             boolean waits = link.timed();
             java.util.function.Consumer<String> note = line -> {
                 err.println("zweep: " + line);
@@ -202,9 +209,9 @@ public final class MeasureCommand implements Callable<Integer> {
         MeasurementSetting s = r.setting();
         boolean ok = r.status() == ReadingStatus.OK;
         Impedance z = r.impedance();
-        if (json) {
+        if (json.on()) {
             Map<String, Object> m = new LinkedHashMap<>();
-            m.put("address", address);
+            m.put("address", meter.get());
             m.put("identity", identity);
             m.put("drive", s.drive().mode().unit());
             m.put("level", s.drive().levelRms());
@@ -213,13 +220,9 @@ public final class MeasureCommand implements Callable<Integer> {
             m.put("status", ok ? "ok" : "no_value");
             m.put("time", r.timestamp().toString());
             for (Map.Entry<String, Double> e : DerivedParameter.contractValues(z).entrySet()) {
-                m.put(e.getKey(), ok && Double.isFinite(e.getValue()) ? e.getValue() : null);
+                m.put(e.getKey(), ok ? e.getValue() : null);
             }
-            try {
-                out.println(new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT).writeValueAsString(m));
-            } catch (JsonProcessingException e) {
-                throw new IllegalStateException(e);
-            }
+            out.print(Json.text(m));
             return;
         }
         out.println("meter: " + identity);

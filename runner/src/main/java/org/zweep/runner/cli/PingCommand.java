@@ -1,18 +1,16 @@
 package org.zweep.runner.cli;
 
-import com.fasterxml.jackson.databind.ObjectMapper;
-import com.fasterxml.jackson.databind.node.ObjectNode;
 import java.io.PrintWriter;
-import java.time.Duration;
 import java.util.Locale;
 import java.util.concurrent.Callable;
 import org.zweep.driver.scpi.ScpiClient;
 import org.zweep.driver.scpi.ScpiSettings;
+import org.zweep.runner.results.Json;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Model.CommandSpec;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.ParameterException;
-import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
 
 /** {@code zweep ping}: measures the query round trip of a link. */
@@ -23,14 +21,14 @@ import picocli.CommandLine.Spec;
             "Measures the query round trip to the meter at ADDRESS.",
             "Sends the query COUNT times, one after the other, after one unmeasured warm-up, and prints count,"
                     + " min, median, 99th percentile and max in microseconds and queries per second.",
-            "ADDRESS: tcp://HOST[:PORT], serial:DEVICE[?baud=N&...], sim:[BENCH], TCPIP::HOST::PORT::SOCKET,"
-                    + " ASRL<device>::INSTR."
+            "With --json: one JSON object with count, min_us, median_us, p99_us, max_us and per_s."
         },
+        defaultValueProvider = OptionDefaults.class,
         footer = ExitCode.HELP_LIST)
 final class PingCommand implements Callable<Integer> {
 
-    @Parameters(index = "0", paramLabel = "ADDRESS", description = "Where the meter is.")
-    String address;
+    @Mixin
+    MeterAddress address;
 
     @Option(names = "--count", paramLabel = "N", defaultValue = "100",
             description = "Number of measured queries (default: ${DEFAULT-VALUE}).")
@@ -40,12 +38,11 @@ final class PingCommand implements Callable<Integer> {
             description = "The query to time (default: ${DEFAULT-VALUE}).")
     String query;
 
-    @Option(names = "--json", description = "Print one JSON object: count, min_us, median_us, p99_us, max_us, per_s.")
-    boolean json;
+    @Mixin
+    JsonOption json;
 
-    @Option(names = "--timeout", paramLabel = "DURATION", defaultValue = "5s", converter = DurationConverter.class,
-            description = "Read timeout per reply, e.g. 500ms or 2s (default: ${DEFAULT-VALUE}).")
-    Duration timeout;
+    @Mixin
+    TimeoutOption timeout;
 
     @Spec
     CommandSpec spec;
@@ -59,7 +56,7 @@ final class PingCommand implements Callable<Integer> {
             throw new ParameterException(spec.commandLine(), "--query '" + query + "' is not a query (no '?')");
         }
         long[] nanos = new long[count];
-        try (ScpiClient client = ScpiClient.open(address, ScpiSettings.builder().readTimeout(timeout).build())) {
+        try (ScpiClient client = ScpiClient.open(address.get(), ScpiSettings.builder().readTimeout(timeout.get()).build())) {
             client.query(query);
             for (int i = 0; i < count; i++) {
                 long t0 = System.nanoTime();
@@ -69,18 +66,11 @@ final class PingCommand implements Callable<Integer> {
         }
         RoundTripStats s = RoundTripStats.ofNanos(nanos);
         PrintWriter out = spec.commandLine().getOut();
-        if (json) {
-            ObjectMapper mapper = new ObjectMapper();
-            ObjectNode o = mapper.createObjectNode();
-            o.put("count", s.count());
-            o.put("min_us", round(s.minUs()));
-            o.put("median_us", round(s.medianUs()));
-            o.put("p99_us", round(s.p99Us()));
-            o.put("max_us", round(s.maxUs()));
-            o.put("per_s", round(s.perS()));
-            out.println(mapper.writeValueAsString(o));
+        if (json.on()) {
+            out.println(Json.line(new RoundTripStats(s.count(), round(s.minUs()), round(s.medianUs()),
+                    round(s.p99Us()), round(s.maxUs()), round(s.perS()))));
         } else {
-            out.printf(Locale.ROOT, "%s  %s  %d queries%n", address, query, s.count());
+            out.printf(Locale.ROOT, "%s  %s  %d queries%n", address.get(), query, s.count());
             out.printf(Locale.ROOT, "min %.1f µs  median %.1f µs  p99 %.1f µs  max %.1f µs  %.0f queries/s%n",
                     s.minUs(), s.medianUs(), s.p99Us(), s.maxUs(), s.perS());
         }

@@ -1,7 +1,6 @@
 package org.zweep.runner.cli;
 
 import java.io.PrintWriter;
-import java.time.Duration;
 import java.util.List;
 import java.util.Locale;
 import java.util.concurrent.Callable;
@@ -16,8 +15,7 @@ import org.zweep.driver.scpi.ScpiSettings;
 import org.zweep.runner.sim.InProcessSimulator;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Model.CommandSpec;
-import picocli.CommandLine.Option;
-import picocli.CommandLine.Parameters;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Spec;
 
 /** {@code zweep probe}: tries every operation a dialect declares on a meter, for onboarding a new meter. */
@@ -32,34 +30,32 @@ import picocli.CommandLine.Spec;
                     + " correction standard while it is in the fixture) and measures once.",
             "Prints a table: operation, ok / FAILED (with the meter's own error) / skipped / not declared.",
             "Exit 0 only when every declared operation worked (skipped ones do not count: the table says why);"
-                    + " 1 when one failed; 2 for a bad address or dialect; 3 when the meter cannot be reached.",
-            "ADDRESS: tcp://HOST[:PORT], serial:DEVICE[?baud=N&...], sim:[BENCH], TCPIP::HOST::PORT::SOCKET,"
-                    + " ASRL<device>::INSTR."
+                    + " 1 when one failed; 2 for a bad address or dialect; 3 when the meter cannot be reached."
         },
+        defaultValueProvider = OptionDefaults.class,
         footer = ExitCode.HELP_LIST)
 final class ProbeCommand implements Callable<Integer> {
 
-    @Parameters(index = "0", paramLabel = "ADDRESS", description = "Where the meter is.")
-    String address;
+    @Mixin
+    MeterAddress meter;
 
-    @Option(names = "--dialect", paramLabel = "DIALECT", required = true,
-            description = "The dialect to try: a built-in name (standard, mz300) or a .yaml file.")
-    String dialect;
+    @Mixin
+    DialectOption dialect;
 
-    @Option(names = "--timeout", paramLabel = "DURATION", defaultValue = "5s", converter = DurationConverter.class,
-            description = "Read timeout per reply, beyond the work the dialect's timing expects (default: ${DEFAULT-VALUE}).")
-    Duration timeout;
+    @Mixin
+    TimeoutOption timeout;
 
     @Spec
     CommandSpec spec;
 
     @Override
     public Integer call() {
-        Dialect d = Dialect.load(dialect);
+        Dialect d = Dialect.load(dialect.required());
+        String address = meter.get();
         Address a = Address.parse(address);
         // only what the dialect declares is sent: no *CLS on connecting, and no *OPC? to get back in
         // step after a timeout (the late reply is drained instead)
-        ScpiSettings settings = ScpiSettings.builder().readTimeout(timeout).clearOnConnect(false)
+        ScpiSettings settings = ScpiSettings.builder().readTimeout(timeout.get()).clearOnConnect(false)
                 .resync(Resync.DRAIN).build();
         List<DialectProbe.Outcome> outcomes;
         try (InProcessSimulator sim = a instanceof SimAddress ? InProcessSimulator.start(address) : null) {

@@ -1,9 +1,11 @@
 package org.zweep.runner.cli;
 
 import java.nio.file.Path;
+import java.time.Duration;
 import java.util.concurrent.Callable;
 import org.zweep.driver.InvalidInputException;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
@@ -19,6 +21,7 @@ import picocli.CommandLine.Spec;
                 + "progress, turns DC bias off and leaves a resumable folder; a second Ctrl-C stops at once "
                 + "(bias off first). A lost link is reconnected with back-off and the point measured again."
         },
+        defaultValueProvider = OptionDefaults.class,
         footer = ExitCode.HELP_LIST + "  130 stopped by Ctrl-C, a signal or at the fixture (resumable)%n")
 public final class RunCommand implements Callable<Integer> {
 
@@ -28,38 +31,29 @@ public final class RunCommand implements Callable<Integer> {
     @Parameters(index = "0", arity = "0..1", paramLabel = "FILE", description = "the sequence file (YAML)")
     Path file;
 
-    @Option(names = "--meter", paramLabel = "ADDRESS", description = "use this meter instead of the sequence's "
-            + "(tcp://HOST[:PORT], serial:DEVICE, sim:BENCH_FILE[?timing=real|none][&seed=N], sim:tcp://HOST:PORT)")
+    @Option(names = "--meter", paramLabel = "ADDRESS", description = "use this meter instead of the sequence's: "
+            + MeterAddress.FORMS)
     String meter;
 
-    @Option(names = "--dialect", paramLabel = "DIALECT", description = "the meter's dialect (name or file) instead of the sequence's")
-    String dialect;
-
-    @Option(names = "--out", paramLabel = "DIR", description = "the run folder to create (default: results/NAME-yyyyMMdd-HHmmss)")
-    Path out;
+    @Mixin
+    DialectOption dialect;
 
     @Option(names = "--resume", paramLabel = "DIR", description = "continue the run in this folder (needs only the folder)")
     Path resume;
 
-    @picocli.CommandLine.Mixin
-    FixtureOptions fixture;
+    @Mixin
+    RunOptions run;
 
-    @Option(names = "--seed", paramLabel = "N", description = "the noise seed of a sim: meter's bench, as sim:...?seed=N (default: the bench's; on resume: the run's)")
-    Long seed;
+    @Mixin
+    TraceOption trace;
 
-    @Option(names = "--quiet", description = "no progress output")
-    boolean quiet;
+    @Mixin
+    TimeoutOption timeout;
 
-    @Option(names = "--trace", paramLabel = "FILE", description = "append the SCPI traffic to FILE")
-    Path trace;
-
-    @Option(names = "--timeout", paramLabel = "SECONDS", defaultValue = "10",
-            description = "the longest wait for a reply (default: ${DEFAULT-VALUE} s)")
-    double timeoutS;
-
-    @Option(names = "--reconnect-budget", paramLabel = "SECONDS", defaultValue = "60",
-            description = "give up reconnecting after this many seconds of waiting (default: ${DEFAULT-VALUE} s)")
-    double reconnectBudgetS;
+    @Option(names = "--reconnect-budget", paramLabel = "DURATION", converter = DurationConverter.class,
+            description = "give up reconnecting after this much waiting, e.g. 30s, 2min or a number of seconds"
+                    + " (default: ${DEFAULT-VALUE})")
+    Duration reconnectBudget;
 
     @Option(names = "--live", arity = "0..1", fallbackValue = "0", paramLabel = "PORT",
             description = "serve the live page of the run (plots as points arrive, progress, prompts to answer) on"
@@ -83,7 +77,7 @@ public final class RunCommand implements Callable<Integer> {
             description = "this test station's name (default: station: in the station file, ~/.zweep/station.yaml)")
     String station;
 
-    @picocli.CommandLine.Mixin
+    @Mixin
     StoreOptions store;
 
     @Option(names = "--no-index", description = "do not add the run to the results index at its end")
@@ -94,14 +88,11 @@ public final class RunCommand implements Callable<Integer> {
         if ((file == null) == (resume == null)) {
             throw new InvalidInputException("give either a sequence FILE or --resume DIR");
         }
-        if (resume != null && out != null) {
+        if (resume != null && run.out != null) {
             throw new InvalidInputException("--out cannot be used with --resume (the run continues in its folder)");
         }
-        if (!(timeoutS > 0) || !(reconnectBudgetS >= 0)) {
-            throw new InvalidInputException("--timeout must be positive and --reconnect-budget not negative");
-        }
-        RunLauncher.Options o = new RunLauncher.Options(meter, dialect, out, Path.of("results"), fixture, seed, quiet,
-                trace, timeoutS, reconnectBudgetS);
+        RunLauncher.Options o = run.builder().meter(meter).dialect(dialect.orNull()).trace(trace.get())
+                .timeout(timeout.get()).reconnectBudget(reconnectBudget).build();
         RunLauncher l = new RunLauncher(spec.commandLine().getOut(), spec.commandLine().getErr());
         if (resume != null && (serial != null || lot != null || operator != null || station != null)) {
             throw new InvalidInputException("--serial, --lot, --operator and --station cannot be used with --resume"
@@ -122,7 +113,7 @@ public final class RunCommand implements Callable<Integer> {
         return resume != null ? l.resume(resume, o) : l.start(file, o);
     }
 
-    private static String text(String v, String option) {
+    static String text(String v, String option) {
         if (v == null) {
             return null;
         }

@@ -55,7 +55,8 @@ import org.zweep.runner.sim.MeterLinks;
 /** What {@code zweep run} and {@code zweep demo} share: starting or resuming a run and summing it up. */
 final class RunLauncher {
     /**
-     * Options of one run.
+     * Options of one run; build with {@link #builder()}, which holds the defaults {@code run} and
+     * {@code demo} share.
      *
      * @param meter an address overriding the sequence's, or {@code null}
      * @param dialect a dialect overriding the sequence's, or {@code null}
@@ -65,11 +66,92 @@ final class RunLauncher {
      * @param seed the noise seed of a {@code sim:} meter's bench, or {@code null}
      * @param quiet no progress output
      * @param trace a traffic trace file, or {@code null}
-     * @param timeoutS the meter's reply timeout in seconds
-     * @param reconnectBudgetS the most seconds spent reconnecting after one failure
+     * @param timeout the slack of each reply's deadline beyond the meter's expected work
+     * @param reconnectBudget the most time spent reconnecting after one failure
      */
-    record Options(String meter, String dialect, Path out, Path resultsDir, FixtureOptions fixture, Long seed, boolean quiet,
-            Path trace, double timeoutS, double reconnectBudgetS) {
+    record Options(String meter, String dialect, Path out, Path resultsDir, FixtureOptions fixture, Long seed,
+            boolean quiet, Path trace, Duration timeout, Duration reconnectBudget) {
+        /** The reply slack of a run when {@code --timeout} is not given. */
+        static final Duration DEFAULT_TIMEOUT = Duration.ofSeconds(10);
+        /** The reconnect budget of a run when {@code --reconnect-budget} is not given. */
+        static final Duration DEFAULT_RECONNECT_BUDGET = Duration.ofMillis(
+                Math.round(ReconnectPolicy.DEFAULT.budgetS() * 1000));
+        /** Where fresh run folders go. */
+        static final Path DEFAULT_RESULTS = Path.of("results");
+
+        /** A builder with the defaults: fresh folder under {@code results/}, default fixture, no trace. */
+        static Builder builder() {
+            return new Builder();
+        }
+
+        /** Builds {@link Options}; every field starts at its default. */
+        static final class Builder {
+            private String meter;
+            private String dialect;
+            private Path out;
+            private Path resultsDir = DEFAULT_RESULTS;
+            private FixtureOptions fixture = FixtureOptions.defaults();
+            private Long seed;
+            private boolean quiet;
+            private Path trace;
+            private Duration timeout = DEFAULT_TIMEOUT;
+            private Duration reconnectBudget = DEFAULT_RECONNECT_BUDGET;
+
+            Builder meter(String v) {
+                meter = v;
+                return this;
+            }
+
+            Builder dialect(String v) {
+                dialect = v;
+                return this;
+            }
+
+            Builder out(Path v) {
+                out = v;
+                return this;
+            }
+
+            Builder resultsDir(Path v) {
+                resultsDir = v;
+                return this;
+            }
+
+            Builder fixture(FixtureOptions v) {
+                fixture = v;
+                return this;
+            }
+
+            Builder seed(Long v) {
+                seed = v;
+                return this;
+            }
+
+            Builder quiet(boolean v) {
+                quiet = v;
+                return this;
+            }
+
+            Builder trace(Path v) {
+                trace = v;
+                return this;
+            }
+
+            Builder timeout(Duration v) {
+                timeout = v;
+                return this;
+            }
+
+            Builder reconnectBudget(Duration v) {
+                reconnectBudget = v;
+                return this;
+            }
+
+            Options build() {
+                return new Options(meter, dialect, out, resultsDir, fixture, seed, quiet, trace, timeout,
+                        reconnectBudget);
+            }
+        }
     }
 
     private final PrintWriter out;
@@ -249,7 +331,7 @@ final class RunLauncher {
     }
 
     private int execute(Plan plan, RunFolder folder, boolean resuming, String sequenceFile, Long seed, Options o) {
-        ScpiSettings.Builder sb = ScpiSettings.builder().readTimeout(Duration.ofMillis((long) (o.timeoutS() * 1000)));
+        ScpiSettings.Builder sb = ScpiSettings.builder().readTimeout(o.timeout());
         if (o.trace() != null) {
             sb.tracePath(o.trace());
         }
@@ -279,7 +361,7 @@ final class RunLauncher {
             FixturePort fixture = o.fixture().port(link, livePrompter, out, progress::note);
             Clock clock = Clock.systemUTC();
             RunSession session = new RunSession(plan, link, new RunSession.Setup(folder, resuming, sequenceFile,
-                    plan.meter().dialect(), noiseSeed, ReconnectPolicy.DEFAULT.withBudgetS(o.reconnectBudgetS()), fixture,
+                    plan.meter().dialect(), noiseSeed, ReconnectPolicy.DEFAULT.withBudgetS(o.reconnectBudget().toMillis() / 1000.0), fixture,
                     progress, interruption,
                     (station, res, log) -> CompensationWorkflow.prepare(plan, station, folder, res, clock, log),
                     f -> Analysis.sweepFigures(RunData.read(f.dir())), clock, VersionProvider.version()));

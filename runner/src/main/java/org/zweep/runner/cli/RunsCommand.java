@@ -1,8 +1,5 @@
 package org.zweep.runner.cli;
 
-import com.fasterxml.jackson.databind.ObjectMapper;
-import com.fasterxml.jackson.databind.PropertyNamingStrategies;
-import com.fasterxml.jackson.databind.SerializationFeature;
 import java.io.PrintWriter;
 import java.time.Instant;
 import java.time.LocalDate;
@@ -12,6 +9,7 @@ import java.util.List;
 import java.util.Locale;
 import java.util.concurrent.Callable;
 import org.zweep.driver.InvalidInputException;
+import org.zweep.runner.results.Json;
 import org.zweep.runner.store.ResultsStore;
 import org.zweep.runner.store.RunsQuery;
 import picocli.CommandLine.Command;
@@ -24,9 +22,6 @@ import picocli.CommandLine.Spec;
 @Command(name = "runs", mixinStandardHelpOptions = true,
         description = "Lists the runs in the results index, oldest first.", footer = ExitCode.HELP_LIST)
 public final class RunsCommand implements Callable<Integer> {
-    static final ObjectMapper JSON = new ObjectMapper().setPropertyNamingStrategy(PropertyNamingStrategies.SNAKE_CASE)
-            .enable(SerializationFeature.INDENT_OUTPUT);
-
     @Spec
     CommandSpec spec;
 
@@ -46,8 +41,8 @@ public final class RunsCommand implements Callable<Integer> {
     @Option(names = "--verdict", paramLabel = "V", description = "only runs with this verdict: pass, fail or none")
     String verdict;
 
-    @Option(names = "--json", description = "the list as JSON")
-    boolean json;
+    @Mixin
+    JsonOption json;
 
     @Override
     public Integer call() throws Exception {
@@ -60,8 +55,8 @@ public final class RunsCommand implements Callable<Integer> {
             rows = q.run(s);
         }
         PrintWriter out = spec.commandLine().getOut();
-        if (json) {
-            out.println(JSON.writeValueAsString(rows));
+        if (json.on()) {
+            out.print(Json.text(rows));
             return ExitCode.OK;
         }
         String fmt = "%-30s  %-36s  %-14s  %-10s  %-8s  %-9s  %-7s  %s%n";

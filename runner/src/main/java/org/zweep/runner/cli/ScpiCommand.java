@@ -24,7 +24,7 @@ import org.zweep.driver.scpi.ScpiValues;
 import org.zweep.driver.transport.ConnectionLostException;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Model.CommandSpec;
-import picocli.CommandLine.Option;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
 
@@ -35,25 +35,23 @@ import picocli.CommandLine.Spec;
         description = {
             "Sends each COMMAND to the meter at ADDRESS in order and prints each query's reply on its own line.",
             "Without COMMAND: an interactive console with history (or, when standard input is not a terminal,"
-                    + " one command per input line). A message containing '?' is a query.",
-            "ADDRESS: tcp://HOST[:PORT], serial:DEVICE[?baud=N&...], sim:[BENCH], TCPIP::HOST::PORT::SOCKET,"
-                    + " ASRL<device>::INSTR."
+                    + " one command per input line). A message containing '?' is a query."
         },
+        defaultValueProvider = OptionDefaults.class,
         footer = ExitCode.HELP_LIST)
 final class ScpiCommand implements Callable<Integer> {
 
-    @Parameters(index = "0", paramLabel = "ADDRESS", description = "Where the meter is.")
-    String address;
+    @Mixin
+    MeterAddress address;
 
     @Parameters(index = "1..*", paramLabel = "COMMAND", description = "SCPI program messages, sent in order.")
     List<String> commands = List.of();
 
-    @Option(names = "--timeout", paramLabel = "DURATION", defaultValue = "5s", converter = DurationConverter.class,
-            description = "Read timeout per reply, e.g. 500ms or 2s (default: ${DEFAULT-VALUE}).")
-    Duration timeout;
+    @Mixin
+    TimeoutOption timeout;
 
-    @Option(names = "--trace", paramLabel = "FILE", description = "Append the traffic, timestamped, to FILE.")
-    Path trace;
+    @Mixin
+    TraceOption trace;
 
     @Spec
     CommandSpec spec;
@@ -72,10 +70,10 @@ final class ScpiCommand implements Callable<Integer> {
     @Override
     public Integer call() throws IOException {
         PrintWriter out = spec.commandLine().getOut();
-        ScpiSettings settings = ScpiSettings.builder().readTimeout(timeout).tracePath(trace).build();
+        ScpiSettings settings = ScpiSettings.builder().readTimeout(timeout.get()).tracePath(trace.get()).build();
         PrintWriter err = spec.commandLine().getErr();
         int failed = 0;
-        try (ScpiClient client = ScpiClient.open(address, settings)) {
+        try (ScpiClient client = ScpiClient.open(address.get(), settings)) {
             if (!commands.isEmpty()) {
                 int n = 0;
                 for (String c : commands) {

@@ -6,6 +6,7 @@ import java.net.InetAddress;
 import java.net.UnknownHostException;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.time.Duration;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.concurrent.Callable;
@@ -122,14 +123,16 @@ public final class SimCommand implements Callable<Integer> {
     @Option(names = "--drop-after", paramLabel = "N", description = "Close each connection after its N-th message (= --fault drop@N).")
     Long dropAfter;
 
-    @Option(names = "--drop-idle", paramLabel = "SECONDS", description = "Close a connection idle this long (= --fault drop-idle=S).")
-    String dropIdle;
+    @Option(names = "--drop-idle", paramLabel = "DURATION", converter = DurationConverter.class,
+            description = "Close a connection idle this long, e.g. 30s or a number of seconds (= --fault drop-idle=S).")
+    Duration dropIdle;
 
     @Option(names = "--drop-random", paramLabel = "P", description = "Close on each message with probability P (= --fault drop-random=P).")
     String dropRandom;
 
-    @Option(names = "--delay", paramLabel = "SECONDS", description = "Delay every reply (= --fault delay=S).")
-    String delay;
+    @Option(names = "--delay", paramLabel = "DURATION", converter = DurationConverter.class,
+            description = "Delay every reply, e.g. 200ms or a number of seconds (= --fault delay=S).")
+    Duration delay;
 
     @Option(names = "--fragment", paramLabel = "BYTES", description = "Send replies in pieces (= --fault fragment=BYTES).")
     Integer fragment;
@@ -304,13 +307,13 @@ public final class SimCommand implements Callable<Integer> {
             specs.add("drop@" + dropAfter);
         }
         if (dropIdle != null) {
-            specs.add("drop-idle=" + dropIdle);
+            specs.add("drop-idle=" + seconds(dropIdle));
         }
         if (dropRandom != null) {
             specs.add("drop-random=" + dropRandom);
         }
         if (delay != null) {
-            specs.add("delay=" + delay);
+            specs.add("delay=" + seconds(delay));
         }
         if (fragment != null) {
             specs.add("fragment=" + fragment);
@@ -320,5 +323,10 @@ public final class SimCommand implements Callable<Integer> {
         } catch (IllegalArgumentException e) {
             throw new InvalidInputException("--fault: " + e.getMessage());
         }
+    }
+
+    /** {@code d} in seconds as the fault grammar writes them ({@code 0.2}). */
+    private static String seconds(Duration d) {
+        return java.math.BigDecimal.valueOf(d.toMillis(), 3).stripTrailingZeros().toPlainString();
     }
 }

@@ -1,7 +1,5 @@
 package org.zweep.runner.cli;
 
-import com.fasterxml.jackson.databind.node.ArrayNode;
-import com.fasterxml.jackson.databind.node.ObjectNode;
 import java.io.PrintWriter;
 import java.nio.file.Path;
 import java.util.Locale;
@@ -9,6 +7,7 @@ import java.util.concurrent.Callable;
 import org.zweep.driver.InvalidInputException;
 import org.zweep.driver.impedance.Quantities;
 import org.zweep.driver.impedance.Unit;
+import org.zweep.runner.results.Json;
 import org.zweep.runner.store.Capability;
 import org.zweep.runner.store.ControlChart;
 import org.zweep.runner.store.ResultsStore;
@@ -40,8 +39,8 @@ public final class TrendCommand implements Callable<Integer> {
     @Option(names = "--check", required = true, paramLabel = "NAME", description = "the check's name")
     String check;
 
-    @Option(names = "--json", description = "the values and figures as JSON")
-    boolean json;
+    @Mixin
+    JsonOption json;
 
     @Option(names = "--chart", paramLabel = "FILE", description = "write the control chart (PNG, or SVG for *.svg)")
     Path chart;
@@ -61,30 +60,9 @@ public final class TrendCommand implements Callable<Integer> {
         }
         PrintWriter out = spec.commandLine().getOut();
         Capability c = t.capability();
-        if (json) {
-            ObjectNode root = RunsCommand.JSON.createObjectNode();
-            root.put("part", t.part());
-            root.put("check", t.check());
-            root.put("parameter", t.parameter());
-            ArrayNode runs = root.putArray("runs");
-            for (Trend.Point p : t.points()) {
-                ObjectNode n = runs.addObject();
-                n.put("run_id", p.runId());
-                n.put("started", p.started());
-                n.put("serial", p.serial());
-                n.put("lot", p.lot());
-                put(n, "value", p.value());
-                n.put("result", p.result());
-            }
-            root.put("n", c.n());
-            put(root, "mean", c.mean());
-            put(root, "sigma", c.sigma());
-            put(root, "lsl", c.lsl());
-            put(root, "usl", c.usl());
-            put(root, "cpk", c.cpk());
-            put(root, "lcl", c.lcl());
-            put(root, "ucl", c.ucl());
-            out.println(RunsCommand.JSON.writeValueAsString(root));
+        if (json.on()) {
+            out.print(Json.text(new TrendJson(t.part(), t.check(), t.parameter(), t.points(), c.n(), c.mean(),
+                    c.sigma(), c.lsl(), c.usl(), c.cpk(), c.lcl(), c.ucl())));
             return ExitCode.OK;
         }
         Unit unit = unitOf(t.parameter());
@@ -107,12 +85,9 @@ public final class TrendCommand implements Callable<Integer> {
         return ExitCode.OK;
     }
 
-    private static void put(ObjectNode n, String key, double v) {
-        if (Double.isFinite(v)) {
-            n.put(key, v);
-        } else {
-            n.putNull(key);
-        }
+    /** {@code zweep trend --json}: the check's values run by run, then the capability figures. */
+    record TrendJson(String part, String check, String parameter, java.util.List<Trend.Point> runs, int n,
+            double mean, double sigma, double lsl, double usl, double cpk, double lcl, double ucl) {
     }
 
     private static String text(double v, Unit unit) {

@@ -1,7 +1,6 @@
 package org.zweep.runner.cli;
 
 import com.fasterxml.jackson.databind.JsonNode;
-import com.fasterxml.jackson.databind.ObjectMapper;
 import java.io.IOException;
 import java.io.PrintWriter;
 import java.io.RandomAccessFile;
@@ -16,6 +15,7 @@ import java.util.concurrent.Callable;
 import org.zweep.driver.InvalidInputException;
 import org.zweep.driver.impedance.Unit;
 import org.zweep.runner.live.EventLog;
+import org.zweep.runner.results.Json;
 import org.zweep.runner.live.LiveServer;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Model.CommandSpec;
@@ -37,7 +37,6 @@ import org.zweep.runner.text.Figures;
         },
         footer = ExitCode.HELP_LIST)
 final class WatchCommand implements Callable<Integer> {
-    private static final ObjectMapper JSON = new ObjectMapper();
     private static final String BARS = "▁▂▃▄▅▆▇█";
 
     @Parameters(index = "0", paramLabel = "DIR", description = "the run folder")
@@ -117,7 +116,7 @@ final class WatchCommand implements Callable<Integer> {
                 }
             }
             for (String line : lines) {
-                JsonNode e = JSON.readTree(line);
+                JsonNode e = Json.readTree(line);
                 switch (e.path("type").asText()) {
                     case "run_started" -> {
                         mainKey = e.path("main_parameter").asText(mainKey);

@@ -1,7 +1,5 @@
 package org.zweep.runner.live;
 
-import com.fasterxml.jackson.databind.ObjectMapper;
-import com.fasterxml.jackson.databind.node.ObjectNode;
 import java.io.IOException;
 import java.io.OutputStream;
 import java.io.UncheckedIOException;
@@ -10,18 +8,21 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.nio.file.StandardOpenOption;
 import java.time.Clock;
+import java.util.LinkedHashMap;
+import java.util.Map;
 import java.util.function.Consumer;
+import org.zweep.runner.results.Json;
 
 /**
  * Appends a run's events to {@code DIR/events.jsonl}, one JSON object a line, each with
- * {@code type} and {@code time_ms} (milliseconds since the epoch) and snake_case fields. The file
+ * {@code type} and {@code time_ms} (milliseconds since the epoch) and snake_case fields, written
+ * by {@link Json#line} (a number that is not finite is {@code null}). The file
  * is opened for appending, so a resumed run, and an answer written by another process, add to it.
  * Thread-safe; each line is written with one call and flushed.
  */
 public final class EventLog implements AutoCloseable {
     /** The file name in a run folder. */
     public static final String FILE = "events.jsonl";
-    static final ObjectMapper JSON = new ObjectMapper();
 
     private final Path file;
     private final OutputStream out;
@@ -54,16 +55,16 @@ public final class EventLog implements AutoCloseable {
      * Appends one event of {@code type}, its fields set by {@code fields}. A failure to write (a
      * full disk) is remembered and further events are dropped: the live view must never stop a run.
      */
-    public synchronized void write(String type, Consumer<ObjectNode> fields) {
+    public synchronized void write(String type, Consumer<Map<String, Object>> fields) {
         if (broken) {
             return;
         }
-        ObjectNode n = JSON.createObjectNode();
+        Map<String, Object> n = new LinkedHashMap<>();
         n.put("type", type);
         n.put("time_ms", clock.millis());
         fields.accept(n);
         try {
-            out.write((JSON.writeValueAsString(n) + "\n").getBytes(StandardCharsets.UTF_8));
+            out.write((Json.line(n) + "\n").getBytes(StandardCharsets.UTF_8));
             out.flush();
         } catch (IOException e) {
             broken = true;
@@ -71,7 +72,7 @@ public final class EventLog implements AutoCloseable {
     }
 
     /** Appends one event line to {@code dir/events.jsonl} from any process (used for answers from a page). */
-    public static void append(Path dir, String type, Consumer<ObjectNode> fields) {
+    public static void append(Path dir, String type, Consumer<Map<String, Object>> fields) {
         try (EventLog log = open(dir, Clock.systemUTC())) {
             log.write(type, fields);
         }

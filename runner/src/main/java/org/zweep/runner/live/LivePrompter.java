@@ -114,7 +114,7 @@ public final class LivePrompter implements Prompter {
                 return false;
             }
             for (String line : text.substring(0, end).split("\n")) {
-                JsonNode n = EventLog.JSON.readTree(line);
+                JsonNode n = org.zweep.runner.results.Json.readTree(line);
                 if ("answer".equals(n.path("type").asText()) && id.equals(n.path("id").asText())) {
                     return true;
                 }

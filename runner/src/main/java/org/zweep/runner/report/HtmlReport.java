@@ -244,7 +244,10 @@ public final class HtmlReport {
             for (Derating d : s.derating()) {
                 List<Drop> rows = new ArrayList<>();
                 d.drops().forEach((pct, at) -> rows.add(new Drop(pct + " %",
-                        at == null ? "not reached" : Figures.format(at, Figures.unit(d.biasMode()), 5))));
+                        at == null ? "not reached" : Figures.format(at, Figures.unit(d.biasMode()), 5)
+                                + (Double.isFinite(d.dropsU().get(pct))
+                                        ? " ± " + Figures.format(d.dropsU().get(pct), Figures.unit(d.biasMode()), 2)
+                                        : ""))));
                 out.add(new DeratingTable(s.name() + " at " + Figures.format(d.frequencyHz(), Unit.HERTZ), rows,
                         d.notes()));
             }
@@ -282,7 +285,7 @@ public final class HtmlReport {
     }
 
     /** The SVG element without namespace declarations (not needed inline in HTML; keeps the page free of URLs). */
-    static String inlineSvg(String svg) {
+    public static String inlineSvg(String svg) {
         return svg.replaceAll("\\s+xmlns(:[A-Za-z]+)?=(\"[^\"]*\"|'[^']*')", "")
                 .replaceAll("\\s+jfreesvg:[A-Za-z]+=(\"[^\"]*\"|'[^']*')", "");
     }

@@ -33,6 +33,7 @@ public final class Json {
                     .addSerializer(Double.TYPE, new NonFiniteAsNull()))
             .build();
     private static final ObjectWriter WRITER = MAPPER.writer();
+    private static final ObjectWriter LINE = MAPPER.writer().without(SerializationFeature.INDENT_OUTPUT);
     private static final ObjectReader READER = MAPPER.reader();
 
     private Json() {
@@ -50,12 +51,29 @@ public final class Json {
 
     /** {@code value} as JSON text with a final line break. */
     public static String text(Object value) {
+        return write(WRITER, value) + "\n";
+    }
+
+    /**
+     * {@code value} as JSON on one line, without a line break (an event in a {@code .jsonl} file, a
+     * one-line answer such as {@code zweep ping --json}); otherwise as {@link #text}.
+     */
+    public static String line(Object value) {
+        return write(LINE, value);
+    }
+
+    private static String write(ObjectWriter writer, Object value) {
         try {
-            return WRITER.writeValueAsString(value) + "\n";
+            return writer.writeValueAsString(value);
         } catch (com.fasterxml.jackson.core.JsonProcessingException e) {
             throw new IllegalStateException("cannot write " + value.getClass().getSimpleName() + " as JSON: "
                     + e.getOriginalMessage(), e);
         }
+    }
+
+    /** Parses one JSON document as a tree. */
+    public static JsonNode readTree(String text) throws IOException {
+        return READER.readTree(text);
     }
 
     /** {@code value} as a JSON tree (as {@link #writer()} would write it). */

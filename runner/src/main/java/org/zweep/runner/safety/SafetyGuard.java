@@ -5,7 +5,7 @@ import org.zweep.driver.meter.Bias;
 import org.zweep.driver.meter.Drive;
 import org.zweep.driver.meter.MeasurementSetting;
 import org.zweep.driver.meter.MeterCapabilities;
-import org.zweep.driver.meter.Range;
+import org.zweep.driver.meter.Interval;
 import org.zweep.driver.meter.SourceMode;
 import org.zweep.runner.plan.Plan;
 import org.zweep.runner.plan.PlannedPoint;
@@ -109,7 +109,7 @@ public final class SafetyGuard {
         }
     }
 
-    private static void within(String what, double v, Range r, String unit, String meterName) {
+    private static void within(String what, double v, Interval r, String unit, String meterName) {
         if (!r.contains(v)) {
             throw new InvalidInputException(what + " " + human(v, unit) + " is outside what the meter can do ("
                     + human(r.min(), unit) + " to " + human(r.max(), unit) + ", " + meterName + "); nothing was measured");

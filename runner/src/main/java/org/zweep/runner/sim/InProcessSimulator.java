@@ -26,8 +26,9 @@ import org.zweep.simulator.server.SimulatorServer;
  * One simulated meter in this process, loaded from a bench file, served to any number of
  * in-memory connections (each like a TCP connection: own parser, faults, noise-key counter).
  *
- * <p>The address form is {@code sim:BENCH_FILE[?timing=real|none][&seed=N]}: without {@code timing}
- * the bench file's own timing model is used, without {@code seed} its own seed. Thread-safe;
+ * <p>The address form is {@code sim:BENCH_FILE[?timing=real|none][&seed=N][&part=SERIAL]}: without
+ * {@code timing} the bench file's own timing model is used, without {@code seed} its own seed;
+ * {@code part} (URL-encoded) puts that part of the bench's {@code parts} in the fixture. Thread-safe;
  * {@link #close()} stops the meter.
  */
 public final class InProcessSimulator implements AutoCloseable {
@@ -69,6 +70,7 @@ public final class InProcessSimulator implements AutoCloseable {
         String bench = sim.bench();
         Timing timing = null;
         Long seed = null;
+        String part = null;
         int q = bench.indexOf('?');
         if (q >= 0) {
             String query = bench.substring(q + 1);
@@ -84,9 +86,11 @@ public final class InProcessSimulator implements AutoCloseable {
                     };
                 } else if (p.length == 2 && p[0].equals("seed")) {
                     seed = seed(address, p[1]);
+                } else if (p.length == 2 && p[0].equals("part") && !p[1].isEmpty()) {
+                    part = java.net.URLDecoder.decode(p[1], java.nio.charset.StandardCharsets.UTF_8);
                 } else {
                     throw new InvalidInputException("address '" + address + "': unknown option '" + kv
-                            + "' (sim:BENCH_FILE[?timing=real|none][&seed=N])");
+                            + "' (sim:BENCH_FILE[?timing=real|none][&seed=N][&part=SERIAL])");
                 }
             }
         }
@@ -109,6 +113,9 @@ public final class InProcessSimulator implements AutoCloseable {
         }
         if (seed != null) {
             spec = spec.withSeed(seed);
+        }
+        if (part != null) {
+            spec = spec.forPart(part);
         }
         return spec;
     }

@@ -98,6 +98,20 @@ public final class MeterLinks {
         return kept + (kept.contains("?") ? "&" : "?") + "seed=" + seed;
     }
 
+    /**
+     * {@code address} with the part {@code serial} in the simulated fixture ({@code &part=SERIAL}, the
+     * bench file's {@code parts} entry), for an in-process {@code sim:} address; any other address as it is
+     * (a real meter measures whatever part is in its fixture).
+     */
+    public static String forPart(String address, String serial) {
+        if (!(Address.parse(address) instanceof SimAddress sim) || sim.bench().startsWith(REMOTE)) {
+            return address;
+        }
+        String kept = address.replaceAll("([?&])part=[^&]*&?", "$1").replaceAll("[?&]$", "");
+        return kept + (kept.contains("?") ? "&" : "?") + "part="
+                + java.net.URLEncoder.encode(serial, java.nio.charset.StandardCharsets.UTF_8);
+    }
+
     /** The noise seed of a {@code sim:} address's bench (its {@code seed} option, else its file's); null for any other. */
     public static Long seedOf(String address) {
         if (!(Address.parse(address) instanceof SimAddress sim)) {

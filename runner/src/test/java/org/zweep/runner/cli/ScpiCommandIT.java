@@ -98,8 +98,8 @@ class ScpiCommandIT extends TinyMeterCliBase {
 
     @Test
     void badTimeoutIsExitTwo() {
-        assertEquals(2, zweep("scpi", meter.address(), "--timeout", "2", "*IDN?"));
-        assertTrue(err.toString().contains("not a duration with a unit"), err.toString());
+        assertEquals(2, zweep("scpi", meter.address(), "--timeout", "2h", "*IDN?"));
+        assertTrue(err.toString().contains("'2h' is not a duration"), err.toString());
     }
 
     @Test

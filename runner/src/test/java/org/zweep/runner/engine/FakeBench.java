@@ -14,7 +14,7 @@ import org.zweep.driver.meter.MeasurementSetting;
 import org.zweep.driver.meter.Meter;
 import org.zweep.driver.meter.MeterCapabilities;
 import org.zweep.driver.meter.MeterIdentity;
-import org.zweep.driver.meter.Range;
+import org.zweep.driver.meter.Interval;
 import org.zweep.driver.meter.Reading;
 import org.zweep.driver.meter.ReadingStatus;
 
@@ -137,8 +137,8 @@ final class FakeBench {
 
         @Override
         public MeterCapabilities capabilities() {
-            return new MeterCapabilities(new Range(20, 2e6), new Range(0.005, 2), new Range(1e-5, 0.02),
-                    new Range(-40, 40), new Range(-1, 1), maxListPoints, Set.of(CorrectionStandard.values()), true,
+            return new MeterCapabilities(new Interval(20, 2e6), new Interval(0.005, 2), new Interval(1e-5, 0.02),
+                    new Interval(-40, 40), new Interval(-1, 1), maxListPoints, Set.of(CorrectionStandard.values()), true,
                     correctionStyle);
         }
 

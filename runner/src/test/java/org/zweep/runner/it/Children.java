@@ -38,6 +38,24 @@ final class Children {
         }
     }
 
+    /**
+     * Starts {@code zweep args} with its standard input and output piped to this JVM (to answer a
+     * fixture channel) and its error output going to {@code log}.
+     */
+    static Process zweepPiped(Path log, String... args) {
+        String java = Path.of(System.getProperty("java.home"), "bin", "java").toString();
+        List<String> cmd = new ArrayList<>(List.of("env", "--default-signal=INT,TERM", java, "-cp",
+                System.getProperty("java.class.path"), "org.zweep.runner.cli.Main"));
+        cmd.addAll(List.of(args));
+        ProcessBuilder pb = new ProcessBuilder(cmd);
+        pb.redirectError(log.toFile());
+        try {
+            return pb.start();
+        } catch (IOException e) {
+            throw new UncheckedIOException(e);
+        }
+    }
+
     /** Sends {@code signal} (e.g. {@code INT}, {@code TERM}, {@code KILL}) to {@code p} alone. */
     static void signal(Process p, String signal) {
         try {

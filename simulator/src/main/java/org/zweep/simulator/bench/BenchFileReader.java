@@ -62,7 +62,7 @@ final class BenchFileReader {
             throw SimulatorInputException.at(source, 1, 0, "the bench file is empty");
         }
         Section top = new Section("", root);
-        top.allow("description", "seed", "meter", "fixture", "load", "device");
+        top.allow("description", "seed", "meter", "fixture", "load", "device", "parts");
         String description = top.string("description", "bench " + source);
         long seed = top.integer("seed", 0);
         MeterSpec meter = meter(top.section("meter"));
@@ -71,7 +71,34 @@ final class BenchFileReader {
         if (deviceSection == null) {
             throw top.error("a bench file needs a 'device' section");
         }
-        return new BenchSpec(description, meter, fixture, device(deviceSection), seed);
+        return new BenchSpec(description, meter, fixture, device(deviceSection), seed,
+                parts(top.section("parts"), deviceSection));
+    }
+
+    /**
+     * {@code parts}: serial → the device keys that differ for that part, over the bench's
+     * {@code device} (a tray of parts of one kind; the address's {@code part=SERIAL} picks one).
+     */
+    private Map<String, Device> parts(Section s, Section deviceSection) {
+        Map<String, Device> parts = new LinkedHashMap<>();
+        if (s == null) {
+            return parts;
+        }
+        if (deviceSection.entries.size() != 1) {
+            throw deviceSection.error("the device section needs exactly one of capacitor, inductor, resistor,"
+                    + " transformer, netlist, netlist_file");
+        }
+        String kind = deviceSection.entries.keySet().iterator().next();
+        if (kind.startsWith("netlist")) {
+            throw s.error("'parts' varies a capacitor, inductor, resistor or transformer device, not a netlist");
+        }
+        Section base = new Section("device." + kind, deviceSection.entries.get(kind).getValueNode());
+        for (Map.Entry<String, NodeTuple> e : s.entries.entrySet()) {
+            Section over = new Section("parts." + e.getKey(), e.getValue().getValueNode());
+            Section merged = base.overriddenBy(over);
+            parts.put(e.getKey(), device(kind, merged));
+        }
+        return parts;
     }
 
     private SimulatorInputException at(Optional<Mark> m, String what) {
@@ -192,7 +219,11 @@ final class BenchFileReader {
             default:
                 break;
         }
-        Section p = new Section("device." + kind, value);
+        return device(kind, new Section("device." + kind, value));
+    }
+
+    /** A capacitor, inductor, resistor or transformer from its keys. */
+    private Device device(String kind, Section p) {
         switch (kind) {
             case "capacitor": {
                 p.allow("capacitance_f", "esr_ohm", "esl_h", "tan_delta", "bias_half_voltage_v",
@@ -292,6 +323,19 @@ final class BenchFileReader {
         final String path;
         final Node node;
         final Map<String, NodeTuple> entries = new LinkedHashMap<>();
+
+        private Section(String path, Node node, Map<String, NodeTuple> entries) {
+            this.path = path;
+            this.node = node;
+            this.entries.putAll(entries);
+        }
+
+        /** These keys with {@code over}'s replacing or adding to them (errors still name each key's own place). */
+        Section overriddenBy(Section over) {
+            Map<String, NodeTuple> all = new LinkedHashMap<>(entries);
+            all.putAll(over.entries);
+            return new Section(over.path, over.node, all);
+        }
 
         Section(String path, Node node) {
             this.path = path;

@@ -2,6 +2,7 @@ package org.zweep.simulator.bench;
 
 import java.nio.file.Path;
 import java.util.List;
+import java.util.Map;
 import org.zweep.simulator.InputFiles;
 import org.zweep.simulator.SimulatorInputException;
 import org.zweep.simulator.netlist.Netlist;
@@ -18,13 +19,34 @@ public final class BenchSpec {
     private final FixtureSpec fixture;
     private final Device device;
     private final long seed;
+    private final Map<String, Device> parts;
 
     BenchSpec(String description, MeterSpec meter, FixtureSpec fixture, Device device, long seed) {
+        this(description, meter, fixture, device, seed, Map.of());
+    }
+
+    BenchSpec(String description, MeterSpec meter, FixtureSpec fixture, Device device, long seed,
+            Map<String, Device> parts) {
         this.description = description;
         this.meter = meter;
         this.fixture = fixture;
         this.device = device;
         this.seed = seed;
+        this.parts = Map.copyOf(parts);
+    }
+
+    /**
+     * The same bench with the part {@code serial} in the fixture: the device its {@code parts}
+     * entry describes, or the bench's own device when the file names no such serial.
+     */
+    public BenchSpec forPart(String serial) {
+        Device d = parts.get(serial);
+        return d == null ? this : new BenchSpec(description, meter, fixture, d, seed, parts);
+    }
+
+    /** The serials the bench file's {@code parts} section describes (empty: none). */
+    public java.util.Set<String> partSerials() {
+        return parts.keySet();
     }
 
     /**
@@ -94,22 +116,22 @@ public final class BenchSpec {
      */
     public BenchSpec withNetlistDevice(String netlist, String sourceName) {
         return new BenchSpec("netlist from " + sourceName, meter, fixture,
-                new NetlistDevice(Netlist.parse(netlist, sourceName)), seed);
+                new NetlistDevice(Netlist.parse(netlist, sourceName)), seed, parts);
     }
 
     /** The same bench with no noise, no fixture residuals or strays and no lead resistance. */
     public BenchSpec ideal() {
-        return new BenchSpec(description, meter.withNoiseRel(0), fixture.ideal(), device, seed);
+        return new BenchSpec(description, meter.withNoiseRel(0), fixture.ideal(), device, seed, parts);
     }
 
     /** The same bench with another seed. */
     public BenchSpec withSeed(long newSeed) {
-        return new BenchSpec(description, meter, fixture, device, newSeed);
+        return new BenchSpec(description, meter, fixture, device, newSeed, parts);
     }
 
     /** The same bench with another timing model. */
     public BenchSpec withTiming(Timing timing) {
-        return new BenchSpec(description, meter.withTiming(timing), fixture, device, seed);
+        return new BenchSpec(description, meter.withTiming(timing), fixture, device, seed, parts);
     }
 
     /** A one-line description (the bench file's {@code description}, or where it came from). */
@@ -151,14 +173,14 @@ public final class BenchSpec {
     }
 
     BenchSpec withDevice(Device d) {
-        return new BenchSpec(description, meter, fixture, d, seed);
+        return new BenchSpec(description, meter, fixture, d, seed, parts);
     }
 
     BenchSpec withFixture(FixtureSpec f) {
-        return new BenchSpec(description, meter, f, device, seed);
+        return new BenchSpec(description, meter, f, device, seed, parts);
     }
 
     BenchSpec withMeter(MeterSpec m) {
-        return new BenchSpec(description, m, fixture, device, seed);
+        return new BenchSpec(description, m, fixture, device, seed, parts);
     }
 }

@@ -6,7 +6,7 @@ package org.zweep.driver.meter;
  * @param min the lower limit
  * @param max the upper limit (at least {@code min})
  */
-public record Range(double min, double max) {
+public record Interval(double min, double max) {
     /** Whether {@code value} lies within the interval, limits included. */
     public boolean contains(double value) {
         return value >= min && value <= max;

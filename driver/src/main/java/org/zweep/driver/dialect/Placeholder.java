@@ -8,16 +8,16 @@ package org.zweep.driver.dialect;
  *     {@code ohm}), or empty for a plain count sent as NR1
  * @param list whether the value is a comma-separated list of numbers
  */
-record Slot(String name, String unit, boolean list) {
-    static Slot number(String name, String unit) {
-        return new Slot(name, unit, false);
+record Placeholder(String name, String unit, boolean list) {
+    static Placeholder number(String name, String unit) {
+        return new Placeholder(name, unit, false);
     }
 
-    static Slot numbers(String name, String unit) {
-        return new Slot(name, unit, true);
+    static Placeholder numbers(String name, String unit) {
+        return new Placeholder(name, unit, true);
     }
 
-    static Slot count(String name) {
-        return new Slot(name, "", false);
+    static Placeholder count(String name) {
+        return new Placeholder(name, "", false);
     }
 }
