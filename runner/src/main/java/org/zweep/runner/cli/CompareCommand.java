@@ -112,52 +112,31 @@ public final class CompareCommand implements Callable<Integer> {
 
     /** Lots side by side: per check, each lot's figures and the difference of each mean from the first lot's. */
     private int compareLots(org.zweep.runner.lot.LotComparison c, PrintWriter out) throws Exception {
-        if (json) {
-            ObjectNode root = RunsCommand.JSON.createObjectNode();
-            ArrayNode lots = root.putArray("lots");
-            for (var l : c.lots()) {
-                ObjectNode n = lots.addObject();
-                n.put("folder", l.folder().toString());
-                n.put("lot", l.table().lot());
-                n.put("parts", l.table().parts().size());
-                n.put("completed", l.table().completed());
-                n.put("passed", l.table().passed());
-                n.put("failed", l.table().failed());
-                if (Double.isFinite(l.table().yield())) {
-                    n.put("yield", l.table().yield());
-                } else {
-                    n.putNull("yield");
-                }
-            }
-            ArrayNode checks = root.putArray("checks");
+        if (json.on()) {
+            List<LotJson> lots = c.lots().stream().map(l -> new LotJson(l.folder().toString(), l.table().lot(),
+                    l.table().parts().size(), l.table().completed(), l.table().passed(), l.table().failed(),
+                    l.table().yield())).toList();
+            List<LotCheckJson> checks = new ArrayList<>();
             for (var row : c.checks()) {
-                ObjectNode n = checks.addObject();
-                n.put("name", row.name());
-                n.put("parameter", row.parameter());
-                ArrayNode count = n.putArray("n");
-                ArrayNode passed = n.putArray("passed");
-                ArrayNode mean = n.putArray("mean");
-                ArrayNode sigma = n.putArray("sigma");
-                ArrayNode lowest = n.putArray("lowest");
-                ArrayNode highest = n.putArray("highest");
-                ArrayNode cpk = n.putArray("cpk");
-                ArrayNode diff = n.putArray("mean_difference");
-                ArrayNode rel = n.putArray("mean_relative");
+                LotCheckJson n = new LotCheckJson(row.name(), row.parameter(), new ArrayList<>(), new ArrayList<>(),
+                        new ArrayList<>(), new ArrayList<>(), new ArrayList<>(), new ArrayList<>(), new ArrayList<>(),
+                        new ArrayList<>(), new ArrayList<>());
                 for (int i = 0; i < c.lots().size(); i++) {
                     var s = row.stats().get(i);
                     var cap = row.capability(i);
-                    count.add(cap.n());
-                    passed.add(s == null ? 0 : s.passed());
-                    add(mean, cap.mean());
-                    add(sigma, cap.sigma());
-                    add(lowest, s == null ? Double.NaN : s.lowest());
-                    add(highest, s == null ? Double.NaN : s.highest());
-                    add(cpk, cap.cpk());
-                    add(diff, row.meanDifference(i));
-                    add(rel, row.meanRelative(i));
+                    n.n().add(cap.n());
+                    n.passed().add(s == null ? 0 : s.passed());
+                    n.mean().add(cap.mean());
+                    n.sigma().add(cap.sigma());
+                    n.lowest().add(s == null ? Double.NaN : s.lowest());
+                    n.highest().add(s == null ? Double.NaN : s.highest());
+                    n.cpk().add(cap.cpk());
+                    n.meanDifference().add(row.meanDifference(i));
+                    n.meanRelative().add(row.meanRelative(i));
                 }
+                checks.add(n);
             }
-            out.println(RunsCommand.JSON.writeValueAsString(root));
+            out.print(Json.text(new LotsJson(lots, checks)));
             return ExitCode.OK;
         }
         for (int i = 0; i < c.lots().size(); i++) {
@@ -234,6 +213,20 @@ public final class CompareCommand implements Callable<Integer> {
 
     /** {@code zweep compare --json}: the runs, one row per compared quantity, the plots written. */
     record CompareJson(List<RunJson> runs, List<RowJson> rows, List<String> plots) {
+    }
+
+    /** {@code zweep compare --json} on lot folders. */
+    record LotsJson(List<LotJson> lots, List<LotCheckJson> checks) {
+    }
+
+    /** One lot's counts and yield. */
+    record LotJson(String folder, String lot, int parts, long completed, long passed, long failed, double yield) {
+    }
+
+    /** One check across the lots: each lot's figures, and each mean's difference from the first lot's. */
+    record LotCheckJson(String name, String parameter, List<Integer> n, List<Integer> passed, List<Double> mean,
+            List<Double> sigma, List<Double> lowest, List<Double> highest, List<Double> cpk,
+            List<Double> meanDifference, List<Double> meanRelative) {
     }
 
     /** One compared run. */

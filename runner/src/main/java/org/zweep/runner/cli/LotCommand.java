@@ -40,6 +40,7 @@ import picocli.CommandLine.Spec;
 @Command(
         name = "lot",
         mixinStandardHelpOptions = true,
+        defaultValueProvider = OptionDefaults.class,
         description = {
             "Measures the parts of a lot one after another with one sequence. Before each part zweep asks for it"
                 + " (through the fixture channel; with --scan its serial is typed or scanned), runs the sequence into"
@@ -96,8 +97,8 @@ public final class LotCommand implements Callable<Integer> {
             + " bench's 'parts' section gives each serial its own part)")
     String meter;
 
-    @Option(names = "--dialect", paramLabel = "DIALECT", description = "the meter's dialect instead of the sequence's")
-    String dialect;
+    @picocli.CommandLine.Mixin
+    DialectOption dialect;
 
     @Option(names = "--seed", paramLabel = "N", description = "a sim: meter's noise seed for the first part; part k"
             + " gets N + k − 1 (default: the bench's)")
@@ -118,13 +119,13 @@ public final class LotCommand implements Callable<Integer> {
     @Option(names = "--no-index", description = "do not add the parts to the results index")
     boolean noIndex;
 
-    @Option(names = "--timeout", paramLabel = "SECONDS", defaultValue = "10",
-            description = "the longest wait for a reply (default: ${DEFAULT-VALUE} s)")
-    double timeoutS;
+    @picocli.CommandLine.Mixin
+    TimeoutOption timeout;
 
-    @Option(names = "--reconnect-budget", paramLabel = "SECONDS", defaultValue = "60",
-            description = "give up reconnecting after this many seconds of waiting (default: ${DEFAULT-VALUE} s)")
-    double reconnectBudgetS;
+    @Option(names = "--reconnect-budget", paramLabel = "DURATION", converter = DurationConverter.class,
+            description = "give up reconnecting after this much waiting, e.g. 30s, 2min or a number of seconds"
+                    + " (default: ${DEFAULT-VALUE})")
+    java.time.Duration reconnectBudget;
 
     @Option(names = "--quiet", description = "no progress line during each part")
     boolean quiet;
@@ -134,14 +135,11 @@ public final class LotCommand implements Callable<Integer> {
     @Override
     public Integer call() {
         stdout = spec.commandLine().getOut();
-        if (!(timeoutS > 0) || !(reconnectBudgetS >= 0)) {
-            throw new InvalidInputException("--timeout must be positive and --reconnect-budget not negative");
-        }
         fixture.check();
         Path dir;
         LotManifest m;
         if (resume != null) {
-            if (file != null || lot != null || source != null || out != null || meter != null || dialect != null
+            if (file != null || lot != null || source != null || out != null || meter != null || dialect.orNull() != null
                     || seed != null || operator != null || station != null) {
                 throw new InvalidInputException("--resume takes only the lot folder (and the fixture, index and"
                         + " timeout options): the lot goes on as it started");
@@ -178,7 +176,7 @@ public final class LotCommand implements Callable<Integer> {
         if (source == null) {
             throw new InvalidInputException("say which parts: --count N, --serials FILE or --scan");
         }
-        Plan plan = SequenceLoader.loadForMeter(file, dialect);
+        Plan plan = SequenceLoader.loadForMeter(file, dialect.orNull());
         String address = meter != null ? meter : plan.meter().address();
         MeterLinks.seeded(address, seed); // a seed for a meter that has none: refused now
         Long base = seed != null ? seed : MeterLinks.seedOf(address);
@@ -200,7 +198,7 @@ public final class LotCommand implements Callable<Integer> {
         }
         StationFile sf = StationFile.load();
         return new LotManifest(LotManifest.FORMAT, lotName, file.toAbsolutePath().normalize().toString(),
-                RunFolder.sha256(file), meter, dialect, base, kind, count, serials,
+                RunFolder.sha256(file), meter, dialect.orNull(), base, kind, count, serials,
                 operator == null ? null : RunCommand.text(operator, "--operator"),
                 station != null ? RunCommand.text(station, "--station") : sf.station(),
                 Clock.systemUTC().instant().toString());
@@ -253,14 +251,19 @@ public final class LotCommand implements Callable<Integer> {
         }
     }
 
+    /** A part's run options: these command options, the rest at the run defaults. */
+    private RunLauncher.Options.Builder options() {
+        return RunLauncher.Options.builder().fixture(fixture).quiet(quiet).timeout(timeout.get())
+                .reconnectBudget(reconnectBudget);
+    }
+
     private static String safe(String s) {
         return s.replaceAll("[^A-Za-z0-9._-]", "_");
     }
 
     /** Resumes what is unfinished, measures the remaining parts, then writes lot.csv and lot.html. */
     private int measure(Path dir, LotManifest m) {
-        RunLauncher.Options base = new RunLauncher.Options(null, m.dialect(), null, dir, fixture, null, quiet, null,
-                timeoutS, reconnectBudgetS);
+        RunLauncher.Options base = options().dialect(m.dialect()).resultsDir(dir).build();
         org.zweep.runner.store.Database db = noIndex ? null : store.database();
         for (Path part : LotTable.partFolders(dir)) {
             RunManifest rm = RunManifest.read(part.resolve(RunManifest.FILE));
@@ -299,8 +302,8 @@ public final class LotCommand implements Callable<Integer> {
             Path partDir = dir.resolve(LotTable.folderName(k, serial));
             Plan plan = SequenceLoader.loadForMeter(Path.of(m.sequenceFile()), m.dialect());
             String address = MeterLinks.forPart(m.meter() != null ? m.meter() : plan.meter().address(), serial);
-            RunLauncher.Options o = new RunLauncher.Options(address, m.dialect(), partDir, dir, fixture,
-                    m.seed() == null ? null : m.seed() + k - 1, quiet, null, timeoutS, reconnectBudgetS);
+            RunLauncher.Options o = options().meter(address).dialect(m.dialect()).out(partDir).resultsDir(dir)
+                    .seed(m.seed() == null ? null : m.seed() + k - 1).build();
             RunLauncher l = launcher(db);
             l.identity(new RunManifest.Identity(serial, m.lot(), m.operator(), m.station()));
             int code = l.start(Path.of(m.sequenceFile()), o);

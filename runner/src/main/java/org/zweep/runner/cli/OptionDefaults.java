@@ -9,7 +9,7 @@ import picocli.CommandLine.Model.OptionSpec;
 /**
  * The defaults of the shared options, per command, in one place (so the help, {@code run} and
  * {@code demo} agree): {@code --timeout} is a run's reply slack ({@link RunLauncher.Options}) in
- * {@code run}, the SCPI client's read timeout ({@link ScpiSettings#DEFAULTS}) elsewhere;
+ * {@code run} and {@code lot}, the SCPI client's read timeout ({@link ScpiSettings#DEFAULTS}) elsewhere;
  * {@code --reconnect-budget} is a run's; {@code measure}'s {@code --dialect} is {@code standard}.
  * Every other option keeps the default its annotation gives.
  */
@@ -33,6 +33,7 @@ final class OptionDefaults implements CommandLine.IDefaultValueProvider {
 
     /** The reply slack {@code command} waits when {@code --timeout} is not given. */
     static Duration timeout(String command) {
-        return command.equals("run") ? RunLauncher.Options.DEFAULT_TIMEOUT : ScpiSettings.DEFAULTS.readTimeout();
+        return command.equals("run") || command.equals("lot") ? RunLauncher.Options.DEFAULT_TIMEOUT
+                : ScpiSettings.DEFAULTS.readTimeout();
     }
 }

@@ -50,6 +50,7 @@ class DurationOptionsTest {
         Map<String, List<String>> names = new TreeMap<>();
         durationOptions(zweep()).forEach((c, os) -> names.put(c, os.stream().map(OptionSpec::longestName).sorted().toList()));
         assertEquals(Map.of(
+                "lot", List.of("--reconnect-budget", "--timeout"),
                 "measure", List.of("--settle", "--timeout"),
                 "ping", List.of("--timeout"),
                 "probe", List.of("--timeout"),
@@ -85,6 +86,7 @@ class DurationOptionsTest {
     @Test
     void defaultsComeFromTheRunOptionsAndTheScpiClient() {
         assertEquals(RunLauncher.Options.DEFAULT_TIMEOUT, timeoutAfter("run", "x.yaml"));
+        assertEquals(RunLauncher.Options.DEFAULT_TIMEOUT, timeoutAfter("lot", "x.yaml"));
         assertEquals(org.zweep.driver.scpi.ScpiSettings.DEFAULTS.readTimeout(), timeoutAfter("scpi", "sim:"));
         assertEquals(org.zweep.driver.scpi.ScpiSettings.DEFAULTS.readTimeout(),
                 timeoutAfter("measure", "sim:", "--frequency", "1kHz"));
@@ -117,7 +119,7 @@ class DurationOptionsTest {
 
     @Test
     void theHelpShowsEachDefaultAsItIsTyped() {
-        for (String command : List.of("run", "scpi", "ping", "probe", "measure", "demo", "check", "sim")) {
+        for (String command : List.of("run", "lot", "scpi", "ping", "probe", "measure", "demo", "check", "sim")) {
             StringWriter out = new StringWriter();
             Cli.run(new String[] {command, "--help"}, new PrintWriter(out), new PrintWriter(new StringWriter()));
             assertFalse(out.toString().contains("PT"), out.toString());
