@@ -2,19 +2,13 @@ package org.zweep.bench.runner;
 
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.time.Clock;
 import java.util.Locale;
 import java.util.concurrent.atomic.DoubleAdder;
 import org.zweep.driver.scpi.ScpiClient;
 import org.zweep.driver.scpi.ScpiSettings;
-import org.zweep.runner.engine.FixtureCompensation;
-import org.zweep.runner.safety.Interruption;
-import org.zweep.runner.engine.ProgressListener;
 import org.zweep.runner.engine.FixturePort;
-import org.zweep.runner.engine.ReconnectPolicy;
 import org.zweep.runner.engine.RunSession;
 import org.zweep.runner.engine.ScpiMeterLink;
-import org.zweep.runner.engine.SweepChecks;
 import org.zweep.runner.plan.Plan;
 import org.zweep.runner.results.PointsCsvWriter;
 import org.zweep.runner.results.RunFolder;
@@ -74,9 +68,9 @@ public final class RealTimingCheck {
                 server::close);
         Plan plan = SequenceLoader.load(seq);
         RunFolder folder = RunFolder.createAt(dir.resolve("run-" + points + "-" + list + "-" + sync), seq);
-        RunSession session = new RunSession(plan, link, new RunSession.Setup(folder, false, seq.toString(), dialect,
-                null, ReconnectPolicy.DEFAULT, FixturePort.meter(link, FixturePort.refusing("nobody at the fixture"), line -> { }), ProgressListener.QUIET, new Interruption(),
-                FixtureCompensation.NONE, SweepChecks.NONE, Clock.systemUTC(), "bench", sync));
+        RunSession session = new RunSession(plan, link, RunSession.Setup.builder(folder).sequenceFile(seq.toString())
+                .dialect(dialect).fixture(FixturePort.meter(link, FixturePort.refusing("nobody at the fixture"), line -> { }))
+                .version("bench").rowSync(sync).build());
         meterS.reset();
         long t0 = System.nanoTime();
         session.run();

@@ -35,7 +35,7 @@ import org.zweep.runner.plan.TerminalConfiguration;
 import org.zweep.runner.plan.FixturePlan;
 import org.zweep.runner.plan.MeterChoice;
 import org.zweep.runner.plan.Part;
-import org.zweep.runner.plan.PartKind;
+import org.zweep.driver.impedance.PartKind;
 import org.zweep.runner.plan.Plan;
 import org.zweep.runner.plan.PlannedPoint;
 import org.zweep.runner.plan.PlannedStep;
@@ -72,12 +72,13 @@ public class RunnerOverheadBenchmark {
         for (int i = 0; i < POINTS; i++) {
             pts.add(new PlannedPoint(i, 0, 0, MeasurementSetting.at(100 + i * 1000.0), Wiring.NONE, 0.0));
         }
-        plan = new Plan("overhead", Path.of("overhead.yaml"), new MeterChoice("instant:", "standard"),
-                new SafetyLimits(10, 1, 2, 0.1),
-                new FixturePlan(TerminalConfiguration.FOUR_TERMINAL, CompensationMode.NONE, List.of(), null, Duration.ZERO, null),
-                new Part(PartKind.CAPACITOR, "", 100e-9, 10, Double.NaN),
-                List.of(new PlannedStep(0, "sweep", "", BiasControl.NONE, pts)),
-                List.of(new CheckLimit("cs", "cs_f", "sweep", 100.0, 90e-9, 110e-9)));
+        plan = Plan.builder().name("overhead").source(Path.of("overhead.yaml"))
+                .meter(new MeterChoice("instant:", "standard")).safety(new SafetyLimits(10, 1, 2, 0.1))
+                .fixture(new FixturePlan(TerminalConfiguration.FOUR_TERMINAL, CompensationMode.NONE, List.of(), null,
+                        Duration.ZERO, null))
+                .part(new Part(PartKind.CAPACITOR, "", 100e-9, 10, Double.NaN))
+                .steps(List.of(new PlannedStep(0, "sweep", "", BiasControl.NONE, pts)))
+                .checks(List.of(new CheckLimit("cs", "cs_f", "sweep", 100.0, 90e-9, 110e-9))).build();
         dir = Files.createTempDirectory("zweep-overhead");
     }
 

@@ -11,8 +11,9 @@ package org.zweep.driver.impedance;
  *       negligible there.</li>
  *   <li>|Z| above {@value #PARALLEL_ABOVE_OHM} Ω: parallel. A high impedance is dominated by what is
  *       across it (dielectric leakage, core loss); series resistance is negligible there.</li>
- *   <li>In between, by the part family: a capacitor parallel, an inductor series; for any other part
- *       by the sign of X: capacitive (X &lt; 0) parallel, otherwise series.</li>
+ *   <li>In between, by the part's kind: a capacitor parallel, an inductor or a transformer's winding
+ *       series; for a resistor or a part of unknown kind by the sign of X: capacitive (X &lt; 0)
+ *       parallel, otherwise series.</li>
  * </ul>
  * {@link #SERIES} and {@link #PARALLEL} are the caller's override and resolve to themselves.
  */
@@ -32,9 +33,10 @@ public enum EquivalentCircuit {
     /**
      * The model to use for {@code z}: this one, or for {@link #AUTO} the rule of thumb above.
      *
+     * @param kind the part's kind, or {@code null} when it is not known
      * @return {@link #SERIES} or {@link #PARALLEL}, never {@link #AUTO}
      */
-    public EquivalentCircuit resolve(Impedance z, PartFamily family) {
+    public EquivalentCircuit resolve(Impedance z, PartKind kind) {
         if (this != AUTO) {
             return this;
         }
@@ -45,13 +47,12 @@ public enum EquivalentCircuit {
         if (m > PARALLEL_ABOVE_OHM) {
             return PARALLEL;
         }
-        switch (family) {
-            case CAPACITOR:
-                return PARALLEL;
-            case INDUCTOR:
-                return SERIES;
-            default:
-                return z.reactanceOhm() < 0 ? PARALLEL : SERIES;
+        if (kind == PartKind.CAPACITOR) {
+            return PARALLEL;
         }
+        if (kind == PartKind.INDUCTOR || kind == PartKind.TRANSFORMER) {
+            return SERIES;
+        }
+        return z.reactanceOhm() < 0 ? PARALLEL : SERIES;
     }
 }

@@ -7,6 +7,7 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.TreeMap;
+import org.zweep.driver.impedance.PartKind;
 import org.zweep.driver.InvalidInputException;
 import org.zweep.driver.impedance.DerivedParameter;
 import org.zweep.driver.impedance.ToleranceCode;
@@ -59,7 +60,7 @@ public final class Analysis {
      * its conditions): what judging the whole-sweep checks needs, in the least memory.
      */
     private static AnalysisResult analyze(RunData run, CircuitModel model, boolean keepSweeps) {
-        CircuitModel chosen = model != null ? model : modelFor(run.partKind());
+        CircuitModel chosen = model != null ? model : modelFor(run);
         String column = mainColumn(run.partKind());
         List<RunManifest.CheckInfo> infos = run.manifest().checks() == null ? List.of() : run.manifest().checks();
         CheckEvaluator evaluator = new CheckEvaluator(infos.stream().map(RunManifest.CheckInfo::toLimit).toList());
@@ -78,7 +79,7 @@ public final class Analysis {
             return keepSweeps ? s : s.withoutPoints();
         });
         List<StepResult> steps = read.steps();
-        TransformerResult transformer = "transformer".equals(run.partKind()) || transformerRows.seen()
+        TransformerResult transformer = run.partKind() == PartKind.TRANSFORMER || transformerRows.seen()
                 ? transformerRows.result(nominalTurns(run.manifest()))
                 : null;
         List<CheckOutcome> checks = evaluator.outcomes(figures(run, steps, transformer));
@@ -122,27 +123,32 @@ public final class Analysis {
         }
     }
 
-    /** The default model for a part kind: capacitor, inductor (also for a transformer) or resistor. */
-    public static CircuitModel modelFor(String partKind) {
-        return switch (partKind.toLowerCase(Locale.ROOT)) {
-            case "capacitor" -> CircuitModel.CAPACITOR;
-            case "inductor", "transformer" -> CircuitModel.INDUCTOR;
-            case "resistor" -> CircuitModel.RESISTOR;
-            default -> throw new InvalidInputException("part kind '" + partKind + "' has no default model; use --model");
+    /** The default model for the run's part kind: capacitor, inductor (also for a transformer) or resistor. */
+    private static CircuitModel modelFor(RunData run) {
+        PartKind kind = run.partKind();
+        if (kind == null) {
+            throw new InvalidInputException("part kind '" + run.partKindWord() + "' has no default model; use --model");
+        }
+        return switch (kind) {
+            case CAPACITOR -> CircuitModel.CAPACITOR;
+            case INDUCTOR, TRANSFORMER -> CircuitModel.INDUCTOR;
+            case RESISTOR -> CircuitModel.RESISTOR;
         };
     }
 
-    /** The series parameter that stands for the part's value: Cs (capacitor), Rs (resistor) or Ls (others). */
-    public static DerivedParameter mainParameter(String partKind) {
-        return switch (partKind) {
-            case "capacitor" -> DerivedParameter.CS;
-            case "resistor" -> DerivedParameter.RS;
-            default -> DerivedParameter.LS;
-        };
+    /**
+     * The series parameter that stands for the part's value: Cs (capacitor), Rs (resistor) or Ls
+     * (others, and a part of unknown kind, {@code null}).
+     */
+    public static DerivedParameter mainParameter(PartKind partKind) {
+        if (partKind == PartKind.CAPACITOR) {
+            return DerivedParameter.CS;
+        }
+        return partKind == PartKind.RESISTOR ? DerivedParameter.RS : DerivedParameter.LS;
     }
 
     /** The points.csv column of the part's main series value: cs_f, ls_h or rs_ohm. */
-    static String mainColumn(String partKind) {
+    static String mainColumn(PartKind partKind) {
         return mainParameter(partKind).key();
     }
 
@@ -160,7 +166,7 @@ public final class Analysis {
                         s.frequencies()));
             }
             fits.add(new StepResult.SweepFit(s, fitted.hasUncertainties()
-                    ? EquivalentCircuitFit.fitWeighted(model, fitted.uncertainties())
+                    ? EquivalentCircuitFit.fitWeighted(model, fitted.uncertainties(), commonError(run))
                     : EquivalentCircuitFit.fit(model, fitted.points())));
         }
         if (data.noValue() > 0) {
@@ -175,6 +181,12 @@ public final class Analysis {
                     biases, values, us, dropsFor(run, data.name(), column)));
         }
         return new StepResult(data.name(), data.index(), fits, derating, data.repeats(), notes);
+    }
+
+    /** The error common to every point of the run: its load standard's stated uncertainty, if any. */
+    static CommonError commonError(RunData run) {
+        RunManifest.CompensationInfo c = run.manifest().compensation();
+        return c == null || c.load() == null ? CommonError.NONE : CommonError.ofLoadStandard(c.load().stated());
     }
 
     private static double nominalTurns(RunManifest m) {
@@ -285,8 +297,8 @@ public final class Analysis {
 
     private static Bins bins(RunData run, List<StepResult> steps, List<CheckOutcome> checks, FirstValue first) {
         RunManifest.PartInfo part = run.manifest().part();
-        String kind = run.partKind();
-        if (!List.of("capacitor", "inductor", "resistor").contains(kind)) {
+        PartKind kind = run.partKind();
+        if (kind == null || kind == PartKind.TRANSFORMER) {
             return null;
         }
         double measured = Double.NaN;

@@ -27,7 +27,11 @@ import org.zweep.driver.uncertainty.UncertainImpedance;
  * <p>{@link #fitWeighted} instead divides each point's residual by its standard uncertainties
  * (whitened with the Cholesky factor of its (R, X) covariance), so the parameter uncertainties
  * are those of the weighted covariance and the fit has a χ²; when the reduced χ² is beyond its
- * 99.9th percentile for the degrees of freedom, a note says the model does not fit.
+ * 99.9th percentile for the degrees of freedom, a note says the model does not fit. An error
+ * common to every point ({@link CommonError}, such as the load standard's) is taken out of the
+ * weights and added to the fitted values' covariance afterwards: Σ_p += S·Σ_δ·Sᵀ with
+ * S = (JᵀJ)⁻¹Jᵀ·∂r/∂δ the parameters' sensitivity to δ at the solution (JCGM 100:2008, 5.2.2), so it
+ * does not average down with the number of points.
  *
  * <p>Stateless and thread-safe; {@link #fit} blocks for the fit (well under a millisecond per
  * point).
@@ -69,8 +73,19 @@ public final class EquivalentCircuitFit {
      *     u(R) and u(X) or its R and X are fully correlated
      */
     public static CircuitFit fitWeighted(CircuitModel model, List<UncertainImpedance> sweep) {
+        return fitWeighted(model, sweep, CommonError.NONE);
+    }
+
+    /**
+     * As {@link #fitWeighted(CircuitModel, List)}, with {@code common} (included in each point's
+     * uncertainty) treated as one error shared by all points: the fit is weighted by what remains
+     * of each point's covariance without it, and its contribution to the fitted values is added
+     * to their covariance afterwards.
+     */
+    public static CircuitFit fitWeighted(CircuitModel model, List<UncertainImpedance> sweep, CommonError common) {
         List<Point> points = new ArrayList<>();
-        for (UncertainImpedance u : sweep) {
+        for (UncertainImpedance total : sweep) {
+            UncertainImpedance u = common.none() ? total : withoutCommon(total, common);
             Point p = Point.weighted(u);
             if (!(p.l11 > 0) || !(p.l22 > 0) || !Double.isFinite(p.l11) || !Double.isFinite(p.l22)) {
                 throw new InvalidInputException("cannot weight a fit by u(R) = " + Figures.format(u.uROhm(), Unit.OHM)
@@ -79,7 +94,20 @@ public final class EquivalentCircuitFit {
             }
             points.add(p);
         }
-        return fit(model, points, true);
+        return fit(model, points, true, common);
+    }
+
+    /** The smallest share of a point's variance kept when the common part is taken out of it. */
+    static final double INDEPENDENT_FLOOR = 1e-6;
+
+    /** {@code total} less the covariance {@code common} makes at its value (floored, kept positive definite). */
+    static UncertainImpedance withoutCommon(UncertainImpedance total, CommonError common) {
+        double[] c = common.pointCovariance(total.value().resistanceOhm(), total.value().reactanceOhm());
+        double vr = Math.max(total.varianceR() - c[0], INDEPENDENT_FLOOR * total.varianceR());
+        double vx = Math.max(total.varianceX() - c[1], INDEPENDENT_FLOOR * total.varianceX());
+        double cov = total.covarianceRX() - c[2];
+        double limit = 0.999 * Math.sqrt(vr * vx);
+        return UncertainImpedance.fromCovariance(total.value(), vr, vx, Math.max(-limit, Math.min(limit, cov)));
     }
 
     /**
@@ -89,10 +117,10 @@ public final class EquivalentCircuitFit {
      *     has parameters plus one, or a zero impedance
      */
     public static CircuitFit fit(CircuitModel model, List<Impedance> sweep) {
-        return fit(model, sweep.stream().map(Point::unweighted).toList(), false);
+        return fit(model, sweep.stream().map(Point::unweighted).toList(), false, CommonError.NONE);
     }
 
-    private static CircuitFit fit(CircuitModel model, List<Point> sweepPoints, boolean weighted) {
+    private static CircuitFit fit(CircuitModel model, List<Point> sweepPoints, boolean weighted, CommonError common) {
         List<Point> points = new ArrayList<>(sweepPoints);
         points.sort(Comparator.comparingDouble(p -> p.z.frequencyHz()));
         List<Impedance> data = points.stream().map(Point::z).toList();
@@ -131,6 +159,12 @@ public final class EquivalentCircuitFit {
                     + "); left out of the model");
             present[drop] = false;
             current[drop] = model.absentValue(drop);
+        }
+        if (!common.none()) {
+            pass = pass.withCommon(commonCovariance(model, points, pass, present, common));
+            notes.add(String.format(Locale.ROOT, "an error common to every point (the load standard's stated"
+                    + " uncertainty, %.2g %% of |Z|) is added to the fitted values after the fit, not averaged over"
+                    + " the points", 100 * Math.max(common.uRe(), common.uIm())));
         }
         Map<String, Double> values = new LinkedHashMap<>();
         Map<String, Double> sigmas = new LinkedHashMap<>();
@@ -201,6 +235,55 @@ public final class EquivalentCircuitFit {
             }
         }
         return var >= 0 && Double.isFinite(var) ? Math.sqrt(var) : Double.NaN;
+    }
+
+    /**
+     * The covariance of the log-parameters that {@code common} makes: S·Σ_δ·Sᵀ, S = (JᵀJ)⁻¹·Jᵀ·E,
+     * where J is the whitened Jacobian at the solution and E the whitened change of the data for a
+     * unit δr and δi (ΔZ_i = Z_i and ΔZ_i = jZ_i); n × n over all parameters, zero where absent.
+     */
+    private static double[][] commonCovariance(CircuitModel model, List<Point> points, Pass pass, boolean[] present,
+            CommonError common) {
+        int n = present.length;
+        int[] active = java.util.stream.IntStream.range(0, n).filter(k -> present[k]).toArray();
+        int m = 2 * points.size();
+        double[][] j = new double[m][active.length];
+        double[][] e = new double[m][2];
+        for (int i = 0; i < points.size(); i++) {
+            Point pt = points.get(i);
+            Complex[] d = model.logDerivatives(pt.z.omega(), pass.physical, active);
+            for (int a = 0; a < active.length; a++) {
+                j[2 * i][a] = d[a].getReal() / pt.l11;
+                j[2 * i + 1][a] = (d[a].getImaginary() - pt.l21 * j[2 * i][a]) / pt.l22;
+            }
+            double r = pt.z.resistanceOhm();
+            double x = pt.z.reactanceOhm();
+            double[][] dz = {{r, x}, {-x, r}}; // δr = 1: ΔZ = Z; δi = 1: ΔZ = jZ
+            for (int c = 0; c < 2; c++) {
+                e[2 * i][c] = dz[c][0] / pt.l11;
+                e[2 * i + 1][c] = (dz[c][1] - pt.l21 * e[2 * i][c]) / pt.l22;
+            }
+        }
+        // (JᵀJ)⁻¹ by SVD of J (as the fit's own covariance), then S = (JᵀJ)⁻¹·Jᵀ·E
+        org.apache.commons.math3.linear.RealMatrix jm = new org.apache.commons.math3.linear.Array2DRowRealMatrix(j,
+                false);
+        org.apache.commons.math3.linear.RealMatrix s = new org.apache.commons.math3.linear.SingularValueDecomposition(jm)
+                .getSolver().getInverse().multiply(new org.apache.commons.math3.linear.Array2DRowRealMatrix(e, false));
+        double[] dc = common.covariance();
+        double[][] sigmaDelta = {{dc[0], dc[2]}, {dc[2], dc[1]}};
+        double[][] out = new double[n][n];
+        for (int a = 0; a < active.length; a++) {
+            for (int b = 0; b < active.length; b++) {
+                double v = 0;
+                for (int p = 0; p < 2; p++) {
+                    for (int q = 0; q < 2; q++) {
+                        v += s.getEntry(a, p) * sigmaDelta[p][q] * s.getEntry(b, q);
+                    }
+                }
+                out[active[a]][active[b]] = v;
+            }
+        }
+        return out;
     }
 
     /** RMS of (Z_model − Z)/|Z|, real and imaginary parts stacked. */
@@ -365,6 +448,20 @@ public final class EquivalentCircuitFit {
     /** One least-squares pass over the present parameters. */
     private record Pass(FitResult result, double[] physical, double[] logSigma, boolean[] atBound,
             double[][] logCovariance) {
+        /** This pass with {@code extra} added to its log-parameter covariance (and sigmas). */
+        Pass withCommon(double[][] extra) {
+            int n = logSigma.length;
+            double[][] cov = new double[n][n];
+            double[] sigma = logSigma.clone();
+            for (int a = 0; a < n; a++) {
+                for (int b = 0; b < n; b++) {
+                    cov[a][b] = logCovariance[a][b] + extra[a][b];
+                }
+                sigma[a] = Math.sqrt(logSigma[a] * logSigma[a] + extra[a][a]);
+            }
+            return new Pass(result, physical, sigma, atBound, cov);
+        }
+
         String reason(int k) {
             if (atBound[k]) {
                 return "it ran to the limit of its range";

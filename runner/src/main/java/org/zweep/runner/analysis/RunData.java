@@ -3,8 +3,10 @@ package org.zweep.runner.analysis;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.List;
+import java.util.Locale;
 import java.util.Objects;
 import java.util.function.Consumer;
+import org.zweep.driver.impedance.PartKind;
 import org.zweep.driver.InvalidInputException;
 import org.zweep.runner.results.PointRow;
 import org.zweep.runner.results.PointsCsv;
@@ -85,8 +87,13 @@ public record RunData(RunFolder folder, RunManifest manifest) {
         return this;
     }
 
-    /** The part kind from the manifest in lower case ({@code capacitor}, ...), or empty. */
-    public String partKind() {
+    /** The part kind the manifest names ({@code capacitor}, ... in any case); null when it names none zweep knows. */
+    public PartKind partKind() {
+        return PartKind.ofWord(partKindWord().toLowerCase(Locale.ROOT)).orElse(null);
+    }
+
+    /** The part kind as the manifest spells it, or empty. */
+    String partKindWord() {
         return manifest.part() == null || manifest.part().kind() == null ? "" : manifest.part().kind();
     }
 }

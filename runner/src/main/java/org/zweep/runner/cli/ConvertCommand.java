@@ -12,7 +12,7 @@ import org.zweep.runner.results.Json;
 import org.zweep.driver.impedance.DerivedParameter;
 import org.zweep.driver.impedance.EquivalentCircuit;
 import org.zweep.driver.impedance.Impedance;
-import org.zweep.driver.impedance.PartFamily;
+import org.zweep.driver.impedance.PartKind;
 import org.zweep.driver.impedance.Quantities;
 import org.zweep.driver.impedance.Unit;
 import org.zweep.driver.impedance.Unit.Bound;
@@ -50,9 +50,9 @@ final class ConvertCommand implements Callable<Integer> {
     private static final int UNCERTAINTY_DIGITS = 3;
     /** Immutable and thread-safe once built. */
 
-    /** One accepted input pair: its two options, their units and bounds, and the factory. */
+    /** One accepted input pair: its two options, their units and bounds, the factory, and the part kind it implies (null: none). */
     private record Pair(String first, Unit firstUnit, Bound firstBound, String second, Unit secondUnit,
-            Bound secondBound, Factory factory, PartFamily family) {
+            Bound secondBound, Factory factory, PartKind kind) {
         String name() {
             return first + "/" + second;
         }
@@ -63,25 +63,25 @@ final class ConvertCommand implements Callable<Integer> {
     }
 
     private static final List<Pair> PAIRS = List.of(
-            new Pair("--r", Unit.OHM, Bound.ANY, "--x", Unit.OHM, Bound.ANY, Impedance::fromRX, PartFamily.OTHER),
+            new Pair("--r", Unit.OHM, Bound.ANY, "--x", Unit.OHM, Bound.ANY, Impedance::fromRX, null),
             new Pair("--z", Unit.OHM, Bound.NON_NEGATIVE, "--theta", Unit.DEGREE, Bound.ANY, Impedance::fromPolar,
-                    PartFamily.OTHER),
+                    null),
             new Pair("--cs", Unit.FARAD, Bound.POSITIVE, "--d", Unit.NONE, Bound.NON_NEGATIVE, Impedance::fromCsD,
-                    PartFamily.CAPACITOR),
+                    PartKind.CAPACITOR),
             new Pair("--cp", Unit.FARAD, Bound.POSITIVE, "--d", Unit.NONE, Bound.NON_NEGATIVE, Impedance::fromCpD,
-                    PartFamily.CAPACITOR),
+                    PartKind.CAPACITOR),
             new Pair("--ls", Unit.HENRY, Bound.POSITIVE, "--q", Unit.NONE, Bound.POSITIVE, Impedance::fromLsQ,
-                    PartFamily.INDUCTOR),
+                    PartKind.INDUCTOR),
             new Pair("--lp", Unit.HENRY, Bound.POSITIVE, "--q", Unit.NONE, Bound.POSITIVE, Impedance::fromLpQ,
-                    PartFamily.INDUCTOR),
+                    PartKind.INDUCTOR),
             new Pair("--cs", Unit.FARAD, Bound.POSITIVE, "--esr", Unit.OHM, Bound.NON_NEGATIVE,
-                    Impedance::fromCsEsr, PartFamily.CAPACITOR),
+                    Impedance::fromCsEsr, PartKind.CAPACITOR),
             new Pair("--cp", Unit.FARAD, Bound.POSITIVE, "--rp", Unit.OHM, Bound.POSITIVE, Impedance::fromCpRp,
-                    PartFamily.CAPACITOR),
+                    PartKind.CAPACITOR),
             new Pair("--ls", Unit.HENRY, Bound.POSITIVE, "--rs", Unit.OHM, Bound.NON_NEGATIVE, Impedance::fromLsRs,
-                    PartFamily.INDUCTOR),
+                    PartKind.INDUCTOR),
             new Pair("--lp", Unit.HENRY, Bound.POSITIVE, "--rp", Unit.OHM, Bound.POSITIVE, Impedance::fromLpRp,
-                    PartFamily.INDUCTOR));
+                    PartKind.INDUCTOR));
 
     private static final String PAIR_LIST = "--r/--x, --z/--theta, --cs/--d, --cp/--d, --ls/--q, --lp/--q, "
             + "--cs/--esr, --cp/--rp, --ls/--rs or --lp/--rp";
@@ -171,9 +171,9 @@ final class ConvertCommand implements Callable<Integer> {
         if (json.on()) {
             out.println(uncertain == null ? toJson(impedance) : toJson(uncertain));
         } else if (uncertain == null) {
-            printTable(out, impedance, pair.family());
+            printTable(out, impedance, pair.kind());
         } else {
-            printTable(out, uncertain, pair.family());
+            printTable(out, uncertain, pair.kind());
         }
         return ExitCode.OK;
     }
@@ -303,7 +303,7 @@ final class ConvertCommand implements Callable<Integer> {
         return Json.text(values).stripTrailing();
     }
 
-    private static void printTable(PrintWriter out, UncertainImpedance z, PartFamily family) {
+    private static void printTable(PrintWriter out, UncertainImpedance z, PartKind kind) {
         int width = 0;
         for (DerivedParameter p : DerivedParameter.values()) {
             width = Math.max(width, p.label().length());
@@ -333,10 +333,10 @@ final class ConvertCommand implements Callable<Integer> {
                             + Quantities.format(r.high95(), p.unit(), UNCERTAINTY_DIGITS),
                     "(u = " + Quantities.format(r.standardUncertainty(), p.unit(), UNCERTAINTY_DIGITS) + ")"));
         }
-        suggest(out, z.value(), family);
+        suggest(out, z.value(), kind);
     }
 
-    private static void printTable(PrintWriter out, Impedance impedance, PartFamily family) {
+    private static void printTable(PrintWriter out, Impedance impedance, PartKind kind) {
         int width = 0;
         for (DerivedParameter p : DerivedParameter.values()) {
             width = Math.max(width, p.label().length());
@@ -344,11 +344,11 @@ final class ConvertCommand implements Callable<Integer> {
         for (DerivedParameter p : DerivedParameter.values()) {
             out.printf("%-" + width + "s  %s%n", p.label(), Quantities.format(p.of(impedance), p.unit(), TABLE_DIGITS));
         }
-        suggest(out, impedance, family);
+        suggest(out, impedance, kind);
     }
 
-    private static void suggest(PrintWriter out, Impedance impedance, PartFamily family) {
-        EquivalentCircuit model = EquivalentCircuit.AUTO.resolve(impedance, family);
+    private static void suggest(PrintWriter out, Impedance impedance, PartKind kind) {
+        EquivalentCircuit model = EquivalentCircuit.AUTO.resolve(impedance, kind);
         out.printf("%nsuggested model: %s (%s)%n", model.name().toLowerCase(java.util.Locale.ROOT),
                 suggestedParameters(impedance, model));
     }

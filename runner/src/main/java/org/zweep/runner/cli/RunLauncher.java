@@ -343,7 +343,7 @@ final class RunLauncher {
                         width == null ? () -> 0 : width::columns);
         org.zweep.runner.live.EventLog events = org.zweep.runner.live.EventLog.open(folder.dir(), Clock.systemUTC());
         ProgressListener shown = new org.zweep.runner.live.EventRecorder(events, console,
-                Analysis.mainParameter(plan.part().kind().name().toLowerCase(Locale.ROOT)), plan.name());
+                Analysis.mainParameter(plan.part().kind()), plan.name());
         ProgressListener progress = resuming ? shown : announcingFolder(folder, shown);
         org.zweep.runner.live.LiveServer server = null;
         boolean ended = false;
@@ -360,11 +360,14 @@ final class RunLauncher {
                     interruption);
             FixturePort fixture = o.fixture().port(link, livePrompter, out, progress::note);
             Clock clock = Clock.systemUTC();
-            RunSession session = new RunSession(plan, link, new RunSession.Setup(folder, resuming, sequenceFile,
-                    plan.meter().dialect(), noiseSeed, ReconnectPolicy.DEFAULT.withBudgetS(o.reconnectBudget().toMillis() / 1000.0), fixture,
-                    progress, interruption,
-                    (station, res, log) -> CompensationWorkflow.prepare(plan, station, folder, res, clock, log),
-                    f -> Analysis.sweepFigures(RunData.read(f.dir())), clock, VersionProvider.version()));
+            RunSession session = new RunSession(plan, link, RunSession.Setup.builder(folder).resuming(resuming)
+                    .sequenceFile(sequenceFile).dialect(plan.meter().dialect()).seed(noiseSeed)
+                    .reconnect(ReconnectPolicy.DEFAULT.withBudgetS(o.reconnectBudget().toMillis() / 1000.0))
+                    .fixture(fixture).progress(progress).interruption(interruption)
+                    .compensation((station, res, log) -> CompensationWorkflow.prepare(plan, station, folder, res, clock,
+                            log))
+                    .sweepChecks(f -> Analysis.sweepFigures(RunData.read(f.dir()))).clock(clock)
+                    .version(VersionProvider.version()).build());
             RunSession.Summary s;
             BiasGuard guard = startGuard(plan.meter().address(), folder);
             if (guard != null) {
@@ -566,8 +569,7 @@ final class RunLauncher {
                 dialect != null ? dialect : plan.meter().dialect());
         Address.parse(m.address());
         Dialect.load(m.dialect());
-        return new Plan(plan.name(), plan.source(), m, plan.safety(), plan.fixture(), plan.part(), plan.steps(),
-                plan.checks());
+        return plan.toBuilder().meter(m).build();
     }
 
     /** Copies a dialect file that lies under the sequence's folder to the same place in the run folder. */

@@ -78,7 +78,8 @@ public final class CompensationWorkflow {
             ReadingCorrector loadU = fx.standards().contains(CorrectionStandard.LOAD)
                     ? new MeterLoadUncertainty(fx.loadStandardU()) : ReadingCorrector.NONE;
             return new FixtureCompensation.Prepared(loadU, new RunManifest.CompensationInfo("meter", names, null)
-                    .from("measured", null, clock.instant().toString()));
+                    .from("measured", null, clock.instant().toString())
+                    .withLoad(fx.standards().contains(CorrectionStandard.LOAD) ? fx.loadStandardU() : null));
         }
         Path runData = folder.dir().resolve(RUN_DATA);
         CompensationData data;
@@ -120,7 +121,8 @@ public final class CompensationWorkflow {
         }
         return new FixtureCompensation.Prepared(corrector,
                 new RunManifest.CompensationInfo("host", names, RUN_DATA, over.isEmpty() ? null : over)
-                        .from(source, reusedFrom, data.time().toString()));
+                        .from(source, reusedFrom, data.time().toString())
+                        .withLoad(fx.standards().contains(CorrectionStandard.LOAD) ? fx.loadStandardU() : null));
     }
 
     /** The compensation record of the run in {@code folder} before it was resumed, or null. */

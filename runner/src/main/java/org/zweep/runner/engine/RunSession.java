@@ -58,12 +58,119 @@ public final class RunSession {
             FixtureCompensation compensation, SweepChecks sweepChecks, Clock clock, String version,
             PointsCsvWriter.Sync rowSync) {
 
-        /** A setup whose rows are synced while the next point is measured ({@link PointsCsvWriter.Sync#BEHIND}). */
-        public Setup(RunFolder folder, boolean resuming, String sequenceFile, String dialect, Long seed,
-                ReconnectPolicy reconnect, FixturePort fixture, ProgressListener progress, Interruption interruption,
-                FixtureCompensation compensation, SweepChecks sweepChecks, Clock clock, String version) {
-            this(folder, resuming, sequenceFile, dialect, seed, reconnect, fixture, progress, interruption,
-                    compensation, sweepChecks, clock, version, PointsCsvWriter.Sync.BEHIND);
+        /**
+         * A builder for a run into {@code folder}: a fresh run, {@link ReconnectPolicy#DEFAULT}, no
+         * compensation, no whole-sweep checks, quiet, the system clock in UTC, rows synced
+         * {@link PointsCsvWriter.Sync#BEHIND}; the fixture, dialect and sequence file must be set.
+         */
+        public static Builder builder(RunFolder folder) {
+            return new Builder(folder);
+        }
+
+        /** Builds a {@link Setup} by field name. */
+        public static final class Builder {
+            private final RunFolder folder;
+            private boolean resuming;
+            private String sequenceFile;
+            private String dialect;
+            private Long seed;
+            private ReconnectPolicy reconnect = ReconnectPolicy.DEFAULT;
+            private FixturePort fixture;
+            private ProgressListener progress = ProgressListener.QUIET;
+            private Interruption interruption = new Interruption();
+            private FixtureCompensation compensation = FixtureCompensation.NONE;
+            private SweepChecks sweepChecks = SweepChecks.NONE;
+            private Clock clock = Clock.systemUTC();
+            private String version = "";
+            private PointsCsvWriter.Sync rowSync = PointsCsvWriter.Sync.BEHIND;
+
+            private Builder(RunFolder folder) {
+                this.folder = folder;
+            }
+
+            /** @see Setup#resuming() */
+            public Builder resuming(boolean v) {
+                resuming = v;
+                return this;
+            }
+
+            /** @see Setup#sequenceFile() */
+            public Builder sequenceFile(String v) {
+                sequenceFile = v;
+                return this;
+            }
+
+            /** @see Setup#dialect() */
+            public Builder dialect(String v) {
+                dialect = v;
+                return this;
+            }
+
+            /** @see Setup#seed() */
+            public Builder seed(Long v) {
+                seed = v;
+                return this;
+            }
+
+            /** @see Setup#reconnect() */
+            public Builder reconnect(ReconnectPolicy v) {
+                reconnect = v;
+                return this;
+            }
+
+            /** @see Setup#fixture() */
+            public Builder fixture(FixturePort v) {
+                fixture = v;
+                return this;
+            }
+
+            /** @see Setup#progress() */
+            public Builder progress(ProgressListener v) {
+                progress = v;
+                return this;
+            }
+
+            /** @see Setup#interruption() */
+            public Builder interruption(Interruption v) {
+                interruption = v;
+                return this;
+            }
+
+            /** @see Setup#compensation() */
+            public Builder compensation(FixtureCompensation v) {
+                compensation = v;
+                return this;
+            }
+
+            /** @see Setup#sweepChecks() */
+            public Builder sweepChecks(SweepChecks v) {
+                sweepChecks = v;
+                return this;
+            }
+
+            /** @see Setup#clock() */
+            public Builder clock(Clock v) {
+                clock = v;
+                return this;
+            }
+
+            /** @see Setup#version() */
+            public Builder version(String v) {
+                version = v;
+                return this;
+            }
+
+            /** @see Setup#rowSync() */
+            public Builder rowSync(PointsCsvWriter.Sync v) {
+                rowSync = v;
+                return this;
+            }
+
+            /** The setup. */
+            public Setup build() {
+                return new Setup(folder, resuming, sequenceFile, dialect, seed, reconnect, fixture, progress,
+                        interruption, compensation, sweepChecks, clock, version, rowSync);
+            }
         }
     }
 
@@ -251,7 +358,7 @@ public final class RunSession {
         return RunManifest.builder()
                 .sequence(new RunManifest.SequenceInfo(plan.name(), sequenceFile, RunFolder.sha256(folder.sequenceCopy()),
                         RunFolder.SEQUENCE_COPY))
-                .part(new RunManifest.PartInfo(p.kind().name().toLowerCase(Locale.ROOT), p.name(), finite(p.nominal()),
+                .part(new RunManifest.PartInfo(p.kind().word(), p.name(), finite(p.nominal()),
                         p.nominalUnit(), finite(p.tolerancePercent()), finite(p.turnsRatio())))
                 .steps(steps).checks(checks).meter(meter)
                 .compensation(new RunManifest.CompensationInfo("none", List.of(), null))

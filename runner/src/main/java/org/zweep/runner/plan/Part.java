@@ -1,5 +1,7 @@
 package org.zweep.runner.plan;
 
+import org.zweep.driver.impedance.PartKind;
+
 /**
  * The component under test.
  *

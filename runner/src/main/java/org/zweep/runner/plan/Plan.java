@@ -15,6 +15,7 @@ import java.util.List;
  * @param part the component under test
  * @param steps the steps in order
  * @param checks pass/fail limits
+ * @see #builder()
  */
 public record Plan(String name, Path source, MeterChoice meter, SafetyLimits safety, FixturePlan fixture, Part part,
         List<PlannedStep> steps, List<CheckLimit> checks) {
@@ -26,5 +27,84 @@ public record Plan(String name, Path source, MeterChoice meter, SafetyLimits saf
     /** Every point of every step, in measuring order. */
     public List<PlannedPoint> points() {
         return steps.stream().flatMap(s -> s.points().stream()).toList();
+    }
+
+    /** A builder with nothing set (steps and checks empty). */
+    public static Builder builder() {
+        return new Builder();
+    }
+
+    /** A builder holding this plan's fields, to change some of them. */
+    public Builder toBuilder() {
+        return new Builder().name(name).source(source).meter(meter).safety(safety).fixture(fixture).part(part)
+                .steps(steps).checks(checks);
+    }
+
+    /** Builds a {@link Plan} by field name. */
+    public static final class Builder {
+        private String name;
+        private Path source;
+        private MeterChoice meter;
+        private SafetyLimits safety;
+        private FixturePlan fixture;
+        private Part part;
+        private List<PlannedStep> steps = List.of();
+        private List<CheckLimit> checks = List.of();
+
+        private Builder() {
+        }
+
+        /** @see Plan#name() */
+        public Builder name(String v) {
+            name = v;
+            return this;
+        }
+
+        /** @see Plan#source() */
+        public Builder source(Path v) {
+            source = v;
+            return this;
+        }
+
+        /** @see Plan#meter() */
+        public Builder meter(MeterChoice v) {
+            meter = v;
+            return this;
+        }
+
+        /** @see Plan#safety() */
+        public Builder safety(SafetyLimits v) {
+            safety = v;
+            return this;
+        }
+
+        /** @see Plan#fixture() */
+        public Builder fixture(FixturePlan v) {
+            fixture = v;
+            return this;
+        }
+
+        /** @see Plan#part() */
+        public Builder part(Part v) {
+            part = v;
+            return this;
+        }
+
+        /** @see Plan#steps() */
+        public Builder steps(List<PlannedStep> v) {
+            steps = v;
+            return this;
+        }
+
+        /** @see Plan#checks() */
+        public Builder checks(List<CheckLimit> v) {
+            checks = v;
+            return this;
+        }
+
+        /** The plan. */
+        public Plan build() {
+            return new Plan(name, source, meter, safety, fixture, part, steps, checks);
+        }
     }
 }

@@ -10,6 +10,7 @@ import java.util.List;
 import org.jfree.chart.ChartUtils;
 import org.jfree.chart.JFreeChart;
 import org.jfree.svg.SVGGraphics2D;
+import org.zweep.driver.impedance.PartKind;
 import org.zweep.driver.impedance.DerivedParameter;
 import org.zweep.driver.impedance.Unit;
 import org.zweep.runner.analysis.Analysis;
@@ -50,9 +51,9 @@ public final class Plots {
      * {@link Charts#MAX_TRACES} per chart, further sweeps on further charts ({@code -2}, ...).
      */
     public static List<Named> charts(AnalysisResult a) {
-        String kind = a.run().partKind();
+        PartKind kind = a.run().partKind();
         DerivedParameter value = Analysis.mainParameter(kind);
-        boolean dissipation = "capacitor".equals(kind);
+        boolean dissipation = kind == PartKind.CAPACITOR;
         List<Sweep> all = a.sweeps();
         List<Named> out = new ArrayList<>();
         for (StepResult s : a.steps()) {

@@ -342,9 +342,11 @@ public record RunManifest(String format, SequenceInfo sequence, PartInfo part, L
      *     run); {@code null} without compensation or when unknown (older folders)
      * @param reusedFrom the file the reused data was copied from (absolute); {@code null} unless reused
      * @param measuredAt when the standards were measured (ISO-8601); {@code null} when unknown
+     * @param load the load standard's stated value and standard uncertainty (an error common to every
+     *     corrected point, which a fit must treat as common); {@code null} without LOAD or in older folders
      */
     public record CompensationInfo(String mode, List<String> standards, String data, List<Double> openOverRangeHz,
-            String source, String reusedFrom, String measuredAt) {
+            String source, String reusedFrom, String measuredAt, LoadStandard load) {
         /** A compensation record with the OPEN readable everywhere. */
         public CompensationInfo(String mode, List<String> standards, String data) {
             this(mode, standards, data, null);
@@ -352,13 +354,37 @@ public record RunManifest(String format, SequenceInfo sequence, PartInfo part, L
 
         /** A compensation record whose origin is unknown. */
         public CompensationInfo(String mode, List<String> standards, String data, List<Double> openOverRangeHz) {
-            this(mode, standards, data, openOverRangeHz, null, null, null);
+            this(mode, standards, data, openOverRangeHz, null, null, null, null);
         }
 
         /** This record saying where the data came from. */
         public CompensationInfo from(String newSource, String newReusedFrom, String newMeasuredAt) {
             return new CompensationInfo(mode, standards, data, openOverRangeHz, newSource, newReusedFrom,
-                    newMeasuredAt);
+                    newMeasuredAt, load);
+        }
+
+        /** This record with the load standard as stated ({@code null}: none). */
+        public CompensationInfo withLoad(org.zweep.driver.uncertainty.UncertainImpedance stated) {
+            return new CompensationInfo(mode, standards, data, openOverRangeHz, source, reusedFrom, measuredAt,
+                    stated == null ? null : new LoadStandard(stated.value().resistanceOhm(),
+                            stated.value().reactanceOhm(), stated.uROhm(), stated.uXOhm(), stated.correlation()));
+        }
+    }
+
+    /**
+     * The load standard as the sequence states it.
+     *
+     * @param rOhm its resistance, Ω
+     * @param xOhm its reactance, Ω
+     * @param uROhm the standard uncertainty of R, Ω
+     * @param uXOhm the standard uncertainty of X, Ω
+     * @param correlation r(R, X)
+     */
+    public record LoadStandard(double rOhm, double xOhm, double uROhm, double uXOhm, double correlation) {
+        /** As an uncertain impedance (its frequency NaN: the value is held constant). */
+        public org.zweep.driver.uncertainty.UncertainImpedance stated() {
+            return new org.zweep.driver.uncertainty.UncertainImpedance(
+                    new org.zweep.driver.impedance.Impedance(Double.NaN, rOhm, xOhm), uROhm, uXOhm, correlation);
         }
     }
 

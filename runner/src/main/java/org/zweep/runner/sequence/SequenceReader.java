@@ -34,7 +34,7 @@ import org.zweep.runner.plan.TerminalConfiguration;
 import org.zweep.runner.plan.FixturePlan;
 import org.zweep.runner.plan.MeterChoice;
 import org.zweep.runner.plan.Part;
-import org.zweep.runner.plan.PartKind;
+import org.zweep.driver.impedance.PartKind;
 import org.zweep.runner.plan.Plan;
 import org.zweep.runner.plan.PlannedStep;
 import org.zweep.runner.plan.SafetyLimits;
@@ -149,7 +149,8 @@ final class SequenceReader {
         if (meterCheck != null) {
             checkMeter(specs, steps, Dialect.load(meterCheck.isEmpty() ? meter.dialect() : meterCheck));
         }
-        return new Plan(name, source, meter, safety, fixture, part, steps, checks);
+        return Plan.builder().name(name).source(source).meter(meter).safety(safety).fixture(fixture).part(part)
+                .steps(steps).checks(checks).build();
     }
 
     /**
@@ -366,8 +367,7 @@ final class SequenceReader {
     private static Part part(YamlNode node) {
         YamlNode.YamlMap m = node.map("part", PART_KEYS);
         YamlNode kn = m.required("kind");
-        PartKind kind = PartKind.valueOf(word(kn, "part kind",
-                List.of("capacitor", "inductor", "resistor", "transformer")).toUpperCase(Locale.ROOT));
+        PartKind kind = PartKind.ofWord(word(kn, "part kind", PartKind.words())).orElseThrow();
         String name = m.optional("name").map(n -> n.text("a part name")).orElse("");
         YamlNode nn = m.required("nominal");
         Unit unit = switch (kind) {
@@ -788,7 +788,7 @@ final class SequenceReader {
         }
         if (!NOMINAL_PARAMETERS.get(part.kind()).contains(parameter)) {
             throw within.error("within compares with the nominal " + Units.format(part.nominal(),
-                    Unit.ofSymbol(part.nominalUnit()).orElse(Unit.NONE)) + ": for a " + part.kind().name().toLowerCase(Locale.ROOT)
+                    Unit.ofSymbol(part.nominalUnit()).orElse(Unit.NONE)) + ": for a " + part.kind().word()
                     + " use " + String.join(", ", NOMINAL_PARAMETERS.get(part.kind())) + ", not '" + parameter + "'");
         }
         return part.nominal();

@@ -123,4 +123,58 @@ class WeightedFitTest {
         assertTrue(Double.isNaN(fit.reducedChiSquared()));
         assertTrue(!fit.weighted());
     }
+
+    @Test
+    void aLoadStandardsErrorCommonToEveryPointIsAddedAfterTheFitNotAveragedDown() {
+        // each sweep: independent errors (0.1 % of |Z|) plus one error common to all its points, drawn from a
+        // load standard stated as 100 Ω with u(R) = u(X) = 0.3 Ω (δ = ΔZ_std/Z_std, 0.3 % each part). The points'
+        // u include the common part, as the open/short/load correction reports it per point.
+        double[] f = Sweeps.logSpaced(10e3, 100e6, 41);
+        DoubleFunction<Complex> truth = Sweeps.seriesRlc(0.05, 0.8e-9, 220e-9);
+        UncertainImpedance load = new UncertainImpedance(new Impedance(Double.NaN, 100, 0), 0.3, 0.3, 0);
+        CommonError common = CommonError.ofLoadStandard(load);
+        assertEquals(0.003, common.uRe(), 1e-15);
+        assertEquals(0.003, common.uIm(), 1e-15);
+        Random random = new Random(21);
+        int runs = 300;
+        String[] keys = {"c_f", "esr_ohm", "esl_h"};
+        double[] values = {220e-9, 0.05, 0.8e-9};
+        int[] insideCommon = new int[3];
+        int[] insideIndependent = new int[3];
+        double uC = 0;
+        double uCIndependent = 0;
+        for (int run = 0; run < runs; run++) {
+            Complex delta = new Complex(0.003 * random.nextGaussian(), 0.003 * random.nextGaussian());
+            List<UncertainImpedance> data = new ArrayList<>();
+            for (UncertainImpedance p : sweep(truth, f, 1e-3, random)) {
+                Complex z = p.value().toComplex();
+                Complex shared = truth.apply(p.value().frequencyHz()).multiply(delta);
+                Impedance v = new Impedance(p.value().frequencyHz(), z.getReal() + shared.getReal(),
+                        z.getImaginary() + shared.getImaginary());
+                double[] c = common.pointCovariance(v.resistanceOhm(), v.reactanceOhm());
+                data.add(UncertainImpedance.fromCovariance(v, p.varianceR() + c[0], p.varianceX() + c[1],
+                        p.covarianceRX() + c[2]));
+            }
+            CircuitFit withCommon = EquivalentCircuitFit.fitWeighted(CircuitModel.CAPACITOR, data, common);
+            CircuitFit asIndependent = EquivalentCircuitFit.fitWeighted(CircuitModel.CAPACITOR, data);
+            assertTrue(withCommon.converged(), withCommon.notes().toString());
+            uC += withCommon.sigma().get("c_f") / runs;
+            uCIndependent += asIndependent.sigma().get("c_f") / runs;
+            for (int k = 0; k < 3; k++) {
+                insideCommon[k] += Math.abs(withCommon.value(keys[k]) - values[k]) <= 2 * withCommon.sigma().get(keys[k])
+                        ? 1 : 0;
+                insideIndependent[k] += Math.abs(asIndependent.value(keys[k]) - values[k])
+                        <= 2 * asIndependent.sigma().get(keys[k]) ? 1 : 0;
+            }
+        }
+        // a real common scale (1 + δr) scales C by 1/(1 + δr): u(C) is at least C·0.3 % = 0.66 nF
+        assertTrue(uC >= 220e-9 * 0.003, "u(C) " + uC);
+        assertTrue(uCIndependent < 0.5 * 220e-9 * 0.003, "u(C) as if independent " + uCIndependent);
+        for (int k = 0; k < 3; k++) {
+            // ±2σ of a normal estimate covers 95.45 % (Abramowitz and Stegun, Table 26.1); 300 runs: ±3.6 % at 3σ
+            assertEquals(0.9545, insideCommon[k] / (double) runs, 0.036, keys[k]);
+        }
+        // taken as independent from point to point, the common error averages down and C's ±2σ misses most runs
+        assertTrue(insideIndependent[0] < 0.7 * runs, "C covered " + insideIndependent[0] + " of " + runs);
+    }
 }

@@ -26,9 +26,8 @@ class MeterSideCompensationTest {
     static Plan plan() {
         Plan p = TestPlans.plan(List.of(TestPlans.step(0, 0, "sweep", "fit the part", BiasControl.NONE,
                 new double[] {0}, 1000, 100_000, 1e6)), List.of());
-        return new Plan(p.name(), p.source(), p.meter(), p.safety(), new FixturePlan(TerminalConfiguration.FOUR_TERMINAL,
-                CompensationMode.METER, List.of(CorrectionStandard.OPEN, CorrectionStandard.SHORT), null, Duration.ZERO,
-                null), p.part(), p.steps(), p.checks());
+        return p.toBuilder().fixture(new FixturePlan(TerminalConfiguration.FOUR_TERMINAL, CompensationMode.METER,
+                List.of(CorrectionStandard.OPEN, CorrectionStandard.SHORT), null, Duration.ZERO, null)).build();
     }
 
     /** What the meter was told from the reset on: settings (frequency only), acquisitions, correction. */

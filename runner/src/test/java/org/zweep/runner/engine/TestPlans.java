@@ -13,7 +13,7 @@ import org.zweep.runner.plan.TerminalConfiguration;
 import org.zweep.runner.plan.FixturePlan;
 import org.zweep.runner.plan.MeterChoice;
 import org.zweep.runner.plan.Part;
-import org.zweep.runner.plan.PartKind;
+import org.zweep.driver.impedance.PartKind;
 import org.zweep.runner.plan.Plan;
 import org.zweep.runner.plan.PlannedPoint;
 import org.zweep.runner.plan.PlannedStep;
@@ -42,9 +42,12 @@ final class TestPlans {
     }
 
     static Plan plan(List<PlannedStep> steps, List<CheckLimit> checks) {
-        return new Plan("test", Path.of("test.yaml"), new MeterChoice("fake:bench", "standard"), LIMITS,
-                new FixturePlan(TerminalConfiguration.FOUR_TERMINAL, CompensationMode.NONE, List.of(), null, Duration.ZERO, null),
-                new Part(PartKind.CAPACITOR, "KP-C0805-104", 100e-9, 10.0, Double.NaN), steps, checks);
+        return Plan.builder().name("test").source(Path.of("test.yaml")).meter(new MeterChoice("fake:bench", "standard"))
+                .safety(LIMITS)
+                .fixture(new FixturePlan(TerminalConfiguration.FOUR_TERMINAL, CompensationMode.NONE, List.of(), null,
+                        Duration.ZERO, null))
+                .part(new Part(PartKind.CAPACITOR, "KP-C0805-104", 100e-9, 10.0, Double.NaN)).steps(steps).checks(checks)
+                .build();
     }
 
     /** A frequency sweep of 5 points plus a bias step of 3 x 2 points with a 1 V/s ramp and 0.5 s settle. */

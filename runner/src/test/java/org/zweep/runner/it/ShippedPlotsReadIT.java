@@ -27,6 +27,7 @@ import org.jfree.chart.plot.XYPlot;
 import org.junit.jupiter.api.io.TempDir;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.MethodSource;
+import org.zweep.driver.impedance.PartKind;
 import org.zweep.runner.analysis.Analysis;
 import org.zweep.runner.analysis.AnalysisResult;
 import org.zweep.runner.analysis.RunData;
@@ -74,17 +75,17 @@ class ShippedPlotsReadIT {
                 checkLabels(c, size[0], size[1]);
             }
             checkLogWhereDecades(c);
-            if (c.name().matches(".*-value(-[0-9]+)?") && !"resistor".equals(a.run().partKind())) {
+            if (c.name().matches(".*-value(-[0-9]+)?") && a.run().partKind() != PartKind.RESISTOR) {
                 // Cs or Ls: the axis covers the part's value well below resonance, not the rise near it
                 ValueAxis y = c.chart().getXYPlot().getRangeAxis();
                 assertTrue(y.getUpperBound() / y.getLowerBound() < 1.5, c.name() + ": value axis "
                         + y.getLowerBound() + " .. " + y.getUpperBound());
             }
         }
-        String kind = a.run().partKind();
-        assertTrue(kinds.containsAll(List.of("impedance", "rx", "value", "capacitor".equals(kind) ? "d" : "q")),
+        PartKind kind = a.run().partKind();
+        assertTrue(kinds.containsAll(List.of("impedance", "rx", "value", kind == PartKind.CAPACITOR ? "d" : "q")),
                 kind + ": " + kinds);
-        if (!"transformer".equals(kind)) {
+        if (kind != PartKind.TRANSFORMER) {
             assertTrue(kinds.contains("bias"), kind + " sequence sweeps DC bias: " + kinds);
         }
     }

@@ -123,7 +123,7 @@ class ShippedSequencesOnBenchTest {
         if (c.parameter().equals(CheckLimit.SATURATION)) {
             // the bias where Ls (Cs for a capacitor) has first fallen by the drop from its value at the lowest
             // bias, linearly interpolated between the two bias points around the crossing
-            String key = plan.part().kind() == org.zweep.runner.plan.PartKind.CAPACITOR ? "cs_f" : "ls_h";
+            String key = plan.part().kind() == org.zweep.driver.impedance.PartKind.CAPACITOR ? "cs_f" : "ls_h";
             double ref = Double.NaN;
             double lastBias = Double.NaN;
             double lastValue = Double.NaN;
