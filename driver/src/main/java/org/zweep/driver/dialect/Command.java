@@ -44,6 +44,8 @@ enum Command {
     LIST_MODE_OFF("list-mode-off"),
     LIST_MEASURE("list-measure"),
     MEASURE_AGAIN("measure-again"),
+    LIST_FORMAT("list-format"),
+    POINT_FORMAT("point-format"),
     CORRECTION_OPEN("correction-open"),
     CORRECTION_SHORT("correction-short"),
     CORRECTION_LOAD("correction-load"),

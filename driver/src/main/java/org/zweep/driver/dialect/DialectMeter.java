@@ -64,6 +64,15 @@ public final class DialectMeter implements Meter {
     private boolean resync;
     private boolean closed;
     private boolean biasConfirmedOff;
+    /** Settings to send in front of the next measuring query, in its message ("" for none). */
+    private String prefix = "";
+    /**
+     * Whether the meter holds the list sweeps' data format (dialects whose lists answer in another
+     * encoding); null when unknown after a failure.
+     */
+    private Boolean listFormatHeld = Boolean.FALSE;
+    /** Whether the session reads blocks and text in one reply (false once it said it cannot). */
+    private boolean blocksJoinable = true;
 
     /** A meter speaking {@code dialect} over {@code session}, timestamping readings with the system clock. */
     public DialectMeter(ScpiSession session, Dialect dialect) {
@@ -114,6 +123,7 @@ public final class DialectMeter implements Meter {
     public void reset() {
         requireOpen();
         planner.reset();
+        listFormatHeld = Boolean.FALSE;
         current = null;
         lastMeasured = null;
         resync = false;
@@ -193,6 +203,43 @@ public final class DialectMeter implements Meter {
         double[] values = measured(Command.MEASURE, 1, dialect.timing().pointS(current, lastMeasured), what);
         lastMeasured = current;
         return reading(current, values, 0, clock.instant());
+    }
+
+    /**
+     * Where the dialect joins commands in one message, ends it with the error query and reads
+     * ASCII: the settings that changed, the trigger (and {@code measure-again}) and the error
+     * query in one message, one round trip. Otherwise as {@link #apply} then {@link #measure}.
+     */
+    @Override
+    public Reading measureAt(MeasurementSetting setting) {
+        requireOpen();
+        Dialect.Messages m = dialect.messages();
+        if (resync || !m.join() || !m.errorQueryJoined() || !m.errorCheck().afterMeasurement()
+                || dialect.reply().encoding() != ReplyShape.Encoding.ASCII) {
+            apply(setting);
+            return measure();
+        }
+        validate(setting);
+        SettingMessages.Pending pending = planner.plan(setting, List.of());
+        String what = "measuring at " + describe(setting);
+        double[] values;
+        try {
+            prefix = String.join(";", withFormat(pending.units(), false));
+            formatSent(false); // the reply comes in the points' format (forgotten again on a failure)
+            values = measured(Command.MEASURE, 1, dialect.timing().pointS(setting, lastMeasured), what);
+        } catch (RuntimeException e) {
+            // whether the meter took the setting is unknown: the next operation sends it again
+            forget();
+            current = setting;
+            resync = true;
+            throw e;
+        } finally {
+            prefix = "";
+        }
+        planner.sent(pending);
+        current = setting;
+        lastMeasured = setting;
+        return reading(setting, values, 0, clock.instant());
     }
 
     @Override
@@ -455,8 +502,42 @@ public final class DialectMeter implements Meter {
      */
     private void configure(MeasurementSetting s, List<MeasurementSetting> sweep, String what) {
         SettingMessages.Pending pending = planner.plan(s, sweep);
-        send(pending.units(), what);
+        send(withFormat(pending.units(), !sweep.isEmpty()), what);
         planner.sent(pending);
+        formatSent(!sweep.isEmpty());
+    }
+
+    /**
+     * {@code units} with the dialect's {@code list-format} (for a list sweep) or {@code point-format}
+     * command added when the meter may hold the other data format; {@code units} itself otherwise.
+     */
+    private List<String> withFormat(List<String> units, boolean list) {
+        if (!dialect.reply().listsSwitchEncoding() || Boolean.valueOf(list).equals(listFormatHeld)) {
+            return units;
+        }
+        List<String> out = new ArrayList<>(units);
+        out.add(render(list ? Command.LIST_FORMAT : Command.POINT_FORMAT));
+        return out;
+    }
+
+    /** Records that the meter now holds the list sweeps' data format, or the points'. */
+    private void formatSent(boolean list) {
+        if (dialect.reply().listsSwitchEncoding()) {
+            listFormatHeld = list;
+        }
+    }
+
+    /** After a failure: nothing is known of what the meter holds. */
+    private void forget() {
+        planner.forget();
+        if (dialect.reply().listsSwitchEncoding()) {
+            listFormatHeld = null;
+        }
+    }
+
+    /** The encoding of the next measurement's reply: that of the data format the meter holds. */
+    private ReplyShape.Encoding encodingNow() {
+        return Boolean.TRUE.equals(listFormatHeld) ? dialect.reply().listEncoding() : dialect.reply().encoding();
     }
 
     // ---- the wire -----------------------------------------------------------------------------
@@ -500,12 +581,12 @@ public final class DialectMeter implements Meter {
                 }
             }
         } catch (MeterTimeoutException e) {
-            planner.forget();
+            forget();
             resync = current != null;
             lastMeasured = null;
             throw named(e, what);
         } catch (RuntimeException e) {
-            planner.forget();
+            forget();
             resync = current != null;
             lastMeasured = null;
             throw e;
@@ -552,8 +633,15 @@ public final class DialectMeter implements Meter {
             return readValues(command, points, expectedS, what, false)[0];
         }
         List<double[]> seen = new ArrayList<>();
-        if (dialect.messages().join() && dialect.reply().encoding() == ReplyShape.Encoding.ASCII) {
-            double[][] both = readValues(command, points, expectedS, what, true);
+        double[][] both = null;
+        if (dialect.messages().join() && (encodingNow() == ReplyShape.Encoding.ASCII || blocksJoinable)) {
+            try {
+                both = readValues(command, points, expectedS, what, true);
+            } catch (UnsupportedOperationException e) {
+                blocksJoinable = false; // nothing was sent: read once, then again on its own
+            }
+        }
+        if (both != null) {
             if (Arrays.equals(both[0], both[1])) {
                 return both[0];
             }
@@ -570,7 +658,7 @@ public final class DialectMeter implements Meter {
             }
             seen.add(again);
         }
-        planner.forget();
+        forget();
         resync = current != null;
         throw new ScpiProtocolException(session.address() + ": the meter gave " + seen.size()
                 + " different results for one measurement (replies corrupted on the way) while " + what);
@@ -598,13 +686,19 @@ public final class DialectMeter implements Meter {
 
     private double[][] readValuesTimed(Command command, int points, Duration work, String what, boolean twice) {
         String query = twice ? render(command) + ";" + render(Command.MEASURE_AGAIN) : render(command);
+        if (!prefix.isEmpty()) {
+            query = prefix + ";" + query;
+            prefix = "";
+        }
         ReplyShape shape = dialect.reply();
         int expected = points * shape.fields().size();
         double[][] results;
         String shown;
         Dialect.Messages m = dialect.messages();
-        if (shape.encoding() == ReplyShape.Encoding.ASCII) {
+        boolean appended = false;
+        if (encodingNow() == ReplyShape.Encoding.ASCII) {
             boolean append = m.errorCheck().afterMeasurement() && m.errorQueryJoined();
+            appended = append;
             int queries = (twice ? 2 : 1) + (append ? 1 : 0);
             List<String> units = replies(append ? query + ";" + render(Command.ERROR_QUERY) : query, queries, work,
                     what);
@@ -621,7 +715,7 @@ public final class DialectMeter implements Meter {
                 units.remove(units.size() - 1);
                 if (error.code() != 0) {
                     // IEEE 488.2 §6.3.2.3: a query that fails sends no response, so only the error came back
-                    planner.forget();
+                    forget();
                     resync = true;
                     throw errors(error, what);
                 }
@@ -643,23 +737,56 @@ public final class DialectMeter implements Meter {
                 results = new double[][] {parseNumbers(data, what)};
             }
         } else {
-            byte[] block = session.queryBlock(query, work);
-            double[] values;
-            try {
-                values = ScpiValues.real64(block, shape.encoding() == ReplyShape.Encoding.REAL64_BIG
-                        ? ByteOrder.BIG_ENDIAN : ByteOrder.LITTLE_ENDIAN);
-            } catch (IllegalArgumentException e) {
-                throw new ScpiProtocolException(session.address() + ": " + e.getMessage() + " while " + what, e);
+            ByteOrder order = encodingNow() == ReplyShape.Encoding.REAL64_BIG ? ByteOrder.BIG_ENDIAN
+                    : ByteOrder.LITTLE_ENDIAN;
+            boolean append = m.errorCheck().afterMeasurement() && m.errorQueryJoined();
+            int blocks = twice ? 2 : 1;
+            ScpiSession.BlocksReply reply = null;
+            if ((append || twice) && blocksJoinable) {
+                try {
+                    reply = session.queryBlocksThenText(append ? query + ";" + render(Command.ERROR_QUERY) : query,
+                            blocks, work);
+                } catch (UnsupportedOperationException e) {
+                    if (twice) {
+                        throw e;
+                    }
+                    blocksJoinable = false; // nothing was sent: the block alone, the error query after it
+                }
             }
-            results = new double[][] {values};
-            shown = block.length + " bytes";
+            if (reply != null) {
+                appended = append;
+                if (append) {
+                    ScpiError error = parseError(reply.text(), what);
+                    if (error.code() != 0) {
+                        // IEEE 488.2 §6.3.2.3: a query that fails sends no response
+                        forget();
+                        resync = true;
+                        throw errors(error, what);
+                    }
+                } else if (!reply.text().isEmpty()) {
+                    throw new ScpiProtocolException(session.address() + ": unexpected '" + abbreviate(reply.text())
+                            + "' after the blocks replying to '" + abbreviate(query) + "' while " + what);
+                }
+                if (reply.blocks().size() != blocks) {
+                    throw new ScpiProtocolException(session.address() + ": expected " + blocks + " blocks replying to '"
+                            + abbreviate(query) + "' but got " + reply.blocks().size() + " while " + what);
+                }
+                results = new double[blocks][];
+                for (int i = 0; i < blocks; i++) {
+                    results[i] = real64(reply.blocks().get(i), order, what);
+                }
+                shown = reply.blocks().get(0).length + " bytes";
+            } else {
+                byte[] block = session.queryBlock(query, work);
+                results = new double[][] {real64(block, order, what)};
+                shown = block.length + " bytes";
+            }
         }
-        boolean separate = m.errorCheck().afterMeasurement()
-                && (!m.errorQueryJoined() || shape.encoding() != ReplyShape.Encoding.ASCII);
+        boolean separate = m.errorCheck().afterMeasurement() && !appended;
         if (separate) {
             List<ScpiError> errors = readErrors(List.of(), Duration.ZERO, what);
             if (!errors.isEmpty()) {
-                planner.forget();
+                forget();
                 resync = true;
                 throw errors(errors, what);
             }
@@ -672,6 +799,14 @@ public final class DialectMeter implements Meter {
             }
         }
         return results;
+    }
+
+    private double[] real64(byte[] block, ByteOrder order, String what) {
+        try {
+            return ScpiValues.real64(block, order);
+        } catch (IllegalArgumentException e) {
+            throw new ScpiProtocolException(session.address() + ": " + e.getMessage() + " while " + what, e);
+        }
     }
 
     /**

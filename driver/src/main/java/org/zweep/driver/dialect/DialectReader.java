@@ -37,7 +37,7 @@ final class DialectReader {
             "list-points", "voltage-ratio").require("frequency");
     private static final Schema MESSAGES = Schema.of("section 'messages'", "join", "replies", "error-query-after",
             "error-query-joined");
-    private static final Schema REPLY = Schema.of("section 'reply'", "encoding", "fields");
+    private static final Schema REPLY = Schema.of("section 'reply'", "encoding", "fields", "list-encoding");
     private static final Schema CORRECTION = Schema.of("section 'correction'", "standards", "style",
             "list-acquisition").require("standards");
     private static final Schema TIMING = Schema.of("section 'timing'", "point-overhead", "min-periods",
@@ -56,6 +56,8 @@ final class DialectReader {
 
     private final String source;
     private final String text;
+    /** Section reply's {@code list-encoding}, when given (checked against the commands). */
+    private Entry listEncodingEntry;
 
     DialectReader(String source, String text) {
         this.source = source;
@@ -170,6 +172,9 @@ final class DialectReader {
         requireFor(commands, caps.get("frequency"), Command.FREQUENCY);
         if (listPoints > 0) {
             requireFor(commands, caps.get("list-points"), Command.LIST_FREQUENCY, Command.LIST_MEASURE);
+        }
+        if (listEncodingEntry != null && reply.listsSwitchEncoding()) {
+            requireFor(commands, listEncodingEntry, Command.LIST_FORMAT, Command.POINT_FORMAT);
         }
         if (ratio) {
             requireFor(commands, caps.get("voltage-ratio"), Command.FUNCTION_IMPEDANCE,
@@ -333,15 +338,20 @@ final class DialectReader {
     private ReplyShape reply(YamlNode node) {
         YamlNode.YamlMap m = node.map(REPLY);
         ReplyShape.Encoding encoding = ReplyShape.Encoding.ASCII;
-        Map<String, Entry> e = scalars(m, "encoding");
+        Map<String, Entry> e = scalars(m, "encoding", "list-encoding");
         if (e.containsKey("encoding")) {
             encoding = word(e.get("encoding"), ReplyShape.Encoding.values(), x -> x.word);
+        }
+        ReplyShape.Encoding listEncoding = encoding;
+        if (e.containsKey("list-encoding")) {
+            listEncodingEntry = e.get("list-encoding");
+            listEncoding = word(listEncodingEntry, ReplyShape.Encoding.values(), x -> x.word);
         }
         List<ReplyShape.Field> fields = new ArrayList<>();
         if (!m.has("fields")) {
             fields.add(ReplyShape.Field.REAL);
             fields.add(ReplyShape.Field.IMAG);
-            return new ReplyShape(encoding, fields);
+            return new ReplyShape(encoding, fields, listEncoding);
         }
         YamlNode list = m.required("fields");
         List<String> words = java.util.Arrays.stream(ReplyShape.Field.values()).map(x -> x.word).toList();
@@ -371,7 +381,7 @@ final class DialectReader {
         if (mixed || cartesian == polar) {
             throw list.error("fields must hold either real and imag, or magnitude and one of phase-deg, phase-rad");
         }
-        return new ReplyShape(encoding, fields);
+        return new ReplyShape(encoding, fields, listEncoding);
     }
 
     /**

@@ -7,14 +7,26 @@ import java.util.List;
  *
  * @param encoding ASCII numbers or an IEEE 488.2 definite-length block of REAL,64 doubles
  * @param fields the fields of one point, in the order the meter sends them
+ * @param listEncoding the encoding of a list sweep's reply (the dialect's {@code list-format}
+ *     command selects it before a sweep, {@code point-format} the other again before a point)
  */
-record ReplyShape(Encoding encoding, List<Field> fields) {
+record ReplyShape(Encoding encoding, List<Field> fields, Encoding listEncoding) {
 
     /** SCPI's "not a number" for a reading with no value (SCPI-1999 Vol 1 §7.2.1.5: NAN = 9.91E37). */
     static final double NO_VALUE_THRESHOLD = 9.9e37;
 
     ReplyShape {
         fields = List.copyOf(fields);
+    }
+
+    /** A shape whose list sweeps are answered in the same encoding as single points. */
+    ReplyShape(Encoding encoding, List<Field> fields) {
+        this(encoding, fields, encoding);
+    }
+
+    /** Whether list sweeps are answered in another encoding than single points. */
+    boolean listsSwitchEncoding() {
+        return listEncoding != encoding;
     }
 
     /** The reply's encoding. */

@@ -49,13 +49,23 @@ public interface Meter extends AutoCloseable {
     Reading measure();
 
     /**
+     * {@link #apply} then {@link #measure}: for a point measured at once after its setting (no
+     * settling wait between them). A meter that takes the setting and the trigger in one message
+     * sends them so, one round trip; the default sends them one after the other.
+     */
+    default Reading measureAt(MeasurementSetting setting) {
+        apply(setting);
+        return measure();
+    }
+
+    /**
      * Measures {@code settings} in order and returns one reading per setting. When the meter
      * can sweep a list and the settings differ only in frequency (and, where declared, level or
      * bias), the list is one trigger and one read; otherwise point by point.
      */
     List<Reading> measureList(List<MeasurementSetting> settings);
 
-    /** Tells the meter to acquire a fixture-correction standard now fitted to the fixture. */
+    /** Tells the meter to acquire a fixture-correction standard now inserted in the fixture. */
     void acquireCorrection(CorrectionStandard standard);
 
     /**

@@ -320,6 +320,48 @@ public final class ScpiClient implements ScpiSession {
         }
     }
 
+    @Override
+    public BlocksReply queryBlocksThenText(String message, int blocks, Duration expectedWork) {
+        lock.lock();
+        try {
+            begin();
+            send(message);
+            Deadline d = deadline(work(expectedWork));
+            List<byte[]> got = new ArrayList<>(blocks);
+            for (int k = 0; k < blocks; k++) {
+                int first = nextByte(message, d, 0);
+                if (first != '#') {
+                    // no response to a failed query: what follows is the text unit
+                    pos -= 1;
+                    break;
+                }
+                line[0] = '#';
+                int digit = nextByte(message, d, 1);
+                if (digit == '0') {
+                    outOfStep = true;
+                    throw new ScpiProtocolException(address() + ": the reply to '" + message
+                            + "' holds an indefinite-length block (#0), which ends the reply: no query may follow it");
+                }
+                pos -= 1;
+                got.add(readDefinitePayload(message, d, false));
+                int sep = nextByte(message, d, 0);
+                if (sep == '\n') {
+                    return new BlocksReply(got, ""); // no text unit followed
+                }
+                if (sep != ';') {
+                    outOfStep = true;
+                    throw new ScpiProtocolException(address() + ": expected ';' and the next response after block "
+                            + (k + 1) + " of the reply to '" + message + "' but got '"
+                            + ScpiValues.escape(new byte[] {(byte) sep}, 0, 1, 1) + "'");
+                }
+            }
+            int n = readLine(message, d);
+            return new BlocksReply(got, new String(line, 0, n, StandardCharsets.ISO_8859_1));
+        } finally {
+            lock.unlock();
+        }
+    }
+
     /**
      * Sends a query whose reply is a definite-length block of IEEE 754 doubles ({@code FORMat REAL,64})
      * in the given byte order ({@code FORMat:BORDer}); SCPI's special values are mapped as in
@@ -573,6 +615,18 @@ public final class ScpiClient implements ScpiSession {
      * {@code line[0]}); returns the payload, or with {@code withHeader} header and payload.
      */
     private byte[] readDefiniteBlock(String message, Deadline d, boolean withHeader) {
+        byte[] data = readDefinitePayload(message, d, withHeader);
+        int trailing = readLine(message, d);
+        if (trailing != 0) {
+            throw new ScpiProtocolException(address() + ": " + trailing + " unexpected bytes after the "
+                    + data.length + "-byte block replying to '" + message + "': '"
+                    + ScpiValues.escape(line, 0, trailing, 40) + "'");
+        }
+        return data;
+    }
+
+    /** As {@link #readDefiniteBlock}, leaving what follows the payload unread. */
+    private byte[] readDefinitePayload(String message, Deadline d, boolean withHeader) {
         int digit = nextByte(message, d, 1);
         line[1] = (byte) digit;
         if (digit < '1' || digit > '9') {
@@ -618,12 +672,6 @@ public final class ScpiClient implements ScpiSession {
                         Arrays.copyOfRange(data, header, header + got));
             }
             got += n;
-        }
-        int trailing = readLine(message, d);
-        if (trailing != 0) {
-            throw new ScpiProtocolException(address() + ": " + trailing + " unexpected bytes after the "
-                    + length + "-byte block replying to '" + message + "': '"
-                    + ScpiValues.escape(line, 0, trailing, 40) + "'");
         }
         return data;
     }

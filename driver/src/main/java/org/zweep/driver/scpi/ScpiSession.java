@@ -58,6 +58,31 @@ public interface ScpiSession extends AutoCloseable {
     byte[] queryBlock(String message);
 
     /**
+     * The reply to a message of queries answered with arbitrary blocks followed by one answered with
+     * text, all on one line separated by {@code ;}.
+     *
+     * @param blocks the blocks' payloads, in order; fewer than asked when the meter sent no response
+     *     to a query that failed (IEEE 488.2 §6.3.2.3), and then {@code text} is what followed
+     * @param text the last unit, without the terminator ({@code ""} when there was none)
+     */
+    record BlocksReply(List<byte[]> blocks, String text) {
+        public BlocksReply {
+            blocks = List.copyOf(blocks);
+        }
+    }
+
+    /**
+     * Sends a message of {@code blocks} queries answered with definite-length blocks, then one
+     * answered with text (e.g. {@code :READ?;:FETC?;:SYST:ERR?} with {@code FORMat REAL,64}), and
+     * reads the one reply, awaited as in {@link #query(String, Duration)}.
+     *
+     * @throws UnsupportedOperationException when the session cannot read such a reply (the default)
+     */
+    default BlocksReply queryBlocksThenText(String message, int blocks, Duration expectedWork) {
+        throw new UnsupportedOperationException(address() + ": this session reads one block per message");
+    }
+
+    /**
      * Waits until the meter has finished every pending operation: sends {@code completionQuery}
      * ({@code *OPC?}, IEEE 488.2 §10.19, or a meter's own query of the same meaning) and awaits its
      * answer {@code 1} as in {@link #query(String, Duration)}. The one completion wait of the SCPI

@@ -40,6 +40,7 @@ import org.zweep.driver.meter.ReadingStatus;
  * &lt; REPLY                     ...its reply (a query); no reply line means a plain write; several
  *                             reply lines: one line per query (a meter that frames replies so)
  * &lt;# HEX                      ...its reply as an arbitrary block's payload bytes
+ * &lt;#; HEX ; HEX ; TEXT        ...its reply as blocks then a text unit, on one line (the last is the text)
  * ! TEXT                      ...the link fails instead (MeterException with TEXT)
  * = RESULT                    the call's result: "R X [±TOL]" or "no-value" per reading,
  *                             "true"/"false", the identity, or "error Class: message"
@@ -47,7 +48,8 @@ import org.zweep.driver.meter.ReadingStatus;
  * fixture takes a state ({@code part open short load secondary-open secondary-shorted}).
  * apply takes {@code frequency= voltage= current= bias-voltage= bias-current= bias=off averaging=
  * aperture= range=auto|OHMS quantity=impedance|ratio}, each changing the previous setting
- * (initially 1 kHz, 1 V, no bias, 1 average, 20 ms, auto range); measure-list takes
+ * (initially 1 kHz, 1 V, no bias, 1 average, 20 ms, auto range), as does measure-at (apply and
+ * measure in one); measure-list takes
  * {@code frequencies=F1,F2,...} at the previous setting, and so does acquire-list after the standard
  * ({@code acquire-list open frequencies=F1,F2,...}).
  */
@@ -84,7 +86,10 @@ class DialectConversationTest {
             } else if (line.startsWith("> ")) {
                 String message = line.substring(2);
                 String following = i + 1 < lines.size() ? lines.get(i + 1) : "";
-                if (following.startsWith("<# ")) {
+                if (following.startsWith("<#; ")) {
+                    session.expectBlocksQuery(n, message, following.substring(4));
+                    i++;
+                } else if (following.startsWith("<# ")) {
                     session.expectBlockQuery(n, message, following.substring(3));
                     i++;
                 } else if (following.startsWith("< ")) {
@@ -122,7 +127,7 @@ class DialectConversationTest {
             Object result = null;
             RuntimeException thrown = null;
             try {
-                if (call.operation.equals("apply")) {
+                if (call.operation.equals("apply") || call.operation.equals("measure-at")) {
                     setting = changed(setting, call.args);
                 }
                 result = run(meter, call, setting);
@@ -161,6 +166,8 @@ class DialectConversationTest {
                 return null;
             case "measure":
                 return meter.measure();
+            case "measure-at":
+                return meter.measureAt(setting);
             case "measure-list":
                 String freqs = call.args.get(0).substring("frequencies=".length());
                 return meter.measureList(Arrays.stream(freqs.split(","))

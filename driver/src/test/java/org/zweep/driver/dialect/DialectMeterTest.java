@@ -166,6 +166,12 @@ class DialectMeterTest {
                 works.add(expectedWork);
                 return query(message);
             }
+
+            @Override
+            public BlocksReply queryBlocksThenText(String message, int blocks, java.time.Duration expectedWork) {
+                works.add(expectedWork);
+                return super.queryBlocksThenText(message, blocks, expectedWork);
+            }
         };
         DialectMeter meter = DialectMeter.open(session, "standard");
         MeasurementSetting s = MeasurementSetting.at(100).withAveragingCount(4).withIntegrationTimeS(0.1);
@@ -229,6 +235,23 @@ class DialectMeterTest {
         @Override
         public byte[] queryBlock(String message) {
             throw new AssertionError("not used by the standard dialect");
+        }
+
+        /** The standard dialect's list replies: the answer's numeric units as REAL,64 blocks (big-endian), then its text. */
+        @Override
+        public BlocksReply queryBlocksThenText(String message, int blocks, java.time.Duration expectedWork) {
+            calls.add("query " + message);
+            List<String> units = org.zweep.driver.scpi.ScpiValues.splitUnits(answer.apply(message));
+            List<byte[]> out = new ArrayList<>();
+            for (int i = 0; i < blocks && i < units.size(); i++) {
+                double[] v = org.zweep.driver.scpi.ScpiValues.parseNumbers(units.get(i));
+                java.nio.ByteBuffer b = java.nio.ByteBuffer.allocate(v.length * 8);
+                for (double x : v) {
+                    b.putDouble(x);
+                }
+                out.add(b.array());
+            }
+            return new BlocksReply(out, units.size() > blocks ? units.get(blocks) : "");
         }
 
         @Override

@@ -15,9 +15,14 @@ import org.zweep.driver.scpi.ScpiSession;
 final class ScriptedSession implements ScpiSession {
 
     /** One scripted exchange; {@code line} is where it is written in the script, for messages. */
-    record Exchange(int line, String message, String reply, byte[] block, String failure, List<String> lines) {
+    record Exchange(int line, String message, String reply, byte[] block, String failure, List<String> lines,
+            ScpiSession.BlocksReply blocks) {
         Exchange(int line, String message, String reply, byte[] block, String failure) {
-            this(line, message, reply, block, failure, reply == null ? List.of() : List.of(reply));
+            this(line, message, reply, block, failure, reply == null ? List.of() : List.of(reply), null);
+        }
+
+        Exchange(int line, String message, String reply, byte[] block, String failure, List<String> lines) {
+            this(line, message, reply, block, failure, lines, null);
         }
     }
 
@@ -47,6 +52,17 @@ final class ScriptedSession implements ScpiSession {
 
     void expectBlockQuery(int line, String message, String hex) {
         script.add(new Exchange(line, message, null, HexFormat.of().parseHex(hex.replace(" ", "")), null));
+    }
+
+    /** A query answered with blocks then a text unit, {@code units} "HEX ; HEX ; TEXT" (the last is the text). */
+    void expectBlocksQuery(int line, String message, String units) {
+        String[] u = units.split(" ; ", -1);
+        List<byte[]> blocks = new ArrayList<>();
+        for (int i = 0; i < u.length - 1; i++) {
+            blocks.add(HexFormat.of().parseHex(u[i].replace(" ", "")));
+        }
+        script.add(new Exchange(line, message, null, null, null, List.of(),
+                new ScpiSession.BlocksReply(blocks, u[u.length - 1].strip())));
     }
 
     void expectFailure(int line, String message, String failure) {
@@ -109,6 +125,16 @@ final class ScriptedSession implements ScpiSession {
                     + "the script gives it no block reply");
         }
         return e.block.clone();
+    }
+
+    @Override
+    public BlocksReply queryBlocksThenText(String message, int blocks, java.time.Duration expectedWork) {
+        Exchange e = take(message, "query of " + blocks + " blocks and a text");
+        if (e.blocks == null) {
+            throw new AssertionError("script line " + e.line + ": '" + message + "' was sent awaiting blocks and a"
+                    + " text but the script gives it none");
+        }
+        return e.blocks;
     }
 
     @Override

@@ -174,6 +174,36 @@ class ScpiClientTest {
     }
 
     @Test
+    void blocksThenTextOnOneLineAreReadAsTheyCame() {
+        // IEEE 488.2 §8.4.2: definite-length blocks, response units separated by ';', one terminator
+        byte[] first = {'\n', ';', 0, (byte) 0xff};
+        byte[] second = ascii("AB;\n");
+        meter.sendBytes(concat(ascii("#14"), first, ascii(";#14"), second, ascii(";0,\"No error\"\n")));
+        meter.send("ok\n");
+        ScpiClient c = client();
+        ScpiSession.BlocksReply r = c.queryBlocksThenText("READ?;FETC?;SYST:ERR?", 2, java.time.Duration.ZERO);
+        assertEquals(2, r.blocks().size());
+        assertArrayEquals(first, r.blocks().get(0));
+        assertArrayEquals(second, r.blocks().get(1));
+        assertEquals("0,\"No error\"", r.text());
+        assertEquals("ok", c.query("NEXT?"));
+    }
+
+    @Test
+    void aFailedQueryLeavesOnlyTheTextAndTheConversationStaysInStep() {
+        // IEEE 488.2 §6.3.2.3: a query that fails sends no response; the error query still answers
+        meter.send("-230,\"Data corrupt or stale\"\n").send("#12AB\n").send("ok\n");
+        ScpiClient c = client();
+        ScpiSession.BlocksReply r = c.queryBlocksThenText("READ?;FETC?;SYST:ERR?", 2, java.time.Duration.ZERO);
+        assertEquals(List.of(), r.blocks());
+        assertEquals("-230,\"Data corrupt or stale\"", r.text());
+        ScpiSession.BlocksReply only = c.queryBlocksThenText("READ?", 1, java.time.Duration.ZERO);
+        assertArrayEquals(ascii("AB"), only.blocks().get(0));
+        assertEquals("", only.text());
+        assertEquals("ok", c.query("NEXT?"));
+    }
+
+    @Test
     void aReplyThatIsNotABlockIsAProtocolErrorAndTheConversationStaysInStep() {
         meter.send("1.0,2.0\n").send("ok\n");
         ScpiClient c = client();

@@ -200,6 +200,12 @@ final class SimulatorLink implements AutoCloseable {
         }
 
         @Override
+        public BlocksReply queryBlocksThenText(String message, int blocks, java.time.Duration expectedWork) {
+            sent.add(message);
+            return inner.queryBlocksThenText(message, blocks, expectedWork);
+        }
+
+        @Override
         public List<ScpiError> drainErrors() {
             return inner.drainErrors();
         }

@@ -11,6 +11,12 @@ public final class Main {
     /** Runs {@code zweep} with {@code args} and exits with its exit code. */
     public static void main(String[] args) {
         PrintWriter out = new PrintWriter(new java.io.OutputStreamWriter(System.out, StandardCharsets.UTF_8), true);
+        if (args.length == 1 && (args[0].equals("--version") || args[0].equals("-V"))) {
+            // what picocli would print, without building the whole command line first (start-up)
+            out.println("zweep " + VersionProvider.version());
+            out.flush();
+            System.exit(ExitCode.OK);
+        }
         PrintWriter err = new PrintWriter(new java.io.OutputStreamWriter(System.err, StandardCharsets.UTF_8), true);
         boolean debug = java.util.Arrays.asList(args).contains("--debug");
         // a failure on another thread (a background sync, the live page) is one line too, never a trace

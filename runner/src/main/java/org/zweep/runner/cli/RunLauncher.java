@@ -369,7 +369,7 @@ final class RunLauncher {
                     .sweepChecks(f -> Analysis.sweepFigures(RunData.read(f.dir()))).clock(clock)
                     .version(VersionProvider.version()).build());
             RunSession.Summary s;
-            BiasGuard guard = startGuard(plan.meter().address(), folder);
+            BiasGuard guard = appliesBias(plan) ? startGuard(plan.meter().address(), folder) : null;
             if (guard != null) {
                 session.watchBias(guard);
             }
@@ -423,6 +423,11 @@ final class RunLauncher {
         }
         out.flush();
         err.flush();
+    }
+
+    /** Whether any point of {@code plan} has DC bias on: a plan without bias needs no guard process. */
+    static boolean appliesBias(Plan plan) {
+        return plan.points().stream().anyMatch(p -> p.setting().bias().on());
     }
 
     /**

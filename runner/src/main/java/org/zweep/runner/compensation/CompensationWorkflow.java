@@ -284,10 +284,6 @@ public final class CompensationWorkflow {
     }
 
     private static String instruction(CorrectionStandard s) {
-        return switch (s) {
-            case OPEN -> "OPEN standard: leave the fixture's terminals open (nothing fitted)";
-            case SHORT -> "SHORT standard: fit the shorting bar across the fixture's terminals";
-            case LOAD -> "LOAD standard: fit the known load standard";
-        };
+        return Station.standardInstruction(state(s));
     }
 }

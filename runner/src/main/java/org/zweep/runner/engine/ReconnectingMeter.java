@@ -6,6 +6,7 @@ import java.util.Optional;
 import java.util.Set;
 import java.util.function.Consumer;
 import java.util.function.Function;
+import java.util.function.Supplier;
 import org.zweep.driver.MeterException;
 import org.zweep.driver.impedance.Impedance;
 import org.zweep.driver.meter.Bias;
@@ -109,12 +110,12 @@ public final class ReconnectingMeter implements Meter {
 
     @Override
     public MeterIdentity identify() {
-        return call("identifying the meter", null, Meter::identify);
+        return call(() -> "identifying the meter", null, Meter::identify);
     }
 
     @Override
     public void reset() {
-        call("resetting the meter", null, m -> {
+        call(() -> "resetting the meter", null, m -> {
             m.reset();
             applied = Bias.OFF;
             lastSetting = null;
@@ -129,17 +130,17 @@ public final class ReconnectingMeter implements Meter {
 
     @Override
     public MeterCapabilities statedLimits() {
-        return call("asking the meter its limits", null, Meter::statedLimits);
+        return call(() -> "asking the meter its limits", null, Meter::statedLimits);
     }
 
     @Override
     public Optional<Bias> readBias() {
-        return call("reading the DC bias back", null, Meter::readBias);
+        return call(() -> "reading the DC bias back", null, Meter::readBias);
     }
 
     @Override
     public void apply(MeasurementSetting setting) {
-        call("applying the setting at " + at(setting), setting, m -> {
+        call(() -> "applying the setting at " + at(setting), setting, m -> {
             send(m, setting);
             return null;
         });
@@ -148,12 +149,17 @@ public final class ReconnectingMeter implements Meter {
     @Override
     public Reading measure() {
         MeasurementSetting s = lastSetting;
-        return call(s == null ? "measuring" : "measuring at " + at(s), s, Meter::measure);
+        return call(() -> s == null ? "measuring" : "measuring at " + at(s), s, Meter::measure);
+    }
+
+    @Override
+    public Reading measureAt(MeasurementSetting setting) {
+        return call(() -> "measuring at " + at(setting), setting, m -> sent(m, setting, () -> m.measureAt(setting)));
     }
 
     @Override
     public List<Reading> measureList(List<MeasurementSetting> settings) {
-        return call("measuring a list of " + settings.size() + " points", settings.get(0), m -> {
+        return call(() -> "measuring a list of " + settings.size() + " points", settings.get(0), m -> {
             List<Reading> r = m.measureList(settings);
             lastSetting = settings.get(settings.size() - 1);
             return r;
@@ -162,7 +168,7 @@ public final class ReconnectingMeter implements Meter {
 
     @Override
     public void acquireCorrection(CorrectionStandard standard) {
-        call("acquiring the " + standard + " correction", lastSetting, m -> {
+        call(() -> "acquiring the " + standard + " correction", lastSetting, m -> {
             m.acquireCorrection(standard);
             return null;
         });
@@ -170,7 +176,7 @@ public final class ReconnectingMeter implements Meter {
 
     @Override
     public void acquireCorrection(CorrectionStandard standard, List<MeasurementSetting> settings) {
-        call("acquiring the " + standard + " correction at " + settings.size() + " frequencies", null, m -> {
+        call(() -> "acquiring the " + standard + " correction at " + settings.size() + " frequencies", null, m -> {
             m.acquireCorrection(standard, settings);
             lastSetting = null;
             return null;
@@ -179,7 +185,7 @@ public final class ReconnectingMeter implements Meter {
 
     @Override
     public void setLoadStandard(Impedance known) {
-        call("setting the load standard", null, m -> {
+        call(() -> "setting the load standard", null, m -> {
             m.setLoadStandard(known);
             return null;
         });
@@ -187,7 +193,7 @@ public final class ReconnectingMeter implements Meter {
 
     @Override
     public void setCorrectionEnabled(boolean enabled) {
-        call("switching the meter's correction", null, m -> {
+        call(() -> "switching the meter's correction", null, m -> {
             m.setCorrectionEnabled(enabled);
             correction = enabled;
             return null;
@@ -223,7 +229,7 @@ public final class ReconnectingMeter implements Meter {
      * fixture is brought back to {@code state} after every reconnect.
      */
     public void holdFixture(FixtureState state, String what, Runnable change) {
-        call(what, null, m -> {
+        call(() -> what, null, m -> {
             change.run();
             if (state == FixtureState.SECONDARY_OPEN || state == FixtureState.SECONDARY_SHORTED) {
                 winding = state;
@@ -236,7 +242,7 @@ public final class ReconnectingMeter implements Meter {
 
     @Override
     public void biasOff() {
-        call("turning bias off", null, m -> {
+        call(() -> "turning bias off", null, m -> {
             m.biasOff();
             off();
             return null;
@@ -300,13 +306,22 @@ public final class ReconnectingMeter implements Meter {
 
     /** Sends {@code s} to {@code m}, its bias heard by the watcher first. */
     private void send(Meter m, MeasurementSetting s) {
+        sent(m, s, () -> {
+            m.apply(s);
+            return null;
+        });
+    }
+
+    /** Runs {@code exchange}, which sends {@code s} to {@code m}: its bias heard by the watcher first, then kept. */
+    private <T> T sent(Meter m, MeasurementSetting s, Supplier<T> exchange) {
         sending = s.bias();
         if (s.bias().on() || applied.on()) {
             watcher.applying(s, rampControl.rampPerS());
         }
-        m.apply(s);
+        T result = exchange.get();
         lastSetting = s;
         applied = s.bias();
+        return result;
     }
 
     private void off() {
@@ -316,9 +331,10 @@ public final class ReconnectingMeter implements Meter {
 
     /**
      * Runs {@code op} on the current meter; after a link failure, reconnects, restores (with
-     * {@code needs} applied again, when not null) and runs it again.
+     * {@code needs} applied again, when not null) and runs it again. {@code what} is made only for
+     * a message (a point's hot path formats nothing).
      */
-    private <T> T call(String what, MeasurementSetting needs, Function<Meter, T> op) {
+    private <T> T call(Supplier<String> what, MeasurementSetting needs, Function<Meter, T> op) {
         while (true) {
             try {
                 T result = op.apply(link.meter());
@@ -329,7 +345,7 @@ public final class ReconnectingMeter implements Meter {
                 if (!link.isLinkFailure(e)) {
                     throw e;
                 }
-                recover(what, needs, e);
+                recover(what.get(), needs, e);
             }
         }
     }

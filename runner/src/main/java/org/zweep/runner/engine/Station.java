@@ -127,12 +127,12 @@ public final class Station {
     }
 
     /** What an operator is told to bring about {@code state} when the sequence says nothing. */
-    static String standardInstruction(FixtureState state) {
+    public static String standardInstruction(FixtureState state) {
         return switch (state) {
             case PART -> "put the part back into the fixture";
-            case OPEN -> "OPEN standard: leave the fixture's terminals open (nothing fitted)";
-            case SHORT -> "SHORT standard: fit the shorting bar across the fixture's terminals";
-            case LOAD -> "LOAD standard: fit the known load standard";
+            case OPEN -> "OPEN standard: leave the fixture's terminals open (nothing inserted)";
+            case SHORT -> "SHORT standard: insert the shorting bar across the fixture's terminals";
+            case LOAD -> "LOAD standard: insert the known load standard";
             case SECONDARY_OPEN -> "leave the second winding open";
             case SECONDARY_SHORTED -> "short the second winding";
         };
@@ -166,7 +166,11 @@ public final class Station {
      * triggers and reads.
      */
     public Reading measure(MeasurementSetting s, BiasControl bias, double delayS) {
-        guard.check(s, "setting at " + org.zweep.runner.safety.SafetyGuard.human(s.frequencyHz(), "Hz"));
+        check(s);
+        if (delayS <= 0 && holdsBias(s.bias())) {
+            // nothing to wait for between setting and trigger: one message where the meter allows
+            return meter.measureAt(s);
+        }
         moveTo(s, bias);
         waiter.waitS(delayS);
         return meter.measure();
@@ -175,7 +179,7 @@ public final class Station {
     /** Measures a list of settings that differ only in frequency with the meter's list sweep. */
     public List<Reading> measureList(List<MeasurementSetting> settings, BiasControl bias) {
         for (MeasurementSetting s : settings) {
-            guard.check(s, "setting at " + org.zweep.runner.safety.SafetyGuard.human(s.frequencyHz(), "Hz"));
+            check(s);
         }
         moveTo(settings.get(0), bias);
         return meter.measureList(settings);
@@ -201,13 +205,13 @@ public final class Station {
         moveTo(s, BiasControl.NONE);
     }
 
-    /** Tells the meter to acquire {@code standard} now fitted. */
+    /** Tells the meter to acquire {@code standard} now inserted. */
     public void acquireCorrection(CorrectionStandard standard) {
         meter.acquireCorrection(standard);
     }
 
     /**
-     * Tells the meter to acquire {@code standard} now fitted at each of {@code settings} (checked
+     * Tells the meter to acquire {@code standard} now inserted at each of {@code settings} (checked
      * against the safety limits; bias off, brought down first at the rate it went up), in one list
      * message where its dialect allows (see {@link Meter#acquireCorrection(CorrectionStandard, List)}).
      */
@@ -365,8 +369,22 @@ public final class Station {
         }
     }
 
+    /** Refuses {@code s} when it is outside the safety limits, naming it; nothing is formatted when it is within. */
+    private void check(MeasurementSetting s) {
+        if (guard.problem(s) != null) {
+            guard.check(s, "setting at " + org.zweep.runner.safety.SafetyGuard.human(s.frequencyHz(), "Hz"));
+        }
+    }
+
+    /** Whether {@code b} is what the meter holds now: no ramp, no settling before measuring at it. */
+    private boolean holdsBias(Bias b) {
+        Bias applied = meter.appliedBias();
+        return !b.on() && !applied.on()
+                || b.on() && applied.on() && b.mode() == applied.mode() && b.value() == applied.value();
+    }
+
     private void apply(MeasurementSetting s) {
-        guard.check(s, "setting at " + org.zweep.runner.safety.SafetyGuard.human(s.frequencyHz(), "Hz"));
+        check(s);
         meter.apply(s);
     }
 }

@@ -22,7 +22,7 @@ class WatchCommandTest {
         Files.writeString(events, String.join("\n",
                 "{\"type\":\"run_started\",\"time_ms\":1,\"name\":\"demo\",\"total\":3,\"done\":0,"
                         + "\"main_parameter\":\"cs_f\",\"main_label\":\"Cs\",\"main_unit\":\"F\"}",
-                "{\"type\":\"prompt\",\"time_ms\":2,\"id\":\"0f0f0f0f\",\"text\":\"Fit the part.\"}",
+                "{\"type\":\"prompt\",\"time_ms\":2,\"id\":\"0f0f0f0f\",\"text\":\"Insert the part.\"}",
                 "{\"type\":\"prompt_answered\",\"time_ms\":3,\"id\":\"0f0f0f0f\",\"by\":\"page\"}",
                 "{\"type\":\"step_started\",\"time_ms\":4,\"step\":\"sweep\",\"step_index\":0}",
                 "{\"type\":\"point\",\"time_ms\":5,\"done\":1,\"total\":3,\"frequency_hz\":1000.0,\"z_ohm\":1591.5,"
@@ -38,7 +38,7 @@ class WatchCommandTest {
         assertEquals(ExitCode.CHECK_FAILED, code);
         List<String> lines = out.toString().lines().toList();
         assertEquals("run demo: 3 points (0 already measured)", lines.get(0));
-        assertTrue(lines.contains(">> Fit the part. (answer at the run's terminal or on its live page)"), lines.toString());
+        assertTrue(lines.contains(">> Insert the part. (answer at the run's terminal or on its live page)"), lines.toString());
         // 1/(2π·1 kHz·100 nF) = 1.5915 kΩ: the values arrive as written and are shown with SI prefixes
         assertTrue(lines.contains("[1/3] 1 kHz  |Z| 1.592 kΩ  θ -89.9°  Cs 100 nF"), lines.toString());
         assertTrue(lines.contains("  |Z| █▁  159 Ω … 1.59 kΩ"), lines.toString());

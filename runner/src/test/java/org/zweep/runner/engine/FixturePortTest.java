@@ -39,10 +39,10 @@ class FixturePortTest {
     @Test
     void abortOrTheEndOfInputStopsTheRun() {
         RunInterruptedException a = assertThrows(RunInterruptedException.class,
-                () -> lines("abort\n").hold(FixtureState.SHORT, "fit the bar"));
+                () -> lines("abort\n").hold(FixtureState.SHORT, "insert the bar"));
         assertTrue(a.getMessage().contains("abort answered on stdin at the request for SHORT"), a.getMessage());
         RunInterruptedException e = assertThrows(RunInterruptedException.class,
-                () -> lines("").hold(FixtureState.LOAD, "fit the load"));
+                () -> lines("").hold(FixtureState.LOAD, "insert the load"));
         assertTrue(e.getMessage().contains("input ended on stdin"), e.getMessage());
     }
 
@@ -50,8 +50,8 @@ class FixturePortTest {
     void yesConfirmsThePartButNeverAStandardOrTheSecondWinding() {
         PrintWriter out = new PrintWriter(written);
         FixturePort yes = FixturePort.confirmingPart(out, "use a channel");
-        yes.hold(FixtureState.PART, "Fit the part.");
-        assertTrue(written.toString().contains(">> Fit the part. (--yes: going on)"), written.toString());
+        yes.hold(FixtureState.PART, "Insert the part.");
+        assertTrue(written.toString().contains(">> Insert the part. (--yes: going on)"), written.toString());
         for (FixtureState s : List.of(FixtureState.OPEN, FixtureState.SHORT, FixtureState.LOAD,
                 FixtureState.SECONDARY_OPEN, FixtureState.SECONDARY_SHORTED)) {
             InvalidInputException e = assertThrows(InvalidInputException.class, () -> yes.hold(s, ""));
@@ -118,8 +118,8 @@ class FixturePortTest {
         List<String> notes = new ArrayList<>();
         FixturePort port = FixturePort.meter(link, (s, text) -> held.add("operator " + s + " " + text), notes::add);
         port.hold(FixtureState.OPEN, "OPEN standard");
-        port.hold(FixtureState.LOAD, "fit the load");
-        assertEquals(List.of("meter OPEN", "operator LOAD fit the load"), held);
+        port.hold(FixtureState.LOAD, "insert the load");
+        assertEquals(List.of("meter OPEN", "operator LOAD insert the load"), held);
         assertEquals(List.of(">> OPEN standard (the meter's fixture holds open)"), notes);
     }
 }

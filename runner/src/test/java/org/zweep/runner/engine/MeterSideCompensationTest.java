@@ -24,7 +24,7 @@ class MeterSideCompensationTest {
 
     /** Three frequencies, open and short acquired by the meter. */
     static Plan plan() {
-        Plan p = TestPlans.plan(List.of(TestPlans.step(0, 0, "sweep", "fit the part", BiasControl.NONE,
+        Plan p = TestPlans.plan(List.of(TestPlans.step(0, 0, "sweep", "insert the part", BiasControl.NONE,
                 new double[] {0}, 1000, 100_000, 1e6)), List.of());
         return p.toBuilder().fixture(new FixturePlan(TerminalConfiguration.FOUR_TERMINAL, CompensationMode.METER,
                 List.of(CorrectionStandard.OPEN, CorrectionStandard.SHORT), null, Duration.ZERO, null)).build();

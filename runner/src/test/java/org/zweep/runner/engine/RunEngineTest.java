@@ -271,7 +271,7 @@ class RunEngineTest {
         run(TestPlans.capacitor(), new BitSet());
         assertTrue(prompts.isEmpty());
         assertEquals(org.zweep.driver.meter.FixtureState.PART, bench.slot);
-        assertTrue(notes.stream().anyMatch(n -> n.equals(">> fit the part (the meter's fixture holds part)")),
+        assertTrue(notes.stream().anyMatch(n -> n.equals(">> insert the part (the meter's fixture holds part)")),
                 notes.toString());
     }
 
@@ -279,7 +279,7 @@ class RunEngineTest {
     void onARealMeterTheOperatorIsPromptedWithTheStepInstruction() {
         bench.simulator = false;
         run(TestPlans.capacitor(), new BitSet());
-        assertEquals(List.of("fit the part"), prompts);
+        assertEquals(List.of("insert the part"), prompts);
     }
 
     @Test

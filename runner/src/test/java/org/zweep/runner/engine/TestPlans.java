@@ -52,7 +52,7 @@ final class TestPlans {
 
     /** A frequency sweep of 5 points plus a bias step of 3 x 2 points with a 1 V/s ramp and 0.5 s settle. */
     static Plan capacitor() {
-        PlannedStep sweep = step(0, 0, "sweep", "fit the part", BiasControl.NONE, new double[] {0},
+        PlannedStep sweep = step(0, 0, "sweep", "insert the part", BiasControl.NONE, new double[] {0},
                 100, 1000, 10_000, 100_000, 1e6);
         PlannedStep bias = step(1, 5, "bias", "", new BiasControl(1.0, 0.5), new double[] {0, 2, 5}, 1000, 10_000);
         return plan(List.of(sweep, bias), List.of(

@@ -77,7 +77,7 @@ class LiveViewChromiumIT {
                 wait.until(d -> !d.findElement(By.id("prompt")).isDisplayed()
                         || !d.findElement(By.id("prompt-text")).getText().equals(text));
             }
-            assertTrue(prompts.stream().anyMatch(t -> t.contains("Fit the KP-C0805-104")), prompts.toString());
+            assertTrue(prompts.stream().anyMatch(t -> t.contains("Insert the KP-C0805-104")), prompts.toString());
             // a second viewer joins mid-run and gets the whole run so far, then the rest as it comes
             second = Browser.open(tmp, 1000, 800);
             second.get(url);

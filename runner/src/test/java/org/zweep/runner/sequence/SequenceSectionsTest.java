@@ -168,7 +168,7 @@ class SequenceSectionsTest {
     void stepDefaultsAndExplicitSettings() {
         Plan plan = load("meter: {bench: b.bench.yaml}\n", """
                 {name: s, frequency: 1 kHz, level: 1 V},
-                {name: t, prompt: Fit the SHORT., frequency: 1 kHz, level: 1 V, averaging: 8, integration: 100 ms,
+                {name: t, prompt: Insert the SHORT., frequency: 1 kHz, level: 1 V, averaging: 8, integration: 100 ms,
                  delay: 250 ms, range: 10 kohm, repeats: 3}""");
         PlannedStep s = plan.steps().get(0);
         assertEquals("", s.prompt());
@@ -177,7 +177,7 @@ class SequenceSectionsTest {
         assertEquals(ImpedanceRange.AUTO, s.points().get(0).setting().range());
         assertEquals(0.0, s.points().get(0).delayS(), 0.0);
         PlannedStep t = plan.steps().get(1);
-        assertEquals("Fit the SHORT.", t.prompt());
+        assertEquals("Insert the SHORT.", t.prompt());
         assertEquals(3, t.points().size());
         assertEquals(List.of(0, 1, 2), t.points().stream().map(p -> p.repeat()).toList());
         assertEquals(8, t.points().get(0).setting().averagingCount());

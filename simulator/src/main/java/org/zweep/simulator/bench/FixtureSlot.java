@@ -1,6 +1,6 @@
 package org.zweep.simulator.bench;
 
-/** What is fitted to the fixture's terminals. */
+/** What is inserted across the fixture's terminals. */
 public enum FixtureSlot {
     /** Nothing: the terminals are open. */
     OPEN,
