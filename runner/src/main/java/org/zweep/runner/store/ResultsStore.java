@@ -332,7 +332,7 @@ public final class ResultsStore implements AutoCloseable {
         s.setString(i++, r.quantity());
         s.setString(i++, r.wiring());
         number(s, i++, r.frequencyHz());
-        s.setString(i++, r.drive());
+        s.setString(i++, r.driveMode());
         number(s, i++, r.level());
         s.setString(i++, r.biasMode());
         number(s, i++, r.bias());
