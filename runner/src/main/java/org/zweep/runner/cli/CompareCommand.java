@@ -141,7 +141,7 @@ public final class CompareCommand implements Callable<Integer> {
         }
         for (int i = 0; i < c.lots().size(); i++) {
             var t = c.lots().get(i).table();
-            out.printf(Locale.ROOT, "%s lot %s: %s (%d parts, %d passed, %d failed, yield %s)%n",
+            out.printf(Locale.ROOT, "%s %s: %s (%d parts, %d passed, %d failed, yield %s)%n",
                     i == 0 ? "reference" : "lot " + (i + 1), t.lot(), c.lots().get(i).folder(), t.parts().size(),
                     t.passed(), t.failed(), Double.isFinite(t.yield())
                             ? String.format(Locale.ROOT, "%.1f %%", 100 * t.yield()) : "-");

@@ -53,6 +53,10 @@ public final class Exports {
             if (run.manifest().part() != null) {
                 comments.add("part: " + run.manifest().part().name() + " (" + run.manifest().part().kind() + ")");
             }
+            RunManifest.Identity id = run.manifest().identityOrNone();
+            if (id.serial() != null || id.lot() != null) {
+                comments.add("serial: " + orEmpty(id.serial()) + ", lot: " + orEmpty(id.lot()));
+            }
             comments.add("step: " + s.step() + ", " + s.describe()
                     + (s.repeats() > 1 ? ", mean of " + s.repeats() + " repeats" : ""));
             comments.add("run: " + run.folder().dir().toAbsolutePath().normalize());
