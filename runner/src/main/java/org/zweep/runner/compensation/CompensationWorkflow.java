@@ -159,13 +159,11 @@ public final class CompensationWorkflow {
             }
             station.announce("compensation: the meter acquires the " + s + " standard"
                     + (perFrequency ? " at " + at.size() + " frequencies" : ""), estimate.compensationStandardS().get(k++));
-            for (MeasurementSetting m : at) {
-                station.applySetting(m);
-                if (s == CorrectionStandard.LOAD) {
-                    station.setLoadStandard(fx.loadStandard());
-                }
-                station.acquireCorrection(s);
+            if (s == CorrectionStandard.LOAD) {
+                station.setLoadStandard(fx.loadStandard());
             }
+            // in one list message per standard where the meter's dialect allows, else point by point
+            station.acquireCorrection(s, at);
         }
         station.setMeterCorrection(true);
     }
