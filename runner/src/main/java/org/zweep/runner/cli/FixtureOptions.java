@@ -159,8 +159,13 @@ public final class FixtureOptions {
             return k -> {
                 out.print(">> part " + k + ": scan or type its serial (an empty line ends the lot): ");
                 out.flush();
-                String line = readLine(stdin(), "the terminal");
-                return line.isBlank() ? null : line.strip();
+                String line;
+                try {
+                    line = stdin().readLine(); // the end of input (Ctrl-D) ends the lot like an empty line
+                } catch (java.io.IOException e) {
+                    throw new java.io.UncheckedIOException("the terminal: " + e.getMessage(), e);
+                }
+                return line == null || line.isBlank() ? null : line.strip();
             };
         }
         boolean pipe = !"stdin".equals(channel);

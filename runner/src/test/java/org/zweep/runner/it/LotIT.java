@@ -31,7 +31,7 @@ import org.zweep.runner.results.RunManifest;
 class LotIT {
     static final Path SEQ = Sims.sequences().resolve("incoming-kp-c0805-104.yaml");
     static final Path RES = Path.of("src", "test", "resources", "lot").toAbsolutePath();
-    static final Path TRAY = RES.resolve("kp-c0805-104-tray.bench.yaml");
+    static final Path TRAY = Sims.sequences().resolve("benches/kp-c0805-104-tray.bench.yaml");
     static final Path PROMPTING = RES.resolve("lot-kp-c0805-104.yaml");
     static final String METER = "sim:" + TRAY + "?timing=none";
 
@@ -219,16 +219,57 @@ class LotIT {
         assertEquals(table(ref).header(), table(lot).header());
         assertEquals(table(ref).withoutRunIds(), table(lot).withoutRunIds(), "same serials, verdicts and values");
         assertEquals(serials(), table(lot).column("serial"));
+        assertEquals(serials().stream().map(x -> FAILING.contains(x) ? "fail" : "pass").toList(),
+                table(lot).column("verdict"));
 
         // compare on the two lots: the same parts, so every per-check difference of the means is zero
         Sims.Result cmp = Sims.zweep("compare", ref.toString(), lot.toString(), "--json");
         assertEquals(0, cmp.code(), cmp.err());
         JsonNode c = new ObjectMapper().readTree(cmp.out());
         assertEquals(2, c.get("lots").size());
-        assertTrue(c.get("checks").size() >= 3);
+        assertEquals(2, c.get("checks").size());
         for (JsonNode row : c.get("checks")) {
+            // the mean and the sample standard deviation (n − 1) of the lot table's column, computed here
+            // (common practice, no source)
+            List<Double> v = table(ref).column("check." + row.get("name").asText()).stream().map(Double::parseDouble)
+                    .toList();
+            double mean = v.stream().mapToDouble(Double::doubleValue).sum() / v.size();
+            double ss = v.stream().mapToDouble(x -> (x - mean) * (x - mean)).sum();
+            assertEquals(mean, row.at("/mean/0").asDouble(), Math.abs(mean) * 1e-12, row.toString());
+            assertEquals(Math.sqrt(ss / (v.size() - 1)), row.at("/sigma/0").asDouble(), Math.abs(mean) * 1e-12);
+            assertEquals(v.size(), row.at("/n/0").asInt());
             assertEquals(0.0, row.at("/mean_difference/1").asDouble(), 0.0, row.toString());
             assertEquals(row.at("/mean/0").asDouble(), row.at("/mean/1").asDouble(), 0.0);
         }
+    }
+
+    @Test
+    void scannedSerialsComeFromTheLineChannelAndARepeatIsAskedAgain() throws Exception {
+        Path lot = dir.resolve("scanned");
+        Process p = Children.zweepPiped(dir.resolve("scanned.log"), "lot", PROMPTING.toString(), "--lot", "S1", "--scan",
+                "--meter", METER, "--dialect", Sims.dialect(), "--out", lot.toString(), "--quiet", "--fixture", "stdin",
+                "--no-index");
+        List<String> answers = new ArrayList<>(List.of("L7-003", "L7-003", "L7-001", "end"));
+        List<String> said = new ArrayList<>();
+        try (BufferedReader out = new BufferedReader(new InputStreamReader(p.getInputStream(), StandardCharsets.UTF_8));
+                PrintWriter in = new PrintWriter(p.getOutputStream(), true, StandardCharsets.UTF_8)) {
+            String line;
+            while ((line = out.readLine()) != null) {
+                said.add(line);
+                if (line.startsWith("serial ")) {
+                    in.println(answers.remove(0));
+                } else if (line.startsWith("fixture ")) {
+                    in.println("ok");
+                }
+            }
+        }
+        assertTrue(p.waitFor(60, TimeUnit.SECONDS));
+        assertEquals(1, p.exitValue(), String.join("\n", said) + Files.readString(dir.resolve("scanned.log")));
+        assertTrue(answers.isEmpty(), "every serial request answered");
+        assertTrue(said.contains("zweep: L7-003 is already measured in this lot; scan the next part"), said.toString());
+        Table t = table(lot);
+        assertEquals(List.of("L7-003", "L7-001"), t.column("serial"));
+        assertEquals(List.of("fail", "pass"), t.column("verdict"));
+        assertEquals(List.of("S1", "S1"), t.column("lot"));
     }
 }

@@ -78,6 +78,16 @@ class PartIdentityIT {
             assertEquals(m2.verdict(), cells.get(header.indexOf("verdict")));
         }
         assertTrue(lines.size() > 10);
+
+        // the Touchstone export names the part in its comments
+        Path ts = dir.resolve("ts");
+        Sims.Result t = Sims.zweep("export", second.toString(), "--format", "touchstone", "--out", ts.toString());
+        assertEquals(0, t.code(), t.err());
+        try (var files = Files.list(ts)) {
+            for (Path f : files.toList()) {
+                assertTrue(Files.readAllLines(f).contains("! serial: SN-0002, lot: L24-17"), f.toString());
+            }
+        }
     }
 
     @Test
