@@ -13,7 +13,10 @@ not of one piece of code agreeing with itself. It differs from the simulator on 
   - its correction is a spot correction: NULL OPEN / NULL SHORT acquire the standard at the
     frequency set at that moment and store it under that frequency; a measurement at a frequency
     with no stored data is corrected with the nearest stored frequency's data (silently wrong, as
-    such meters are when used carelessly);
+    such meters are when used carelessly); NULLSPAN OPEN|SHORT F1,F2,... acquires the standard at
+    each listed frequency (Hz) in one message, at most 256 of them, and leaves TONE where it was;
+  - HEARD? TEXT answers how many messages it has received with a command starting with TEXT
+    (case and spacing ignored), so that a test can count what zweep sent;
   - a motorised fixture: JIG PART | JIG OPEN | JIG SHORT switches what the test port sees;
   - a voltage bias LIFT 0..10 V, switched with LIFT ON / LIFT OFF.
 
@@ -55,6 +58,7 @@ class Meter:
         self.reset()
         self.jig = "PART"
         self.bias_history = []
+        self.messages = []  # every message received, its commands normalised (upper case, single spaces)
 
     def reset(self):
         self.tone = 1000.0
@@ -177,6 +181,25 @@ class Meter:
             else:
                 self.error(23, "NULL wants OPEN, SHORT, ON, OFF or CLEAR")
             return None
+        if word == "NULLSPAN":
+            which, _, freqs = arg.partition(" ")
+            which = which.upper()
+            values = [self.number(f, F_MIN, F_MAX, "NULLSPAN") for f in freqs.split(",")] if freqs.strip() else []
+            if which not in ("OPEN", "SHORT") or not values:
+                self.error(25, "NULLSPAN wants OPEN or SHORT and a list of frequencies")
+            elif len(values) > 256:
+                self.error(26, "NULLSPAN takes at most 256 frequencies")
+            elif None not in values:
+                tone = self.tone
+                for f in values:
+                    time.sleep(self.point_s * 4)
+                    self.tone = f
+                    self.nulls[which][f] = self.noisy(self.z_raw(f))
+                self.tone = tone
+            return None
+        if word == "HEARD?":
+            want = " ".join(arg.upper().split())
+            return "%d" % sum(1 for m in self.messages if any(u.startswith(want) for u in m))
         if word == "NULL?":
             return "%d,%d,%d" % (1 if self.null_on else 0, len(self.nulls["OPEN"]), len(self.nulls["SHORT"]))
         if word == "JIG":
@@ -196,6 +219,7 @@ class Meter:
     def message(self, text):
         out = []
         with self.lock:
+            self.messages.append([" ".join(u.upper().split()) for u in text.split(";")])
             for unit in text.split(";"):
                 if unit.strip():
                     reply = self.execute(unit)

@@ -63,7 +63,7 @@ public final class RealTimingCheck {
         Bench inner = new SimulatedBench(BenchSpec.load(BenchFiles.capacitorBench(repo)).withTiming(Timing.REAL));
         SimulatorServer server = SimulatorServer.start(counting(inner, meterS), ServerOptions.defaults()
                 .withTcp(false).withInstrument(InstrumentOptions.defaults().withTiming(TimingModel.REAL)));
-        ScpiMeterLink link = ScpiMeterLink.open("sim:counting", dialect, () -> ScpiClient.connect(
+        ScpiMeterLink link = ScpiMeterLink.open("sim:counting", org.zweep.driver.dialect.Dialect.load(dialect), () -> ScpiClient.connect(
                 InProcessSimulator.transport(server.connectInMemory(), "sim:counting"), ScpiSettings.DEFAULTS),
                 server::close);
         Plan plan = SequenceLoader.load(seq);

@@ -49,6 +49,9 @@ enum Command {
     CORRECTION_OPEN("correction-open"),
     CORRECTION_SHORT("correction-short"),
     CORRECTION_LOAD("correction-load"),
+    CORRECTION_OPEN_LIST("correction-open-list", Placeholder.numbers("frequencies", "Hz")),
+    CORRECTION_SHORT_LIST("correction-short-list", Placeholder.numbers("frequencies", "Hz")),
+    CORRECTION_LOAD_LIST("correction-load-list", Placeholder.numbers("frequencies", "Hz")),
     CORRECTION_ON("correction-on"),
     CORRECTION_OFF("correction-off"),
     LOAD_STANDARD("load-standard", Placeholder.number("resistance", "ohm"), Placeholder.number("reactance", "ohm")),
@@ -82,6 +85,24 @@ enum Command {
     /** The placeholders the template must hold, each exactly once or more; no others are allowed. */
     List<Placeholder> placeholders() {
         return placeholders;
+    }
+
+    /** The command that acquires {@code s} at the frequency set now. */
+    static Command acquiring(org.zweep.driver.meter.CorrectionStandard s) {
+        return switch (s) {
+            case OPEN -> CORRECTION_OPEN;
+            case SHORT -> CORRECTION_SHORT;
+            case LOAD -> CORRECTION_LOAD;
+        };
+    }
+
+    /** The command that acquires {@code s} at each frequency of a list, in one message. */
+    static Command acquiringList(org.zweep.driver.meter.CorrectionStandard s) {
+        return switch (s) {
+            case OPEN -> CORRECTION_OPEN_LIST;
+            case SHORT -> CORRECTION_SHORT_LIST;
+            case LOAD -> CORRECTION_LOAD_LIST;
+        };
     }
 
     static Optional<Command> byKey(String key) {

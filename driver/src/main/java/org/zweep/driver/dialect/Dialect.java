@@ -249,8 +249,10 @@ public final class Dialect {
 
     /**
      * Whether a standard acquired at each frequency of a plan ({@link
-     * org.zweep.driver.meter.CorrectionStyle#AT_ACQUIRED_FREQUENCY}) may be acquired over a list
-     * sweep of those frequencies instead of one frequency at a time.
+     * org.zweep.driver.meter.CorrectionStyle#AT_ACQUIRED_FREQUENCY}) is acquired over a list of
+     * those frequencies in one message (the {@code correction-<standard>-list} commands, at most
+     * {@code list-points} frequencies a message when the dialect declares list sweeps) instead of one
+     * frequency at a time.
      */
     public boolean correctionListAcquisition() {
         return correctionListAcquisition;

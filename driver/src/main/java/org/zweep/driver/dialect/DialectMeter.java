@@ -270,20 +270,11 @@ public final class DialectMeter implements Meter {
     @Override
     public void acquireCorrection(CorrectionStandard standard) {
         requireOpen();
-        if (!dialect.capabilities().corrections().contains(standard)) {
-            throw new InvalidInputException("correction " + standard + ": " + meterName()
-                    + " cannot acquire this standard (it acquires " + dialect.capabilities().corrections().stream()
-                    .sorted().map(c -> c.name().toLowerCase(java.util.Locale.ROOT)).collect(Collectors.joining(", "))
-                    + ")");
-        }
+        requireStandard(standard);
         if (resync && current != null) {
             apply(current);
         }
-        Command c = switch (standard) {
-            case OPEN -> Command.CORRECTION_OPEN;
-            case SHORT -> Command.CORRECTION_SHORT;
-            case LOAD -> Command.CORRECTION_LOAD;
-        };
+        Command c = Command.acquiring(standard);
         MeasurementSetting at = current != null ? current : MeasurementSetting.at(dialect.capabilities().frequencyHz().min());
         // a meter correcting at the acquired frequency measures the standard there, once; one
         // correcting its whole range sweeps its own grid
@@ -293,6 +284,50 @@ public final class DialectMeter implements Meter {
         lastMeasured = null;
     }
 
+    /**
+     * {@inheritDoc} With the dialect's {@code list-acquisition: yes}, the standard is acquired over
+     * the settings' frequencies in one message each (the {@code correction-<standard>-list} command;
+     * at most {@code list-points} frequencies a message when the dialect declares list sweeps),
+     * after the first setting is applied; otherwise, and when the settings differ in more than
+     * frequency, point by point.
+     */
+    @Override
+    public void acquireCorrection(CorrectionStandard standard, List<MeasurementSetting> settings) {
+        requireOpen();
+        settings.forEach(this::validate);
+        MeasurementSetting first = settings.isEmpty() ? null : settings.get(0).withFrequencyHz(1);
+        boolean list = dialect.correctionListAcquisition() && settings.size() > 1
+                && settings.stream().allMatch(s -> s.withFrequencyHz(1).equals(first));
+        if (!list) {
+            Meter.super.acquireCorrection(standard, settings);
+            return;
+        }
+        requireStandard(standard);
+        Template t = dialect.command(Command.acquiringList(standard)).orElseThrow();
+        apply(settings.get(0));
+        int max = dialect.capabilities().maxListPoints() > 0 ? dialect.capabilities().maxListPoints() : settings.size();
+        for (int from = 0; from < settings.size(); from += max) {
+            List<MeasurementSetting> chunk = settings.subList(from, Math.min(settings.size(), from + max));
+            double expectedS = dialect.timing().sweepS(chunk, null);
+            // the meter steps through the list itself: where it is left is not known
+            current = chunk.get(chunk.size() - 1);
+            resync = true;
+            send(List.of(t.render(Map.of("frequencies", chunk.stream().map(MeasurementSetting::frequencyHz).toList()))),
+                    expectedS, "acquiring the " + standard + " correction at " + chunk.size() + " frequencies from "
+                            + describe(chunk.get(0)) + " to " + describe(chunk.get(chunk.size() - 1)));
+            planner.forget();
+        }
+        lastMeasured = null;
+    }
+
+    private void requireStandard(CorrectionStandard standard) {
+        if (!dialect.capabilities().corrections().contains(standard)) {
+            throw new InvalidInputException("correction " + standard + ": " + meterName()
+                    + " cannot acquire this standard (it acquires " + dialect.capabilities().corrections().stream()
+                    .sorted().map(c -> c.name().toLowerCase(java.util.Locale.ROOT)).collect(Collectors.joining(", "))
+                    + ")");
+        }
+    }
 
     @Override
     public void setLoadStandard(Impedance known) {

@@ -244,12 +244,21 @@ public final class DialectProbe {
                 default -> null;
             };
             if (standard != null && dialect.capabilities().corrections().contains(standard)) {
-                Command c = correctionCommand(standard);
+                Command c = Command.acquiring(standard);
+                Command list = Command.acquiringList(standard);
                 if (there) {
                     attempt(c.key(), c, () -> {
                         meter.acquireCorrection(standard);
                         return "acquired with the fixture at " + fixtureKey(s).substring("fixture ".length());
                     });
+                    if (dialect.has(list)) {
+                        attempt(list.key(), list, () -> {
+                            List<MeasurementSetting> at = twoSafeSettings();
+                            meter.acquireCorrection(standard, at);
+                            return "acquired at " + plain(at.get(0).frequencyHz()) + " and "
+                                    + plain(at.get(1).frequencyHz()) + " Hz in one message";
+                        });
+                    }
                 } else {
                     skip(c, "the fixture did not switch to " + s.name().toLowerCase(Locale.ROOT));
                 }
@@ -262,10 +271,11 @@ public final class DialectProbe {
                     "the fixture section cannot put the part back (no 'part' command): it was left switched"));
         }
         for (CorrectionStandard standard : dialect.capabilities().corrections()) {
-            Command c = correctionCommand(standard);
-            if (!tried.contains(c)) {
-                skip(c, "needs the " + standard.name().toLowerCase(Locale.ROOT)
-                        + " standard in the fixture, and the dialect's fixture section cannot put it there");
+            for (Command c : List.of(Command.acquiring(standard), Command.acquiringList(standard))) {
+                if (dialect.has(c) && !tried.contains(c)) {
+                    skip(c, "needs the " + standard.name().toLowerCase(Locale.ROOT)
+                            + " standard in the fixture, and the dialect's fixture section cannot put it there");
+                }
             }
         }
     }
@@ -285,6 +295,15 @@ public final class DialectProbe {
     }
 
     /** A fresh setting at safe values through the dialect's own measuring path, then measure-again raw. */
+    /** Two frequencies (the safe one and twice it, within the declared range) at the lowest drive. */
+    private List<MeasurementSetting> twoSafeSettings() {
+        MeterCapabilities caps = dialect.capabilities();
+        double f = clamp(SAFE_FREQUENCY_HZ, caps.frequencyHz());
+        double g = clamp(2 * f, caps.frequencyHz()) > f ? clamp(2 * f, caps.frequencyHz()) : clamp(f / 2, caps.frequencyHz());
+        MeasurementSetting s = MeasurementSetting.at(f).withDrive(lowestDrive(caps));
+        return List.of(s, s.withFrequencyHz(g));
+    }
+
     private void measureOnce(double f, MeterCapabilities caps) {
         String what = "measure once";
         if (caps.voltageLevelVrms().max() <= 0 && caps.currentLevelArms().max() <= 0) {
@@ -425,14 +444,6 @@ public final class DialectProbe {
 
     private String render(Command c) {
         return dialect.command(c).orElseThrow().render();
-    }
-
-    private static Command correctionCommand(CorrectionStandard s) {
-        return switch (s) {
-            case OPEN -> Command.CORRECTION_OPEN;
-            case SHORT -> Command.CORRECTION_SHORT;
-            case LOAD -> Command.CORRECTION_LOAD;
-        };
     }
 
     static String fixtureKey(FixtureState s) {

@@ -133,6 +133,7 @@ final class DialectReader {
         Set<CorrectionStandard> corrections = EnumSet.noneOf(CorrectionStandard.class);
         CorrectionStyle style = CorrectionStyle.WHOLE_RANGE;
         boolean listAcquisition = false;
+        Entry listAcquisitionKey = null;
         YamlNode correctionNode = top.optional("correction").orElse(null);
         Entry correctionKey = null;
         if (correctionNode != null) {
@@ -144,9 +145,11 @@ final class DialectReader {
             }
             if (ce.containsKey("list-acquisition")) {
                 listAcquisition = yesNo(ce.get("list-acquisition"));
-                if (listAcquisition && listPoints == 0) {
-                    Entry e = ce.get("list-acquisition");
-                    throw fail(e.line, e.valueColumn, "list-acquisition: yes needs list-points in section 'capabilities'");
+                listAcquisitionKey = ce.get("list-acquisition");
+                if (listAcquisition && style != CorrectionStyle.AT_ACQUIRED_FREQUENCY) {
+                    throw fail(listAcquisitionKey.line, listAcquisitionKey.valueColumn,
+                            "list-acquisition: yes needs style: at-acquired-frequency (a meter correcting its whole"
+                            + " range acquires each standard once)");
                 }
             }
             correctionKey = keyEntry(top, "correction");
@@ -189,7 +192,10 @@ final class DialectReader {
         if (!corrections.isEmpty()) {
             requireFor(commands, correctionKey, Command.CORRECTION_ON, Command.CORRECTION_OFF);
             for (CorrectionStandard s : corrections) {
-                requireFor(commands, correctionKey, correctionCommand(s));
+                requireFor(commands, correctionKey, Command.acquiring(s));
+                if (listAcquisition) {
+                    requireFor(commands, listAcquisitionKey, Command.acquiringList(s));
+                }
             }
             if (corrections.contains(CorrectionStandard.LOAD)) {
                 requireFor(commands, correctionKey, Command.LOAD_STANDARD);
@@ -216,7 +222,10 @@ final class DialectReader {
         }
         for (CorrectionStandard s : CorrectionStandard.values()) {
             if (!corrections.contains(s)) {
-                rejectUnneededCorrection(cmdEntries, correctionCommand(s));
+                rejectUnneededCorrection(cmdEntries, Command.acquiring(s));
+            }
+            if (!corrections.contains(s) || !listAcquisition) {
+                rejectUnneededListCorrection(cmdEntries, Command.acquiringList(s));
             }
         }
         if (!corrections.contains(CorrectionStandard.LOAD)) {
@@ -262,14 +271,6 @@ final class DialectReader {
 
     private static String styleWord(CorrectionStyle s) {
         return s == CorrectionStyle.WHOLE_RANGE ? "whole-range" : "at-acquired-frequency";
-    }
-
-    private static Command correctionCommand(CorrectionStandard s) {
-        return switch (s) {
-            case OPEN -> Command.CORRECTION_OPEN;
-            case SHORT -> Command.CORRECTION_SHORT;
-            case LOAD -> Command.CORRECTION_LOAD;
-        };
     }
 
     /** The mapping {@code node} read against {@code schema}, each value a scalar entry. */
@@ -461,6 +462,14 @@ final class DialectReader {
         if (e != null) {
             throw fail(e.line, e.keyColumn, "command '" + c.key() + "' needs its standard in 'standards' of"
                     + " section 'correction'");
+        }
+    }
+
+    private void rejectUnneededListCorrection(Map<String, Entry> cmdEntries, Command c) {
+        Entry e = cmdEntries.get(c.key());
+        if (e != null) {
+            throw fail(e.line, e.keyColumn, "command '" + c.key() + "' needs 'list-acquisition: yes' and its"
+                    + " standard in 'standards' of section 'correction'");
         }
     }
 

@@ -14,15 +14,15 @@ final class Template {
     private static final int[] SHIFTS = {-12, -9, -6, -6, -3, 0, 3, 6, 9};
 
     /** A literal piece ({@code placeholder == null}) or a placeholder with its decimal point shift. */
-    private record Part(String literal, Placeholder placeholder, int pointShift) {
+    private record Piece(String literal, Placeholder placeholder, int pointShift) {
     }
 
     private final String text;
-    private final List<Part> parts;
+    private final List<Piece> pieces;
 
-    private Template(String text, List<Part> parts) {
+    private Template(String text, List<Piece> pieces) {
         this.text = text;
-        this.parts = List.copyOf(parts);
+        this.pieces = List.copyOf(pieces);
     }
 
     /** The template as written in the dialect file. */
@@ -51,7 +51,7 @@ final class Template {
      */
     String render(Map<String, ?> values) {
         StringBuilder sb = new StringBuilder();
-        for (Part p : parts) {
+        for (Piece p : pieces) {
             if (p.placeholder == null) {
                 sb.append(p.literal);
                 continue;
@@ -89,7 +89,7 @@ final class Template {
 
     /** Parses {@code text}, the value of entry {@code key} whose placeholders are {@code placeholders}. */
     static Template parse(String text, String key, List<Placeholder> placeholders, ErrorSink errors) {
-        List<Part> parts = new ArrayList<>();
+        List<Piece> pieces = new ArrayList<>();
         List<String> seen = new ArrayList<>();
         int i = 0;
         StringBuilder literal = new StringBuilder();
@@ -119,22 +119,22 @@ final class Template {
                 shift = shiftFor(unit, placeholder, errors, i + 2 + colon);
             }
             if (literal.length() > 0) {
-                parts.add(new Part(literal.toString(), null, 0));
+                pieces.add(new Piece(literal.toString(), null, 0));
                 literal.setLength(0);
             }
-            parts.add(new Part(null, placeholder, shift));
+            pieces.add(new Piece(null, placeholder, shift));
             seen.add(name);
             i = close + 1;
         }
         if (literal.length() > 0) {
-            parts.add(new Part(literal.toString(), null, 0));
+            pieces.add(new Piece(literal.toString(), null, 0));
         }
         for (Placeholder s : placeholders) {
             if (!seen.contains(s.name())) {
                 throw errors.at(0, "command '" + key + "' must contain {" + s.name() + "}");
             }
         }
-        return new Template(text, parts);
+        return new Template(text, pieces);
     }
 
     private static String unknownPlaceholder(String name, String key, List<Placeholder> placeholders) {

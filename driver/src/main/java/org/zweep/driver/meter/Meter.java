@@ -68,6 +68,20 @@ public interface Meter extends AutoCloseable {
     /** Tells the meter to acquire a fixture-correction standard now inserted in the fixture. */
     void acquireCorrection(CorrectionStandard standard);
 
+    /**
+     * Acquires {@code standard}, now fitted to the fixture, at each of {@code settings} in turn: what
+     * a meter whose correction holds only at the frequency it was acquired at
+     * ({@link CorrectionStyle#AT_ACQUIRED_FREQUENCY}) needs for a sweep. The default applies each
+     * setting and acquires there, point by point; a meter that takes a list of frequencies in one
+     * message does so. Afterwards the meter's setting is not known: apply one before measuring.
+     */
+    default void acquireCorrection(CorrectionStandard standard, List<MeasurementSetting> settings) {
+        for (MeasurementSetting s : settings) {
+            apply(s);
+            acquireCorrection(standard);
+        }
+    }
+
     /** Tells the meter the known impedance of its load standard (used by {@link CorrectionStandard#LOAD}). */
     void setLoadStandard(Impedance known);
 

@@ -50,7 +50,8 @@ import org.zweep.driver.meter.ReadingStatus;
  * aperture= range=auto|OHMS quantity=impedance|ratio}, each changing the previous setting
  * (initially 1 kHz, 1 V, no bias, 1 average, 20 ms, auto range), as does measure-at (apply and
  * measure in one); measure-list takes
- * {@code frequencies=F1,F2,...} at the previous setting.
+ * {@code frequencies=F1,F2,...} at the previous setting, and so does acquire-list after the standard
+ * ({@code acquire-list open frequencies=F1,F2,...}).
  */
 class DialectConversationTest {
     private static final Clock CLOCK = Clock.fixed(Instant.parse("2024-01-01T00:00:00Z"), ZoneOffset.UTC);
@@ -173,6 +174,11 @@ class DialectConversationTest {
                         .map(f -> setting.withFrequencyHz(Double.parseDouble(f))).toList());
             case "acquire":
                 meter.acquireCorrection(CorrectionStandard.valueOf(call.args.get(0).toUpperCase()));
+                return null;
+            case "acquire-list":
+                String at = call.args.get(1).substring("frequencies=".length());
+                meter.acquireCorrection(CorrectionStandard.valueOf(call.args.get(0).toUpperCase()), Arrays.stream(
+                        at.split(",")).map(f -> setting.withFrequencyHz(Double.parseDouble(f))).toList());
                 return null;
             case "load":
                 meter.setLoadStandard(new Impedance(setting.frequencyHz(), Double.parseDouble(call.args.get(0)),

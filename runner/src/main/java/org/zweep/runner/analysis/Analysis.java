@@ -7,21 +7,21 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.TreeMap;
-import org.zweep.driver.impedance.PartKind;
 import org.zweep.driver.InvalidInputException;
 import org.zweep.driver.impedance.DerivedParameter;
+import org.zweep.driver.impedance.PartKind;
 import org.zweep.driver.impedance.ToleranceCode;
 import org.zweep.driver.impedance.Unit;
-import org.zweep.runner.results.PointRow;
-import org.zweep.runner.plan.CheckLimit;
-import org.zweep.runner.results.RunManifest;
 import org.zweep.runner.conformance.Conformance;
 import org.zweep.runner.conformance.DecisionRule;
+import org.zweep.runner.plan.CheckLimit;
+import org.zweep.runner.results.PointRow;
+import org.zweep.runner.results.RunManifest;
+import org.zweep.runner.text.Figures;
+import org.zweep.runner.text.ParameterTable;
 import org.zweep.runner.verdict.CheckEvaluator;
 import org.zweep.runner.verdict.CheckOutcome;
 import org.zweep.runner.verdict.SweepFigures;
-import org.zweep.runner.text.Figures;
-import org.zweep.runner.text.ParameterTable;
 
 /**
  * The analysis of a run folder: fits, derating, transformer parameters, repeats, checks and

@@ -152,7 +152,7 @@ public final class AnalysisJson {
         return new FitFigures(f.model().id(), f.parameters(), f.sigma(), f.srfHz(), f.srfDataHz(),
                 f.srfHz() == null ? null : f.srfU(), f.srfDataHz() == null ? null : f.srfDataU(), f.residualRms(),
                 f.weighted(), f.reducedChiSquared(), f.iterations(), f.converged(), f.points(),
-                new Conditions(s.drive(), s.level(), s.biasMode(), s.bias(), s.wiring()));
+                new Conditions(s.driveMode(), s.level(), s.biasMode(), s.bias(), s.wiring()));
     }
 
     private static DeratingDocument derating(Derating d) {

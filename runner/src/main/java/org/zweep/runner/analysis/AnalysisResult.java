@@ -42,7 +42,7 @@ public record AnalysisResult(RunData run, List<StepResult> steps, List<Sweep> sw
         java.util.Map<String, org.zweep.runner.verdict.CheckText.StepUnits> byStep = new java.util.HashMap<>();
         for (Sweep s : sweeps) {
             byStep.putIfAbsent(s.step(), new org.zweep.runner.verdict.CheckText.StepUnits(
-                    org.zweep.runner.text.Figures.unit(s.biasMode()), org.zweep.runner.text.Figures.unit(s.drive())));
+                    org.zweep.runner.text.Figures.unit(s.biasMode()), org.zweep.runner.text.Figures.unit(s.driveMode())));
         }
         return step -> byStep.getOrDefault(step, org.zweep.runner.verdict.CheckText.StepUnits.UNKNOWN);
     }

@@ -18,7 +18,7 @@ import org.zweep.runner.text.Figures;
  * @param step the step's name
  * @param stepIndex the step's index
  * @param wiring {@code none}, {@code secondary_open} or {@code secondary_shorted}
- * @param drive {@code V} or {@code A}
+ * @param driveMode {@code V} or {@code A}
  * @param level the drive level in V rms or A rms
  * @param biasMode {@code V} or {@code A}
  * @param bias the DC bias in V or A
@@ -29,7 +29,7 @@ import org.zweep.runner.text.Figures;
  *     (a systematic limit, not divided by the number of repeats) plus, with two or more repeats,
  *     the covariance of the mean of the repeats (Type A, JCGM 100:2008, 4.2)
  */
-public record Sweep(String step, int stepIndex, String wiring, String drive, double level, String biasMode,
+public record Sweep(String step, int stepIndex, String wiring, String driveMode, double level, String biasMode,
         double bias, List<Impedance> points, int repeats, List<UncertainImpedance> uncertainties) {
     public Sweep {
         points = List.copyOf(points);
@@ -37,9 +37,9 @@ public record Sweep(String step, int stepIndex, String wiring, String drive, dou
     }
 
     /** A sweep without uncertainties. */
-    public Sweep(String step, int stepIndex, String wiring, String drive, double level, String biasMode,
+    public Sweep(String step, int stepIndex, String wiring, String driveMode, double level, String biasMode,
             double bias, List<Impedance> points, int repeats) {
-        this(step, stepIndex, wiring, drive, level, biasMode, bias, points, repeats, List.of());
+        this(step, stepIndex, wiring, driveMode, level, biasMode, bias, points, repeats, List.of());
     }
 
     /** Whether every point has a known uncertainty (then fits are weighted by it). */
@@ -79,7 +79,7 @@ public record Sweep(String step, int stepIndex, String wiring, String drive, dou
             if (!"ok".equals(r.status()) || !"impedance".equals(r.quantity())) {
                 return;
             }
-            Conditions key = new Conditions(r.wiring(), r.drive(), r.level(), r.biasMode(), r.bias());
+            Conditions key = new Conditions(r.wiring(), r.driveMode(), r.level(), r.biasMode(), r.bias());
             groups.computeIfAbsent(key, k -> new Group(r.step(), r.stepIndex()))
                     .byFrequency.computeIfAbsent(r.frequencyHz(), f -> new Point(seen++)).add(r, column);
         }
@@ -123,7 +123,7 @@ public record Sweep(String step, int stepIndex, String wiring, String drive, dou
             List<Map.Entry<Conditions, Point>> points = new ArrayList<>();
             groups.forEach((c, g) -> g.byFrequency.forEach((f, p) -> {
                 if (p.n >= 2) {
-                    points.add(Map.entry(new Conditions(c.wiring(), c.drive(), c.level(), c.biasMode(), f), p));
+                    points.add(Map.entry(new Conditions(c.wiring(), c.driveMode(), c.level(), c.biasMode(), f), p));
                 }
             }));
             points.sort(java.util.Comparator.comparingLong(e -> e.getValue().seq));
@@ -147,7 +147,7 @@ public record Sweep(String step, int stepIndex, String wiring, String drive, dou
             return out;
         }
 
-        private record Conditions(String wiring, String drive, double level, String biasMode, double bias) {
+        private record Conditions(String wiring, String driveMode, double level, String biasMode, double bias) {
         }
 
         private static final class Group {
@@ -175,7 +175,7 @@ public record Sweep(String step, int stepIndex, String wiring, String drive, dou
                         us.add(p.meanUncertainty(mean));
                     }
                 }
-                return new Sweep(step, stepIndex, c.wiring(), c.drive(), c.level(), c.biasMode(), c.bias(), pts,
+                return new Sweep(step, stepIndex, c.wiring(), c.driveMode(), c.level(), c.biasMode(), c.bias(), pts,
                         repeats, known ? us : List.of());
             }
         }
@@ -285,12 +285,12 @@ public record Sweep(String step, int stepIndex, String wiring, String drive, dou
                 us.add(uncertainties.get(k));
             }
         }
-        return new Sweep(step, stepIndex, wiring, drive, level, biasMode, bias, pts, repeats, us);
+        return new Sweep(step, stepIndex, wiring, driveMode, level, biasMode, bias, pts, repeats, us);
     }
 
     /** This sweep's conditions without its points. */
     Sweep withoutPoints() {
-        return new Sweep(step, stepIndex, wiring, drive, level, biasMode, bias, List.of(), repeats, List.of());
+        return new Sweep(step, stepIndex, wiring, driveMode, level, biasMode, bias, List.of(), repeats, List.of());
     }
 
     /** The number of distinct frequencies. */
@@ -300,12 +300,12 @@ public record Sweep(String step, int stepIndex, String wiring, String drive, dou
 
     /** A label such as {@code 1V 0V} or {@code 10mA 2A}, also used in file names. */
     public String conditionLabel() {
-        return Figures.compact(level, Figures.unit(drive)) + "_" + Figures.compact(bias, Figures.unit(biasMode)) + ("none".equals(wiring) ? "" : "_" + wiring);
+        return Figures.compact(level, Figures.unit(driveMode)) + "_" + Figures.compact(bias, Figures.unit(biasMode)) + ("none".equals(wiring) ? "" : "_" + wiring);
     }
 
     /** A label for people, e.g. {@code 1 V, bias 0 V}. */
     public String describe() {
-        return Figures.format(level, Figures.unit(drive)) + ", bias " + Figures.format(bias, Figures.unit(biasMode))
+        return Figures.format(level, Figures.unit(driveMode)) + ", bias " + Figures.format(bias, Figures.unit(biasMode))
                 + ("none".equals(wiring) ? "" : ", " + wiring.replace('_', ' '));
     }
 

@@ -18,6 +18,7 @@ import org.zweep.runner.analysis.Sweep;
 import org.zweep.runner.compare.Comparison;
 import org.zweep.runner.plot.Charts;
 import org.zweep.runner.results.Json;
+import org.zweep.runner.text.ParameterTable;
 import org.zweep.runner.plot.Plots;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
@@ -93,7 +94,7 @@ public final class CompareCommand implements Callable<Integer> {
         }
         out.println(head.toString().stripTrailing());
         for (Comparison.Row row : c.rows()) {
-            Unit unit = TrendCommand.unitOf(row.parameter());
+            Unit unit = ParameterTable.unit(row.parameter());
             StringBuilder b = new StringBuilder(String.format(Locale.ROOT, "%-34s",
                     clip(row.kind() + " " + row.name(), 34)));
             for (int i = 0; i < row.values().size(); i++) {
@@ -147,7 +148,7 @@ public final class CompareCommand implements Callable<Integer> {
                             ? String.format(Locale.ROOT, "%.1f %%", 100 * t.yield()) : "-");
         }
         for (var row : c.checks()) {
-            Unit unit = TrendCommand.unitOf(row.parameter());
+            Unit unit = ParameterTable.unit(row.parameter());
             out.println();
             out.printf(Locale.ROOT, "check %s (%s)%n", row.name(), row.parameter());
             out.printf(Locale.ROOT, "  %-14s %5s %7s  %-12s %-12s %-12s %-12s %-8s %-12s %-8s%n", "lot", "n", "passed",

@@ -12,6 +12,7 @@ import org.zweep.runner.store.Capability;
 import org.zweep.runner.store.ControlChart;
 import org.zweep.runner.store.ResultsStore;
 import org.zweep.runner.store.Trend;
+import org.zweep.runner.text.ParameterTable;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Model.CommandSpec;
@@ -65,7 +66,7 @@ public final class TrendCommand implements Callable<Integer> {
                     c.sigma(), c.lsl(), c.usl(), c.cpk(), c.lcl(), c.ucl())));
             return ExitCode.OK;
         }
-        Unit unit = unitOf(t.parameter());
+        Unit unit = ParameterTable.unit(t.parameter());
         out.printf(Locale.ROOT, "%s, check %s (%s): %d completed run%s%n", t.part(), t.check(), t.parameter(),
                 t.points().size(), t.points().size() == 1 ? "" : "s");
         String fmt = "%-30s  %-10s  %-8s  %-12s  %s%n";
@@ -92,15 +93,5 @@ public final class TrendCommand implements Callable<Integer> {
 
     private static String text(double v, Unit unit) {
         return Double.isFinite(v) ? Quantities.formatShort(v, unit, 5) : "-";
-    }
-
-    /** The unit a parameter's name ends in ({@code cs_f}: F), or none. */
-    static Unit unitOf(String parameter) {
-        if (parameter == null) {
-            return Unit.NONE;
-        }
-        String p = parameter.toLowerCase(Locale.ROOT);
-        return p.endsWith("_f") ? Unit.FARAD : p.endsWith("_h") ? Unit.HENRY : p.endsWith("_ohm") ? Unit.OHM
-                : p.endsWith("_hz") ? Unit.HERTZ : p.endsWith("_deg") ? Unit.DEGREE : Unit.NONE;
     }
 }

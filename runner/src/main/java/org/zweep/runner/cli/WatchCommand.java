@@ -3,9 +3,7 @@ package org.zweep.runner.cli;
 import com.fasterxml.jackson.databind.JsonNode;
 import java.io.IOException;
 import java.io.PrintWriter;
-import java.io.RandomAccessFile;
 import java.net.InetSocketAddress;
-import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
@@ -15,6 +13,7 @@ import java.util.concurrent.Callable;
 import org.zweep.driver.InvalidInputException;
 import org.zweep.driver.impedance.Unit;
 import org.zweep.runner.live.EventLog;
+import org.zweep.runner.live.EventTail;
 import org.zweep.runner.results.Json;
 import org.zweep.runner.live.LiveServer;
 import picocli.CommandLine.Command;
@@ -90,33 +89,15 @@ final class WatchCommand implements Callable<Integer> {
 
     /** Prints each event as it is appended until {@code finished}; returns the exit code of the run's end. */
     static int follow(Path file, PrintWriter out) throws IOException, InterruptedException {
-        long offset = 0;
+        EventTail tail = new EventTail(file, 0);
         List<Double> stepZ = new ArrayList<>();
         String mainKey = "cs_f";
         String mainLabel = "Cs";
         Unit mainUnit = Unit.FARAD;
         while (true) {
-            List<String> lines = new ArrayList<>();
-            if (Files.exists(file)) {
-                try (RandomAccessFile f = new RandomAccessFile(file.toFile(), "r")) {
-                    if (f.length() > offset) {
-                        f.seek(offset);
-                        byte[] b = new byte[(int) (f.length() - offset)];
-                        f.readFully(b);
-                        int end = b.length;
-                        while (end > 0 && b[end - 1] != '\n') {
-                            end--;
-                        }
-                        if (end > 0) {
-                            String text = new String(b, 0, end - 1, StandardCharsets.UTF_8);
-                            lines.addAll(List.of(text.split("\n")));
-                            offset += end;
-                        }
-                    }
-                }
-            }
-            for (String line : lines) {
-                JsonNode e = Json.readTree(line);
+            List<EventTail.Line> lines = tail.read();
+            for (EventTail.Line line : lines) {
+                JsonNode e = Json.readTree(line.text());
                 switch (e.path("type").asText()) {
                     case "run_started" -> {
                         mainKey = e.path("main_parameter").asText(mainKey);

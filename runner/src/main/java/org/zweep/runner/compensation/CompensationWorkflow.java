@@ -159,13 +159,11 @@ public final class CompensationWorkflow {
             }
             station.announce("compensation: the meter acquires the " + s + " standard"
                     + (perFrequency ? " at " + at.size() + " frequencies" : ""), estimate.compensationStandardS().get(k++));
-            for (MeasurementSetting m : at) {
-                station.applySetting(m);
-                if (s == CorrectionStandard.LOAD) {
-                    station.setLoadStandard(fx.loadStandard());
-                }
-                station.acquireCorrection(s);
+            if (s == CorrectionStandard.LOAD) {
+                station.setLoadStandard(fx.loadStandard());
             }
+            // in one list message per standard where the meter's dialect allows, else point by point
+            station.acquireCorrection(s, at);
         }
         station.setMeterCorrection(true);
     }
@@ -273,7 +271,7 @@ public final class CompensationWorkflow {
             return !e.isEmpty() && e.get(0).frequencyHz() <= lo * (1 + 1e-9)
                     && e.get(e.size() - 1).frequencyHz() >= hi * (1 - 1e-9);
         });
-        return i.meter().equals(station.identity().toString()) && i.connection().equals(fx.terminals().name())
+        return i.meter().equals(station.identity().toString()) && i.terminals().equals(fx.terminals().name())
                 && i.standards().equals(fx.standards().stream().map(Enum::name).toList()) && sameLoad && covers;
     }
 

@@ -107,7 +107,7 @@ public final class ConsoleProgress implements ProgressListener {
         eta.measured(row.point(), now);
         work = null;
         measuredAny = true;
-        detail = row.step() + "  " + hz(row.frequencyHz()) + " " + Figures.format(row.level(), Figures.unit(row.drive()))
+        detail = row.step() + "  " + hz(row.frequencyHz()) + " " + Figures.format(row.level(), Figures.unit(row.driveMode()))
                 + ", bias " + Figures.format(row.bias(), Figures.unit(row.biasMode()));
         if (terminal) {
             redraw(now);

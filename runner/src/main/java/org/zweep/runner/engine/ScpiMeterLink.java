@@ -54,20 +54,20 @@ public final class ScpiMeterLink implements MeterLink {
      * Connects and identifies the meter.
      *
      * @param address the address (for messages)
-     * @param dialect a dialect name or file
+     * @param dialect the meter's dialect (loaded once by the caller)
      * @param connector opens a new session each call (blocking up to its connect timeout)
      * @param onClose run after the link is closed (e.g. stops a meter started for the link)
      * @throws MeterException when the meter cannot be reached
      */
-    public static ScpiMeterLink open(String address, String dialect, Supplier<ScpiSession> connector,
+    public static ScpiMeterLink open(String address, Dialect dialect, Supplier<ScpiSession> connector,
             Runnable onClose) {
         return open(address, dialect, connector, onClose, Bench.REAL);
     }
 
-    /** As {@link #open(String, String, Supplier, Runnable)}, with what is known of the meter's bench. */
-    public static ScpiMeterLink open(String address, String dialect, Supplier<ScpiSession> connector,
+    /** As {@link #open(String, Dialect, Supplier, Runnable)}, with what is known of the meter's bench. */
+    public static ScpiMeterLink open(String address, Dialect dialect, Supplier<ScpiSession> connector,
             Runnable onClose, Bench bench) {
-        ScpiMeterLink link = new ScpiMeterLink(address, Dialect.load(dialect), connector, onClose, bench);
+        ScpiMeterLink link = new ScpiMeterLink(address, dialect, connector, onClose, bench);
         // a link that breaks while the meter is being identified is opened again, as a reconnect
         // would be; a meter that cannot be reached at all fails at once
         for (int attempt = 1;; attempt++) {

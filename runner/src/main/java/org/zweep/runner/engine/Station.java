@@ -2,14 +2,12 @@ package org.zweep.runner.engine;
 
 import org.zweep.runner.safety.BiasWatcher;
 import java.util.List;
-import java.util.Optional;
 import java.util.function.Consumer;
 import java.util.function.Supplier;
 import org.zweep.driver.MeterException;
 import org.zweep.driver.impedance.Impedance;
 import org.zweep.driver.meter.Bias;
 import org.zweep.driver.meter.CorrectionStandard;
-import org.zweep.driver.meter.FixtureControl;
 import org.zweep.driver.meter.FixtureState;
 import org.zweep.driver.meter.MeasurementSetting;
 import org.zweep.driver.meter.Meter;
@@ -25,10 +23,10 @@ import org.zweep.runner.safety.SafetyGuard;
 /**
  * The bench as the engine uses it: the meter behind a {@link MeterLink}, the fixture and the
  * operator. It checks every setting against the safety limits before sending it, never changes
- * DC bias faster than the step's ramp limit (intermediate steps) and settles after a change,
- * reconnects with back-off after a lost link or a timeout and then turns bias off, restores the
- * meter's state and repeats the interrupted operation. Everything that changes what is in the
- * fixture goes through its {@link FixturePort}, with bias off.
+ * DC bias faster than the step's ramp limit (intermediate steps, planned by {@link BiasRamp}) and
+ * settles after a change. It drives the meter through a {@link ReconnectingMeter}, which reconnects
+ * after a lost link or a timeout, restores the meter's state and repeats the interrupted call.
+ * Everything that changes what is in the fixture goes through its {@link FixturePort}, with bias off.
  *
  * <p>Driven by one thread; only {@link #biasOffNow()} may be called from another (a shutdown hook).
  */
@@ -37,36 +35,20 @@ public final class Station {
     static final double RAMP_STEP_S = BiasRamp.MAX_STEP_S;
 
     private final MeterLink link;
+    private final ReconnectingMeter meter;
     private final SafetyGuard guard;
     private final FixturePort fixture;
     private final Waiter waiter;
-    private final ReconnectPolicy policy;
     private final Consumer<String> log;
 
     private MeterIdentity identity;
     private MeterCapabilities capabilities;
     private MeterCapabilities statedLimits;
     private double topRangeOhm;
-    private volatile Bias applied = Bias.OFF;
-    /** How the bias now applied was reached: it goes down no faster than it went up. */
-    private BiasControl rampControl = BiasControl.NONE;
-    /** Told of every bias value before it is sent (the guard process). */
-    private volatile BiasWatcher biasWatcher = BiasWatcher.NONE;
-    /** The bias of the setting being sent (it may or may not have reached the meter). */
-    private Bias sending;
-    private boolean meterCorrection;
     /** What the fixture was last brought to (null: not known), and the second winding. */
     private FixtureState held;
     private Wiring wiring = Wiring.NONE;
-    private int reconnects;
-    private MeasurementSetting lastSetting;
-    /** Reconnect attempts and back-off waited since the last operation that succeeded. */
-    private int budgetAttempts;
-    private double budgetWaitedS;
     private volatile java.util.function.ObjDoubleConsumer<String> work = (what, expectedS) -> { };
-    /** Settings the meter accepted in the current attempt of an operation, and the most in any attempt. */
-    private int acceptedThisAttempt;
-    private int mostAccepted;
 
     /**
      * @param link the meter connection
@@ -79,26 +61,21 @@ public final class Station {
     public Station(MeterLink link, SafetyGuard guard, FixturePort fixture, Waiter waiter, ReconnectPolicy policy,
             Consumer<String> log) {
         this.link = link;
+        this.meter = new ReconnectingMeter(link, policy, waiter, log);
         this.guard = guard;
         this.fixture = fixture;
         this.waiter = waiter;
-        this.policy = policy;
         this.log = log;
     }
 
     /** Identifies the meter and resets it (bias off). */
     public void start() {
-        withRetry("identifying the meter", () -> {
-            Meter m = link.meter();
-            identity = m.identify();
-            capabilities = m.capabilities();
-            m.reset();
-            statedLimits = m.statedLimits();
-            topRangeOhm = m instanceof org.zweep.driver.dialect.DialectMeter d ? d.dialect().impedanceRangeOhm().max()
-                    : 0.0;
-            applied = Bias.OFF;
-            return null;
-        });
+        identity = meter.identify();
+        capabilities = meter.capabilities();
+        meter.reset();
+        statedLimits = meter.statedLimits();
+        topRangeOhm = link.meter() instanceof org.zweep.driver.dialect.DialectMeter d
+                ? d.dialect().impedanceRangeOhm().max() : 0.0;
     }
 
     /** The meter's identity (after {@link #start}). */
@@ -131,7 +108,7 @@ public final class Station {
 
     /** How often the link was re-opened so far. */
     public int reconnects() {
-        return reconnects;
+        return meter.reconnects();
     }
 
     /**
@@ -145,10 +122,7 @@ public final class Station {
         }
         rampBiasOff(bias);
         String text = instruction.isEmpty() && held != null ? standardInstruction(state) : instruction;
-        withRetry("changing the fixture to " + FixturePort.word(state), () -> {
-            fixture.hold(state, text);
-            return null;
-        });
+        meter.holdFixture(state, "changing the fixture to " + FixturePort.word(state), () -> fixture.hold(state, text));
         held = state;
     }
 
@@ -183,10 +157,7 @@ public final class Station {
         rampBiasOff(bias);
         FixtureState state = w == Wiring.SECONDARY_SHORTED ? FixtureState.SECONDARY_SHORTED
                 : FixtureState.SECONDARY_OPEN;
-        withRetry("switching the wiring", () -> {
-            fixture.hold(state, told ? "" : standardInstruction(state));
-            return null;
-        });
+        meter.holdFixture(state, "switching the wiring", () -> fixture.hold(state, told ? "" : standardInstruction(state)));
         wiring = w;
     }
 
@@ -196,15 +167,13 @@ public final class Station {
      */
     public Reading measure(MeasurementSetting s, BiasControl bias, double delayS) {
         check(s);
-        return withRetry(() -> "measuring at " + org.zweep.runner.safety.SafetyGuard.human(s.frequencyHz(), "Hz"), () -> {
-            if (delayS <= 0 && holdsBias(s.bias())) {
-                // nothing to wait for between setting and trigger: one message where the meter allows
-                return applyAndMeasure(s);
-            }
-            moveTo(s, bias);
-            waiter.waitS(delayS);
-            return link.meter().measure();
-        });
+        if (delayS <= 0 && holdsBias(s.bias())) {
+            // nothing to wait for between setting and trigger: one message where the meter allows
+            return meter.measureAt(s);
+        }
+        moveTo(s, bias);
+        waiter.waitS(delayS);
+        return meter.measure();
     }
 
     /** Measures a list of settings that differ only in frequency with the meter's list sweep. */
@@ -212,10 +181,8 @@ public final class Station {
         for (MeasurementSetting s : settings) {
             check(s);
         }
-        return withRetry("measuring a list of " + settings.size() + " points", () -> {
-            moveTo(settings.get(0), bias);
-            return link.meter().measureList(settings);
-        });
+        moveTo(settings.get(0), bias);
+        return meter.measureList(settings);
     }
 
     /**
@@ -235,35 +202,38 @@ public final class Station {
     public void applySetting(MeasurementSetting s) {
         String at = org.zweep.runner.text.Figures.format(s.frequencyHz(), org.zweep.driver.impedance.Unit.HERTZ, 6);
         guard.check(s, "setting at " + at);
-        withRetry("applying the setting at " + at, () -> {
-            moveTo(s, BiasControl.NONE);
-            return null;
-        });
+        moveTo(s, BiasControl.NONE);
     }
 
     /** Tells the meter to acquire {@code standard} now inserted. */
     public void acquireCorrection(CorrectionStandard standard) {
-        withRetry("acquiring the " + standard + " correction", () -> {
-            link.meter().acquireCorrection(standard);
-            return null;
-        });
+        meter.acquireCorrection(standard);
+    }
+
+    /**
+     * Tells the meter to acquire {@code standard} now inserted at each of {@code settings} (checked
+     * against the safety limits; bias off, brought down first at the rate it went up), in one list
+     * message where its dialect allows (see {@link Meter#acquireCorrection(CorrectionStandard, List)}).
+     */
+    public void acquireCorrection(CorrectionStandard standard, List<MeasurementSetting> settings) {
+        for (MeasurementSetting s : settings) {
+            if (s.bias().on()) {
+                throw new IllegalArgumentException("a correction standard is acquired with bias off");
+            }
+            guard.check(s, "setting at " + org.zweep.runner.safety.SafetyGuard.human(s.frequencyHz(), "Hz"));
+        }
+        rampBiasOff(BiasControl.NONE);
+        meter.acquireCorrection(standard, settings);
     }
 
     /** Tells the meter its load standard's value. */
     public void setLoadStandard(Impedance known) {
-        withRetry("setting the load standard", () -> {
-            link.meter().setLoadStandard(known);
-            return null;
-        });
+        meter.setLoadStandard(known);
     }
 
     /** Switches the meter's own correction on or off (restored after a reconnect). */
     public void setMeterCorrection(boolean on) {
-        withRetry("switching the meter's correction", () -> {
-            link.meter().setCorrectionEnabled(on);
-            return null;
-        });
-        meterCorrection = on;
+        meter.setCorrectionEnabled(on);
     }
 
     /**
@@ -272,14 +242,10 @@ public final class Station {
      * signal): only the end of the process cuts it short.
      */
     public void rampBiasOff(BiasControl bias) {
-        Bias from = applied;
-        if (!from.on()) {
+        if (!meter.appliedBias().on()) {
             return;
         }
-        withRetry("turning bias off", () -> {
-            rampDownNow(downRate(bias));
-            return null;
-        });
+        rampDownNow(downRate(bias));
     }
 
     /**
@@ -291,13 +257,12 @@ public final class Station {
      */
     public boolean stopBias() {
         try {
-            rampBiasOff(rampControl);
+            rampBiasOff(meter.rampControl());
         } catch (RuntimeException e) {
             // given up on (a lost link, a meter error): once more on a fresh connection, still ramped
             try {
-                link.reconnect();
-                reconnects++;
-                rampDownNow(rampControl.rampPerS());
+                meter.reopen();
+                rampDownNow(meter.rampControl().rampPerS());
                 log.accept("reconnected to " + link.address() + " and brought DC bias down at the ramp rate");
             } catch (RuntimeException second) {
                 log.accept("could not ramp DC bias down (" + e.getMessage() + "); switching it off at once,"
@@ -309,18 +274,20 @@ public final class Station {
 
     /** Makes {@code w} hear of every bias change before it is sent (the guard process's feed). */
     public void watchBias(BiasWatcher w) {
-        this.biasWatcher = w;
+        meter.watchBias(w);
     }
 
     private double downRate(BiasControl bias) {
-        return Math.min(bias.rampPerS(), rampControl.rampPerS());
+        return Math.min(bias.rampPerS(), meter.rampControl().rampPerS());
     }
 
     /** Ramps the applied bias to 0 at {@code rate} on the link as it is, then switches bias off. */
     private void rampDownNow(double rate) {
+        Bias applied = meter.appliedBias();
         if (!applied.on()) {
             return;
         }
+        MeasurementSetting lastSetting = meter.lastSetting();
         if (lastSetting != null) {
             double seconds = BiasRamp.durationS(applied.value(), 0.0, rate);
             if (seconds >= 1.0) {
@@ -331,10 +298,8 @@ public final class Station {
             }
             ramp(lastSetting, applied.mode(), applied.value(), 0.0, rate, true);
         }
-        link.meter().biasOff();
-        applied = Bias.OFF;
-        rampControl = BiasControl.NONE;
-        biasWatcher.off();
+        meter.biasOff();
+        meter.rampControl(BiasControl.NONE);
     }
 
     /**
@@ -344,36 +309,16 @@ public final class Station {
      * @return whether the meter confirmed it
      */
     public boolean biasOffNow() {
-        try {
-            link.meter().biasOff();
-            applied = Bias.OFF;
-            biasWatcher.off();
-            return true;
-        } catch (MeterException e) {
-            if (!link.isLinkFailure(e)) {
-                return false;
-            }
-        } catch (RuntimeException e) {
-            return false;
-        }
-        try {
-            link.reconnect().biasOff();
-            applied = Bias.OFF;
-            biasWatcher.off();
-            log.accept("bias turned off after reconnecting to " + link.address());
-            return true;
-        } catch (RuntimeException e) {
-            return false;
-        }
+        return meter.biasOffAtOnce();
     }
 
     /** The DC bias as last applied through this station. */
     public Bias appliedBias() {
-        return applied;
+        return meter.appliedBias();
     }
 
     private void moveTo(MeasurementSetting target, BiasControl control) {
-        Bias from = applied;
+        Bias from = meter.appliedBias();
         Bias to = target.bias();
         double rate = control.rampPerS();
         boolean changed = false;
@@ -384,7 +329,7 @@ public final class Station {
             from = Bias.OFF;
         }
         if (to.on()) {
-            rampControl = control;
+            meter.rampControl(control);
             double start = from.on() ? from.value() : 0.0;
             if (!from.on() || start != to.value()) {
                 ramp(target, to.mode(), start, to.value(), rate, false);
@@ -424,23 +369,6 @@ public final class Station {
         }
     }
 
-    /**
-     * Whether {@code b}, read back after a reconnect, is where this station left the bias: on, in
-     * the same mode, at the last level the meter acknowledged or at the one being sent when the
-     * link broke (within 1e-6 of it, for the reply's rounding).
-     */
-    private boolean whereLeft(Bias b) {
-        if (!b.on() || b.mode() != applied.mode()) {
-            return false;
-        }
-        return near(b.value(), applied.value()) || (sending != null && sending.on() && sending.mode() == b.mode()
-                && near(b.value(), sending.value()));
-    }
-
-    private static boolean near(double a, double b) {
-        return Math.abs(a - b) <= 1e-6 * Math.max(1.0, Math.abs(b));
-    }
-
     /** Refuses {@code s} when it is outside the safety limits, naming it; nothing is formatted when it is within. */
     private void check(MeasurementSetting s) {
         if (guard.problem(s) != null) {
@@ -450,129 +378,13 @@ public final class Station {
 
     /** Whether {@code b} is what the meter holds now: no ramp, no settling before measuring at it. */
     private boolean holdsBias(Bias b) {
+        Bias applied = meter.appliedBias();
         return !b.on() && !applied.on()
                 || b.on() && applied.on() && b.mode() == applied.mode() && b.value() == applied.value();
     }
 
-    /** As {@link #apply} then measuring, in one exchange where the meter allows. */
-    private Reading applyAndMeasure(MeasurementSetting s) {
-        check(s);
-        sending = s.bias();
-        if (s.bias().on() || applied.on()) {
-            biasWatcher.applying(s, rampControl.rampPerS());
-        }
-        Reading r = link.meter().measureAt(s);
-        lastSetting = s;
-        applied = s.bias();
-        acceptedThisAttempt++;
-        return r;
-    }
-
     private void apply(MeasurementSetting s) {
         check(s);
-        sending = s.bias();
-        if (s.bias().on() || applied.on()) {
-            biasWatcher.applying(s, rampControl.rampPerS());
-        }
-        link.meter().apply(s);
-        lastSetting = s;
-        applied = s.bias();
-        acceptedThisAttempt++;
-    }
-
-    private <T> T withRetry(String what, Supplier<T> op) {
-        return withRetry(() -> what, op);
-    }
-
-    /** As above, with the description made only when it is needed (a point's hot path). */
-    private <T> T withRetry(Supplier<String> what, Supplier<T> op) {
-        while (true) {
-            acceptedThisAttempt = 0;
-            try {
-                T result = op.get();
-                budgetAttempts = 0;
-                budgetWaitedS = 0.0;
-                mostAccepted = 0;
-                return result;
-            } catch (MeterException e) {
-                if (!link.isLinkFailure(e)) {
-                    throw e;
-                }
-                if (acceptedThisAttempt > mostAccepted) {
-                    // got further than every attempt before (a long bias ramp on a link that drops at
-                    // random): progress, so the budget starts again; a fault that strikes at the same
-                    // place on every connection makes no progress and still uses the budget up
-                    mostAccepted = acceptedThisAttempt;
-                    budgetAttempts = 0;
-                    budgetWaitedS = 0.0;
-                }
-                recover(what.get(), e);
-            }
-        }
-    }
-
-    private void recover(String what, MeterException cause) {
-        log.accept("link to " + link.address() + " failed while " + what + ": " + cause.getMessage()
-                + "; reconnecting");
-        MeterException last = cause;
-        for (int attempt = 1;; attempt++) {
-            double delay = Math.min(policy.maxDelayS(), policy.firstDelayS() * Math.pow(policy.factor(), budgetAttempts));
-            if (budgetAttempts + 1 > policy.maxAttempts() || budgetWaitedS + delay > policy.budgetS() + 1e-9) {
-                throw new LinkLostException("lost the link to " + link.address() + " while " + what
-                        + " and could not reconnect (" + budgetAttempts + " attempts in " + fmt(budgetWaitedS)
-                        + " s since the last successful operation): " + last.getMessage(), last);
-            }
-            waiter.waitS(delay);
-            budgetWaitedS += delay;
-            budgetAttempts++;
-            try {
-                Meter m = link.reconnect();
-                reconnects++;
-                Bias held = applied.on() ? m.readBias().filter(this::whereLeft).orElse(null) : null;
-                if (held != null) {
-                    // the meter holds the bias where the ramp left it: keep it and go on from there,
-                    // rather than switching it off abruptly and ramping all the way up again
-                    applied = held;
-                } else {
-                    m.biasOff();
-                    applied = Bias.OFF;
-                    biasWatcher.off();
-                    lastSetting = null;
-                }
-                if (meterCorrection) {
-                    m.setCorrectionEnabled(true);
-                }
-                restoreFixture();
-                log.accept("reconnected to " + link.address() + " (attempt " + attempt + "); "
-                        + (applied.on() ? "bias held at " + ConsoleProgress.num(applied.value()) + " "
-                                + applied.mode().unit() : "bias is off") + ", repeating " + what);
-                return;
-            } catch (MeterException e) {
-                if (!link.isLinkFailure(e)) {
-                    throw e;
-                }
-                last = e;
-            }
-        }
-    }
-
-    /** Brings the meter's own fixture back to what it held, after a reconnect. */
-    private void restoreFixture() {
-        Optional<FixtureControl> own = link.fixtureControl();
-        if (own.isEmpty()) {
-            return;
-        }
-        if (held != null && own.get().states().contains(held)) {
-            own.get().hold(held);
-        }
-        FixtureState w = wiring == Wiring.SECONDARY_SHORTED ? FixtureState.SECONDARY_SHORTED
-                : wiring == Wiring.SECONDARY_OPEN ? FixtureState.SECONDARY_OPEN : null;
-        if (w != null && own.get().states().contains(w)) {
-            own.get().hold(w);
-        }
-    }
-
-    private static String fmt(double s) {
-        return String.format(java.util.Locale.ROOT, "%.1f", s);
+        meter.apply(s);
     }
 }

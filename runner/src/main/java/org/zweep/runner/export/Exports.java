@@ -89,7 +89,7 @@ public final class Exports {
                 cells.add(r.quantity());
                 cells.add(r.wiring());
                 cells.add(Csv.number(r.frequencyHz()));
-                cells.add(r.drive());
+                cells.add(r.driveMode());
                 cells.add(Csv.number(r.level()));
                 cells.add(r.biasMode());
                 cells.add(Csv.number(r.bias()));
@@ -155,7 +155,7 @@ public final class Exports {
             double ratio, String time) {
         static ExportPoint of(PointRow r) {
             Derived v = r.derived();
-            return new ExportPoint(r.step(), r.repeat(), r.quantity(), r.wiring(), r.frequencyHz(), r.drive(),
+            return new ExportPoint(r.step(), r.repeat(), r.quantity(), r.wiring(), r.frequencyHz(), r.driveMode(),
                     r.level(), r.biasMode(), r.bias(), r.rOhm(), r.xOhm(), v.zOhm(), v.thetaDeg(), v.csF(), v.cpF(),
                     v.lsH(), v.lpH(), v.rsOhm(), v.rpOhm(), v.d(), v.q(), r.ratio(), r.time().toString());
         }

@@ -73,7 +73,7 @@ public final class EventRecorder implements ProgressListener {
             n.put("wiring", row.wiring());
             n.put("frequency_hz", row.frequencyHz());
             n.put("level", row.level());
-            n.put("drive", row.drive());
+            n.put("drive", row.driveMode());
             n.put("bias", row.bias());
             n.put("bias_mode", row.biasMode());
             n.put("status", row.status());
@@ -92,7 +92,7 @@ public final class EventRecorder implements ProgressListener {
             }
             if (texts) {
                 n.put("setting_text", Figures.format(row.frequencyHz(), Unit.HERTZ) + ", "
-                        + Figures.format(row.level(), Figures.unit(row.drive())) + " rms, bias "
+                        + Figures.format(row.level(), Figures.unit(row.driveMode())) + " rms, bias "
                         + Figures.format(row.bias(), Figures.unit(row.biasMode())));
                 if (z) {
                     n.put("values_text", "|Z| " + Figures.format(row.value("z_ohm"), Unit.OHM) + ", θ "

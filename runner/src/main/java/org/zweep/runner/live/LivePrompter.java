@@ -4,8 +4,6 @@ import com.fasterxml.jackson.databind.JsonNode;
 import java.io.BufferedReader;
 import java.io.IOException;
 import java.io.PrintWriter;
-import java.io.RandomAccessFile;
-import java.nio.charset.StandardCharsets;
 import java.nio.file.Path;
 import java.util.UUID;
 import java.util.concurrent.BlockingQueue;
@@ -28,7 +26,7 @@ public final class LivePrompter implements Prompter {
     private final PrintWriter out;
     private final BlockingQueue<String> terminalLines;
     private final Interruption interruption;
-    private long offset;
+    private EventTail since;
 
     /**
      * @param log the run's events
@@ -62,7 +60,7 @@ public final class LivePrompter implements Prompter {
     @Override
     public void prompt(String instruction) {
         String id = UUID.randomUUID().toString();
-        offset = length();
+        since = EventTail.fromEnd(log.file());
         log.write("prompt", n -> {
             n.put("id", id);
             n.put("text", instruction);
@@ -95,26 +93,11 @@ public final class LivePrompter implements Prompter {
         });
     }
 
-    private long length() {
-        return log.file().toFile().length();
-    }
-
     /** Whether an answer event for {@code id} was appended since the prompt was written. */
     private boolean answered(String id) {
-        try (RandomAccessFile f = new RandomAccessFile(log.file().toFile(), "r")) {
-            if (f.length() <= offset) {
-                return false;
-            }
-            f.seek(offset);
-            byte[] b = new byte[(int) (f.length() - offset)];
-            f.readFully(b);
-            String text = new String(b, StandardCharsets.UTF_8);
-            int end = text.lastIndexOf('\n');
-            if (end < 0) {
-                return false;
-            }
-            for (String line : text.substring(0, end).split("\n")) {
-                JsonNode n = org.zweep.runner.results.Json.readTree(line);
+        try {
+            for (EventTail.Line line : since.read()) {
+                JsonNode n = org.zweep.runner.results.Json.readTree(line.text());
                 if ("answer".equals(n.path("type").asText()) && id.equals(n.path("id").asText())) {
                     return true;
                 }

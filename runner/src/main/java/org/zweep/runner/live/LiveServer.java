@@ -3,12 +3,10 @@ package org.zweep.runner.live;
 import com.fasterxml.jackson.databind.JsonNode;
 import java.io.IOException;
 import java.io.InputStream;
-import java.io.RandomAccessFile;
 import java.io.UncheckedIOException;
 import java.net.InetSocketAddress;
 import java.nio.ByteBuffer;
 import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
 import java.nio.file.Path;
 import java.nio.file.StandardWatchEventKinds;
 import java.nio.file.WatchKey;
@@ -206,36 +204,15 @@ public final class LiveServer implements AutoCloseable {
         }
         response.setStatus(200);
         response.getHeaders().put(HttpHeader.CONTENT_TYPE, "text/event-stream; charset=utf-8");
-        Path file = dir.resolve(EventLog.FILE);
+        EventTail tail = new EventTail(dir.resolve(EventLog.FILE), offset);
         long lastWrite = System.currentTimeMillis();
         try {
             send(response, "retry: 500\n\n");
             while (running) {
                 long seen = changeCount();
                 StringBuilder chunk = new StringBuilder();
-                if (Files.exists(file)) {
-                    try (RandomAccessFile f = new RandomAccessFile(file.toFile(), "r")) {
-                        long len = f.length();
-                        if (len < offset) {
-                            offset = 0; // a new file: start again
-                        }
-                        if (len > offset) {
-                            f.seek(offset);
-                            byte[] b = new byte[(int) Math.min(len - offset, 1 << 20)];
-                            f.readFully(b);
-                            int end = lastNewline(b);
-                            int start = 0;
-                            for (int i = 0; i < end; i++) {
-                                if (b[i] == '\n') {
-                                    String line = new String(b, start, i - start, StandardCharsets.UTF_8);
-                                    long id = offset + i + 1;
-                                    chunk.append("id: ").append(id).append("\ndata: ").append(line).append("\n\n");
-                                    start = i + 1;
-                                }
-                            }
-                            offset += end;
-                        }
-                    }
+                for (EventTail.Line line : tail.read()) {
+                    chunk.append("id: ").append(line.end()).append("\ndata: ").append(line.text()).append("\n\n");
                 }
                 if (chunk.length() > 0) {
                     send(response, chunk.toString());
@@ -254,15 +231,6 @@ public final class LiveServer implements AutoCloseable {
         } catch (Exception e) {
             callback.failed(e); // the viewer went away
         }
-    }
-
-    private static int lastNewline(byte[] b) {
-        for (int i = b.length - 1; i >= 0; i--) {
-            if (b[i] == '\n') {
-                return i + 1;
-            }
-        }
-        return 0;
     }
 
     private static void send(Response response, String text) throws Exception {

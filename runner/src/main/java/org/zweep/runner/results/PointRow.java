@@ -226,7 +226,7 @@ public record PointRow(Key key, Conditions conditions, Measured measured, String
     }
 
     /** The drive mode, {@code V} or {@code A}. */
-    public String drive() {
+    public String driveMode() {
         return conditions.drive().mode();
     }
 

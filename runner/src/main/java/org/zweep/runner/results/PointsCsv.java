@@ -53,7 +53,7 @@ public final class PointsCsv {
         c.add(row.quantity());
         c.add(row.wiring());
         c.add(Csv.number(row.frequencyHz()));
-        c.add(row.drive());
+        c.add(row.driveMode());
         c.add(Csv.number(row.level()));
         c.add(row.biasMode());
         c.add(Csv.number(row.bias()));

@@ -4,6 +4,7 @@ import java.util.Locale;
 import org.zweep.driver.InvalidInputException;
 import org.zweep.driver.address.Address;
 import org.zweep.driver.address.SimAddress;
+import org.zweep.driver.dialect.Dialect;
 import org.zweep.driver.scpi.ScpiClient;
 import org.zweep.driver.scpi.ScpiSession;
 import org.zweep.driver.scpi.ScpiSettings;
@@ -34,8 +35,9 @@ public final class MeterLinks {
      * @throws org.zweep.driver.InvalidInputException when the address or dialect is malformed
      * @throws org.zweep.driver.MeterException when the meter cannot be reached
      */
-    public static ScpiMeterLink open(String address, String dialect, ScpiSettings settings) {
+    public static ScpiMeterLink open(String address, String dialectName, ScpiSettings settings) {
         Address a = Address.parse(address);
+        Dialect dialect = Dialect.load(dialectName);
         if (a instanceof SimAddress sim && sim.bench().startsWith(REMOTE)) {
             return remote(address, sim.bench(), dialect, settings);
         }
@@ -50,12 +52,12 @@ public final class MeterLinks {
             }
         }
         // a meter outside IEEE 488.2 is sent nothing its dialect does not declare: no *CLS on connecting
-        ScpiSettings s = org.zweep.driver.dialect.Dialect.load(dialect).takesCommonCommands() ? settings
+        ScpiSettings s = dialect.takesCommonCommands() ? settings
                 : settings.toBuilder().clearOnConnect(false).build();
         return ScpiMeterLink.open(address, dialect, () -> ScpiClient.open(a, s), () -> { });
     }
 
-    private static ScpiMeterLink remote(String address, String rest, String dialect, ScpiSettings settings) {
+    private static ScpiMeterLink remote(String address, String rest, Dialect dialect, ScpiSettings settings) {
         int q = rest.indexOf('?');
         Address tcp = Address.parse(q >= 0 ? rest.substring(0, q) : rest);
         Long seed = null;

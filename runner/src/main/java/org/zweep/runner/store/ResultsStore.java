@@ -126,7 +126,7 @@ public final class ResultsStore implements AutoCloseable {
         // the analysis is made before the transaction (the write lock is held only for writing); the
         // points are streamed from the folder into the batch, never all held: a run of a million
         // points is indexed in the heap a run of a thousand needs
-        AnalysisResult analysis = hasPoints(folder) ? analyse(run) : null;
+        AnalysisResult analysis = analyse(run);
         String runId = idOf(run.manifest());
         SQLException last = null;
         for (int attempt = 1; attempt <= ATTEMPTS; attempt++) {
@@ -161,31 +161,10 @@ public final class ResultsStore implements AutoCloseable {
     }
 
     /** Whether the folder's points.csv holds a line after its header (read no further than that). */
-    private static boolean hasPoints(Path folder) {
-        try (java.io.InputStream in = new java.io.BufferedInputStream(java.nio.file.Files.newInputStream(
-                folder.resolve(org.zweep.runner.results.RunFolder.POINTS)))) {
-            int lines = 0;
-            int b;
-            boolean content = false;
-            while ((b = in.read()) >= 0) {
-                if (b == '\n') {
-                    if (++lines == 2) {
-                        return true;
-                    }
-                } else if (lines == 1) {
-                    content = true;
-                }
-            }
-            return content;
-        } catch (java.io.IOException e) {
-            return false;
-        }
-    }
-
     /** The analysis of the run (check values, fits), or null when it cannot be made (no points yet). */
     private static AnalysisResult analyse(RunData run) {
         try {
-            return Analysis.analyze(run, null);
+            return Analysis.analyze(run.requirePoints(), null);
         } catch (RuntimeException e) {
             return null; // the run and its points are still indexed; checks keep their recorded results
         }
@@ -332,7 +311,7 @@ public final class ResultsStore implements AutoCloseable {
         s.setString(i++, r.quantity());
         s.setString(i++, r.wiring());
         number(s, i++, r.frequencyHz());
-        s.setString(i++, r.drive());
+        s.setString(i++, r.driveMode());
         number(s, i++, r.level());
         s.setString(i++, r.biasMode());
         number(s, i++, r.bias());

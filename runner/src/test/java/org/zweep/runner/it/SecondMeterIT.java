@@ -61,6 +61,8 @@ class SecondMeterIT {
             assertTrue(r.out().contains(" 0 failed"), r.out());
             // the jig is driven through the dialect's fixture section, and the standards acquired with it
             assertTrue(r.out().matches("(?s).*fixture open\\s+ok.*correction-open\\s+ok.*"), r.out());
+            // and each standard over a list of frequencies in one message (the dialect's list acquisition)
+            assertTrue(r.out().matches("(?s).*correction-open-list\\s+ok.*correction-short-list\\s+ok.*"), r.out());
             assertTrue(r.out().matches("(?s).*measure once\\s+ok.*"), r.out());
         }
     }

@@ -160,7 +160,7 @@ class PointsCsvReaderTest {
         }
         rows.clear();
         assertEquals(3, PointsCsvReader.recover(f, rows::add).rows());
-        assertEquals("V", rows.get(2).drive());
+        assertEquals("V", rows.get(2).driveMode());
         assertEquals(PointsCsv.HEADER_BEFORE_DRIVE_MODE, Files.readAllLines(f).get(0));
     }
 

@@ -8,22 +8,22 @@ public sealed interface Exchanges {
 
     /** Every exchange. */
     static Exchanges every() {
-        return new Range(1, Long.MAX_VALUE);
+        return new Span(1, Long.MAX_VALUE);
     }
 
     /** Only exchange {@code n}. */
     static Exchanges nth(long n) {
-        return new Range(n, 1);
+        return new Span(n, 1);
     }
 
     /** Exchange {@code first} and every one after it. */
     static Exchanges from(long first) {
-        return new Range(first, Long.MAX_VALUE);
+        return new Span(first, Long.MAX_VALUE);
     }
 
     /** {@code count} exchanges from {@code first}. */
-    record Range(long first, long count) implements Exchanges {
-        public Range {
+    record Span(long first, long count) implements Exchanges {
+        public Span {
             if (first < 1 || count < 1) {
                 throw new IllegalArgumentException("exchanges are numbered from 1; got first " + first + ", count " + count);
             }

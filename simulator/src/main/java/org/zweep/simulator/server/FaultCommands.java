@@ -109,6 +109,6 @@ final class FaultCommands {
     private static void nextReplies(Call c, int countIndex, Fault f) {
         ClientConnection k = conn(c);
         long n = count(c, countIndex);
-        k.faults().add(new ScheduledFault(Phase.REPLY, new Exchanges.Range(k.replyNumber() + 1, n), f));
+        k.faults().add(new ScheduledFault(Phase.REPLY, new Exchanges.Span(k.replyNumber() + 1, n), f));
     }
 }
