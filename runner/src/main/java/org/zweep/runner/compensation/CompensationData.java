@@ -1,5 +1,6 @@
 package org.zweep.runner.compensation;
 
+import com.fasterxml.jackson.annotation.JsonProperty;
 import com.fasterxml.jackson.core.JsonProcessingException;
 import java.io.IOException;
 import java.io.UncheckedIOException;
@@ -47,17 +48,19 @@ public record CompensationData(Info info, List<Entry> entries) {
      * @param format {@link #FORMAT}
      * @param time when the measurement of the standards finished (ISO-8601)
      * @param meter the meter's identity
-     * @param connection {@code TWO_TERMINAL} or {@code FOUR_TERMINAL}
+     * @param terminals the terminal configuration, {@code TWO_TERMINAL} or {@code FOUR_TERMINAL} (the file's
+     *     {@code connection})
      * @param standards the standards measured, in order
      * @param loadROhm the load standard's known resistance ({@code null} without LOAD)
      * @param loadXOhm the load standard's known reactance ({@code null} without LOAD)
-     * @param drive {@code V} or {@code A}
+     * @param driveMode {@code V} or {@code A} (the file's {@code drive})
      * @param level the drive level in V rms or A rms
      * @param averaging the averaging count
      * @param integrationS the integration time in seconds
      */
-    public record Info(String format, String time, String meter, String connection, List<String> standards,
-            Double loadROhm, Double loadXOhm, String drive, double level, int averaging, double integrationS) {
+    public record Info(String format, String time, String meter,
+            @JsonProperty("connection") String terminals, List<String> standards,
+            Double loadROhm, Double loadXOhm, @JsonProperty("drive") String driveMode, double level, int averaging, double integrationS) {
     }
 
     /**

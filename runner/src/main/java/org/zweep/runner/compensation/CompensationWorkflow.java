@@ -271,7 +271,7 @@ public final class CompensationWorkflow {
             return !e.isEmpty() && e.get(0).frequencyHz() <= lo * (1 + 1e-9)
                     && e.get(e.size() - 1).frequencyHz() >= hi * (1 - 1e-9);
         });
-        return i.meter().equals(station.identity().toString()) && i.connection().equals(fx.terminals().name())
+        return i.meter().equals(station.identity().toString()) && i.terminals().equals(fx.terminals().name())
                 && i.standards().equals(fx.standards().stream().map(Enum::name).toList()) && sameLoad && covers;
     }
 

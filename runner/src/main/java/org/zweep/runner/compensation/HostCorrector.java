@@ -167,7 +167,7 @@ public final class HostCorrector implements ReadingCorrector {
             return null;
         }
         CompensationData.Info info = data.info();
-        boolean current = "A".equals(info.drive());
+        boolean current = "A".equals(info.driveMode());
         return uncertainty(raw, rawU,
                 z -> accuracy.uncertainty(z, info.level(), current, info.integrationS()).orElse(null));
     }

@@ -61,11 +61,10 @@ class DeratingTest {
         assertEquals(d.dropsU().get(10), d.biasAtDropU(10), 0);
         assertNull(d.dropsU().get(20));
         assertTrue(Double.isNaN(d.biasAtDropU(20)));
-        // the same crossing by Monte Carlo (JCGM 101:2008, 7.2): draw the three values, interpolate; 200,000
-        // draws put the standard deviation within about 0.3 % of the linear figure (the model is nearly
-        // linear at this u)
+        // the same crossing by Monte Carlo (JCGM 101:2008, 7.2): draw the three values, interpolate; 20,000
+        // draws estimate a standard deviation to about 0.5 % (1σ), the model being nearly linear at this u
         java.util.SplittableRandom rnd = new java.util.SplittableRandom(12);
-        int n = 200_000;
+        int n = 20_000;
         double sum = 0;
         double sum2 = 0;
         for (int k = 0; k < n; k++) {
@@ -76,7 +75,7 @@ class DeratingTest {
             sum2 += at * at;
         }
         double sd = Math.sqrt(sum2 / n - (sum / n) * (sum / n));
-        assertEquals(d.dropsU().get(10), sd, 0.01 * sd);
+        assertEquals(d.dropsU().get(10), sd, 0.025 * sd);
         // a crossing right after the reference point: the reference value is also the one before it
         Derating first = Derating.of("ls_h", 100e3, 0.1, "A", new double[] {0, 1}, new double[] {10e-6, 8e-6},
                 new double[] {20e-9, 20e-9}, Derating.INDUCTOR_DROPS);

@@ -154,8 +154,8 @@ class SimulatedBenchFitTest {
     }
 
     static PointRequest request(double frequencyHz, double levelV, int averages, long key) {
-        return new PointRequest(false, frequencyHz, SourceKind.VOLTAGE, levelV, SourceKind.VOLTAGE, 0, false,
-                averages, APERTURE_S, Double.NaN, key);
+        return PointRequest.at(frequencyHz).drive(SourceKind.VOLTAGE, levelV).averages(averages).apertureS(APERTURE_S)
+                .noiseKey(key).build();
     }
 
     /** Residual i's standard deviation (class comment), with the standards' 10 % allowance. */

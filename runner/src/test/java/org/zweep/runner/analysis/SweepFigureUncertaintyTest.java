@@ -66,6 +66,37 @@ class SweepFigureUncertaintyTest {
     }
 
     @Test
+    void theSaturationCurrentIsJudgedWithTheUncertaintyOfItsInterpolatedCrossing() throws Exception {
+        // a 10 µH inductor (0.1 Ω) at 100 kHz falling to 9.5, 8.5 and 7 µH at 1, 2 and 3 A: down 10 % at 1.5 A
+        double w = 2 * Math.PI * 100e3;
+        double[] henries = {10e-6, 9.5e-6, 8.5e-6, 7e-6};
+        java.util.function.Function<Double, Path> run = min -> {
+            try {
+                TestRunFolders t = new TestRunFolders(tmp.resolve("sat-" + min)).part("inductor", "L", 10e-6, "H", null,
+                        null).uncertainty(1e-3);
+                for (int i = 0; i < henries.length; i++) {
+                    t.impedance("bias", List.of(new Impedance(100e3, 0.1, w * henries[i])), "V", 0.5, "A", i, "none", 0);
+                }
+                return t.check("sat", "saturation", "bias", 100e3, min, null)
+                        .withDrop(10.0, "guarded").write();
+            } catch (Exception e) {
+                throw new IllegalStateException(e);
+            }
+        };
+        AnalysisResult a = Analysis.analyze(RunData.read(run.apply(1.499)), null);
+        Derating d = a.steps().get(0).derating().get(0);
+        assertEquals(1.5, d.drops().get(10), 1e-9);
+        double u = d.dropsU().get(10);
+        // u(L) ≈ 1e-3·|Z|/ω ≈ 1e-3·L; ∂I/∂L = 0.5, 0.5, −0.9 A/µH (see DeratingTest): about 11 mA
+        assertTrue(u > 5e-3 && u < 20e-3, "u " + u);
+        CheckOutcome c = only(a);
+        assertEquals(2 * u, c.expandedU(), 1e-12); // U = k·u, k = 2 (JCGM 100:2008, 6.2.1)
+        // 1.5 A lies 1 mA above a 1.499 A minimum, well within U: not a proven pass
+        assertEquals(CheckOutcome.Verdict.CONDITIONAL_PASS, c.verdict());
+        assertEquals(CheckOutcome.Verdict.PASS, only(Analysis.analyze(RunData.read(run.apply(1.4)), null)).verdict());
+    }
+
+    @Test
     void anUnweightedFitsFigureHasNoUncertaintyForADecision() throws Exception {
         List<Impedance> sweep = Sweeps.sweep(Sweeps.logSpaced(1e6, 30e6, 31), Sweeps.seriesRlc(0.02, 1e-9, 100e-9));
         Path dir = new TestRunFolders(tmp.resolve("plain")).impedance("sweep", sweep, "V", 1.0, "V", 0.0, "none", 0)

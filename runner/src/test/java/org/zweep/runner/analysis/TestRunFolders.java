@@ -87,6 +87,14 @@ public final class TestRunFolders {
         return this;
     }
 
+    /** The last check made a {@code saturation} check: the bias at a {@code dropPercent} % drop, under {@code rule}. */
+    public TestRunFolders withDrop(double dropPercent, String rule) {
+        RunManifest.CheckInfo c = checks.remove(checks.size() - 1);
+        checks.add(new RunManifest.CheckInfo(c.name(), c.parameter(), c.step(), c.frequencyHz(), c.min(), c.max(), null,
+                null, dropPercent, rule));
+        return this;
+    }
+
     /**
      * A transformer run, all figures computed: L1 = 10 mH, n = 4, k = 0.99, so Lsc1 = L1(1 − k²) = 199.0 µH and
      * V1/V2 = L1/M = 4.0404; steps {@code open}, {@code short} and {@code ratio}, at 1 kHz.

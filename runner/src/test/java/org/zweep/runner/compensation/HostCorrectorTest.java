@@ -4,6 +4,8 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
 import java.nio.file.Path;
 import java.time.Instant;
 import java.util.ArrayList;
@@ -102,5 +104,15 @@ class HostCorrectorTest {
         Path f = dir.resolve("c/host.csv");
         d.write(f);
         assertEquals(d, CompensationData.read(f));
+    }
+
+    @Test
+    void settingsFileKeepsItsFieldNames(@TempDir Path dir) throws Exception {
+        new CompensationData(info(List.of("OPEN")), List.of(e(CorrectionStandard.OPEN, 1e3, 1e-3, -1.0e7)))
+                .write(dir.resolve("host.csv"));
+        JsonNode n = new ObjectMapper().readTree(dir.resolve("host.json").toFile());
+        assertEquals("FOUR_TERMINAL", n.get("connection").asText());
+        assertEquals("V", n.get("drive").asText());
+        assertTrue(n.get("terminals") == null && n.get("drive_mode") == null, n.toString());
     }
 }

@@ -91,9 +91,11 @@ class ShippedSequencesOnBenchTest {
 
     private static Complex raw(Bench bench, FixtureSlot slot, MeasurementSetting s, long key) {
         bench.setSlot(slot);
-        var r = bench.measure(new PointRequest(s.quantity() == MeasuredQuantity.VOLTAGE_RATIO, s.frequencyHz(),
-                kind(s.drive().mode()), s.drive().levelRms(), kind(s.bias().mode()), s.bias().value(), s.bias().on(),
-                s.averagingCount(), s.integrationTimeS(), s.range().auto() ? Double.NaN : s.range().upperOhm(), key));
+        var r = bench.measure(PointRequest.at(s.frequencyHz()).voltageRatio(s.quantity() == MeasuredQuantity.VOLTAGE_RATIO)
+                .drive(kind(s.drive().mode()), s.drive().levelRms())
+                .bias(kind(s.bias().mode()), s.bias().value(), s.bias().on()).averages(s.averagingCount())
+                .apertureS(s.integrationTimeS()).rangeUpperOhm(s.range().auto() ? Double.NaN : s.range().upperOhm())
+                .noiseKey(key).build());
         assertFalse(r.overload(), s.toString());
         return new Complex(r.real(), r.imaginary());
     }

@@ -92,10 +92,10 @@ public final class MeterCorrection {
         List<Sample> samples = new ArrayList<>();
         double duration = 0;
         for (int i = 0; i < frequenciesHz.length; i++) {
-            PointRequest r = new PointRequest(false, frequenciesHz[i], template.drive(),
-                    template.driveLevelRms(), template.bias(), template.biasValue(),
-                    template.biasOn(), template.averages(), template.apertureS(),
-                    template.rangeUpperOhm(), template.noiseKey() + i);
+            PointRequest r = PointRequest.at(frequenciesHz[i]).drive(template.drive(), template.driveLevelRms())
+                    .bias(template.bias(), template.biasValue(), template.biasOn()).averages(template.averages())
+                    .apertureS(template.apertureS()).rangeUpperOhm(template.rangeUpperOhm())
+                    .noiseKey(template.noiseKey() + i).build();
             PointResult p = bench.measure(r);
             samples.add(new Sample(frequenciesHz[i], p.real(), p.imaginary(), p.overload()));
             duration += p.durationS();

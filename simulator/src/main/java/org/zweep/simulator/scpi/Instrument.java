@@ -461,11 +461,10 @@ public final class Instrument implements AutoCloseable {
     private static PointRequest request(Settings s, boolean ratio, double f, double level, double biasVoltageV,
             double range, long key) {
         boolean currentBias = s.currentBiasOn;
-        return new PointRequest(ratio, f, s.drive, level,
-                currentBias ? SourceKind.CURRENT : SourceKind.VOLTAGE,
-                currentBias ? s.biasCurrentA : biasVoltageV,
-                s.voltageBiasOn || s.currentBiasOn,
-                s.averages, s.apertureS, range, key);
+        return PointRequest.at(f).voltageRatio(ratio).drive(s.drive, level)
+                .bias(currentBias ? SourceKind.CURRENT : SourceKind.VOLTAGE, currentBias ? s.biasCurrentA : biasVoltageV,
+                        s.voltageBiasOn || s.currentBiasOn)
+                .averages(s.averages).apertureS(s.apertureS).rangeUpperOhm(range).noiseKey(key).build();
     }
 
     /**

@@ -99,17 +99,15 @@ class NoiseAndTimingTest {
         // the documented timing model (README, formats-simulator)
         SimulatedBench b = Requests.bench("meter:\n  timing: real\n  point_overhead_s: 0.002\n"
                 + "  bias_settling_s: 0.05\ndevice:\n  capacitor:\n    capacitance_f: 1e-6\n");
-        PointRequest plain = new PointRequest(false, 1e3, SourceKind.VOLTAGE, 1, SourceKind.VOLTAGE,
-                0, false, 4, 0.1, Double.NaN, 1);
+        PointRequest plain = PointRequest.at(1e3).averages(4).apertureS(0.1).build();
         assertEquals(0.402, b.measure(plain).durationS(), 1e-12);
-        PointRequest biased = new PointRequest(false, 1e3, SourceKind.VOLTAGE, 1,
-                SourceKind.VOLTAGE, 2, true, 4, 0.1, Double.NaN, 2);
+        PointRequest biased = PointRequest.at(1e3).bias(SourceKind.VOLTAGE, 2, true).averages(4).apertureS(0.1)
+                .noiseKey(2).build();
         assertEquals(0.452, b.measure(biased).durationS(), 1e-12);
         assertEquals(0.402, b.measure(biased).durationS(), 1e-12);
         assertEquals(0.452, b.measure(plain).durationS(), 1e-12);
         // at 10 Hz one integration lasts at least two periods (0.2 s), not the 10 ms aperture
-        PointRequest slow = new PointRequest(false, 10, SourceKind.VOLTAGE, 1, SourceKind.VOLTAGE,
-                0, false, 1, 0.01, Double.NaN, 3);
+        PointRequest slow = PointRequest.at(10).noiseKey(3).build();
         assertEquals(0.202, b.measure(slow).durationS(), 1e-12);
     }
 

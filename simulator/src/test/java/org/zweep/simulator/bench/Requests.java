@@ -1,45 +1,38 @@
 package org.zweep.simulator.bench;
 
-/** Point requests for tests: 1 V, no bias, one average, 10 ms, automatic range. */
+/** Point requests for tests, from {@link PointRequest#at}'s defaults: 1 V, no bias, one average, 10 ms, automatic range. */
 final class Requests {
 
     private Requests() {
     }
 
     static PointRequest at(double frequencyHz) {
-        return new PointRequest(false, frequencyHz, SourceKind.VOLTAGE, 1.0, SourceKind.VOLTAGE, 0,
-                false, 1, 0.01, Double.NaN, 1);
+        return PointRequest.at(frequencyHz).build();
     }
 
     static PointRequest voltage(double frequencyHz, double levelVrms) {
-        return new PointRequest(false, frequencyHz, SourceKind.VOLTAGE, levelVrms,
-                SourceKind.VOLTAGE, 0, false, 1, 0.01, Double.NaN, 1);
+        return PointRequest.at(frequencyHz).drive(SourceKind.VOLTAGE, levelVrms).build();
     }
 
     static PointRequest current(double frequencyHz, double levelArms) {
-        return new PointRequest(false, frequencyHz, SourceKind.CURRENT, levelArms,
-                SourceKind.VOLTAGE, 0, false, 1, 0.01, Double.NaN, 1);
+        return PointRequest.at(frequencyHz).drive(SourceKind.CURRENT, levelArms).build();
     }
 
     static PointRequest biased(double frequencyHz, double levelVrms, SourceKind bias,
             double biasValue) {
-        return new PointRequest(false, frequencyHz, SourceKind.VOLTAGE, levelVrms, bias, biasValue,
-                true, 1, 0.01, Double.NaN, 1);
+        return PointRequest.at(frequencyHz).drive(SourceKind.VOLTAGE, levelVrms).bias(bias, biasValue, true).build();
     }
 
     static PointRequest ratio(double frequencyHz) {
-        return new PointRequest(true, frequencyHz, SourceKind.VOLTAGE, 1.0, SourceKind.VOLTAGE, 0,
-                false, 1, 0.01, Double.NaN, 1);
+        return PointRequest.at(frequencyHz).voltageRatio(true).build();
     }
 
     static PointRequest keyed(double frequencyHz, long key, double apertureS, int averages) {
-        return new PointRequest(false, frequencyHz, SourceKind.VOLTAGE, 1.0, SourceKind.VOLTAGE, 0,
-                false, averages, apertureS, Double.NaN, key);
+        return PointRequest.at(frequencyHz).averages(averages).apertureS(apertureS).noiseKey(key).build();
     }
 
     static PointRequest held(double frequencyHz, double rangeOhm) {
-        return new PointRequest(false, frequencyHz, SourceKind.VOLTAGE, 1.0, SourceKind.VOLTAGE, 0,
-                false, 1, 0.01, rangeOhm, 1);
+        return PointRequest.at(frequencyHz).rangeUpperOhm(rangeOhm).build();
     }
 
     /** A bench from bench-file text (no netlist files). */
