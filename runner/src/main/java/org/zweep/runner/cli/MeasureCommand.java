@@ -32,6 +32,7 @@ import org.zweep.runner.safety.BiasOffHook;
 import org.zweep.runner.safety.BiasRamp;
 import org.zweep.runner.safety.SafetyGuard;
 import org.zweep.runner.sequence.SequenceLoader;
+import org.zweep.runner.sequence.SourceValues;
 import org.zweep.runner.engine.ScpiMeterLink;
 import org.zweep.runner.sim.MeterLinks;
 import picocli.CommandLine.Command;
@@ -192,17 +193,10 @@ public final class MeasureCommand implements Callable<Integer> {
 
     /** A ramp rate such as {@code 2V/s} or {@code 500 mA/s}, in the bias's unit per second. */
     private static double rate(String text, SourceMode mode) {
-        Unit unit = mode == SourceMode.VOLTAGE ? Unit.VOLT : Unit.AMPERE;
-        String t = text.strip();
-        String per = unit.symbol() + "/s";
         try {
-            if (!t.endsWith(per)) {
-                throw new InvalidInputException(t);
-            }
-            return Quantities.parse(t.substring(0, t.length() - 2), unit, Unit.Bound.POSITIVE);
+            return SourceValues.ratePerS(text.strip(), unit(mode));
         } catch (InvalidInputException e) {
-            throw new InvalidInputException("--ramp '" + text + "': expected a rate above zero in " + per
-                    + " (the bias's unit per second), e.g. 2" + per);
+            throw new InvalidInputException("--ramp: " + e.getMessage() + " (the bias's unit per second)");
         }
     }
 
@@ -244,27 +238,20 @@ public final class MeasureCommand implements Callable<Integer> {
     }
 
     private static Drive level(String text) {
-        try {
-            return Drive.voltage(Quantities.parse(text, Unit.VOLT, Unit.Bound.POSITIVE));
-        } catch (InvalidInputException e) {
-            try {
-                return Drive.current(Quantities.parse(text, Unit.AMPERE, Unit.Bound.POSITIVE));
-            } catch (InvalidInputException e2) {
-                throw new InvalidInputException("--level '" + text + "': expected a positive level in V or A rms,"
-                        + " e.g. 0.5V or 10mA");
-            }
-        }
+        SourceValues.Value v = source("--level", text.strip(), "a drive level", Unit.Bound.POSITIVE);
+        return v.unit() == Unit.VOLT ? Drive.voltage(v.si()) : Drive.current(v.si());
     }
 
     private static Bias bias(String text) {
+        SourceValues.Value v = source("--bias", text.strip(), "a DC bias", Unit.Bound.ANY);
+        return v.unit() == Unit.VOLT ? Bias.voltage(v.si()) : Bias.current(v.si());
+    }
+
+    private static SourceValues.Value source(String option, String text, String kind, Unit.Bound bound) {
         try {
-            return Bias.voltage(Quantities.parse(text, Unit.VOLT));
+            return SourceValues.parse(text, kind, null, bound);
         } catch (InvalidInputException e) {
-            try {
-                return Bias.current(Quantities.parse(text, Unit.AMPERE));
-            } catch (InvalidInputException e2) {
-                throw new InvalidInputException("--bias '" + text + "': expected a DC bias in V or A, e.g. 2V or 100mA");
-            }
+            throw new InvalidInputException(option + ": " + e.getMessage());
         }
     }
 }

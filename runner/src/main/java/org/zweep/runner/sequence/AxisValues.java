@@ -37,11 +37,11 @@ record AxisValues(List<Double> values, Unit unit, YamlNode node) {
         }
 
         /** One value; a source must be in {@code only} when that is not {@code null}. */
-        Units.Value value(YamlNode node, Unit only) {
+        SourceValues.Value value(YamlNode node, Unit only) {
             if (source) {
                 return Units.source(node, noun, only, bound);
             }
-            return new Units.Value(Units.parse(node, Unit.HERTZ, bound), Unit.HERTZ);
+            return new SourceValues.Value(Units.parse(node, Unit.HERTZ, bound), Unit.HERTZ);
         }
     }
 
@@ -65,22 +65,22 @@ record AxisValues(List<Double> values, Unit unit, YamlNode node) {
             List<Double> values = new ArrayList<>();
             Unit unit = null;
             for (YamlNode item : items) {
-                Units.Value v = kind.value(item, unit);
+                SourceValues.Value v = kind.value(item, unit);
                 unit = v.unit();
                 values.add(v.si());
             }
             return new AxisValues(values, unit, node);
         }
-        Units.Value v = kind.value(node, null);
+        SourceValues.Value v = kind.value(node, null);
         return new AxisValues(List.of(v.si()), v.unit(), node);
     }
 
     /** Reads a {@code {start, stop, points | per_decade, spacing}} mapping already checked for its keys. */
     static AxisValues range(YamlNode.YamlMap m, Kind kind) {
         YamlNode startNode = m.required("start");
-        Units.Value start = kind.value(startNode, null);
+        SourceValues.Value start = kind.value(startNode, null);
         YamlNode stopNode = m.required("stop");
-        Units.Value stop = kind.value(stopNode, start.unit());
+        SourceValues.Value stop = kind.value(stopNode, start.unit());
         if (stop.si() < start.si()) {
             throw stopNode.error("stop " + Units.format(stop.si(), stop.unit()) + " is below start "
                     + Units.format(start.si(), start.unit()));
@@ -139,7 +139,7 @@ record AxisValues(List<Double> values, Unit unit, YamlNode node) {
         return new AxisValues(values, start.unit(), m.self());
     }
 
-    private static void checkLogStart(YamlNode startNode, Units.Value start) {
+    private static void checkLogStart(YamlNode startNode, SourceValues.Value start) {
         if (start.si() <= 0) {
             throw startNode.error("a logarithmic sweep needs a start above zero, got '" + startNode.text("") + "'");
         }

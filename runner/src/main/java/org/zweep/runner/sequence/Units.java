@@ -20,10 +20,6 @@ final class Units {
     private Units() {
     }
 
-    /** A value in SI units and the unit it was given in. */
-    record Value(double si, Unit unit) {
-    }
-
     /** The node's value in {@code unit} with the unit's default bound (frequencies positive, times not negative). */
     static double parse(YamlNode node, Unit unit) {
         return parse(node, unit, unit.defaultBound());
@@ -40,32 +36,27 @@ final class Units {
     }
 
     /**
-     * A source value (drive level or DC bias) in V or A; the unit must be written, since it
-     * decides whether the source is a voltage or a current.
+     * A source value (drive level or DC bias) in V or A ({@link SourceValues#parse}); the unit must
+     * be written, since it decides whether the source is a voltage or a current.
      *
      * @param only when not {@code null}, the one unit accepted (the unit of earlier values)
      */
-    static Value source(YamlNode node, String kind, Unit only, Unit.Bound bound) {
+    static SourceValues.Value source(YamlNode node, String kind, Unit only, Unit.Bound bound) {
         String text = node.text(kind);
-        Unit unit = text.endsWith("V") ? Unit.VOLT : text.endsWith("A") ? Unit.AMPERE : null;
-        if (unit == null || (only != null && unit != only)) {
-            String expected = only == null ? "V or A" : only.symbol();
-            throw node.error("expected " + kind + " in " + expected + ", got '" + text + "'");
+        try {
+            return SourceValues.parse(text, kind, only, bound);
+        } catch (InvalidInputException e) {
+            throw node.error(e.getMessage());
         }
-        return new Value(parse(node, unit, bound), unit);
     }
 
-    /** A ramp rate in {@code unit}/s (e.g. {@code 1 V/s}, {@code 500 mA/s}), above zero. */
+    /** A ramp rate in {@code unit}/s ({@link SourceValues#ratePerS}: {@code 1 V/s}, {@code 500 mA/s}), above zero. */
     static double ratePerS(YamlNode node, Unit unit) {
         String text = node.text("a ramp rate");
-        String per = unit.symbol() + "/s";
-        if (!text.endsWith(per)) {
-            throw node.error("expected a ramp rate in " + per + ", got '" + text + "'");
-        }
         try {
-            return Quantities.parse(text.substring(0, text.length() - 2), unit, Unit.Bound.POSITIVE);
+            return SourceValues.ratePerS(text, unit);
         } catch (InvalidInputException e) {
-            throw node.error("expected a ramp rate above zero in " + per + ", got '" + text + "'");
+            throw node.error(e.getMessage());
         }
     }
 
