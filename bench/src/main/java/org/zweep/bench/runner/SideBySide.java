@@ -24,8 +24,8 @@ import org.zweep.simulator.server.SimulatorServer;
  * {@code java -cp bench/target/benchmarks.jar org.zweep.bench.runner.SideBySide [REPO [ROUNDS]]}
  * (after {@code mvn -B -DskipTests -pl bench -am package}).
  *
- * <p>Side A is {@code java -jar runner/target/zweep.jar run} as a process, as a user runs it
- * (what the {@code zweep} launcher execs). Side B is {@code bench/scripts/pyvisa_sweep.py} on
+ * <p>Side A is the {@code zweep} launcher's {@code run} as a process, as a user runs it (the jar
+ * with the launcher's class-data archive), with {@code --no-index}: the script keeps no index either. Side B is {@code bench/scripts/pyvisa_sweep.py} on
  * Debian's {@code python3-pyvisa-py}. Both sweep the same linear frequencies, write every row
  * to a CSV file and fsync it before the next trigger (per point, or per list of 201). The two
  * alternate A B A B; the medians of ROUNDS (default 5) runs are printed with their ratio. With
@@ -51,11 +51,15 @@ public final class SideBySide {
         Path repo = Path.of(args.length > 0 ? args[0] : ".").toAbsolutePath().normalize();
         int rounds = args.length > 1 ? Integer.parseInt(args[1]) : 5;
         Path jar = repo.resolve("runner/target/zweep.jar");
+        Path launcher = repo.resolve("zweep");
         Path script = repo.resolve("bench/scripts/pyvisa_sweep.py");
         if (!Files.isRegularFile(jar)) {
             throw new IllegalStateException("build the jar first: mvn -B -DskipTests -pl bench -am package");
         }
         Path dir = Files.createTempDirectory("zweep-side-by-side");
+        // the launcher's first start after a build makes its class-data archive: not measured
+        time(List.of(launcher.toString(), "--version"));
+        System.out.printf(Locale.ROOT, "load average at start: %s%n", load());
         List<Case> cases = List.of(
                 new Case("point by point, timing none", Timing.NONE, 200, 0),
                 new Case("point by point, timing none", Timing.NONE, 2000, 0),
@@ -81,8 +85,8 @@ public final class SideBySide {
                 double[] mb = new double[rounds];
                 for (int r = 0; r < rounds; r++) {
                     meterS.reset();
-                    a[r] = time(List.of("java", "-jar", jar.toString(), "run", seq.toString(), "--yes", "--quiet",
-                            "--out", dir.resolve("zweep-" + c + "-" + r).toString()));
+                    a[r] = time(List.of(launcher.toString(), "run", seq.toString(), "--yes", "--quiet",
+                            "--out", dir.resolve("zweep-" + c + "-" + r).toString(), "--no-index"));
                     ma[r] = meterS.sum();
                     meterS.reset();
                     b[r] = time(List.of(PYTHON, script.toString(), "127.0.0.1", Integer.toString(server.port()),
@@ -97,8 +101,8 @@ public final class SideBySide {
                 String vsMeter = k.timing() == Timing.REAL
                         ? String.format(Locale.ROOT, "%14.3f %14.3f", am / median(ma), bm / median(mb))
                         : String.format(Locale.ROOT, "%14s %14s", "-", "-");
-                System.out.printf(Locale.ROOT, "%-42s %6d %10.3f s %10.3f s %7.2f %s%n", k.name(), k.points(), am,
-                        bm, am / bm, vsMeter);
+                System.out.printf(Locale.ROOT, "%-42s %6d %10.3f s %10.3f s %7.2f %s  load %s%n", k.name(), k.points(),
+                        am, bm, am / bm, vsMeter, load());
             }
         }
         for (int c = 0; c + 1 < 4; c += 2) {
@@ -108,15 +112,39 @@ public final class SideBySide {
             System.out.printf(Locale.ROOT, "host cost per point (slope 200 -> 2000), %s: zweep %.0f us, script %.0f us,"
                     + " ratio %.2f%n", cases.get(c).list() == 0 ? "point by point" : "lists of 201", za, zb, za / zb);
         }
-        System.out.printf(Locale.ROOT, "start-up: %s%n", startup(jar));
+        System.out.printf(Locale.ROOT, "start-up: %s, load %s%n", startup(launcher, dir), load());
     }
 
-    private static String startup(Path jar) throws IOException, InterruptedException {
-        double[] v = new double[7];
-        for (int i = 0; i < v.length; i++) {
-            v[i] = time(List.of("java", "-jar", jar.toString(), "--version"));
+    /**
+     * {@code zweep --version} through the launcher against a hello-world JVM (a class of its own
+     * in a folder), alternating, 20 runs each.
+     */
+    private static String startup(Path launcher, Path dir) throws IOException, InterruptedException {
+        Path classes = dir.resolve("hello");
+        Path cls = classes.resolve(HelloWorld.class.getName().replace('.', '/') + ".class");
+        Files.createDirectories(cls.getParent());
+        try (var in = SideBySide.class.getResourceAsStream("/" + HelloWorld.class.getName().replace('.', '/')
+                + ".class")) {
+            Files.write(cls, in.readAllBytes());
         }
-        return String.format(Locale.ROOT, "zweep --version median %.3f s (java -jar, %d runs)", median(v), v.length);
+        double[] z = new double[20];
+        double[] h = new double[20];
+        for (int i = 0; i < z.length; i++) {
+            h[i] = time(List.of("java", "-cp", classes.toString(), HelloWorld.class.getName()));
+            z[i] = time(List.of(launcher.toString(), "--version"));
+        }
+        return String.format(Locale.ROOT, "zweep --version (the launcher) median %.3f s, hello-world JVM median %.3f s,"
+                + " ratio %.2f (%d runs each, alternating)", median(z), median(h), median(z) / median(h), z.length);
+    }
+
+    /** The 1, 5 and 15 minute load averages. */
+    private static String load() {
+        try {
+            String[] f = Files.readString(Path.of("/proc/loadavg")).trim().split("\\s+");
+            return f[0] + " " + f[1] + " " + f[2];
+        } catch (IOException e) {
+            return "unknown";
+        }
     }
 
     private static Path sequence(Path dir, Case k, int port) {

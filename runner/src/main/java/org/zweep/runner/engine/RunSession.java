@@ -275,7 +275,9 @@ public final class RunSession {
             String verdict = "none";
             if (result.outcome() == RunResult.Outcome.COMPLETED) {
                 writer.close();
-                outcomes = checks.outcomes(setup.sweepChecks().figures(folder));
+                // the whole-sweep figures read the run again (analysis): only when a check needs them
+                outcomes = checks.outcomes(checks.needsSweepFigures() ? setup.sweepChecks().figures(folder)
+                        : org.zweep.runner.verdict.SweepFigures.NONE);
                 verdict = CheckOutcome.verdictOf(outcomes);
             }
             manifest = manifest.finished(result.outcome().word(), setup.clock().instant().toString(),

@@ -114,6 +114,11 @@ public final class CheckEvaluator {
         return outcome;
     }
 
+    /** Whether any check is judged on a whole-sweep figure (so the run's figures must be found first). */
+    public boolean needsSweepFigures() {
+        return tallies.contains(null);
+    }
+
     /** The outcome of every check, in order; whole-sweep checks take their figure from {@code figures}. */
     public List<CheckOutcome> outcomes(SweepFigures figures) {
         List<CheckOutcome> out = new ArrayList<>();

@@ -25,8 +25,8 @@ import org.zweep.runner.results.RunManifest;
 /**
  * {@code zweep lot} on the simulator's tray bench ({@code lot/kp-c0805-104-tray.bench.yaml}: each
  * serial its own capacitor, three out of limits): ten parts unattended give the lot table and the
- * lot report the parts call for; a lot killed hard in the middle of part 6 and resumed gives the
- * same lot table as an uninterrupted one; {@code compare} takes two lots.
+ * lot report the parts call for; a lot stopped by Ctrl-C at part 3's prompt, resumed, killed hard in
+ * the middle of part 6 and resumed again gives the same lot table as an uninterrupted one; {@code compare} takes two lots.
  */
 class LotIT {
     static final Path SEQ = Sims.sequences().resolve("incoming-kp-c0805-104.yaml");
@@ -168,7 +168,7 @@ class LotIT {
     }
 
     @Test
-    void aLotKilledHardInPartSixAndResumedGivesTheSameLotAsAnUninterruptedOne() throws Exception {
+    void aLotStoppedByCtrlCAndKilledHardInPartSixAndResumedGivesTheSameLotAsAnUninterruptedOne() throws Exception {
         Path ref = dir.resolve("reference");
         Path db = dir.resolve("index.sqlite");
         String meter = "sim:" + TRAY + "?timing=none";
@@ -179,30 +179,21 @@ class LotIT {
 
         Path lot = dir.resolve("killed");
         Path log = dir.resolve("killed.log");
-        Process p = Children.zweepPiped(log, "lot", PROMPTING.toString(), "--lot", "L7", "--count", "10", "--meter",
-                meter, "--dialect", Sims.dialect(), "--seed", "5", "--out", lot.toString(), "--quiet", "--fixture",
-                "stdin", "--db", db.toString());
-        int part = 0;
-        boolean killed = false;
-        try (BufferedReader out = new BufferedReader(new InputStreamReader(p.getInputStream(), StandardCharsets.UTF_8));
-                PrintWriter in = new PrintWriter(p.getOutputStream(), true, StandardCharsets.UTF_8)) {
-            String line;
-            while ((line = out.readLine()) != null) {
-                if (line.matches("part \\d+ of 10: L7-\\d+")) {
-                    part = Integer.parseInt(line.substring(5, line.indexOf(' ', 5)));
-                }
-                if (!line.startsWith("fixture ")) {
-                    continue;
-                }
-                if (part == 6 && line.contains("Check that the part is still seated.")) {
-                    // part 6 has measured its first step and waits before its second: kill -9
-                    Children.signal(p, "KILL");
-                    killed = true;
-                    break;
-                }
-                in.println("ok");
-            }
-        }
+        // Ctrl-C while the lot asks for part 3: the lot stops (exit 130) with parts 1 and 2 complete
+        Process first = Children.zweepPiped(log, "lot", PROMPTING.toString(), "--lot", "L7", "--count", "10",
+                "--meter", meter, "--dialect", Sims.dialect(), "--seed", "5", "--out", lot.toString(), "--quiet",
+                "--fixture", "stdin", "--db", db.toString());
+        assertEquals(3, answerUntil(first, 3, "part 3 of 10: L7-003: put it in the fixture", "INT"));
+        assertTrue(first.waitFor(30, TimeUnit.SECONDS));
+        assertEquals(130, first.exitValue(), "stopped by SIGINT: " + Files.readString(log));
+        assertEquals(List.of("001-L7-001", "002-L7-002"), Files.list(lot).filter(Files::isDirectory)
+                .map(f -> f.getFileName().toString()).sorted().toList());
+
+        // resumed, then killed hard in the middle of part 6
+        Process p = Children.zweepPiped(log, "lot", "--resume", lot.toString(), "--quiet", "--fixture", "stdin",
+                "--db", db.toString());
+        // part 6 has measured its first step and waits before its second: kill -9
+        boolean killed = answerUntil(p, 6, "Check that the part is still seated.", "KILL") == 6;
         assertTrue(p.waitFor(30, TimeUnit.SECONDS));
         assertTrue(killed, "the lot reached the middle of part 6: " + Files.readString(log));
         assertEquals(137, p.exitValue(), "killed by SIGKILL");
@@ -241,6 +232,31 @@ class LotIT {
             assertEquals(0.0, row.at("/mean_difference/1").asDouble(), 0.0, row.toString());
             assertEquals(row.at("/mean/0").asDouble(), row.at("/mean/1").asDouble(), 0.0);
         }
+    }
+
+    /**
+     * Answers {@code ok} to every fixture request of the lot {@code p} until the request containing
+     * {@code text} during part {@code part}, then sends {@code signal}; returns the part it was sent in (0: never).
+     */
+    static int answerUntil(Process p, int part, String text, String signal) throws Exception {
+        int now = 0;
+        BufferedReader out = new BufferedReader(new InputStreamReader(p.getInputStream(), StandardCharsets.UTF_8));
+        PrintWriter in = new PrintWriter(p.getOutputStream(), true, StandardCharsets.UTF_8);
+        String line;
+        while ((line = out.readLine()) != null) {
+            if (line.matches("part \\d+ of 10: L7-\\d+")) {
+                now = Integer.parseInt(line.substring(5, line.indexOf(' ', 5)));
+            }
+            if (!line.startsWith("fixture ")) {
+                continue;
+            }
+            if (now == part && line.contains(text)) {
+                Children.signal(p, signal);
+                return now;
+            }
+            in.println("ok");
+        }
+        return 0;
     }
 
     @Test
