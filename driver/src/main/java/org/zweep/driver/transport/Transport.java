@@ -46,6 +46,23 @@ public interface Transport extends AutoCloseable {
      * @param name the name used in messages, e.g. the address {@code sim:}
      */
     static Transport ofStreams(InputStream in, OutputStream out, String name) {
-        return new StreamTransport(in, out, name);
+        PumpedInput input = new PumpedInput(in, name);
+        return of(input, out, name, () -> {
+            try {
+                out.close();
+            } finally {
+                input.close();
+            }
+        });
+    }
+
+    /**
+     * A transport over an input whose reads take a timeout and an output stream, e.g. an in-process
+     * connection that can wait itself; closing the transport runs {@code onClose} once.
+     *
+     * @param name the name used in messages, e.g. the address {@code sim:}
+     */
+    static Transport of(TimedInput in, OutputStream out, String name, java.io.Closeable onClose) {
+        return new TimedStreamTransport(in, out, name, onClose);
     }
 }

@@ -38,9 +38,10 @@ import picocli.CommandLine.Spec;
             "Prints every parameter of an impedance given by one pair of values at a frequency.",
             "Values take SI prefixes and units (100nF, 4.7 kΩ, 1.5kHz, 2.2Meg) or the IEC 60062 code (4k7, R47, 4u7).",
             "C and L are magnitudes (positive); D, ESR and Rs may be zero; θ is in degrees.",
-            "With --u-r/--u-x/--correlation (or --u-z/--u-theta/--correlation) it also prints the standard",
-            "uncertainty u and the expanded uncertainty U (k = 2) of every parameter, by the law of",
-            "propagation of uncertainty (JCGM 100:2008); a missing u is zero.",
+            "With --u-r/--u-x/--correlation (or --u-z/--u-theta/--correlation) it also prints the standard"
+                + " uncertainty u and the expanded uncertainty U (k = 2) of every parameter, by the law of"
+                + " propagation of uncertainty (JCGM 100:2008), and the Monte Carlo 95 %% interval (JCGM 101:2008)"
+                + " where the linear law does not hold; a missing u is zero.",
             "With --json: one JSON object, SI numbers, null where a value is infinite."
         },
         footer = ExitCode.HELP_LIST)

@@ -87,7 +87,8 @@ public final class MeasureCommand implements Callable<Integer> {
     FixtureOptions fixture;
 
     @Option(names = "--sequence", paramLabel = "FILE",
-            description = "take the safety limits from this sequence's safety section (the options below override)")
+            description = "take the safety limits from this sequence's safety section (--max-bias-voltage,"
+                    + " --max-bias-current, --max-level-voltage, --max-level-current and --ramp override it)")
     Path sequence;
 
     @Option(names = "--max-bias-voltage", paramLabel = "V", description = "largest DC bias voltage (default: the"

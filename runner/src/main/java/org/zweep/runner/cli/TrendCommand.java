@@ -23,9 +23,10 @@ import picocli.CommandLine.Spec;
 /** {@code zweep trend PART --check NAME}: one check's values across runs, with mean, σ and Cpk. */
 @Command(name = "trend", mixinStandardHelpOptions = true,
         description = {"One check's values across the completed runs of a part (its name or a serial) in the"
-                + " results index, oldest first, with their mean, standard deviation (n - 1) and",
-            "Cpk = min(USL - mean, mean - LSL) / (3 sigma) against the check's limits (ISO 22514-2), and a control"
-                + " chart (--chart FILE.png or FILE.svg)."},
+                + " results index, oldest first.",
+            "Prints their mean, standard deviation (n - 1) and Cpk = min(USL - mean, mean - LSL) / (3 sigma)"
+                + " against the check's limits (ISO 22514-2), and draws a control chart (--chart FILE.png or"
+                + " FILE.svg)."},
         footer = ExitCode.HELP_LIST)
 public final class TrendCommand implements Callable<Integer> {
     @Spec

@@ -152,6 +152,23 @@ public final class ReconnectingMeter implements Meter {
         return call(() -> s == null ? "measuring" : "measuring at " + at(s), s, Meter::measure);
     }
 
+    /**
+     * As {@link #measure()}, for a point whose trigger waits {@code delayS} after its setting (the
+     * caller waited it once): when the measurement is repeated after a reconnect, the setting is
+     * applied again and the delay is waited again before the trigger.
+     */
+    public Reading measure(double delayS) {
+        MeasurementSetting s = lastSetting;
+        boolean[] repeated = {false};
+        return call(() -> s == null ? "measuring" : "measuring at " + at(s), s, m -> {
+            if (repeated[0]) {
+                waiter.waitS(delayS);
+            }
+            repeated[0] = true;
+            return m.measure();
+        });
+    }
+
     @Override
     public Reading measureAt(MeasurementSetting setting) {
         return call(() -> "measuring at " + at(setting), setting, m -> sent(m, setting, () -> m.measureAt(setting)));

@@ -28,26 +28,26 @@ public final class ScpiMeterLink implements MeterLink {
      * @param fixture the fixture the meter switches on a session when its dialect declares none, or
      *     null
      */
-    public record Bench(boolean timed, Function<ScpiSession, FixtureControl> fixture) {
+    public record LinkOptions(boolean timed, Function<ScpiSession, FixtureControl> fixture) {
         /** A meter on a real link: timed, its fixture as its dialect declares. */
-        public static final Bench REAL = new Bench(true, null);
+        public static final LinkOptions REAL = new LinkOptions(true, null);
     }
 
     private final String address;
     private final Dialect dialect;
     private final Supplier<ScpiSession> connector;
     private final Runnable onClose;
-    private final Bench bench;
+    private final LinkOptions options;
     private volatile ScpiSession session;
     private volatile DialectMeter meter;
 
     private ScpiMeterLink(String address, Dialect dialect, Supplier<ScpiSession> connector, Runnable onClose,
-            Bench bench) {
+            LinkOptions options) {
         this.address = address;
         this.dialect = dialect;
         this.connector = connector;
         this.onClose = onClose;
-        this.bench = bench;
+        this.options = options;
     }
 
     /**
@@ -61,13 +61,13 @@ public final class ScpiMeterLink implements MeterLink {
      */
     public static ScpiMeterLink open(String address, Dialect dialect, Supplier<ScpiSession> connector,
             Runnable onClose) {
-        return open(address, dialect, connector, onClose, Bench.REAL);
+        return open(address, dialect, connector, onClose, LinkOptions.REAL);
     }
 
-    /** As {@link #open(String, Dialect, Supplier, Runnable)}, with what is known of the meter's bench. */
+    /** As {@link #open(String, Dialect, Supplier, Runnable)}, with what is known of the meter beyond its dialect. */
     public static ScpiMeterLink open(String address, Dialect dialect, Supplier<ScpiSession> connector,
-            Runnable onClose, Bench bench) {
-        ScpiMeterLink link = new ScpiMeterLink(address, dialect, connector, onClose, bench);
+            Runnable onClose, LinkOptions options) {
+        ScpiMeterLink link = new ScpiMeterLink(address, dialect, connector, onClose, options);
         // a link that breaks while the meter is being identified is opened again, as a reconnect
         // would be; a meter that cannot be reached at all fails at once
         for (int attempt = 1;; attempt++) {
@@ -160,15 +160,15 @@ public final class ScpiMeterLink implements MeterLink {
     @Override
     public Optional<FixtureControl> fixtureControl() {
         Optional<FixtureControl> own = meter.fixture();
-        if (own.isPresent() || bench.fixture() == null) {
+        if (own.isPresent() || options.fixture() == null) {
             return own;
         }
-        return Optional.of(bench.fixture().apply(session));
+        return Optional.of(options.fixture().apply(session));
     }
 
     @Override
     public boolean timed() {
-        return bench.timed();
+        return options.timed();
     }
 
     @Override

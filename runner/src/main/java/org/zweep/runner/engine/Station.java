@@ -173,7 +173,7 @@ public final class Station {
         }
         moveTo(s, bias);
         waiter.waitS(delayS);
-        return meter.measure();
+        return meter.measure(delayS);
     }
 
     /** Measures a list of settings that differ only in frequency with the meter's list sweep. */

@@ -171,7 +171,7 @@ public final class InProcessSimulator implements AutoCloseable {
      * @param name the name used in messages, e.g. the address
      */
     public static Transport transport(InMemoryConnection connection, String name) {
-        return new InMemoryTransport(connection, name);
+        return Transport.of(connection::read, connection.output(), name, connection::close);
     }
 
     /** A new in-memory connection as a SCPI session. */

@@ -45,7 +45,7 @@ public final class MeterLinks {
             InProcessSimulator sim = InProcessSimulator.start(address);
             try {
                 return ScpiMeterLink.open(address, dialect, () -> sim.connect(settings), sim::close,
-                        new ScpiMeterLink.Bench(sim.timed(), SimulatorFixture::new));
+                        new ScpiMeterLink.LinkOptions(sim.timed(), SimulatorFixture::new));
             } catch (RuntimeException e) {
                 sim.close();
                 throw e;
@@ -80,7 +80,7 @@ public final class MeterLinks {
             }
         }
         return ScpiMeterLink.open(address, dialect, () -> ScpiClient.open(tcp, settings), () -> { },
-                new ScpiMeterLink.Bench(timed, SimulatorFixture::new));
+                new ScpiMeterLink.LinkOptions(timed, SimulatorFixture::new));
     }
 
     /**

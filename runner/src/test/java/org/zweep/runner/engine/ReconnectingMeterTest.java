@@ -48,6 +48,17 @@ class ReconnectingMeterTest {
     }
 
     @Test
+    void thePointsDelayIsWaitedAgainBeforeARepeatedTrigger() {
+        ReconnectingMeter m = meter();
+        m.apply(MeasurementSetting.at(1000));
+        bench.dropAtMeasure.add(1);
+        Reading r = m.measure(0.3);
+        // arithmetic from the inputs above: 0.1 s back-off, the setting again, then 0.3 s before the trigger
+        double measuredS = (r.timestamp().getEpochSecond() - 1_700_000_000L) + r.timestamp().getNano() / 1e9;
+        assertEquals(0.1 + 0.3 + 0.01, measuredS, 1e-9);
+    }
+
+    @Test
     void reconnectSwitchesTheMetersOwnCorrectionBackOnBeforeRepeatingTheCall() {
         ReconnectingMeter m = meter();
         m.setCorrectionEnabled(true);

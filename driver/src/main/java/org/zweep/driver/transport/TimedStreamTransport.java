@@ -1,25 +1,26 @@
-package org.zweep.runner.sim;
+package org.zweep.driver.transport;
 
+import java.io.Closeable;
 import java.io.IOException;
 import java.io.InterruptedIOException;
-import org.zweep.driver.transport.ConnectionLostException;
-import org.zweep.driver.transport.Transport;
-import org.zweep.simulator.server.InMemoryConnection;
+import java.io.OutputStream;
 
 /**
- * A {@link Transport} straight over an in-process simulator connection: reads wait on the
- * connection itself with their timeout, on the caller's thread, so a reply reaches the client
- * with no pump thread in between (unlike {@link Transport#ofStreams}). Not thread-safe, as any
- * transport: one reader and one writer.
+ * {@link Transport#of}: a timed input and an output stream as a transport; the one bookkeeping of
+ * closing and of what a failed read or write means, for every stream-like link.
  */
-final class InMemoryTransport implements Transport {
-    private final InMemoryConnection connection;
+final class TimedStreamTransport implements Transport {
+    private final TimedInput in;
+    private final OutputStream out;
     private final String name;
+    private final Closeable onClose;
     private volatile boolean closed;
 
-    InMemoryTransport(InMemoryConnection connection, String name) {
-        this.connection = connection;
+    TimedStreamTransport(TimedInput in, OutputStream out, String name, Closeable onClose) {
+        this.in = in;
+        this.out = out;
         this.name = name;
+        this.onClose = onClose;
     }
 
     @Override
@@ -33,7 +34,8 @@ final class InMemoryTransport implements Transport {
             throw new ConnectionLostException(name + ": cannot write, the connection is closed");
         }
         try {
-            connection.output().write(data, offset, length);
+            out.write(data, offset, length);
+            out.flush();
         } catch (IOException e) {
             throw new ConnectionLostException(name + ": link broke while writing: " + e.getMessage(), e);
         }
@@ -46,7 +48,7 @@ final class InMemoryTransport implements Transport {
         }
         int n;
         try {
-            n = connection.read(buffer, offset, length, timeoutMillis);
+            n = in.read(buffer, offset, length, timeoutMillis);
         } catch (InterruptedIOException e) {
             Thread.currentThread().interrupt();
             throw new ConnectionLostException(name + ": interrupted while reading", e);
@@ -62,7 +64,14 @@ final class InMemoryTransport implements Transport {
 
     @Override
     public void close() {
+        if (closed) {
+            return;
+        }
         closed = true;
-        connection.close();
+        try {
+            onClose.close();
+        } catch (IOException e) {
+            // closing is best effort: the link is being abandoned
+        }
     }
 }

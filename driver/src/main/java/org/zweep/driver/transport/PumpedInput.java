@@ -1,32 +1,28 @@
 package org.zweep.driver.transport;
 
+import java.io.Closeable;
 import java.io.IOException;
 import java.io.InputStream;
-import java.io.OutputStream;
+import java.io.InterruptedIOException;
 import java.util.Arrays;
 import java.util.concurrent.ArrayBlockingQueue;
 import java.util.concurrent.BlockingQueue;
 import java.util.concurrent.TimeUnit;
 
-/** {@link Transport#ofStreams}: a pump thread turns a blocking stream into timed reads. */
-final class StreamTransport implements Transport {
+/** The input of {@link Transport#ofStreams}: a pump thread turns a blocking stream into timed reads. */
+final class PumpedInput implements TimedInput, Closeable {
     private static final byte[] END = new byte[0];
 
     private final InputStream in;
-    private final OutputStream out;
-    private final String name;
     private final BlockingQueue<byte[]> chunks = new ArrayBlockingQueue<>(256);
     private final Thread pump;
-    private volatile boolean closed;
     private volatile IOException failure;
     private byte[] current = new byte[0];
     private int currentPos;
     private boolean ended;
 
-    StreamTransport(InputStream in, OutputStream out, String name) {
+    PumpedInput(InputStream in, String name) {
         this.in = in;
-        this.out = out;
-        this.name = name;
         this.pump = new Thread(this::pump, "zweep-stream-transport " + name);
         pump.setDaemon(true);
         pump.start();
@@ -60,42 +56,24 @@ final class StreamTransport implements Transport {
     }
 
     @Override
-    public String name() {
-        return name;
-    }
-
-    @Override
-    public void write(byte[] data, int offset, int length) {
-        if (closed) {
-            throw new ConnectionLostException(name + ": cannot write, the connection is closed");
-        }
-        try {
-            out.write(data, offset, length);
-            out.flush();
-        } catch (IOException e) {
-            throw new ConnectionLostException(name + ": link broke while writing: " + e.getMessage(), e);
-        }
-    }
-
-    @Override
-    public int read(byte[] buffer, int offset, int length, long timeoutMillis) {
+    public int read(byte[] buffer, int offset, int length, long timeoutMillis) throws IOException {
         if (currentPos == current.length) {
             if (ended) {
-                throw lost();
+                return end();
             }
             byte[] next;
             try {
                 next = chunks.poll(timeoutMillis, TimeUnit.MILLISECONDS);
             } catch (InterruptedException e) {
                 Thread.currentThread().interrupt();
-                throw new ConnectionLostException(name + ": interrupted while reading", e);
+                throw new InterruptedIOException("interrupted while reading");
             }
             if (next == null) {
                 return 0;
             }
             if (next == END) {
                 ended = true;
-                throw lost();
+                return end();
             }
             current = next;
             currentPos = 0;
@@ -106,28 +84,21 @@ final class StreamTransport implements Transport {
         return n;
     }
 
-    private ConnectionLostException lost() {
+    /** The end of the stream: -1, or the failure that ended it. */
+    private int end() throws IOException {
         IOException f = failure;
-        return closed ? new ConnectionLostException(name + ": cannot read, the connection is closed")
-                : new ConnectionLostException(name + ": the peer closed the connection"
-                        + (f == null ? "" : " (" + f.getMessage() + ")"), f);
+        if (f != null) {
+            throw f;
+        }
+        return -1;
     }
 
     @Override
     public void close() {
-        if (closed) {
-            return;
-        }
-        closed = true;
-        try {
-            out.close();
-        } catch (IOException e) {
-            // closing is best effort: the link is being abandoned
-        }
         try {
             in.close();
         } catch (IOException e) {
-            // as above
+            // closing is best effort: the link is being abandoned
         }
         pump.interrupt();
     }
