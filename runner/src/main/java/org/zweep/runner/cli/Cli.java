@@ -162,7 +162,8 @@ public final class Cli {
                 what += " (did you mean " + String.join(" or ", near) + "?)";
             }
         } else {
-            what = oneLine(ex).replace("' is not a long", "' is not a whole number")
+            what = oneLine(ex).replaceFirst("^Error: ", "")
+                    .replace("' is not a long", "' is not a whole number")
                     .replace("' is not an int", "' is not a whole number")
                     .replace("' is not a double", "' is not a number");
             what = Character.toLowerCase(what.charAt(0)) + what.substring(1);

@@ -38,6 +38,8 @@ class LotCommandTest {
         assertEquals("zweep: say which parts: --count N, --serials FILE or --scan\n", r.err());
         r = zweep("lot", SEQ.toString(), "--lot", "L", "--count", "3", "--scan");
         assertEquals(2, r.code(), "--count and --scan exclude each other");
+        assertEquals("zweep: --count=N, --scan are mutually exclusive (specify only one); see 'zweep lot --help'\n",
+                r.err());
         assertFalse(Files.exists(dir.resolve("l")));
     }
 
