@@ -19,7 +19,7 @@ import picocli.CommandLine.Spec;
         mixinStandardHelpOptions = true,
         description = {
             "Measures the query round trip to the meter at ADDRESS.",
-            "Sends the query COUNT times, one after the other, after one unmeasured warm-up, and prints count,"
+            "Sends the query --count times, one after the other, after one unmeasured warm-up, and prints count,"
                     + " min, median, 99th percentile and max in microseconds and queries per second.",
             "With --json: one JSON object with count, min_us, median_us, p99_us, max_us and per_s."
         },
@@ -31,11 +31,11 @@ final class PingCommand implements Callable<Integer> {
     MeterAddress address;
 
     @Option(names = "--count", paramLabel = "N", defaultValue = "100",
-            description = "Number of measured queries (default: ${DEFAULT-VALUE}).")
+            description = "the number of measured queries (default: ${DEFAULT-VALUE})")
     int count;
 
     @Option(names = "--query", paramLabel = "Q", defaultValue = "*IDN?",
-            description = "The query to time (default: ${DEFAULT-VALUE}).")
+            description = "the query to time (default: ${DEFAULT-VALUE})")
     String query;
 
     @Mixin

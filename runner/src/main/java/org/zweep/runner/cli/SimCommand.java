@@ -42,7 +42,7 @@ import picocli.CommandLine.Spec;
         description = {
             "Serves the simulated impedance meter (IEEE 488.2 / SCPI over raw TCP; VXI-11 and HiSLIP on request)"
                     + " in the foreground.",
-            "Prints 'listening on tcp://HOST:PORT' once ready, logs connections, stops on Ctrl-C."},
+            "Prints 'listening on tcp://HOST:PORT' once ready, logs connections, stops on Ctrl-C (exit code 130)."},
         footer = {
             "%nFault specs for --fault (repeatable or comma-separated): KIND[=VALUE][@WHEN]",
             "  drop@N  drop-idle=SECONDS  drop-random=P  delay=SECONDS  fragment=BYTES",
