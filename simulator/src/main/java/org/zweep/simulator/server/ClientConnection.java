@@ -32,8 +32,9 @@ final class ClientConnection implements Session.Hooks {
     private Pending writing;
     /** Bytes in the queue and in {@link #writing}; guarded by {@code this}. */
     private long queuedBytes;
-    private Thread writer;
-    private volatile Thread readerThread;
+    private boolean writerStarted; // guarded by this
+    /** The thread running {@link #run()}, null before and after; guarded by {@code this}. */
+    private Thread readerThread;
     private volatile boolean stalled;
     private volatile boolean closed;
     private long messages;
@@ -73,7 +74,9 @@ final class ClientConnection implements Session.Hooks {
 
     /** Runs the reader loop on the calling thread until the connection ends. */
     void run() {
-        readerThread = Thread.currentThread();
+        synchronized (this) {
+            readerThread = Thread.currentThread();
+        }
         server.log("connection " + id + " from " + link.peer() + " opened");
         MessageFramer framer = new MessageFramer(link.input(), server.options().maxMessageBytes());
         try {
@@ -119,6 +122,11 @@ final class ClientConnection implements Session.Hooks {
             closeReason = "internal error: " + e;
         } finally {
             close(closeReason);
+            synchronized (this) {
+                // the thread goes back to the pool: no interrupt meant for this connection may reach it
+                readerThread = null;
+                Thread.interrupted();
+            }
         }
     }
 
@@ -139,7 +147,13 @@ final class ClientConnection implements Session.Hooks {
                 return;
             }
         }
-        byte[] reply = session.execute(message);
+        byte[] reply;
+        boolean turn = server.takeTurn();
+        try {
+            reply = session.execute(message);
+        } finally {
+            server.endTurn(turn);
+        }
         if (closed) {
             return;
         }
@@ -239,10 +253,9 @@ final class ClientConnection implements Session.Hooks {
             if (!deadlocked) {
                 queue.addLast(p);
                 queuedBytes += n;
-                if (writer == null) {
-                    writer = new Thread(this::writeLoop, "zweep-sim-writer-" + id);
-                    writer.setDaemon(true);
-                    writer.start();
+                if (!writerStarted) {
+                    writerStarted = true;
+                    server.startThread("zweep-sim-writer-" + id, this::writeLoop);
                 }
                 notifyAll();
             }
@@ -421,9 +434,11 @@ final class ClientConnection implements Session.Hooks {
             notifyAll();
         }
         link.close();
-        Thread t = readerThread;
-        if (t != null && t != Thread.currentThread()) {
-            t.interrupt();
+        synchronized (this) {
+            Thread t = readerThread;
+            if (t != null && t != Thread.currentThread()) {
+                t.interrupt();
+            }
         }
         server.closed(this);
         server.log("connection " + id + " closed (" + reason + ")");

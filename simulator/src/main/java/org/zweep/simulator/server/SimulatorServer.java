@@ -11,6 +11,8 @@ import java.nio.charset.StandardCharsets;
 import java.util.concurrent.ArrayBlockingQueue;
 import java.util.concurrent.ConcurrentHashMap;
 import java.util.concurrent.ExecutorService;
+import java.util.concurrent.Semaphore;
+import java.util.concurrent.SynchronousQueue;
 import java.util.concurrent.ThreadPoolExecutor;
 import java.util.concurrent.TimeUnit;
 import java.util.concurrent.atomic.AtomicLong;
@@ -41,7 +43,23 @@ public final class SimulatorServer implements AutoCloseable {
     /** Bytes in all connections' output queues. */
     private final AtomicLong outputBytes = new AtomicLong();
     private final ExecutorService refusals;
+    /**
+     * The threads that read and write the connections, kept for a while when idle: a burst of new
+     * connections then reuses threads instead of waiting for new ones to be created, which on a
+     * busy machine held a fresh client's first reply up for 50–450 ms.
+     */
+    private final ThreadPoolExecutor connectionThreads = new ThreadPoolExecutor(0, Integer.MAX_VALUE,
+            CONNECTION_THREAD_KEEP_ALIVE_SECONDS, TimeUnit.SECONDS, new SynchronousQueue<>(), r -> {
+                Thread t = new Thread(r, "zweep-sim-idle");
+                t.setDaemon(true);
+                return t;
+            });
+    private final Semaphore turns =
+            new Semaphore(Math.max(1, Runtime.getRuntime().availableProcessors()), true);
     private volatile boolean closed;
+
+    /** How long a connection thread with nothing to do is kept for the next connection. */
+    static final long CONNECTION_THREAD_KEEP_ALIVE_SECONDS = 5;
 
     private SimulatorServer(Bench bench, ServerOptions options) throws IOException {
         this.options = options;
@@ -271,9 +289,53 @@ public final class SimulatorServer implements AutoCloseable {
             c.close("server stopped");
             return;
         }
-        Thread t = new Thread(c::run, "zweep-sim-conn-" + c.id());
-        t.setDaemon(true);
-        t.start();
+        startThread("zweep-sim-conn-" + c.id(), c::run);
+    }
+
+    /**
+     * Waits for a turn to execute one message. Turns are handed out in arrival order, as many at
+     * once as the machine has processors: a flood of messages on some connections then waits its
+     * turn instead of crowding the processors, and a new client's message waits behind at most
+     * one message of each busy connection. A message whose turn has not come within
+     * {@value #TURN_WAIT_MS} ms runs without one, so messages that block (a measurement, {@code *WAI}
+     * for a trigger another client sends) can never hold the others up for longer.
+     *
+     * @return whether a turn was taken (to be given back with {@link #endTurn(boolean)})
+     */
+    boolean takeTurn() {
+        try {
+            return turns.tryAcquire(TURN_WAIT_MS, TimeUnit.MILLISECONDS);
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+            return false;
+        }
+    }
+
+    /** Gives back the turn {@link #takeTurn()} took, if it took one. */
+    void endTurn(boolean taken) {
+        if (taken) {
+            turns.release();
+        }
+    }
+
+    /** The longest wait for a turn. */
+    static final long TURN_WAIT_MS = 50;
+
+    /**
+     * Runs {@code task} on a connection thread named {@code name}; the thread goes back to the pool
+     * with its interrupt status cleared when the task ends.
+     */
+    void startThread(String name, Runnable task) {
+        connectionThreads.execute(() -> {
+            Thread t = Thread.currentThread();
+            t.setName(name);
+            try {
+                task.run();
+            } finally {
+                Thread.interrupted();
+                t.setName("zweep-sim-idle");
+            }
+        });
     }
 
     void closed(ClientConnection c) {
@@ -312,6 +374,7 @@ public final class SimulatorServer implements AutoCloseable {
         if (refusals != null) {
             refusals.shutdownNow();
         }
+        connectionThreads.shutdown();
         instrument.close();
     }
 }

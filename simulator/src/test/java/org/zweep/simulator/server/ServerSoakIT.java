@@ -39,6 +39,7 @@ class ServerSoakIT {
         try (SimulatorServer server = SimulatorServer.start(bench, ServerOptions.defaults().withPort(0)
                 .withMaxConnections(CAP).withInstrument(InstrumentOptions.defaults().withTiming(TimingModel.NONE)
                         .withBenchLoader(BenchLoader.simulated(true, TimingModel.NONE))))) {
+            int serverThreadsAtStart = serverThreads();
             attackRound(server); // warm-up: threads, JIT and buffers reach their steady state
             settle(server);
             long heapBefore = heapUsed();
@@ -55,6 +56,11 @@ class ServerSoakIT {
             t.join();
             settle(server);
             long heapAfter = heapUsed();
+            // the connection threads kept for reuse end after their keep-alive
+            long end = System.nanoTime() + (SimulatorServer.CONNECTION_THREAD_KEEP_ALIVE_SECONDS + 5) * 1_000_000_000L;
+            while ((threads() > threadsBefore || serverThreads() > serverThreadsAtStart) && System.nanoTime() < end) {
+                ServerIT.sleep(50);
+            }
             int threadsAfter = threads();
             long rssAfter = residentKiB();
             long[] lat = probe.latencies();
@@ -67,6 +73,7 @@ class ServerSoakIT {
             assertEquals(0, server.connectionCount());
             assertEquals(0, server.outputQueueBytes());
             assertTrue(threadsAfter <= threadsBefore, "threads " + threadsBefore + " -> " + threadsAfter);
+            assertTrue(serverThreads() <= serverThreadsAtStart, "server threads " + serverThreadsAtStart + " -> " + serverThreads());
             assertTrue(heapAfter <= heapBefore + (8 << 20), "heap " + heapBefore + " -> " + heapAfter + " bytes");
             assertEquals(0, probe.failures, "every probe answered");
             assertTrue(lat.length >= rounds, "probes ran: " + lat.length);
@@ -162,6 +169,11 @@ class ServerSoakIT {
             used = Math.min(used, ManagementFactory.getMemoryMXBean().getHeapMemoryUsage().getUsed());
         }
         return used;
+    }
+
+    /** The server's own threads (accept, connections, kept connection threads). */
+    private static int serverThreads() {
+        return (int) Thread.getAllStackTraces().keySet().stream().filter(t -> t.getName().startsWith("zweep-sim")).count();
     }
 
     private static int threads() {
