@@ -46,23 +46,8 @@ class FittedValueCoverageIT {
     @TempDir
     Path dir;
 
-    private static final String ACCURACY_DIALECT = """
-            accuracy:
-              distribution: normal-k2
-              bands:
-                low: 10 .. 2e7 Hz; 0.05 .. 0.15 V; 0 s; 0.5 %; 2e-3 ohm; 2e-9 S; phase 0.004 rad
-                high: 10 .. 2e7 Hz; 0.3 .. 2 V; 0 s; 0.2 %; 1e-3 ohm; 1e-9 S; phase 0.002 rad
-            """;
-
-    private static final String ACCURACY_BENCH = """
-              accuracy:
-                distribution: normal-k2
-                bands:
-                  - {frequency_hz: [10, 2.0e7], level_vrms: [0.05, 0.15], integration_min_s: 0,
-                     basic: 0.005, short_ohm: 2.0e-3, open_s: 2.0e-9, phase_rad: 0.004}
-                  - {frequency_hz: [10, 2.0e7], level_vrms: [0.3, 2], integration_min_s: 0,
-                     basic: 0.002, short_ohm: 1.0e-3, open_s: 1.0e-9, phase_rad: 0.002}
-            """;
+    private static final String ACCURACY_DIALECT = DeclaredAccuracy.DIALECT;
+    private static final String ACCURACY_BENCH = DeclaredAccuracy.BENCH;
 
     /** The netlist's element values: what the fits must cover. */
     private static final Map<String, Double> NETLIST = Map.of("c_f", 1e-6, "esr_ohm", 0.02, "esl_h", 1e-9);
