@@ -10,7 +10,7 @@ import picocli.CommandLine;
 
 /**
  * The one reader of every duration option ({@code --timeout}, {@code --reconnect-budget},
- * {@code --settle}, the simulator's {@code --delay} and {@code --drop-idle}): {@code 500ms},
+ * {@code --settle}, {@code sim}'s {@code --delay} and {@code --drop-idle}): {@code 500ms},
  * {@code 2s}, {@code 1.5s}, {@code 1min}, or a bare number of seconds ({@code 2}, {@code 0.5}).
  * Zero is accepted (an option that needs more says so itself); a negative number or another
  * unit is refused with one line naming the forms.
