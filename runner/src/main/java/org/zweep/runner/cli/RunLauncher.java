@@ -196,6 +196,7 @@ final class RunLauncher {
         MeterLinks.seeded(plan.meter().address(), o.seed()); // a seed for a meter that has none: refused now
         Clock clock = Clock.systemUTC();
         boolean existed = o.out() != null && Files.isDirectory(o.out());
+        boolean resultsDirExisted = o.out() != null || Files.isDirectory(o.resultsDir());
         boolean hadLockFile = existed && Files.exists(o.out().resolve(FolderLock.FILE));
         FolderLock lock = o.out() != null ? RunFolder.lockAt(o.out(), clock.instant()) : null;
         RunFolder folder;
@@ -235,6 +236,9 @@ final class RunLauncher {
         } catch (RuntimeException e) {
             if (!(e instanceof RunInterruptedException)) {
                 discardIfUnstarted(folder, !existed); // a stop request leaves a folder that --resume completes
+                if (!resultsDirExisted) {
+                    deleteQuietly(o.resultsDir()); // only when empty: the refused run made it
+                }
             }
             throw e;
         } finally {
@@ -271,7 +275,7 @@ final class RunLauncher {
             return; // a manifest that cannot be read: keep everything
         }
         try {
-            if (Files.exists(folder.points()) && Files.readAllLines(folder.points(), StandardCharsets.UTF_8).size() > 1) {
+            if (Files.exists(folder.points()) && hasRows(folder.points())) {
                 return; // rows: keep them, whatever they are
             }
             try (var files = Files.walk(dir)) {
@@ -283,6 +287,13 @@ final class RunLauncher {
             }
         } catch (IOException | UncheckedIOException e) {
             // best effort: the refusal itself is what the user must see
+        }
+    }
+
+    /** Whether {@code points} has a line after its header (read no further than that). */
+    private static boolean hasRows(Path points) throws IOException {
+        try (BufferedReader r = Files.newBufferedReader(points, StandardCharsets.UTF_8)) {
+            return r.readLine() != null && r.readLine() != null;
         }
     }
 
