@@ -92,9 +92,10 @@ class BiasGuardIT {
             double offS = t.last().timeS() - killedS;
             double excess = t.largestExcess(c.current(), c.rampPerS());
             Path record = out.resolve(BiasGuardMain.LOG);
-            // the guard writes its record after the bias is off: give it a moment
+            // the guard writes its record after the bias is off: give it a moment (the file can exist
+            // before its line is written, so wait for the line)
             long recordBy = System.nanoTime() + TimeUnit.SECONDS.toNanos(10);
-            while (!Files.exists(record) && System.nanoTime() < recordBy) {
+            while (!(Files.exists(record) && Files.readString(record).endsWith("\n")) && System.nanoTime() < recordBy) {
                 Thread.sleep(50);
             }
             String guardLog = Files.exists(record) ? Files.readString(record) : "";
