@@ -17,7 +17,9 @@ class PublishedExamplesTest {
 
     @Test
     void burstStrengthOfAMetalContainerAgainstASingleLowerLimitHasTheConformanceProbabilityPrinted() {
-        // Worked example "single lower tolerance limit" (JCGM 106:2012, 7.3 — the clause from memory):
+        // Worked example "single lower tolerance limit", JCGM 106:2012, 7.3.3, EXAMPLE 2 (the clause
+        // inferred: UKAS LAB 48, Edition 1, December 2019, lists "Example 6: Single sided lower tolerance
+        // limit (JCGM106 7.3.3 Ex 2)" in its contents; the example itself not seen in English):
         // a metal container tested destructively with pressurised water for its burst strength B;
         // best estimate b = 509.7 kPa, standard uncertainty u = 8.6 kPa; the specification requires
         // B ≥ 490 kPa. Printed: "the conformance probability of this container is 99 %"; with the
@@ -85,7 +87,8 @@ class PublishedExamplesTest {
         // Inputs of the two-sided example of JCGM 106:2012, 7.4, as quoted in H. Liedberg, "Conformity
         // to specification – calculating risk and implementing a decision rule in Excel or Calc"
         // (metrologyrules.com, 2022-03-06): "result = 13.6, u(k=1) = 1.8, tolerance limits TL = 12.5
-        // and TU = 16.3". The p_c printed in JCGM 106 was not seen in a stored copy, so the expected
+        // and TU = 16.3" (UKAS LAB 48, Edition 1, lists "Example 12: Double sided tolerance limits
+        // (JCGM106 7.4)"). The p_c printed in JCGM 106 was not seen in a stored copy, so the expected
         // value is worked here from tabulated Φ (Abramowitz and Stegun, Handbook of Mathematical
         // Functions, Table 26.1; from memory, re-checked with Python's math.erfc): Φ(1.5) = 0.9331928,
         // Φ(0.61) = 0.7290691, Φ(0.62) = 0.7323711, so Φ(0.6111) ≈ 0.72944 by linear interpolation and
