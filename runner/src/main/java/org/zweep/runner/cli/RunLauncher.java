@@ -578,11 +578,14 @@ final class RunLauncher {
 
     /** {@code plan} with its meter address and dialect replaced where {@code meter} or {@code dialect} is not null. */
     private static Plan withMeter(Plan plan, String meter, String dialect) {
+        if (meter == null) {
+            plan.meter().requireUsable(); // the sequence's own meter: refused here when its bench is missing
+        }
         if (meter == null && dialect == null) {
             return plan;
         }
-        MeterChoice m = new MeterChoice(meter != null ? meter : plan.meter().address(),
-                dialect != null ? dialect : plan.meter().dialect());
+        MeterChoice m = meter != null ? new MeterChoice(meter, dialect != null ? dialect : plan.meter().dialect())
+                : plan.meter().withDialect(dialect);
         Address.parse(m.address());
         Dialect.load(m.dialect());
         return plan.toBuilder().meter(m).build();
