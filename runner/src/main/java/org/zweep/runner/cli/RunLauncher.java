@@ -232,7 +232,7 @@ final class RunLauncher {
                 // (SIGTERM while connecting) leaves a folder that --resume completes
                 RunManifest first = RunSession.freshManifest(plan, folder, sequenceFile.toAbsolutePath().toString(),
                         new RunManifest.MeterInfo(plan.meter().address(), plan.meter().dialect(), null), o.seed(),
-                        clock, VersionProvider.version());
+                        clock, ZweepVersion.current());
                 first.identified(first.id(), identity).toBuilder().index(index != null).build()
                         .write(folder.manifest());
             } catch (UncheckedIOException e) {
@@ -385,7 +385,7 @@ final class RunLauncher {
                     .compensation((station, res, log) -> CompensationWorkflow.prepare(plan, station, folder, res, clock,
                             log))
                     .sweepChecks(f -> Analysis.sweepFigures(RunData.read(f.dir()))).clock(clock)
-                    .version(VersionProvider.version()).build());
+                    .version(ZweepVersion.current()).build());
             RunSession.Summary s;
             BiasGuard guard = appliesBias(plan) ? startGuard(plan.meter().address(), folder) : null;
             if (guard != null) {
