@@ -139,20 +139,75 @@ public final class DialectMeter implements Meter {
     public MeterCapabilities statedLimits() {
         requireOpen();
         MeterCapabilities c = dialect.capabilities();
+        Map<Command, Double> asked = limits();
         return new MeterCapabilities(
-                stated(c.frequencyHz(), Command.LIMIT_FREQUENCY_MIN, Command.LIMIT_FREQUENCY_MAX),
-                stated(c.voltageLevelVrms(), Command.LIMIT_VOLTAGE_LEVEL_MIN, Command.LIMIT_VOLTAGE_LEVEL_MAX),
-                stated(c.currentLevelArms(), Command.LIMIT_CURRENT_LEVEL_MIN, Command.LIMIT_CURRENT_LEVEL_MAX),
-                stated(c.biasVoltageV(), Command.LIMIT_BIAS_VOLTAGE_MIN, Command.LIMIT_BIAS_VOLTAGE_MAX),
-                stated(c.biasCurrentA(), Command.LIMIT_BIAS_CURRENT_MIN, Command.LIMIT_BIAS_CURRENT_MAX),
+                stated(c.frequencyHz(), asked, Command.LIMIT_FREQUENCY_MIN, Command.LIMIT_FREQUENCY_MAX),
+                stated(c.voltageLevelVrms(), asked, Command.LIMIT_VOLTAGE_LEVEL_MIN, Command.LIMIT_VOLTAGE_LEVEL_MAX),
+                stated(c.currentLevelArms(), asked, Command.LIMIT_CURRENT_LEVEL_MIN, Command.LIMIT_CURRENT_LEVEL_MAX),
+                stated(c.biasVoltageV(), asked, Command.LIMIT_BIAS_VOLTAGE_MIN, Command.LIMIT_BIAS_VOLTAGE_MAX),
+                stated(c.biasCurrentA(), asked, Command.LIMIT_BIAS_CURRENT_MIN, Command.LIMIT_BIAS_CURRENT_MAX),
                 c.maxListPoints(), c.corrections(), c.voltageRatio(), c.correctionStyle());
     }
 
-    /** {@code declared} with each end the meter answers for in its place. */
-    private Interval stated(Interval declared, Command min, Command max) {
-        double lo = dialect.has(min) ? limit(min) : declared.min();
-        double hi = dialect.has(max) ? limit(max) : declared.max();
-        return new Interval(lo, hi);
+    /** {@code declared} with each end the meter answered for in its place. */
+    private static Interval stated(Interval declared, Map<Command, Double> asked, Command min, Command max) {
+        return new Interval(asked.getOrDefault(min, declared.min()), asked.getOrDefault(max, declared.max()));
+    }
+
+    /**
+     * The meter's answer to each limit query the dialect declares. Where the dialect joins commands
+     * and its meter joins the replies, all of them go in one message, sent twice and kept when both
+     * answers agree (two round trips, not two a limit); otherwise, or when the joined answers do not
+     * agree or do not fit, each is asked on its own, as {@link #limit} does.
+     */
+    private Map<Command, Double> limits() {
+        List<Command> declared = new ArrayList<>();
+        for (Command c : Command.values()) {
+            if (c.key().startsWith("limit-") && dialect.has(c)) {
+                declared.add(c);
+            }
+        }
+        Map<Command, Double> asked = new java.util.EnumMap<>(Command.class);
+        if (declared.size() > 1 && dialect.messages().join()
+                && dialect.messages().replies() == Dialect.ReplyFraming.SEMICOLON_JOINED) {
+            String message = String.join(";", declared.stream().map(this::render).toList());
+            double[] first = joinedLimits(message, declared.size());
+            double[] second = first == null ? null : joinedLimits(message, declared.size());
+            if (first != null && java.util.Arrays.equals(first, second)) {
+                for (int i = 0; i < declared.size(); i++) {
+                    asked.put(declared.get(i), first[i]);
+                }
+                return asked;
+            }
+            // a meter error (one of them is not known to it) or a corrupted reply: one at a time,
+            // where the query at fault is named
+            readErrors(List.of(), Duration.ZERO, "asking the meter its limits");
+        }
+        for (Command c : declared) {
+            asked.put(c, limit(c));
+        }
+        return asked;
+    }
+
+    /** The {@code count} numbers the joined limit queries answered, or {@code null} when they did not fit. */
+    private double[] joinedLimits(String message, int count) {
+        List<String> units = ScpiValues.splitUnits(session.query(message));
+        if (units.size() != count) {
+            return null;
+        }
+        double[] v = new double[count];
+        for (int i = 0; i < count; i++) {
+            try {
+                double[] one = ScpiValues.parseNumbers(units.get(i));
+                if (one.length != 1) {
+                    return null;
+                }
+                v[i] = one[0];
+            } catch (NumberFormatException e) {
+                return null;
+            }
+        }
+        return v;
     }
 
     /** A query answering one number, read until two reads agree (at most four). */

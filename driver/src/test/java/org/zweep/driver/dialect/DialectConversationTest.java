@@ -45,6 +45,8 @@ import org.zweep.driver.meter.ReadingStatus;
  * = RESULT                    the call's result: "R X [±TOL]" or "no-value" per reading,
  *                             "true"/"false", the identity, or "error Class: message"
  * </pre>
+ * limits asks the meter's own limits ({@code statedLimits}); its result is
+ * {@code FMIN..FMAX VMIN..VMAX IMIN..IMAX BVMIN..BVMAX BIMIN..BIMAX}.
  * fixture takes a state ({@code part open short load secondary-open secondary-shorted}).
  * apply takes {@code frequency= voltage= current= bias-voltage= bias-current= bias=off averaging=
  * aperture= range=auto|OHMS quantity=impedance|ratio}, each changing the previous setting
@@ -192,6 +194,11 @@ class DialectConversationTest {
                 return null;
             case "shutdown":
                 return meter.safeShutdown();
+            case "limits":
+                org.zweep.driver.meter.MeterCapabilities c = meter.statedLimits();
+                return Stream.of(c.frequencyHz(), c.voltageLevelVrms(), c.currentLevelArms(), c.biasVoltageV(),
+                        c.biasCurrentA()).map(v -> v.min() + ".." + v.max())
+                        .collect(java.util.stream.Collectors.joining(" "));
             case "fixture":
                 meter.fixture().orElseThrow().hold(org.zweep.driver.meter.FixtureState.valueOf(
                         call.args.get(0).toUpperCase(java.util.Locale.ROOT).replace('-', '_')));

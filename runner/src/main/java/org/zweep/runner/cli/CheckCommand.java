@@ -4,6 +4,7 @@ import java.io.PrintWriter;
 import java.nio.file.Path;
 import java.util.Locale;
 import java.util.concurrent.Callable;
+import org.zweep.driver.address.Address;
 import org.zweep.driver.dialect.Dialect;
 import org.zweep.runner.engine.RunEstimate;
 import org.zweep.runner.plan.CompensationMode;
@@ -12,6 +13,7 @@ import org.zweep.runner.sequence.SequenceLoader;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Mixin;
+import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
 
@@ -38,9 +40,18 @@ public final class CheckCommand implements Callable<Integer> {
     @Mixin
     DialectOption dialect;
 
+    @Option(names = "--meter", paramLabel = "ADDRESS", description = "the meter the run will use instead of the "
+            + "sequence's (its address is checked; the sequence's own is then not looked at)")
+    String meter;
+
     @Override
     public Integer call() {
         Plan plan = SequenceLoader.loadForMeter(file, dialect.orNull());
+        if (meter == null) {
+            plan.meter().requireUsable();
+        } else {
+            Address.parse(meter);
+        }
         Dialect d = Dialect.load(dialect.orNull() != null ? dialect.orNull() : plan.meter().dialect());
         RunEstimate e = RunEstimate.of(plan, d);
         int points = plan.points().size();

@@ -177,7 +177,7 @@ public final class LotCommand implements Callable<Integer> {
             throw new InvalidInputException("say which parts: --count N, --serials FILE or --scan");
         }
         Plan plan = SequenceLoader.loadForMeter(file, dialect.orNull());
-        String address = meter != null ? meter : plan.meter().address();
+        String address = meter != null ? meter : plan.meter().requireUsable().address();
         MeterLinks.seeded(address, seed); // a seed for a meter that has none: refused now
         Long base = seed != null ? seed : MeterLinks.seedOf(address);
         String kind;
@@ -301,7 +301,8 @@ public final class LotCommand implements Callable<Integer> {
             }
             Path partDir = dir.resolve(LotTable.folderName(k, serial));
             Plan plan = SequenceLoader.loadForMeter(Path.of(m.sequenceFile()), m.dialect());
-            String address = MeterLinks.forPart(m.meter() != null ? m.meter() : plan.meter().address(), serial);
+            String address = MeterLinks.forPart(m.meter() != null ? m.meter()
+                    : plan.meter().requireUsable().address(), serial);
             RunLauncher.Options o = options().meter(address).dialect(m.dialect()).out(partDir).resultsDir(dir)
                     .seed(m.seed() == null ? null : m.seed() + k - 1).build();
             RunLauncher l = launcher(db);

@@ -12,8 +12,10 @@ public final class Main {
     public static void main(String[] args) {
         PrintWriter out = new PrintWriter(new java.io.OutputStreamWriter(System.out, StandardCharsets.UTF_8), true);
         if (args.length == 1 && (args[0].equals("--version") || args[0].equals("-V"))) {
-            // what picocli would print, without building the whole command line first (start-up)
-            out.println("zweep " + VersionProvider.version());
+            // what picocli would print, without building the whole command line first (start-up);
+            // two prints, not a string concatenation, whose first use spins up invokedynamic
+            out.print("zweep ");
+            out.println(ZweepVersion.current());
             out.flush();
             System.exit(ExitCode.OK);
         }

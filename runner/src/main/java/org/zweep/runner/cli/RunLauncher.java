@@ -226,7 +226,7 @@ final class RunLauncher {
                 // (SIGTERM while connecting) leaves a folder that --resume completes
                 RunManifest first = RunSession.freshManifest(plan, folder, sequenceFile.toAbsolutePath().toString(),
                         new RunManifest.MeterInfo(plan.meter().address(), plan.meter().dialect(), null), o.seed(),
-                        clock, VersionProvider.version());
+                        clock, ZweepVersion.current());
                 first.identified(first.id(), identity).write(folder.manifest());
             } catch (UncheckedIOException e) {
                 // nothing measured yet: the folder is refused (a full disk, permissions)
@@ -378,7 +378,7 @@ final class RunLauncher {
                     .compensation((station, res, log) -> CompensationWorkflow.prepare(plan, station, folder, res, clock,
                             log))
                     .sweepChecks(f -> Analysis.sweepFigures(RunData.read(f.dir()))).clock(clock)
-                    .version(VersionProvider.version()).build());
+                    .version(ZweepVersion.current()).build());
             RunSession.Summary s;
             BiasGuard guard = appliesBias(plan) ? startGuard(plan.meter().address(), folder) : null;
             if (guard != null) {
@@ -578,11 +578,14 @@ final class RunLauncher {
 
     /** {@code plan} with its meter address and dialect replaced where {@code meter} or {@code dialect} is not null. */
     private static Plan withMeter(Plan plan, String meter, String dialect) {
+        if (meter == null) {
+            plan.meter().requireUsable(); // the sequence's own meter: refused here when its bench is missing
+        }
         if (meter == null && dialect == null) {
             return plan;
         }
-        MeterChoice m = new MeterChoice(meter != null ? meter : plan.meter().address(),
-                dialect != null ? dialect : plan.meter().dialect());
+        MeterChoice m = meter != null ? new MeterChoice(meter, dialect != null ? dialect : plan.meter().dialect())
+                : plan.meter().withDialect(dialect);
         Address.parse(m.address());
         Dialect.load(m.dialect());
         return plan.toBuilder().meter(m).build();

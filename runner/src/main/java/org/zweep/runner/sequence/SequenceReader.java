@@ -204,14 +204,14 @@ final class SequenceReader {
             throw bench.get().error("give either address or bench, not both");
         }
         if (bench.isPresent()) {
-            return new MeterChoice("sim:" + benchFile(bench.get(), bench.get().text("a bench file")), dialect);
+            return simMeter(bench.get(), bench.get().text("a bench file"), dialect);
         }
         if (address.isEmpty()) {
             throw node.error("missing key 'address' or 'bench' in meter");
         }
         String a = address.get().text("a meter address");
         if (a.startsWith("sim:")) {
-            a = "sim:" + benchFile(address.get(), a.substring(4));
+            return simMeter(address.get(), a.substring(4), dialect);
         }
         try {
             Address.parse(a);
@@ -243,16 +243,21 @@ final class SequenceReader {
         return p.toString();
     }
 
-    private Path benchFile(YamlNode node, String path) {
+    /**
+     * The simulator with the bench file {@code path}, resolved against the sequence's folder. A file
+     * that is not there is not refused here but when the sequence's own meter is used
+     * ({@link MeterChoice#requireUsable()}): {@code --meter} replaces it without looking at it.
+     */
+    private MeterChoice simMeter(YamlNode node, String path, String dialect) {
         if (path.isBlank()) {
             throw node.error("expected a bench file path");
         }
         Path dir = source.toAbsolutePath().getParent();
         Path p = dir.resolve(path).normalize();
-        if (!Files.isRegularFile(p)) {
-            throw node.error("bench file not found: " + path + " (looked for " + p + ")");
-        }
-        return p;
+        String unusable = Files.isRegularFile(p) ? null
+                : node.where() + ": bench file not found: " + path + " (looked for " + p + "); put it there, or"
+                        + " give the meter with --meter ADDRESS";
+        return new MeterChoice("sim:" + p, dialect, unusable);
     }
 
     // ---- safety ----

@@ -4,6 +4,7 @@ import java.net.URI;
 import java.net.URISyntaxException;
 import java.net.URLDecoder;
 import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.Map;
 import java.util.Properties;
@@ -81,7 +82,7 @@ public record Database(String jdbcUrl, String user, String password, Path sqlite
             return new Database(t, null, null, null);
         }
         if (lower.startsWith("jdbc:sqlite:")) {
-            return sqlite(Path.of(t.substring("jdbc:sqlite:".length())));
+            return named(sqlite(Path.of(t.substring("jdbc:sqlite:".length()))), what);
         }
         if (lower.startsWith("postgresql://") || lower.startsWith("postgres://")) {
             URI u;
@@ -108,6 +109,20 @@ public record Database(String jdbcUrl, String user, String password, Path sqlite
         if (lower.matches("^[a-z][a-z0-9+.-]*://.*")) {
             throw new InvalidInputException(what + ": '" + t + "' is neither a file nor a postgresql:// URL");
         }
-        return sqlite(Path.of(t));
+        return named(sqlite(Path.of(t)), what);
+    }
+
+    /**
+     * A SQLite file someone named: its folder must exist. zweep creates the file, and the default
+     * folder ({@code ~/.zweep}), but not a folder it was told about: a mistyped path or a lab share
+     * that is not mounted would otherwise get an index of its own nobody looks at.
+     */
+    private static Database named(Database db, String what) {
+        Path folder = db.sqliteFile().getParent();
+        if (folder != null && !Files.isDirectory(folder)) {
+            throw new InvalidInputException(what + ": " + (Files.exists(folder) ? folder + " is not a folder"
+                    : "the folder " + folder + " does not exist") + " (zweep creates the index file, not its folder)");
+        }
+        return db;
     }
 }

@@ -8,10 +8,12 @@ import org.junit.jupiter.api.Test;
 import org.zweep.driver.InvalidInputException;
 
 /**
- * The decision rules against the worked cases of JCGM 106:2012 and ILAC-G8:09/2019. Values of the
+ * The decision rules, with the formulas and zones of JCGM 106:2012 and ILAC-G8:09/2019, on cases
+ * made up here (the published worked examples are in {@link PublishedExamplesTest}). Values of the
  * standard normal distribution function Φ are from Abramowitz and Stegun, Handbook of
- * Mathematical Functions (1964), Table 26.1: Φ(1) = 0.8413447, Φ(1.6) = 0.9452007,
- * Φ(1.645) = 0.9500151, Φ(1.7) = 0.9554345, Φ(2) = 0.9772499, Φ(3) = 0.9986501.
+ * Mathematical Functions (1964), Table 26.1 (from memory, re-checked with an independent erfc):
+ * Φ(1) = 0.8413447, Φ(1.6) = 0.9452007, Φ(1.645) = 0.9500151, Φ(1.7) = 0.9554345,
+ * Φ(2) = 0.9772499, Φ(3) = 0.9986501.
  */
 class DecisionRuleTest {
     private static final double INF = Double.POSITIVE_INFINITY;

@@ -165,10 +165,11 @@ class StoreSqliteIT {
 
     @Test
     void aDatabaseThatCannotBeWrittenOnlyWarnsAndTheRunIsKept() throws Exception {
-        Path blocker = dir.resolve("not-a-folder");
-        Files.writeString(blocker, "x");
+        // a folder where the database file should be: SQLite cannot open it (a missing folder is refused
+        // before the run, see DatabaseTest; this one is only found out when the run is indexed)
+        Path blocker = Files.createDirectories(dir.resolve("index-is-a-folder.sqlite"));
         Path out = dir.resolve("kept");
-        Sims.Result r = StoreFolders.measure(out, 7, "SN-K", "L-K", blocker.resolve("index.sqlite").toString());
+        Sims.Result r = StoreFolders.measure(out, 7, "SN-K", "L-K", blocker.toString());
         assertEquals(0, r.code(), r.err());
         assertTrue(r.err().contains("WARNING: the run was not indexed"), r.err());
         assertTrue(r.err().contains("'zweep index " + out + "' adds it later"), r.err());

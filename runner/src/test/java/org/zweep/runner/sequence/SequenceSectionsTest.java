@@ -90,11 +90,20 @@ class SequenceSectionsTest {
     }
 
     @Test
-    void missingBenchFileIsRefusedAtItsNode() {
-        InvalidInputException e = assertThrows(InvalidInputException.class,
-                () -> load("meter: {bench: none.bench.yaml}\n", "{name: s, frequency: 1 kHz, level: 1 V}"));
+    void missingBenchFileIsRefusedAtItsNodeWhenTheSequencesMeterIsUsed() {
+        Plan plan = load("meter: {bench: none.bench.yaml}\n", "{name: s, frequency: 1 kHz, level: 1 V}");
+        InvalidInputException e = assertThrows(InvalidInputException.class, () -> plan.meter().requireUsable());
         assertEquals(dir.resolve("s.yaml") + ":2:16: bench file not found: none.bench.yaml (looked for "
-                + dir.resolve("none.bench.yaml").toAbsolutePath().normalize() + ")", e.getMessage());
+                + dir.resolve("none.bench.yaml").toAbsolutePath().normalize() + "); put it there, or give the meter"
+                + " with --meter ADDRESS", e.getMessage());
+    }
+
+    @Test
+    void sequenceCopiedAwayFromItsBenchStillLoads() {
+        // the address is only looked at when the sequence's own meter is used (--meter replaces it)
+        Plan plan = load("meter: {address: 'sim:gone/b.bench.yaml'}\n", "{name: s, frequency: 1 kHz, level: 1 V}");
+        assertEquals("sim:" + dir.resolve("gone/b.bench.yaml").toAbsolutePath().normalize(), plan.meter().address());
+        assertThrows(InvalidInputException.class, () -> plan.meter().requireUsable());
     }
 
     @Test

@@ -26,7 +26,7 @@ class CheckDecisionRuleTest {
 
     @Test
     void aGuardedCheckNearItsLimitIsAConditionalPassAndTheRunDoesNotPass() {
-        // the ILAC-G8:09/2019 worked case in DecisionRuleTest: 109.5 within 90..110 with U = 0.6
+        // the case made up in DecisionRuleTest (common practice, no source): 109.5 within 90..110 with U = 0.6
         CheckLimit c = new CheckLimit("r", "r_ohm", "s", 1000, 90, 110).withRule(DecisionRule.GUARDED);
         CheckEvaluator e = new CheckEvaluator(List.of(c));
         assertEquals("pass", e.judge(row(0, 100, 0.3)));
@@ -37,6 +37,27 @@ class CheckDecisionRuleTest {
         assertEquals(0.95221, o.probability(), 5e-6); // JCGM 106:2012, 7.3: Φ(1.6667) − Φ(−65)
         assertEquals("conditional pass", CheckOutcome.verdictOf(List.of(o)));
         assertTrue(CheckOutcome.failed("conditional pass"));
+    }
+
+    @Test
+    void aCheckShowsTheConformanceProbabilityOfThePublishedBurstStrengthExample() {
+        // The single-lower-limit example of PublishedExamplesTest (b = 509.7 kPa and 495.2 kPa,
+        // u = 8.6 kPa, B ≥ 490 kPa; printed p_c 99 % and 73 %), here as R in ohms through a check
+        // under "rule: probability 0.95", as a run judges and prints it.
+        CheckLimit c = new CheckLimit("burst", "r_ohm", "s", 1000, 490, Double.POSITIVE_INFINITY)
+                .withRule(DecisionRule.minimumProbability(0.95));
+        CheckEvaluator accepted = new CheckEvaluator(List.of(c));
+        assertEquals("pass", accepted.judge(row(0, 509.7, 8.6)));
+        CheckOutcome o = accepted.outcomes(SweepFigures.NONE).get(0);
+        assertEquals(0.99, o.probability(), 0.005); // printed: 99 %
+        assertEquals("check burst                  R at 1 kHz in s = 509.7 Ω: pass [probability 0.95, U = 17 Ω, p = 0.989]",
+                CheckText.line(o, CheckText.StepUnits.UNKNOWN));
+
+        CheckEvaluator rejected = new CheckEvaluator(List.of(c));
+        assertEquals("conditional pass", rejected.judge(row(0, 495.2, 8.6)));
+        CheckOutcome r = rejected.outcomes(SweepFigures.NONE).get(0);
+        assertEquals(0.73, r.probability(), 0.005); // printed: 73 %, "reject"
+        assertTrue(CheckOutcome.failed(CheckOutcome.verdictOf(List.of(r))));
     }
 
     @Test
