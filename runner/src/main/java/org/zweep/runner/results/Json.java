@@ -39,6 +39,26 @@ public final class Json {
     private Json() {
     }
 
+    /**
+     * Builds the serializers of {@code types} on a background daemon thread and returns at once, so
+     * that a command's first write of them does not wait for Jackson's introspection of the records
+     * (start-up: the work runs on the second core while the command reads its files). A failure
+     * here is left for the write itself to report.
+     */
+    public static void prepareInBackground(Class<?>... types) {
+        Thread t = new Thread(() -> {
+            for (Class<?> type : types) {
+                try {
+                    MAPPER.getSerializerProviderInstance().findTypedValueSerializer(type, true, null);
+                } catch (IOException | RuntimeException | LinkageError e) {
+                    return;
+                }
+            }
+        }, "zweep-json-prepare");
+        t.setDaemon(true);
+        t.start();
+    }
+
     /** The writer: snake_case, indented, non-finite numbers as null. */
     public static ObjectWriter writer() {
         return WRITER;
