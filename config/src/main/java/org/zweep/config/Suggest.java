@@ -1,6 +1,7 @@
 package org.zweep.config;
 
 import java.util.Collection;
+import java.util.Optional;
 
 /** "Did you mean" suggestions for mistyped keys and names. */
 public final class Suggest {
@@ -12,8 +13,17 @@ public final class Suggest {
      * {@code word}, or the empty string when none is close.
      */
     public static String didYouMean(String word, Collection<String> candidates) {
+        return nearest(word, candidates).map(best -> " (did you mean '" + best + "'?)").orElse("");
+    }
+
+    /**
+     * The candidate closest to {@code word} (ignoring case) when it is near enough to be a typo of
+     * it: at most one edit per three letters of {@code word} (at least one, at most three), and
+     * {@code word} at least three letters long; the first of equally close ones.
+     */
+    public static Optional<String> nearest(String word, Collection<String> candidates) {
         if (word.length() < 3) {
-            return "";
+            return Optional.empty();
         }
         String best = null;
         int bestDistance = Integer.MAX_VALUE;
@@ -25,7 +35,7 @@ public final class Suggest {
             }
         }
         int allowed = Math.max(1, Math.min(3, word.length() / 3));
-        return best != null && bestDistance <= allowed ? " (did you mean '" + best + "'?)" : "";
+        return best != null && bestDistance <= allowed ? Optional.of(best) : Optional.empty();
     }
 
     /** Optimal string alignment distance: insertions, deletions, substitutions and adjacent swaps. */

@@ -7,6 +7,7 @@ import java.util.List;
 import java.util.Map;
 import java.util.function.IntSupplier;
 import java.util.function.Supplier;
+import org.zweep.config.Suggest;
 import org.zweep.driver.InvalidInputException;
 import org.zweep.driver.MeterException;
 import org.zweep.runner.engine.RunInterruptedException;
@@ -151,13 +152,25 @@ public final class Cli {
      */
     static String usageLine(CommandLine.ParameterException ex) {
         CommandLine cl = ex.getCommandLine();
+        if (ex instanceof CommandLine.MissingParameterException && !cl.getUnmatchedArguments().isEmpty()) {
+            // picocli checks the required options before the unknown ones: a mistyped required
+            // option (--frequncy) is then reported as the missing one, without the typo
+            ex = new CommandLine.UnmatchedArgumentException(cl, cl.getUnmatchedArguments());
+        }
         String what;
         if (ex instanceof CommandLine.UnmatchedArgumentException u && !u.getUnmatched().isEmpty()) {
             String first = u.getUnmatched().get(0);
             boolean command = !first.startsWith("-") && !cl.getSubcommands().isEmpty();
-            what = (first.startsWith("-") ? "unknown option '" : command ? "unknown command '" : "unexpected argument '")
+            boolean option = first.startsWith("-");
+            if (option && first.startsWith("--") && first.indexOf('=') > 0) {
+                first = first.substring(0, first.indexOf('=')); // --tmeout=3s: the option is --tmeout
+            }
+            what = (option ? "unknown option '" : command ? "unknown command '" : "unexpected argument '")
                     + first + "'";
-            List<String> near = u.getSuggestions().stream().filter(x -> !x.isBlank()).toList();
+            List<String> near = option ? nearOption(first, cl.getCommandSpec()) : List.of();
+            if (near.isEmpty()) {
+                near = u.getSuggestions().stream().filter(x -> !x.isBlank()).limit(3).toList();
+            }
             if (!near.isEmpty()) {
                 what += " (did you mean " + String.join(" or ", near) + "?)";
             }
@@ -169,6 +182,20 @@ public final class Cli {
             what = Character.toLowerCase(what.charAt(0)) + what.substring(1);
         }
         return "zweep: " + what + "; see '" + cl.getCommandSpec().qualifiedName() + " --help'";
+    }
+
+    /**
+     * The visible option of {@code spec} nearest to {@code typed} by edit distance (a dropped,
+     * added, changed or swapped letter), when it is near enough to be a typo: picocli's own
+     * suggestions only list options that start with the same two letters, so {@code --tmeout}
+     * found nothing.
+     */
+    static List<String> nearOption(String typed, CommandLine.Model.CommandSpec spec) {
+        List<String> longNames = spec.options().stream().filter(o -> !o.hidden())
+                .flatMap(o -> Arrays.stream(o.names())).filter(n -> n.startsWith("--")).map(n -> n.substring(2))
+                .toList();
+        return Suggest.nearest(typed.replaceFirst("^-+", ""), longNames).map(n -> List.of("--" + n))
+                .orElse(List.of());
     }
 
     static int exitCodeOf(Throwable ex) {

@@ -116,8 +116,13 @@ public final class LotCommand implements Callable<Integer> {
     @picocli.CommandLine.Mixin
     StoreOptions store;
 
-    @Option(names = "--no-index", description = "do not add the parts to the results index")
+    @Option(names = "--no-index", description = "do not add the parts to the results index (recorded in lot.json:"
+            + " a resume keeps to it)")
     boolean noIndex;
+
+    @Option(names = "--index", description = "with --resume: add the parts to the results index even when the lot"
+            + " was started with --no-index")
+    boolean index;
 
     @picocli.CommandLine.Mixin
     TimeoutOption timeout;
@@ -201,7 +206,7 @@ public final class LotCommand implements Callable<Integer> {
                 RunFolder.sha256(file), meter, dialect.orNull(), base, kind, count, serials,
                 operator == null ? null : RunCommand.text(operator, "--operator"),
                 station != null ? RunCommand.text(station, "--station") : sf.station(),
-                Clock.systemUTC().instant().toString());
+                Clock.systemUTC().instant().toString(), !noIndex);
     }
 
     /** The serials of a file: one a line, blank lines and {@code #} comments skipped, no repeats. */
@@ -264,7 +269,11 @@ public final class LotCommand implements Callable<Integer> {
     /** Resumes what is unfinished, measures the remaining parts, then writes lot.csv and lot.html. */
     private int measure(Path dir, LotManifest m) {
         RunLauncher.Options base = options().dialect(m.dialect()).resultsDir(dir).build();
-        org.zweep.runner.store.Database db = noIndex ? null : store.database();
+        if (noIndex && index) {
+            throw new InvalidInputException("give --index or --no-index, not both");
+        }
+        boolean indexed = !noIndex && (index || !Boolean.FALSE.equals(m.index()));
+        org.zweep.runner.store.Database db = indexed ? store.database() : null;
         for (Path part : LotTable.partFolders(dir)) {
             RunManifest rm = RunManifest.read(part.resolve(RunManifest.FILE));
             if ("completed".equals(rm.outcome())) {
@@ -321,7 +330,7 @@ public final class LotCommand implements Callable<Integer> {
     private RunLauncher launcher(org.zweep.runner.store.Database db) {
         RunLauncher l = new RunLauncher(stdout, spec.commandLine().getErr());
         if (db != null) {
-            l.indexInto(db);
+            l.indexInto(db, index);
         }
         return l;
     }

@@ -80,8 +80,13 @@ public final class RunCommand implements Callable<Integer> {
     @Mixin
     StoreOptions store;
 
-    @Option(names = "--no-index", description = "do not add the run to the results index at its end")
+    @Option(names = "--no-index", description = "do not add the run to the results index at its end (recorded in"
+            + " run.json: a resume keeps to it)")
     boolean noIndex;
+
+    @Option(names = "--index", description = "with --resume: add the run to the results index at its end even"
+            + " when it was started with --no-index")
+    boolean index;
 
     @Override
     public Integer call() {
@@ -98,8 +103,11 @@ public final class RunCommand implements Callable<Integer> {
             throw new InvalidInputException("--serial, --lot, --operator and --station cannot be used with --resume"
                     + " (the run keeps the identity it started with)");
         }
+        if (noIndex && index) {
+            throw new InvalidInputException("give --index or --no-index, not both");
+        }
         if (!noIndex) {
-            l.indexInto(store.database());
+            l.indexInto(store.database(), index);
         }
         if (resume == null) {
             org.zweep.runner.store.StationFile sf = org.zweep.runner.store.StationFile.load();

@@ -161,10 +161,16 @@ final class RunLauncher {
 
     private RunManifest.Identity identity;
     private org.zweep.runner.store.Database index;
+    private boolean indexAsked;
 
-    /** Indexes each run this launcher ends (completed or failed) in {@code db}; never fails the run. */
-    void indexInto(org.zweep.runner.store.Database db) {
+    /**
+     * Indexes each run this launcher ends (completed or failed) in {@code db}; never fails the run.
+     * A resumed run that was started with {@code --no-index} (its {@code run.json} says so) is not
+     * indexed unless {@code asked} ({@code --index} on the resume).
+     */
+    void indexInto(org.zweep.runner.store.Database db, boolean asked) {
         this.index = db;
+        this.indexAsked = asked;
     }
 
     /** Records {@code id} (serial, lot, operator, station) in the runs this launcher starts. */
@@ -228,7 +234,8 @@ final class RunLauncher {
                 RunManifest first = RunSession.freshManifest(plan, folder, sequenceFile.toAbsolutePath().toString(),
                         new RunManifest.MeterInfo(plan.meter().address(), plan.meter().dialect(), null), o.seed(),
                         clock, ZweepVersion.current());
-                first.identified(first.id(), identity).write(folder.manifest());
+                first.identified(first.id(), identity).toBuilder().index(index != null).build()
+                        .write(folder.manifest());
             } catch (UncheckedIOException e) {
                 // nothing measured yet: the folder is refused (a full disk, permissions)
                 throw new InvalidInputException(e.getMessage(), e);
@@ -424,6 +431,12 @@ final class RunLauncher {
      */
     private void indexQuietly(RunFolder folder) {
         if (index == null) {
+            return;
+        }
+        if (!indexAsked && Boolean.FALSE.equals(RunManifest.read(folder.manifest()).index())) {
+            out.println("not indexed: the run was started with --no-index ('zweep index " + folder.dir()
+                    + "' adds it)");
+            out.flush();
             return;
         }
         try (org.zweep.runner.store.ResultsStore st = org.zweep.runner.store.ResultsStore.open(index)) {

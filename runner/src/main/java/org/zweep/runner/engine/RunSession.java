@@ -334,10 +334,10 @@ public final class RunSession {
         RunManifest fresh = freshManifest(plan, folder, setup.sequenceFile(), meter, seed, setup.clock(),
                 setup.version());
         if (java.nio.file.Files.isRegularFile(folder.manifest())) {
-            // the launcher wrote the first manifest: keep its id and the part's identity
+            // the launcher wrote the first manifest: keep its id, the part's identity and the index choice
             RunManifest first = RunManifest.read(folder.manifest());
             if (first.id() != null) {
-                fresh = fresh.identified(first.id(), first.identity());
+                fresh = fresh.identified(first.id(), first.identity()).toBuilder().index(first.index()).build();
             }
         }
         return fresh;

@@ -29,10 +29,13 @@ import org.zweep.runner.results.Json;
  * @param operator who measures, or null
  * @param station the station's name, or null
  * @param started when the lot started (ISO-8601, UTC)
+ * @param index whether the parts are added to the results index ({@code false}: started with
+ *     {@code --no-index}, and a resume without {@code --index} keeps to that); null in lots
+ *     written before this was recorded (indexed)
  */
 public record LotManifest(String format, String lot, String sequenceFile, String sequenceSha256, String meter,
         String dialect, Long seed, String source, Integer count, List<String> serials, String operator,
-        String station, String started) {
+        String station, String started, Boolean index) {
 
     /** The format word. */
     public static final String FORMAT = "zweep-lot/1";

@@ -41,13 +41,16 @@ import org.zweep.runner.plan.CheckLimit;
  * @param id the run's globally unique, time-sortable id ({@link RunId}); {@code null} in folders
  *     written before ids existed (unknown)
  * @param identity which part was measured, where and by whom; {@code null} when unknown
+ * @param index whether the run is added to the results index when it ends ({@code false}: started
+ *     with {@code --no-index}, and a resume without {@code --index} keeps to that); {@code null} in
+ *     folders written before this was recorded (indexed)
  */
 @JsonPropertyOrder({"format", "id", "sequence", "part", "identity", "steps", "checks", "meter", "compensation",
-        "software", "host", "seed", "started", "ended", "counts", "outcome", "verdict"})
+        "software", "host", "seed", "started", "ended", "counts", "outcome", "verdict", "index"})
 public record RunManifest(String format, SequenceInfo sequence, PartInfo part, List<StepInfo> steps,
         List<CheckInfo> checks, MeterInfo meter, CompensationInfo compensation, SoftwareInfo software, String host,
         Long seed, String started, String ended, Counts counts, String outcome, String verdict, String id,
-        Identity identity) {
+        Identity identity, Boolean index) {
 
     /** A manifest built field by field; unset fields are null ({@link #FORMAT} for the format). */
     public static Builder builder() {
@@ -74,6 +77,7 @@ public record RunManifest(String format, SequenceInfo sequence, PartInfo part, L
         b.verdict = verdict;
         b.id = id;
         b.identity = identity;
+        b.index = index;
         return b;
     }
 
@@ -96,6 +100,7 @@ public record RunManifest(String format, SequenceInfo sequence, PartInfo part, L
         private String verdict;
         private String id;
         private Identity identity;
+        private Boolean index;
 
         private Builder() {
         }
@@ -202,10 +207,16 @@ public record RunManifest(String format, SequenceInfo sequence, PartInfo part, L
             return this;
         }
 
+        /** Whether the run is indexed when it ends; {@code null} when not recorded. */
+        public Builder index(Boolean v) {
+            index = v;
+            return this;
+        }
+
         /** The manifest. */
         public RunManifest build() {
             return new RunManifest(format, sequence, part, steps, checks, meter, compensation, software, host, seed,
-                    started, ended, counts, outcome, verdict, id, identity);
+                    started, ended, counts, outcome, verdict, id, identity, index);
         }
     }
 

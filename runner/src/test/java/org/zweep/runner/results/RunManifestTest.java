@@ -47,7 +47,7 @@ class RunManifestTest {
         assertTrue(n.get("ended").isNull());
         assertEquals(1234, n.get("seed").asLong());
         assertEquals(List.of("format", "id", "sequence", "part", "identity", "steps", "checks", "meter", "compensation",
-                "software", "host", "seed", "started", "ended", "counts", "outcome", "verdict"), iterable(n));
+                "software", "host", "seed", "started", "ended", "counts", "outcome", "verdict", "index"), iterable(n));
     }
 
     private static List<String> iterable(JsonNode n) {
