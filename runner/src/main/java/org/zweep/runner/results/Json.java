@@ -40,8 +40,9 @@ public final class Json {
     }
 
     /**
-     * Builds the serializers of {@code types} on a background daemon thread and returns at once, so
-     * that a command's first write of them does not wait for Jackson's introspection of the records
+     * Builds the serializers and deserializers of {@code types} on a background daemon thread and
+     * returns at once, so that a command's first write or read of them does not wait for Jackson's
+     * introspection of the records
      * (start-up: the work runs on the second core while the command reads its files). A failure
      * here is left for the write itself to report.
      */
@@ -49,8 +50,11 @@ public final class Json {
         Thread t = new Thread(() -> {
             for (Class<?> type : types) {
                 try {
-                    MAPPER.getSerializerProviderInstance().findTypedValueSerializer(type, true, null);
-                } catch (IOException | RuntimeException | LinkageError e) {
+                    // a writer and a reader for a type fetch its serializer and deserializer at once
+                    // (EAGER_SERIALIZER_FETCH, EAGER_DESERIALIZER_FETCH) into the mapper's caches
+                    MAPPER.writerFor(type);
+                    MAPPER.readerFor(type);
+                } catch (RuntimeException | LinkageError e) {
                     return;
                 }
             }

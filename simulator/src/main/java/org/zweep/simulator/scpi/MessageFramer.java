@@ -31,6 +31,11 @@ public final class MessageFramer {
         this.maxBytes = maxBytes;
     }
 
+    /** Whether bytes after the last message returned are already read in (more is on its way). */
+    public boolean buffered() {
+        return bufPos < bufLen;
+    }
+
     /**
      * Blocks until a whole message has arrived.
      *

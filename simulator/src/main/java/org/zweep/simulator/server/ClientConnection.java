@@ -18,7 +18,9 @@ import org.zweep.simulator.scpi.StandardError;
  * reader never blocks on a client that does not read. The queue is bounded per connection and
  * across the server; a reply that does not fit is a deadlock in IEEE 488.2's sense (§6.3.1.7):
  * the queue is cleared, the reply discarded and {@code -430 Query DEADLOCKED} reported, and the
- * connection reads on. A reply always fits an empty queue, whatever its size.
+ * connection reads on. A reply always fits an empty queue, whatever its size. The first replies
+ * (up to {@link #DIRECT_WRITE_BYTES}) are written by the reader itself: a new client's answer waits
+ * for no other thread.
  */
 final class ClientConnection implements Session.Hooks {
     private final SimulatorServer server;
@@ -33,6 +35,8 @@ final class ClientConnection implements Session.Hooks {
     /** Bytes in the queue and in {@link #writing}; guarded by {@code this}. */
     private long queuedBytes;
     private boolean writerStarted; // guarded by this
+    /** Bytes sent from the reader thread (see {@link #DIRECT_WRITE_BYTES}); guarded by {@code this}. */
+    private long directBytes;
     /** The thread running {@link #run()}, null before and after; guarded by {@code this}. */
     private Thread readerThread;
     private volatile boolean stalled;
@@ -109,7 +113,7 @@ final class ClientConnection implements Session.Hooks {
                             "message longer than " + server.options().maxMessageBytes() + " bytes");
                     continue;
                 }
-                exchange(m.bytes());
+                exchange(m.bytes(), !framer.buffered());
             }
         } catch (InterruptedIOException e) {
             closeReason = "server stopped";
@@ -130,7 +134,7 @@ final class ClientConnection implements Session.Hooks {
         }
     }
 
-    private void exchange(byte[] message) throws IOException {
+    private void exchange(byte[] message, boolean waitingClient) throws IOException {
         messages++;
         if (session.strict() && outputPendingAfterPlainWrites()) {
             clearOutput();
@@ -148,11 +152,11 @@ final class ClientConnection implements Session.Hooks {
             }
         }
         byte[] reply;
-        boolean turn = server.takeTurn();
+        boolean turn = server.takeTurn(waitingClient);
         try {
             reply = session.execute(message);
         } finally {
-            server.endTurn(turn);
+            server.endTurn(turn, waitingClient);
         }
         if (closed) {
             return;
@@ -208,9 +212,14 @@ final class ClientConnection implements Session.Hooks {
         }
     }
 
-    /** One entry of the output queue: a reply (with its faults) or an action such as a drop. */
+    /**
+     * One entry of the output queue: a reply (with its faults) or an action such as a drop. Replies
+     * without faults that follow each other share one entry (their bytes appended), so a client
+     * that does not read holds a few arrays in the queue, not one object per reply.
+     */
     private static final class Pending {
-        final byte[] bytes;
+        byte[] bytes; // guarded by the connection while queued
+        int length; // guarded by the connection while queued
         final Duration delay;
         final Fault.Fragment fragment;
         final Runnable action;
@@ -218,18 +227,28 @@ final class ClientConnection implements Session.Hooks {
 
         Pending(byte[] bytes, Duration delay, Fault.Fragment fragment, Runnable action) {
             this.bytes = bytes;
+            this.length = bytes == null ? 0 : bytes.length;
             this.delay = delay;
             this.fragment = fragment;
             this.action = action;
         }
 
         long size() {
-            return bytes == null ? 0 : bytes.length;
+            return length;
         }
 
         /** Sent at once, in one write: gone as soon as the link takes it. */
         boolean plain() {
             return action == null && delay.isZero() && fragment == null;
+        }
+
+        /** Appends a plain entry's bytes to this plain entry. */
+        void append(Pending p) {
+            if (length + p.length > bytes.length) {
+                bytes = java.util.Arrays.copyOf(bytes, Math.max(length + p.length, 2 * length));
+            }
+            System.arraycopy(p.bytes, 0, bytes, length, p.length);
+            length += p.length;
         }
     }
 
@@ -239,6 +258,7 @@ final class ClientConnection implements Session.Hooks {
 
     private void enqueue(Pending p) {
         boolean deadlocked = false;
+        boolean direct = false;
         synchronized (this) {
             if (closed) {
                 return;
@@ -251,14 +271,29 @@ final class ClientConnection implements Session.Hooks {
                 deadlocked = true;
             }
             if (!deadlocked) {
-                queue.addLast(p);
                 queuedBytes += n;
-                if (!writerStarted) {
-                    writerStarted = true;
-                    server.startThread("zweep-sim-writer-" + id, this::writeLoop);
+                if (empty && !writerStarted && p.plain() && directBytes + n <= DIRECT_WRITE_BYTES) {
+                    // a new connection's first replies: sent from this thread, no hand-off to a writer
+                    directBytes += n;
+                    writing = p;
+                    direct = true;
+                } else {
+                    Pending last = queue.peekLast();
+                    if (last != null && last.plain() && p.plain()) {
+                        last.append(p);
+                    } else {
+                        queue.addLast(p);
+                    }
+                    if (!writerStarted) {
+                        writerStarted = true;
+                        server.startThread("zweep-sim-writer-" + id, this::writeLoop);
+                    }
+                    notifyAll();
                 }
-                notifyAll();
             }
+        }
+        if (direct) {
+            sendEntry(p);
         }
         if (deadlocked) {
             clearOutput();
@@ -267,6 +302,13 @@ final class ClientConnection implements Session.Hooks {
                     + server.options().maxTotalOutputBytes() + " in all); the client does not read its replies");
         }
     }
+
+    /**
+     * The bytes a connection sends from its reader thread before it needs a writer thread: less
+     * than any TCP send buffer Linux gives a new socket (at least 4 KiB, {@code tcp_wmem}) and than
+     * an in-memory pipe, so these writes never block on a client that does not read.
+     */
+    static final int DIRECT_WRITE_BYTES = 4096;
 
     /** The writer thread: sends the queue's entries in order until the connection closes. */
     private void writeLoop() {
@@ -284,23 +326,28 @@ final class ClientConnection implements Session.Hooks {
                 p = queue.pollFirst();
                 writing = p;
             }
-            try {
-                if (p.action != null) {
-                    p.action.run();
-                } else if (pause(p, p.delay)) {
-                    write(p);
+            sendEntry(p);
+        }
+    }
+
+    /** Sends or runs the entry in {@link #writing}, then gives its bytes back. */
+    private void sendEntry(Pending p) {
+        try {
+            if (p.action != null) {
+                p.action.run();
+            } else if (pause(p, p.delay)) {
+                write(p);
+            }
+        } catch (IOException e) {
+            drop("connection lost: " + e.getMessage());
+        } finally {
+            synchronized (this) {
+                if (writing == p) {
+                    writing = null;
+                    queuedBytes -= p.size();
+                    server.giveOutput(p.size());
                 }
-            } catch (IOException e) {
-                drop("connection lost: " + e.getMessage());
-            } finally {
-                synchronized (this) {
-                    if (writing == p) {
-                        writing = null;
-                        queuedBytes -= p.size();
-                        server.giveOutput(p.size());
-                    }
-                    notifyAll();
-                }
+                notifyAll();
             }
         }
     }
@@ -308,15 +355,15 @@ final class ClientConnection implements Session.Hooks {
     private void write(Pending p) throws IOException {
         OutputStream o = link.output();
         if (p.fragment == null) {
-            o.write(p.bytes);
+            o.write(p.bytes, 0, p.length);
             o.flush();
             return;
         }
-        for (int i = 0; i < p.bytes.length; i += p.fragment.bytes()) {
+        for (int i = 0; i < p.length; i += p.fragment.bytes()) {
             if (i > 0 && !pause(p, p.fragment.gap())) {
                 return;
             }
-            o.write(p.bytes, i, Math.min(p.fragment.bytes(), p.bytes.length - i));
+            o.write(p.bytes, i, Math.min(p.fragment.bytes(), p.length - i));
             o.flush();
         }
     }

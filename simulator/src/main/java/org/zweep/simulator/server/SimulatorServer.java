@@ -11,7 +11,6 @@ import java.nio.charset.StandardCharsets;
 import java.util.concurrent.ArrayBlockingQueue;
 import java.util.concurrent.ConcurrentHashMap;
 import java.util.concurrent.ExecutorService;
-import java.util.concurrent.Semaphore;
 import java.util.concurrent.SynchronousQueue;
 import java.util.concurrent.ThreadPoolExecutor;
 import java.util.concurrent.TimeUnit;
@@ -27,7 +26,8 @@ import org.zweep.simulator.scpi.Instrument;
  * queue) is shared by every connection, as on a real meter with several remote clients; each
  * connection has its own parser and header path, output queue, strictness
  * and faults. Each connection is served by its own reader and writer threads, so a slow, silent
- * or non-reading client never blocks another. TCP connections are capped
+ * or non-reading client never blocks another (a new connection's first few replies go out from its
+ * reader, before it has a writer). TCP connections are capped
  * ({@link ServerOptions#maxConnections()}): one more is told why in one line and closed.
  *
  * <p>Thread-safe. {@link #close()} stops accepting, closes every connection and stops the meter.
@@ -54,8 +54,7 @@ public final class SimulatorServer implements AutoCloseable {
                 t.setDaemon(true);
                 return t;
             });
-    private final Semaphore turns =
-            new Semaphore(Math.max(1, Runtime.getRuntime().availableProcessors()), true);
+    private final Turns turns = new Turns(Math.max(1, Runtime.getRuntime().availableProcessors()));
     private volatile boolean closed;
 
     /** How long a connection thread with nothing to do is kept for the next connection. */
@@ -293,28 +292,26 @@ public final class SimulatorServer implements AutoCloseable {
     }
 
     /**
-     * Waits for a turn to execute one message. Turns are handed out in arrival order, as many at
-     * once as the machine has processors: a flood of messages on some connections then waits its
-     * turn instead of crowding the processors, and a new client's message waits behind at most
-     * one message of each busy connection. A message whose turn has not come within
-     * {@value #TURN_WAIT_MS} ms runs without one, so messages that block (a measurement, {@code *WAI}
-     * for a trigger another client sends) can never hold the others up for longer.
+     * Waits for a turn to execute one message. Turns are handed out as many at once as the machine
+     * has processors, first to messages whose client waits for the reply (nothing more from it is
+     * buffered), then to those of clients that stream messages, each in arrival order; streaming
+     * messages hold at most all turns but one: a flood of messages on some connections waits its
+     * turn instead of crowding the processors, a processor stays for accepting and reading, and a
+     * new client's message waits behind at most one message per turn. A message whose turn has not
+     * come within {@value #TURN_WAIT_MS} ms runs without one, so messages that block (a measurement,
+     * {@code *WAI} for a trigger another client sends) can never hold the others up for longer.
      *
-     * @return whether a turn was taken (to be given back with {@link #endTurn(boolean)})
+     * @param waitingClient whether the client has sent nothing after this message yet
+     * @return whether a turn was taken (to be given back with {@link #endTurn(boolean, boolean)})
      */
-    boolean takeTurn() {
-        try {
-            return turns.tryAcquire(TURN_WAIT_MS, TimeUnit.MILLISECONDS);
-        } catch (InterruptedException e) {
-            Thread.currentThread().interrupt();
-            return false;
-        }
+    boolean takeTurn(boolean waitingClient) {
+        return turns.take(waitingClient, TURN_WAIT_MS * 1_000_000L);
     }
 
-    /** Gives back the turn {@link #takeTurn()} took, if it took one. */
-    void endTurn(boolean taken) {
+    /** Gives back the turn {@link #takeTurn(boolean)} took, if it took one. */
+    void endTurn(boolean taken, boolean waitingClient) {
         if (taken) {
-            turns.release();
+            turns.give(waitingClient);
         }
     }
 

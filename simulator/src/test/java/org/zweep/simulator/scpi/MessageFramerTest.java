@@ -2,6 +2,7 @@ package org.zweep.simulator.scpi;
 
 import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertNull;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
@@ -29,6 +30,15 @@ class MessageFramerTest {
         assertEquals("*IDN?", text(f.next()));
         assertEquals("FREQ?\r", text(f.next()));
         assertNull(f.next());
+    }
+
+    @Test
+    void saysWhetherMoreInputIsAlreadyBufferedAfterAMessage() throws IOException {
+        MessageFramer f = framer("*IDN?\n*OPC?\n".getBytes(StandardCharsets.US_ASCII), 100);
+        assertEquals("*IDN?", text(f.next()));
+        assertTrue(f.buffered(), "the next message is already read in");
+        assertEquals("*OPC?", text(f.next()));
+        assertFalse(f.buffered());
     }
 
     @Test

@@ -3,13 +3,16 @@ package org.zweep.simulator.server;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
+import java.io.BufferedReader;
 import java.io.IOException;
+import java.io.InputStreamReader;
+import java.io.OutputStreamWriter;
+import java.io.Writer;
 import java.lang.management.ManagementFactory;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
-import java.util.Arrays;
 import java.util.List;
 import java.util.concurrent.atomic.AtomicBoolean;
 import org.junit.jupiter.api.Test;
@@ -25,8 +28,13 @@ import org.zweep.simulator.scpi.TimingModel;
  * Issue 17, item 1: the attacks that grew the server (unread delayed replies, clients that never
  * read, idle connections, over-long lines, huge netlists, odd syntax), repeated over loopback in
  * bounded loops, leave its heap and thread count where they started, while a fresh client probing
- * every 20 ms is answered throughout. Rounds: {@code -Dzweep.soak.rounds=N} (default 2). The
- * figures (heap, resident memory, threads, probe latency) are printed on one line each.
+ * every 20 ms (connect, {@code *IDN?}, its reply) is answered throughout. The attackers run in a
+ * process of their own ({@link SoakAttacks}), as attackers do: in this JVM their own work (building
+ * 2 MiB lines and 12,000-element netlists, their threads) counted against the server's heap and
+ * held the probe up in their own garbage collections. The probe runs in the server's JVM, so the
+ * server's pauses count against it. Rounds: {@code -Dzweep.soak.rounds=N} (default 2). The figures
+ * (heap, resident memory, threads, probe latency, the CPU shares of the server, the attackers and
+ * the rest of the machine, the slowest probe per attack) are printed one line each.
  */
 class ServerSoakIT {
     private static final int CAP = 64;
@@ -40,20 +48,53 @@ class ServerSoakIT {
                 .withMaxConnections(CAP).withInstrument(InstrumentOptions.defaults().withTiming(TimingModel.NONE)
                         .withBenchLoader(BenchLoader.simulated(true, TimingModel.NONE))))) {
             int serverThreadsAtStart = serverThreads();
-            attackRound(server); // warm-up: threads, JIT and buffers reach their steady state
-            settle(server);
-            long heapBefore = heapUsed();
-            int threadsBefore = threads();
-            long rssBefore = residentKiB();
-
+            Process attackers = new ProcessBuilder(Path.of(System.getProperty("java.home"), "bin", "java").toString(),
+                    "-cp", System.getProperty("java.class.path"), SoakAttacks.class.getName(),
+                    server.address().getHostString(), Integer.toString(server.port()), Integer.toString(CAP),
+                    Integer.toString(rounds)).redirectError(ProcessBuilder.Redirect.INHERIT).start();
             Probe probe = new Probe(server);
             Thread t = new Thread(probe, "soak-probe");
-            t.start();
-            for (int r = 0; r < rounds; r++) {
-                attackRound(server);
+            long heapBefore = 0;
+            int threadsBefore = 0;
+            long rssBefore = 0;
+            Cpu cpuBefore = null;
+            Cpu cpuAfter = null;
+            try (BufferedReader said = new BufferedReader(new InputStreamReader(attackers.getInputStream(), StandardCharsets.US_ASCII));
+                    Writer answer = new OutputStreamWriter(attackers.getOutputStream(), StandardCharsets.US_ASCII)) {
+                String line;
+                while ((line = said.readLine()) != null) {
+                    if (line.equals("done")) {
+                        cpuAfter = Cpu.now(attackers.pid());
+                        answer.write("bye\n");
+                        answer.flush();
+                        break;
+                    }
+                    if (line.startsWith("phase ")) {
+                        Probe.phase = line.substring(6);
+                    } else if (line.equals("closed?")) {
+                        // the attackers' closed connections are gone (the probe's may be open)
+                        ServerLimitsIT.awaitTrue(() -> server.connectionCount() <= 1, "the attackers' connections closed");
+                        answer.write("ok\n");
+                        answer.flush();
+                    } else if (line.equals("warm")) {
+                        // warm-up done: threads, JIT and buffers reached their steady state
+                        settle(server);
+                        heapBefore = heapUsed();
+                        threadsBefore = threads();
+                        rssBefore = residentKiB();
+                        cpuBefore = Cpu.now(attackers.pid());
+                        t.start();
+                        answer.write("go\n");
+                        answer.flush();
+                    }
+                }
+            } finally {
+                probe.stop.set(true);
+                if (t.isAlive()) {
+                    t.join();
+                }
             }
-            probe.stop.set(true);
-            t.join();
+            assertEquals(0, attackers.waitFor(), "the attackers' exit code (their complaint is on stderr)");
             settle(server);
             long heapAfter = heapUsed();
             // the connection threads kept for reuse end after their keep-alive
@@ -69,6 +110,10 @@ class ServerSoakIT {
                     threadsBefore, threadsAfter);
             System.out.printf("soak: fresh-client probes %d, failed %d, latency median %.2f ms, p99 %.2f ms, max %.2f ms%n",
                     lat.length, probe.failures, pct(lat, 50), pct(lat, 99), pct(lat, 100));
+            System.out.printf("soak: cpu over %.1f s: server's JVM %.0f %%, attackers %.0f %%, other processes %.0f %% of one core%n",
+                    cpuAfter.seconds(cpuBefore), cpuAfter.ownShare(cpuBefore), cpuAfter.attackersShare(cpuBefore),
+                    cpuAfter.othersShare(cpuBefore));
+            probe.byPhase.forEach((ph, ns) -> System.out.printf("soak: slowest probe during '%s' %.2f ms%n", ph, ns / 1e6));
 
             assertEquals(0, server.connectionCount());
             assertEquals(0, server.outputQueueBytes());
@@ -80,78 +125,6 @@ class ServerSoakIT {
             // only liveness on a shared CI machine (a burst of connections can hold a probe up to a
             // second there); the measured figures are printed above and quoted in README
             assertTrue(pct(lat, 100) < 5000, "slowest probe " + pct(lat, 100) + " ms");
-        }
-    }
-
-    /** One of each attack, each bounded, each closed at the end. */
-    private static void attackRound(SimulatorServer server) throws Exception {
-        Probe.phase = "delayed flood";
-        // unread delayed replies: the queue fills to its bound, then -430
-        try (RawClient c = new RawClient(server)) {
-            c.send("SIM:FAUL:DEL 3600,100000000");
-            c.sendRaw(ServerLimitsIT.repeated("*IDN?", 10_000));
-            c.send("*OPC?");
-        }
-        Probe.phase = "non-readers";
-        // twenty clients that never read
-        List<RawClient> quiet = new ArrayList<>();
-        for (int i = 0; i < 20; i++) {
-            RawClient c = new RawClient(server);
-            quiet.add(c);
-            c.sendRaw(ServerLimitsIT.repeated("*IDN?", 3000));
-        }
-        closeAll(quiet);
-        Probe.phase = "idle";
-        // idle connections up to a few below the cap (the probe needs a free slot)
-        List<RawClient> idle = new ArrayList<>();
-        for (int i = 0; i < CAP - 4; i++) {
-            idle.add(new RawClient(server));
-        }
-        closeAll(idle);
-        Probe.phase = "long line";
-        // a line longer than the message limit without LF, then one with; the connection goes on
-        // (the errors themselves are checked in ServerIT and ServerLimitsIT: the error queue is the
-        // meter's, shared with the attacks still draining, so here only that the connection goes on)
-        try (RawClient c = new RawClient(server)) {
-            byte[] a = new byte[2 << 20];
-            Arrays.fill(a, (byte) 'A');
-            c.sendRaw(a);
-            c.send("");
-            assertEquals(IDN, c.query("*IDN?"));
-        }
-        Probe.phase = "netlist";
-        // a netlist far over the element limit
-        try (RawClient c = new RawClient(server)) {
-            StringBuilder n = new StringBuilder();
-            for (int i = 1; i <= 12_000; i++) {
-                n.append('R').append(i).append(" a").append(i).append(" b").append(i).append(" 1\\n");
-            }
-            c.send("SIM:DEV \"" + n + "\"");
-            assertEquals(IDN, c.query("*IDN?"));
-        }
-        Probe.phase = "odd syntax";
-        // odd syntax: a lone '#', a block whose length never comes, a bad idle time, an unknown header
-        try (RawClient c = new RawClient(server)) {
-            c.sendRaw("SOUR:FREQ #\n*IDN?\n".getBytes(StandardCharsets.US_ASCII));
-            assertEquals(IDN, c.readLine()); // the LF after '#' ended the first message
-            c.send("SIM:FAUL:DROP:IDLE 1E-10");
-            c.send("NO:SUCH:HEADer 1;*CLS");
-            c.send("SIM:DEV #9000000100R1 hi lo 1");
-        }
-        Probe.phase = "half-open";
-        // half-open: a partial message, then the client vanishes
-        List<RawClient> partial = new ArrayList<>();
-        for (int i = 0; i < 20; i++) {
-            RawClient c = new RawClient(server);
-            partial.add(c);
-            c.sendRaw("SOUR:FREQ 1".getBytes(StandardCharsets.US_ASCII));
-        }
-        closeAll(partial);
-    }
-
-    private static void closeAll(List<RawClient> clients) throws IOException {
-        for (RawClient c : clients) {
-            c.close();
         }
     }
 
@@ -189,6 +162,48 @@ class ServerSoakIT {
         return -1;
     }
 
+    /** CPU time (clock ticks) of the whole machine, this JVM and the attackers' process, at one instant. */
+    private record Cpu(long wallNanos, long machineBusy, long own, long attackers) {
+        static Cpu now(long attackersPid) throws IOException {
+            String[] all = Files.readAllLines(Path.of("/proc/stat")).get(0).trim().split("\\s+");
+            long busy = 0;
+            for (int i = 1; i <= 8; i++) {
+                if (i != 4 && i != 5) { // idle, iowait
+                    busy += Long.parseLong(all[i]);
+                }
+            }
+            return new Cpu(System.nanoTime(), busy, ticks(Path.of("/proc/self/stat")),
+                    ticks(Path.of("/proc/" + attackersPid + "/stat")));
+        }
+
+        private static long ticks(Path stat) throws IOException {
+            String s = Files.readString(stat);
+            String[] f = s.substring(s.lastIndexOf(')') + 2).split(" ");
+            return Long.parseLong(f[11]) + Long.parseLong(f[12]); // utime, stime
+        }
+
+        double seconds(Cpu before) {
+            return (wallNanos - before.wallNanos) / 1e9;
+        }
+
+        /** Percent of one core; clock ticks are 1/100 s on Linux. */
+        private double share(long ticks, Cpu before) {
+            return ticks / 100.0 / seconds(before) * 100;
+        }
+
+        double ownShare(Cpu before) {
+            return share(own - before.own, before);
+        }
+
+        double attackersShare(Cpu before) {
+            return share(attackers - before.attackers, before);
+        }
+
+        double othersShare(Cpu before) {
+            return share(machineBusy - before.machineBusy - (own - before.own) - (attackers - before.attackers), before);
+        }
+    }
+
     private static double pct(long[] sortedNanos, int p) {
         if (sortedNanos.length == 0) {
             return Double.NaN;
@@ -202,6 +217,7 @@ class ServerSoakIT {
         static volatile String phase = "";
         final AtomicBoolean stop = new AtomicBoolean();
         final List<Long> nanos = new ArrayList<>();
+        final java.util.Map<String, Long> byPhase = new java.util.TreeMap<>();
         final SimulatorServer server;
         int failures;
 
@@ -217,9 +233,7 @@ class ServerSoakIT {
                     if (IDN.equals(c.query("*IDN?"))) {
                         long took = System.nanoTime() - t0;
                         nanos.add(took);
-                        if (took > 50_000_000L) {
-                            System.out.printf("soak: slow probe %.1f ms during '%s'%n", took / 1e6, phase);
-                        }
+                        byPhase.merge(phase, took, Math::max);
                     } else {
                         failures++;
                     }
