@@ -248,6 +248,45 @@ public final class Dialect {
     }
 
     /**
+     * Whether a point measured right after its setting travels as one message, one round trip: the
+     * settings that changed, the trigger (and {@code measure-again}) and the error query joined,
+     * with ASCII replies. {@link DialectMeter#measureAt} sends it so exactly when this holds (and
+     * nothing must be sent again after a failure); run estimates count its round trips from here.
+     */
+    public boolean measuresAtInOneMessage() {
+        return messages.join() && messages.errorQueryJoined() && messages.errorCheck().afterMeasurement()
+                && reply.encoding() == ReplyShape.Encoding.ASCII;
+    }
+
+    /**
+     * The round trips (messages that wait for an answer) {@link DialectMeter} takes to measure one
+     * point, for run estimates: one when {@link #measuresAtInOneMessage()}; otherwise the settings
+     * message when a setting changed (answered by its joined error query, a separate error query
+     * or the {@code sync} query; none when the meter confirms nothing), the trigger (with
+     * {@code measure-again} joined where messages join and replies are ASCII, else a second
+     * read) and a separate error query after it.
+     *
+     * @param settingChanged whether anything of the setting differs from what the meter holds
+     */
+    public int roundTripsPerPoint(boolean settingChanged) {
+        if (measuresAtInOneMessage()) {
+            return 1;
+        }
+        int n = 0;
+        if (settingChanged && (messages.errorCheck().afterSettings() || has(Command.SYNC))) {
+            n++;
+        }
+        n++;
+        if (has(Command.MEASURE_AGAIN) && !(messages.join() && reply.encoding() == ReplyShape.Encoding.ASCII)) {
+            n++;
+        }
+        if (messages.errorCheck().afterMeasurement() && !messages.errorQueryJoined()) {
+            n++;
+        }
+        return n;
+    }
+
+    /**
      * Whether a standard acquired at each frequency of a plan ({@link
      * org.zweep.driver.meter.CorrectionStyle#AT_ACQUIRED_FREQUENCY}) is acquired over a list of
      * those frequencies in one message (the {@code correction-<standard>-list} commands, at most

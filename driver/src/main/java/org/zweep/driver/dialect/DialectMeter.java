@@ -268,9 +268,7 @@ public final class DialectMeter implements Meter {
     @Override
     public Reading measureAt(MeasurementSetting setting) {
         requireOpen();
-        Dialect.Messages m = dialect.messages();
-        if (resync || !m.join() || !m.errorQueryJoined() || !m.errorCheck().afterMeasurement()
-                || dialect.reply().encoding() != ReplyShape.Encoding.ASCII) {
+        if (resync || !dialect.measuresAtInOneMessage()) {
             apply(setting);
             return measure();
         }

@@ -167,7 +167,7 @@ public final class Station {
      */
     public Reading measure(MeasurementSetting s, BiasControl bias, double delayS) {
         check(s);
-        if (delayS <= 0 && holdsBias(s.bias())) {
+        if (measuresAtOnce(meter.appliedBias(), s.bias(), delayS)) {
             // nothing to wait for between setting and trigger: one message where the meter allows
             return meter.measureAt(s);
         }
@@ -377,10 +377,14 @@ public final class Station {
     }
 
     /** Whether {@code b} is what the meter holds now: no ramp, no settling before measuring at it. */
-    private boolean holdsBias(Bias b) {
-        Bias applied = meter.appliedBias();
-        return !b.on() && !applied.on()
-                || b.on() && applied.on() && b.mode() == applied.mode() && b.value() == applied.value();
+    /**
+     * Whether {@link #measure} sends a point's setting and trigger together ({@link Meter#measureAt}):
+     * no delay before it, and the meter already holds its bias (nothing to ramp or settle). The
+     * run estimate walks a plan with the same rule.
+     */
+    static boolean measuresAtOnce(Bias applied, Bias wanted, double delayS) {
+        return delayS <= 0 && (!wanted.on() && !applied.on() || wanted.on() && applied.on()
+                && wanted.mode() == applied.mode() && wanted.value() == applied.value());
     }
 
     private void apply(MeasurementSetting s) {

@@ -41,8 +41,9 @@ class RunEstimateTest {
         assertEquals(2 * (0.452 + 0.202), e.steps().get(0).meterS(), 1e-12);
         // host: settle 1 s at 0 V; ramp 0 → 10 V at 5 V/s = 2 s then settle 1 s; ramp back down 2 s;
         // exchanges: fixture and wiring 2, per sweep apply + list set-up + trigger 3 (twice),
-        // 20 ramp steps of 0.1 s up and 20 down, bias off 1: 49; rows: 4, made durable twice
-        double host = 6.0 + 49 * RunEstimate.EXCHANGE_S + 4 * RunEstimate.ROW_S + 2 * RunEstimate.SYNC_S;
+        // 20 ramp steps of 0.1 s up and 20 down, bias off 1: 49; rows: 4, made durable twice, behind
+        // (each sync is over long before the ramp after it ends: never waited for)
+        double host = 6.0 + 49 * RunEstimate.EXCHANGE_S + 4 * RunEstimate.ROW_S;
         assertEquals(host, e.steps().get(0).waitS(), 1e-12);
         assertEquals(RunEstimate.START_S + 1.308 + host + RunEstimate.END_S, e.totalS(), 1e-12);
         // the ETA's schedule adds up to the same run
@@ -58,9 +59,32 @@ class RunEstimateTest {
                   - {name: s, frequency: [1 kHz, 10 kHz], level: 1 V, integration: 100 ms}
                 """);
         RunEstimate e = RunEstimate.of(plan);
-        // per standard 2 points of 0.1 + 0.002 s, 2 exchanges each, 1 for the fixture
-        assertEquals(2 * (2 * 0.102 + 5 * RunEstimate.EXCHANGE_S), e.compensationS(), 1e-12);
+        // per standard 2 points of 0.1 + 0.002 s, one message each (setting and trigger joined), 1 for the fixture
+        assertEquals(2 * (2 * 0.102 + 3 * RunEstimate.EXCHANGE_S), e.compensationS(), 1e-12);
         assertEquals(2, e.compensationStandardS().size());
+    }
+
+    @Test
+    void aPointByPointStepIsOneRoundTripAPointWithItsSyncBehindTheNextPoint() throws IOException {
+        Plan plan = load("""
+                steps:
+                  - {name: s, frequency: 100 kHz, level: [0.1 V, 0.2 V, 0.3 V], integration: 1 ms}
+                """);
+        RunEstimate e = RunEstimate.of(plan);
+        // standard.yaml: point-overhead 2 ms + max(1 ms, 2 periods of 100 kHz) = 3 ms a point
+        assertEquals(3 * 0.003, e.steps().get(0).meterS(), 1e-12);
+        // the level changes every point: no list; each point one message (setting, trigger, again, error query);
+        // fixture and wiring 2 exchanges; each row's 2 ms sync ends before the next 4 ms point does
+        assertEquals(2 * RunEstimate.EXCHANGE_S + 3 * (RunEstimate.EXCHANGE_S + RunEstimate.ROW_S),
+                e.steps().get(0).waitS(), 1e-12);
+        // closing the file waits for the last sync
+        assertEquals(RunEstimate.SYNC_S + RunEstimate.END_S, e.finishS(), 1e-12);
+
+        // mz300 (mz300-point-by-point.conv): ERR? is a message of its own, so a changed setting is a
+        // write and an ERR? round trip, then TRIG;RESULT?: two round trips a point
+        RunEstimate mz = RunEstimate.of(plan, org.zweep.driver.dialect.Dialect.load("mz300"));
+        assertEquals(2 * RunEstimate.EXCHANGE_S + 3 * (2 * RunEstimate.EXCHANGE_S + RunEstimate.ROW_S),
+                mz.steps().get(0).waitS(), 1e-12);
     }
 
     @Test
