@@ -368,12 +368,13 @@ public final class HislipServer implements AutoCloseable {
             synchronized (lockMonitor) {
                 long deadline = System.nanoTime() + timeoutMillis * 1_000_000L;
                 while (lockOwner != null && lockOwner != this) {
-                    long left = (deadline - System.nanoTime()) / 1_000_000L;
+                    long left = deadline - System.nanoTime();
                     if (left <= 0) {
                         return 0;
                     }
                     try {
-                        lockMonitor.wait(left);
+                        // rounded up: a wait cut to whole milliseconds refused up to 1 ms before the timeout
+                        lockMonitor.wait((left + 999_999L) / 1_000_000L);
                     } catch (InterruptedException e) {
                         Thread.currentThread().interrupt();
                         return 0;

@@ -21,6 +21,8 @@ public final class MessageFramer {
     private int bufPos;
     private int bufLen;
     private byte[] msg = new byte[256];
+    private final Cut cut = new Cut();
+    private final Cut look = new Cut();
 
     /**
      * @param in the stream to read
@@ -36,6 +38,17 @@ public final class MessageFramer {
         return bufPos < bufLen;
     }
 
+    /** Whether a whole message (or the end of an overrun) is already read in: {@link #next()} will not block. */
+    public boolean messageBuffered() {
+        look.reset();
+        for (int i = bufPos; i < bufLen; i++) {
+            if (look.ends(buf[i] & 0xFF, maxBytes)) {
+                return true;
+            }
+        }
+        return false;
+    }
+
     /**
      * Blocks until a whole message has arrived.
      *
@@ -43,12 +56,7 @@ public final class MessageFramer {
      * @throws IOException as the stream throws it (a read timeout included)
      */
     public Message next() throws IOException {
-        int len = 0;
-        boolean overrun = false;
-        int quote = 0;
-        int blockState = 0; // 0 none, 1 after '#', 2 in length digits, 3 in data
-        int digitsLeft = 0;
-        long bytesLeft = 0;
+        cut.reset();
         while (true) {
             if (bufPos == bufLen) {
                 bufLen = in.read(buf, 0, buf.length);
@@ -59,11 +67,44 @@ public final class MessageFramer {
                 }
             }
             int b = buf[bufPos++] & 0xFF;
-            if (overrun) {
-                if (b == '\n') {
-                    return new Message(null, true);
+            int len = cut.len;
+            if (cut.ends(b, maxBytes)) {
+                return cut.overrun ? new Message(null, true) : new Message(Arrays.copyOf(msg, len), false);
+            }
+            if (cut.len > len) {
+                if (len == msg.length) {
+                    msg = Arrays.copyOf(msg, Math.min(maxBytes, msg.length * 2));
                 }
-                continue;
+                msg[len] = (byte) b;
+            }
+        }
+    }
+
+    /** Where one message ends: its LF, outside quoted strings and definite-length blocks. */
+    private static final class Cut {
+        int len;
+        boolean overrun;
+        int quote;
+        int blockState; // 0 none, 1 after '#', 2 in length digits, 3 in data
+        int digitsLeft;
+        long bytesLeft;
+
+        void reset() {
+            len = 0;
+            overrun = false;
+            quote = 0;
+            blockState = 0;
+            digitsLeft = 0;
+            bytesLeft = 0;
+        }
+
+        /**
+         * Takes the message's next byte: whether it ends the message (its LF, or the first LF
+         * after an overrun). {@link #len} grows by one when the byte belongs to the message.
+         */
+        boolean ends(int b, int maxBytes) {
+            if (overrun) {
+                return b == '\n';
             }
             boolean text = true; // false for a byte of a block's header or data
             if (blockState == 1) {
@@ -93,7 +134,7 @@ public final class MessageFramer {
             }
             if (text) {
                 if (b == '\n') {
-                    return new Message(Arrays.copyOf(msg, len), false);
+                    return true;
                 }
                 if (quote != 0) {
                     if (b == quote) {
@@ -107,12 +148,10 @@ public final class MessageFramer {
             }
             if (len == maxBytes) {
                 overrun = true;
-                continue;
+                return false;
             }
-            if (len == msg.length) {
-                msg = Arrays.copyOf(msg, Math.min(maxBytes, msg.length * 2));
-            }
-            msg[len++] = (byte) b;
+            len++;
+            return false;
         }
     }
 }

@@ -42,6 +42,13 @@ final class ClientConnection implements Session.Hooks {
     private volatile boolean stalled;
     private volatile boolean closed;
     private long messages;
+    /** The reader's framer; used by the reader thread only. */
+    private MessageFramer framer;
+    /** A turn kept for the next message of a streaming client (see {@link #BATCH_MESSAGES}); reader only. */
+    private boolean heldTurn;
+    private boolean heldTurnWaiting;
+    private int heldMessages;
+    private long heldSinceNanos;
     private long replies;
     private String closeReason = "client closed";
 
@@ -82,7 +89,7 @@ final class ClientConnection implements Session.Hooks {
             readerThread = Thread.currentThread();
         }
         server.log("connection " + id + " from " + link.peer() + " opened");
-        MessageFramer framer = new MessageFramer(link.input(), server.options().maxMessageBytes());
+        framer = new MessageFramer(link.input(), server.options().maxMessageBytes());
         try {
             int timeoutMs = 0;
             while (!closed) {
@@ -91,6 +98,9 @@ final class ClientConnection implements Session.Hooks {
                 if (wanted != timeoutMs) {
                     link.setReadTimeoutMillis(wanted);
                     timeoutMs = wanted;
+                }
+                if (heldTurn && !framer.messageBuffered()) {
+                    giveTurn(); // never wait for input with a turn
                 }
                 MessageFramer.Message m;
                 try {
@@ -125,6 +135,9 @@ final class ClientConnection implements Session.Hooks {
             // a bug of ours: one log line and this connection closed, never a stack trace or the server
             closeReason = "internal error: " + e;
         } finally {
+            if (heldTurn) {
+                giveTurn();
+            }
             close(closeReason);
             synchronized (this) {
                 // the thread goes back to the pool: no interrupt meant for this connection may reach it
@@ -136,6 +149,9 @@ final class ClientConnection implements Session.Hooks {
 
     private void exchange(byte[] message, boolean waitingClient) throws IOException {
         messages++;
+        if (heldTurn && session.strict()) {
+            giveTurn(); // the check below may wait for the writer
+        }
         if (session.strict() && outputPendingAfterPlainWrites()) {
             clearOutput();
             session.report(StandardError.QUERY_INTERRUPTED, "a new message arrived before the reply was sent");
@@ -152,11 +168,19 @@ final class ClientConnection implements Session.Hooks {
             }
         }
         byte[] reply;
-        boolean turn = server.takeTurn(waitingClient);
+        if (!heldTurn && server.takeTurn(waitingClient)) {
+            heldTurn = true;
+            heldTurnWaiting = waitingClient;
+            heldMessages = 0;
+            heldSinceNanos = System.nanoTime();
+        }
         try {
             reply = session.execute(message);
         } finally {
-            server.endTurn(turn, waitingClient);
+            if (heldTurn && (heldTurnWaiting || ++heldMessages >= BATCH_MESSAGES
+                    || System.nanoTime() - heldSinceNanos >= BATCH_NANOS || !framer.messageBuffered())) {
+                giveTurn();
+            }
         }
         if (closed) {
             return;
@@ -193,6 +217,20 @@ final class ClientConnection implements Session.Hooks {
                 return;
             }
         }
+    }
+
+    /**
+     * A streaming client keeps its turn for its next message while that message has already arrived
+     * whole, for up to this many messages and {@link #BATCH_NANOS}: a flood then costs one hand-off
+     * between threads per batch, not per message. (Turns kept this way are the streaming ones, so
+     * a client that waits for its reply never waits for a batch while two or more processors.)
+     */
+    static final int BATCH_MESSAGES = 64;
+    static final long BATCH_NANOS = 1_000_000;
+
+    private void giveTurn() {
+        heldTurn = false;
+        server.endTurn(true, heldTurnWaiting);
     }
 
     /** Replaces about one printable character in eight (at least one) by another printable one. */

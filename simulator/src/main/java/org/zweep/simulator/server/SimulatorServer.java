@@ -6,6 +6,8 @@ import java.io.OutputStream;
 import java.net.InetSocketAddress;
 import java.net.ServerSocket;
 import java.net.Socket;
+import java.nio.channels.ServerSocketChannel;
+import java.nio.channels.SocketChannel;
 import java.util.Set;
 import java.nio.charset.StandardCharsets;
 import java.util.concurrent.ArrayBlockingQueue;
@@ -38,6 +40,8 @@ public final class SimulatorServer implements AutoCloseable {
     private final ServerOptions options;
     private final Instrument instrument;
     private final ServerSocket listener;
+    /** The listener's channel: accepts without blocking when the backlog is to be drained. */
+    private final ServerSocketChannel listenerChannel;
     private final Set<ClientConnection> connections = ConcurrentHashMap.newKeySet();
     private final AtomicLong ids = new AtomicLong();
     /** Bytes in all connections' output queues. */
@@ -64,7 +68,8 @@ public final class SimulatorServer implements AutoCloseable {
         this.options = options;
         this.instrument = new Instrument(bench, options.instrument(), FaultCommands::register);
         if (options.tcp()) {
-            ServerSocket s = new ServerSocket();
+            ServerSocketChannel ch = ServerSocketChannel.open();
+            ServerSocket s = ch.socket();
             try {
                 s.setReuseAddress(true);
                 // a burst of up to the cap waits in the kernel; a full backlog drops SYNs and costs a client 1 s
@@ -76,17 +81,17 @@ public final class SimulatorServer implements AutoCloseable {
                         + ": " + e.getMessage(), e);
             }
             this.listener = s;
+            this.listenerChannel = ch;
             this.refusals = new ThreadPoolExecutor(1, 1, 1, TimeUnit.SECONDS, new ArrayBlockingQueue<>(64), r -> {
                 Thread t = new Thread(r, "zweep-sim-refuse-" + s.getLocalPort());
                 t.setDaemon(true);
                 return t;
             }, (r, pool) -> ((Refusal) r).close());
             ((ThreadPoolExecutor) refusals).allowCoreThreadTimeOut(true);
-            Thread t = new Thread(this::acceptLoop, "zweep-sim-accept-" + s.getLocalPort());
-            t.setDaemon(true);
-            t.start();
+            startThread(acceptorName(), this::acceptLoop);
         } else {
             this.listener = null;
+            this.listenerChannel = null;
             this.refusals = null;
         }
     }
@@ -168,28 +173,77 @@ public final class SimulatorServer implements AutoCloseable {
         return new InMemoryConnection(toServer, toClient);
     }
 
+    private String acceptorName() {
+        return "zweep-sim-accept-" + listener.getLocalPort();
+    }
+
+    /**
+     * Accepts connections. When a connection arrives alone (nothing more in the backlog), this
+     * thread serves it itself and another takes over accepting: a new client's first message then
+     * waits for no hand-off between threads. A burst is set up for connection threads one by one,
+     * and the last of it served here.
+     */
     private void acceptLoop() {
         while (!closed) {
-            Socket s;
+            ClientConnection here = null;
             try {
-                s = listener.accept();
+                SocketChannel s = listenerChannel.accept();
+                for (SocketChannel next = acceptWaiting(); next != null; next = acceptWaiting()) {
+                    ClientConnection c = admit(s);
+                    if (c != null) {
+                        serve(c);
+                    }
+                    s = next;
+                }
+                here = admit(s);
             } catch (IOException e) {
                 if (!closed) {
                     log("accept failed: " + e.getMessage());
                 }
                 continue;
             }
-            if (connections.size() >= options.maxConnections()) {
-                refuse(s);
-                continue;
+            if (here != null) {
+                connections.add(here);
+                if (closed) {
+                    here.close("server stopped");
+                    return;
+                }
+                startThread(acceptorName(), this::acceptLoop);
+                Thread.currentThread().setName("zweep-sim-conn-" + here.id());
+                here.run();
+                return;
             }
+        }
+    }
+
+    /** The next connection of the backlog, or null when none is waiting (or the listener failed). */
+    private SocketChannel acceptWaiting() {
+        try {
+            listenerChannel.configureBlocking(false);
             try {
-                s.setTcpNoDelay(true);
-                serve(new ClientConnection(this, ids.incrementAndGet(), socketLink(s), options.faults()));
-            } catch (IOException e) {
-                log("cannot set up connection: " + e.getMessage());
-                closeQuietly(s);
+                return listenerChannel.accept();
+            } finally {
+                listenerChannel.configureBlocking(true);
             }
+        } catch (IOException e) {
+            return null; // the blocking accept that follows reports it
+        }
+    }
+
+    /** The connection for {@code ch}, or null when it was refused (the cap) or could not be set up. */
+    private ClientConnection admit(SocketChannel ch) {
+        Socket s = ch.socket();
+        if (connections.size() >= options.maxConnections()) {
+            refuse(s);
+            return null;
+        }
+        try {
+            s.setTcpNoDelay(true);
+            return new ClientConnection(this, ids.incrementAndGet(), socketLink(s), options.faults());
+        } catch (IOException e) {
+            log("cannot set up connection: " + e.getMessage());
+            closeQuietly(s);
+            return null;
         }
     }
 

@@ -86,10 +86,11 @@ final class DeviceLink {
                 if (lim - pos >= requestSize) {
                     return take(requestSize, 0, Vxi11Server.REASON_REQCNT);
                 }
-                long left = (deadline - System.nanoTime()) / 1_000_000L;
+                long left = deadline - System.nanoTime();
                 if (left <= 0) {
                     return take(lim - pos, Vxi11Server.ERR_TIMEOUT, 0);
                 }
+                left = (left + 999_999L) / 1_000_000L; // rounded up: never time out before the deadline
                 makeRoom();
                 int n;
                 try {

@@ -171,12 +171,12 @@ public final class Vxi11Server implements AutoCloseable {
             }
             long deadline = System.nanoTime() + lockTimeoutMillis * 1_000_000L;
             while (lockOwner != 0 && lockOwner != link.id) {
-                long left = (deadline - System.nanoTime()) / 1_000_000L;
+                long left = deadline - System.nanoTime();
                 if (left <= 0) {
                     return ERR_LOCKED;
                 }
                 try {
-                    lockMonitor.wait(left);
+                    lockMonitor.wait((left + 999_999L) / 1_000_000L); // rounded up: never refused before the timeout
                 } catch (InterruptedException e) {
                     Thread.currentThread().interrupt();
                     return ERR_ABORT;

@@ -42,6 +42,48 @@ class MessageFramerTest {
     }
 
     @Test
+    void saysWhetherTheNextMessageCanBeCutWithoutWaitingForInput() throws IOException {
+        // every prefix of messages with quotes, definite-length blocks (LF as data), a lone '#' and
+        // an overrun: next() returns without reading exactly when messageBuffered() said so
+        String[] rest = {"*IDN?\n", "SIM:DEV \"a\nb\"\n", "SIM:DEV #14a\nbc\n", "FREQ #\n", "X'\n'\n",
+            "ABCDEFGHIJKLMNOPQRSTUVWXYZ\n", "#0\n", "#213\n\n\n\n\n\n\n\n\n\n\n\n\n\n"};
+        for (String r : rest) {
+            byte[] all = ("X\n" + r).getBytes(StandardCharsets.ISO_8859_1);
+            for (int k = 2; k <= all.length; k++) {
+                byte[] prefix = java.util.Arrays.copyOf(all, k);
+                java.io.InputStream once = new java.io.InputStream() {
+                    boolean given;
+
+                    @Override
+                    public int read() {
+                        throw new UnsupportedOperationException();
+                    }
+
+                    @Override
+                    public int read(byte[] b, int off, int len) throws IOException {
+                        if (given) {
+                            throw new java.io.InterruptedIOException("would block");
+                        }
+                        given = true;
+                        System.arraycopy(prefix, 0, b, off, prefix.length);
+                        return prefix.length;
+                    }
+                };
+                MessageFramer f = new MessageFramer(once, 16);
+                assertEquals("X", text(f.next()));
+                boolean said = f.messageBuffered();
+                boolean blocked = false;
+                try {
+                    f.next();
+                } catch (java.io.InterruptedIOException e) {
+                    blocked = true;
+                }
+                assertEquals(!said, blocked, "after " + k + " bytes of X\\n" + r.replace("\n", "\\n"));
+            }
+        }
+    }
+
+    @Test
     void anLfInsideADefiniteLengthBlockIsData() throws IOException {
         // IEEE 488.2 §7.7.6: a definite-length block carries any byte, LF included
         byte[] in = "SIM:DEV #15a\nb\nc\nX\n".getBytes(StandardCharsets.US_ASCII);

@@ -2,6 +2,7 @@ package org.zweep.simulator.server;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
+import static org.junit.jupiter.api.Assumptions.assumeTrue;
 
 import java.io.BufferedReader;
 import java.io.IOException;
@@ -32,9 +33,9 @@ import org.zweep.simulator.scpi.TimingModel;
  * process of their own ({@link SoakAttacks}), as attackers do: in this JVM their own work (building
  * 2 MiB lines and 12,000-element netlists, their threads) counted against the server's heap and
  * held the probe up in their own garbage collections. The probe runs in the server's JVM, so the
- * server's pauses count against it. Rounds: {@code -Dzweep.soak.rounds=N} (default 2). The figures
- * (heap, resident memory, threads, probe latency, the CPU shares of the server, the attackers and
- * the rest of the machine, the slowest probe per attack) are printed one line each.
+ * server's pauses count against it. Rounds per batch: {@code -Dzweep.soak.rounds=N} (default 10).
+ * The figures (heap, resident memory, threads, probe latency, the CPU shares of the server, the
+ * attackers and the rest of the machine, the slowest probe per attack) are printed one line each.
  */
 class ServerSoakIT {
     private static final int CAP = 64;
@@ -43,7 +44,8 @@ class ServerSoakIT {
     @Test
     void repeatedAttacksLeaveHeapAndThreadsWhereTheyStartedAndAFreshClientIsAnsweredThroughout() throws Exception {
         SimulatedBench bench = new SimulatedBench(BenchSpec.ofNetlist("R1 hi lo 100", "soak").ideal().withTiming(Timing.NONE));
-        int rounds = Integer.getInteger("zweep.soak.rounds", 2);
+        int rounds = Integer.getInteger("zweep.soak.rounds", 10);
+        long idleGapMicros = Long.getLong("zweep.soak.idleGapMicros", IDLE_GAP_MICROS);
         try (SimulatorServer server = SimulatorServer.start(bench, ServerOptions.defaults().withPort(0)
                 .withMaxConnections(CAP).withInstrument(InstrumentOptions.defaults().withTiming(TimingModel.NONE)
                         .withBenchLoader(BenchLoader.simulated(true, TimingModel.NONE))))) {
@@ -51,24 +53,19 @@ class ServerSoakIT {
             Process attackers = new ProcessBuilder(Path.of(System.getProperty("java.home"), "bin", "java").toString(),
                     "-cp", System.getProperty("java.class.path"), SoakAttacks.class.getName(),
                     server.address().getHostString(), Integer.toString(server.port()), Integer.toString(CAP),
-                    Integer.toString(rounds)).redirectError(ProcessBuilder.Redirect.INHERIT).start();
+                    Integer.toString(rounds), Long.toString(idleGapMicros)).redirectError(ProcessBuilder.Redirect.INHERIT).start();
             Probe probe = new Probe(server);
             Thread t = new Thread(probe, "soak-probe");
             long heapBefore = 0;
             int threadsBefore = 0;
             long rssBefore = 0;
-            Cpu cpuBefore = null;
-            Cpu cpuAfter = null;
+            List<Batch> batches = new ArrayList<>();
             try (BufferedReader said = new BufferedReader(new InputStreamReader(attackers.getInputStream(), StandardCharsets.US_ASCII));
                     Writer answer = new OutputStreamWriter(attackers.getOutputStream(), StandardCharsets.US_ASCII)) {
+                Cpu cpuAtStart = null;
+                int probesAtStart = 0;
                 String line;
                 while ((line = said.readLine()) != null) {
-                    if (line.equals("done")) {
-                        cpuAfter = Cpu.now(attackers.pid());
-                        answer.write("bye\n");
-                        answer.flush();
-                        break;
-                    }
                     if (line.startsWith("phase ")) {
                         Probe.phase = line.substring(6);
                     } else if (line.equals("closed?")) {
@@ -82,10 +79,22 @@ class ServerSoakIT {
                         heapBefore = heapUsed();
                         threadsBefore = threads();
                         rssBefore = residentKiB();
-                        cpuBefore = Cpu.now(attackers.pid());
+                        cpuAtStart = Cpu.now(attackers.pid());
                         t.start();
                         answer.write("go\n");
                         answer.flush();
+                    } else if (line.equals("done")) {
+                        Cpu cpuAtEnd = Cpu.now(attackers.pid());
+                        List<Probe.Answer> answers = probe.since(probesAtStart);
+                        Batch b = new Batch(answers, cpuAtEnd.othersShare(cpuAtStart), cpuAtEnd.ownShare(cpuAtStart),
+                                cpuAtEnd.attackersShare(cpuAtStart), cpuAtEnd.seconds(cpuAtStart));
+                        batches.add(b);
+                        b.print(batches.size());
+                        boolean again = !b.quiet() && batches.size() < MAX_BATCHES;
+                        answer.write(again ? "again\n" : "bye\n");
+                        answer.flush();
+                        cpuAtStart = Cpu.now(attackers.pid());
+                        probesAtStart += answers.size();
                     }
                 }
             } finally {
@@ -104,27 +113,96 @@ class ServerSoakIT {
             }
             int threadsAfter = threads();
             long rssAfter = residentKiB();
-            long[] lat = probe.latencies();
-            System.out.printf("soak: %d rounds; heap %.1f MiB -> %.1f MiB; resident %.1f MiB -> %.1f MiB; threads %d -> %d%n",
-                    rounds, heapBefore / 1048576.0, heapAfter / 1048576.0, rssBefore / 1024.0, rssAfter / 1024.0,
+            System.out.printf("soak: %d rounds a batch, idle connections %d µs apart; heap %.1f MiB -> %.1f MiB; "
+                    + "resident %.1f MiB -> %.1f MiB; threads %d -> %d%n", rounds, idleGapMicros,
+                    heapBefore / 1048576.0, heapAfter / 1048576.0, rssBefore / 1024.0, rssAfter / 1024.0,
                     threadsBefore, threadsAfter);
-            System.out.printf("soak: fresh-client probes %d, failed %d, latency median %.2f ms, p99 %.2f ms, max %.2f ms%n",
-                    lat.length, probe.failures, pct(lat, 50), pct(lat, 99), pct(lat, 100));
-            System.out.printf("soak: cpu over %.1f s: server's JVM %.0f %%, attackers %.0f %%, other processes %.0f %% of one core%n",
-                    cpuAfter.seconds(cpuBefore), cpuAfter.ownShare(cpuBefore), cpuAfter.attackersShare(cpuBefore),
-                    cpuAfter.othersShare(cpuBefore));
-            probe.byPhase.forEach((ph, ns) -> System.out.printf("soak: slowest probe during '%s' %.2f ms%n", ph, ns / 1e6));
 
             assertEquals(0, server.connectionCount());
             assertEquals(0, server.outputQueueBytes());
             assertTrue(threadsAfter <= threadsBefore, "threads " + threadsBefore + " -> " + threadsAfter);
             assertTrue(serverThreads() <= serverThreadsAtStart, "server threads " + serverThreadsAtStart + " -> " + serverThreads());
             assertTrue(heapAfter <= heapBefore + (8 << 20), "heap " + heapBefore + " -> " + heapAfter + " bytes");
-            assertEquals(0, probe.failures, "every probe answered");
-            assertTrue(lat.length >= rounds, "probes ran: " + lat.length);
-            // only liveness on a shared CI machine (a burst of connections can hold a probe up to a
-            // second there); the measured figures are printed above and quoted in README
-            assertTrue(pct(lat, 100) < 5000, "slowest probe " + pct(lat, 100) + " ms");
+            for (Batch b : batches) {
+                assertEquals(0, b.failures(), "every probe answered");
+                assertTrue(b.latencies().length >= rounds, "probes ran: " + b.latencies().length);
+            }
+            // Liveness on any machine: every probe answered, none held up for seconds.
+            for (Batch b : batches) {
+                assertTrue(b.maxMs() < 5000, "slowest probe " + b.maxMs() + " ms");
+            }
+            // The goal (issue 17) is a fresh client answered within 10 ms throughout the attacks,
+            // that is the slowest probe. It is judged on a batch during which the rest of the
+            // machine was quiet (other processes used at most QUIET_OTHERS_PERCENT of one core):
+            // the soak itself takes both cores of a 2-core machine, and time another build takes
+            // from them is no measure of the server. Up to MAX_BATCHES batches are run to find a
+            // quiet one; if none was, the latency is not judged, which is said (a skipped test),
+            // not passed.
+            //
+            // NOT MET YET, so asserted in two parts: 95 % of the probes within the 10 ms goal, and
+            // the slowest within 25 ms. On the development machine (2 cores, quiet) the slowest
+            // probe of a 10-round batch took 8–15 ms (median 0.6–1.3 ms). Timestamps inside the
+            // server put the slow probes' time in waiting for a processor: the accepting thread
+            // to wake, the connection's thread to start (a burst of 20 or 60 new connections makes
+            // as many threads runnable at once), sometimes the probe's own connect; executing and
+            // writing took well under a millisecond, turns no longer waited. The last step to
+            // 10 ms "throughout" is a server that gives a connection a thread only while it has a
+            // message to execute (a selector for the others).
+            Batch judged = batches.stream().filter(Batch::quiet).findFirst().orElse(null);
+            assumeTrue(judged != null, () -> "fresh-client latency not judged: other processes used "
+                    + batches.stream().map(b -> String.format("%.0f %%", b.othersPercent())).toList()
+                    + " of one core during the batches (at most " + QUIET_OTHERS_PERCENT + " % needed)");
+            long[] lat = judged.latencies();
+            assertTrue(pct(lat, 95) <= 10.0, String.format("95 %% of fresh-client probes within %.2f ms (goal 10 ms); "
+                    + "slowest by attack: %s", pct(lat, 95), judged.slowestByPhase()));
+            assertTrue(judged.maxMs() <= 25.0, String.format("slowest fresh-client probe %.2f ms (goal 10 ms, bound 25 ms); "
+                    + "by attack: %s", judged.maxMs(), judged.slowestByPhase()));
+        }
+    }
+
+    /** Other processes' CPU, in percent of one core, up to which a batch is judged. */
+    private static final double QUIET_OTHERS_PERCENT = 25;
+    private static final int MAX_BATCHES = 3;
+    /**
+     * How far apart the idle attack opens its connections (0: all at once, the attack as issue 17
+     * describes it); {@code -Dzweep.soak.idleGapMicros=N} to see what pacing changes.
+     */
+    private static final long IDLE_GAP_MICROS = 0;
+
+    /** One batch of rounds: the probes' answers and what the CPUs did meanwhile. */
+    private record Batch(List<Probe.Answer> answers, double othersPercent, double serverPercent, double attackersPercent,
+            double seconds) {
+        boolean quiet() {
+            return othersPercent <= QUIET_OTHERS_PERCENT;
+        }
+
+        long failures() {
+            return answers.stream().filter(a -> a.nanos() < 0).count();
+        }
+
+        long[] latencies() {
+            return answers.stream().mapToLong(Probe.Answer::nanos).filter(n -> n >= 0).sorted().toArray();
+        }
+
+        double maxMs() {
+            return pct(latencies(), 100);
+        }
+
+        String slowestByPhase() {
+            java.util.Map<String, Long> m = new java.util.TreeMap<>();
+            answers.stream().filter(a -> a.nanos() >= 0).forEach(a -> m.merge(a.phase(), a.nanos(), Math::max));
+            StringBuilder b = new StringBuilder();
+            m.forEach((ph, ns) -> b.append(b.length() == 0 ? "" : ", ").append(String.format("%s %.1f ms", ph, ns / 1e6)));
+            return b.toString();
+        }
+
+        void print(int n) {
+            long[] lat = latencies();
+            System.out.printf("soak: batch %d, %.1f s: fresh-client probes %d, failed %d, latency median %.2f ms, p99 %.2f ms, "
+                    + "max %.2f ms; cpu: server's JVM %.0f %%, attackers %.0f %%, other processes %.0f %% of one core%s%n",
+                    n, seconds, lat.length, failures(), pct(lat, 50), pct(lat, 99), pct(lat, 100), serverPercent,
+                    attackersPercent, othersPercent, quiet() ? "" : " (not quiet)");
+            System.out.printf("soak: batch %d slowest probe by attack: %s%n", n, slowestByPhase());
         }
     }
 
@@ -214,12 +292,14 @@ class ServerSoakIT {
 
     /** A fresh connection every 20 ms: connect, *IDN?, close; the time from connecting to the reply. */
     private static final class Probe implements Runnable {
+        /** One probe: how long it took (-1 when it failed) and during which attack. */
+        record Answer(long nanos, String phase) {
+        }
+
         static volatile String phase = "";
         final AtomicBoolean stop = new AtomicBoolean();
-        final List<Long> nanos = new ArrayList<>();
-        final java.util.Map<String, Long> byPhase = new java.util.TreeMap<>();
+        private final List<Answer> answers = new ArrayList<>();
         final SimulatorServer server;
-        int failures;
 
         Probe(SimulatorServer server) {
             this.server = server;
@@ -228,24 +308,26 @@ class ServerSoakIT {
         @Override
         public void run() {
             while (!stop.get()) {
+                String during = phase;
                 long t0 = System.nanoTime();
+                long took = -1;
                 try (RawClient c = new RawClient(server)) {
                     if (IDN.equals(c.query("*IDN?"))) {
-                        long took = System.nanoTime() - t0;
-                        nanos.add(took);
-                        byPhase.merge(phase, took, Math::max);
-                    } else {
-                        failures++;
+                        took = System.nanoTime() - t0;
                     }
                 } catch (IOException e) {
-                    failures++;
+                    // a failure: took stays -1
+                }
+                synchronized (this) {
+                    answers.add(new Answer(took, during));
                 }
                 ServerIT.sleep(20);
             }
         }
 
-        long[] latencies() {
-            return nanos.stream().mapToLong(Long::longValue).sorted().toArray();
+        /** The answers from the {@code from}th on. */
+        synchronized List<Answer> since(int from) {
+            return List.copyOf(answers.subList(from, answers.size()));
         }
     }
 }

@@ -13,34 +13,41 @@ import org.zweep.simulator.scpi.Instrument;
 /**
  * The attackers of {@link ServerSoakIT}, run in a process of their own as real attackers are: the
  * attacks that grew the server (issue 17), each bounded and closed at the end. Arguments: host,
- * port, rounds. Protocol on stdout/stdin: {@code phase NAME} when an attack starts; {@code closed?}
- * after closing many connections at once, answered by a line on stdin once the server has seen them
- * close (the next attacks need free slots); {@code warm} after the first round (the warm-up),
- * answered by a line on stdin to go on; {@code done} at the end. A wrong answer ends the process
- * with exit 1 and one line on stderr.
+ * port, the server's connection cap, rounds per batch, the gap between idle connections opened
+ * (microseconds, 0 for all at once). Protocol on stdout/stdin: {@code phase NAME} when an attack
+ * starts; {@code closed?} after closing many connections at once, answered by a line on stdin once
+ * the server has seen them close (the next attacks need free slots); {@code warm} after the first
+ * round (the warm-up), answered by a line on stdin to go on; {@code done} after each batch of
+ * rounds, answered by {@code again} for another batch or anything else to end. A wrong answer
+ * ends the process with exit 1 and one line on stderr.
  */
 final class SoakAttacks {
     private final InetSocketAddress server;
     private final int cap;
     private final BufferedReader parent = new BufferedReader(new InputStreamReader(System.in, StandardCharsets.US_ASCII));
 
-    private SoakAttacks(InetSocketAddress server, int cap) {
+    private final long idleGapNanos;
+
+    private SoakAttacks(InetSocketAddress server, int cap, long idleGapMicros) {
         this.server = server;
         this.cap = cap;
+        this.idleGapNanos = idleGapMicros * 1000;
     }
 
     public static void main(String[] args) throws Exception {
-        SoakAttacks a = new SoakAttacks(new InetSocketAddress(args[0], Integer.parseInt(args[1])), Integer.parseInt(args[2]));
+        SoakAttacks a = new SoakAttacks(new InetSocketAddress(args[0], Integer.parseInt(args[1])), Integer.parseInt(args[2]),
+                Long.parseLong(args[4]));
         int rounds = Integer.parseInt(args[3]);
         try {
             a.round();
             a.say("warm");
             a.parent.readLine();
-            for (int r = 0; r < rounds; r++) {
-                a.round();
-            }
-            a.say("done");
-            a.parent.readLine(); // the parent reads this process's CPU time first
+            do {
+                for (int r = 0; r < rounds; r++) {
+                    a.round();
+                }
+                a.say("done"); // the parent reads this process's CPU time, then says again or bye
+            } while ("again".equals(a.parent.readLine()));
         } catch (Exception | AssertionError e) {
             System.err.println("soak attacker: " + e);
             System.exit(1);
@@ -95,7 +102,11 @@ final class SoakAttacks {
         // idle connections up to a few below the cap (the probe needs a free slot)
         List<RawClient> idle = new ArrayList<>();
         for (int i = 0; i < cap - 4; i++) {
+            long next = System.nanoTime() + idleGapNanos;
             idle.add(client());
+            for (long left = next - System.nanoTime(); left > 0; left = next - System.nanoTime()) {
+                java.util.concurrent.locks.LockSupport.parkNanos(left);
+            }
         }
         closeAll(idle);
         awaitClosed();
