@@ -20,6 +20,7 @@ import org.zweep.driver.transport.ConnectionLostException;
 import org.zweep.driver.transport.MeterTimeoutException;
 import org.zweep.simulator.bench.BenchSpec;
 import org.zweep.simulator.scpi.TimingModel;
+import org.zweep.simulator.server.FaultPlan;
 
 /**
  * The driver's failure handling against the simulator's fault injection ({@code SIMulate:FAULt}),
@@ -69,10 +70,19 @@ class FaultsEndToEndIT {
         }
     }
 
+    /**
+     * Every reply cut into 3-byte pieces, {@code FaultPlan.FRAGMENT_GAP} (2 ms) apart, still parses.
+     * A reply of n bytes takes (n/3 − 1) gaps at least, and each gap is a wake-up of the
+     * simulator's writer and of the client's reader: a 110-byte list reply took up to 290 ms on a
+     * loaded machine, so the link has the client's default read timeout (5 s), not the fault tests'
+     * 400 ms, which a busier machine exceeded once. That the pieces really came slowly is checked
+     * from below, which no load can break: the identity reply cannot come sooner than its gaps.
+     */
     @ParameterizedTest
     @EnumSource(SimulatorLink.Kind.class)
     void repliesInThreeBytePiecesParse(SimulatorLink.Kind kind) {
-        try (SimulatorLink link = open(kind); DialectMeter meter = link.standardMeter()) {
+        try (SimulatorLink link = SimulatorLink.open(kind, RC, SimulatorLink.options(TimingModel.NONE),
+                org.zweep.driver.scpi.ScpiSettings.DEFAULTS); DialectMeter meter = link.standardMeter()) {
             link.client.write(":SIM:FAUL:FRAG 3,10");
             meter.apply(MeasurementSetting.at(1000));
             assertIs(rc(1000), meter.measure(), "fragmented point");
@@ -80,7 +90,13 @@ class FaultsEndToEndIT {
                     MeasurementSetting.at(1e5)));
             assertIs(rc(100), list.get(0), "fragmented list, first");
             assertIs(rc(1e5), list.get(2), "fragmented list, last");
-            assertEquals("Korvane Bench Instruments", link.client.query("*IDN?").split(",")[0]);
+            long t0 = System.nanoTime();
+            String idn = link.client.query("*IDN?");
+            long tookNanos = System.nanoTime() - t0;
+            assertEquals("Korvane Bench Instruments", idn.split(",")[0]);
+            long gaps = (idn.length() + 2) / 3 - 1; // the terminator (where there is one) not counted
+            assertTrue(tookNanos >= gaps * FaultPlan.FRAGMENT_GAP.toNanos(), "the identity reply ("
+                    + idn.length() + " bytes) came in " + tookNanos / 1e6 + " ms: not in 3-byte pieces 2 ms apart");
             link.assertNoErrors("fragmented replies");
         }
     }
