@@ -22,6 +22,8 @@ public final class MessageFramer {
     private int bufLen;
     private byte[] msg = new byte[256];
     private final Cut cut = new Cut();
+    /** The longest message buffer kept between messages. */
+    private static final int KEPT_BYTES = 64 << 10;
     private final Cut look = new Cut();
 
     /**
@@ -69,7 +71,11 @@ public final class MessageFramer {
             int b = buf[bufPos++] & 0xFF;
             int len = cut.len;
             if (cut.ends(b, maxBytes)) {
-                return cut.overrun ? new Message(null, true) : new Message(Arrays.copyOf(msg, len), false);
+                Message m = cut.overrun ? new Message(null, true) : new Message(Arrays.copyOf(msg, len), false);
+                if (msg.length > KEPT_BYTES) {
+                    msg = new byte[256]; // a long message's buffer is not kept for the connection's life
+                }
+                return m;
             }
             if (cut.len > len) {
                 if (len == msg.length) {
