@@ -141,7 +141,7 @@ class ServerSoakIT {
             //
             // THE GOAL IS NOT MET, so it is not what is asserted here. On the development machine
             // (2 cores, a shared virtual machine), in quiet 10-round batches, the median probe took
-            // 0.6–1.3 ms but the slowest 8–50 ms (95 % within 2–16 ms): about one batch in three
+            // 0.6–1.3 ms but the slowest 8–50 ms (95 % within 2–16 ms): about one batch in four
             // stays within 10 ms. Timestamps inside the server put the slow probes' time in waiting
             // for a processor: the accepting thread to wake, the connection's thread to start (a
             // burst of 20 or 60 new connections makes as many threads runnable at once), sometimes
