@@ -19,6 +19,7 @@ public final class Main {
             out.flush();
             System.exit(ExitCode.OK);
         }
+        StartUp.aheadOf(args);
         PrintWriter err = new PrintWriter(new java.io.OutputStreamWriter(System.err, StandardCharsets.UTF_8), true);
         boolean debug = java.util.Arrays.asList(args).contains("--debug");
         // a failure on another thread (a background sync, the live page) is one line too, never a trace

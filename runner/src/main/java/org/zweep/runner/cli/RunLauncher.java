@@ -195,7 +195,6 @@ final class RunLauncher {
 
     /** Starts a new run of {@code sequenceFile}; returns the exit code. */
     int start(Path sequenceFile, Options o) {
-        org.zweep.runner.results.Json.prepareInBackground(RunManifest.class, java.util.Map.class);
         o.fixture().check();
         Plan plan = SequenceLoader.loadForMeter(sequenceFile, o.dialect());
         plan = withMeter(plan, o.meter(), o.dialect());

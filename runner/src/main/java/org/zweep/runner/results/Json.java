@@ -40,27 +40,18 @@ public final class Json {
     }
 
     /**
-     * Builds the serializers and deserializers of {@code types} on a background daemon thread and
-     * returns at once, so that a command's first write or read of them does not wait for Jackson's
-     * introspection of the records
-     * (start-up: the work runs on the second core while the command reads its files). A failure
-     * here is left for the write itself to report.
+     * Builds the serializers and deserializers of {@code types} into the mapper's caches, so that a
+     * later first write or read of them does not wait for Jackson's introspection of the records
+     * (see {@code cli.StartUp}, which calls this on a background thread). A failure here is left for
+     * the write itself to report.
      */
-    public static void prepareInBackground(Class<?>... types) {
-        Thread t = new Thread(() -> {
-            for (Class<?> type : types) {
-                try {
-                    // a writer and a reader for a type fetch its serializer and deserializer at once
-                    // (EAGER_SERIALIZER_FETCH, EAGER_DESERIALIZER_FETCH) into the mapper's caches
-                    MAPPER.writerFor(type);
-                    MAPPER.readerFor(type);
-                } catch (RuntimeException | LinkageError e) {
-                    return;
-                }
-            }
-        }, "zweep-json-prepare");
-        t.setDaemon(true);
-        t.start();
+    public static void prepare(Class<?>... types) {
+        for (Class<?> type : types) {
+            // a writer and a reader for a type fetch its serializer and deserializer at once
+            // (EAGER_SERIALIZER_FETCH, EAGER_DESERIALIZER_FETCH)
+            MAPPER.writerFor(type);
+            MAPPER.readerFor(type);
+        }
     }
 
     /** The writer: snake_case, indented, non-finite numbers as null. */
