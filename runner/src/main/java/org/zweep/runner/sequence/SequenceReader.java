@@ -223,10 +223,16 @@ final class SequenceReader {
 
     /**
      * A built-in dialect's name, or a dialect file resolved against the sequence's folder; either is
-     * loaded now, so that a wrong name or a malformed file is refused before anything is measured.
+     * loaded now, so that a wrong name or a malformed file is refused before anything is measured
+     * (unless a dialect given by the user replaces it).
      */
     private String dialect(YamlNode node) {
         String d = node.text("a dialect");
+        if (meterCheck != null && !meterCheck.isEmpty()) {
+            // replaced by the user's dialect (--dialect): the sequence's own is not looked at, so a
+            // sequence copied away from its dialect file still runs
+            return Dialect.isPath(d) ? source.toAbsolutePath().getParent().resolve(d).normalize().toString() : d;
+        }
         if (!Dialect.isPath(d)) {
             try {
                 Dialect.load(d);
@@ -237,7 +243,8 @@ final class SequenceReader {
         }
         Path p = source.toAbsolutePath().getParent().resolve(d).normalize();
         if (!Files.isRegularFile(p)) {
-            throw node.error("dialect file not found: " + d + " (looked for " + p + ")");
+            throw node.error("dialect file not found: " + d + " (looked for " + p + "); put it there, or give the"
+                    + " dialect with --dialect NAME|FILE");
         }
         Dialect.load(p.toString()); // its own errors name the dialect file's line and column
         return p.toString();

@@ -79,7 +79,24 @@ class SequenceSectionsTest {
         InvalidInputException e = assertThrows(InvalidInputException.class,
                 () -> load("meter: {bench: b.bench.yaml, dialect: x.yaml}\n", "{name: s, frequency: 1 kHz, level: 1 V}"));
         assertEquals(dir.resolve("s.yaml") + ":2:39: dialect file not found: x.yaml (looked for "
-                + dir.resolve("x.yaml").toAbsolutePath().normalize() + ")", e.getMessage());
+                + dir.resolve("x.yaml").toAbsolutePath().normalize() + "); put it there, or give the dialect with --dialect"
+                + " NAME|FILE", e.getMessage());
+    }
+
+    @Test
+    void aDialectGivenByTheUserReplacesAMissingDialectFileWithoutLookingAtIt() throws Exception {
+        // a sequence copied away from its dialect file, run with --dialect
+        Files.writeString(dir.resolve("s.yaml"), "format: zweep-sequence/1\n"
+                + "meter: {address: 'tcp://127.0.0.1:5025', dialect: ./gone.dialect.yaml}\n"
+                + "safety: {max_level_voltage: 1 V}\n"
+                + "part: {kind: capacitor, nominal: 1 nF}\n"
+                + "steps: [{name: s, frequency: 1 kHz, level: 1 V}]\n");
+        Plan plan = SequenceLoader.loadForMeter(dir.resolve("s.yaml"), "standard");
+        assertEquals(1, plan.steps().size());
+        // without it, the missing file is refused at its node, as before
+        InvalidInputException e = assertThrows(InvalidInputException.class,
+                () -> SequenceLoader.loadForMeter(dir.resolve("s.yaml"), null));
+        assertTrue(e.getMessage().startsWith(dir.resolve("s.yaml") + ":2:51: dialect file not found"), e.getMessage());
     }
 
     @Test
