@@ -273,6 +273,12 @@ public final class LotCommand implements Callable<Integer> {
             throw new InvalidInputException("give --index or --no-index, not both");
         }
         boolean indexed = !noIndex && (index || !Boolean.FALSE.equals(m.index()));
+        if (!indexed && !noIndex) {
+            // a resume that keeps the choice the lot was started with says so, as a resumed run does
+            stdout.println("not indexed: the lot was started with --no-index ('zweep index " + dir + "' adds its"
+                    + " parts)");
+            stdout.flush();
+        }
         org.zweep.runner.store.Database db = indexed ? store.database() : null;
         for (Path part : LotTable.partFolders(dir)) {
             RunManifest rm = RunManifest.read(part.resolve(RunManifest.FILE));

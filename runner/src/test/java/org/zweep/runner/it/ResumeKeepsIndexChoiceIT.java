@@ -99,6 +99,8 @@ class ResumeKeepsIndexChoiceIT {
         String resumed = zweep("lot", "--resume", lot.toString(), "--quiet", "--db", db.toString());
         assertTrue(resumed.contains("lot L-2 complete: 2 parts"), resumed);
         assertFalse(resumed.contains("indexed in:"), resumed);
+        assertTrue(resumed.contains("not indexed: the lot was started with --no-index ('zweep index " + lot
+                + "' adds its parts)"), resumed);
         assertFalse(Files.exists(db), "the index was not even opened");
         assertEquals(Boolean.FALSE, RunManifest.read(parts.get(1).resolve("run.json")).index(), "part 2, begun now");
     }
