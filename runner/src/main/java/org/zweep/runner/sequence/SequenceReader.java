@@ -228,25 +228,27 @@ final class SequenceReader {
      */
     private String dialect(YamlNode node) {
         String d = node.text("a dialect");
-        if (meterCheck != null && !meterCheck.isEmpty()) {
-            // replaced by the user's dialect (--dialect): the sequence's own is not looked at, so a
-            // sequence copied away from its dialect file still runs
-            return Dialect.isPath(d) ? source.toAbsolutePath().getParent().resolve(d).normalize().toString() : d;
-        }
+        // replaced by the user's dialect (--dialect): the sequence's own is not looked at, so a
+        // sequence copied away from its dialect file still runs
+        boolean replaced = meterCheck != null && !meterCheck.isEmpty();
         if (!Dialect.isPath(d)) {
-            try {
-                Dialect.load(d);
-            } catch (InvalidInputException e) {
-                throw node.error(e.getMessage());
+            if (!replaced) {
+                try {
+                    Dialect.load(d);
+                } catch (InvalidInputException e) {
+                    throw node.error(e.getMessage());
+                }
             }
             return d;
         }
         Path p = source.toAbsolutePath().getParent().resolve(d).normalize();
-        if (!Files.isRegularFile(p)) {
-            throw node.error("dialect file not found: " + d + " (looked for " + p + "); put it there, or give the"
-                    + " dialect with --dialect NAME|FILE");
+        if (!replaced) {
+            if (!Files.isRegularFile(p)) {
+                throw node.error("dialect file not found: " + d + " (looked for " + p + "); put it there, or give"
+                        + " the dialect with --dialect NAME|FILE");
+            }
+            Dialect.load(p.toString()); // its own errors name the dialect file's line and column
         }
-        Dialect.load(p.toString()); // its own errors name the dialect file's line and column
         return p.toString();
     }
 
