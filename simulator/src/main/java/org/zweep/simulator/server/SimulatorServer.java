@@ -33,9 +33,10 @@ import org.zweep.simulator.scpi.Instrument;
  * <p>State model: one {@link Instrument} (settings, measurement data, status registers, error
  * queue) is shared by every connection, as on a real meter with several remote clients; each
  * connection has its own parser and header path, output queue, strictness
- * and faults. Each connection is served by its own reader and writer threads, so a slow, silent
- * or non-reading client never blocks another (a new connection's first few replies go out from its
- * reader, before it has a writer). TCP connections are capped
+ * and faults. One selector thread accepts TCP connections and holds each without a thread until
+ * its first message has arrived whole; from then on a connection is served by its own reader and
+ * writer threads, so a slow, silent or non-reading client never blocks another (a connection's
+ * first few replies go out from its reader, before it has a writer). TCP connections are capped
  * ({@link ServerOptions#maxConnections()}): one more is told why in one line and closed.
  *
  * <p>Thread-safe. {@link #close()} stops accepting, closes every connection and stops the meter.
