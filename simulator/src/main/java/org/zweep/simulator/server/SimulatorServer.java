@@ -53,6 +53,8 @@ public final class SimulatorServer implements AutoCloseable {
     private final Selector selector;
     private final Set<ClientConnection> connections = ConcurrentHashMap.newKeySet();
     private final AtomicLong ids = new AtomicLong();
+    /** TCP connections taken from the backlog, refused ones included. */
+    private final AtomicLong tcpHandled = new AtomicLong();
     /** Bytes in all connections' output queues. */
     private final AtomicLong outputBytes = new AtomicLong();
     private final ExecutorService refusals;
@@ -142,6 +144,11 @@ public final class SimulatorServer implements AutoCloseable {
 
     ServerOptions options() {
         return options;
+    }
+
+    /** How many TCP connections were taken from the listener's backlog so far, refused ones included. */
+    long tcpConnectionsHandled() {
+        return tcpHandled.get();
     }
 
     /** How many connections are open now. */
@@ -342,6 +349,7 @@ public final class SimulatorServer implements AutoCloseable {
      * connection with an idle-time fault: its reads measure its idle time).
      */
     private Arrival admit(SocketChannel ch) {
+        tcpHandled.incrementAndGet();
         Socket s = ch.socket();
         if (connections.size() >= options.maxConnections()) {
             refuse(s);

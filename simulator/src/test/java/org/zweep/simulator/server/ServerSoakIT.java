@@ -70,9 +70,13 @@ class ServerSoakIT {
                 while ((line = said.readLine()) != null) {
                     if (line.startsWith("phase ")) {
                         Probe.phase = line.substring(6);
-                    } else if (line.equals("closed?")) {
-                        // the attackers' closed connections are gone (the probe's may be open)
-                        ServerLimitsIT.awaitTrue(() -> server.connectionCount() <= 1, "the attackers' connections closed");
+                    } else if (line.startsWith("closed? ")) {
+                        // the attackers' closed connections are gone (the probe's may be open): every one
+                        // they opened taken from the backlog (a count alone passed while some still waited
+                        // there, and the next attack then met the cap), and none but the probe's open
+                        long attackersOpened = Long.parseLong(line.substring(8));
+                        ServerLimitsIT.awaitTrue(() -> server.tcpConnectionsHandled() >= attackersOpened + probe.connects()
+                                && server.connectionCount() <= (probe.connected ? 1 : 0), "the attackers' connections closed");
                         answer.write("ok\n");
                         answer.flush();
                     } else if (line.equals("warm")) {
@@ -304,6 +308,9 @@ class ServerSoakIT {
 
         static volatile String phase = "";
         final AtomicBoolean stop = new AtomicBoolean();
+        private final java.util.concurrent.atomic.AtomicLong connects = new java.util.concurrent.atomic.AtomicLong();
+        /** Whether a probe connection may be open (from before connecting to after closing). */
+        volatile boolean connected;
         private final List<Answer> answers = new ArrayList<>();
         final SimulatorServer server;
 
@@ -317,6 +324,8 @@ class ServerSoakIT {
                 String during = phase;
                 long t0 = System.nanoTime();
                 long took = -1;
+                connects.incrementAndGet();
+                connected = true;
                 try (RawClient c = new RawClient(server)) {
                     String reply = c.query("*IDN?");
                     if (IDN.equals(reply)) {
@@ -326,12 +335,19 @@ class ServerSoakIT {
                     }
                 } catch (IOException e) {
                     System.out.println("soak: probe during " + during + " failed: " + e); // took stays -1
+                } finally {
+                    connected = false;
                 }
                 synchronized (this) {
                     answers.add(new Answer(took, during));
                 }
                 ServerIT.sleep(20);
             }
+        }
+
+        /** Connections the probe has begun to open so far. */
+        long connects() {
+            return connects.get();
         }
 
         /** The answers from the {@code from}th on. */
