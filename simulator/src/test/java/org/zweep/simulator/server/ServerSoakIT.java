@@ -33,7 +33,8 @@ import org.zweep.simulator.scpi.TimingModel;
  * process of their own ({@link SoakAttacks}), as attackers do: in this JVM their own work (building
  * 2 MiB lines and 12,000-element netlists, their threads) counted against the server's heap and
  * held the probe up in their own garbage collections. The probe runs in the server's JVM, so the
- * server's pauses count against it. Rounds per batch: {@code -Dzweep.soak.rounds=N} (default 10).
+ * server's pauses count against it. Rounds per batch: {@code -Dzweep.soak.rounds=N} (default 10);
+ * batches run at least: {@code -Dzweep.soak.batches=N} (default 1; more to see the spread).
  * The figures (heap, resident memory, threads, probe latency, the CPU shares of the server, the
  * attackers and the rest of the machine, the slowest probe per attack) are printed one line each.
  */
@@ -45,6 +46,7 @@ class ServerSoakIT {
     void repeatedAttacksLeaveHeapAndThreadsWhereTheyStartedAndAFreshClientIsAnsweredThroughout() throws Exception {
         SimulatedBench bench = new SimulatedBench(BenchSpec.ofNetlist("R1 hi lo 100", "soak").ideal().withTiming(Timing.NONE));
         int rounds = Integer.getInteger("zweep.soak.rounds", 10);
+        int minBatches = Integer.getInteger("zweep.soak.batches", 1);
         long idleGapMicros = Long.getLong("zweep.soak.idleGapMicros", IDLE_GAP_MICROS);
         try (SimulatorServer server = SimulatorServer.start(bench, ServerOptions.defaults().withPort(0)
                 .withMaxConnections(CAP).withInstrument(InstrumentOptions.defaults().withTiming(TimingModel.NONE)
@@ -68,9 +70,13 @@ class ServerSoakIT {
                 while ((line = said.readLine()) != null) {
                     if (line.startsWith("phase ")) {
                         Probe.phase = line.substring(6);
-                    } else if (line.equals("closed?")) {
-                        // the attackers' closed connections are gone (the probe's may be open)
-                        ServerLimitsIT.awaitTrue(() -> server.connectionCount() <= 1, "the attackers' connections closed");
+                    } else if (line.startsWith("closed? ")) {
+                        // the attackers' closed connections are gone (the probe's may be open): every one
+                        // they opened taken from the backlog (a count alone passed while some still waited
+                        // there, and the next attack then met the cap), and none but the probe's open
+                        long attackersOpened = Long.parseLong(line.substring(8));
+                        ServerLimitsIT.awaitTrue(() -> server.tcpConnectionsHandled() >= attackersOpened + probe.connects()
+                                && server.connectionCount() <= (probe.connected ? 1 : 0), "the attackers' connections closed");
                         answer.write("ok\n");
                         answer.flush();
                     } else if (line.equals("warm")) {
@@ -90,7 +96,7 @@ class ServerSoakIT {
                                 cpuAtEnd.attackersShare(cpuAtStart), cpuAtEnd.seconds(cpuAtStart));
                         batches.add(b);
                         b.print(batches.size());
-                        boolean again = !b.quiet() && batches.size() < MAX_BATCHES;
+                        boolean again = (!b.quiet() && batches.size() < MAX_BATCHES) || batches.size() < minBatches;
                         answer.write(again ? "again\n" : "bye\n");
                         answer.flush();
                         cpuAtStart = Cpu.now(attackers.pid());
@@ -302,6 +308,9 @@ class ServerSoakIT {
 
         static volatile String phase = "";
         final AtomicBoolean stop = new AtomicBoolean();
+        private final java.util.concurrent.atomic.AtomicLong connects = new java.util.concurrent.atomic.AtomicLong();
+        /** Whether a probe connection may be open (from before connecting to after closing). */
+        volatile boolean connected;
         private final List<Answer> answers = new ArrayList<>();
         final SimulatorServer server;
 
@@ -315,18 +324,30 @@ class ServerSoakIT {
                 String during = phase;
                 long t0 = System.nanoTime();
                 long took = -1;
+                connects.incrementAndGet();
+                connected = true;
                 try (RawClient c = new RawClient(server)) {
-                    if (IDN.equals(c.query("*IDN?"))) {
+                    String reply = c.query("*IDN?");
+                    if (IDN.equals(reply)) {
                         took = System.nanoTime() - t0;
+                    } else {
+                        System.out.println("soak: probe during " + during + " answered <" + reply + ">");
                     }
                 } catch (IOException e) {
-                    // a failure: took stays -1
+                    System.out.println("soak: probe during " + during + " failed: " + e); // took stays -1
+                } finally {
+                    connected = false;
                 }
                 synchronized (this) {
                     answers.add(new Answer(took, during));
                 }
                 ServerIT.sleep(20);
             }
+        }
+
+        /** Connections the probe has begun to open so far. */
+        long connects() {
+            return connects.get();
         }
 
         /** The answers from the {@code from}th on. */

@@ -15,8 +15,9 @@ import org.zweep.simulator.scpi.Instrument;
  * attacks that grew the server (issue 17), each bounded and closed at the end. Arguments: host,
  * port, the server's connection cap, rounds per batch, the gap between idle connections opened
  * (microseconds, 0 for all at once). Protocol on stdout/stdin: {@code phase NAME} when an attack
- * starts; {@code closed?} after closing many connections at once, answered by a line on stdin once
- * the server has seen them close (the next attacks need free slots); {@code warm} after the first
+ * starts; {@code closed? N} after closing many connections at once (N: the connections opened so
+ * far), answered by a line on stdin once the server has taken all N from its backlog and seen them
+ * close (the next attacks need free slots); {@code warm} after the first
  * round (the warm-up), answered by a line on stdin to go on; {@code done} after each batch of
  * rounds, answered by {@code again} for another batch or anything else to end. A wrong answer
  * ends the process with exit 1 and one line on stderr.
@@ -27,6 +28,8 @@ final class SoakAttacks {
     private final BufferedReader parent = new BufferedReader(new InputStreamReader(System.in, StandardCharsets.US_ASCII));
 
     private final long idleGapNanos;
+    /** Connections opened so far. */
+    private long opened;
 
     private SoakAttacks(InetSocketAddress server, int cap, long idleGapMicros) {
         this.server = server;
@@ -64,7 +67,7 @@ final class SoakAttacks {
     }
 
     private void awaitClosed() throws IOException {
-        say("closed?");
+        say("closed? " + opened);
         parent.readLine();
     }
 
@@ -75,6 +78,7 @@ final class SoakAttacks {
     }
 
     private RawClient client() throws IOException {
+        opened++;
         return new RawClient(server);
     }
 
