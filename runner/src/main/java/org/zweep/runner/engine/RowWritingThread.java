@@ -88,13 +88,7 @@ final class RowWritingThread implements AutoCloseable {
                 }
             }
         }
-        if (interrupted) {
-            Thread.currentThread().interrupt();
-        }
-        RuntimeException f = failed();
-        if (f != null) {
-            throw f;
-        }
+        rethrow(interrupted);
     }
 
     /** Waits for all the work handed over (notes included), ends the thread and throws the work's failure, if any. */
@@ -109,6 +103,11 @@ final class RowWritingThread implements AutoCloseable {
                 interrupted = true;
             }
         }
+        rethrow(interrupted);
+    }
+
+    /** Restores the interrupt swallowed by a wait, then throws the work's failure, if any. */
+    private void rethrow(boolean interrupted) {
         if (interrupted) {
             Thread.currentThread().interrupt();
         }
