@@ -89,6 +89,27 @@ class RunEngineTest {
     }
 
     @Test
+    void aWriteThatFailsOnTheWritingThreadStopsTheRunWithItsErrorAndBiasOff() {
+        Plan plan = TestPlans.capacitor();
+        java.io.UncheckedIOException full = new java.io.UncheckedIOException("cannot write points.csv: No space left on device",
+                new java.io.IOException("No space left on device"));
+        java.io.UncheckedIOException thrown = assertThrows(java.io.UncheckedIOException.class, () -> new RunEngine(plan,
+                station(), ReadingCorrector.NONE, new CheckEvaluator(plan.checks()), progress, interruption)
+                .run(new BitSet(), (row, last) -> {
+                    if (row.point() == 8) {
+                        throw full;
+                    }
+                    rows.add(row);
+                }));
+        assertEquals(full, thrown);
+        // the rows before it are kept; the meter measured at most one point past the failing one
+        assertEquals(IntStream.range(0, 8).boxed().toList(), rows.stream().map(PointRow::point).toList());
+        long measured = bench.trace.stream().filter(t -> t.startsWith("measure ")).count();
+        assertTrue(measured == 9 || measured == 10, bench.trace.toString());
+        assertEquals(Bias.OFF, bench.instrumentBias);
+    }
+
+    @Test
     void rowsSyncedBeforeTheNextTriggerAreDurableWhenItIsSent() {
         List<Long> lag = lagAtEachTrigger(RowSync.BEFORE_NEXT);
         assertTrue(lag.stream().allMatch(n -> n == 0), lag.toString());
