@@ -25,6 +25,7 @@ import java.util.concurrent.TimeUnit;
 import java.util.concurrent.atomic.AtomicLong;
 import org.zweep.simulator.bench.Bench;
 import org.zweep.simulator.scpi.Instrument;
+import org.zweep.simulator.scpi.MessageFramer;
 
 /**
  * The simulated meter behind a raw-socket SCPI server (IEEE 488.2 over TCP, LF-terminated) and
@@ -51,6 +52,8 @@ public final class SimulatorServer implements AutoCloseable {
     private final ServerSocketChannel listenerChannel;
     /** Accepting and the connections that have not sent their first message yet (see {@link #selectLoop()}). */
     private final Selector selector;
+    /** Starts another selector thread when the selector thread executes a message for too long. */
+    private final java.util.concurrent.ScheduledThreadPoolExecutor watchdog;
     private final Set<ClientConnection> connections = ConcurrentHashMap.newKeySet();
     private final AtomicLong ids = new AtomicLong();
     /** TCP connections taken from the backlog, refused ones included. */
@@ -109,8 +112,17 @@ public final class SimulatorServer implements AutoCloseable {
                 throw new IOException("cannot listen on " + options.bindAddress().getHostAddress() + ":" + options.port()
                         + ": " + e.getMessage(), e);
             }
+            this.watchdog = new java.util.concurrent.ScheduledThreadPoolExecutor(1, r -> {
+                Thread t = new Thread(r, "zweep-sim-watch-" + s.getLocalPort());
+                t.setDaemon(true);
+                return t;
+            });
+            watchdog.setRemoveOnCancelPolicy(true);
+            watchdog.setKeepAliveTime(1, TimeUnit.SECONDS);
+            watchdog.allowCoreThreadTimeOut(true);
             startThread(selectorName(), this::selectLoop);
         } else {
+            this.watchdog = null;
             this.listener = null;
             this.listenerChannel = null;
             this.selector = null;
@@ -208,11 +220,14 @@ public final class SimulatorServer implements AutoCloseable {
      * The selector thread: accepts connections and holds each, without a thread of its own, until
      * its first message has arrived whole (an LF; or {@value #FIRST_BYTES} bytes): idle and
      * half-sent connections cost no thread, and a burst of them makes no threads runnable. A
-     * connection whose first message has arrived gets a connection thread from then on
-     * ({@link ClientConnection#run()}, given the bytes read here first). This thread only accepts
-     * and reads without blocking, so it is never held up by a connection: it stays the one thread
-     * that accepts (handing this role on to a new thread with each connection made a burst of
-     * connections with messages a chain of hand-offs that held a new client up).
+     * client that sent one message and waits for its reply (the usual new client) has that message
+     * executed and answered by this thread: its answer waits for no other thread to be woken (that
+     * hand-off was the longest wait left for a new client while others flooded the server), and
+     * its connection then waits here again, without a thread, for its next message. Should the
+     * execution take longer than {@value #INLINE_LIMIT_MS} ms (a message that waits for a
+     * measurement or a trigger), another thread takes over selecting and this one stays with the
+     * connection. A connection that sends more than one message at once (or whose reply or faults
+     * need a thread) gets a connection thread from then on ({@link ClientConnection#run()}).
      */
     private void selectLoop() {
         ByteBuffer buffer = ByteBuffer.allocate(FIRST_BYTES);
@@ -233,7 +248,7 @@ public final class SimulatorServer implements AutoCloseable {
                                 continue;
                             }
                             if (a.firstMessage(buffer)) {
-                                a.serve(); // never registered: it may block at once
+                                ready.add(a); // never registered
                             } else if (!a.connection.isClosed()) {
                                 a.register();
                             }
@@ -243,11 +258,31 @@ public final class SimulatorServer implements AutoCloseable {
                         ready.add(a);
                     }
                 }
-                if (!ready.isEmpty()) {
-                    selector.selectNow(); // deregisters the cancelled keys: their channels may block again
-                    ready.forEach(Arrival::serve);
-                    ready.clear();
+                if (ready.isEmpty()) {
+                    continue;
                 }
+                selector.selectNow(); // deregisters the cancelled keys: their channels may block again
+                for (int i = 0; i < ready.size(); i++) {
+                    Arrival a = ready.get(i);
+                    if (!a.toBlocking()) {
+                        continue;
+                    }
+                    if (!a.waitsForReply()) {
+                        startThread("zweep-sim-conn-" + a.connection.id(), a.connection::run);
+                    } else if (!executeHere(a)) {
+                        // another thread selects now: this one serves the rest found, then stays with a's connection
+                        for (Arrival b : ready.subList(i + 1, ready.size())) {
+                            if (b.toBlocking()) {
+                                startThread("zweep-sim-conn-" + b.connection.id(), b.connection::run);
+                            }
+                        }
+                        ready.clear();
+                        Thread.currentThread().setName("zweep-sim-conn-" + a.connection.id());
+                        a.connection.run();
+                        return;
+                    }
+                }
+                ready.clear();
             } catch (java.nio.channels.ClosedSelectorException e) {
                 return;
             } catch (IOException e) {
@@ -258,8 +293,38 @@ public final class SimulatorServer implements AutoCloseable {
         }
     }
 
+    /**
+     * Executes {@code a}'s message on this thread, then puts the connection back on the selector
+     * (or gives it a thread of its own). If that takes longer than {@value #INLINE_LIMIT_MS} ms, a
+     * new thread takes over selecting.
+     *
+     * @return whether this thread is still the selector thread (false: it is to go on with the connection)
+     */
+    private boolean executeHere(Arrival a) {
+        java.util.concurrent.atomic.AtomicBoolean settled = new java.util.concurrent.atomic.AtomicBoolean();
+        java.util.concurrent.ScheduledFuture<?> takeover = watchdog.schedule(() -> {
+            if (settled.compareAndSet(false, true)) {
+                startThread(selectorName(), this::selectLoop);
+            }
+        }, INLINE_LIMIT_MS, TimeUnit.MILLISECONDS);
+        boolean open = a.connection.executeArrived();
+        if (!settled.compareAndSet(false, true)) {
+            return false;
+        }
+        takeover.cancel(false);
+        if (open && a.connection.mayWaitWithoutThread()) {
+            a.waitForNext();
+        } else if (open) {
+            startThread("zweep-sim-conn-" + a.connection.id(), a.connection::run);
+        }
+        return true;
+    }
+
+    /** How long the selector thread executes a new client's message before another takes over selecting. */
+    static final long INLINE_LIMIT_MS = 5;
+
     /** The most a connection sends before it gets a thread: its first message, or this much of it. */
-    static final int FIRST_BYTES = 8192;
+    static final int FIRST_BYTES = MessageFramer.PRELOAD_BYTES;
 
     /**
      * A TCP connection before it has a thread: its channel and the bytes it sent so far (guarded by
@@ -268,12 +333,14 @@ public final class SimulatorServer implements AutoCloseable {
     private final class Arrival {
         final SocketChannel channel;
         final ClientConnection connection;
-        byte[] bytes = new byte[0];
+        /** The bytes read so far (allocated with the first of them: an idle connection holds none). */
+        byte[] bytes;
+        int length;
 
         Arrival(SocketChannel channel) throws IOException {
             this.channel = channel;
             this.connection = new ClientConnection(SimulatorServer.this, ids.incrementAndGet(),
-                    socketLink(channel.socket(), () -> bytes), options.faults());
+                    socketLink(channel.socket()), options.faults());
         }
 
         /**
@@ -286,7 +353,7 @@ public final class SimulatorServer implements AutoCloseable {
                 return false;
             }
             try {
-                buffer.clear().limit(FIRST_BYTES - bytes.length);
+                buffer.clear().limit(FIRST_BYTES - length);
                 int n = channel.read(buffer);
                 if (n < 0) {
                     connection.close("client closed"); // a partial first message is dropped
@@ -295,19 +362,46 @@ public final class SimulatorServer implements AutoCloseable {
                 if (n == 0) {
                     return false;
                 }
-                int old = bytes.length;
-                bytes = java.util.Arrays.copyOf(bytes, old + n);
-                buffer.flip().get(bytes, old, n);
-                for (int i = old; i < bytes.length; i++) {
+                if (bytes == null) {
+                    bytes = new byte[FIRST_BYTES];
+                }
+                buffer.flip().get(bytes, length, n);
+                length += n;
+                for (int i = length - n; i < length; i++) {
                     if (bytes[i] == '\n') {
                         return true;
                     }
                 }
-                return bytes.length >= FIRST_BYTES;
+                return length >= FIRST_BYTES;
             } catch (IOException e) {
                 connection.close("connection lost: " + e.getMessage());
                 return false;
             }
+        }
+
+        /** Whether the client sent one message and nothing after it: it waits for the reply. */
+        boolean waitsForReply() {
+            if (length == 0 || bytes[length - 1] != '\n') {
+                return false;
+            }
+            for (int i = 0; i < length - 1; i++) {
+                if (bytes[i] == '\n') {
+                    return false;
+                }
+            }
+            return true;
+        }
+
+        /** Waits on the selector again, without a thread, for the connection's next message. */
+        void waitForNext() {
+            length = 0;
+            try {
+                channel.configureBlocking(false);
+            } catch (IOException e) {
+                connection.close("connection lost: " + e.getMessage());
+                return;
+            }
+            register();
         }
 
         /** Waits on the selector for the first message. */
@@ -319,15 +413,21 @@ public final class SimulatorServer implements AutoCloseable {
             }
         }
 
-        /** Gives the connection its thread, its channel blocking again (no longer on the selector). */
-        void serve() {
+        /**
+         * Puts the channel back in blocking mode (it is no longer on the selector) and gives the
+         * connection the bytes read; false if the connection closed meanwhile.
+         */
+        boolean toBlocking() {
             try {
                 channel.configureBlocking(true);
             } catch (IOException | java.nio.channels.IllegalBlockingModeException e) {
                 connection.close("cannot set up connection: " + e.getMessage());
-                return;
+                return false;
             }
-            startThread("zweep-sim-conn-" + connection.id(), connection::run);
+            if (bytes != null) {
+                connection.preload(bytes, length);
+            }
+            return true;
         }
     }
 
@@ -434,11 +534,7 @@ public final class SimulatorServer implements AutoCloseable {
         return outputBytes.get();
     }
 
-    /**
-     * The link over {@code s}; its input gives the bytes {@code first} returns (read before the
-     * connection had a thread) before those of the socket.
-     */
-    private static Link socketLink(Socket s, java.util.function.Supplier<byte[]> first) throws IOException {
+    private static Link socketLink(Socket s) throws IOException {
         OutputStream out = s.getOutputStream();
         String peer = s.getInetAddress().getHostAddress() + ":" + s.getPort();
         return new Link() {
@@ -447,7 +543,11 @@ public final class SimulatorServer implements AutoCloseable {
             @Override
             public synchronized InputStream input() {
                 if (in == null) {
-                    in = new FirstBytesInput(first.get(), s);
+                    try {
+                        in = s.getInputStream();
+                    } catch (IOException e) {
+                        throw new java.io.UncheckedIOException(e);
+                    }
                 }
                 return in;
             }
@@ -472,40 +572,6 @@ public final class SimulatorServer implements AutoCloseable {
                 return peer;
             }
         };
-    }
-
-    /** A socket's input after the bytes already read from it. */
-    private static final class FirstBytesInput extends InputStream {
-        private final byte[] first;
-        private int pos;
-        private final Socket socket;
-        private InputStream rest;
-
-        FirstBytesInput(byte[] first, Socket socket) {
-            this.first = first;
-            this.socket = socket;
-        }
-
-        @Override
-        public int read() throws IOException {
-            byte[] one = new byte[1];
-            int n = read(one, 0, 1);
-            return n < 0 ? -1 : one[0] & 0xFF;
-        }
-
-        @Override
-        public int read(byte[] b, int off, int len) throws IOException {
-            if (pos < first.length) {
-                int n = Math.min(len, first.length - pos);
-                System.arraycopy(first, pos, b, off, n);
-                pos += n;
-                return n;
-            }
-            if (rest == null) {
-                rest = socket.getInputStream();
-            }
-            return rest.read(b, off, len);
-        }
     }
 
     private void serve(ClientConnection c) {
@@ -597,6 +663,7 @@ public final class SimulatorServer implements AutoCloseable {
         }
         if (refusals != null) {
             refusals.shutdownNow();
+            watchdog.shutdownNow();
         }
         connectionThreads.shutdown();
         instrument.close();

@@ -80,7 +80,14 @@ class ServerSoakIT {
                         answer.write("ok\n");
                         answer.flush();
                     } else if (line.equals("warm")) {
-                        // warm-up done: threads, JIT and buffers reached their steady state
+                        // warm-up done: threads, JIT and buffers reached their steady state; the probe's
+                        // own path (its client code, a new client's message executed as it arrives) too
+                        settle(server);
+                        for (int i = 0; i < PROBE_WARM_UP; i++) {
+                            try (RawClient c = new RawClient(server)) {
+                                assertEquals(IDN, c.query("*IDN?"), "warm-up probe");
+                            }
+                        }
                         settle(server);
                         heapBefore = heapUsed();
                         threadsBefore = threads();
@@ -173,6 +180,8 @@ class ServerSoakIT {
     /** Other processes' CPU, in percent of one core, up to which a batch is judged. */
     private static final double QUIET_OTHERS_PERCENT = 25;
     private static final int MAX_BATCHES = 3;
+    /** Probes before the measured ones (the attackers' warm-up does not take a new client's path). */
+    private static final int PROBE_WARM_UP = Integer.getInteger("zweep.soak.probeWarmUp", 300);
     /**
      * How far apart the idle attack opens its connections (0: all at once, the attack as issue 17
      * describes it); {@code -Dzweep.soak.idleGapMicros=N} to see what pacing changes.
