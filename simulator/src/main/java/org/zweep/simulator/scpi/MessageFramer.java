@@ -17,7 +17,7 @@ public final class MessageFramer {
 
     private final InputStream in;
     private final int maxBytes;
-    private final byte[] buf = new byte[PRELOAD_BYTES];
+    private final byte[] buf = new byte[8192];
     private int bufPos;
     private int bufLen;
     private byte[] msg = new byte[256];
@@ -33,24 +33,6 @@ public final class MessageFramer {
     public MessageFramer(InputStream in, int maxBytes) {
         this.in = in;
         this.maxBytes = maxBytes;
-    }
-
-    /** The most {@link #preload(byte[], int)} takes. */
-    public static final int PRELOAD_BYTES = 8192;
-
-    /**
-     * Takes bytes already read from the stream (by someone else), to be framed before the
-     * stream's next ones; only while nothing read in is left to frame ({@link #buffered()} false).
-     *
-     * @param bytes the bytes, of which the first {@code length} (at most {@link #PRELOAD_BYTES}) are taken
-     */
-    public void preload(byte[] bytes, int length) {
-        if (bufPos < bufLen || length > buf.length) {
-            throw new IllegalStateException("preload of " + length + " bytes into a framer holding " + (bufLen - bufPos));
-        }
-        System.arraycopy(bytes, 0, buf, 0, length);
-        bufPos = 0;
-        bufLen = length;
     }
 
     /** Whether bytes after the last message returned are already read in (more is on its way). */

@@ -50,12 +50,6 @@ final class ClientConnection implements Session.Hooks {
     private int heldMessages;
     private long heldSinceNanos;
     private long replies;
-    /**
-     * Whether the messages that arrived before the connection had a thread are being executed (by
-     * the selector thread, one at most at a time): they take no turn, so that thread never waits
-     * for one.
-     */
-    private boolean arriving;
     private String closeReason = "client closed";
 
     ClientConnection(SimulatorServer server, long id, Link link, FaultPlan plan) {
@@ -65,12 +59,6 @@ final class ClientConnection implements Session.Hooks {
         this.faults = new ConnectionFaults(plan, id);
         this.session = server.instrument().openSession(this);
         session.attach(this);
-        server.log("connection " + id + " from " + link.peer() + " opened");
-    }
-
-    /** Whether the connection has closed. */
-    boolean isClosed() {
-        return closed;
     }
 
     long id() {
@@ -95,71 +83,13 @@ final class ClientConnection implements Session.Hooks {
         return session;
     }
 
-    /**
-     * Takes the bytes the client sent while the connection had no thread (see
-     * {@link MessageFramer#preload(byte[], int)}); before {@link #run()} or {@link #executeArrived()}.
-     */
-    void preload(byte[] bytes, int length) {
-        if (framer == null) {
-            framer = new MessageFramer(link.input(), server.options().maxMessageBytes());
-        }
-        framer.preload(bytes, length);
-    }
-
-    /**
-     * Executes, on the calling thread, the messages that have arrived whole, without waiting for
-     * more input or for a turn; {@link #run()} goes on from there on another thread.
-     *
-     * @return whether the connection is still open
-     */
-    boolean executeArrived() {
-        arriving = true;
-        try {
-            while (!closed && framer.messageBuffered()) {
-                MessageFramer.Message m = framer.next();
-                if (m == null) {
-                    break;
-                }
-                if (stalled) {
-                    continue;
-                }
-                if (m.overrun()) {
-                    session.report(StandardError.INPUT_BUFFER_OVERRUN,
-                            "message longer than " + server.options().maxMessageBytes() + " bytes");
-                    continue;
-                }
-                exchange(m.bytes(), !framer.buffered());
-            }
-        } catch (InterruptedIOException e) {
-            close("server stopped");
-        } catch (IOException e) {
-            close(closed ? closeReason : "connection lost: " + e.getMessage());
-        } catch (RuntimeException e) {
-            close("internal error: " + e); // a bug of ours: one log line and this connection closed
-        } finally {
-            arriving = false;
-        }
-        return !closed;
-    }
-
-    /**
-     * Whether the connection, after {@link #executeArrived()}, may wait for its next message
-     * without a thread: nothing of a next message read yet, no reply waiting to go out, no fault
-     * that needs its reads (an idle time) or its thread (a stall).
-     */
-    synchronized boolean mayWaitWithoutThread() {
-        return !closed && !stalled && !framer.buffered() && queue.isEmpty() && writing == null
-                && faults.idleLimit() == null;
-    }
-
     /** Runs the reader loop on the calling thread until the connection ends. */
     void run() {
         synchronized (this) {
             readerThread = Thread.currentThread();
         }
-        if (framer == null) {
-            framer = new MessageFramer(link.input(), server.options().maxMessageBytes());
-        }
+        server.log("connection " + id + " from " + link.peer() + " opened");
+        framer = new MessageFramer(link.input(), server.options().maxMessageBytes());
         try {
             int timeoutMs = 0;
             while (!closed) {
@@ -238,7 +168,7 @@ final class ClientConnection implements Session.Hooks {
             }
         }
         byte[] reply;
-        if (!heldTurn && !arriving && server.takeTurn(waitingClient)) {
+        if (!heldTurn && server.takeTurn(waitingClient)) {
             heldTurn = true;
             heldTurnWaiting = waitingClient;
             heldMessages = 0;

@@ -6,14 +6,8 @@ import java.io.OutputStream;
 import java.net.InetSocketAddress;
 import java.net.ServerSocket;
 import java.net.Socket;
-import java.nio.ByteBuffer;
-import java.nio.channels.SelectionKey;
-import java.nio.channels.Selector;
 import java.nio.channels.ServerSocketChannel;
 import java.nio.channels.SocketChannel;
-import java.util.ArrayList;
-import java.util.Iterator;
-import java.util.List;
 import java.util.Set;
 import java.nio.charset.StandardCharsets;
 import java.util.concurrent.ArrayBlockingQueue;
@@ -25,7 +19,6 @@ import java.util.concurrent.TimeUnit;
 import java.util.concurrent.atomic.AtomicLong;
 import org.zweep.simulator.bench.Bench;
 import org.zweep.simulator.scpi.Instrument;
-import org.zweep.simulator.scpi.MessageFramer;
 
 /**
  * The simulated meter behind a raw-socket SCPI server (IEEE 488.2 over TCP, LF-terminated) and
@@ -34,10 +27,9 @@ import org.zweep.simulator.scpi.MessageFramer;
  * <p>State model: one {@link Instrument} (settings, measurement data, status registers, error
  * queue) is shared by every connection, as on a real meter with several remote clients; each
  * connection has its own parser and header path, output queue, strictness
- * and faults. One selector thread accepts TCP connections and holds each without a thread until
- * its first message has arrived whole; from then on a connection is served by its own reader and
- * writer threads, so a slow, silent or non-reading client never blocks another (a connection's
- * first few replies go out from its reader, before it has a writer). TCP connections are capped
+ * and faults. Each connection is served by its own reader and writer threads, so a slow, silent
+ * or non-reading client never blocks another (a new connection's first few replies go out from its
+ * reader, before it has a writer). TCP connections are capped
  * ({@link ServerOptions#maxConnections()}): one more is told why in one line and closed.
  *
  * <p>Thread-safe. {@link #close()} stops accepting, closes every connection and stops the meter.
@@ -48,12 +40,8 @@ public final class SimulatorServer implements AutoCloseable {
     private final ServerOptions options;
     private final Instrument instrument;
     private final ServerSocket listener;
-    /** The listener's channel, non-blocking, on {@link #selector}. */
+    /** The listener's channel: accepts without blocking when the backlog is to be drained. */
     private final ServerSocketChannel listenerChannel;
-    /** Accepting and the connections that have not sent their first message yet (see {@link #selectLoop()}). */
-    private final Selector selector;
-    /** Starts another selector thread when the selector thread executes a message for too long. */
-    private final java.util.concurrent.ScheduledThreadPoolExecutor watchdog;
     private final Set<ClientConnection> connections = ConcurrentHashMap.newKeySet();
     private final AtomicLong ids = new AtomicLong();
     /** TCP connections taken from the backlog, refused ones included. */
@@ -102,30 +90,10 @@ public final class SimulatorServer implements AutoCloseable {
                 return t;
             }, (r, pool) -> ((Refusal) r).close());
             ((ThreadPoolExecutor) refusals).allowCoreThreadTimeOut(true);
-            try {
-                this.selector = Selector.open();
-                ch.configureBlocking(false);
-                ch.register(selector, SelectionKey.OP_ACCEPT);
-            } catch (IOException e) {
-                s.close();
-                instrument.close();
-                throw new IOException("cannot listen on " + options.bindAddress().getHostAddress() + ":" + options.port()
-                        + ": " + e.getMessage(), e);
-            }
-            this.watchdog = new java.util.concurrent.ScheduledThreadPoolExecutor(1, r -> {
-                Thread t = new Thread(r, "zweep-sim-watch-" + s.getLocalPort());
-                t.setDaemon(true);
-                return t;
-            });
-            watchdog.setRemoveOnCancelPolicy(true);
-            watchdog.setKeepAliveTime(1, TimeUnit.SECONDS);
-            watchdog.allowCoreThreadTimeOut(true);
-            startThread(selectorName(), this::selectLoop);
+            startThread(acceptorName(), this::acceptLoop);
         } else {
-            this.watchdog = null;
             this.listener = null;
             this.listenerChannel = null;
-            this.selector = null;
             this.refusals = null;
         }
     }
@@ -212,243 +180,65 @@ public final class SimulatorServer implements AutoCloseable {
         return new InMemoryConnection(toServer, toClient);
     }
 
-    private String selectorName() {
-        return "zweep-sim-select-" + listener.getLocalPort();
+    private String acceptorName() {
+        return "zweep-sim-accept-" + listener.getLocalPort();
     }
 
     /**
-     * The selector thread: accepts connections and holds each, without a thread of its own, until
-     * its first message has arrived whole (an LF; or {@value #FIRST_BYTES} bytes): idle and
-     * half-sent connections cost no thread, and a burst of them makes no threads runnable. A
-     * client that sent one message and waits for its reply (the usual new client) has that message
-     * executed and answered by this thread: its answer waits for no other thread to be woken (that
-     * hand-off was the longest wait left for a new client while others flooded the server), and
-     * its connection then waits here again, without a thread, for its next message. Should the
-     * execution take longer than {@value #INLINE_LIMIT_MS} ms (a message that waits for a
-     * measurement or a trigger), another thread takes over selecting and this one stays with the
-     * connection. A connection that sends more than one message at once (or whose reply or faults
-     * need a thread) gets a connection thread from then on ({@link ClientConnection#run()}).
+     * Accepts connections. When a connection arrives alone (nothing more in the backlog), this
+     * thread serves it itself and another takes over accepting: a new client's first message then
+     * waits for no hand-off between threads. A burst is set up for connection threads one by one,
+     * and the last of it served here.
      */
-    private void selectLoop() {
-        ByteBuffer buffer = ByteBuffer.allocate(FIRST_BYTES);
-        List<Arrival> ready = new ArrayList<>();
+    private void acceptLoop() {
         while (!closed) {
+            ClientConnection here = null;
             try {
-                selector.select();
-                for (Iterator<SelectionKey> it = selector.selectedKeys().iterator(); it.hasNext();) {
-                    SelectionKey k = it.next();
-                    it.remove();
-                    if (!k.isValid()) {
-                        continue;
+                SocketChannel s = listenerChannel.accept();
+                for (SocketChannel next = acceptWaiting(); next != null; next = acceptWaiting()) {
+                    ClientConnection c = admit(s);
+                    if (c != null) {
+                        serve(c);
                     }
-                    if (k.isAcceptable()) {
-                        for (SocketChannel ch = acceptWaiting(); ch != null; ch = acceptWaiting()) {
-                            Arrival a = admit(ch);
-                            if (a == null) {
-                                continue;
-                            }
-                            if (a.firstMessage(buffer)) {
-                                ready.add(a); // never registered
-                            } else if (!a.connection.isClosed()) {
-                                a.register();
-                            }
-                        }
-                    } else if (k.isReadable() && k.attachment() instanceof Arrival a && a.firstMessage(buffer)) {
-                        k.cancel();
-                        ready.add(a);
-                    }
+                    s = next;
                 }
-                if (ready.isEmpty()) {
-                    continue;
-                }
-                selector.selectNow(); // deregisters the cancelled keys: their channels may block again
-                for (int i = 0; i < ready.size(); i++) {
-                    Arrival a = ready.get(i);
-                    if (!a.toBlocking()) {
-                        continue;
-                    }
-                    if (!a.waitsForReply()) {
-                        startThread("zweep-sim-conn-" + a.connection.id(), a.connection::run);
-                    } else if (!executeHere(a)) {
-                        // another thread selects now: this one serves the rest found, then stays with a's connection
-                        for (Arrival b : ready.subList(i + 1, ready.size())) {
-                            if (b.toBlocking()) {
-                                startThread("zweep-sim-conn-" + b.connection.id(), b.connection::run);
-                            }
-                        }
-                        ready.clear();
-                        Thread.currentThread().setName("zweep-sim-conn-" + a.connection.id());
-                        a.connection.run();
-                        return;
-                    }
-                }
-                ready.clear();
-            } catch (java.nio.channels.ClosedSelectorException e) {
-                return;
+                here = admit(s);
             } catch (IOException e) {
                 if (!closed) {
-                    log("accepting connections failed: " + e.getMessage());
+                    log("accept failed: " + e.getMessage());
                 }
+                continue;
             }
-        }
-    }
-
-    /**
-     * Executes {@code a}'s message on this thread, then puts the connection back on the selector
-     * (or gives it a thread of its own). If that takes longer than {@value #INLINE_LIMIT_MS} ms, a
-     * new thread takes over selecting.
-     *
-     * @return whether this thread is still the selector thread (false: it is to go on with the connection)
-     */
-    private boolean executeHere(Arrival a) {
-        java.util.concurrent.atomic.AtomicBoolean settled = new java.util.concurrent.atomic.AtomicBoolean();
-        java.util.concurrent.ScheduledFuture<?> takeover = watchdog.schedule(() -> {
-            if (settled.compareAndSet(false, true)) {
-                startThread(selectorName(), this::selectLoop);
-            }
-        }, INLINE_LIMIT_MS, TimeUnit.MILLISECONDS);
-        boolean open = a.connection.executeArrived();
-        if (!settled.compareAndSet(false, true)) {
-            return false;
-        }
-        takeover.cancel(false);
-        if (open && a.connection.mayWaitWithoutThread()) {
-            a.waitForNext();
-        } else if (open) {
-            startThread("zweep-sim-conn-" + a.connection.id(), a.connection::run);
-        }
-        return true;
-    }
-
-    /** How long the selector thread executes a new client's message before another takes over selecting. */
-    static final long INLINE_LIMIT_MS = 5;
-
-    /** The most a connection sends before it gets a thread: its first message, or this much of it. */
-    static final int FIRST_BYTES = MessageFramer.PRELOAD_BYTES;
-
-    /**
-     * A TCP connection before it has a thread: its channel and the bytes it sent so far (guarded by
-     * the selector thread, then handed to the connection's thread with the connection).
-     */
-    private final class Arrival {
-        final SocketChannel channel;
-        final ClientConnection connection;
-        /** The bytes read so far (allocated with the first of them: an idle connection holds none). */
-        byte[] bytes;
-        int length;
-
-        Arrival(SocketChannel channel) throws IOException {
-            this.channel = channel;
-            this.connection = new ClientConnection(SimulatorServer.this, ids.incrementAndGet(),
-                    socketLink(channel.socket()), options.faults());
-        }
-
-        /**
-         * Reads what the client sent without blocking: whether the connection is to get its thread
-         * now (its first message is whole, or {@link #FIRST_BYTES} bytes of it are here). A client
-         * that closes with only part of a message sent is closed here.
-         */
-        boolean firstMessage(ByteBuffer buffer) {
-            if (connection.isClosed()) {
-                return false;
-            }
-            try {
-                buffer.clear().limit(FIRST_BYTES - length);
-                int n = channel.read(buffer);
-                if (n < 0) {
-                    connection.close("client closed"); // a partial first message is dropped
-                    return false;
+            if (here != null) {
+                connections.add(here);
+                if (closed) {
+                    here.close("server stopped");
+                    return;
                 }
-                if (n == 0) {
-                    return false;
-                }
-                if (bytes == null) {
-                    bytes = new byte[FIRST_BYTES];
-                }
-                buffer.flip().get(bytes, length, n);
-                length += n;
-                for (int i = length - n; i < length; i++) {
-                    if (bytes[i] == '\n') {
-                        return true;
-                    }
-                }
-                return length >= FIRST_BYTES;
-            } catch (IOException e) {
-                connection.close("connection lost: " + e.getMessage());
-                return false;
-            }
-        }
-
-        /** Whether the client sent one message and nothing after it: it waits for the reply. */
-        boolean waitsForReply() {
-            if (length == 0 || bytes[length - 1] != '\n') {
-                return false;
-            }
-            for (int i = 0; i < length - 1; i++) {
-                if (bytes[i] == '\n') {
-                    return false;
-                }
-            }
-            return true;
-        }
-
-        /** Waits on the selector again, without a thread, for the connection's next message. */
-        void waitForNext() {
-            length = 0;
-            try {
-                channel.configureBlocking(false);
-            } catch (IOException e) {
-                connection.close("connection lost: " + e.getMessage());
+                startThread(acceptorName(), this::acceptLoop);
+                Thread.currentThread().setName("zweep-sim-conn-" + here.id());
+                here.run();
                 return;
             }
-            register();
-        }
-
-        /** Waits on the selector for the first message. */
-        void register() {
-            try {
-                channel.register(selector, SelectionKey.OP_READ, this);
-            } catch (IOException e) {
-                connection.close("cannot set up connection: " + e.getMessage()); // closed meanwhile
-            }
-        }
-
-        /**
-         * Puts the channel back in blocking mode (it is no longer on the selector) and gives the
-         * connection the bytes read; false if the connection closed meanwhile.
-         */
-        boolean toBlocking() {
-            try {
-                channel.configureBlocking(true);
-            } catch (IOException | java.nio.channels.IllegalBlockingModeException e) {
-                connection.close("cannot set up connection: " + e.getMessage());
-                return false;
-            }
-            if (bytes != null) {
-                connection.preload(bytes, length);
-            }
-            return true;
         }
     }
 
     /** The next connection of the backlog, or null when none is waiting (or the listener failed). */
     private SocketChannel acceptWaiting() {
         try {
-            return listenerChannel.accept();
-        } catch (IOException e) {
-            if (!closed) {
-                log("accept failed: " + e.getMessage());
+            listenerChannel.configureBlocking(false);
+            try {
+                return listenerChannel.accept();
+            } finally {
+                listenerChannel.configureBlocking(true);
             }
-            return null;
+        } catch (IOException e) {
+            return null; // the blocking accept that follows reports it
         }
     }
 
-    /**
-     * The arrival of {@code ch}'s connection (counted as open from now), its channel non-blocking;
-     * null when it was refused (the cap), could not be set up, or got its thread at once (a
-     * connection with an idle-time fault: its reads measure its idle time).
-     */
-    private Arrival admit(SocketChannel ch) {
+    /** The connection for {@code ch}, or null when it was refused (the cap) or could not be set up. */
+    private ClientConnection admit(SocketChannel ch) {
         tcpHandled.incrementAndGet();
         Socket s = ch.socket();
         if (connections.size() >= options.maxConnections()) {
@@ -457,19 +247,7 @@ public final class SimulatorServer implements AutoCloseable {
         }
         try {
             s.setTcpNoDelay(true);
-            Arrival a = new Arrival(ch);
-            ClientConnection c = a.connection;
-            connections.add(c);
-            if (closed) {
-                c.close("server stopped");
-                return null;
-            }
-            if (c.faults().idleLimit() != null) {
-                startThread("zweep-sim-conn-" + c.id(), c::run); // its reads measure its idle time
-                return null;
-            }
-            ch.configureBlocking(false);
-            return a;
+            return new ClientConnection(this, ids.incrementAndGet(), socketLink(s), options.faults());
         } catch (IOException e) {
             log("cannot set up connection: " + e.getMessage());
             closeQuietly(s);
@@ -535,20 +313,12 @@ public final class SimulatorServer implements AutoCloseable {
     }
 
     private static Link socketLink(Socket s) throws IOException {
+        InputStream in = s.getInputStream();
         OutputStream out = s.getOutputStream();
         String peer = s.getInetAddress().getHostAddress() + ":" + s.getPort();
         return new Link() {
-            private InputStream in;
-
             @Override
-            public synchronized InputStream input() {
-                if (in == null) {
-                    try {
-                        in = s.getInputStream();
-                    } catch (IOException e) {
-                        throw new java.io.UncheckedIOException(e);
-                    }
-                }
+            public InputStream input() {
                 return in;
             }
 
@@ -653,7 +423,6 @@ public final class SimulatorServer implements AutoCloseable {
         if (listener != null) {
             try {
                 listener.close();
-                selector.close();
             } catch (IOException e) {
                 // closing is best effort
             }
@@ -663,7 +432,6 @@ public final class SimulatorServer implements AutoCloseable {
         }
         if (refusals != null) {
             refusals.shutdownNow();
-            watchdog.shutdownNow();
         }
         connectionThreads.shutdown();
         instrument.close();

@@ -4,7 +4,6 @@ import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertNull;
-import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.io.ByteArrayInputStream;
@@ -30,23 +29,6 @@ class MessageFramerTest {
         MessageFramer f = framer("*IDN?\nFREQ?\r\n".getBytes(StandardCharsets.US_ASCII), 100);
         assertEquals("*IDN?", text(f.next()));
         assertEquals("FREQ?\r", text(f.next()));
-        assertNull(f.next());
-    }
-
-    @Test
-    void preloadedBytesAreFramedBeforeTheStreamsAndOnlyWhenNothingIsLeftToFrame() throws IOException {
-        // bytes another reader took from the socket first: the first message and half of the second
-        MessageFramer f = framer("RY?\n*OPC?\n".getBytes(StandardCharsets.US_ASCII), 100);
-        byte[] first = "*IDN?\nFREQ:QUE".getBytes(StandardCharsets.US_ASCII);
-        f.preload(first, first.length);
-        assertTrue(f.messageBuffered(), "a whole message is already here");
-        assertEquals("*IDN?", text(f.next()));
-        assertFalse(f.messageBuffered(), "only part of the next one");
-        assertThrows(IllegalStateException.class, () -> f.preload(first, first.length), "bytes left to frame");
-        assertEquals("FREQ:QUERY?", text(f.next()));
-        assertEquals("*OPC?", text(f.next()));
-        f.preload(first, 6); // all framed: the next bytes may come from elsewhere again
-        assertEquals("*IDN?", text(f.next()));
         assertNull(f.next());
     }
 
