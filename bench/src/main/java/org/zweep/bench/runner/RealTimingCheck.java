@@ -10,7 +10,7 @@ import org.zweep.runner.engine.FixturePort;
 import org.zweep.runner.engine.RunSession;
 import org.zweep.runner.engine.ScpiMeterLink;
 import org.zweep.runner.plan.Plan;
-import org.zweep.runner.results.PointsCsvWriter;
+import org.zweep.runner.engine.RowSync;
 import org.zweep.runner.results.RunFolder;
 import org.zweep.runner.sequence.SequenceLoader;
 import org.zweep.runner.sim.InProcessSimulator;
@@ -45,16 +45,15 @@ public final class RealTimingCheck {
         int points = args.length > 1 ? Integer.parseInt(args[1]) : 200;
         Path dir = Files.createTempDirectory("zweep-timing");
         // the first run in a JVM pays for class loading and compilation (~0.5 s), not per point
-        runOnce(repo, dir, 50, 0, PointsCsvWriter.Sync.EACH_ROW, false);
+        runOnce(repo, dir, 50, 0, RowSync.BEFORE_NEXT, false);
         for (int list : new int[] {0, 201}) {
-            for (PointsCsvWriter.Sync sync : new PointsCsvWriter.Sync[] {PointsCsvWriter.Sync.EACH_ROW,
-                    PointsCsvWriter.Sync.BEHIND}) {
+            for (RowSync sync : RowSync.values()) {
                 runOnce(repo, dir, points, list, sync, true);
             }
         }
     }
 
-    private static void runOnce(Path repo, Path dir, int points, int list, PointsCsvWriter.Sync sync,
+    private static void runOnce(Path repo, Path dir, int points, int list, RowSync sync,
             boolean report)
             throws Exception {
         Path seq = BenchFiles.sweep(dir, BenchFiles.capacitorBench(repo), points, "20 ms");
@@ -82,7 +81,7 @@ public final class RealTimingCheck {
         }
         System.out.printf(Locale.ROOT,
                 "%s, rows synced %s: %d points, wall %.3f s, simulated meter time %.3f s, excess %.2f %%%n",
-                list == 0 ? "point by point" : "list sweep (201)", sync == PointsCsvWriter.Sync.EACH_ROW
+                list == 0 ? "point by point" : "list sweep (201)", sync == RowSync.BEFORE_NEXT
                         ? "before the next point" : "behind (overlapped)", plan.points().size(), wall, m,
                 100 * (wall - m) / m);
     }

@@ -2,7 +2,12 @@ package org.zweep.runner.engine;
 
 import org.zweep.runner.results.PointRow;
 
-/** Hears how a run goes, to show progress. Called from the engine's thread; every method does nothing by default. */
+/**
+ * Hears how a run goes, to show progress. {@link #measured} comes from the engine's writing thread,
+ * in the order the points are written, and so may overlap a {@link #note} or {@link #work} from the
+ * thread running the engine (a reconnect, a bias ramp): implementations must be thread-safe. Every
+ * method does nothing by default.
+ */
 public interface ProgressListener {
     /** Shows nothing ({@code --quiet}). */
     ProgressListener QUIET = new ProgressListener() {

@@ -7,6 +7,7 @@ import java.util.List;
 import java.util.Locale;
 import org.zweep.driver.MeterException;
 import org.zweep.driver.meter.FixtureState;
+import org.zweep.runner.plan.Wiring;
 import org.zweep.driver.meter.MeasuredQuantity;
 import org.zweep.driver.meter.MeasurementSetting;
 import org.zweep.driver.meter.Reading;
@@ -24,7 +25,11 @@ import org.zweep.runner.verdict.CheckEvaluator;
  * that differ only in frequency when the meter has one, point by point otherwise. A meter-reported
  * error stops the step it happened in (the next steps still run); a lost link that cannot be
  * re-opened, a safety refusal or a stop request stops the run. DC bias is off when
- * {@link #run} returns or throws, brought down at the step's ramp rate on every one of these ways. Not thread-safe; one run per engine.
+ * {@link #run} returns or throws, brought down at the step's ramp rate on every one of these ways.
+ * A trigger's rows are built, judged and written on a thread of the engine's own while the meter
+ * measures the next trigger, no further behind than the {@link RowSync} allows; every row read is
+ * written before {@link #run} returns. The meter is used from the caller's thread only. Not
+ * thread-safe; one run per engine.
  */
 public final class RunEngine {
     private final Plan plan;
@@ -35,6 +40,7 @@ public final class RunEngine {
     private final Interruption interruption;
     private final PointUncertainty uncertainty;
     private final Plausibility plausibility;
+    private final RowSync rowSync;
 
     /**
      * @param plan what to measure
@@ -55,6 +61,13 @@ public final class RunEngine {
      */
     public RunEngine(Plan plan, Station station, ReadingCorrector corrector, PointUncertainty uncertainty,
             CheckEvaluator checks, ProgressListener progress, Interruption interruption) {
+        this(plan, station, corrector, uncertainty, checks, progress, interruption, RowSync.BEHIND);
+    }
+
+    /** As above, with the rows made durable as {@code rowSync} says. */
+    public RunEngine(Plan plan, Station station, ReadingCorrector corrector, PointUncertainty uncertainty,
+            CheckEvaluator checks, ProgressListener progress, Interruption interruption, RowSync rowSync) {
+        this.rowSync = rowSync;
         this.plan = plan;
         this.station = station;
         this.corrector = corrector;
@@ -87,52 +100,75 @@ public final class RunEngine {
         List<String> problems = new ArrayList<>();
         RunResult.Outcome outcome = RunResult.Outcome.COMPLETED;
         progress.started(total, done.cardinality());
+        // which points to skip is decided on the rows on disk when the run began: the writing
+        // thread sets the bits of the points it writes meanwhile
+        BitSet onDisk = (BitSet) done.clone();
+        RowWritingThread rows = new RowWritingThread();
         try {
-            for (PlannedStep step : plan.steps()) {
-                if (step.points().stream().allMatch(p -> done.get(p.index()))) {
-                    continue;
+            try {
+                for (PlannedStep step : plan.steps()) {
+                    if (step.points().stream().allMatch(p -> onDisk.get(p.index()))) {
+                        continue;
+                    }
+                    stopIfRequested();
+                    try {
+                        runStep(step, onDisk, done, sink, total, rows);
+                    } catch (LinkLostException e) {
+                        throw e;
+                    } catch (MeterException e) {
+                        String line = "step '" + step.name() + "' stopped: " + e.getMessage();
+                        problems.add(line);
+                        rows.then(() -> progress.note(line));
+                        station.stopBias();
+                    }
                 }
-                stopIfRequested();
-                try {
-                    runStep(step, done, sink, total);
-                } catch (LinkLostException e) {
-                    throw e;
-                } catch (MeterException e) {
-                    String line = "step '" + step.name() + "' stopped: " + e.getMessage();
-                    problems.add(line);
-                    progress.note(line);
-                    station.stopBias();
+                if (!problems.isEmpty()) {
+                    outcome = RunResult.Outcome.FAILED;
                 }
-            }
-            if (!problems.isEmpty()) {
+            } catch (RunInterruptedException e) {
+                outcome = RunResult.Outcome.ABORTED;
+                problems.add("stopped: " + e.getMessage());
+            } catch (LinkLostException e) {
                 outcome = RunResult.Outcome.FAILED;
+                problems.add(e.getMessage());
+            } finally {
+                if (!station.stopBias()) {
+                    rows.then(() -> progress.note("WARNING: could not confirm that DC bias is off on " + station.address()
+                            + "; check the meter before touching the part"));
+                }
             }
-        } catch (RunInterruptedException e) {
-            outcome = RunResult.Outcome.ABORTED;
-            problems.add("stopped: " + e.getMessage());
-        } catch (LinkLostException e) {
-            outcome = RunResult.Outcome.FAILED;
-            problems.add(e.getMessage());
         } finally {
-            if (!station.stopBias()) {
-                progress.note("WARNING: could not confirm that DC bias is off on " + station.address()
-                        + "; check the meter before touching the part");
+            try {
+                // every row read from the meter is written before the run ends, whatever ended it
+                rows.close();
+            } finally {
+                progress.finished();
             }
-            progress.finished();
         }
         return new RunResult(outcome, total, done.cardinality(), problems);
     }
 
-    private void runStep(PlannedStep step, BitSet done, RowSink sink, int total) {
+    /**
+     * Measures {@code step}'s points not {@code onDisk}; their rows are written on {@code rows}'
+     * thread, which sets them in {@code done}.
+     */
+    private void runStep(PlannedStep step, BitSet onDisk, BitSet done, RowSink sink, int total, RowWritingThread rows) {
+        // every row so far is on disk before the operator may be asked for anything
+        rows.awaitBehind(0);
         station.insert(FixtureState.PART, step.prompt(), step.bias());
-        station.connect(step.points().get(0).wiring(), step.bias(), !step.prompt().isEmpty());
+        Wiring wiring = step.points().get(0).wiring();
+        station.connect(wiring, step.bias(), !step.prompt().isEmpty());
         int max = station.capabilities() == null ? 0 : station.capabilities().maxListPoints();
         for (List<PlannedPoint> chunk : chunks(step.points(), max)) {
-            stopIfRequested();
-            if (chunk.stream().allMatch(p -> done.get(p.index()))) {
+            if (chunk.stream().allMatch(p -> onDisk.get(p.index()))) {
                 continue;
             }
             PlannedPoint first = chunk.get(0);
+            // the rows on disk lag the meter by no more than the row sync allows, and not at all
+            // when the wiring changes (the operator may be asked to change it)
+            rows.awaitBehind(first.wiring() == wiring ? rowSync.triggersBehind() : 0);
+            wiring = first.wiring();
+            stopIfRequested();
             station.connect(first.wiring(), step.bias());
             List<Reading> readings = measure(chunk, step);
             List<String> problems = problems(readings);
@@ -140,35 +176,44 @@ public final class RunEngine {
                 if (!problems.get(i).isEmpty()) {
                     // measured again: a reading corrupted on the way comes back right, a real one comes back
                     // the same
-                    progress.note("point " + chunk.get(i).index() + ": " + problems.get(i) + "; measuring again");
+                    String line = "point " + chunk.get(i).index() + ": " + problems.get(i) + "; measuring again";
+                    rows.then(() -> progress.note(line));
                     readings = measure(chunk, step);
                     problems = problems(readings);
                     break;
                 }
             }
-            int last = chunk.size() - 1;
-            while (last > 0 && done.get(chunk.get(last).index())) {
-                last--;
-            }
-            for (int i = 0; i < chunk.size(); i++) {
-                PlannedPoint p = chunk.get(i);
-                if (done.get(p.index())) {
-                    continue;
-                }
-                Reading raw = readings.get(i);
-                PointRow row = row(p, step, corrector.correct(raw), uncertainty.of(raw));
-                if (!problems.get(i).isEmpty()) {
-                    progress.note("point " + p.index() + ": " + problems.get(i) + " again; stored with status"
-                            + " implausible");
-                    row = row.withStatus(IMPLAUSIBLE);
-                }
-                row = row.withCheck(checks.judge(row));
-                sink.write(row, i == last);
-                done.set(p.index());
-                progress.measured(row, done.cardinality(), total);
-            }
+            List<Reading> read = readings;
+            List<String> found = problems;
+            rows.trigger(() -> write(chunk, step, read, found, onDisk, done, sink, total));
         }
         station.rampBiasOff(step.bias());
+    }
+
+    /** Builds, judges and writes the rows of one trigger's {@code readings} (on the writing thread). */
+    private void write(List<PlannedPoint> chunk, PlannedStep step, List<Reading> readings, List<String> problems,
+            BitSet onDisk, BitSet done, RowSink sink, int total) {
+        int last = chunk.size() - 1;
+        while (last > 0 && onDisk.get(chunk.get(last).index())) {
+            last--;
+        }
+        for (int i = 0; i < chunk.size(); i++) {
+            PlannedPoint p = chunk.get(i);
+            if (onDisk.get(p.index())) {
+                continue;
+            }
+            Reading raw = readings.get(i);
+            PointRow row = row(p, step, corrector.correct(raw), uncertainty.of(raw));
+            if (!problems.get(i).isEmpty()) {
+                progress.note("point " + p.index() + ": " + problems.get(i) + " again; stored with status"
+                        + " implausible");
+                row = row.withStatus(IMPLAUSIBLE);
+            }
+            row = row.withCheck(checks.judge(row));
+            sink.write(row, i == last);
+            done.set(p.index());
+            progress.measured(row, done.cardinality(), total);
+        }
     }
 
     private List<Reading> measure(List<PlannedPoint> chunk, PlannedStep step) {

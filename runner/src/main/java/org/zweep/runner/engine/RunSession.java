@@ -48,20 +48,19 @@ public final class RunSession {
      * @param sweepChecks evaluates whole-sweep checks at the end
      * @param clock the wall clock
      * @param version the software version
-     * @param rowSync when rows reach the storage device: {@link PointsCsvWriter.Sync#BEHIND} (the
-     *     default, the run-folder contract) while the next point is measured, durable before the
-     *     point after it is triggered, or {@link PointsCsvWriter.Sync#EACH_ROW} before the next
-     *     point starts
+     * @param rowSync when rows reach the storage device: {@link RowSync#BEHIND} (the default, the
+     *     run-folder contract) while the next point is measured, durable before the point after it
+     *     is triggered, or {@link RowSync#BEFORE_NEXT} before the next point starts
      */
     public record Setup(RunFolder folder, boolean resuming, String sequenceFile, String dialect, Long seed,
             ReconnectPolicy reconnect, FixturePort fixture, ProgressListener progress, Interruption interruption,
             FixtureCompensation compensation, SweepChecks sweepChecks, Clock clock, String version,
-            PointsCsvWriter.Sync rowSync) {
+            RowSync rowSync) {
 
         /**
          * A builder for a run into {@code folder}: a fresh run, {@link ReconnectPolicy#DEFAULT}, no
          * compensation, no whole-sweep checks, quiet, the system clock in UTC, rows synced
-         * {@link PointsCsvWriter.Sync#BEHIND}; the fixture, dialect and sequence file must be set.
+         * {@link RowSync#BEHIND}; the fixture, dialect and sequence file must be set.
          */
         public static Builder builder(RunFolder folder) {
             return new Builder(folder);
@@ -82,7 +81,7 @@ public final class RunSession {
             private SweepChecks sweepChecks = SweepChecks.NONE;
             private Clock clock = Clock.systemUTC();
             private String version = "";
-            private PointsCsvWriter.Sync rowSync = PointsCsvWriter.Sync.BEHIND;
+            private RowSync rowSync = RowSync.BEHIND;
 
             private Builder(RunFolder folder) {
                 this.folder = folder;
@@ -161,7 +160,7 @@ public final class RunSession {
             }
 
             /** @see Setup#rowSync() */
-            public Builder rowSync(PointsCsvWriter.Sync v) {
+            public Builder rowSync(RowSync v) {
                 rowSync = v;
                 return this;
             }
@@ -254,7 +253,7 @@ public final class RunSession {
         station.watchBias(biasWatcher);
         station.reportWorkTo(progress::work);
         RunManifest manifest = null;
-        try (PointsCsvWriter writer = PointsCsvWriter.open(folder.points(), setup.rowSync())) {
+        try (PointsCsvWriter writer = PointsCsvWriter.open(folder.points(), PointsCsvWriter.Sync.EACH_ROW)) {
             Long seed = setup.seed();
             station.start();
             SafetyGuard.checkCapabilities(plan, station.capabilities(), "dialect " + setup.dialect());
@@ -269,8 +268,8 @@ public final class RunSession {
                 manifest.write(folder.manifest());
             }
             RunResult result = new RunEngine(plan, station, corrector,
-                    new PointUncertainty(link.accuracy().orElse(null), corrector), checks, progress, interruption)
-                    .run(done, writer::append);
+                    new PointUncertainty(link.accuracy().orElse(null), corrector), checks, progress, interruption,
+                    setup.rowSync()).run(done, writer::append);
             List<CheckOutcome> outcomes = List.of();
             String verdict = "none";
             if (result.outcome() == RunResult.Outcome.COMPLETED) {

@@ -7,50 +7,32 @@ import java.nio.channels.FileChannel;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Path;
 import java.nio.file.StandardOpenOption;
-import java.util.concurrent.ExecutionException;
-import java.util.concurrent.ExecutorService;
-import java.util.concurrent.Executors;
-import java.util.concurrent.Future;
 
 /**
  * Appends rows to a {@code points.csv}. A row asked to be synced (the last of a trigger: a point,
  * or a whole list sweep) is written to the operating system, with the rows of its trigger before
  * it, before {@link #append} returns, so killing the process ({@code kill -9}, a JVM crash) never
- * loses a trigger's rows once its last was appended. What a power cut or an operating-system crash
- * can lose depends on the {@link Sync} mode (the device cache is trusted to honour {@code fdatasync}):
- * <ul>
- *   <li>{@link Sync#BEHIND} (the run engine's): the sync runs on a background thread while the
- *       caller goes on (the next point is measured meanwhile); the next {@code append} first waits
- *       for it, so at most one sync is ever in flight and a row is durable before the trigger after
- *       next is sent. A power cut loses at most the point in progress <em>and</em> the one
- *       appended just before it (for list sweeps, the sweep in progress and the one before it).
- *   <li>{@link Sync#EACH_ROW}: a row asked to be synced is on the device when {@code append}
- *       returns; a power cut loses at most the point (or list sweep) in progress.
- *   <li>{@link Sync#NONE}: never synced before {@link #close()}; for benchmarks that measure
- *       what syncing costs.
- * </ul>
- * Writes the header when the file is new or empty.
+ * loses a trigger's rows once its last was appended. With {@link Sync#EACH_ROW} it is also on the
+ * storage device by then (the device cache is trusted to honour {@code fdatasync}); the run engine
+ * calls it on a thread of its own while the meter measures (see
+ * {@link org.zweep.runner.engine.RowSync}). Writes the header when the file is new or empty.
  *
- * <p>Not thread-safe: one run engine writes one file. I/O failures, a background sync's
- * included (reported by the next call, naming the file), are thrown as {@link UncheckedIOException}.
+ * <p>Not thread-safe: one run engine writes one file. I/O failures are thrown as
+ * {@link UncheckedIOException} naming the file.
  */
 public final class PointsCsvWriter implements AutoCloseable {
     /** When rows reach the storage device; see the class description for what each can lose. */
     public enum Sync {
         /** Synced before {@code append} returns. */
         EACH_ROW,
-        /** Synced in the background, at most one sync in flight. */
-        BEHIND,
-        /** Synced only on close. */
+        /** Synced only on close; for benchmarks that measure what syncing costs. */
         NONE
     }
 
     private final Path file;
     private final FileChannel channel;
     private final Sync mode;
-    private final ExecutorService syncer;
-    private Future<?> inFlight;
-    private volatile long durableBytes;
+    private long durableBytes;
     private long writtenBytes;
     /** Rows of one trigger held back at most this long before they go to the OS anyway. */
     private static final int HAND_OVER_BYTES = 1 << 16;
@@ -60,11 +42,6 @@ public final class PointsCsvWriter implements AutoCloseable {
         this.file = file;
         this.channel = channel;
         this.mode = mode;
-        this.syncer = mode == Sync.BEHIND ? Executors.newSingleThreadExecutor(r -> {
-            Thread t = new Thread(r, "zweep-points-sync");
-            t.setDaemon(true);
-            return t;
-        }) : null;
     }
 
     /**
@@ -109,15 +86,13 @@ public final class PointsCsvWriter implements AutoCloseable {
 
     /**
      * Appends {@code row}; when {@code sync} is true, syncs it and every row before it as the mode
-     * says (the engine asks once per list sweep, whose rows arrive together). Blocks first until
-     * a background sync still in flight has finished.
+     * says (the engine asks once per list sweep, whose rows arrive together).
      */
     public void append(PointRow row, boolean sync) {
         writeLine(PointsCsv.format(row), sync);
     }
 
     private void writeLine(String line, boolean syncNow) {
-        awaitInFlight();
         byte[] bytes = line.getBytes(StandardCharsets.UTF_8);
         if (buffer.remaining() < bytes.length + 1) {
             ByteBuffer bigger = ByteBuffer.allocate(Math.max(buffer.capacity() * 2, buffer.position() + bytes.length + 1));
@@ -142,14 +117,6 @@ public final class PointsCsvWriter implements AutoCloseable {
             buffer.clear();
             throw new UncheckedIOException("cannot write " + file + ": " + e.getMessage(), e);
         }
-        if (syncNow && mode == Sync.BEHIND) {
-            long upTo = writtenBytes;
-            inFlight = syncer.submit(() -> {
-                channel.force(false);
-                durableBytes = upTo;
-                return null;
-            });
-        }
     }
 
     /** How many bytes of the file a finished sync has made durable (for tests). */
@@ -157,46 +124,13 @@ public final class PointsCsvWriter implements AutoCloseable {
         return durableBytes;
     }
 
-    /** Waits, uninterruptibly, for the background sync in flight; rethrows its failure. */
-    private void awaitInFlight() {
-        Future<?> f = inFlight;
-        if (f == null) {
-            return;
-        }
-        inFlight = null;
-        boolean interrupted = false;
-        try {
-            while (true) {
-                try {
-                    f.get();
-                    return;
-                } catch (InterruptedException e) {
-                    interrupted = true;
-                } catch (ExecutionException e) {
-                    Throwable c = e.getCause();
-                    throw new UncheckedIOException("cannot sync " + file + ": " + c.getMessage(),
-                            c instanceof IOException io ? io : new IOException(c));
-                }
-            }
-        } finally {
-            if (interrupted) {
-                Thread.currentThread().interrupt();
-            }
-        }
-    }
-
     /**
-     * Waits for a background sync, syncs and closes the file; I/O failures are thrown as
-     * {@link UncheckedIOException} (the file is closed all the same).
+     * Syncs and closes the file; I/O failures are thrown as {@link UncheckedIOException} (the file
+     * is closed all the same).
      */
     @Override
     public void close() {
         UncheckedIOException failure = null;
-        try {
-            awaitInFlight();
-        } catch (UncheckedIOException e) {
-            failure = e;
-        }
         try {
             if (channel.isOpen()) {
                 buffer.flip();
@@ -211,10 +145,6 @@ public final class PointsCsvWriter implements AutoCloseable {
         } catch (IOException e) {
             if (failure == null) {
                 failure = new UncheckedIOException("cannot close " + file + ": " + e.getMessage(), e);
-            }
-        } finally {
-            if (syncer != null) {
-                syncer.shutdown();
             }
         }
         if (failure != null) {

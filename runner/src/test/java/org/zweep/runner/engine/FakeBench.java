@@ -65,6 +65,8 @@ final class FakeBench {
     org.zweep.driver.meter.CorrectionStyle correctionStyle = org.zweep.driver.meter.CorrectionStyle.WHOLE_RANGE;
     /** Whether the meter has a fixture of its own (every state). */
     boolean simulator = true;
+    /** Called as each trigger (a point or a list) is sent. */
+    Runnable onTrigger = () -> { };
     /** Whether the meter can be asked what bias it holds (then a reconnect keeps the bias where it was). */
     boolean readsBias;
 
@@ -157,6 +159,7 @@ final class FakeBench {
         @Override
         public Reading measure() {
             live();
+            onTrigger.run();
             measures++;
             if (dropAtMeasure.contains(measures)) {
                 broken = true;
@@ -178,6 +181,7 @@ final class FakeBench {
 
         @Override
         public List<Reading> measureList(List<MeasurementSetting> settings) {
+            onTrigger.run();
             live();
             measures++;
             if (dropAtMeasure.contains(measures)) {
