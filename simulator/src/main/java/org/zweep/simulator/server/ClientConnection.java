@@ -59,12 +59,6 @@ final class ClientConnection implements Session.Hooks {
         this.faults = new ConnectionFaults(plan, id);
         this.session = server.instrument().openSession(this);
         session.attach(this);
-        server.log("connection " + id + " from " + link.peer() + " opened");
-    }
-
-    /** Whether the connection has closed. */
-    boolean isClosed() {
-        return closed;
     }
 
     long id() {
@@ -94,6 +88,7 @@ final class ClientConnection implements Session.Hooks {
         synchronized (this) {
             readerThread = Thread.currentThread();
         }
+        server.log("connection " + id + " from " + link.peer() + " opened");
         framer = new MessageFramer(link.input(), server.options().maxMessageBytes());
         try {
             int timeoutMs = 0;

@@ -6,14 +6,8 @@ import java.io.OutputStream;
 import java.net.InetSocketAddress;
 import java.net.ServerSocket;
 import java.net.Socket;
-import java.nio.ByteBuffer;
-import java.nio.channels.SelectionKey;
-import java.nio.channels.Selector;
 import java.nio.channels.ServerSocketChannel;
 import java.nio.channels.SocketChannel;
-import java.util.ArrayList;
-import java.util.Iterator;
-import java.util.List;
 import java.util.Set;
 import java.nio.charset.StandardCharsets;
 import java.util.concurrent.ArrayBlockingQueue;
@@ -33,10 +27,9 @@ import org.zweep.simulator.scpi.Instrument;
  * <p>State model: one {@link Instrument} (settings, measurement data, status registers, error
  * queue) is shared by every connection, as on a real meter with several remote clients; each
  * connection has its own parser and header path, output queue, strictness
- * and faults. One selector thread accepts TCP connections and holds each without a thread until
- * its first message has arrived whole; from then on a connection is served by its own reader and
- * writer threads, so a slow, silent or non-reading client never blocks another (a connection's
- * first few replies go out from its reader, before it has a writer). TCP connections are capped
+ * and faults. Each connection is served by its own reader and writer threads, so a slow, silent
+ * or non-reading client never blocks another (a new connection's first few replies go out from its
+ * reader, before it has a writer). TCP connections are capped
  * ({@link ServerOptions#maxConnections()}): one more is told why in one line and closed.
  *
  * <p>Thread-safe. {@link #close()} stops accepting, closes every connection and stops the meter.
@@ -47,10 +40,8 @@ public final class SimulatorServer implements AutoCloseable {
     private final ServerOptions options;
     private final Instrument instrument;
     private final ServerSocket listener;
-    /** The listener's channel, non-blocking, on {@link #selector}. */
+    /** The listener's channel: accepts without blocking when the backlog is to be drained. */
     private final ServerSocketChannel listenerChannel;
-    /** Accepting and the connections that have not sent their first message yet (see {@link #selectLoop()}). */
-    private final Selector selector;
     private final Set<ClientConnection> connections = ConcurrentHashMap.newKeySet();
     private final AtomicLong ids = new AtomicLong();
     /** TCP connections taken from the backlog, refused ones included. */
@@ -99,21 +90,10 @@ public final class SimulatorServer implements AutoCloseable {
                 return t;
             }, (r, pool) -> ((Refusal) r).close());
             ((ThreadPoolExecutor) refusals).allowCoreThreadTimeOut(true);
-            try {
-                this.selector = Selector.open();
-                ch.configureBlocking(false);
-                ch.register(selector, SelectionKey.OP_ACCEPT);
-            } catch (IOException e) {
-                s.close();
-                instrument.close();
-                throw new IOException("cannot listen on " + options.bindAddress().getHostAddress() + ":" + options.port()
-                        + ": " + e.getMessage(), e);
-            }
-            startThread(selectorName(), this::selectLoop);
+            startThread(acceptorName(), this::acceptLoop);
         } else {
             this.listener = null;
             this.listenerChannel = null;
-            this.selector = null;
             this.refusals = null;
         }
     }
@@ -200,155 +180,65 @@ public final class SimulatorServer implements AutoCloseable {
         return new InMemoryConnection(toServer, toClient);
     }
 
-    private String selectorName() {
-        return "zweep-sim-select-" + listener.getLocalPort();
+    private String acceptorName() {
+        return "zweep-sim-accept-" + listener.getLocalPort();
     }
 
     /**
-     * The selector thread: accepts connections and holds each, without a thread of its own, until
-     * its first message has arrived whole (an LF; or {@value #FIRST_BYTES} bytes): idle and
-     * half-sent connections cost no thread, and a burst of them makes no threads runnable. A
-     * connection whose first message has arrived gets a connection thread from then on
-     * ({@link ClientConnection#run()}, given the bytes read here first). This thread only accepts
-     * and reads without blocking, so it is never held up by a connection: it stays the one thread
-     * that accepts (handing this role on to a new thread with each connection made a burst of
-     * connections with messages a chain of hand-offs that held a new client up).
+     * Accepts connections. When a connection arrives alone (nothing more in the backlog), this
+     * thread serves it itself and another takes over accepting: a new client's first message then
+     * waits for no hand-off between threads. A burst is set up for connection threads one by one,
+     * and the last of it served here.
      */
-    private void selectLoop() {
-        ByteBuffer buffer = ByteBuffer.allocate(FIRST_BYTES);
-        List<Arrival> ready = new ArrayList<>();
+    private void acceptLoop() {
         while (!closed) {
+            ClientConnection here = null;
             try {
-                selector.select();
-                for (Iterator<SelectionKey> it = selector.selectedKeys().iterator(); it.hasNext();) {
-                    SelectionKey k = it.next();
-                    it.remove();
-                    if (!k.isValid()) {
-                        continue;
+                SocketChannel s = listenerChannel.accept();
+                for (SocketChannel next = acceptWaiting(); next != null; next = acceptWaiting()) {
+                    ClientConnection c = admit(s);
+                    if (c != null) {
+                        serve(c);
                     }
-                    if (k.isAcceptable()) {
-                        for (SocketChannel ch = acceptWaiting(); ch != null; ch = acceptWaiting()) {
-                            Arrival a = admit(ch);
-                            if (a == null) {
-                                continue;
-                            }
-                            if (a.firstMessage(buffer)) {
-                                a.serve(); // never registered: it may block at once
-                            } else if (!a.connection.isClosed()) {
-                                a.register();
-                            }
-                        }
-                    } else if (k.isReadable() && k.attachment() instanceof Arrival a && a.firstMessage(buffer)) {
-                        k.cancel();
-                        ready.add(a);
-                    }
+                    s = next;
                 }
-                if (!ready.isEmpty()) {
-                    selector.selectNow(); // deregisters the cancelled keys: their channels may block again
-                    ready.forEach(Arrival::serve);
-                    ready.clear();
-                }
-            } catch (java.nio.channels.ClosedSelectorException e) {
-                return;
+                here = admit(s);
             } catch (IOException e) {
                 if (!closed) {
-                    log("accepting connections failed: " + e.getMessage());
+                    log("accept failed: " + e.getMessage());
                 }
+                continue;
             }
-        }
-    }
-
-    /** The most a connection sends before it gets a thread: its first message, or this much of it. */
-    static final int FIRST_BYTES = 8192;
-
-    /**
-     * A TCP connection before it has a thread: its channel and the bytes it sent so far (guarded by
-     * the selector thread, then handed to the connection's thread with the connection).
-     */
-    private final class Arrival {
-        final SocketChannel channel;
-        final ClientConnection connection;
-        byte[] bytes = new byte[0];
-
-        Arrival(SocketChannel channel) throws IOException {
-            this.channel = channel;
-            this.connection = new ClientConnection(SimulatorServer.this, ids.incrementAndGet(),
-                    socketLink(channel.socket(), () -> bytes), options.faults());
-        }
-
-        /**
-         * Reads what the client sent without blocking: whether the connection is to get its thread
-         * now (its first message is whole, or {@link #FIRST_BYTES} bytes of it are here). A client
-         * that closes with only part of a message sent is closed here.
-         */
-        boolean firstMessage(ByteBuffer buffer) {
-            if (connection.isClosed()) {
-                return false;
-            }
-            try {
-                buffer.clear().limit(FIRST_BYTES - bytes.length);
-                int n = channel.read(buffer);
-                if (n < 0) {
-                    connection.close("client closed"); // a partial first message is dropped
-                    return false;
+            if (here != null) {
+                connections.add(here);
+                if (closed) {
+                    here.close("server stopped");
+                    return;
                 }
-                if (n == 0) {
-                    return false;
-                }
-                int old = bytes.length;
-                bytes = java.util.Arrays.copyOf(bytes, old + n);
-                buffer.flip().get(bytes, old, n);
-                for (int i = old; i < bytes.length; i++) {
-                    if (bytes[i] == '\n') {
-                        return true;
-                    }
-                }
-                return bytes.length >= FIRST_BYTES;
-            } catch (IOException e) {
-                connection.close("connection lost: " + e.getMessage());
-                return false;
-            }
-        }
-
-        /** Waits on the selector for the first message. */
-        void register() {
-            try {
-                channel.register(selector, SelectionKey.OP_READ, this);
-            } catch (IOException e) {
-                connection.close("cannot set up connection: " + e.getMessage()); // closed meanwhile
-            }
-        }
-
-        /** Gives the connection its thread, its channel blocking again (no longer on the selector). */
-        void serve() {
-            try {
-                channel.configureBlocking(true);
-            } catch (IOException | java.nio.channels.IllegalBlockingModeException e) {
-                connection.close("cannot set up connection: " + e.getMessage());
+                startThread(acceptorName(), this::acceptLoop);
+                Thread.currentThread().setName("zweep-sim-conn-" + here.id());
+                here.run();
                 return;
             }
-            startThread("zweep-sim-conn-" + connection.id(), connection::run);
         }
     }
 
     /** The next connection of the backlog, or null when none is waiting (or the listener failed). */
     private SocketChannel acceptWaiting() {
         try {
-            return listenerChannel.accept();
-        } catch (IOException e) {
-            if (!closed) {
-                log("accept failed: " + e.getMessage());
+            listenerChannel.configureBlocking(false);
+            try {
+                return listenerChannel.accept();
+            } finally {
+                listenerChannel.configureBlocking(true);
             }
-            return null;
+        } catch (IOException e) {
+            return null; // the blocking accept that follows reports it
         }
     }
 
-    /**
-     * The arrival of {@code ch}'s connection (counted as open from now), its channel non-blocking;
-     * null when it was refused (the cap), could not be set up, or got its thread at once (a
-     * connection with an idle-time fault: its reads measure its idle time).
-     */
-    private Arrival admit(SocketChannel ch) {
+    /** The connection for {@code ch}, or null when it was refused (the cap) or could not be set up. */
+    private ClientConnection admit(SocketChannel ch) {
         tcpHandled.incrementAndGet();
         Socket s = ch.socket();
         if (connections.size() >= options.maxConnections()) {
@@ -357,19 +247,7 @@ public final class SimulatorServer implements AutoCloseable {
         }
         try {
             s.setTcpNoDelay(true);
-            Arrival a = new Arrival(ch);
-            ClientConnection c = a.connection;
-            connections.add(c);
-            if (closed) {
-                c.close("server stopped");
-                return null;
-            }
-            if (c.faults().idleLimit() != null) {
-                startThread("zweep-sim-conn-" + c.id(), c::run); // its reads measure its idle time
-                return null;
-            }
-            ch.configureBlocking(false);
-            return a;
+            return new ClientConnection(this, ids.incrementAndGet(), socketLink(s), options.faults());
         } catch (IOException e) {
             log("cannot set up connection: " + e.getMessage());
             closeQuietly(s);
@@ -434,21 +312,13 @@ public final class SimulatorServer implements AutoCloseable {
         return outputBytes.get();
     }
 
-    /**
-     * The link over {@code s}; its input gives the bytes {@code first} returns (read before the
-     * connection had a thread) before those of the socket.
-     */
-    private static Link socketLink(Socket s, java.util.function.Supplier<byte[]> first) throws IOException {
+    private static Link socketLink(Socket s) throws IOException {
+        InputStream in = s.getInputStream();
         OutputStream out = s.getOutputStream();
         String peer = s.getInetAddress().getHostAddress() + ":" + s.getPort();
         return new Link() {
-            private InputStream in;
-
             @Override
-            public synchronized InputStream input() {
-                if (in == null) {
-                    in = new FirstBytesInput(first.get(), s);
-                }
+            public InputStream input() {
                 return in;
             }
 
@@ -472,40 +342,6 @@ public final class SimulatorServer implements AutoCloseable {
                 return peer;
             }
         };
-    }
-
-    /** A socket's input after the bytes already read from it. */
-    private static final class FirstBytesInput extends InputStream {
-        private final byte[] first;
-        private int pos;
-        private final Socket socket;
-        private InputStream rest;
-
-        FirstBytesInput(byte[] first, Socket socket) {
-            this.first = first;
-            this.socket = socket;
-        }
-
-        @Override
-        public int read() throws IOException {
-            byte[] one = new byte[1];
-            int n = read(one, 0, 1);
-            return n < 0 ? -1 : one[0] & 0xFF;
-        }
-
-        @Override
-        public int read(byte[] b, int off, int len) throws IOException {
-            if (pos < first.length) {
-                int n = Math.min(len, first.length - pos);
-                System.arraycopy(first, pos, b, off, n);
-                pos += n;
-                return n;
-            }
-            if (rest == null) {
-                rest = socket.getInputStream();
-            }
-            return rest.read(b, off, len);
-        }
     }
 
     private void serve(ClientConnection c) {
@@ -587,7 +423,6 @@ public final class SimulatorServer implements AutoCloseable {
         if (listener != null) {
             try {
                 listener.close();
-                selector.close();
             } catch (IOException e) {
                 // closing is best effort
             }

@@ -65,6 +65,7 @@ class ServerSoakIT {
             try (BufferedReader said = new BufferedReader(new InputStreamReader(attackers.getInputStream(), StandardCharsets.US_ASCII));
                     Writer answer = new OutputStreamWriter(attackers.getOutputStream(), StandardCharsets.US_ASCII)) {
                 Cpu cpuAtStart = null;
+                long[] warmUpProbes = {0};
                 int probesAtStart = 0;
                 String line;
                 while ((line = said.readLine()) != null) {
@@ -75,12 +76,20 @@ class ServerSoakIT {
                         // they opened taken from the backlog (a count alone passed while some still waited
                         // there, and the next attack then met the cap), and none but the probe's open
                         long attackersOpened = Long.parseLong(line.substring(8));
-                        ServerLimitsIT.awaitTrue(() -> server.tcpConnectionsHandled() >= attackersOpened + probe.connects()
+                        ServerLimitsIT.awaitTrue(() -> server.tcpConnectionsHandled() >= attackersOpened + warmUpProbes[0] + probe.connects()
                                 && server.connectionCount() <= (probe.connected ? 1 : 0), "the attackers' connections closed");
                         answer.write("ok\n");
                         answer.flush();
                     } else if (line.equals("warm")) {
-                        // warm-up done: threads, JIT and buffers reached their steady state
+                        // warm-up done: threads, JIT and buffers reached their steady state; the probe's own
+                        // client code too (run interpreted, it held the first batch's probes up by 5-10 ms)
+                        settle(server);
+                        for (int i = 0; i < PROBE_WARM_UP; i++) {
+                            warmUpProbes[0]++;
+                            try (RawClient c = new RawClient(server)) {
+                                assertEquals(IDN, c.query("*IDN?"), "warm-up probe");
+                            }
+                        }
                         settle(server);
                         heapBefore = heapUsed();
                         threadsBefore = threads();
@@ -145,18 +154,26 @@ class ServerSoakIT {
             // find a quiet one; if none was, the latency is not judged, which is said (a skipped
             // test), not passed.
             //
-            // THE GOAL IS NOT MET, so it is not what is asserted here. On the development machine
-            // (2 cores, a shared virtual machine), in quiet 10-round batches, the median probe took
-            // 0.6–1.3 ms but the slowest 8–50 ms (95 % within 2–16 ms): about one batch in four
-            // stays within 10 ms. Timestamps inside the server put the slow probes' time in waiting
-            // for a processor: the accepting thread to wake, the connection's thread to start (a
-            // burst of 20 or 60 new connections makes as many threads runnable at once), sometimes
-            // the probe's own connect; executing and writing took well under a millisecond, turns
-            // no longer waited. The step that is left is a server that gives a connection a thread
-            // only while it has a message to execute (a selector for the others). What is asserted
-            // are bounds that catch a regression to what was measured before this work (slowest
-            // 22–42 ms with the attackers in this JVM, 60–450 ms before the connection threads
-            // were pooled): the median within 5 ms and the slowest within 100 ms.
+            // The goal is met on most quiet batches but not reliably enough to be what is asserted.
+            // On the development machine (2 cores, a shared virtual machine), 10-round batches
+            // during which the rest of the machine was quiet: the slowest probe within 10 ms in 23
+            // of 25 batches (2.0–8.1 ms; the others 13.5 and 15.6 ms), the first batch (the judged
+            // one) in 5 of 7; the median probe 0.5–0.8 ms. Most of what was measured before (slowest 8–50 ms, about
+            // one batch in four within 10 ms) came from this test, not the server: the wait between
+            // attacks passed while the last attack's connections still waited in the server's
+            // backlog, so the attacks overlapped (60 idle connections on top of 20 non-readers, the
+            // cap refusing the attackers and once the probe), and the probe's own client code ran
+            // interpreted through the first batch (it now warms up first). Three server designs were
+            // measured against the same test: the one here (the accepting thread serves a lone new
+            // connection itself, another takes over accepting) did best; a selector thread holding
+            // each connection until its first message, then handing it to a pooled thread, did
+            // worse (2 of 4 quiet batches over 10 ms: the hand-off to a thread that had just run a
+            // flood waited for a processor); the selector executing a waiting client's message
+            // itself did no better (1 of 8 over 10 ms). The tail that is left is waiting for a
+            // processor and garbage-collection pauses of 2–9 ms on a machine the soak keeps busy.
+            // What is asserted are bounds that catch a regression to what was measured before this
+            // work (slowest 22–42 ms with the attackers in this JVM, 60–450 ms before the connection
+            // threads were pooled): the median within 5 ms and the slowest within 100 ms.
             Batch judged = batches.stream().filter(Batch::quiet).findFirst().orElse(null);
             assumeTrue(judged != null, () -> "fresh-client latency not judged: other processes used "
                     + batches.stream().map(b -> String.format("%.0f %%", b.othersPercent())).toList()
@@ -173,6 +190,8 @@ class ServerSoakIT {
     /** Other processes' CPU, in percent of one core, up to which a batch is judged. */
     private static final double QUIET_OTHERS_PERCENT = 25;
     private static final int MAX_BATCHES = 3;
+    /** Probes before the measured ones, once the attackers' warm-up is done (theirs is not the probe's code). */
+    private static final int PROBE_WARM_UP = Integer.getInteger("zweep.soak.probeWarmUp", 300);
     /**
      * How far apart the idle attack opens its connections (0: all at once, the attack as issue 17
      * describes it); {@code -Dzweep.soak.idleGapMicros=N} to see what pacing changes.
