@@ -44,27 +44,28 @@ final class RowWritingThread implements AutoCloseable {
                     work.run();
                 }
             } catch (RuntimeException e) {
-                synchronized (lock) {
-                    if (failure == null) {
-                        failure = e;
-                    }
-                }
+                fail(e);
             } catch (Error e) {
-                synchronized (lock) {
-                    if (failure == null) {
-                        failure = new IllegalStateException("writing the rows failed: " + e, e);
-                    }
-                }
+                fail(new IllegalStateException("writing the rows failed: " + e, e));
                 throw e;
             } finally {
-                if (counts) {
-                    synchronized (lock) {
+                synchronized (lock) {
+                    if (counts) {
                         finished++;
-                        lock.notifyAll();
                     }
+                    lock.notifyAll(); // a waiter wakes for a finished trigger or a failure
                 }
             }
         });
+    }
+
+    /** Keeps the work's first failure. */
+    private void fail(RuntimeException e) {
+        synchronized (lock) {
+            if (failure == null) {
+                failure = e;
+            }
+        }
     }
 
     private RuntimeException failed() {

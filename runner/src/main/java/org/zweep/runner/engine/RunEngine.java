@@ -7,7 +7,6 @@ import java.util.List;
 import java.util.Locale;
 import org.zweep.driver.MeterException;
 import org.zweep.driver.meter.FixtureState;
-import org.zweep.runner.plan.Wiring;
 import org.zweep.driver.meter.MeasuredQuantity;
 import org.zweep.driver.meter.MeasurementSetting;
 import org.zweep.driver.meter.Reading;
@@ -16,6 +15,7 @@ import org.zweep.driver.uncertainty.UncertainImpedance;
 import org.zweep.runner.plan.Plan;
 import org.zweep.runner.plan.PlannedPoint;
 import org.zweep.runner.plan.PlannedStep;
+import org.zweep.runner.plan.Wiring;
 import org.zweep.runner.results.PointRow;
 import org.zweep.runner.verdict.CheckEvaluator;
 

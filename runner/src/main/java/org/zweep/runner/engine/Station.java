@@ -376,7 +376,6 @@ public final class Station {
         }
     }
 
-    /** Whether {@code b} is what the meter holds now: no ramp, no settling before measuring at it. */
     /**
      * Whether {@link #measure} sends a point's setting and trigger together ({@link Meter#measureAt}):
      * no delay before it, and the meter already holds its bias (nothing to ramp or settle). The

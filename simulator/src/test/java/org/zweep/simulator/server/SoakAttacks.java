@@ -94,13 +94,7 @@ final class SoakAttacks {
         }
         phase("non-readers");
         // twenty clients that never read
-        List<RawClient> quiet = new ArrayList<>();
-        for (int i = 0; i < 20; i++) {
-            RawClient c = client();
-            quiet.add(c);
-            c.sendRaw(repeated("*IDN?", 3000));
-        }
-        closeAll(quiet);
+        closeAll(sendingEach(20, repeated("*IDN?", 3000)));
         awaitClosed();
         phase("idle");
         // idle connections up to a few below the cap (the probe needs a free slot)
@@ -146,18 +140,23 @@ final class SoakAttacks {
         }
         phase("half-open");
         // half-open: a partial message, then the client vanishes
-        List<RawClient> partial = new ArrayList<>();
-        for (int i = 0; i < 20; i++) {
-            RawClient c = client();
-            partial.add(c);
-            c.sendRaw("SOUR:FREQ 1".getBytes(StandardCharsets.US_ASCII));
-        }
-        closeAll(partial);
+        closeAll(sendingEach(20, "SOUR:FREQ 1".getBytes(StandardCharsets.US_ASCII)));
         awaitClosed();
     }
 
     static byte[] repeated(String message, int times) {
         return (message + "\n").repeat(times).getBytes(StandardCharsets.US_ASCII);
+    }
+
+    /** {@code n} new clients, each having sent {@code bytes} (and read nothing). */
+    private List<RawClient> sendingEach(int n, byte[] bytes) throws IOException {
+        List<RawClient> clients = new ArrayList<>();
+        for (int i = 0; i < n; i++) {
+            RawClient c = client();
+            clients.add(c);
+            c.sendRaw(bytes);
+        }
+        return clients;
     }
 
     private static void closeAll(List<RawClient> clients) throws IOException {
