@@ -10,6 +10,11 @@ import org.junit.jupiter.api.io.TempDir;
 import org.zweep.runner.plan.Plan;
 import org.zweep.runner.sequence.SequenceLoader;
 
+/**
+ * The estimate's own arithmetic, worked by hand from the sequence, standard.yaml's [timing] and the
+ * estimator's constants beside each check: no outside value is compared here, so no source is
+ * named (how close an estimate comes to a real run is RealTimingRunIT's).
+ */
 class RunEstimateTest {
     @TempDir
     Path dir;
